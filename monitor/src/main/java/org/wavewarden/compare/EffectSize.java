@@ -1,0 +1,27 @@
+package org.wavewarden.compare;
+
+/**
+ * A signed effect size (current wave relative to the baseline) with its confidence interval.
+ *
+ * @param name       the measure, e.g. "Hedges' g", "Cliff's delta", "Cramér's V", "risk difference"
+ * @param estimate   the point estimate; positive means the current wave is larger / higher
+ * @param ciLow      lower confidence limit
+ * @param ciHigh     upper confidence limit
+ * @param confidence the confidence level of the interval, e.g. 0.95
+ */
+public record EffectSize(String name, double estimate, double ciLow, double ciHigh, double confidence) {
+
+    public EffectSize {
+        if (!(confidence > 0 && confidence < 1)) {
+            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
+        }
+        if (ciLow > ciHigh) {
+            throw new IllegalArgumentException("ciLow " + ciLow + " exceeds ciHigh " + ciHigh + " for " + name);
+        }
+    }
+
+    /** The interval lies strictly inside (-threshold, threshold). */
+    public boolean intervalWithin(double threshold) {
+        return ciLow > -threshold && ciHigh < threshold;
+    }
+}
