@@ -1,0 +1,219 @@
+package org.wavewarden.compare;
+
+import org.wavewarden.compare.categorical.ChiSquareHomogeneity;
+import org.wavewarden.compare.categorical.ChiSquareResult;
+import org.wavewarden.compare.categorical.CramersV;
+import org.wavewarden.compare.categorical.FisherExact;
+import org.wavewarden.compare.categorical.MonteCarloExactTest;
+import org.wavewarden.compare.location.HedgesG;
+import org.wavewarden.compare.location.LocationTestChoice;
+import org.wavewarden.compare.location.MeanDifference;
+import org.wavewarden.compare.location.WelchTTest;
+import org.wavewarden.compare.proportion.CohensH;
+import org.wavewarden.compare.proportion.TwoProportionResult;
+import org.wavewarden.compare.proportion.TwoProportionZTest;
+import org.wavewarden.compare.rank.CliffsDelta;
+import org.wavewarden.compare.rank.HodgesLehmann;
+import org.wavewarden.compare.rank.MannWhitneyTest;
+import org.wavewarden.compare.rank.RankSumResult;
+import org.wavewarden.compare.shape.KolmogorovSmirnovResult;
+import org.wavewarden.compare.shape.KolmogorovSmirnovTest;
+import org.wavewarden.compare.shape.Wasserstein;
+import org.wavewarden.config.Threshold;
+import org.wavewarden.judge.FindingKind;
+import org.wavewarden.profile.CategoryCounts;
+import org.wavewarden.profile.NumericDistribution;
+
+import java.util.ArrayList;
+import java.util.List;
+
+/**
+ * Picks the right test and effect size for a variable's kind and runs them on two waves' frequency tables.
+ * Each method here only chooses and assembles; every number is computed by the cited classes it calls.
+ */
+public final class VariableComparator {
+
+    /** Monte Carlo replicates for tables that fail Cochran's rule; the seed makes the p-value reproducible. */
+    static final int MONTE_CARLO_REPLICATES = 20_000;
+    static final long MONTE_CARLO_SEED = 20_061_975L;
+
+    private final double confidence;
+
+    public VariableComparator(double confidence) {
+        if (!(confidence > 0 && confidence < 1)) {
+            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
+        }
+        this.confidence = confidence;
+    }
+
+    /** Location detail of a continuous or ordinal comparison. */
+    public record LocationDetail(String testChoice, double meanBaseline, double meanCurrent, double medianBaseline,
+                                 double medianCurrent, double sdBaseline, double sdCurrent, EffectSize standardized,
+                                 EffectSize rawShift, double ksD, double ksPValue, double wasserstein) {
+    }
+
+    /** One category's row of a categorical comparison. */
+    public record CategoryRow(String category, long countBaseline, long countCurrent, double shareBaseline,
+                              double shareCurrent, double adjustedResidual) {
+    }
+
+    public record CategoryDetail(List<CategoryRow> categories, boolean cochranSatisfied, String cochranNote,
+                                 double cramersVBiasCorrected, String primaryTestNote) {
+    }
+
+    public record ProportionDetail(String successValue, double shareBaseline, double shareCurrent,
+                                   EffectSize riskDifference, EffectSize cohensH, String primaryTestNote) {
+    }
+
+    /**
+     * Continuous variables: Welch t with Hedges' g, or Mann-Whitney with Cliff's delta, as
+     * {@link LocationTestChoice} decides. Ordinal variables: always the rank methods.
+     */
+    public Comparison numeric(String variable, boolean ordinal, NumericDistribution baseline,
+                              NumericDistribution current, Threshold configured, String unit) {
+        LocationTestChoice.Choice choice = ordinal
+                ? new LocationTestChoice.Choice(LocationTestChoice.LocationTest.MANN_WHITNEY, "ordinal scale: rank methods")
+                : LocationTestChoice.choose(baseline, current);
+        KolmogorovSmirnovResult ks = KolmogorovSmirnovTest.test(baseline, current);
+        double w1 = Wasserstein.distance(baseline, current);
+        double medB = median(baseline);
+        double medC = median(current);
+        String name = variable;
+        if (choice.test() == LocationTestChoice.LocationTest.WELCH_T) {
+            MeanDifference md = WelchTTest.test(baseline, current, confidence);
+            EffectSize g = HedgesG.estimate(baseline, current, confidence);
+            EffectSize raw = new EffectSize("mean difference", md.difference(), md.ciLow(), md.ciHigh(), confidence);
+            Thresholds.Resolved t = Thresholds.resolve(configured, g.name(), Thresholds.HEDGES_G, unit);
+            LocationDetail d = new LocationDetail(choice.reason(), md.meanBaseline(), md.meanCurrent(), medB, medC,
+                    baseline.standardDeviation(), current.standardDeviation(), g, raw, ks.d(), ks.test().pValue(), w1);
+            Change change = new Change("mean " + name, md.meanBaseline(), md.meanCurrent(), false, unit,
+                    md.ciLow(), md.ciHigh(), "");
+            return new Comparison(variable, FindingKind.SHIFT, md.test(), t.rawScale() ? raw : g, t.value(), t.source(),
+                    baseline.n(), current.n(), change, d);
+        }
+        RankSumResult mw = MannWhitneyTest.test(baseline, current);
+        EffectSize delta = CliffsDelta.estimate(baseline, current, confidence);
+        EffectSize hl = HodgesLehmann.estimate(baseline, current, confidence);
+        Thresholds.Resolved t = Thresholds.resolve(configured, delta.name(), Thresholds.CLIFFS_DELTA, unit);
+        LocationDetail d = new LocationDetail(choice.reason(), baseline.mean(), current.mean(), medB, medC,
+                baseline.standardDeviation(), current.standardDeviation(), delta, hl, ks.d(), ks.test().pValue(), w1);
+        Change change = ordinal
+                ? new Change("mean " + name, baseline.mean(), current.mean(), false, unit, Double.NaN, Double.NaN,
+                "Cliff's delta " + signed(delta.estimate(), 3))
+                : new Change("median " + name, medB, medC, false, unit, hl.ciLow(), hl.ciHigh(),
+                "Hodges-Lehmann shift " + signed(hl.estimate(), 3));
+        return new Comparison(variable, FindingKind.SHIFT, mw.test(), t.rawScale() ? hl : delta, t.value(), t.source(),
+                baseline.n(), current.n(), change, d);
+    }
+
+    /**
+     * Categorical variables: Pearson's chi-square of homogeneity with Cramér's V; when Cochran's rule fails,
+     * Fisher's exact test (2 x 2) or a seeded Monte Carlo exact p-value (larger tables) replaces its p-value.
+     */
+    public Comparison categorical(String variable, CategoryCounts baseline, CategoryCounts current,
+                                  Threshold configured) {
+        List<String> order = baseline.unionOrder(current);
+        long[] b = baseline.alignedTo(order);
+        long[] c = current.alignedTo(order);
+        long[][] table = {b, c};
+        ChiSquareResult chi = ChiSquareHomogeneity.test(b, c);
+        TestResult primary = chi.test();
+        String note = "Pearson chi-square";
+        if (!chi.cochranSatisfied()) {
+            if (chi.keptColumns().length == 2) {
+                int i = chi.keptColumns()[0];
+                int j = chi.keptColumns()[1];
+                primary = FisherExact.twoByTwo(b[i], b[j], c[i], c[j]);
+                note = "Fisher's exact test, since " + chi.cochranNote();
+            } else {
+                primary = MonteCarloExactTest.test(table, MONTE_CARLO_REPLICATES, MONTE_CARLO_SEED);
+                note = "Monte Carlo exact p-value (" + MONTE_CARLO_REPLICATES + " tables, fixed seed), since "
+                        + chi.cochranNote();
+            }
+        }
+        EffectSize v = CramersV.estimate(table, confidence);
+        long nB = baseline.n();
+        long nC = current.n();
+        List<CategoryRow> rows = new ArrayList<>();
+        double[][] res = chi.adjustedResiduals();
+        int[] kept = chi.keptColumns();
+        int top = -1;
+        for (int k = 0; k < kept.length; k++) {
+            int col = kept[k];
+            double r = res[1][k];
+            rows.add(new CategoryRow(order.get(col), b[col], c[col], (double) b[col] / nB, (double) c[col] / nC, r));
+            if (top < 0 || Math.abs(r) > Math.abs(rows.get(top).adjustedResidual())) {
+                top = rows.size() - 1;
+            }
+        }
+        CategoryRow moved = rows.get(top);
+        Thresholds.Resolved t = Thresholds.resolve(configured, v.name(), Thresholds.CRAMERS_V, null);
+        // The share of the category that moved most, with Newcombe's interval, is what the sentence reports; with
+        // a threshold in percentage points it is also the effect the verdict is judged on.
+        TwoProportionResult share = TwoProportionZTest.test(moved.countBaseline(), nB, moved.countCurrent(), nC,
+                confidence);
+        double lo = share.riskDifference().ciLow();
+        double hi = share.riskDifference().ciHigh();
+        EffectSize effect = t.rawScale()
+                ? new EffectSize("share difference of '" + moved.category() + "'", share.riskDifference().estimate(),
+                lo, hi, confidence)
+                : v;
+        Change change = new Change("share answering '" + moved.category() + "'", moved.shareBaseline(),
+                moved.shareCurrent(), true, null, lo, hi, "the category that moved most (adjusted residual "
+                + signed(moved.adjustedResidual(), 1) + ")");
+        CategoryDetail d = new CategoryDetail(rows, chi.cochranSatisfied(), chi.cochranNote(),
+                CramersV.biasCorrected(table), note);
+        return new Comparison(variable, FindingKind.SHIFT, primary, effect, t.value(), t.source(), nB, nC, change, d);
+    }
+
+    /**
+     * Binary variables (and missing rates): the two-proportion z-test with Cohen's h and the risk difference
+     * (Newcombe's hybrid score interval); Fisher's exact test when an expected count is below 5.
+     */
+    public Comparison proportion(String variable, FindingKind kind, String successLabel, long sB, long nB, long sC,
+                                 long nC, Threshold configured) {
+        TwoProportionResult z = TwoProportionZTest.test(sB, nB, sC, nC, confidence);
+        EffectSize h = CohensH.estimate(sB, nB, sC, nC, confidence);
+        TestResult primary = z.test();
+        String note = "two-proportion z-test";
+        double pooled = (double) (sB + sC) / (nB + nC);
+        double minExpected = Math.min(Math.min(nB, nC) * pooled, Math.min(nB, nC) * (1 - pooled));
+        if (minExpected < 5) {
+            primary = FisherExact.twoByTwo(sB, nB - sB, sC, nC - sC);
+            note = "Fisher's exact test, since an expected count is below 5";
+        }
+        Thresholds.Resolved t = Thresholds.resolve(configured, h.name(), Thresholds.COHENS_H, null);
+        EffectSize rd = z.riskDifference();
+        ProportionDetail d = new ProportionDetail(successLabel, z.proportionBaseline(), z.proportionCurrent(), rd, h,
+                note);
+        Change change = new Change("share " + successLabel, z.proportionBaseline(), z.proportionCurrent(), true, null,
+                rd.ciLow(), rd.ciHigh(), "");
+        return new Comparison(variable, kind, primary, t.rawScale() ? rd : h, t.value(), t.source(), nB, nC, change, d);
+    }
+
+    /** The lower median of a frequency table (the middle observation, or the lower of the two middle ones averaged). */
+    static double median(NumericDistribution d) {
+        long n = d.n();
+        if (n == 0) {
+            return Double.NaN;
+        }
+        long lo = (n - 1) / 2;
+        long hi = n / 2;
+        return (valueAtRank(d, lo) + valueAtRank(d, hi)) / 2;
+    }
+
+    private static double valueAtRank(NumericDistribution d, long rank) {
+        long seen = 0;
+        for (int i = 0; i < d.size(); i++) {
+            seen += d.count(i);
+            if (rank < seen) {
+                return d.value(i);
+            }
+        }
+        return d.value(d.size() - 1);
+    }
+
+    static String signed(double v, int digits) {
+        return (v >= 0 ? "+" : "") + String.format(java.util.Locale.ROOT, "%." + digits + "f", v);
+    }
+}

@@ -1,0 +1,461 @@
+package org.wavewarden.config;
+
+import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.node.ObjectNode;
+import com.fasterxml.jackson.dataformat.yaml.YAMLFactory;
+import org.quartz.CronExpression;
+
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.HashSet;
+import java.util.Iterator;
+import java.util.List;
+import java.util.Locale;
+import java.util.Set;
+
+/**
+ * Reads and validates a YAML configuration before anything runs.
+ *
+ * <p>The tree is walked by hand rather than bound by reflection so that every problem names its key path
+ * ({@code datasets[0].variables[2].threshold}), unknown keys come with the nearest known key as a suggestion, and
+ * the whole file is checked up front. Checks that need the database (tables and columns exist) are in
+ * {@link CatalogCheck}.
+ */
+public final class ConfigLoader {
+
+    private static final ObjectMapper YAML = new ObjectMapper(new YAMLFactory());
+
+    private ConfigLoader() {
+    }
+
+    public static WardenConfig load(Path file) {
+        String text;
+        try {
+            text = Files.readString(file);
+        } catch (IOException e) {
+            throw new ConfigException("(file)", "cannot read " + file + ": " + e.getMessage());
+        }
+        return parse(text);
+    }
+
+    public static WardenConfig parse(String yaml) {
+        JsonNode root;
+        try {
+            root = YAML.readTree(yaml);
+        } catch (JsonProcessingException e) {
+            String where = e.getLocation() == null ? "" : " at line " + e.getLocation().getLineNr();
+            throw new ConfigException("(file)", "not valid YAML" + where + ": " + e.getOriginalMessage());
+        }
+        if (root == null || !root.isObject()) {
+            throw new ConfigException("(file)", "expected a mapping with keys source, datasets, ... at the top");
+        }
+        return new ConfigLoader.Walker().config((ObjectNode) root);
+    }
+
+    /** Walks the tree; each method gets the node and its path. */
+    private static final class Walker {
+
+        WardenConfig config(ObjectNode root) {
+            known(root, "", "source", "results", "alpha", "fdr", "datasets");
+            ConnectionConfig source = connection(object(root, "source", "source", true), "source", true);
+            WardenConfig.ResultsConfig results = results(object(root, "results", "results", false));
+            double alpha = number(root, "alpha", "alpha", 0.05);
+            if (!(alpha > 0 && alpha < 1)) {
+                throw new ConfigException("alpha", "expected a number strictly between 0 and 1 but got " + alpha);
+            }
+            WardenConfig.FdrMethod fdr = fdr(root);
+            JsonNode ds = root.get("datasets");
+            if (ds == null || !ds.isArray() || ds.isEmpty()) {
+                throw new ConfigException("datasets", "expected a list with at least one dataset");
+            }
+            List<DatasetConfig> datasets = new ArrayList<>();
+            Set<String> names = new HashSet<>();
+            for (int i = 0; i < ds.size(); i++) {
+                String path = "datasets[" + i + "]";
+                DatasetConfig d = dataset(asObject(ds.get(i), path), path);
+                if (!names.add(d.name())) {
+                    throw new ConfigException(path + ".name", "dataset name '" + d.name() + "' is used twice");
+                }
+                datasets.add(d);
+            }
+            return new WardenConfig(source, results, alpha, fdr, datasets);
+        }
+
+        WardenConfig.FdrMethod fdr(ObjectNode root) {
+            String fdr = text(root, "fdr", "fdr", false);
+            if (fdr == null || fdr.equals("benjamini-hochberg")) {
+                return WardenConfig.FdrMethod.BENJAMINI_HOCHBERG;
+            }
+            if (fdr.equals("benjamini-yekutieli")) {
+                return WardenConfig.FdrMethod.BENJAMINI_YEKUTIELI;
+            }
+            throw new ConfigException("fdr", "expected benjamini-hochberg or benjamini-yekutieli but got '" + fdr + "'");
+        }
+
+        ConnectionConfig connection(ObjectNode node, String path, boolean required) {
+            if (node == null) {
+                if (required) {
+                    throw new ConfigException(path, "missing: expected jdbcUrl, user and passwordEnv or passwordFile");
+                }
+                return null;
+            }
+            known(node, path, "jdbcUrl", "user", "passwordEnv", "passwordFile", "password");
+            if (node.has("password")) {
+                throw new ConfigException(path + ".password", "passwords are never written in the config; name an"
+                        + " environment variable with passwordEnv or a file with passwordFile");
+            }
+            String url = text(node, "jdbcUrl", path + ".jdbcUrl", true);
+            if (!url.equals(ConnectionConfig.EMBEDDED) && !url.startsWith("jdbc:postgresql:")) {
+                throw new ConfigException(path + ".jdbcUrl", "expected 'embedded' or a URL starting with"
+                        + " jdbc:postgresql:// but got " + Identifiers.Text.show(url));
+            }
+            String user = text(node, "user", path + ".user", !url.equals(ConnectionConfig.EMBEDDED));
+            String env = text(node, "passwordEnv", path + ".passwordEnv", false);
+            String file = text(node, "passwordFile", path + ".passwordFile", false);
+            if (env != null && file != null) {
+                throw new ConfigException(path + ".passwordEnv", "give either passwordEnv or passwordFile, not both");
+            }
+            if (env != null && !env.matches("[A-Za-z_][A-Za-z0-9_]*")) {
+                throw new ConfigException(path + ".passwordEnv", "expected an environment variable name but got "
+                        + Identifiers.Text.show(env));
+            }
+            return new ConnectionConfig(url, user, env, file);
+        }
+
+        WardenConfig.ResultsConfig results(ObjectNode node) {
+            if (node == null) {
+                return new WardenConfig.ResultsConfig(null, "wavewarden");
+            }
+            known(node, "results", "jdbcUrl", "user", "passwordEnv", "passwordFile", "password", "schema");
+            String schema = text(node, "schema", "results.schema", false);
+            schema = schema == null ? "wavewarden" : Identifiers.require("results.schema", schema);
+            ConnectionConfig conn = null;
+            if (node.has("jdbcUrl")) {
+                ObjectNode copy = node.deepCopy();
+                copy.remove("schema");
+                conn = connection(copy, "results", true);
+            } else {
+                for (String k : List.of("user", "passwordEnv", "passwordFile", "password")) {
+                    if (node.has(k)) {
+                        throw new ConfigException("results." + k, "only meaningful with results.jdbcUrl; without it"
+                                + " results go to the source server");
+                    }
+                }
+            }
+            return new WardenConfig.ResultsConfig(conn, schema);
+        }
+
+        DatasetConfig dataset(ObjectNode node, String path) {
+            known(node, path, "name", "table", "waveColumn", "tablePattern", "waveOrder", "compareWith", "schedule",
+                    "exclude", "variables");
+            String name = text(node, "name", path + ".name", true);
+            if (!name.matches("[A-Za-z0-9][A-Za-z0-9_.-]{0,99}")) {
+                throw new ConfigException(path + ".name", "expected letters, digits, '-', '_' or '.' (at most 100)"
+                        + " but got " + Identifiers.Text.show(name));
+            }
+            String table = text(node, "table", path + ".table", false);
+            String pattern = text(node, "tablePattern", path + ".tablePattern", false);
+            String waveColumn = text(node, "waveColumn", path + ".waveColumn", false);
+            if ((table == null) == (pattern == null)) {
+                throw new ConfigException(path + ".table", "give either table (with waveColumn) or tablePattern");
+            }
+            if (table != null) {
+                Identifiers.TableName.parse(path + ".table", table);
+                if (waveColumn == null) {
+                    throw new ConfigException(path + ".waveColumn", "missing: expected the column naming each"
+                            + " row's wave");
+                }
+                Identifiers.require(path + ".waveColumn", waveColumn);
+            } else {
+                if (!pattern.contains("{wave}")) {
+                    throw new ConfigException(path + ".tablePattern", "expected a pattern containing {wave}, such as"
+                            + " survey.wave_{wave}");
+                }
+                Identifiers.TableName.parse(path + ".tablePattern", pattern.replace("{wave}", "w"));
+                if (waveColumn != null) {
+                    throw new ConfigException(path + ".waveColumn", "not used with tablePattern: the table names"
+                            + " the wave");
+                }
+            }
+            String schedule = text(node, "schedule", path + ".schedule", false);
+            if (schedule != null && !CronExpression.isValidExpression(schedule)) {
+                throw new ConfigException(path + ".schedule", "expected a Quartz cron expression (seconds minutes"
+                        + " hours day-of-month month day-of-week), e.g. \"0 15 2 * * ?\", but got '" + schedule + "'");
+            }
+            List<String> exclude = texts(node, "exclude", path + ".exclude");
+            for (int i = 0; i < exclude.size(); i++) {
+                Identifiers.require(path + ".exclude[" + i + "]", exclude.get(i));
+            }
+            List<VariableConfig> variables = new ArrayList<>();
+            JsonNode vs = node.get("variables");
+            if (vs != null && !vs.isNull()) {
+                if (!vs.isArray()) {
+                    throw new ConfigException(path + ".variables", "expected a list of variables");
+                }
+                Set<String> seen = new HashSet<>();
+                for (int i = 0; i < vs.size(); i++) {
+                    String vp = path + ".variables[" + i + "]";
+                    VariableConfig v = variable(asObject(vs.get(i), vp), vp);
+                    if (!seen.add(v.name())) {
+                        throw new ConfigException(vp + ".name", "variable '" + v.name() + "' is listed twice");
+                    }
+                    variables.add(v);
+                }
+            }
+            return new DatasetConfig(name, table, waveColumn, pattern, waveOrder(node, path),
+                    compareWith(node.get("compareWith"), path + ".compareWith"), schedule, exclude, variables);
+        }
+
+        WaveOrder waveOrder(ObjectNode node, String path) {
+            JsonNode w = node.get("waveOrder");
+            if (w == null || w.isNull() || (w.isTextual() && w.asText().equals("natural"))) {
+                return WaveOrder.NATURAL;
+            }
+            if (w.isArray()) {
+                List<String> waves = texts(node, "waveOrder", path + ".waveOrder");
+                if (waves.isEmpty() || new HashSet<>(waves).size() != waves.size()) {
+                    throw new ConfigException(path + ".waveOrder", "expected a non-empty list of distinct wave labels");
+                }
+                return new WaveOrder(waves);
+            }
+            throw new ConfigException(path + ".waveOrder", "expected 'natural' or a list of wave labels");
+        }
+
+        CompareWith compareWith(JsonNode node, String path) {
+            if (node == null || node.isNull() || (node.isTextual() && node.asText().equals("previous"))) {
+                return CompareWith.PREVIOUS;
+            }
+            if (node.isObject()) {
+                ObjectNode o = (ObjectNode) node;
+                known(o, path, "baseline", "pooledLast");
+                if (o.size() != 1) {
+                    throw new ConfigException(path, "expected exactly one of baseline or pooledLast");
+                }
+                if (o.has("baseline")) {
+                    return new CompareWith.Baseline(text(o, "baseline", path + ".baseline", true));
+                }
+                double k = number(o, "pooledLast", path + ".pooledLast", Double.NaN);
+                if (k != Math.rint(k) || k < 1 || k > 1000) {
+                    throw new ConfigException(path + ".pooledLast", "expected a whole number of waves from 1 to 1000"
+                            + " but got " + o.get("pooledLast").asText());
+                }
+                return new CompareWith.PooledLast((int) k);
+            }
+            throw new ConfigException(path, "expected previous, {baseline: WAVE} or {pooledLast: K} but got "
+                    + Identifiers.Text.show(node.asText()));
+        }
+
+        VariableConfig variable(ObjectNode node, String path) {
+            known(node, path, "name", "kind", "unit", "range", "missingCodes", "threshold", "successValue", "levels");
+            String name = Identifiers.require(path + ".name", text(node, "name", path + ".name", true));
+            String kindText = text(node, "kind", path + ".kind", true);
+            VariableKind kind = kind(kindText, path + ".kind");
+            String unit = text(node, "unit", path + ".unit", false);
+            RangeSpec range = range(object(node, "range", path + ".range", false), path + ".range", kind);
+            List<MissingCodeSpec> codes = missingCodes(node.get("missingCodes"), path + ".missingCodes");
+            Threshold threshold = threshold(object(node, "threshold", path + ".threshold", false),
+                    path + ".threshold", kind);
+            String success = text(node, "successValue", path + ".successValue", false);
+            if (success != null && kind != VariableKind.BINARY) {
+                throw new ConfigException(path + ".successValue", "only binary variables have a successValue; this"
+                        + " one is " + kind.configName());
+            }
+            List<String> levels = texts(node, "levels", path + ".levels");
+            if (!levels.isEmpty() && kind != VariableKind.ORDINAL) {
+                throw new ConfigException(path + ".levels", "only ordinal variables have levels; this one is "
+                        + kind.configName());
+            }
+            return new VariableConfig(name, kind, unit, range, codes, threshold, success, levels);
+        }
+
+        VariableKind kind(String text, String path) {
+            for (VariableKind k : VariableKind.values()) {
+                if (k.configName().equals(text)) {
+                    return k;
+                }
+            }
+            List<String> names = java.util.Arrays.stream(VariableKind.values()).map(VariableKind::configName).toList();
+            throw new ConfigException(path, "expected one of " + String.join(", ", names) + " but got '" + text + "'"
+                    + Suggest.nearest(text, names).map(s -> " (did you mean '" + s + "'?)").orElse(""));
+        }
+
+        RangeSpec range(ObjectNode node, String path, VariableKind kind) {
+            if (node == null) {
+                return null;
+            }
+            known(node, path, "min", "max");
+            if (!kind.isNumericScale()) {
+                throw new ConfigException(path, "a range applies to continuous and ordinal variables; this one is "
+                        + kind.configName());
+            }
+            Double min = node.has("min") ? number(node, "min", path + ".min", Double.NaN) : null;
+            Double max = node.has("max") ? number(node, "max", path + ".max", Double.NaN) : null;
+            if (min == null && max == null) {
+                throw new ConfigException(path, "expected min, max or both");
+            }
+            if (min != null && max != null && min > max) {
+                throw new ConfigException(path, "min " + min + " is above max " + max);
+            }
+            return new RangeSpec(min, max);
+        }
+
+        List<MissingCodeSpec> missingCodes(JsonNode node, String path) {
+            if (node == null || node.isNull()) {
+                return List.of();
+            }
+            if (!node.isArray()) {
+                throw new ConfigException(path, "expected a list of {value, reason}");
+            }
+            List<MissingCodeSpec> out = new ArrayList<>();
+            for (int i = 0; i < node.size(); i++) {
+                String p = path + "[" + i + "]";
+                ObjectNode o = asObject(node.get(i), p);
+                known(o, p, "value", "reason");
+                JsonNode v = o.get("value");
+                if (v == null || !(v.isTextual() || v.isNumber())) {
+                    throw new ConfigException(p + ".value", "expected the coded value as a number or text");
+                }
+                String reason = text(o, "reason", p + ".reason", false);
+                out.add(new MissingCodeSpec(v.asText(), reason == null ? "missing code" : reason));
+            }
+            return out;
+        }
+
+        Threshold threshold(ObjectNode node, String path, VariableKind kind) {
+            if (node == null) {
+                return null;
+            }
+            known(node, path, "raw", "points", "effect");
+            if (node.size() != 1) {
+                throw new ConfigException(path, "expected exactly one of raw, points or effect");
+            }
+            String scale = node.fieldNames().next();
+            double value = number(node, scale, path + "." + scale, Double.NaN);
+            if (!(value > 0) || Double.isInfinite(value)) {
+                throw new ConfigException(path + "." + scale, "expected a positive number but got " + value);
+            }
+            switch (scale) {
+                case "raw" -> {
+                    if (!kind.isNumericScale()) {
+                        throw new ConfigException(path + ".raw", "raw units apply to continuous and ordinal variables;"
+                                + " for a " + kind.configName() + " variable use points (percentage points) or effect");
+                    }
+                    return new Threshold(value, null, null);
+                }
+                case "points" -> {
+                    if (kind != VariableKind.BINARY && kind != VariableKind.CATEGORICAL) {
+                        throw new ConfigException(path + ".points", "percentage points apply to binary and categorical"
+                                + " shares; for a " + kind.configName() + " variable use raw or effect");
+                    }
+                    if (value >= 100) {
+                        throw new ConfigException(path + ".points", "expected fewer than 100 percentage points");
+                    }
+                    return new Threshold(null, value, null);
+                }
+                default -> {
+                    if (value > 2) {
+                        throw new ConfigException(path + ".effect", "effect-scale thresholds are at most 2 (Hedges' g,"
+                                + " Cohen's h) and usually at most 1 (Cliff's delta, Cramér's V); got " + value
+                                + ": was a raw-unit threshold meant?");
+                    }
+                    return new Threshold(null, null, value);
+                }
+            }
+        }
+
+        // --- small typed accessors that name the key on failure ---
+
+        void known(ObjectNode node, String path, String... keys) {
+            Set<String> allowed = Set.of(keys);
+            Iterator<String> it = node.fieldNames();
+            while (it.hasNext()) {
+                String k = it.next();
+                if (!allowed.contains(k)) {
+                    String where = path.isEmpty() ? k : path + "." + k;
+                    throw new ConfigException(where, "unknown key" + Suggest.nearest(k, List.of(keys))
+                            .map(s -> "; did you mean '" + s + "'?").orElse("; expected one of "
+                                    + String.join(", ", keys)));
+                }
+            }
+        }
+
+        ObjectNode object(ObjectNode parent, String key, String path, boolean required) {
+            JsonNode n = parent.get(key);
+            if (n == null || n.isNull()) {
+                if (required) {
+                    throw new ConfigException(path, "missing");
+                }
+                return null;
+            }
+            return asObject(n, path);
+        }
+
+        ObjectNode asObject(JsonNode n, String path) {
+            if (!n.isObject()) {
+                throw new ConfigException(path, "expected a mapping but got " + describe(n));
+            }
+            return (ObjectNode) n;
+        }
+
+        String text(ObjectNode parent, String key, String path, boolean required) {
+            JsonNode n = parent.get(key);
+            if (n == null || n.isNull()) {
+                if (required) {
+                    throw new ConfigException(path, "missing");
+                }
+                return null;
+            }
+            if (!(n.isTextual() || n.isNumber())) {
+                throw new ConfigException(path, "expected text but got " + describe(n));
+            }
+            String s = n.asText();
+            if (required && s.isBlank()) {
+                throw new ConfigException(path, "expected a value but it is empty");
+            }
+            return s;
+        }
+
+        double number(ObjectNode parent, String key, String path, double dflt) {
+            JsonNode n = parent.get(key);
+            if (n == null || n.isNull()) {
+                if (Double.isNaN(dflt)) {
+                    throw new ConfigException(path, "missing");
+                }
+                return dflt;
+            }
+            if (!n.isNumber()) {
+                throw new ConfigException(path, "expected a number but got " + describe(n));
+            }
+            return n.asDouble();
+        }
+
+        List<String> texts(ObjectNode parent, String key, String path) {
+            JsonNode n = parent.get(key);
+            if (n == null || n.isNull()) {
+                return List.of();
+            }
+            if (!n.isArray()) {
+                throw new ConfigException(path, "expected a list but got " + describe(n));
+            }
+            List<String> out = new ArrayList<>();
+            for (int i = 0; i < n.size(); i++) {
+                JsonNode e = n.get(i);
+                if (!(e.isTextual() || e.isNumber())) {
+                    throw new ConfigException(path + "[" + i + "]", "expected text but got " + describe(e));
+                }
+                out.add(e.asText());
+            }
+            return out;
+        }
+
+        static String describe(JsonNode n) {
+            String type = n.isObject() ? "a mapping" : n.isArray() ? "a list" : n.isBoolean() ? "a boolean"
+                    : n.isNumber() ? "a number" : "text";
+            return n.isValueNode() ? type + " (" + n.asText().toLowerCase(Locale.ROOT) + ")" : type;
+        }
+    }
+}

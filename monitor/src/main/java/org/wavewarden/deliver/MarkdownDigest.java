@@ -1,0 +1,60 @@
+package org.wavewarden.deliver;
+
+import org.wavewarden.judge.Finding;
+import org.wavewarden.judge.Verdict;
+
+import java.util.EnumMap;
+import java.util.List;
+import java.util.Map;
+
+/** The digest for chat and e-mail: what changed, what is suspicious in the data, and the cautions. */
+public final class MarkdownDigest {
+
+    private MarkdownDigest() {
+    }
+
+    public static String render(List<FindingsReport> reports) {
+        StringBuilder md = new StringBuilder();
+        md.append("# Wavewarden change digest\n\n");
+        md.append("> **Screening aid, not a finding.** ").append(Cautions.LINES.get(0)).append(' ')
+                .append(Cautions.LINES.get(1)).append("\n\n");
+        for (FindingsReport r : reports) {
+            md.append("## ").append(r.dataset()).append(": wave ").append(r.wave());
+            md.append(r.againstWave() == null ? " (screened alone)" : " against " + r.againstWave()).append("\n\n");
+            Map<Verdict, Integer> counts = new EnumMap<>(Verdict.class);
+            long dq = 0;
+            for (Finding f : r.findings()) {
+                if (f.verdict() != null && f.kind() == org.wavewarden.judge.FindingKind.SHIFT) {
+                    counts.merge(f.verdict(), 1, Integer::sum);
+                } else if (f.kind().isDataQuality()) {
+                    dq++;
+                }
+            }
+            md.append("Shift verdicts: ");
+            for (Verdict v : Verdict.values()) {
+                md.append(v.name()).append(' ').append(counts.getOrDefault(v, 0)).append(v == Verdict.STABLE ? "" : ", ");
+            }
+            md.append(". Data-quality findings: ").append(dq).append(". False discovery rate ")
+                    .append(r.alpha()).append(" (").append(r.fdrMethod()).append(").\n\n");
+            List<Finding> worth = FindingsFiles.ordered(r.findings()).stream().filter(Alerts::worthAPerson).toList();
+            if (worth.isEmpty()) {
+                md.append("Nothing needs attention.\n\n");
+                continue;
+            }
+            md.append("| verdict / kind | variable | what happened |\n|---|---|---|\n");
+            for (Finding f : worth) {
+                md.append("| ").append(f.verdict() != null ? "**" + f.verdict() + "** " : "")
+                        .append(f.kind() == org.wavewarden.judge.FindingKind.SHIFT ? "" : f.kind().name())
+                        .append(" | `").append(f.variable()).append("` | ").append(escape(f.sentence())).append(" |\n");
+            }
+            md.append('\n');
+        }
+        md.append("## Cautions\n\n");
+        Cautions.LINES.forEach(l -> md.append("- ").append(l).append('\n'));
+        return md.toString();
+    }
+
+    static String escape(String s) {
+        return s.replace("|", "\\|").replace("\n", " ");
+    }
+}

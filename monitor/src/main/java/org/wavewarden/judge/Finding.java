@@ -1,0 +1,42 @@
+package org.wavewarden.judge;
+
+import com.fasterxml.jackson.annotation.JsonInclude;
+
+/**
+ * One row of {@code findings.json} and of the results table. Field names are the output contract.
+ *
+ * @param variable   source column
+ * @param kind       SHIFT or a data-quality kind
+ * @param test       the primary test, when there is one
+ * @param statistic  its statistic
+ * @param pValue     its p-value
+ * @param qValue     the p-value adjusted for the false discovery rate across the run
+ * @param effect     the primary effect with its interval and threshold
+ * @param verdict    for SHIFT and MISSING_RATE_CHANGE
+ * @param nBaseline  valid observations in the baseline wave
+ * @param nCurrent   valid observations in the current wave
+ * @param sentence   one plain sentence for a reader who is not a statistician
+ * @param detail     kind-specific detail (per-category residuals, per-code counts, ...)
+ */
+@JsonInclude(JsonInclude.Include.ALWAYS)
+public record Finding(String variable, FindingKind kind, String test, Double statistic, Double pValue,
+                      Double qValue, Effect effect, Verdict verdict, Long nBaseline, Long nCurrent, String sentence,
+                      Object detail) {
+
+    /** An effect size as reported: estimate, interval and the threshold T it was judged against. */
+    public record Effect(String name, double estimate, double ciLow, double ciHigh, double threshold) {
+    }
+
+    /** A data-quality finding with no test of its own. */
+    public static Finding dataQuality(String variable, FindingKind kind, Long nBaseline, Long nCurrent,
+                                      String sentence, Object detail) {
+        return new Finding(variable, kind, null, null, null, null, null, null, nBaseline, nCurrent, sentence, detail);
+    }
+
+    /** Ranking for digests and alerts: verdict first, then size of the effect relative to its threshold. */
+    public double urgency() {
+        double v = verdict == null ? (kind.isDataQuality() ? 2.5 : 5) : verdict.ordinal();
+        double size = effect == null || effect.threshold() <= 0 ? 0 : Math.abs(effect.estimate()) / effect.threshold();
+        return v * 1000 - Math.min(size, 999);
+    }
+}

@@ -1,0 +1,45 @@
+package org.wavewarden.judge;
+
+/** What a finding is about: a distribution shift, or one of the data-quality signals. */
+public enum FindingKind {
+    /** The variable's distribution moved between the waves (location, shares or proportion). */
+    SHIFT,
+    /** The location test is quiet but the shape changed (KS or Wasserstein beyond its threshold). */
+    SHAPE_CHANGE,
+    /** Codebook missing codes, counted by reason. */
+    MISSING_CODE,
+    /** The share of a missing reason moved between the waves. */
+    MISSING_RATE_CHANGE,
+    BLANK,
+    INVISIBLE,
+    PLACEHOLDER,
+    PATTERN_OUTLIER,
+    NUMERIC_SENTINEL,
+    OUT_OF_RANGE_SENTINEL,
+    TEXT_IN_NUMERIC,
+    SENTINEL_DATE,
+    INLIER_SPIKE,
+    /** Values outside the declared range. */
+    OUT_OF_RANGE,
+    /** A category present in the current wave but not the baseline. */
+    CODE_APPEARED,
+    /** A category present in the baseline but not the current wave. */
+    CODE_VANISHED,
+    /** Digit preference on ages (Whipple's or Myers' index). */
+    HEAPING,
+    /** Terminal-digit preference on other numeric answers. */
+    DIGIT_PREFERENCE,
+    COLUMN_ADDED,
+    COLUMN_DROPPED,
+    COLUMN_RETYPED,
+    ALL_NULL,
+    CONSTANT,
+    /** More distinct values than the monitor keeps; the comparison was skipped or bounded. */
+    TOO_MANY_DISTINCT,
+    /** A variable that could not be compared this time, with the reason. */
+    SKIPPED;
+
+    public boolean isDataQuality() {
+        return this != SHIFT && this != SHAPE_CHANGE && this != SKIPPED;
+    }
+}

@@ -1,0 +1,36 @@
+package org.wavewarden.judge;
+
+import org.wavewarden.compare.Comparison;
+import org.wavewarden.config.WardenConfig.FdrMethod;
+import org.wavewarden.judge.multiplicity.BenjaminiHochberg;
+import org.wavewarden.judge.multiplicity.BenjaminiYekutieli;
+
+import java.util.ArrayList;
+import java.util.List;
+
+/**
+ * Turns comparisons into findings: adjusts every p-value of the run for the false discovery rate
+ * (Benjamini-Hochberg 1995, or Benjamini-Yekutieli 2001 for arbitrary dependence), applies the verdict rule to
+ * the q-value and the effect's interval, and writes the sentence.
+ */
+public final class Judge {
+
+    private Judge() {
+    }
+
+    public static List<Finding> judge(List<Comparison> comparisons, double alpha, FdrMethod method) {
+        double[] p = comparisons.stream().mapToDouble(c -> c.test().pValue()).toArray();
+        double[] q = p.length == 0 ? p : method == FdrMethod.BENJAMINI_YEKUTIELI ? BenjaminiYekutieli.adjust(p)
+                : BenjaminiHochberg.adjust(p);
+        List<Finding> out = new ArrayList<>(comparisons.size());
+        for (int i = 0; i < comparisons.size(); i++) {
+            Comparison c = comparisons.get(i);
+            Verdict v = VerdictRule.judge(q[i], c.effect(), c.threshold(), alpha);
+            Finding.Effect e = new Finding.Effect(c.effect().name(), c.effect().estimate(), c.effect().ciLow(),
+                    c.effect().ciHigh(), c.threshold());
+            out.add(new Finding(c.variable(), c.kind(), c.test().test(), c.test().statistic(), c.test().pValue(), q[i],
+                    e, v, c.nBaseline(), c.nCurrent(), Sentences.shift(c, q[i], v, alpha), c.detail()));
+        }
+        return out;
+    }
+}

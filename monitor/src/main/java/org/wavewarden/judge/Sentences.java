@@ -1,0 +1,95 @@
+package org.wavewarden.judge;
+
+import org.wavewarden.compare.Change;
+import org.wavewarden.compare.Comparison;
+
+import java.util.Locale;
+
+/**
+ * Writes the one plain sentence each finding carries, for a reader who is not a statistician: what moved and by
+ * how much in the variable's own terms, how often chance alone would give a gap that large, and how the change
+ * compares with the threshold that matters.
+ */
+public final class Sentences {
+
+    private Sentences() {
+    }
+
+    public static String shift(Comparison c, double qValue, Verdict verdict, double alpha) {
+        Change ch = c.change();
+        StringBuilder s = new StringBuilder();
+        String measure = Character.toUpperCase(ch.measure().charAt(0)) + ch.measure().substring(1);
+        double diff = ch.difference();
+        String direction = diff > 0 ? "rose" : diff < 0 ? "fell" : "stayed";
+        s.append(measure).append(' ').append(direction).append(" from ").append(value(ch, ch.before()))
+                .append(" to ").append(value(ch, ch.after()));
+        s.append(" (").append(difference(ch, diff));
+        if (!Double.isNaN(ch.ciLow())) {
+            s.append(", ").append(Math.round(c.effect().confidence() * 100)).append("% CI ")
+                    .append(difference(ch, ch.ciLow())).append(" to ").append(difference(ch, ch.ciHigh()));
+        }
+        if (!ch.note().isEmpty()) {
+            s.append("; ").append(ch.note());
+        }
+        s.append("); ");
+        s.append(chance(c.test().pValue())).append(" (q = ").append(p(qValue)).append(")");
+        s.append("; ").append(c.effect().name()).append(' ').append(num(c.effect().estimate(), 3));
+        boolean beyond = Math.abs(c.effect().estimate()) >= c.threshold();
+        s.append(beyond ? ", at or above" : ", below").append(" the ").append(thresholdText(c)).append(" threshold");
+        if (verdict == Verdict.UNCERTAIN) {
+            s.append(", but the interval (").append(num(c.effect().ciLow(), 3)).append(" to ")
+                    .append(num(c.effect().ciHigh(), 3)).append(") still reaches it");
+        } else if (verdict == Verdict.STABLE) {
+            s.append(", and the interval (").append(num(c.effect().ciLow(), 3)).append(" to ")
+                    .append(num(c.effect().ciHigh(), 3)).append(") rules out a change that large");
+        }
+        s.append(": ").append(verdict.name()).append('.');
+        return s.toString();
+    }
+
+    /** "chance alone would give a gap this large in fewer than 1 in 1,000 comparisons". */
+    public static String chance(double p) {
+        if (p < 0.001) {
+            return "chance alone would give a gap this large in fewer than 1 in 1,000 comparisons";
+        }
+        if (p >= 0.5) {
+            return "a gap this large is what chance alone gives in about half of all comparisons or more";
+        }
+        long oneIn = Math.max(2, Math.round(1 / p));
+        return "chance alone would give a gap this large in about 1 in " + String.format(Locale.ROOT, "%,d", oneIn)
+                + " comparisons";
+    }
+
+    static String thresholdText(Comparison c) {
+        String src = c.thresholdSource();
+        return src.startsWith("configured ") ? src.substring("configured ".length()).replaceFirst(" on .*", "")
+                : num(c.threshold(), 3);
+    }
+
+    static String value(Change ch, double v) {
+        if (ch.percent()) {
+            return String.format(Locale.ROOT, "%.1f%%", v * 100);
+        }
+        return num(v, decimals(v)) + (ch.unit() == null ? "" : " " + ch.unit());
+    }
+
+    static String difference(Change ch, double d) {
+        if (ch.percent()) {
+            return String.format(Locale.ROOT, "%+.1f points", d * 100);
+        }
+        return (d >= 0 ? "+" : "") + num(d, decimals(d)) + (ch.unit() == null ? "" : " " + ch.unit());
+    }
+
+    static int decimals(double v) {
+        double a = Math.abs(v);
+        return a >= 100 ? 0 : a >= 10 ? 1 : a >= 1 ? 2 : 3;
+    }
+
+    static String num(double v, int digits) {
+        return String.format(Locale.ROOT, "%." + digits + "f", v);
+    }
+
+    static String p(double p) {
+        return p < 0.0001 ? "< 0.0001" : String.format(Locale.ROOT, "%.4f", p);
+    }
+}

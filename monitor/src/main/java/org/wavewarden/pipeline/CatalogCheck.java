@@ -1,0 +1,71 @@
+package org.wavewarden.pipeline;
+
+import org.jdbi.v3.core.Handle;
+import org.wavewarden.config.ConfigException;
+import org.wavewarden.config.DatasetConfig;
+import org.wavewarden.config.WardenConfig;
+import org.wavewarden.read.SourceCatalog;
+import org.wavewarden.read.SourceColumn;
+import org.wavewarden.read.WaveSource;
+
+import java.util.List;
+
+/**
+ * The part of config validation that needs the database: every configured table and column must exist in the
+ * source catalog, so a typo fails up front with its key, never in the middle of a run.
+ */
+public final class CatalogCheck {
+
+    private CatalogCheck() {
+    }
+
+    public static void verify(Handle source, WardenConfig config) {
+        for (int i = 0; i < config.datasets().size(); i++) {
+            verify(source, config.datasets().get(i), "datasets[" + i + "]");
+        }
+    }
+
+    static void verify(Handle h, DatasetConfig d, String key) {
+        WaveSource src = WaveSource.of(d, key);
+        List<SourceColumn> columns;
+        if (src.onePerWave()) {
+            String[] parts = src.patternParts().orElseThrow();
+            List<String> tables = SourceCatalog.tablesMatching(h, parts[0], parts[1], parts[2]);
+            if (tables.isEmpty()) {
+                throw new ConfigException(key + ".tablePattern", "no table in schema " + parts[0] + " matches "
+                        + d.tablePattern());
+            }
+            columns = SourceCatalog.columns(h, src.tableFor(tables.get(tables.size() - 1)
+                    .substring(parts[1].length(), tables.get(tables.size() - 1).length() - parts[2].length())));
+        } else {
+            if (!SourceCatalog.tableExists(h, src.table())) {
+                throw new ConfigException(key + ".table", "table " + src.table() + " does not exist in the source"
+                        + " database (or this role cannot see it)");
+            }
+            columns = SourceCatalog.columns(h, src.table());
+            if (columns.stream().noneMatch(c -> c.name().equals(d.waveColumn()))) {
+                throw new ConfigException(key + ".waveColumn", "column " + d.waveColumn() + " does not exist in "
+                        + src.table() + "; it has " + names(columns));
+            }
+        }
+        for (int j = 0; j < d.variables().size(); j++) {
+            String name = d.variables().get(j).name();
+            if (columns.stream().noneMatch(c -> c.name().equals(name))) {
+                throw new ConfigException(key + ".variables[" + j + "].name", "column " + name + " does not exist in"
+                        + " the source table; it has " + names(columns));
+            }
+        }
+        for (int j = 0; j < d.exclude().size(); j++) {
+            String name = d.exclude().get(j);
+            if (columns.stream().noneMatch(c -> c.name().equals(name))) {
+                throw new ConfigException(key + ".exclude[" + j + "]", "column " + name + " does not exist in the"
+                        + " source table");
+            }
+        }
+    }
+
+    static String names(List<SourceColumn> columns) {
+        List<String> n = columns.stream().map(SourceColumn::name).toList();
+        return n.size() > 30 ? n.subList(0, 30) + "..." : n.toString();
+    }
+}

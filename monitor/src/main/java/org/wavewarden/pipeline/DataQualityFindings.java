@@ -1,0 +1,229 @@
+package org.wavewarden.pipeline;
+
+import org.wavewarden.compare.Comparison;
+import org.wavewarden.compare.VariableComparator;
+import org.wavewarden.config.VariableConfig;
+import org.wavewarden.config.VariableKind;
+import org.wavewarden.judge.Finding;
+import org.wavewarden.judge.FindingKind;
+import org.wavewarden.missing.CandidateKind;
+import org.wavewarden.missing.CodeFrameChange;
+import org.wavewarden.missing.MissingCandidate;
+import org.wavewarden.missing.TerminalDigitPreference;
+import org.wavewarden.missing.WhippleIndex;
+import org.wavewarden.profile.ColumnTally;
+import org.wavewarden.profile.ColumnType;
+
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.LinkedHashSet;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.Set;
+
+/**
+ * Assembles the data-quality findings of one variable in one wave: disguised missing values, missing codes and
+ * their rates, values of the wrong type or outside the range, changed code frames, heaping and digit preference.
+ * Rates that can be tested between waves become comparisons, judged with the same verdict rule as shifts.
+ */
+final class DataQualityFindings {
+
+    /** Candidates reported as findings; below this confidence they stay in the detail only. */
+    static final double REPORT_CONFIDENCE = 0.5;
+    /** A code must have this many answers on one side to count as appeared or vanished (one stray answer is noise). */
+    static final long CODE_FRAME_MIN_COUNT = 5;
+    /** Whipple's index at which heaping is reported: the UN "approximate" band starts at 110. */
+    static final double WHIPPLE_REPORT = 110;
+    /** Rise of Whipple's index against the baseline that counts as heaping appearing (common practice, no source). */
+    static final double WHIPPLE_RISE = 10;
+    /** Index of dissimilarity of last digits that counts as digit preference (common practice, no source). */
+    static final double DIGIT_DISSIMILARITY = 0.1;
+
+    private DataQualityFindings() {
+    }
+
+    record Result(List<Finding> findings, List<Comparison> rateComparisons) {
+    }
+
+    static Result of(VariableConfig v, ColumnTally currentTally, ScreenedVariable current, ScreenedVariable baseline,
+                     VariableComparator comparator) {
+        List<Finding> out = new ArrayList<>();
+        List<Comparison> rates = new ArrayList<>();
+        String name = v.name();
+        Long nB = baseline == null ? null : baseline.validN();
+        long nC = current.validN();
+
+        Map<CandidateKind, List<MissingCandidate>> byKind = new LinkedHashMap<>();
+        for (MissingCandidate c : current.candidates()) {
+            if (c.confidence() >= REPORT_CONFIDENCE) {
+                byKind.computeIfAbsent(c.kind(), k -> new ArrayList<>()).add(c);
+            }
+        }
+        byKind.forEach((kind, list) -> {
+            long total = list.stream().mapToLong(MissingCandidate::count).sum();
+            MissingCandidate top = list.get(0);
+            String sentence = String.format(Locale.ROOT, "%,d answers (%.1f%% of the wave) look like disguised missing"
+                            + " values (%s): %s%s.", total, 100.0 * total / Math.max(1, current.rows()),
+                    kind.name().toLowerCase(Locale.ROOT).replace('_', ' '), quoted(top.value()), "; " + top.evidence()
+                            + (list.size() > 1 ? "; and " + (list.size() - 1) + " more value(s)" : ""));
+            out.add(Finding.dataQuality(name, FindingKind.valueOf(kind.name()), nB, nC, sentence,
+                    new CandidatesDetail(list, top.confidence() >= VariableScreen.EXCLUDE_CONFIDENCE)));
+        });
+
+        Map<String, Long> coded = new LinkedHashMap<>();
+        current.missingByReason().forEach((r, n) -> {
+            if (!r.startsWith("disguised: ") && !r.equals("outside the declared range")) {
+                coded.put(r, n);
+            }
+        });
+        if (!coded.isEmpty()) {
+            long total = coded.values().stream().mapToLong(Long::longValue).sum();
+            out.add(Finding.dataQuality(name, FindingKind.MISSING_CODE, nB, nC, String.format(Locale.ROOT,
+                    "%,d answers (%.1f%%) carry codebook missing codes and were left out of the comparison: %s.",
+                    total, 100.0 * total / Math.max(1, current.rows()), coded), new CountsDetail(coded)));
+        }
+        Long outside = current.missingByReason().get("outside the declared range");
+        if (outside != null) {
+            out.add(Finding.dataQuality(name, FindingKind.OUT_OF_RANGE, nB, nC, String.format(Locale.ROOT,
+                    "%,d answers lie outside the declared range %s to %s and were left out of the comparison.", outside,
+                    v.range().min() == null ? "-inf" : fmt(v.range().min()),
+                    v.range().max() == null ? "+inf" : fmt(v.range().max())), new CountsDetail(Map.of("outside", outside))));
+        }
+        if (!current.invalid().isEmpty()) {
+            long total = current.invalid().values().stream().mapToLong(Long::longValue).sum();
+            String examples = current.invalid().keySet().stream().limit(3).map(DataQualityFindings::quoted)
+                    .reduce((a, b) -> a + ", " + b).orElse("");
+            out.add(Finding.dataQuality(name, FindingKind.TEXT_IN_NUMERIC, nB, nC, String.format(Locale.ROOT,
+                    "%,d answers of this numeric variable are not finite numbers (for example %s) and were left out.",
+                    total, examples), new CountsDetail(limit(current.invalid(), 20))));
+        }
+        if (currentTally.truncated()) {
+            out.add(Finding.dataQuality(name, FindingKind.TOO_MANY_DISTINCT, nB, nC, "More distinct values than the"
+                    + " monitor keeps (" + currentTally.distinctCount() + "); the distribution was not compared.", null));
+        }
+        if (currentTally.rowCount() > 0 && currentTally.nonNullCount() == 0) {
+            out.add(Finding.dataQuality(name, FindingKind.ALL_NULL, nB, nC, "Every answer in this wave is NULL.", null));
+        } else if (current.validN() >= 2 && distinctValid(current) == 1 && (baseline == null || distinctValid(baseline) > 1)) {
+            out.add(Finding.dataQuality(name, FindingKind.CONSTANT, nB, nC, "Every valid answer in this wave is the"
+                    + " same value.", null));
+        }
+        if (baseline == null) {
+            return new Result(out, rates);
+        }
+
+        // Missing rates by reason (SQL NULL included), tested between the waves.
+        Set<String> reasons = new LinkedHashSet<>(baseline.missingByReason().keySet());
+        reasons.addAll(current.missingByReason().keySet());
+        for (String reason : reasons) {
+            long b = baseline.missingByReason().getOrDefault(reason, 0L);
+            long c = current.missingByReason().getOrDefault(reason, 0L);
+            if (b + c > 0 && baseline.rows() > 0 && current.rows() > 0) {
+                rates.add(comparator.proportion(name, FindingKind.MISSING_RATE_CHANGE, "missing (" + reason + ")", b,
+                        baseline.rows(), c, current.rows(), null));
+            }
+        }
+        if (baseline.rows() > 0 && current.rows() > 0 && (baseline.sqlNulls() + current.sqlNulls()) > 0
+                && baseline.sqlNulls() < baseline.rows() && current.sqlNulls() < current.rows()) {
+            rates.add(comparator.proportion(name, FindingKind.MISSING_RATE_CHANGE, "missing (NULL)",
+                    baseline.sqlNulls(), baseline.rows(), current.sqlNulls(), current.rows(), null));
+        }
+
+        if (current.categories() != null && baseline.categories() != null && v.kind() == VariableKind.CATEGORICAL) {
+            CodeFrameChange frame = CodeFrameChange.between(baseline.categories(), current.categories(), 1);
+            List<String> appeared = frame.appeared().stream()
+                    .filter(code -> current.categories().count(code) >= CODE_FRAME_MIN_COUNT).toList();
+            List<String> vanished = frame.vanished().stream()
+                    .filter(code -> baseline.categories().count(code) >= CODE_FRAME_MIN_COUNT).toList();
+            if (!appeared.isEmpty()) {
+                out.add(Finding.dataQuality(name, FindingKind.CODE_APPEARED, nB, nC, "New code(s) "
+                        + codes(appeared, current) + " appear in this wave and not in the baseline: a changed code"
+                        + " frame?", new CodesDetail(appeared)));
+            }
+            if (!vanished.isEmpty()) {
+                out.add(Finding.dataQuality(name, FindingKind.CODE_VANISHED, nB, nC, "Code(s) "
+                        + codes(vanished, baseline) + " of the baseline have no answers in this wave: a changed code"
+                        + " frame?", new CodesDetail(vanished)));
+            }
+        }
+
+        if (current.numeric() != null && baseline.numeric() != null && v.kind() == VariableKind.CONTINUOUS) {
+            if (isAgeLike(v)) {
+                WhippleIndex wc = WhippleIndex.compute(current.numeric());
+                WhippleIndex wb = WhippleIndex.compute(baseline.numeric());
+                if (wc.total() > 0 && wb.total() > 0 && wc.index() >= WHIPPLE_REPORT
+                        && wc.index() - wb.index() >= WHIPPLE_RISE) {
+                    out.add(Finding.dataQuality(name, FindingKind.HEAPING, nB, nC, String.format(Locale.ROOT,
+                            "Ages ending in 0 or 5 are over-reported: Whipple's index rose from %.1f to %.1f (UN band:"
+                                    + " %s; 100 means no heaping).", wb.index(), wc.index(),
+                            wc.qualityBand().name().toLowerCase(Locale.ROOT).replace('_', ' ')),
+                            new HeapingDetail(wb.index(), wc.index(), wc.qualityBand().name())));
+                }
+            } else if (isWholeNumbers(currentTally.type(), current)) {
+                TerminalDigitPreference tc = TerminalDigitPreference.test(current.numeric());
+                TerminalDigitPreference tb = TerminalDigitPreference.test(baseline.numeric());
+                if (tc.applicable() && tb.applicable() && tc.pValue() < 0.001 && tc.dissimilarity() >= DIGIT_DISSIMILARITY
+                        && tc.dissimilarity() - tb.dissimilarity() >= DIGIT_DISSIMILARITY / 2) {
+                    out.add(Finding.dataQuality(name, FindingKind.DIGIT_PREFERENCE, nB, nC, String.format(Locale.ROOT,
+                            "Some last digits are preferred: the index of dissimilarity of last digits rose from %.2f"
+                                    + " to %.2f (0 means every digit equally common).", tb.dissimilarity(),
+                            tc.dissimilarity()), new HeapingDetail(tb.dissimilarity(), tc.dissimilarity(), "")));
+                }
+            }
+        }
+        return new Result(out, rates);
+    }
+
+    static boolean isAgeLike(VariableConfig v) {
+        return "years".equalsIgnoreCase(v.unit()) && v.name().toLowerCase(Locale.ROOT).contains("age");
+    }
+
+    static boolean isWholeNumbers(ColumnType type, ScreenedVariable s) {
+        var d = s.numeric();
+        for (int i = 0; i < d.size(); i++) {
+            if (d.value(i) != Math.rint(d.value(i))) {
+                return false;
+            }
+        }
+        return d.size() > 0;
+    }
+
+    static int distinctValid(ScreenedVariable s) {
+        return s.numeric() != null ? s.numeric().size() : s.categories() != null
+                ? (int) java.util.Arrays.stream(s.categories().counts()).filter(c -> c > 0).count() : 2;
+    }
+
+    static String codes(List<String> codes, ScreenedVariable s) {
+        return codes.stream().map(c -> quoted(c) + " (" + s.categories().count(c) + ")").reduce((a, b) -> a + ", " + b)
+                .orElse("");
+    }
+
+    static String quoted(String v) {
+        String shown = v.codePoints().mapToObj(cp -> Character.isWhitespace(cp) || Character.isSpaceChar(cp)
+                || Character.getType(cp) == Character.FORMAT ? String.format("\\u%04X", cp)
+                : new String(Character.toChars(cp))).reduce("", String::concat);
+        return "'" + (shown.length() > 40 ? shown.substring(0, 40) + "..." : shown) + "'";
+    }
+
+    static String fmt(double d) {
+        return d == Math.rint(d) ? String.valueOf((long) d) : String.valueOf(d);
+    }
+
+    static Map<String, Long> limit(Map<String, Long> m, int n) {
+        Map<String, Long> out = new LinkedHashMap<>();
+        m.entrySet().stream().limit(n).forEach(e -> out.put(e.getKey(), e.getValue()));
+        return out;
+    }
+
+    record CandidatesDetail(List<MissingCandidate> candidates, boolean excludedFromComparison) {
+    }
+
+    record CountsDetail(Map<String, Long> counts) {
+    }
+
+    record CodesDetail(List<String> codes) {
+    }
+
+    record HeapingDetail(double baselineIndex, double currentIndex, String band) {
+    }
+}

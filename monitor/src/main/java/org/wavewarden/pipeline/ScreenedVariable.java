@@ -1,0 +1,31 @@
+package org.wavewarden.pipeline;
+
+import org.wavewarden.missing.MissingCandidate;
+import org.wavewarden.profile.CategoryCounts;
+import org.wavewarden.profile.NumericDistribution;
+
+import java.util.List;
+import java.util.Map;
+
+/**
+ * One variable of one wave after the missing-in-disguise stage: what is missing and why, and the valid answers
+ * that alone enter the comparison.
+ *
+ * @param rows           rows in the wave
+ * @param sqlNulls       rows with SQL NULL
+ * @param missingByReason codebook missing codes and excluded disguised values, counted by reason
+ * @param candidates     disguised-missing candidates found without a codebook (excluded or not)
+ * @param excludedValues raw values left out of the comparison (codebook codes, confident candidates, out of range)
+ * @param invalid        values that are not of the variable's type (text in a number), with counts
+ * @param numeric        valid answers of a continuous or ordinal variable; null otherwise
+ * @param categories     valid answers of a categorical or binary variable; null otherwise
+ */
+public record ScreenedVariable(long rows, long sqlNulls, Map<String, Long> missingByReason,
+                               List<MissingCandidate> candidates, List<String> excludedValues,
+                               Map<String, Long> invalid, NumericDistribution numeric, CategoryCounts categories) {
+
+    /** Valid answers that enter the comparison. */
+    public long validN() {
+        return numeric != null ? numeric.n() : categories != null ? categories.n() : 0;
+    }
+}

@@ -1,0 +1,134 @@
+package org.wavewarden.pipeline;
+
+import org.wavewarden.config.VariableConfig;
+import org.wavewarden.config.VariableKind;
+import org.wavewarden.missing.Codebook;
+import org.wavewarden.missing.CodebookSplit;
+import org.wavewarden.missing.DisguisedMissingDetector;
+import org.wavewarden.missing.MissingCandidate;
+import org.wavewarden.missing.MissingCode;
+import org.wavewarden.missing.ValueRange;
+import org.wavewarden.profile.CategoryCounts;
+import org.wavewarden.profile.ColumnTally;
+import org.wavewarden.profile.NumericDistribution;
+
+import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Optional;
+import java.util.TreeMap;
+
+/**
+ * Separates one variable's answers into missing (by reason) and valid, typed for its kind. Codebook codes are
+ * removed first; then the detector looks for disguised missing values among the rest, and candidates it is
+ * confident about are removed too, so that a sentinel such as 999 never poisons a mean or a share.
+ */
+public final class VariableScreen {
+
+    /** Candidates at or above this confidence are excluded from the comparison (the others are only reported). */
+    public static final double EXCLUDE_CONFIDENCE = 0.8;
+
+    private static final java.util.regex.Pattern NUMBER =
+            java.util.regex.Pattern.compile("[-+]?(\\d+\\.?\\d*|\\.\\d+)([eE][-+]?\\d+)?");
+
+    private VariableScreen() {
+    }
+
+    public static Codebook codebook(VariableConfig v) {
+        return new Codebook(v.missingCodes().stream().map(c -> new MissingCode(c.value(), c.reason())).toList());
+    }
+
+    public static Optional<ValueRange> range(VariableConfig v) {
+        return v.range() == null ? Optional.empty() : Optional.of(new ValueRange(v.range().min(), v.range().max()));
+    }
+
+    public static ScreenedVariable screen(ColumnTally tally, VariableConfig v) {
+        CodebookSplit split = codebook(v).split(tally);
+        Map<String, Long> missing = new LinkedHashMap<>(split.countsByReason());
+        List<String> excluded = new ArrayList<>();
+        ColumnTally valid = split.validOnly();
+        tally.valueCounts().keySet().stream().filter(x -> !valid.valueCounts().containsKey(x)).forEach(excluded::add);
+        List<MissingCandidate> candidates = DisguisedMissingDetector.detect(valid, range(v));
+        Map<String, Long> rest = new HashMap<>(valid.valueCounts());
+        for (MissingCandidate c : candidates) {
+            if (c.confidence() >= EXCLUDE_CONFIDENCE && rest.remove(c.value()) != null) {
+                excluded.add(c.value());
+                missing.merge(reasonOf(c), c.count(), Long::sum);
+            }
+        }
+        Map<String, Long> invalid = new TreeMap<>();
+        NumericDistribution numeric = null;
+        CategoryCounts categories = null;
+        switch (v.kind()) {
+            case CONTINUOUS, ORDINAL -> numeric = numeric(rest, v, invalid, excluded, missing);
+            case CATEGORICAL, BINARY -> categories = CategoryCounts.ofTally(new TreeMap<>(rest));
+            case TEXT, DATE -> {
+                // Screened for disguised missing values only; no distribution comparison.
+            }
+        }
+        return new ScreenedVariable(tally.rowCount(), tally.nullCount(), missing, candidates, excluded, invalid,
+                numeric, categories);
+    }
+
+    static String reasonOf(MissingCandidate c) {
+        return "disguised: " + c.kind().name().toLowerCase(java.util.Locale.ROOT).replace('_', ' ');
+    }
+
+    private static NumericDistribution numeric(Map<String, Long> values, VariableConfig v, Map<String, Long> invalid,
+                                               List<String> excluded, Map<String, Long> missing) {
+        Map<Double, Long> tally = new HashMap<>();
+        Map<String, Integer> levelRank = new HashMap<>();
+        for (int i = 0; i < v.levels().size(); i++) {
+            levelRank.put(v.levels().get(i), i + 1);
+        }
+        ValueRange range = range(v).orElse(null);
+        for (Map.Entry<String, Long> e : values.entrySet()) {
+            Double x = levelRank.isEmpty() ? parse(e.getKey()) : levelRank.get(e.getKey().strip()) == null ? null
+                    : (double) levelRank.get(e.getKey().strip());
+            if (x == null || !Double.isFinite(x)) {
+                invalid.merge(e.getKey(), e.getValue(), Long::sum);
+                continue;
+            }
+            if (range != null && ((range.min() != null && x < range.min()) || (range.max() != null && x > range.max()))) {
+                excluded.add(e.getKey());
+                missing.merge("outside the declared range", e.getValue(), Long::sum);
+                continue;
+            }
+            tally.merge(x == 0.0 ? 0.0 : x, e.getValue(), Long::sum);
+        }
+        return NumericDistribution.ofTally(tally);
+    }
+
+    static Double parse(String s) {
+        String t = s.strip();
+        // Only plain decimal notation: Java would also accept "NaN", "Infinity", "0x1p3" and "1.5d".
+        if (!NUMBER.matcher(t).matches()) {
+            return null;
+        }
+        try {
+            return Double.parseDouble(t);
+        } catch (NumberFormatException e) {
+            return null;
+        }
+    }
+
+    /** The answer whose share a binary variable tracks: configured, else 1 / true / yes, else the last in order. */
+    public static String successValue(VariableConfig v, CategoryCounts b, CategoryCounts c) {
+        if (v.successValue() != null) {
+            return v.successValue();
+        }
+        List<String> all = b.unionOrder(c).stream().sorted().toList();
+        for (String preferred : List.of("1", "t", "true", "yes", "y", "Y", "Yes", "TRUE", "True")) {
+            if (all.contains(preferred)) {
+                return preferred;
+            }
+        }
+        return all.isEmpty() ? "1" : all.get(all.size() - 1);
+    }
+
+    static boolean isNumericKind(VariableKind k) {
+        return k == VariableKind.CONTINUOUS || k == VariableKind.ORDINAL;
+    }
+}

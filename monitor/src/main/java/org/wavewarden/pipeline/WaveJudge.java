@@ -1,0 +1,247 @@
+package org.wavewarden.pipeline;
+
+import org.jdbi.v3.core.Handle;
+import org.wavewarden.compare.Comparison;
+import org.wavewarden.compare.VariableComparator;
+import org.wavewarden.config.CompareWith;
+import org.wavewarden.config.ConfigException;
+import org.wavewarden.config.DatasetConfig;
+import org.wavewarden.config.VariableConfig;
+import org.wavewarden.config.VariableKind;
+import org.wavewarden.config.WardenConfig;
+import org.wavewarden.deliver.Alerts;
+import org.wavewarden.deliver.FindingsFiles;
+import org.wavewarden.deliver.FindingsReport;
+import org.wavewarden.judge.Finding;
+import org.wavewarden.judge.FindingKind;
+import org.wavewarden.judge.Judge;
+import org.wavewarden.profile.ColumnTally;
+import org.wavewarden.profile.ColumnType;
+import org.wavewarden.profile.WaveProfile;
+import org.wavewarden.read.SourceCatalog;
+import org.wavewarden.read.SourceColumn;
+import org.wavewarden.read.WaveInfo;
+import org.wavewarden.read.WaveListing;
+import org.wavewarden.read.WaveScanner;
+import org.wavewarden.read.WaveSource;
+import org.wavewarden.store.ResultsStore;
+
+import java.time.Clock;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Optional;
+import java.util.function.LongConsumer;
+
+/**
+ * Judges one wave of one dataset: read, profile, screen for disguised missing values, compare, judge, and write
+ * the run in one transaction. Earlier waves come from their stored summaries; only a wave never summarised before
+ * is read from the source.
+ */
+public final class WaveJudge {
+
+    private final Session session;
+    private final Clock clock;
+    private final WaveScanner scanner;
+
+    public WaveJudge(Session session, Clock clock) {
+        this.session = session;
+        this.clock = clock;
+        this.scanner = new WaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT);
+    }
+
+    /** Waves of a dataset in wave order. */
+    public List<WaveInfo> waves(DatasetConfig d) {
+        return session.source().withHandle(h -> WaveListing.list(h, WaveSource.of(d, "dataset"), d.waveOrder()));
+    }
+
+    /** The waves the given wave is compared against under the dataset's rule (empty for the first wave). */
+    public static List<String> baselineWaves(DatasetConfig d, List<String> order, String wave, String override) {
+        int i = order.indexOf(wave);
+        if (i < 0) {
+            throw new ConfigException("--wave", "no wave '" + wave + "' in " + d.name() + "; waves: " + order);
+        }
+        if (override != null) {
+            if (!order.contains(override) || override.equals(wave)) {
+                throw new ConfigException("--against", "expected another wave of " + d.name() + " but got '"
+                        + override + "'; waves: " + order);
+            }
+            return List.of(override);
+        }
+        CompareWith cw = d.compareWith();
+        if (cw instanceof CompareWith.Baseline b) {
+            if (!order.contains(b.wave())) {
+                throw new ConfigException("compareWith.baseline", "no wave '" + b.wave() + "' in " + d.name());
+            }
+            return b.wave().equals(wave) ? List.of() : List.of(b.wave());
+        }
+        if (cw instanceof CompareWith.PooledLast p) {
+            return order.subList(Math.max(0, i - p.waves()), i);
+        }
+        return i == 0 ? List.of() : List.of(order.get(i - 1));
+    }
+
+    public JudgedWave judge(DatasetConfig d, String wave, String againstOverride, java.nio.file.Path outDir,
+                            LongConsumer progress) {
+        Instant started = clock.instant();
+        WardenConfig cfg = session.config();
+        WaveSource source = WaveSource.of(d, "dataset");
+        List<String> order = waves(d).stream().map(WaveInfo::wave).toList();
+        List<String> against = baselineWaves(d, order, wave, againstOverride);
+        String againstLabel = against.isEmpty() ? null : against.size() == 1 ? against.get(0)
+                : "pooled " + against.get(0) + " .. " + against.get(against.size() - 1);
+
+        WaveProfile current = session.source().withHandle(h -> profile(h, d, source, wave, progress));
+        List<WaveProfile> baselines = new ArrayList<>();
+        for (String b : against) {
+            baselines.add(baselineProfile(d, source, b, current.columnNames()));
+        }
+        WaveProfile baseline = baselines.isEmpty() ? null
+                : baselines.size() == 1 ? baselines.get(0) : WaveProfile.pooled(againstLabel, baselines);
+
+        List<String> inference = new ArrayList<>();
+        List<VariableConfig> variables = variables(d, current, inference);
+        VariableComparator comparator = new VariableComparator(1 - cfg.alpha());
+        List<Comparison> comparisons = new ArrayList<>();
+        List<Finding> plain = new ArrayList<>(schemaFindings(d, baseline, current));
+        for (VariableConfig v : variables) {
+            ColumnTally ct = current.columns().get(v.name());
+            if (ct == null) {
+                continue;
+            }
+            ColumnTally bt = baseline == null ? null : baseline.columns().get(v.name());
+            ScreenedVariable sc = VariableScreen.screen(ct, v);
+            ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v);
+            DataQualityFindings.Result dq = DataQualityFindings.of(v, ct, sc, sb, comparator);
+            plain.addAll(dq.findings());
+            comparisons.addAll(dq.rateComparisons());
+            if (sb != null) {
+                compare(comparator, v, sb, sc, ct, bt).ifPresentOrElse(comparisons::add, () -> {
+                    String why = skipReason(v, sb, sc, ct, bt);
+                    if (why != null) {
+                        plain.add(Finding.dataQuality(v.name(), FindingKind.SKIPPED, sb.validN(), sc.validN(),
+                                "Not compared: " + why + ".", null));
+                    }
+                });
+            }
+        }
+        List<Finding> findings = new ArrayList<>(Judge.judge(comparisons, cfg.alpha(), cfg.fdr()));
+        findings.addAll(plain);
+        findings = FindingsFiles.ordered(findings);
+        List<Finding> alerts = Alerts.select(findings);
+        Instant finished = clock.instant();
+        FindingsReport report = new FindingsReport(d.name(), wave, againstLabel, finished, cfg.alpha(),
+                cfg.fdr().name(), inference, findings);
+        long runId = session.store().writeRun(new ResultsStore.RunWrite(d.name(), wave,
+                        againstLabel == null ? "" : againstLabel, current.checksum(), started, finished, cfg.alpha(),
+                        cfg.fdr().name()),
+                current, findings, alerts);
+        if (outDir != null) {
+            FindingsFiles.write(outDir, report);
+        }
+        return new JudgedWave(report, runId, alerts);
+    }
+
+    private Optional<Comparison> compare(VariableComparator comparator, VariableConfig v, ScreenedVariable b,
+                                         ScreenedVariable c, ColumnTally ct, ColumnTally bt) {
+        if (skipReason(v, b, c, ct, bt) != null) {
+            return Optional.empty();
+        }
+        return switch (v.kind()) {
+            case CONTINUOUS, ORDINAL -> Optional.of(comparator.numeric(v.name(), v.kind() == VariableKind.ORDINAL,
+                    b.numeric(), c.numeric(), v.threshold(), v.unit()));
+            case CATEGORICAL -> Optional.of(comparator.categorical(v.name(), b.categories(), c.categories(),
+                    v.threshold()));
+            case BINARY -> {
+                String success = VariableScreen.successValue(v, b.categories(), c.categories());
+                yield Optional.of(comparator.proportion(v.name(), FindingKind.SHIFT, "answering '" + success + "'",
+                        b.categories().count(success), b.categories().n(), c.categories().count(success),
+                        c.categories().n(), v.threshold()));
+            }
+            case TEXT, DATE -> Optional.empty();
+        };
+    }
+
+    /** Why a variable cannot be compared this time, or null when it can (or is never compared). */
+    static String skipReason(VariableConfig v, ScreenedVariable b, ScreenedVariable c, ColumnTally ct, ColumnTally bt) {
+        if (v.kind() == VariableKind.TEXT || v.kind() == VariableKind.DATE) {
+            return null;
+        }
+        if (ct.truncated() || bt.truncated()) {
+            return "too many distinct values to compare exactly";
+        }
+        if (b.validN() < 2 || c.validN() < 2) {
+            return "fewer than 2 valid answers in a wave (" + b.validN() + " and " + c.validN() + ")";
+        }
+        if (DataQualityFindings.distinctValid(b) <= 1 && DataQualityFindings.distinctValid(c) <= 1) {
+            return "a single value in both waves";
+        }
+        if (v.kind() == VariableKind.CATEGORICAL && b.categories().unionOrder(c.categories()).size() < 2) {
+            return "a single category";
+        }
+        return null;
+    }
+
+    private WaveProfile profile(Handle h, DatasetConfig d, WaveSource source, String wave, LongConsumer progress) {
+        List<SourceColumn> all = SourceCatalog.columns(h, source.tableFor(wave));
+        Map<String, ColumnType> schema = new LinkedHashMap<>();
+        all.forEach(c -> schema.put(c.name(), c.type()));
+        List<SourceColumn> monitored = all.stream()
+                .filter(c -> !c.name().equals(d.waveColumn()) && !d.exclude().contains(c.name())).toList();
+        WaveScanner.WaveScan scan = scanner.scan(h, source, wave, monitored, progress);
+        return new WaveProfile(wave, scan.rows(), schema, scan.columns());
+    }
+
+    /** The stored summary of an earlier wave, read from the source once if it was never stored or lacks columns. */
+    private WaveProfile baselineProfile(DatasetConfig d, WaveSource source, String wave, List<String> needed) {
+        Optional<ResultsStore.StoredSummary> stored = session.store().latestSummary(d.name(), wave);
+        if (stored.isPresent()) {
+            WaveProfile p = stored.get().profile();
+            boolean complete = needed.stream().allMatch(c -> p.columns().containsKey(c) || !p.schema().containsKey(c));
+            if (complete) {
+                return p;
+            }
+        }
+        WaveProfile p = session.source().withHandle(h -> profile(h, d, source, wave, null));
+        session.store().saveSummary(d.name(), p, p.checksum());
+        return p;
+    }
+
+    private static List<VariableConfig> variables(DatasetConfig d, WaveProfile current, List<String> inference) {
+        List<VariableConfig> out = new ArrayList<>(d.variables());
+        for (ColumnTally t : current.columns().values()) {
+            if (d.variables().stream().noneMatch(v -> v.name().equals(t.column()))) {
+                VariableInference.Inferred i = VariableInference.infer(t);
+                inference.add(VariableInference.describe(i));
+                out.add(i.variable());
+            }
+        }
+        return out;
+    }
+
+    private static List<Finding> schemaFindings(DatasetConfig d, WaveProfile baseline, WaveProfile current) {
+        List<Finding> out = new ArrayList<>();
+        if (baseline == null) {
+            return out;
+        }
+        for (Map.Entry<String, ColumnType> e : current.schema().entrySet()) {
+            ColumnType before = baseline.schema().get(e.getKey());
+            if (before == null) {
+                out.add(Finding.dataQuality(e.getKey(), FindingKind.COLUMN_ADDED, null, null, "Column " + e.getKey()
+                        + " is new in this wave.", null));
+            } else if (before != e.getValue()) {
+                out.add(Finding.dataQuality(e.getKey(), FindingKind.COLUMN_RETYPED, null, null, "Column " + e.getKey()
+                        + " changed type from " + before + " to " + e.getValue() + ".", null));
+            }
+        }
+        for (String col : baseline.schema().keySet()) {
+            if (!current.schema().containsKey(col)) {
+                out.add(Finding.dataQuality(col, FindingKind.COLUMN_DROPPED, null, null, "Column " + col
+                        + " of the baseline is missing from this wave.", null));
+            }
+        }
+        return out;
+    }
+}

@@ -1,0 +1,78 @@
+package org.wavewarden.profile;
+
+import java.nio.charset.StandardCharsets;
+import java.security.MessageDigest;
+import java.security.NoSuchAlgorithmException;
+import java.util.HexFormat;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.TreeMap;
+
+/**
+ * The per-wave summary: every monitored column's tally and the table's column layout. It is computed once per
+ * wave content and stored, so that a later wave is judged against it without rereading the source.
+ *
+ * @param wave    wave label
+ * @param rows    rows in the wave
+ * @param schema  column name to storage class, for every column of the source table (not only monitored ones)
+ * @param columns tallies of the monitored columns
+ */
+public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns) {
+
+    public WaveProfile {
+        schema = java.util.Collections.unmodifiableMap(new LinkedHashMap<>(schema));
+        columns = java.util.Collections.unmodifiableMap(new LinkedHashMap<>(columns));
+    }
+
+    /**
+     * SHA-256 over a canonical rendering (columns and values sorted), so the same data always gives the same
+     * checksum whatever order the database streamed it in.
+     */
+    public String checksum() {
+        try {
+            MessageDigest md = MessageDigest.getInstance("SHA-256");
+            feed(md, "rows=" + rows);
+            new TreeMap<>(schema).forEach((k, v) -> feed(md, "col " + k + " " + v));
+            for (ColumnTally t : new TreeMap<>(columns).values()) {
+                feed(md, "tally " + t.column() + " " + t.rowCount() + " " + t.nullCount() + " " + t.truncated());
+                new TreeMap<>(t.valueCounts()).forEach((v, c) -> feed(md, v.length() + ":" + v + "=" + c));
+            }
+            return HexFormat.of().formatHex(md.digest());
+        } catch (NoSuchAlgorithmException e) {
+            throw new IllegalStateException(e);
+        }
+    }
+
+    private static void feed(MessageDigest md, String s) {
+        md.update(s.getBytes(StandardCharsets.UTF_8));
+        md.update((byte) '\n');
+    }
+
+    public List<String> columnNames() {
+        return List.copyOf(columns.keySet());
+    }
+
+    /** Pools several waves' profiles (for comparison against the pooled last k waves). */
+    public static WaveProfile pooled(String label, List<WaveProfile> waves) {
+        long rows = 0;
+        Map<String, ColumnType> schema = new LinkedHashMap<>();
+        Map<String, ColumnTally> columns = new LinkedHashMap<>();
+        for (WaveProfile w : waves) {
+            rows += w.rows;
+            schema.putAll(w.schema);
+            for (ColumnTally t : w.columns.values()) {
+                ColumnTally prev = columns.get(t.column());
+                if (prev == null) {
+                    columns.put(t.column(), t);
+                } else {
+                    Map<String, Long> merged = new java.util.HashMap<>(prev.valueCounts());
+                    t.valueCounts().forEach((v, c) -> merged.merge(v, c, Long::sum));
+                    columns.put(t.column(), new ColumnTally(t.column(), t.type(), prev.rowCount() + t.rowCount(),
+                            prev.nullCount() + t.nullCount(), merged, prev.truncated() || t.truncated()));
+                }
+            }
+        }
+        return new WaveProfile(label, rows, schema, columns);
+    }
+}

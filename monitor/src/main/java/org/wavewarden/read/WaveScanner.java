@@ -1,0 +1,131 @@
+package org.wavewarden.read;
+
+import org.jdbi.v3.core.Handle;
+import org.postgresql.PGConnection;
+import org.postgresql.copy.CopyOut;
+import org.postgresql.core.Utils;
+import org.wavewarden.config.Identifiers;
+import org.wavewarden.profile.ColumnTally;
+
+import java.sql.Connection;
+import java.sql.SQLException;
+import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.function.LongConsumer;
+
+/**
+ * Reads one wave in a single pass: one {@code COPY (SELECT ...) TO STDOUT} streams the monitored columns, and each
+ * column's distinct values are tallied as they arrive, so the JVM holds frequency tables, never rows.
+ */
+public final class WaveScanner {
+
+    /** Default cap on distinct values kept per column; beyond it the tally is marked truncated. */
+    public static final int DEFAULT_MAX_DISTINCT = 100_000;
+
+    private final int maxDistinct;
+
+    public WaveScanner(int maxDistinct) {
+        if (maxDistinct < 1) {
+            throw new IllegalArgumentException("maxDistinct must be positive, was " + maxDistinct);
+        }
+        this.maxDistinct = maxDistinct;
+    }
+
+    /** The result of one scan: the wave's row count and one tally per requested column. */
+    public record WaveScan(long rows, Map<String, ColumnTally> columns) {
+    }
+
+    public WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, LongConsumer progress) {
+        String sql = copySql(h, source, wave, columns);
+        int k = columns.size();
+        List<Map<String, long[]>> tallies = new ArrayList<>(k);
+        long[] nulls = new long[k];
+        boolean[] truncated = new boolean[k];
+        for (int i = 0; i < k; i++) {
+            tallies.add(new HashMap<>());
+        }
+        long rows = 0;
+        String[] fields = new String[k];
+        try {
+            Connection c = h.getConnection();
+            try (var st = c.createStatement()) {
+                st.execute("SET DateStyle = 'ISO, YMD'"); // dates in one text form whatever the server default
+            }
+            CopyOut copy = c.unwrap(PGConnection.class).getCopyAPI().copyOut(sql);
+            byte[] row;
+            while ((row = copy.readFromCopy()) != null) {
+                int n = CopyTextRow.split(row, fields);
+                if (n != Math.max(k, 1)) {
+                    throw new IllegalStateException("COPY row had " + n + " fields, expected " + k);
+                }
+                for (int i = 0; i < k; i++) {
+                    String v = fields[i];
+                    if (v == null) {
+                        nulls[i]++;
+                        continue;
+                    }
+                    Map<String, long[]> t = tallies.get(i);
+                    long[] cell = t.get(v);
+                    if (cell != null) {
+                        cell[0]++;
+                    } else if (t.size() < maxDistinct) {
+                        t.put(v, new long[] {1});
+                    } else {
+                        truncated[i] = true;
+                    }
+                }
+                rows++;
+                if ((rows & 0xFFFF) == 0 && progress != null) {
+                    progress.accept(rows);
+                }
+            }
+        } catch (SQLException e) {
+            throw new SourceReadException("reading wave " + wave + " failed: " + e.getMessage(), e);
+        }
+        Map<String, ColumnTally> out = new LinkedHashMap<>();
+        for (int i = 0; i < k; i++) {
+            Map<String, Long> counts = new HashMap<>(tallies.get(i).size() * 2);
+            tallies.get(i).forEach((v, cell) -> counts.put(v, cell[0]));
+            SourceColumn col = columns.get(i);
+            out.put(col.name(), new ColumnTally(col.name(), col.type(), rows, nulls[i], counts, truncated[i]));
+        }
+        return new WaveScan(rows, out);
+    }
+
+    static String copySql(Handle h, WaveSource source, String wave, List<SourceColumn> columns) {
+        StringBuilder select = new StringBuilder("SELECT ");
+        if (columns.isEmpty()) {
+            select.append("1");
+        }
+        for (int i = 0; i < columns.size(); i++) {
+            if (i > 0) {
+                select.append(", ");
+            }
+            select.append(Identifiers.quote(columns.get(i).name()));
+        }
+        select.append(" FROM ").append(source.tableFor(wave).quoted());
+        if (!source.onePerWave()) {
+            // COPY takes no bind parameters, so the wave label (read from the source itself) is escaped by the
+            // driver's literal escaping under standard_conforming_strings.
+            try {
+                select.append(" WHERE ").append(Identifiers.quote(source.waveColumn())).append("::text = '")
+                        .append(Utils.escapeLiteral(null, wave, true)).append('\'');
+            } catch (SQLException e) {
+                throw new IllegalArgumentException("wave label cannot be used: " + e.getMessage(), e);
+            }
+        }
+        return "COPY (" + select + ") TO STDOUT";
+    }
+
+    /** The source could not be read (an outage, a permission problem); the run is retried, not judged. */
+    public static final class SourceReadException extends RuntimeException {
+        private static final long serialVersionUID = 1L;
+
+        public SourceReadException(String message, Throwable cause) {
+            super(message, cause);
+        }
+    }
+}

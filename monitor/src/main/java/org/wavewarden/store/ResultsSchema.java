@@ -1,0 +1,25 @@
+package org.wavewarden.store;
+
+import org.flywaydb.core.Flyway;
+import org.flywaydb.core.api.output.MigrateResult;
+
+import javax.sql.DataSource;
+
+/** Applies the versioned results schema (sql/results in the repository) with Flyway; safe to run again. */
+public final class ResultsSchema {
+
+    private ResultsSchema() {
+    }
+
+    public static MigrateResult migrate(DataSource ds, String schema) {
+        return Flyway.configure()
+                .dataSource(ds)
+                .schemas(schema)
+                .defaultSchema(schema)
+                .createSchemas(true)
+                .locations("classpath:db/results")
+                .table("schema_history")
+                .load()
+                .migrate();
+    }
+}

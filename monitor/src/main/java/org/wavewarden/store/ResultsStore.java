@@ -1,0 +1,181 @@
+package org.wavewarden.store;
+
+import org.jdbi.v3.core.Handle;
+import org.jdbi.v3.core.Jdbi;
+import org.jdbi.v3.core.statement.PreparedBatch;
+import org.wavewarden.config.Identifiers;
+import org.wavewarden.deliver.Json;
+import org.wavewarden.judge.Finding;
+import org.wavewarden.profile.WaveProfile;
+
+import java.time.Instant;
+import java.time.OffsetDateTime;
+import java.time.ZoneOffset;
+import java.util.List;
+import java.util.Optional;
+
+/**
+ * Reads and writes the results schema. A judged wave is written in one transaction (run, findings, alerts), keyed
+ * so that a rerun on the same data replaces its findings and adds no alert twice, and a rerun on changed data
+ * supersedes the older run and its alerts.
+ */
+public final class ResultsStore {
+
+    private final Jdbi jdbi;
+    private final String s;
+
+    public ResultsStore(Jdbi jdbi, String schema) {
+        this.jdbi = jdbi;
+        this.s = Identifiers.quote(schema);
+    }
+
+    public Jdbi jdbi() {
+        return jdbi;
+    }
+
+    /** A judged wave as the run table records it. */
+    public record RunRecord(long runId, String dataset, String wave, String againstWave, String summaryChecksum,
+                            Instant startedAt, Instant finishedAt, int findingsCount, int alertsCount) {
+    }
+
+    /** What a run is about to write. */
+    public record RunWrite(String dataset, String wave, String againstWave, String summaryChecksum, Instant startedAt,
+                           Instant finishedAt, double alpha, String fdrMethod) {
+    }
+
+    public void saveSummary(String dataset, WaveProfile profile, String checksum) {
+        jdbi.useHandle(h -> saveSummary(h, dataset, profile, checksum));
+    }
+
+    void saveSummary(Handle h, String dataset, WaveProfile profile, String checksum) {
+        h.createUpdate("INSERT INTO " + s + ".wave_summary (dataset, wave, checksum, row_count, summary)"
+                        + " VALUES (:dataset, :wave, :checksum, :rows, CAST(:summary AS jsonb))"
+                        + " ON CONFLICT (dataset, wave, checksum) DO NOTHING")
+                .bind("dataset", dataset).bind("wave", profile.wave()).bind("checksum", checksum)
+                .bind("rows", profile.rows()).bind("summary", Json.write(profile))
+                .execute();
+    }
+
+    /** The most recently stored summary of a wave. */
+    public Optional<StoredSummary> latestSummary(String dataset, String wave) {
+        return jdbi.withHandle(h -> h.createQuery("SELECT checksum, summary::text AS summary FROM " + s
+                        + ".wave_summary WHERE dataset = :dataset AND wave = :wave ORDER BY created_at DESC, checksum"
+                        + " LIMIT 1")
+                .bind("dataset", dataset).bind("wave", wave)
+                .map((rs, ctx) -> new StoredSummary(rs.getString("checksum"),
+                        Json.read(rs.getString("summary"), WaveProfile.class)))
+                .findOne());
+    }
+
+    public record StoredSummary(String checksum, WaveProfile profile) {
+    }
+
+    /** The current (not superseded) judged run of a wave, if any. */
+    public Optional<RunRecord> currentRun(String dataset, String wave) {
+        return jdbi.withHandle(h -> h.createQuery("SELECT * FROM " + s + ".run WHERE dataset = :dataset AND wave = :wave"
+                        + " AND superseded_at IS NULL ORDER BY finished_at DESC LIMIT 1")
+                .bind("dataset", dataset).bind("wave", wave)
+                .map((rs, ctx) -> new RunRecord(rs.getLong("run_id"), rs.getString("dataset"), rs.getString("wave"),
+                        rs.getString("against_wave"), rs.getString("summary_checksum"),
+                        rs.getObject("started_at", OffsetDateTime.class).toInstant(),
+                        rs.getObject("finished_at", OffsetDateTime.class).toInstant(),
+                        rs.getInt("findings_count"), rs.getInt("alerts_count")))
+                .findOne());
+    }
+
+    /**
+     * Writes one judged wave atomically: the wave's summary, the run row, its findings and its alerts.
+     *
+     * @return the run id
+     */
+    public long writeRun(RunWrite run, WaveProfile currentProfile, List<Finding> findings, List<Finding> alerts) {
+        return jdbi.inTransaction(h -> {
+            saveSummary(h, run.dataset(), currentProfile, run.summaryChecksum());
+            // Earlier runs of this wave on other data are superseded, with their alerts.
+            h.createUpdate("UPDATE " + s + ".run SET superseded_at = now() WHERE dataset = :dataset AND wave = :wave"
+                            + " AND superseded_at IS NULL AND (summary_checksum <> :checksum OR against_wave <> :against)")
+                    .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("checksum", run.summaryChecksum())
+                    .bind("against", run.againstWave()).execute();
+            long runId = h.createQuery("INSERT INTO " + s + ".run (dataset, wave, against_wave, summary_checksum,"
+                            + " started_at, finished_at, alpha, fdr_method, findings_count, alerts_count)"
+                            + " VALUES (:dataset, :wave, :against, :checksum, :started, :finished, :alpha, :fdr, :nf, :na)"
+                            + " ON CONFLICT ON CONSTRAINT run_key DO UPDATE SET finished_at = EXCLUDED.finished_at,"
+                            + " started_at = EXCLUDED.started_at, alpha = EXCLUDED.alpha, fdr_method = EXCLUDED.fdr_method,"
+                            + " findings_count = EXCLUDED.findings_count, alerts_count = EXCLUDED.alerts_count,"
+                            + " superseded_at = NULL RETURNING run_id")
+                    .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("against", run.againstWave())
+                    .bind("checksum", run.summaryChecksum())
+                    .bind("started", OffsetDateTime.ofInstant(run.startedAt(), ZoneOffset.UTC))
+                    .bind("finished", OffsetDateTime.ofInstant(run.finishedAt(), ZoneOffset.UTC))
+                    .bind("alpha", run.alpha()).bind("fdr", run.fdrMethod())
+                    .bind("nf", findings.size()).bind("na", alerts.size())
+                    .mapTo(Long.class).one();
+            h.createUpdate("DELETE FROM " + s + ".finding WHERE run_id = :run").bind("run", runId).execute();
+            insertFindings(h, runId, findings);
+            h.createUpdate("UPDATE " + s + ".alert SET superseded_at = now() WHERE dataset = :dataset AND wave = :wave"
+                            + " AND superseded_at IS NULL AND run_id <> :run")
+                    .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("run", runId).execute();
+            h.createUpdate("UPDATE " + s + ".alert SET superseded_at = now() WHERE run_id = :run AND superseded_at IS NULL"
+                            + " AND NOT ((variable, kind) IN (SELECT * FROM unnest(CAST(:vars AS text[]),"
+                            + " CAST(:kinds AS text[]))))")
+                    .bind("run", runId)
+                    .bind("vars", alerts.stream().map(Finding::variable).toArray(String[]::new))
+                    .bind("kinds", alerts.stream().map(f -> f.kind().name()).toArray(String[]::new))
+                    .execute();
+            PreparedBatch b = h.prepareBatch("INSERT INTO " + s + ".alert (run_id, dataset, wave, against_wave, variable,"
+                    + " kind, verdict, sentence) VALUES (:run, :dataset, :wave, :against, :variable, :kind, :verdict,"
+                    + " :sentence) ON CONFLICT (dataset, wave, against_wave, variable, kind) WHERE superseded_at IS NULL"
+                    + " DO NOTHING");
+            for (Finding a : alerts) {
+                b.bind("run", runId).bind("dataset", run.dataset()).bind("wave", run.wave())
+                        .bind("against", run.againstWave()).bind("variable", a.variable()).bind("kind", a.kind().name())
+                        .bind("verdict", a.verdict() == null ? null : a.verdict().name()).bind("sentence", a.sentence())
+                        .add();
+            }
+            if (!alerts.isEmpty()) {
+                b.execute();
+            }
+            return runId;
+        });
+    }
+
+    private void insertFindings(Handle h, long runId, List<Finding> findings) {
+        if (findings.isEmpty()) {
+            return;
+        }
+        PreparedBatch b = h.prepareBatch("INSERT INTO " + s + ".finding (run_id, variable, kind, test, statistic, p_value,"
+                + " q_value, effect_name, effect_estimate, effect_ci_low, effect_ci_high, effect_threshold, verdict,"
+                + " n_baseline, n_current, sentence, detail) VALUES (:run, :variable, :kind, :test, :statistic, :p, :q,"
+                + " :effectName, :estimate, :ciLow, :ciHigh, :threshold, :verdict, :nb, :nc, :sentence,"
+                + " CAST(:detail AS jsonb))");
+        for (Finding f : findings) {
+            Finding.Effect e = f.effect();
+            b.bind("run", runId).bind("variable", f.variable()).bind("kind", f.kind().name()).bind("test", f.test())
+                    .bind("statistic", f.statistic()).bind("p", f.pValue()).bind("q", f.qValue())
+                    .bind("effectName", e == null ? null : e.name())
+                    .bind("estimate", e == null ? null : e.estimate())
+                    .bind("ciLow", e == null ? null : e.ciLow())
+                    .bind("ciHigh", e == null ? null : e.ciHigh())
+                    .bind("threshold", e == null ? null : e.threshold())
+                    .bind("verdict", f.verdict() == null ? null : f.verdict().name())
+                    .bind("nb", f.nBaseline()).bind("nc", f.nCurrent()).bind("sentence", f.sentence())
+                    .bind("detail", Json.write(f.detail() == null ? java.util.Map.of() : f.detail()))
+                    .add();
+        }
+        b.execute();
+    }
+
+    /** Open alerts of a dataset, newest first. */
+    public List<AlertRow> openAlerts(String dataset) {
+        return jdbi.withHandle(h -> h.createQuery("SELECT alert_id, wave, against_wave, variable, kind, verdict, sentence"
+                        + " FROM " + s + ".alert WHERE dataset = :dataset AND superseded_at IS NULL ORDER BY alert_id")
+                .bind("dataset", dataset)
+                .map((rs, ctx) -> new AlertRow(rs.getLong(1), rs.getString(2), rs.getString(3), rs.getString(4),
+                        rs.getString(5), rs.getString(6), rs.getString(7)))
+                .list());
+    }
+
+    public record AlertRow(long alertId, String wave, String againstWave, String variable, String kind, String verdict,
+                           String sentence) {
+    }
+}
