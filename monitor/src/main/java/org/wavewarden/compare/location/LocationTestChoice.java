@@ -1,0 +1,112 @@
+package org.wavewarden.compare.location;
+
+import java.util.Locale;
+import org.wavewarden.compare.TestResult;
+import org.wavewarden.compare.normality.Moments;
+import org.wavewarden.compare.normality.ShapiroWilkTest;
+import org.wavewarden.profile.NumericDistribution;
+
+/**
+ * The rule that picks the primary location test for a continuous variable: Welch's t on means, or Mann-Whitney on
+ * ranks.
+ *
+ * <p>The rule, applied in this order:
+ * <ol>
+ *   <li>If either wave has fewer than {@value #MIN_N} observations or fewer than {@value #MIN_DISTINCT} distinct
+ *       values: {@link LocationTest#MANN_WHITNEY}. So coarse a variable is an ordinal scale, not a normal one, and
+ *       Mann-Whitney handles its ties exactly.</li>
+ *   <li>If both waves have at most {@value #SHAPIRO_WILK_MAX_N} observations: Shapiro-Wilk (Royston 1995, see
+ *       {@link ShapiroWilkTest}) on each wave at level {@value #SHAPIRO_WILK_LEVEL}. Neither rejected:
+ *       {@link LocationTest#WELCH_T}; otherwise {@link LocationTest#MANN_WHITNEY}. The low level keeps Welch's t
+ *       for data that are only mildly non-normal, where it remains accurate.</li>
+ *   <li>If either wave has more than {@value #SHAPIRO_WILK_MAX_N} observations, any normality test rejects for
+ *       departures too small to matter, so the shape is judged instead: {@link LocationTest#WELCH_T} when both waves
+ *       have |sample skewness g1| at most {@value #MAX_ABS_SKEWNESS} and |excess kurtosis g2| at most
+ *       {@value #MAX_ABS_EXCESS_KURTOSIS} ({@link Moments}), otherwise {@link LocationTest#MANN_WHITNEY}. These
+ *       bounds are common practice, no source. The reasoning: at such sizes the sample means are close to normal by
+ *       the central limit theorem, so Welch's t is valid whatever the shape, and for a distribution this close to
+ *       symmetric and normal-tailed the mean is a fair summary of where the values lie; for strongly skewed or
+ *       heavy-tailed variables a shift in the mean can be driven by a few extreme answers, and the rank-based
+ *       comparison says more about the bulk of respondents.</li>
+ * </ol>
+ */
+public final class LocationTestChoice {
+
+    public static final int MIN_N = 3;
+    public static final int MIN_DISTINCT = 5;
+    public static final int SHAPIRO_WILK_MAX_N = ShapiroWilkTest.MAX_N;
+    public static final double SHAPIRO_WILK_LEVEL = 0.01;
+    public static final double MAX_ABS_SKEWNESS = 1.0;
+    public static final double MAX_ABS_EXCESS_KURTOSIS = 2.0;
+
+    /** The two candidate primary tests for a continuous variable. */
+    public enum LocationTest { WELCH_T, MANN_WHITNEY }
+
+    /**
+     * The chosen test and why, in a sentence a reader of the findings can follow.
+     *
+     * @param test   the primary test
+     * @param reason plain-language reason for the choice
+     */
+    public record Choice(LocationTest test, String reason) {
+        public Choice {
+            if (test == null) {
+                throw new IllegalArgumentException("test must not be null");
+            }
+            if (reason == null || reason.isBlank()) {
+                throw new IllegalArgumentException("reason must not be blank");
+            }
+        }
+    }
+
+    private LocationTestChoice() {
+    }
+
+    /** Applies the rule above to the two waves' frequency tables. */
+    public static Choice choose(NumericDistribution baseline, NumericDistribution current) {
+        if (baseline == null || current == null) {
+            throw new IllegalArgumentException((baseline == null ? "baseline" : "current") + " must not be null");
+        }
+        long nb = baseline.n();
+        long nc = current.n();
+        if (nb < MIN_N || nc < MIN_N || baseline.size() < MIN_DISTINCT || current.size() < MIN_DISTINCT) {
+            return new Choice(LocationTest.MANN_WHITNEY, String.format(Locale.ROOT,
+                    "too few distinct values for a normal model (baseline %d observations, %d distinct; "
+                            + "current %d observations, %d distinct)", nb, baseline.size(), nc, current.size()));
+        }
+        if (nb <= SHAPIRO_WILK_MAX_N && nc <= SHAPIRO_WILK_MAX_N) {
+            TestResult swb = ShapiroWilkTest.test(baseline);
+            TestResult swc = ShapiroWilkTest.test(current);
+            boolean normalB = swb.pValue() >= SHAPIRO_WILK_LEVEL;
+            boolean normalC = swc.pValue() >= SHAPIRO_WILK_LEVEL;
+            String detail = String.format(Locale.ROOT, "Shapiro-Wilk p = %.3g (baseline), %.3g (current), level %s",
+                    swb.pValue(), swc.pValue(), SHAPIRO_WILK_LEVEL);
+            if (normalB && normalC) {
+                return new Choice(LocationTest.WELCH_T, "both waves are consistent with a normal distribution ("
+                        + detail + ")");
+            }
+            String which = !normalB && !normalC ? "both waves" : !normalB ? "the baseline wave" : "the current wave";
+            return new Choice(LocationTest.MANN_WHITNEY, which + " departs from a normal distribution (" + detail
+                    + ")");
+        }
+        Moments mb = Moments.of(baseline);
+        Moments mc = Moments.of(current);
+        boolean okB = nearNormalShape(mb);
+        boolean okC = nearNormalShape(mc);
+        String detail = String.format(Locale.ROOT,
+                "skewness %.2f and excess kurtosis %.2f (baseline), %.2f and %.2f (current); limits %s and %s",
+                mb.skewness(), mb.excessKurtosis(), mc.skewness(), mc.excessKurtosis(), MAX_ABS_SKEWNESS,
+                MAX_ABS_EXCESS_KURTOSIS);
+        if (okB && okC) {
+            return new Choice(LocationTest.WELCH_T, "large waves with a near-symmetric, normal-tailed shape, so "
+                    + "the mean is a fair summary and Welch's t is valid (" + detail + ")");
+        }
+        String which = !okB && !okC ? "both waves are" : !okB ? "the baseline wave is" : "the current wave is";
+        return new Choice(LocationTest.MANN_WHITNEY, which + " too skewed or heavy-tailed for the mean to summarise "
+                + "them (" + detail + ")");
+    }
+
+    private static boolean nearNormalShape(Moments m) {
+        return Math.abs(m.skewness()) <= MAX_ABS_SKEWNESS && Math.abs(m.excessKurtosis()) <= MAX_ABS_EXCESS_KURTOSIS;
+    }
+}

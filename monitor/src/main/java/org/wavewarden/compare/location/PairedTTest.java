@@ -1,0 +1,55 @@
+package org.wavewarden.compare.location;
+
+import org.wavewarden.profile.NumericDistribution;
+
+/**
+ * The paired t test: a one-sample t test on the within-pair differences {@code current[i] - baseline[i]}, df = n - 1.
+ *
+ * <p>Source: Student (1908), "The probable error of a mean", Biometrika 6, 1-25 (his sleep data are paired). Used
+ * for panel waves where the same respondents answer twice; the pairing needs the rows, so this test alone takes
+ * arrays instead of frequency tables (the differences are then tabulated).
+ */
+public final class PairedTTest {
+
+    public static final String NAME = "paired t";
+
+    private PairedTTest() {
+    }
+
+    /**
+     * @param baseline   the earlier answers, index i the same unit as in {@code current}
+     * @param current    the later answers, same length as {@code baseline}, at least 2 pairs
+     * @param confidence level of the interval, in (0, 1)
+     * @throws IllegalArgumentException on different lengths, fewer than 2 pairs, non-finite values or constant
+     *                                  differences
+     */
+    public static MeanDifference test(double[] baseline, double[] current, double confidence) {
+        if (baseline == null || current == null) {
+            throw new IllegalArgumentException((baseline == null ? "baseline" : "current") + " must not be null");
+        }
+        if (baseline.length != current.length) {
+            throw new IllegalArgumentException("baseline has " + baseline.length + " values but current has "
+                    + current.length + "; pairs need equal lengths");
+        }
+        if (baseline.length < 2) {
+            throw new IllegalArgumentException("baseline and current need at least 2 pairs, have " + baseline.length);
+        }
+        TStatistics.checkConfidence(confidence);
+        double[] diff = new double[baseline.length];
+        double sumB = 0;
+        double sumC = 0;
+        for (int i = 0; i < diff.length; i++) {
+            if (!Double.isFinite(baseline[i])) {
+                throw new IllegalArgumentException("baseline[" + i + "] is not finite: " + baseline[i]);
+            }
+            if (!Double.isFinite(current[i])) {
+                throw new IllegalArgumentException("current[" + i + "] is not finite: " + current[i]);
+            }
+            diff[i] = current[i] - baseline[i];
+            sumB += baseline[i];
+            sumC += current[i];
+        }
+        return OneSampleTTest.of(NAME, NumericDistribution.ofSample(diff), 0.0, confidence,
+                sumB / diff.length, sumC / diff.length);
+    }
+}
