@@ -1,0 +1,60 @@
+package org.wavewarden.compare.categorical;
+
+import org.wavewarden.compare.EffectSize;
+
+/**
+ * Cramér's V, the chi-square statistic rescaled to [0, 1]: V = sqrt(X2 / (n (min(r, c) - 1))) (Cramér 1946,
+ * Mathematical Methods of Statistics, section 21.9).
+ *
+ * <p>The confidence interval inverts the noncentral chi-square distribution for the noncentrality (Smithson 2003; as
+ * MBESS's {@code conf.limits.nc.chisq}) and maps each limit lambda to sqrt(lambda / (n (min(r, c) - 1))), the same
+ * map that takes X2 to V. When X2 falls far below its degrees of freedom both limits can be 0 while the plug-in
+ * estimate is positive; the interval then says "no association" and is the part to read.
+ *
+ * <p>{@link #biasCorrected} is Bergsma's (2013, Journal of the Korean Statistical Society 42, 323-328) correction,
+ * which removes most of the upward bias of V in small samples.
+ *
+ * <p>V has no sign; rows and columns with zero totals are dropped as in {@link ChiSquareHomogeneity}.
+ */
+public final class CramersV {
+
+    static final String NAME = "Cramér's V";
+
+    private CramersV() {
+    }
+
+    public static EffectSize estimate(long[][] table, double confidence) {
+        ChiSquareResult chi = ChiSquareHomogeneity.test(table);
+        double n = n(table);
+        int k = Math.min(chi.keptRows().length, chi.keptColumns().length);
+        if (k < 2) {
+            return new EffectSize(NAME, 0, 0, 0, confidence);
+        }
+        double scale = n * (k - 1);
+        double x2 = chi.test().statistic();
+        double[] ncp = NoncentralityInterval.of(x2, chi.test().df(), confidence);
+        return new EffectSize(NAME, Math.sqrt(x2 / scale), Math.sqrt(ncp[0] / scale), Math.sqrt(ncp[1] / scale),
+                confidence);
+    }
+
+    /** Bergsma's (2013) bias-corrected V; 0 when the corrected phi-square is not positive. */
+    public static double biasCorrected(long[][] table) {
+        ChiSquareResult chi = ChiSquareHomogeneity.test(table);
+        double n = n(table);
+        int r = chi.keptRows().length;
+        int c = chi.keptColumns().length;
+        if (r < 2 || c < 2 || n < 2) {
+            return 0;
+        }
+        double phi2 = chi.test().statistic() / n;
+        double phi2Corrected = Math.max(0, phi2 - (r - 1.0) * (c - 1.0) / (n - 1));
+        double rCorrected = r - (r - 1.0) * (r - 1.0) / (n - 1);
+        double cCorrected = c - (c - 1.0) * (c - 1.0) / (n - 1);
+        double denominator = Math.min(rCorrected - 1, cCorrected - 1);
+        return denominator > 0 ? Math.sqrt(phi2Corrected / denominator) : 0;
+    }
+
+    static double n(long[][] table) {
+        return ContingencyTables.total(ContingencyTables.rowTotals(table));
+    }
+}

@@ -1,0 +1,27 @@
+package org.wavewarden.compare.proportion;
+
+/**
+ * The Wilson (1927, JASA 22) score interval for one binomial proportion, without continuity correction: the
+ * proportions p whose score statistic (phat - p) / sqrt(p (1 - p) / n) lies within +-z (R's
+ * {@code prop.test(x, n, correct = FALSE)$conf.int}).
+ *
+ * @param lower lower limit
+ * @param upper upper limit
+ */
+public record WilsonInterval(double lower, double upper) {
+
+    public static WilsonInterval of(long successes, long n, double confidence) {
+        Proportions.checkCount(successes, n, "successes", "n");
+        Proportions.checkConfidence(confidence);
+        double z = Proportions.twoSidedQuantile(confidence);
+        double p = (double) successes / n;
+        double z2 = z * z;
+        double centre = p + z2 / (2.0 * n);
+        double half = z * Math.sqrt(p * (1 - p) / n + z2 / (4.0 * n * n));
+        double denominator = 1 + z2 / n;
+        // at p = 0 or 1 one limit is exactly 0 or 1; computing it as a difference would leave rounding dust
+        double lower = successes == 0 ? 0 : Math.max(0, (centre - half) / denominator);
+        double upper = successes == n ? 1 : Math.min(1, (centre + half) / denominator);
+        return new WilsonInterval(lower, upper);
+    }
+}
