@@ -73,8 +73,8 @@ public final class Session implements AutoCloseable {
     }
 
     /** Applies the results schema (idempotent). */
-    public void migrate() {
-        ResultsSchema.migrate(results, config.results().schema());
+    public org.flywaydb.core.api.output.MigrateResult migrate() {
+        return ResultsSchema.migrate(results, config.results().schema());
     }
 
     public WardenConfig config() {

@@ -1,0 +1,35 @@
+package org.wavewarden.cli;
+
+import org.jdbi.v3.core.Handle;
+import org.wavewarden.config.ConfigLoader;
+import org.wavewarden.config.WardenConfig;
+import org.wavewarden.pipeline.CatalogCheck;
+import org.wavewarden.pipeline.Session;
+import picocli.CommandLine.Option;
+
+import java.nio.file.Path;
+
+/** The {@code --config} option shared by the commands that talk to a server. */
+final class ConfigOption {
+
+    @Option(names = {"-c", "--config"}, required = true, paramLabel = "FILE",
+            description = "YAML configuration (see config/example-external.yaml)")
+    Path file;
+
+    WardenConfig load() {
+        return ConfigLoader.load(file);
+    }
+
+    /** Loads the config, connects, and checks every configured table and column against the catalog. */
+    Session open() {
+        WardenConfig config = load();
+        Session s = Session.open(config, null, System.getenv());
+        try (Handle h = s.source().open()) {
+            CatalogCheck.verify(h, config);
+        } catch (RuntimeException e) {
+            s.close();
+            throw e;
+        }
+        return s;
+    }
+}

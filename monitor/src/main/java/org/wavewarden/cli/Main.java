@@ -1,0 +1,90 @@
+package org.wavewarden.cli;
+
+import org.wavewarden.config.ConfigException;
+import org.wavewarden.pipeline.Session;
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+
+import java.io.PrintWriter;
+
+/**
+ * The one executable. Exit codes: 0 fine, 1 findings at or above {@code --fail-on}, 2 usage or config error,
+ * 3 database unreachable.
+ */
+@Command(name = "wavewarden", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
+        description = "Judges each new survey wave against earlier waves and flags disguised missing values.",
+        subcommands = {DemoCommand.class, InitDbCommand.class, ImportCommand.class, WavesCommand.class,
+                CheckCommand.class, CommandLine.HelpCommand.class})
+public final class Main implements Runnable {
+
+    public static final int OK = 0;
+    public static final int FINDINGS = 1;
+    public static final int USAGE = 2;
+    public static final int UNREACHABLE = 3;
+
+    @CommandLine.Spec
+    CommandLine.Model.CommandSpec spec;
+
+    public static void main(String[] args) {
+        System.exit(run(args, new PrintWriter(System.out, true), new PrintWriter(System.err, true)));
+    }
+
+    /** Runs a command line and returns its exit code; the tests call this directly. */
+    public static int run(String[] args, PrintWriter out, PrintWriter err) {
+        CommandLine cl = new CommandLine(new Main());
+        cl.setOut(out);
+        cl.setErr(err);
+        cl.setExecutionExceptionHandler((ex, line, parsed) -> {
+            Throwable e = ex;
+            while (e instanceof RuntimeException && e.getCause() != null && !(e instanceof ConfigException)
+                    && !(e instanceof Session.DatabaseUnavailableException) && e.getCause() instanceof RuntimeException) {
+                e = e.getCause();
+            }
+            if (e instanceof ConfigException ce) {
+                line.getErr().println("config error at " + ce.key() + ": " + ce.problem());
+                return USAGE;
+            }
+            if (e instanceof Session.DatabaseUnavailableException du) {
+                line.getErr().println("database unreachable: " + du.getMessage());
+                return UNREACHABLE;
+            }
+            if (e instanceof org.jdbi.v3.core.ConnectionException || isConnectionFailure(e)) {
+                line.getErr().println("database unreachable: " + e.getMessage());
+                return UNREACHABLE;
+            }
+            line.getErr().println("error: " + e);
+            return 4;
+        });
+        cl.setParameterExceptionHandler((ex, a) -> {
+            ex.getCommandLine().getErr().println(ex.getMessage());
+            ex.getCommandLine().usage(ex.getCommandLine().getErr());
+            return USAGE;
+        });
+        return cl.execute(args);
+    }
+
+    static boolean isConnectionFailure(Throwable e) {
+        for (Throwable t = e; t != null; t = t.getCause()) {
+            if (t instanceof java.sql.SQLException s && s.getSQLState() != null && s.getSQLState().startsWith("08")) {
+                return true;
+            }
+            if (t instanceof java.sql.SQLTransientConnectionException) {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    @Override
+    public void run() {
+        spec.commandLine().usage(spec.commandLine().getOut());
+    }
+
+    static final class Version implements CommandLine.IVersionProvider {
+        @Override
+        public String[] getVersion() {
+            String v = Main.class.getPackage().getImplementationVersion();
+            return new String[] {"wavewarden " + (v == null ? "development build" : v)};
+        }
+    }
+}

@@ -1,0 +1,43 @@
+package org.wavewarden.deliver;
+
+import org.wavewarden.judge.Finding;
+import org.wavewarden.judge.FindingKind;
+
+import java.util.Locale;
+
+/** A fixed-width table of a judged wave's findings for the terminal. */
+public final class ConsoleTable {
+
+    private ConsoleTable() {
+    }
+
+    public static String render(FindingsReport r, boolean all) {
+        StringBuilder sb = new StringBuilder();
+        sb.append(r.dataset()).append(" wave ").append(r.wave())
+                .append(r.againstWave() == null ? " (screened alone)" : " against " + r.againstWave()).append('\n');
+        sb.append(String.format(Locale.ROOT, "  %-10s %-22s %-20s %-28s %9s %9s%n", "verdict", "variable", "kind",
+                "effect [CI]", "p", "q"));
+        for (Finding f : FindingsFiles.ordered(r.findings())) {
+            if (!all && !Alerts.worthAPerson(f) && f.verdict() != org.wavewarden.judge.Verdict.MINOR) {
+                continue;
+            }
+            String effect = f.effect() == null ? "" : String.format(Locale.ROOT, "%+.3f [%+.3f, %+.3f]",
+                    f.effect().estimate(), f.effect().ciLow(), f.effect().ciHigh());
+            sb.append(String.format(Locale.ROOT, "  %-10s %-22s %-20s %-28s %9s %9s%n",
+                    f.verdict() == null ? (f.kind() == FindingKind.SKIPPED ? "skipped" : "quality") : f.verdict().name(),
+                    cut(f.variable(), 22), cut(f.kind().name(), 20), effect, p(f.pValue()), p(f.qValue())));
+        }
+        return sb.toString();
+    }
+
+    static String cut(String s, int n) {
+        return s.length() <= n ? s : s.substring(0, n - 1) + "~";
+    }
+
+    static String p(Double p) {
+        if (p == null) {
+            return "";
+        }
+        return p < 0.0001 ? "<0.0001" : String.format(Locale.ROOT, "%.4f", p);
+    }
+}
