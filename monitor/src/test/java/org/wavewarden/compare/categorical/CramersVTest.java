@@ -45,6 +45,17 @@ class CramersVTest {
     }
 
     @Test
+    void cramersVIntervalHoldsForLargeWaves() {
+        long[][] big = {{60000, 30000, 10000}, {40000, 40000, 20000}};
+        EffectSize v = CramersV.estimate(big, 0.95);
+        // R 4.2.2: chisq.test(big, correct = FALSE)$statistic = 8761.9047619047615; ci(8761.9047619047615, 2, 0.95)
+        //   = 8397.8317043464413, 9131.6608452248129 (uniroot on pchisq with ncp, see above); n = 200000
+        assertClose(Math.sqrt(8761.9047619047615 / 200000), v.estimate(), 1e-12, "V");
+        assertClose(Math.sqrt(8397.8317043464413 / 200000), v.ciLow(), 1e-8, "lower");
+        assertClose(Math.sqrt(9131.6608452248129 / 200000), v.ciHigh(), 1e-8, "upper");
+    }
+
+    @Test
     void biasCorrectedVMatchesBergsmaFormulaInR() {
         // R 4.2.2, Bergsma (2013) eq. for the corrected V:
         //   p2 <- max(0, X2 / n - (k - 1) (r - 1) / (n - 1)); rr <- r - (r - 1)^2 / (n - 1);
