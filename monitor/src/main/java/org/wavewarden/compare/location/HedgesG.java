@@ -19,7 +19,8 @@ import org.wavewarden.profile.NumericDistribution;
  * {@code (1 - confidence)/2} quantile), converted back to the d scale and multiplied by J. This is the
  * confidence-interval inversion of Steiger, J. H. and Fouladi, R. T. (1997), "Noncentrality interval estimation and
  * the evaluation of statistical models", in Harlow, Mulaik and Steiger (eds.), What If There Were No Significance
- * Tests?, and matches what R's MBESS and effectsize packages report for Hedges' g.
+ * Tests?, the method R's MBESS ({@code ci.smd}) and effectsize packages are built on. The reference values in the
+ * tests are base R's {@code pt(q, df, ncp)} inverted with {@code uniroot}, not those packages themselves.
  *
  * <p>Interval, large waves: when {@code n1 + n2 > 100000}, or when the inversion fails to bracket a root, the normal
  * approximation of Hedges, L. V. and Olkin, I. (1985), Statistical Methods for Meta-Analysis, Chapter 5, is used:
