@@ -22,7 +22,7 @@ import org.apache.commons.math3.special.Gamma;
  */
 public final class NoncentralT {
 
-    private static final double MAX_ITERATIONS = 1000;
+    private static final int MAX_ITERATIONS = 1000;
     private static final double ERROR_BOUND = 1e-12;
     /** Beyond this |ncp|, exp(-ncp^2 / 2) underflows to 0 in double precision (2 ln 2 * 1021 = ncp^2). */
     private static final double NCP_SQUARED_LIMIT = 2 * Math.log(2) * 1021;
@@ -59,18 +59,17 @@ public final class NoncentralT {
             // P(T <= t) <= P(T <= 0) = Phi(-ncp), which is below 1e-300 here.
             return 0.0;
         }
-        double upper; // P(T' <= tt) for T' with noncentrality del
         if (df > DF_LIMIT || del * del > NCP_SQUARED_LIMIT) {
             double s = 1 / (4 * df);
             double z = (tt * (1 - s) - del) / Math.sqrt(1 + tt * tt * 2 * s);
             return reflected ? normalCdf(-z) : normalCdf(z);
         }
-        upper = series(tt, df, del) + normalCdf(-del);
-        upper = Math.min(upper, 1.0);
-        return reflected ? Math.max(0.0, 1 - upper) : upper;
+        // P(T' <= tt) for T' with noncentrality del: the series covers (0, tt], Phi(-del) the mass below 0
+        double below = Math.min(1.0, series(tt, df, del) + normalCdf(-del));
+        return reflected ? Math.max(0.0, 1 - below) : below;
     }
 
-    /** Lenth's series for P(0 < T' <= tt), tt >= 0; the remaining mass P(T' <= 0) = Phi(-del) is added by the caller. */
+    /** Lenth's series for P(0 < T' <= tt), tt >= 0. */
     private static double series(double tt, double df, double del) {
         double x = tt * tt / (tt * tt + df);
         if (!(x > 0)) {
