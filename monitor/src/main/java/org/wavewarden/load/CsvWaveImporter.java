@@ -81,8 +81,9 @@ public final class CsvWaveImporter {
                         + "; pass --replace to load it again");
             }
             try (Statement st = c.createStatement()) {
-                st.execute("CREATE TEMP TABLE wavewarden_staging (LIKE " + table.quoted()
-                        + " INCLUDING DEFAULTS) ON COMMIT DROP");
+                // CREATE TABLE AS copies no NOT NULL constraint, so the wave column may stay empty until set below.
+                st.execute("CREATE TEMP TABLE wavewarden_staging ON COMMIT DROP AS SELECT * FROM " + table.quoted()
+                        + " WITH NO DATA");
             }
             String cols = String.join(", ", header.stream().map(Identifiers::quote).toList());
             long rows;
@@ -102,8 +103,12 @@ public final class CsvWaveImporter {
                     ps.executeUpdate();
                 }
             }
+            String wc = Identifiers.quote(waveColumn);
+            String insertCols = header.contains(waveColumn) ? cols : cols + ", " + wc;
             try (Statement st = c.createStatement()) {
-                st.executeUpdate("INSERT INTO " + table.quoted() + " SELECT * FROM wavewarden_staging");
+                // Naming the columns lets the table's own defaults fill any column the file does not have.
+                st.executeUpdate("INSERT INTO " + table.quoted() + " (" + insertCols + ") SELECT " + insertCols
+                        + " FROM wavewarden_staging");
             }
             c.commit();
             return new Imported(wave, rows);

@@ -127,7 +127,8 @@ public final class WaveJudge {
                 });
             }
         }
-        List<Finding> findings = new ArrayList<>(Judge.judge(comparisons, cfg.alpha(), cfg.fdr()));
+        List<Finding> findings = new ArrayList<>(onePerVariableAndKind(Judge.judge(comparisons, cfg.alpha(),
+                cfg.fdr())));
         findings.addAll(plain);
         findings = FindingsFiles.ordered(findings);
         List<Finding> alerts = Alerts.select(findings);
@@ -142,6 +143,40 @@ public final class WaveJudge {
             FindingsFiles.write(outDir, report);
         }
         return new JudgedWave(report, runId, alerts);
+    }
+
+    /** The missing rate of one reason, as the detail of the variable's MISSING_RATE_CHANGE finding lists it. */
+    record ReasonRate(String reason, double shareBaseline, double shareCurrent, double pValue, double qValue,
+                      String verdict, String sentence) {
+    }
+
+    /**
+     * Every missing reason of a variable is tested (and counted by the false-discovery-rate control), but a reader
+     * gets one MISSING_RATE_CHANGE finding per variable: the most urgent reason, with every reason in its detail.
+     * This keeps the alert key (dataset, wave, against, variable, kind) one row per variable.
+     */
+    static List<Finding> onePerVariableAndKind(List<Finding> judged) {
+        Map<String, List<Finding>> rates = new LinkedHashMap<>();
+        List<Finding> out = new ArrayList<>();
+        for (Finding f : judged) {
+            if (f.kind() == FindingKind.MISSING_RATE_CHANGE) {
+                rates.computeIfAbsent(f.variable(), k -> new ArrayList<>()).add(f);
+            } else {
+                out.add(f);
+            }
+        }
+        rates.forEach((variable, list) -> {
+            List<Finding> ranked = FindingsFiles.ordered(list);
+            Finding top = ranked.get(0);
+            List<ReasonRate> detail = ranked.stream().map(f -> {
+                var d = (VariableComparator.ProportionDetail) f.detail();
+                return new ReasonRate(d.successValue().replaceFirst("^missing \\((.*)\\)$", "$1"), d.shareBaseline(),
+                        d.shareCurrent(), f.pValue(), f.qValue(), f.verdict().name(), f.sentence());
+            }).toList();
+            out.add(new Finding(top.variable(), top.kind(), top.test(), top.statistic(), top.pValue(), top.qValue(),
+                    top.effect(), top.verdict(), top.nBaseline(), top.nCurrent(), top.sentence(), detail));
+        });
+        return out;
     }
 
     private Optional<Comparison> compare(VariableComparator comparator, VariableConfig v, ScreenedVariable b,
