@@ -48,7 +48,8 @@ public final class ConfigLoader {
             root = YAML.readTree(yaml);
         } catch (JsonProcessingException e) {
             String where = e.getLocation() == null ? "" : " at line " + e.getLocation().getLineNr();
-            throw new ConfigException("(file)", "not valid YAML" + where + ": " + e.getOriginalMessage());
+            String first = String.valueOf(e.getOriginalMessage()).lines().findFirst().orElse("").strip();
+            throw new ConfigException("(file)", "not valid YAML" + where + ": " + first);
         }
         if (root == null || !root.isObject()) {
             throw new ConfigException("(file)", "expected a mapping with keys source, datasets, ... at the top");

@@ -1,0 +1,140 @@
+package org.wavewarden.config;
+
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.Arguments;
+import org.junit.jupiter.params.provider.MethodSource;
+import org.wavewarden.testing.CliRun;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.stream.Stream;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertInstanceOf;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+/**
+ * A bad config is refused before anything connects: exit code 2 and one line naming the key and what was expected.
+ * (Unknown tables and columns need the catalog; they are covered in WaveJudgeIntegrationTest.)
+ */
+class ConfigLoaderTest {
+
+    static final String GOOD = """
+            source:
+              jdbcUrl: "jdbc:postgresql://127.0.0.1:1/survey"
+              user: reader
+              passwordEnv: SURVEY_PASSWORD
+            alpha: 0.05
+            datasets:
+              - name: coastal
+                table: survey.household_wave
+                waveColumn: wave
+                compareWith: {pooledLast: 3}
+                schedule: "0 15 2 * * ?"
+                variables:
+                  - name: age
+                    kind: continuous
+                    unit: years
+                    range: {min: 16, max: 99}
+                    missingCodes: [{value: -9, reason: refused}]
+                    threshold: {raw: 1.5}
+                  - name: broadband
+                    kind: binary
+                    successValue: "yes"
+                    threshold: {points: 2}
+            """;
+
+    @Test
+    void aGoodConfigParsesIntoRecords() {
+        WardenConfig c = ConfigLoader.parse(GOOD);
+        assertEquals(0.05, c.alpha());
+        DatasetConfig d = c.dataset("coastal");
+        assertEquals(new CompareWith.PooledLast(3), d.compareWith());
+        assertEquals(1.5, d.variables().get(0).threshold().raw());
+        assertEquals("-9", d.variables().get(0).missingCodes().get(0).value());
+        assertEquals(VariableKind.BINARY, d.variables().get(1).kind());
+        assertInstanceOf(CompareWith.Previous.class, ConfigLoader.parse(GOOD.replace("compareWith: {pooledLast: 3}",
+                "compareWith: previous")).dataset("coastal").compareWith());
+    }
+
+    static Stream<Arguments> badConfigs() {
+        return Stream.of(
+                Arguments.of("misspelt top-level key", GOOD.replace("alpha:", "alfa:"),
+                        "alfa: unknown key; did you mean 'alpha'?"),
+                Arguments.of("misspelt variable key", GOOD.replace("unit: years", "units: years"),
+                        "datasets[0].variables[0].units: unknown key; did you mean 'unit'?"),
+                Arguments.of("unknown kind", GOOD.replace("kind: continuous", "kind: contnuous"),
+                        "datasets[0].variables[0].kind: expected one of continuous, ordinal, categorical, binary,"
+                                + " text, date but got 'contnuous' (did you mean 'continuous'?)"),
+                Arguments.of("alpha is text", GOOD.replace("alpha: 0.05", "alpha: five percent"),
+                        "alpha: expected a number but got text"),
+                Arguments.of("alpha outside (0, 1)", GOOD.replace("alpha: 0.05", "alpha: 1.5"),
+                        "alpha: expected a number strictly between 0 and 1 but got 1.5"),
+                Arguments.of("datasets missing", GOOD.substring(0, GOOD.indexOf("datasets:")),
+                        "datasets: expected a list with at least one dataset"),
+                Arguments.of("variables not a list", GOOD.substring(0, GOOD.indexOf("    variables:"))
+                                + "    variables: age\n",
+                        "datasets[0].variables: expected a list of variables"),
+                Arguments.of("table carrying SQL", GOOD.replace("survey.household_wave", "\"x\\\"; DROP TABLE t; --\""),
+                        "datasets[0].table: expected a plain SQL identifier"),
+                Arguments.of("column carrying SQL", GOOD.replace("name: age", "name: \"age; --\""),
+                        "datasets[0].variables[0].name: expected a plain SQL identifier"),
+                Arguments.of("wave column carrying SQL", GOOD.replace("waveColumn: wave", "waveColumn: \"wave) OR (1=1\""),
+                        "datasets[0].waveColumn: expected a plain SQL identifier"),
+                Arguments.of("inline password", GOOD.replace("passwordEnv: SURVEY_PASSWORD", "password: hunter2"),
+                        "source.password: passwords are never written in the config"),
+                Arguments.of("bad JDBC URL", GOOD.replace("jdbc:postgresql://127.0.0.1:1/survey", "mysql://x"),
+                        "source.jdbcUrl: expected 'embedded' or a URL starting with jdbc:postgresql://"),
+                Arguments.of("bad cron", GOOD.replace("0 15 2 * * ?", "every night"),
+                        "datasets[0].schedule: expected a Quartz cron expression"),
+                Arguments.of("raw threshold on a binary", GOOD.replace("threshold: {points: 2}", "threshold: {raw: 2}"),
+                        "datasets[0].variables[1].threshold.raw: raw units apply to continuous and ordinal variables"),
+                Arguments.of("points on a continuous", GOOD.replace("threshold: {raw: 1.5}", "threshold: {points: 1.5}"),
+                        "datasets[0].variables[0].threshold.points: percentage points apply to binary and categorical"),
+                Arguments.of("effect threshold on the wrong scale", GOOD.replace("threshold: {raw: 1.5}",
+                        "threshold: {effect: 15}"), "datasets[0].variables[0].threshold.effect: effect-scale thresholds"
+                        + " are at most 2"),
+                Arguments.of("range min above max", GOOD.replace("{min: 16, max: 99}", "{min: 99, max: 16}"),
+                        "datasets[0].variables[0].range: min 99.0 is above max 16.0"),
+                Arguments.of("pooledLast not a whole number", GOOD.replace("pooledLast: 3", "pooledLast: 2.5"),
+                        "datasets[0].compareWith.pooledLast: expected a whole number of waves"),
+                Arguments.of("two password sources", GOOD.replace("passwordEnv: SURVEY_PASSWORD",
+                        "passwordEnv: SURVEY_PASSWORD\n  passwordFile: /run/secret"),
+                        "source.passwordEnv: give either passwordEnv or passwordFile, not both"),
+                Arguments.of("required key missing", GOOD.replace("    waveColumn: wave\n", ""),
+                        "datasets[0].waveColumn: missing"),
+                Arguments.of("successValue on a continuous", GOOD.replace("unit: years", "successValue: x"),
+                        "datasets[0].variables[0].successValue: only binary variables have a successValue"),
+                Arguments.of("not YAML", "source: [unclosed", "(file): not valid YAML"),
+                Arguments.of("duplicate variable", GOOD.replace("name: broadband", "name: age"),
+                        "datasets[0].variables[1].name: variable 'age' is listed twice"));
+    }
+
+    @ParameterizedTest(name = "{0}")
+    @MethodSource("badConfigs")
+    void aBadConfigExitsTwoNamingTheKey(String what, String yaml, String expected, @TempDir Path dir) throws Exception {
+        Path file = dir.resolve("bad.yaml");
+        Files.writeString(file, yaml);
+        CliRun r = CliRun.of("waves", "--config", file.toString());
+        assertEquals(2, r.exitCode(), what + ": " + r.err());
+        assertTrue(r.err().startsWith("config error at " + expected), what + " printed: " + r.err());
+        assertEquals(1, r.err().strip().lines().count(), "one line: " + r.err());
+    }
+
+    @Test
+    void aMissingConfigFileExitsTwo() {
+        CliRun r = CliRun.of("waves", "--config", "no-such-file.yaml");
+        assertEquals(2, r.exitCode());
+        assertTrue(r.err().startsWith("config error at (file): cannot read no-such-file.yaml"), r.err());
+    }
+
+    @Test
+    void usageErrorsExitTwoWithHelp() {
+        CliRun r = CliRun.of("check", "--config", "x.yaml");
+        assertEquals(2, r.exitCode());
+        assertTrue(r.err().contains("Missing required option: '--wave=WAVE'"), r.err());
+        assertEquals(0, CliRun.of("check", "--help").exitCode());
+    }
+}
