@@ -13,6 +13,8 @@ public final class Thresholds {
     public static final double CLIFFS_DELTA = 0.147;
     public static final double CRAMERS_V = 0.1;
     public static final double COHENS_H = 0.2;
+    /** KS distance that counts as a changed shape: common practice, no source. */
+    public static final double KS_DISTANCE = 0.1;
 
     private Thresholds() {
     }

@@ -107,6 +107,22 @@ public final class VariableComparator {
     }
 
     /**
+     * The shape check beside the location test: the two-sample Kolmogorov-Smirnov test with the KS distance as its
+     * effect (distribution-free interval, {@link org.wavewarden.compare.shape.DistanceInterval}) and the
+     * Wasserstein-1 distance in raw units for the sentence. Threshold: KS distance 0.1 (common practice, no source).
+     */
+    public Comparison shape(String variable, NumericDistribution baseline, NumericDistribution current, String unit) {
+        KolmogorovSmirnovResult ks = KolmogorovSmirnovTest.test(baseline, current);
+        EffectSize d = org.wavewarden.compare.shape.DistanceInterval.of(ks.d(), baseline.n(), current.n(), confidence);
+        double w1 = Wasserstein.distance(baseline, current);
+        Change change = new Change("largest gap between the two waves' cumulative distributions of " + variable, 0,
+                ks.d(), true, null, d.ciLow(), d.ciHigh(), "Wasserstein distance " + String.format(java.util.Locale.ROOT,
+                "%.3g", w1) + (unit == null ? "" : " " + unit));
+        return new Comparison(variable, FindingKind.SHAPE_CHANGE, ks.test(), d, Thresholds.KS_DISTANCE,
+                "default " + Thresholds.KS_DISTANCE + " for the KS distance", baseline.n(), current.n(), change, null);
+    }
+
+    /**
      * Categorical variables: Pearson's chi-square of homogeneity with Cramér's V; when Cochran's rule fails,
      * Fisher's exact test (2 x 2) or a seeded Monte Carlo exact p-value (larger tables) replaces its p-value.
      */

@@ -17,6 +17,13 @@ public final class Sentences {
 
     public static String shift(Comparison c, double qValue, Verdict verdict, double alpha) {
         Change ch = c.change();
+        if (c.kind() == FindingKind.SHAPE_CHANGE) {
+            return String.format(Locale.ROOT, "The shape of %s's distribution changed although its typical value did"
+                            + " not: the %s is %.1f points (%d%% CI %.1f to %.1f; %s); %s (q = %s): %s.",
+                    c.variable(), ch.measure().replace(" of " + c.variable(), ""), ch.after() * 100,
+                    Math.round(c.effect().confidence() * 100), ch.ciLow() * 100, ch.ciHigh() * 100, ch.note(),
+                    chance(c.test().pValue()), p(qValue), verdict.name());
+        }
         StringBuilder s = new StringBuilder();
         String measure = Character.toUpperCase(ch.measure().charAt(0)) + ch.measure().substring(1);
         double diff = ch.difference();

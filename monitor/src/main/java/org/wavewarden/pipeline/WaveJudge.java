@@ -15,6 +15,7 @@ import org.wavewarden.deliver.FindingsReport;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
 import org.wavewarden.judge.Judge;
+import org.wavewarden.judge.Verdict;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.ColumnType;
 import org.wavewarden.profile.WaveProfile;
@@ -118,7 +119,12 @@ public final class WaveJudge {
             plain.addAll(dq.findings());
             comparisons.addAll(dq.rateComparisons());
             if (sb != null) {
-                compare(comparator, v, sb, sc, ct, bt).ifPresentOrElse(comparisons::add, () -> {
+                compare(comparator, v, sb, sc, ct, bt).ifPresentOrElse(c -> {
+                    comparisons.add(c);
+                    if (v.kind() == VariableKind.CONTINUOUS) {
+                        comparisons.add(comparator.shape(v.name(), sb.numeric(), sc.numeric(), v.unit()));
+                    }
+                }, () -> {
                     String why = skipReason(v, sb, sc, ct, bt);
                     if (why != null) {
                         plain.add(Finding.dataQuality(v.name(), FindingKind.SKIPPED, sb.validN(), sc.validN(),
@@ -127,8 +133,8 @@ public final class WaveJudge {
                 });
             }
         }
-        List<Finding> findings = new ArrayList<>(onePerVariableAndKind(Judge.judge(comparisons, cfg.alpha(),
-                cfg.fdr())));
+        List<Finding> findings = new ArrayList<>(shapeOnlyWhereLocationIsQuiet(onePerVariableAndKind(
+                Judge.judge(comparisons, cfg.alpha(), cfg.fdr()))));
         findings.addAll(plain);
         findings = FindingsFiles.ordered(findings);
         List<Finding> alerts = Alerts.select(findings);
@@ -177,6 +183,18 @@ public final class WaveJudge {
                     top.effect(), top.verdict(), top.nBaseline(), top.nCurrent(), top.sentence(), detail));
         });
         return out;
+    }
+
+    /**
+     * The KS test of every continuous variable is part of the run's false-discovery-rate family, but its finding is
+     * kept only when it adds something: a MATERIAL change of shape where the location test found no change.
+     */
+    static List<Finding> shapeOnlyWhereLocationIsQuiet(List<Finding> judged) {
+        Map<String, Verdict> location = new LinkedHashMap<>();
+        judged.stream().filter(f -> f.kind() == FindingKind.SHIFT).forEach(f -> location.put(f.variable(), f.verdict()));
+        return judged.stream().filter(f -> f.kind() != FindingKind.SHAPE_CHANGE
+                || (f.verdict() == Verdict.MATERIAL && (location.get(f.variable()) == Verdict.STABLE
+                || location.get(f.variable()) == Verdict.UNCERTAIN))).toList();
     }
 
     private Optional<Comparison> compare(VariableComparator comparator, VariableConfig v, ScreenedVariable b,

@@ -1,0 +1,35 @@
+package org.wavewarden.compare.shape;
+
+import org.wavewarden.compare.EffectSize;
+
+/**
+ * A distribution-free confidence interval for the Kolmogorov-Smirnov distance D = sup |F_current - F_baseline|
+ * between the two waves' populations, from the Dvoretzky-Kiefer-Wolfowitz inequality with Massart's (1990) tight
+ * constant: P(sup |F_n - F| > e) <= 2 exp(-2 n e^2). Splitting the error rate between the two waves and applying
+ * the triangle inequality, the population distance lies within e_b + e_c of the observed one, where
+ * e = sqrt(ln(4 / (1 - confidence)) / (2 n)). The interval is conservative (coverage at least the nominal level).
+ */
+public final class DistanceInterval {
+
+    private DistanceInterval() {
+    }
+
+    /** The half-width e for one wave of {@code n} observations. */
+    public static double halfWidth(long n, double confidence) {
+        if (n < 1) {
+            throw new IllegalArgumentException("n must be positive, was " + n);
+        }
+        if (!(confidence > 0 && confidence < 1)) {
+            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
+        }
+        return Math.sqrt(Math.log(4 / (1 - confidence)) / (2.0 * n));
+    }
+
+    public static EffectSize of(double d, long nBaseline, long nCurrent, double confidence) {
+        if (!(d >= 0 && d <= 1)) {
+            throw new IllegalArgumentException("d must lie in [0, 1], was " + d);
+        }
+        double e = halfWidth(nBaseline, confidence) + halfWidth(nCurrent, confidence);
+        return new EffectSize("KS distance", d, Math.max(0, d - e), Math.min(1, d + e), confidence);
+    }
+}
