@@ -69,7 +69,7 @@ public final class DisguisedMissingDetector {
     static final double FENCE_IQR = 3.0;
     static final double GAP_SPACINGS = 2.0;
     static final double SENTINEL_SPIKE_RATIO = 5.0;
-    static final double INLIER_SPIKE_RATIO = 10.0;
+    static final double INLIER_SPIKE_RATIO = 5.0;
     static final double NUMERIC_LOOKING_SHARE = 0.9;
     static final double MIN_SHARE = 0.002;
     static final long MIN_COUNT = 3;
@@ -274,7 +274,7 @@ public final class DisguisedMissingDetector {
                                 + " cover " + percent((double) covered / rows) + " and share none of its letter or digit"
                                 + " classes; it occurs " + times(e.getValue()) + "."));
             } else if (fixedFormat && !full.equals(topFull.getKey())
-                    && byFullPattern.get(full) < 0.01 * rows) {
+                    && byFullPattern.get(full) < RARE_PATTERN_SHARE * rows) {
                 out.add(new MissingCandidate(e.getKey(), CandidateKind.PATTERN_OUTLIER, e.getValue(), share, 0.3,
                         head + "while " + percent((double) topFull.getValue() / rows) + " of the rows have the exact"
                                 + " format '" + topFull.getKey() + "'; it occurs " + times(e.getValue()) + "."));
