@@ -205,7 +205,7 @@ public final class DisguisedMissingDetector {
             }
         }
         return new SpikeScan(new ArrayList<>(byNumber.values()), denominator, DisguisedMissingDetector::isSentinelNumber,
-                NumberText::roundness, declaredRange, CandidateKind.NUMERIC_SENTINEL, NumberText::plain).run();
+                NumberText::roundness, declaredRange, CandidateKind.NUMERIC_SENTINEL, NumberText::plain, true).run();
     }
 
     private static List<MissingCandidate> dates(Map<String, Long> values, long denominator) {
@@ -221,7 +221,7 @@ public final class DisguisedMissingDetector {
         }
         return new SpikeScan(new ArrayList<>(byInstant.values()), denominator, DisguisedMissingDetector::isSentinelDay,
                 DisguisedMissingDetector::dateRoundness, Optional.empty(), CandidateKind.SENTINEL_DATE,
-                DisguisedMissingDetector::days).run();
+                DisguisedMissingDetector::days, false).run();
     }
 
     private static List<MissingCandidate> shapes(Map<String, Long> values, long denominator) {

@@ -40,6 +40,7 @@ final class SpikeScan {
     private final Optional<ValueRange> declared;
     private final CandidateKind sentinelKind;
     private final Units units;
+    private final boolean roundSentinels;
     private final List<MissingCandidate> out = new ArrayList<>();
 
     SpikeScan(List<Point> points, long denominator, DoublePredicate sentinelShaped, DoubleUnaryOperator roundness,
@@ -53,6 +54,9 @@ final class SpikeScan {
         this.declared = declared;
         this.sentinelKind = sentinelKind;
         this.units = units;
+        // Numbers heap on round values, so a sentinel-shaped 7.0 among tenths is compared with other whole numbers;
+        // placeholder dates are themselves the roundest dates (1 January), so they are compared with every neighbour.
+        this.roundSentinels = roundSentinels;
     }
 
     List<MissingCandidate> run() {
@@ -148,7 +152,7 @@ final class SpikeScan {
                 if (baseDistinct < MIN_DISTINCT_FOR_INLIER) {
                     continue; // the shares of a short scale's points are arbitrary: 9 may well be the favourite
                 }
-                double ratio = spikeRatio(i, inBase, true);
+                double ratio = spikeRatio(i, inBase, roundSentinels);
                 if (ratio >= SENTINEL_SPIKE_RATIO && beyondChance(p.count(), p.count() / ratio, SENTINEL_CHANCE)) {
                     double conf = ratio >= 4 * SENTINEL_SPIKE_RATIO ? 0.75 : 0.6;
                     out.add(candidate(p, sentinelKind, conf, "lies inside the bulk of the values but"
@@ -258,7 +262,7 @@ final class SpikeScan {
     /** For ordinary values, whose shape gives no reason for suspicion. */
     static final double CHANCE = 1e-6;
     /** For sentinel-shaped values, whose shape is already part of the evidence. */
-    static final double SENTINEL_CHANCE = 1e-4;
+    static final double SENTINEL_CHANCE = 1e-5;
 
     private double medianCount(int[] idx) {
         long[] c = Arrays.stream(idx).mapToLong(j -> points.get(j).count()).sorted().toArray();
