@@ -44,7 +44,7 @@ final class SpikeScan {
     private final List<MissingCandidate> out = new ArrayList<>();
 
     SpikeScan(List<Point> points, long denominator, DoublePredicate sentinelShaped, DoubleUnaryOperator roundness,
-              Optional<ValueRange> declared, CandidateKind sentinelKind, Units units) {
+              Optional<ValueRange> declared, CandidateKind sentinelKind, Units units, boolean roundSentinels) {
         this.points = new ArrayList<>(points);
         this.points.sort(Comparator.comparingDouble(Point::x));
         this.denominator = denominator;
