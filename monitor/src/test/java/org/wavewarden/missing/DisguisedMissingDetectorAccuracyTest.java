@@ -30,8 +30,11 @@ import org.wavewarden.profile.ColumnType;
  * spike-and-separation rule; a steward must be able to trust an alert, so precision 0.9, and recall 0.85 (a
  * sentinel planted at 0.5% inside the bulk may not out-count its neighbours by the required factor). Shape outliers
  * and inlier spikes are weaker signals by nature (genuine rare answers have rare shapes; a popular answer can look
- * like a default), so 0.7 for both. Overall precision 0.9 and recall 0.85. The detector's thresholds were set from
- * the reasoning in its class comment and then checked here; the seed is fixed so the numbers are reproducible.
+ * like a default), so 0.7 for both. Overall precision 0.9 and recall 0.85. Honest note: the inlier-spike factor, the
+ * Poisson guards and the shape thresholds were adjusted after a first run on this seed (a factor of 10 missed
+ * planted defaults; a factor of 5 without the guard raised alarms on sparse incomes); the result was then checked on
+ * other seeds (precision 0.99 to 1.00, recall 0.98 to 0.99), and the floors leave room below that. Planted inlier
+ * spikes below about 5% of the rows in ages are missed by design.
  */
 class DisguisedMissingDetectorAccuracyTest {
 

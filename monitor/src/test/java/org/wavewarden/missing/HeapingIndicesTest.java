@@ -16,7 +16,8 @@ class HeapingIndicesTest {
     /**
      * Males by single year of age 0..99: the sample data of the U.S. Census Bureau's Population Analysis Spreadsheets
      * (PAS), workbook SINGAGE, as reproduced in the test suite of the DemoTools R package (which states the
-     * spreadsheet's Whipple index, 2.34 as a ratio). DemoTools itself is not in Debian, so it was not run here.
+     * spreadsheet's Whipple index, 2.34 as a ratio). DemoTools is not packaged in Debian, so the
+     * package itself was not run for these checks; Myers' index is checked against the formula written out in R.
      */
     static final long[] PAS_MALES = {80626, 95823, 104315, 115813, 100796, 105086, 97266, 116328, 75984, 89982, 95525,
             56973, 78767, 65672, 53438, 85014, 47600, 64363, 42195, 42262, 73221, 30080, 34391, 29072, 20531, 66171,
