@@ -48,12 +48,16 @@ import org.wavewarden.profile.ColumnType;
  *       date (1900-01-01, 1899-12-31, 1970-01-01, 2000-01-01, 9999-12-31, 1111-11-11, 0001-01-01, ...), a year
  *       before 1000 or from 9000, or 'infinity'; candidates are {@link CandidateKind#SENTINEL_DATE}.</li>
  *   <li><b>Inlier spikes.</b> In a bulk of at least 12 distinct values, an inner value (not the smallest or largest:
- *       floor and ceiling effects pile up there naturally) whose count is at least {@value #INLIER_SPIKE_RATIO} times
- *       the median count of its nearest neighbours that are at least as round (so 50000 is compared with 40000 and
- *       60000, not with 49900, and age 40 with 30 and 50) is an {@link CandidateKind#INLIER_SPIKE}. Ten is chosen
- *       because smooth unimodal answers change by far less than a factor of ten over a few neighbouring values,
- *       and heaping on round numbers is already discounted by comparing like with like; lower factors flagged the
- *       modes of skewed scales in the seeded accuracy test.</li>
+ *       floor and ceiling effects pile up there naturally) is an {@link CandidateKind#INLIER_SPIKE} when its count is
+ *       at least {@value #INLIER_SPIKE_RATIO} times the median count of its nearest neighbours (up to three each side,
+ *       within one interquartile range) that are at least as round, and a Poisson count with that median as its mean
+ *       would reach it with probability below 1e-6. Comparing like with like (50000 with 40000 and 60000, not with
+ *       49900; age 40 with 30 and 50) discounts heaping on round numbers; the Poisson guard keeps five answers on one
+ *       income among neighbours with one each from counting as a spike. The factor 5 is about the largest ratio a
+ *       smooth unimodal answer distribution shows between one value and its near neighbours even with strong digit
+ *       preference (the seeded accuracy test's heaped ages stay below it), while a form default holding 5% or more of
+ *       a spread-out variable exceeds it. Sentinel-shaped values inside a long bulk use the same factor, compared with
+ *       equally round neighbours, with the looser guard 1e-5 since their shape is evidence already.</li>
  *   <li><b>Shapes.</b> In other text columns each value's shape (letters to A, digits to 9, runs collapsed) is
  *       compared with the dominant shapes (the most common, covering 80% of rows); a value whose shape has under 2%
  *       of rows and shares no letter-or-digit class with the dominant shapes (digits among names, symbols only) is a
@@ -69,7 +73,7 @@ public final class DisguisedMissingDetector {
     static final double FENCE_IQR = 3.0;
     static final double GAP_SPACINGS = 2.0;
     static final double SENTINEL_SPIKE_RATIO = 5.0;
-    static final double INLIER_SPIKE_RATIO = 10.0;
+    static final double INLIER_SPIKE_RATIO = 5.0;
     static final double NUMERIC_LOOKING_SHARE = 0.9;
     static final double MIN_SHARE = 0.002;
     static final long MIN_COUNT = 3;
@@ -205,7 +209,7 @@ public final class DisguisedMissingDetector {
             }
         }
         return new SpikeScan(new ArrayList<>(byNumber.values()), denominator, DisguisedMissingDetector::isSentinelNumber,
-                NumberText::roundness, declaredRange, CandidateKind.NUMERIC_SENTINEL, NumberText::plain).run();
+                NumberText::roundness, declaredRange, CandidateKind.NUMERIC_SENTINEL, NumberText::plain, true).run();
     }
 
     private static List<MissingCandidate> dates(Map<String, Long> values, long denominator) {
@@ -221,7 +225,7 @@ public final class DisguisedMissingDetector {
         }
         return new SpikeScan(new ArrayList<>(byInstant.values()), denominator, DisguisedMissingDetector::isSentinelDay,
                 DisguisedMissingDetector::dateRoundness, Optional.empty(), CandidateKind.SENTINEL_DATE,
-                DisguisedMissingDetector::days).run();
+                DisguisedMissingDetector::days, false).run();
     }
 
     private static List<MissingCandidate> shapes(Map<String, Long> values, long denominator) {
@@ -274,7 +278,7 @@ public final class DisguisedMissingDetector {
                                 + " cover " + percent((double) covered / rows) + " and share none of its letter or digit"
                                 + " classes; it occurs " + times(e.getValue()) + "."));
             } else if (fixedFormat && !full.equals(topFull.getKey())
-                    && byFullPattern.get(full) < 0.01 * rows) {
+                    && byFullPattern.get(full) < RARE_PATTERN_SHARE * rows) {
                 out.add(new MissingCandidate(e.getKey(), CandidateKind.PATTERN_OUTLIER, e.getValue(), share, 0.3,
                         head + "while " + percent((double) topFull.getValue() / rows) + " of the rows have the exact"
                                 + " format '" + topFull.getKey() + "'; it occurs " + times(e.getValue()) + "."));

@@ -7,6 +7,7 @@ import java.util.List;
 import java.util.Optional;
 import java.util.function.DoublePredicate;
 import java.util.function.DoubleUnaryOperator;
+import org.apache.commons.math3.distribution.PoissonDistribution;
 
 /**
  * The spike-and-separation logic shared by numbers and dates: which sentinel-shaped values stand apart from the
@@ -39,10 +40,11 @@ final class SpikeScan {
     private final Optional<ValueRange> declared;
     private final CandidateKind sentinelKind;
     private final Units units;
+    private final boolean roundSentinels;
     private final List<MissingCandidate> out = new ArrayList<>();
 
     SpikeScan(List<Point> points, long denominator, DoublePredicate sentinelShaped, DoubleUnaryOperator roundness,
-              Optional<ValueRange> declared, CandidateKind sentinelKind, Units units) {
+              Optional<ValueRange> declared, CandidateKind sentinelKind, Units units, boolean roundSentinels) {
         this.points = new ArrayList<>(points);
         this.points.sort(Comparator.comparingDouble(Point::x));
         this.denominator = denominator;
@@ -52,6 +54,9 @@ final class SpikeScan {
         this.declared = declared;
         this.sentinelKind = sentinelKind;
         this.units = units;
+        // Numbers heap on round values, so a sentinel-shaped 7.0 among tenths is compared with other whole numbers;
+        // placeholder dates are themselves the roundest dates (1 January), so they are compared with every neighbour.
+        this.roundSentinels = roundSentinels;
     }
 
     List<MissingCandidate> run() {
@@ -144,8 +149,11 @@ final class SpikeScan {
                 continue;
             }
             if (sentinelShaped.test(p.x())) {
-                double ratio = spikeRatio(i, inBase, false);
-                if (ratio >= SENTINEL_SPIKE_RATIO) {
+                if (baseDistinct < MIN_DISTINCT_FOR_INLIER) {
+                    continue; // the shares of a short scale's points are arbitrary: 9 may well be the favourite
+                }
+                double ratio = spikeRatio(i, inBase, roundSentinels);
+                if (ratio >= SENTINEL_SPIKE_RATIO && beyondChance(p.count(), p.count() / ratio, SENTINEL_CHANCE)) {
                     double conf = ratio >= 4 * SENTINEL_SPIKE_RATIO ? 0.75 : 0.6;
                     out.add(candidate(p, sentinelKind, conf, "lies inside the bulk of the values but"
                             + spikeWords(ratio)));
@@ -153,7 +161,7 @@ final class SpikeScan {
             } else if (baseDistinct >= MIN_DISTINCT_FOR_INLIER && i != firstBase && i != lastBase) {
                 // The ends of a bounded scale pile up naturally (floor and ceiling effects), so only inner values.
                 double ratio = spikeRatio(i, inBase, true);
-                if (ratio >= INLIER_SPIKE_RATIO) {
+                if (ratio >= INLIER_SPIKE_RATIO && beyondChance(p.count(), p.count() / ratio, CHANCE)) {
                     double conf = ratio >= 3 * INLIER_SPIKE_RATIO ? 0.55 : 0.4;
                     out.add(candidate(p, CandidateKind.INLIER_SPIKE, conf, "lies inside the bulk of the values but"
                             + spikeWords(ratio)));
@@ -201,12 +209,17 @@ final class SpikeScan {
         double r = roundness.applyAsDouble(points.get(i).x());
         List<Long> below = new ArrayList<>();
         List<Long> above = new ArrayList<>();
-        for (int j = i - 1; j >= 0 && below.size() < NEIGHBOURS_EACH_SIDE; j--) {
+        // Neighbours as round as this value may lie far off in a narrow distribution (10 beside 20 in answers
+        // centred on 10); only those within one interquartile range of it are comparable.
+        double x = points.get(i).x();
+        double window = sameRoundness ? bulkWindow(inBase) : Double.POSITIVE_INFINITY;
+        for (int j = i - 1; j >= 0 && below.size() < NEIGHBOURS_EACH_SIDE && x - points.get(j).x() <= window; j--) {
             if (inBase[j] && (!sameRoundness || roundness.applyAsDouble(points.get(j).x()) >= r)) {
                 below.add(points.get(j).count());
             }
         }
-        for (int j = i + 1; j < points.size() && above.size() < NEIGHBOURS_EACH_SIDE; j++) {
+        for (int j = i + 1; j < points.size() && above.size() < NEIGHBOURS_EACH_SIDE
+                && points.get(j).x() - x <= window; j++) {
             if (inBase[j] && (!sameRoundness || roundness.applyAsDouble(points.get(j).x()) >= r)) {
                 above.add(points.get(j).count());
             }
@@ -223,6 +236,33 @@ final class SpikeScan {
         double med = c.length % 2 == 1 ? c[c.length / 2] : (c[c.length / 2 - 1] + c[c.length / 2]) / 2.0;
         return points.get(i).count() / Math.max(1.0, med);
     }
+
+    private Bulk windowBulk;
+
+    private double bulkWindow(boolean[] inBase) {
+        if (windowBulk == null) {
+            windowBulk = new Bulk(inBase);
+        }
+        double iqr = windowBulk.q3 - windowBulk.q1;
+        return Math.max(iqr, 3 * (Double.isNaN(windowBulk.spacing) ? 0 : windowBulk.spacing));
+    }
+
+    /**
+     * True when a count this large is very unlikely (below {@value #CHANCE} for ordinary values, {@value #SENTINEL_CHANCE} for
+     * sentinel-shaped ones) for a Poisson count with the neighbours'
+     * median as its mean: with one or two answers per neighbouring value, five or six on one value is chance.
+     */
+    private static boolean beyondChance(long count, double neighbourMedian, double chance) {
+        double upper = 1 - new PoissonDistribution(null, Math.max(1.0, neighbourMedian),
+                PoissonDistribution.DEFAULT_EPSILON, PoissonDistribution.DEFAULT_MAX_ITERATIONS)
+                .cumulativeProbability((int) Math.min(Integer.MAX_VALUE, count - 1));
+        return upper < chance;
+    }
+
+    /** For ordinary values, whose shape gives no reason for suspicion. */
+    static final double CHANCE = 1e-6;
+    /** For sentinel-shaped values, whose shape is already part of the evidence. */
+    static final double SENTINEL_CHANCE = 1e-5;
 
     private double medianCount(int[] idx) {
         long[] c = Arrays.stream(idx).mapToLong(j -> points.get(j).count()).sorted().toArray();
