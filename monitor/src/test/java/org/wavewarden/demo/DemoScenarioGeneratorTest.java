@@ -416,7 +416,7 @@ class DemoScenarioGeneratorTest {
         assertNotNull(byName.get("has_broadband").get("successValue"));
     }
 
-    // ---- helpers --------------------------------------------------------------------------------------------
+    // ---- support --------------------------------------------------------------------------------------------
 
     private record Wave(String text, List<String[]> rows) {
         List<String> column(String name) {
