@@ -253,14 +253,15 @@ public final class DemoScenarioGenerator {
     }
 
     private static double normal(SplittableRandom rnd) {
-        // Box-Muller on two uniforms; 1 - u keeps the logarithm finite
+        // Box and Muller (1958), Ann. Math. Statist. 29; 1 - u keeps the logarithm finite
         double u1 = 1.0 - rnd.nextDouble();
         double u2 = rnd.nextDouble();
         return StrictMath.sqrt(-2.0 * StrictMath.log(u1)) * StrictMath.cos(2.0 * StrictMath.PI * u2);
     }
 
     private static int age(SplittableRandom rnd, boolean statedOnTelephone) {
-        // Kumaraswamy(1.7, 2.6) on [16, 96): a smooth, right-skewed adult age profile with no digit preference
+        // Kumaraswamy (1980), J. Hydrology 46, with a = 1.7, b = 2.6 on [16, 96), drawn by its closed-form inverse:
+        // a smooth, right-skewed adult age profile with no digit preference
         double u = rnd.nextDouble();
         double x = StrictMath.pow(1.0 - StrictMath.pow(1.0 - u, 1.0 / 2.6), 1.0 / 1.7);
         int age = Math.min(95, 16 + (int) (80 * x));
@@ -379,7 +380,8 @@ public final class DemoScenarioGenerator {
     }
 
     /**
-     * The standard normal quantile by Acklam's rational approximation (relative error below 1.2e-9), written with
+     * The standard normal quantile by P. J. Acklam's rational approximation (2003, relative error below 1.2e-9; the
+     * tails use the same form in sqrt(-2 log p) as Wichura's AS 241, Appl. Statist. 37, 1988), written with
      * {@link StrictMath} so that it gives the same bits everywhere.
      */
     static double inverseNormal(double p) {

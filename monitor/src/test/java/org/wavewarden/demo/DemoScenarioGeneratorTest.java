@@ -166,6 +166,21 @@ class DemoScenarioGeneratorTest {
         assertEquals(" a,\"b\" ", back[2]);
     }
 
+    @Test
+    void inverseNormalAgreesWithCommonsMathToEightDigits() {
+        // commons-math3 3.6.1 NormalDistribution.inverseCumulativeProbability as the reference
+        var reference = new org.apache.commons.math3.distribution.NormalDistribution(0, 1);
+        for (double p : new double[] {1e-9, 1e-4, 0.01, 0.02425, 0.1, 0.3, 0.5, 0.7, 0.97575, 0.999, 1 - 1e-9}) {
+            double expected = reference.inverseCumulativeProbability(p);
+            assertEquals(expected, DemoScenarioGenerator.inverseNormal(p), 1.2e-8 * Math.max(1, Math.abs(expected)),
+                    "p = " + p);
+        }
+        assertEquals(-DemoScenarioGenerator.inverseNormal(0.2), DemoScenarioGenerator.inverseNormal(0.8), 1e-15);
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+                () -> DemoScenarioGenerator.inverseNormal(1.0));
+        assertTrue(e.getMessage().startsWith("p "), e.getMessage());
+    }
+
     // ---- the planted events are in the data -----------------------------------------------------------------
 
     @Test
@@ -401,7 +416,7 @@ class DemoScenarioGeneratorTest {
         assertNotNull(byName.get("has_broadband").get("successValue"));
     }
 
-    // ---- helpers --------------------------------------------------------------------------------------------
+    // ---- support --------------------------------------------------------------------------------------------
 
     private record Wave(String text, List<String[]> rows) {
         List<String> column(String name) {
