@@ -50,8 +50,7 @@ public final class DemoRun {
             createSourceTables(server);
             Path staging = Files.createTempDirectory("wavewarden-demo");
             try (Connection c = DriverManager.getConnection(server.jdbcUrl())) {
-                for (String file : resource("/demo-data/waves/index.txt").lines().map(String::strip)
-                        .filter(l -> !l.isEmpty() && !l.startsWith("#")).toList()) {
+                for (String file : DemoScenarioGenerator.WAVES.stream().map(DemoWave::fileName).toList()) {
                     Path csv = staging.resolve(file);
                     try (InputStream in = DemoRun.class.getResourceAsStream("/demo-data/waves/" + file)) {
                         Files.copy(in, csv, StandardCopyOption.REPLACE_EXISTING);
