@@ -8,14 +8,12 @@ package org.wavewarden.compare;
  * @param after     its value in the current wave
  * @param percent   true when before and after are shares (rendered as %, their difference as points)
  * @param unit      unit of before/after when not a share; may be null
- * @param ciLow     lower limit of the difference after - before (same scale), or NaN
- * @param ciHigh    upper limit of the difference, or NaN
+ * @param estimate  the estimated change whose interval is given: after - before, or a shift estimate such as
+ *                  Hodges-Lehmann's when the measure is a median
+ * @param ciLow     lower limit of that change (same scale), or NaN
+ * @param ciHigh    upper limit of that change, or NaN
  * @param note      an extra clause, e.g. "the largest move among 6 categories"; may be empty
  */
-public record Change(String measure, double before, double after, boolean percent, String unit, double ciLow,
-                     double ciHigh, String note) {
-
-    public double difference() {
-        return after - before;
-    }
+public record Change(String measure, double before, double after, boolean percent, String unit, double estimate,
+                     double ciLow, double ciHigh, String note) {
 }

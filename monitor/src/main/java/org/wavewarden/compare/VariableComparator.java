@@ -87,7 +87,7 @@ public final class VariableComparator {
             LocationDetail d = new LocationDetail(choice.reason(), md.meanBaseline(), md.meanCurrent(), medB, medC,
                     baseline.standardDeviation(), current.standardDeviation(), g, raw, ks.d(), ks.test().pValue(), w1);
             Change change = new Change("mean " + name, md.meanBaseline(), md.meanCurrent(), false, unit,
-                    md.ciLow(), md.ciHigh(), "");
+                    md.difference(), md.ciLow(), md.ciHigh(), "");
             return new Comparison(variable, FindingKind.SHIFT, md.test(), t.rawScale() ? raw : g, t.value(), t.source(),
                     baseline.n(), current.n(), change, d);
         }
@@ -98,10 +98,10 @@ public final class VariableComparator {
         LocationDetail d = new LocationDetail(choice.reason(), baseline.mean(), current.mean(), medB, medC,
                 baseline.standardDeviation(), current.standardDeviation(), delta, hl, ks.d(), ks.test().pValue(), w1);
         Change change = ordinal
-                ? new Change("mean " + name, baseline.mean(), current.mean(), false, unit, Double.NaN, Double.NaN,
-                "Cliff's delta " + signed(delta.estimate(), 3))
-                : new Change("median " + name, medB, medC, false, unit, hl.ciLow(), hl.ciHigh(),
-                "Hodges-Lehmann shift " + signed(hl.estimate(), 3));
+                ? new Change("mean " + name, baseline.mean(), current.mean(), false, unit,
+                current.mean() - baseline.mean(), Double.NaN, Double.NaN, "")
+                : new Change("median " + name, medB, medC, false, unit, hl.estimate(), hl.ciLow(), hl.ciHigh(),
+                "the shift is the Hodges-Lehmann estimate");
         return new Comparison(variable, FindingKind.SHIFT, mw.test(), t.rawScale() ? hl : delta, t.value(), t.source(),
                 baseline.n(), current.n(), change, d);
     }
@@ -116,7 +116,7 @@ public final class VariableComparator {
         EffectSize d = org.wavewarden.compare.shape.DistanceInterval.of(ks.d(), baseline.n(), current.n(), confidence);
         double w1 = Wasserstein.distance(baseline, current);
         Change change = new Change("largest gap between the two waves' cumulative distributions of " + variable, 0,
-                ks.d(), true, null, d.ciLow(), d.ciHigh(), "Wasserstein distance " + String.format(java.util.Locale.ROOT,
+                ks.d(), true, null, ks.d(), d.ciLow(), d.ciHigh(), "Wasserstein distance " + String.format(java.util.Locale.ROOT,
                 "%.3g", w1) + (unit == null ? "" : " " + unit));
         return new Comparison(variable, FindingKind.SHAPE_CHANGE, ks.test(), d, Thresholds.KS_DISTANCE,
                 "default " + Thresholds.KS_DISTANCE + " for the KS distance", baseline.n(), current.n(), change, null);
@@ -175,7 +175,7 @@ public final class VariableComparator {
                 lo, hi, confidence)
                 : v;
         Change change = new Change("share answering '" + moved.category() + "'", moved.shareBaseline(),
-                moved.shareCurrent(), true, null, lo, hi, "the category that moved most (adjusted residual "
+                moved.shareCurrent(), true, null, share.riskDifference().estimate(), lo, hi, "the category that moved most (adjusted residual "
                 + signed(moved.adjustedResidual(), 1) + ")");
         CategoryDetail d = new CategoryDetail(rows, chi.cochranSatisfied(), chi.cochranNote(),
                 CramersV.biasCorrected(table), note);
@@ -203,7 +203,7 @@ public final class VariableComparator {
         ProportionDetail d = new ProportionDetail(successLabel, z.proportionBaseline(), z.proportionCurrent(), rd, h,
                 note);
         Change change = new Change("share " + successLabel, z.proportionBaseline(), z.proportionCurrent(), true, null,
-                rd.ciLow(), rd.ciHigh(), "");
+                rd.estimate(), rd.ciLow(), rd.ciHigh(), "");
         return new Comparison(variable, kind, primary, t.rawScale() ? rd : h, t.value(), t.source(), nB, nC, change, d);
     }
 

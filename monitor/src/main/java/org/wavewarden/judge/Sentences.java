@@ -22,24 +22,26 @@ public final class Sentences {
                             + " not: the %s is %.1f points (%d%% CI %.1f to %.1f; %s); %s (q = %s): %s.",
                     c.variable(), ch.measure().replace(" of " + c.variable(), ""), ch.after() * 100,
                     Math.round(c.effect().confidence() * 100), ch.ciLow() * 100, ch.ciHigh() * 100, ch.note(),
-                    chance(c.test().pValue()), p(qValue), verdict.name());
+                    chance(c.test().pValue()), q(qValue), verdict.name());
         }
         StringBuilder s = new StringBuilder();
         String measure = Character.toUpperCase(ch.measure().charAt(0)) + ch.measure().substring(1);
-        double diff = ch.difference();
+        double diff = ch.after() - ch.before();
+        int digits = Math.max(decimals(ch.before()), Math.min(3, decimals(ch.estimate())));
         String direction = diff > 0 ? "rose" : diff < 0 ? "fell" : "stayed";
-        s.append(measure).append(' ').append(direction).append(" from ").append(value(ch, ch.before()))
-                .append(" to ").append(value(ch, ch.after()));
-        s.append(" (").append(difference(ch, diff));
+        s.append(measure).append(' ').append(direction).append(" from ").append(value(ch, ch.before(), digits))
+                .append(" to ").append(value(ch, ch.after(), digits)).append(ch.percent() ? "" : unitSuffix(ch));
+        s.append(" (").append(ch.estimate() == diff ? "" : "shift ").append(signed(ch, ch.estimate()));
         if (!Double.isNaN(ch.ciLow())) {
             s.append(", ").append(Math.round(c.effect().confidence() * 100)).append("% CI ")
-                    .append(difference(ch, ch.ciLow())).append(" to ").append(difference(ch, ch.ciHigh()));
+                    .append(signed(ch, ch.ciLow())).append(" to ").append(signed(ch, ch.ciHigh()));
         }
+        s.append(ch.percent() ? " points" : unitSuffix(ch));
         if (!ch.note().isEmpty()) {
             s.append("; ").append(ch.note());
         }
         s.append("); ");
-        s.append(chance(c.test().pValue())).append(" (q = ").append(p(qValue)).append(")");
+        s.append(chance(c.test().pValue())).append(" (").append(q(qValue)).append(")");
         s.append("; ").append(c.effect().name()).append(' ').append(num(c.effect().estimate(), 3));
         boolean beyond = Math.abs(c.effect().estimate()) >= c.threshold();
         s.append(beyond ? ", at or above" : ", below").append(" the ").append(thresholdText(c)).append(" threshold");
@@ -73,18 +75,16 @@ public final class Sentences {
                 : num(c.threshold(), 3);
     }
 
-    static String value(Change ch, double v) {
-        if (ch.percent()) {
-            return String.format(Locale.ROOT, "%.1f%%", v * 100);
-        }
-        return num(v, decimals(v)) + (ch.unit() == null ? "" : " " + ch.unit());
+    static String value(Change ch, double v, int digits) {
+        return ch.percent() ? String.format(Locale.ROOT, "%.1f%%", v * 100) : num(v, digits);
     }
 
-    static String difference(Change ch, double d) {
-        if (ch.percent()) {
-            return String.format(Locale.ROOT, "%+.1f points", d * 100);
-        }
-        return (d >= 0 ? "+" : "") + num(d, decimals(d)) + (ch.unit() == null ? "" : " " + ch.unit());
+    static String signed(Change ch, double d) {
+        return ch.percent() ? String.format(Locale.ROOT, "%+.1f", d * 100) : (d >= 0 ? "+" : "") + num(d, decimals(d));
+    }
+
+    static String unitSuffix(Change ch) {
+        return ch.unit() == null ? "" : " " + ch.unit();
     }
 
     static int decimals(double v) {
@@ -96,7 +96,7 @@ public final class Sentences {
         return String.format(Locale.ROOT, "%." + digits + "f", v);
     }
 
-    static String p(double p) {
-        return p < 0.0001 ? "< 0.0001" : String.format(Locale.ROOT, "%.4f", p);
+    static String q(double q) {
+        return q < 0.0001 ? "q < 0.0001" : String.format(Locale.ROOT, "q = %.4f", q);
     }
 }

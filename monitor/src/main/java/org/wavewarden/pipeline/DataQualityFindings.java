@@ -63,10 +63,11 @@ final class DataQualityFindings {
         byKind.forEach((kind, list) -> {
             long total = list.stream().mapToLong(MissingCandidate::count).sum();
             MissingCandidate top = list.get(0);
+            String evidence = top.evidence().strip().replaceAll("[.]+$", "");
             String sentence = String.format(Locale.ROOT, "%,d answers (%.1f%% of the wave) look like disguised missing"
-                            + " values (%s): %s%s.", total, 100.0 * total / Math.max(1, current.rows()),
-                    kind.name().toLowerCase(Locale.ROOT).replace('_', ' '), quoted(top.value()), "; " + top.evidence()
-                            + (list.size() > 1 ? "; and " + (list.size() - 1) + " more value(s)" : ""));
+                            + " values (%s), most often %s: %s%s.", total, 100.0 * total / Math.max(1, current.rows()),
+                    kind.name().toLowerCase(Locale.ROOT).replace('_', ' '), quoted(top.value()), evidence,
+                    list.size() > 1 ? "; " + (list.size() - 1) + " more value(s) of this kind in the detail" : "");
             out.add(Finding.dataQuality(name, FindingKind.valueOf(kind.name()), nB, nC, sentence,
                     new CandidatesDetail(list, top.confidence() >= VariableScreen.EXCLUDE_CONFIDENCE)));
         });
