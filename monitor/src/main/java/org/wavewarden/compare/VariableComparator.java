@@ -16,7 +16,10 @@ import org.wavewarden.compare.rank.CliffsDelta;
 import org.wavewarden.compare.rank.HodgesLehmann;
 import org.wavewarden.compare.rank.MannWhitneyTest;
 import org.wavewarden.compare.rank.RankSumResult;
+import org.wavewarden.compare.shape.JensenShannon;
 import org.wavewarden.compare.shape.KolmogorovSmirnovResult;
+import org.wavewarden.compare.shape.PopulationStabilityIndex;
+import org.wavewarden.compare.shape.PsiResult;
 import org.wavewarden.compare.shape.KolmogorovSmirnovTest;
 import org.wavewarden.compare.shape.Wasserstein;
 import org.wavewarden.config.Threshold;
@@ -49,7 +52,8 @@ public final class VariableComparator {
     /** Location detail of a continuous or ordinal comparison. */
     public record LocationDetail(String testChoice, double meanBaseline, double meanCurrent, double medianBaseline,
                                  double medianCurrent, double sdBaseline, double sdCurrent, EffectSize standardized,
-                                 EffectSize rawShift, double ksD, double ksPValue, double wasserstein) {
+                                 EffectSize rawShift, double ksD, double ksPValue, double wasserstein,
+                                 double psi, String psiBand, double jensenShannon) {
     }
 
     /** One category's row of a categorical comparison. */
@@ -58,7 +62,7 @@ public final class VariableComparator {
     }
 
     public record CategoryDetail(List<CategoryRow> categories, boolean cochranSatisfied, String cochranNote,
-                                 double cramersVBiasCorrected, String primaryTestNote) {
+                                 double cramersVBiasCorrected, double jensenShannon, String primaryTestNote) {
     }
 
     public record ProportionDetail(String successValue, double shareBaseline, double shareCurrent,
@@ -76,6 +80,8 @@ public final class VariableComparator {
                 : LocationTestChoice.choose(baseline, current);
         KolmogorovSmirnovResult ks = KolmogorovSmirnovTest.test(baseline, current);
         double w1 = Wasserstein.distance(baseline, current);
+        PsiResult psi = PopulationStabilityIndex.compute(baseline, current);
+        double js = JensenShannon.distance(baseline, current);
         double medB = median(baseline);
         double medC = median(current);
         String name = variable;
@@ -85,7 +91,8 @@ public final class VariableComparator {
             EffectSize raw = new EffectSize("mean difference", md.difference(), md.ciLow(), md.ciHigh(), confidence);
             Thresholds.Resolved t = Thresholds.resolve(configured, g.name(), Thresholds.HEDGES_G, unit);
             LocationDetail d = new LocationDetail(choice.reason(), md.meanBaseline(), md.meanCurrent(), medB, medC,
-                    baseline.standardDeviation(), current.standardDeviation(), g, raw, ks.d(), ks.test().pValue(), w1);
+                    baseline.standardDeviation(), current.standardDeviation(), g, raw, ks.d(), ks.test().pValue(), w1,
+                    psi.psi(), Magnitude.psi(psi.psi()), js);
             Change change = new Change("mean " + name, md.meanBaseline(), md.meanCurrent(), false, unit,
                     md.difference(), md.ciLow(), md.ciHigh(), "");
             return new Comparison(variable, FindingKind.SHIFT, md.test(), t.rawScale() ? raw : g, t.value(), t.source(),
@@ -96,7 +103,8 @@ public final class VariableComparator {
         EffectSize hl = HodgesLehmann.estimate(baseline, current, confidence);
         Thresholds.Resolved t = Thresholds.resolve(configured, delta.name(), Thresholds.CLIFFS_DELTA, unit);
         LocationDetail d = new LocationDetail(choice.reason(), baseline.mean(), current.mean(), medB, medC,
-                baseline.standardDeviation(), current.standardDeviation(), delta, hl, ks.d(), ks.test().pValue(), w1);
+                baseline.standardDeviation(), current.standardDeviation(), delta, hl, ks.d(), ks.test().pValue(), w1,
+                psi.psi(), Magnitude.psi(psi.psi()), js);
         Change change = ordinal
                 ? new Change("mean " + name, baseline.mean(), current.mean(), false, unit,
                 current.mean() - baseline.mean(), Double.NaN, Double.NaN, "")
@@ -178,7 +186,7 @@ public final class VariableComparator {
                 moved.shareCurrent(), true, null, share.riskDifference().estimate(), lo, hi, "the category that moved most (adjusted residual "
                 + signed(moved.adjustedResidual(), 1) + ")");
         CategoryDetail d = new CategoryDetail(rows, chi.cochranSatisfied(), chi.cochranNote(),
-                CramersV.biasCorrected(table), note);
+                CramersV.biasCorrected(table), JensenShannon.distance(b, c), note);
         return new Comparison(variable, FindingKind.SHIFT, primary, effect, t.value(), t.source(), nB, nC, change, d);
     }
 

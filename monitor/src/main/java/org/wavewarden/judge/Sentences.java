@@ -43,6 +43,10 @@ public final class Sentences {
         s.append("); ");
         s.append(chance(c.test().pValue())).append(" (").append(q(qValue)).append(")");
         s.append("; ").append(c.effect().name()).append(' ').append(num(c.effect().estimate(), 3));
+        String word = org.wavewarden.compare.Magnitude.of(c.effect().name(), c.effect().estimate());
+        if (!word.isEmpty()) {
+            s.append(" (").append(word).append(')');
+        }
         boolean beyond = Math.abs(c.effect().estimate()) >= c.threshold();
         s.append(beyond ? ", at or above" : ", below").append(" the ").append(thresholdText(c)).append(" threshold");
         if (verdict == Verdict.UNCERTAIN) {

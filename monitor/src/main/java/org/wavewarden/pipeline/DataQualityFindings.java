@@ -9,6 +9,7 @@ import org.wavewarden.judge.FindingKind;
 import org.wavewarden.missing.CandidateKind;
 import org.wavewarden.missing.CodeFrameChange;
 import org.wavewarden.missing.MissingCandidate;
+import org.wavewarden.missing.MyersIndex;
 import org.wavewarden.missing.TerminalDigitPreference;
 import org.wavewarden.missing.WhippleIndex;
 import org.wavewarden.profile.ColumnTally;
@@ -39,6 +40,8 @@ final class DataQualityFindings {
     static final double WHIPPLE_RISE = 10;
     /** Index of dissimilarity of last digits that counts as digit preference (common practice, no source). */
     static final double DIGIT_DISSIMILARITY = 0.1;
+    /** Start of the age range of Myers' blended index (ages 10 to 99, the usual choice; Shryock & Siegel). */
+    static final int MYERS_LOW_AGE = 10;
 
     private DataQualityFindings() {
     }
@@ -158,7 +161,9 @@ final class DataQualityFindings {
                             "Ages ending in 0 or 5 are over-reported: Whipple's index rose from %.1f to %.1f (UN band:"
                                     + " %s; 100 means no heaping).", wb.index(), wc.index(),
                             wc.qualityBand().name().toLowerCase(Locale.ROOT).replace('_', ' ')),
-                            new HeapingDetail(wb.index(), wc.index(), wc.qualityBand().name())));
+                            new HeapingDetail(wb.index(), wc.index(), wc.qualityBand().name(),
+                                    MyersIndex.compute(baseline.numeric(), MYERS_LOW_AGE).index(),
+                                    MyersIndex.compute(current.numeric(), MYERS_LOW_AGE).index())));
                 }
             } else if (isWholeNumbers(currentTally.type(), current)) {
                 TerminalDigitPreference tc = TerminalDigitPreference.test(current.numeric());
@@ -168,7 +173,8 @@ final class DataQualityFindings {
                     out.add(Finding.dataQuality(name, FindingKind.DIGIT_PREFERENCE, nB, nC, String.format(Locale.ROOT,
                             "Some last digits are preferred: the index of dissimilarity of last digits rose from %.2f"
                                     + " to %.2f (0 means every digit equally common).", tb.dissimilarity(),
-                            tc.dissimilarity()), new HeapingDetail(tb.dissimilarity(), tc.dissimilarity(), "")));
+                            tc.dissimilarity()), new HeapingDetail(tb.dissimilarity(), tc.dissimilarity(), "", Double.NaN,
+                            Double.NaN)));
                 }
             }
         }
@@ -225,6 +231,8 @@ final class DataQualityFindings {
     record CodesDetail(List<String> codes) {
     }
 
-    record HeapingDetail(double baselineIndex, double currentIndex, String band) {
+    /** Whipple's (or the digit dissimilarity) index of both waves, and Myers' blended index for ages. */
+    record HeapingDetail(double baselineIndex, double currentIndex, String band, double myersBaseline,
+                         double myersCurrent) {
     }
 }

@@ -112,6 +112,17 @@ class WaveJudgeIntegrationTest {
         assertEquals(600, score.get("nCurrent").asLong());
         assertTrue(score.get("effect").get("estimate").asDouble() > 0.5, score.toString());
         assertTrue(Files.readString(out.resolve("digest.md")).contains("screening aids, not findings"));
+        // Same mean, three times the spread: the location test is quiet, the shape check is not.
+        JsonNode shape = null;
+        for (JsonNode f : json.get("findings")) {
+            if (f.get("variable").asText().equals("spread") && f.get("kind").asText().equals("SHAPE_CHANGE")) {
+                shape = f;
+            }
+        }
+        assertTrue(shape != null, "no SHAPE_CHANGE for spread");
+        assertEquals("MATERIAL", shape.get("verdict").asText());
+        assertEquals("KS distance", shape.get("effect").get("name").asText());
+        assertTrue(shape.get("effect").get("ciLow").asDouble() > 0.1, shape.toString());
         // Unlisted columns were inferred and the inference reported.
         assertTrue(r.out().contains("inferred has_car: binary"), r.out());
         assertTrue(r.out().contains("inferred satisfied: ordinal"), r.out());
@@ -186,7 +197,7 @@ class WaveJudgeIntegrationTest {
         Files.writeString(badColumn, SmallSurvey.config(url, "      - name: scroe\n        kind: continuous"));
         r = CliRun.of("waves", "--config", badColumn.toString());
         assertEquals(2, r.exitCode());
-        assertTrue(r.err().contains("config error at datasets[0].variables[2].name: column scroe does not exist"),
+        assertTrue(r.err().contains("config error at datasets[0].variables[3].name: column scroe does not exist"),
                 r.err());
     }
 

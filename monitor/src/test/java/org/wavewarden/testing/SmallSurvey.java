@@ -10,7 +10,8 @@ import java.util.Random;
 
 /**
  * A small invented survey for integration tests: three waves of a few hundred respondents, with a clear shift
- * of {@code score} planted in the third wave and nothing else moving.
+ * of {@code score} planted in the third wave, and in the same wave a tripled spread of {@code spread} around an
+ * unchanged mean (a change of shape, not of location); nothing else moves.
  */
 public final class SmallSurvey {
 
@@ -28,7 +29,8 @@ public final class SmallSurvey {
                         region text,
                         satisfied integer,
                         has_car boolean,
-                        remark text
+                        remark text,
+                        spread double precision
                     );
                     """);
         }
@@ -40,7 +42,7 @@ public final class SmallSurvey {
         Random r = new Random(42);
         String[] regions = {"north", "south", "east", "west"};
         for (int w = 1; w <= 3; w++) {
-            StringBuilder sb = new StringBuilder("respondent_id,score,region,satisfied,has_car,remark\n");
+            StringBuilder sb = new StringBuilder("respondent_id,score,region,satisfied,has_car,remark,spread\n");
             for (int i = 0; i < 600; i++) {
                 double shift = w == 3 ? 8 : 0;
                 double score = Math.round((50 + shift + 10 * r.nextGaussian()) * 10) / 10.0;
@@ -50,7 +52,8 @@ public final class SmallSurvey {
                 String remark = r.nextDouble() < 0.2 ? "" : "note " + r.nextInt(100000);
                 String remarkCsv = remark.isEmpty() ? "\"\"" : remark;
                 sb.append(i).append(',').append(score).append(',').append(region).append(',').append(sat).append(',')
-                        .append(car).append(',').append(r.nextDouble() < 0.5 ? "" : remarkCsv).append('\n');
+                        .append(car).append(',').append(r.nextDouble() < 0.5 ? "" : remarkCsv).append(',')
+                        .append(Math.round((50 + (w == 3 ? 15 : 5) * r.nextGaussian()) * 100) / 100.0).append('\n');
             }
             out[w - 1] = dir.resolve("w" + w + ".csv");
             Files.writeString(out[w - 1], sb.toString(), StandardCharsets.UTF_8);
@@ -77,6 +80,8 @@ public final class SmallSurvey {
                         unit: points
                       - name: region
                         kind: categorical
+                      - name: spread
+                        kind: continuous
                 %s
                 """.formatted(url, extraVariables == null ? "" : extraVariables);
     }

@@ -1,0 +1,75 @@
+package org.wavewarden.pipeline;
+
+import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.wavewarden.config.ConfigLoader;
+import org.wavewarden.config.WardenConfig;
+import org.wavewarden.judge.Finding;
+import org.wavewarden.judge.FindingKind;
+import org.wavewarden.testing.CliRun;
+import org.wavewarden.testing.SmallSurvey;
+import org.wavewarden.testing.TestDatabase;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Clock;
+import java.util.Map;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+
+/** What a wave is compared against: the previous wave, a fixed baseline, or the pooled last k waves. */
+class CompareWithIntegrationTest {
+
+    @TempDir
+    static Path dir;
+    static String url;
+
+    @BeforeAll
+    static void load() throws Exception {
+        url = TestDatabase.freshDatabase("compare_with");
+        SmallSurvey.createTable(url);
+        Path[] csv = SmallSurvey.writeWaves(dir);
+        Path config = dir.resolve("c.yaml");
+        Files.writeString(config, SmallSurvey.config(url, null));
+        for (int w = 1; w <= 3; w++) {
+            assertEquals(0, CliRun.of("import", "--config", config.toString(), "--wave", "w" + w,
+                    csv[w - 1].toString()).exitCode());
+        }
+    }
+
+    static JudgedWave judge(String compareWith, String against) {
+        WardenConfig c = ConfigLoader.parse(SmallSurvey.config(url, null).replace("    exclude: [respondent_id]",
+                "    exclude: [respondent_id]\n    compareWith: " + compareWith));
+        try (Session s = Session.open(c, null, Map.of())) {
+            s.migrate();
+            return new WaveJudge(s, Clock.systemUTC()).judge(c.datasets().get(0), "w3", against, null, null);
+        }
+    }
+
+    static Finding score(JudgedWave j) {
+        return j.report().findings().stream().filter(f -> f.variable().equals("score") && f.kind() == FindingKind.SHIFT)
+                .findFirst().orElseThrow();
+    }
+
+    @Test
+    void aFixedBaselineWaveIsUsed() {
+        JudgedWave j = judge("{baseline: w1}", null);
+        assertEquals("w1", j.report().againstWave());
+        assertEquals(600, score(j).nBaseline());
+    }
+
+    @Test
+    void thePooledLastWavesAreMerged() {
+        JudgedWave j = judge("{pooledLast: 2}", null);
+        assertEquals("pooled w1 .. w2", j.report().againstWave());
+        assertEquals(1200, score(j).nBaseline());
+    }
+
+    @Test
+    void anExplicitAgainstOverridesTheRule() {
+        JudgedWave j = judge("{pooledLast: 2}", "w1");
+        assertEquals("w1", j.report().againstWave());
+        assertEquals(600, score(j).nBaseline());
+    }
+}

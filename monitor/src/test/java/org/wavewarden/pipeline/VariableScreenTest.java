@@ -1,0 +1,97 @@
+package org.wavewarden.pipeline;
+
+import org.junit.jupiter.api.Test;
+import org.wavewarden.config.MissingCodeSpec;
+import org.wavewarden.config.RangeSpec;
+import org.wavewarden.config.VariableConfig;
+import org.wavewarden.config.VariableKind;
+import org.wavewarden.profile.ColumnTally;
+import org.wavewarden.profile.ColumnType;
+import org.wavewarden.profile.NumericDistribution;
+
+import java.util.HashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.SplittableRandom;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+/** What reaches the comparison: valid answers only, every missing answer counted by its reason. */
+class VariableScreenTest {
+
+    static VariableConfig income(List<MissingCodeSpec> codes, RangeSpec range) {
+        return new VariableConfig("income", VariableKind.CONTINUOUS, "EUR", range, codes, null, null, List.of());
+    }
+
+    @Test
+    void aCodebookCodeIsNeverAValidValue() {
+        Map<String, Long> values = new HashMap<>();
+        values.put("-9", 40L);
+        values.put("-8", 10L);
+        for (int v = 1000; v < 1100; v++) {
+            values.put(String.valueOf(v), 5L);
+        }
+        ColumnTally t = new ColumnTally("income", ColumnType.INTEGER, 560, 10, values, false);
+        ScreenedVariable s = VariableScreen.screen(t, income(List.of(new MissingCodeSpec("-9", "refused"),
+                new MissingCodeSpec("-8", "don't know")), null));
+        assertEquals(500, s.numeric().n());
+        assertTrue(s.numeric().value(0) >= 1000, "smallest valid value " + s.numeric().value(0));
+        assertEquals(40L, s.missingByReason().get("refused"));
+        assertEquals(10L, s.missingByReason().get("don't know"));
+    }
+
+    @Test
+    void noMissingCodeReachesTheComparisonOnRandomTallies() {
+        // Property: whatever the codes and the counts, the valid distribution holds no coded value and the counts add up.
+        SplittableRandom r = new SplittableRandom(11);
+        for (int k = 0; k < 200; k++) {
+            Map<String, Long> values = new HashMap<>();
+            int distinct = 3 + r.nextInt(30);
+            for (int i = 0; i < distinct; i++) {
+                values.merge(String.valueOf(r.nextInt(100) - 10), 1L + r.nextInt(50), Long::sum);
+            }
+            List<String> keys = List.copyOf(values.keySet());
+            String code = keys.get(r.nextInt(keys.size()));
+            long rows = values.values().stream().mapToLong(Long::longValue).sum();
+            ColumnTally t = new ColumnTally("x", ColumnType.INTEGER, rows, 0, values, false);
+            ScreenedVariable s = VariableScreen.screen(t, income(List.of(new MissingCodeSpec(code, "coded")), null));
+            NumericDistribution d = s.numeric();
+            for (int i = 0; i < d.size(); i++) {
+                assertFalse(d.value(i) == Double.parseDouble(code), "code " + code + " counted as valid");
+            }
+            long missing = s.missingByReason().values().stream().mapToLong(Long::longValue).sum();
+            long invalid = s.invalid().values().stream().mapToLong(Long::longValue).sum();
+            assertEquals(rows, d.n() + missing + invalid);
+        }
+    }
+
+    @Test
+    void valuesOutsideTheDeclaredRangeAreLeftOutAndCounted() {
+        Map<String, Long> values = Map.of("15", 3L, "20", 50L, "30", 60L, "120", 2L);
+        ColumnTally t = new ColumnTally("age", ColumnType.INTEGER, 115, 0, values, false);
+        ScreenedVariable s = VariableScreen.screen(t, income(List.of(), new RangeSpec(16.0, 99.0)));
+        assertEquals(110, s.numeric().n());
+        assertEquals(5L, s.missingByReason().get("outside the declared range"));
+    }
+
+    @Test
+    void textInANumericVariableIsInvalidNotParsed() {
+        Map<String, Long> values = new HashMap<>(Map.of("12", 30L, "13", 31L, "twelve", 2L, "NaN", 1L, "0x1p3", 1L,
+                "1.5d", 1L));
+        for (int v = 1; v < 12; v++) {
+            values.put(String.valueOf(v), 20L);
+        }
+        ColumnTally t = new ColumnTally("n", ColumnType.TEXT, 286, 0, values, false);
+        ScreenedVariable s = VariableScreen.screen(t, income(List.of(), null));
+        for (String text : List.of("twelve", "0x1p3", "1.5d")) {
+            assertTrue(s.invalid().containsKey(text), text + " should be invalid: " + s.invalid());
+        }
+        // "NaN" is either invalid or recognised as a disguised missing value; it is never a number here.
+        assertTrue(s.invalid().containsKey("NaN") || s.excludedValues().contains("NaN"));
+        long invalid = s.invalid().values().stream().mapToLong(Long::longValue).sum();
+        assertEquals(286, s.numeric().n() + invalid + s.missingByReason().values().stream().mapToLong(Long::longValue)
+                .sum());
+    }
+}
