@@ -131,6 +131,72 @@ public final class VariableComparator {
     }
 
     /**
+     * One wave against a reference mean: the one-sample t-test, with the mean difference and its t interval as the
+     * effect. Without a raw threshold, T is 0.2 standard deviations of the wave (Cohen's d 0.2, Cohen 1988, in the
+     * variable's units).
+     */
+    public Comparison referenceMean(String variable, NumericDistribution current, double mu, Threshold configured,
+                                    String unit) {
+        org.wavewarden.compare.location.MeanDifference md =
+                org.wavewarden.compare.location.OneSampleTTest.test(current, mu, confidence);
+        EffectSize raw = new EffectSize("mean difference from the reference", md.difference(), md.ciLow(), md.ciHigh(),
+                confidence);
+        double t;
+        String source;
+        if (configured != null && configured.raw() != null) {
+            t = configured.raw();
+            source = "configured " + Thresholds.trim(t) + (unit == null ? "" : " " + unit);
+        } else {
+            double sd = current.standardDeviation();
+            t = (configured != null && configured.effect() != null ? configured.effect() : Thresholds.HEDGES_G) * sd;
+            source = "configured " + String.format(java.util.Locale.ROOT, "%.3g", t) + (unit == null ? "" : " " + unit)
+                    + " (d " + (configured != null && configured.effect() != null ? configured.effect()
+                    : Thresholds.HEDGES_G) + " times the wave's SD)";
+        }
+        Change change = new Change("mean " + variable + " against its reference", mu, md.meanCurrent(), false, unit,
+                md.difference(), md.ciLow(), md.ciHigh(), "the first value is the reference");
+        return new Comparison(variable, FindingKind.REFERENCE, md.test(), raw, t, source, 0, current.n(), change, null);
+    }
+
+    /**
+     * One wave against reference shares: the chi-square goodness-of-fit test with Cohen's w (noncentral
+     * chi-square interval); answers not listed share the remaining proportion. The sentence reports the category
+     * furthest from its reference share, with its Wilson interval shifted by the reference.
+     */
+    public Comparison referenceShares(String variable, CategoryCounts current, java.util.Map<String, Double> shares,
+                                      Threshold configured) {
+        List<String> cats = new ArrayList<>(shares.keySet());
+        double listed = shares.values().stream().mapToDouble(Double::doubleValue).sum();
+        long[] observed = new long[cats.size() + (listed < 1 - 1e-9 ? 1 : 0)];
+        double[] expected = new double[observed.length];
+        for (int i = 0; i < cats.size(); i++) {
+            observed[i] = current.count(cats.get(i));
+            expected[i] = shares.get(cats.get(i));
+        }
+        long other = current.n() - java.util.Arrays.stream(observed).sum();
+        if (observed.length > cats.size()) {
+            observed[cats.size()] = other;
+            expected[cats.size()] = 1 - listed;
+        }
+        TestResult gof = org.wavewarden.compare.categorical.ChiSquareGoodnessOfFit.test(observed, expected);
+        EffectSize w = org.wavewarden.compare.categorical.ChiSquareGoodnessOfFit.cohensW(observed, expected, confidence);
+        int worst = 0;
+        long n = current.n();
+        for (int i = 1; i < cats.size(); i++) {
+            if (Math.abs((double) observed[i] / n - expected[i]) > Math.abs((double) observed[worst] / n - expected[worst])) {
+                worst = i;
+            }
+        }
+        var wilson = org.wavewarden.compare.proportion.WilsonInterval.of(observed[worst], n, confidence);
+        double share = (double) observed[worst] / n;
+        Thresholds.Resolved t = Thresholds.resolve(configured, w.name(), Thresholds.CRAMERS_V, null);
+        Change change = new Change("share answering '" + cats.get(worst) + "' against its reference", expected[worst],
+                share, true, null, share - expected[worst], wilson.lower() - expected[worst],
+                wilson.upper() - expected[worst], "the first value is the reference");
+        return new Comparison(variable, FindingKind.REFERENCE, gof, w, t.value(), t.source(), 0, n, change, null);
+    }
+
+    /**
      * Categorical variables: Pearson's chi-square of homogeneity with Cramér's V; when Cochran's rule fails,
      * Fisher's exact test (2 x 2) or a seeded Monte Carlo exact p-value (larger tables) replaces its p-value.
      */

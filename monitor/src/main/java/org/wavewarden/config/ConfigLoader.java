@@ -251,7 +251,8 @@ public final class ConfigLoader {
         }
 
         VariableConfig variable(ObjectNode node, String path) {
-            known(node, path, "name", "kind", "unit", "range", "missingCodes", "threshold", "successValue", "levels");
+            known(node, path, "name", "kind", "unit", "range", "missingCodes", "threshold", "successValue", "levels",
+                    "reference");
             String name = Identifiers.require(path + ".name", text(node, "name", path + ".name", true));
             String kindText = text(node, "kind", path + ".kind", true);
             VariableKind kind = kind(kindText, path + ".kind");
@@ -270,7 +271,53 @@ public final class ConfigLoader {
                 throw new ConfigException(path + ".levels", "only ordinal variables have levels; this one is "
                         + kind.configName());
             }
-            return new VariableConfig(name, kind, unit, range, codes, threshold, success, levels);
+            Reference reference = reference(object(node, "reference", path + ".reference", false),
+                    path + ".reference", kind);
+            return new VariableConfig(name, kind, unit, range, codes, threshold, success, levels, reference);
+        }
+
+        Reference reference(ObjectNode node, String path, VariableKind kind) {
+            if (node == null) {
+                return null;
+            }
+            known(node, path, "mean", "shares");
+            if (node.size() != 1) {
+                throw new ConfigException(path, "expected exactly one of mean or shares");
+            }
+            if (node.has("mean")) {
+                if (!kind.isNumericScale()) {
+                    throw new ConfigException(path + ".mean", "a reference mean applies to continuous and ordinal"
+                            + " variables; for a " + kind.configName() + " variable give shares");
+                }
+                double m = number(node, "mean", path + ".mean", Double.NaN);
+                if (!Double.isFinite(m)) {
+                    throw new ConfigException(path + ".mean", "expected a finite number");
+                }
+                return new Reference(m, null);
+            }
+            if (kind != VariableKind.CATEGORICAL && kind != VariableKind.BINARY) {
+                throw new ConfigException(path + ".shares", "reference shares apply to categorical and binary"
+                        + " variables; for a " + kind.configName() + " variable give a mean");
+            }
+            ObjectNode shares = asObject(node.get("shares"), path + ".shares");
+            java.util.Map<String, Double> out = new java.util.LinkedHashMap<>();
+            double sum = 0;
+            var it = shares.fieldNames();
+            while (it.hasNext()) {
+                String category = it.next();
+                double share = number(shares, category, path + ".shares." + category, Double.NaN);
+                if (!(share > 0 && share < 1)) {
+                    throw new ConfigException(path + ".shares." + category, "expected a share strictly between 0"
+                            + " and 1 but got " + share);
+                }
+                out.put(category, share);
+                sum += share;
+            }
+            if (out.isEmpty() || sum > 1 + 1e-9) {
+                throw new ConfigException(path + ".shares", "expected at least one share, summing to at most 1"
+                        + " (the rest belongs to the answers not listed); they sum to " + sum);
+            }
+            return new Reference(null, out);
         }
 
         VariableKind kind(String text, String path) {

@@ -13,10 +13,11 @@ import java.util.List;
  * @param threshold    smallest change that matters; optional (defaults by kind)
  * @param successValue for binary variables, the answer whose share is tracked; optional
  * @param levels       for ordinal text answers, the order of the levels, lowest first; optional
+ * @param reference    a fixed mean or fixed shares to test every wave against; optional
  */
 public record VariableConfig(String name, VariableKind kind, String unit, RangeSpec range,
                              List<MissingCodeSpec> missingCodes, Threshold threshold, String successValue,
-                             List<String> levels) {
+                             List<String> levels, Reference reference) {
 
     public VariableConfig {
         missingCodes = missingCodes == null ? List.of() : List.copyOf(missingCodes);
@@ -24,6 +25,6 @@ public record VariableConfig(String name, VariableKind kind, String unit, RangeS
     }
 
     public static VariableConfig inferred(String name, VariableKind kind) {
-        return new VariableConfig(name, kind, null, null, List.of(), null, null, List.of());
+        return new VariableConfig(name, kind, null, null, List.of(), null, null, List.of(), null);
     }
 }

@@ -6,6 +6,8 @@ public enum FindingKind {
     SHIFT,
     /** The location test is quiet but the shape changed (KS or Wasserstein beyond its threshold). */
     SHAPE_CHANGE,
+    /** The wave against a configured reference mean or reference shares (one-sample tests). */
+    REFERENCE,
     /** Codebook missing codes, counted by reason. */
     MISSING_CODE,
     /** The share of a missing reason moved between the waves. */
@@ -40,6 +42,6 @@ public enum FindingKind {
     SKIPPED;
 
     public boolean isDataQuality() {
-        return this != SHIFT && this != SHAPE_CHANGE && this != SKIPPED;
+        return this != SHIFT && this != SHAPE_CHANGE && this != REFERENCE && this != SKIPPED;
     }
 }

@@ -115,6 +115,7 @@ public final class WaveJudge {
             ColumnTally bt = baseline == null ? null : baseline.columns().get(v.name());
             ScreenedVariable sc = VariableScreen.screen(ct, v);
             ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v);
+            reference(comparator, v, sc).ifPresent(comparisons::add);
             DataQualityFindings.Result dq = DataQualityFindings.of(v, ct, sc, sb, comparator);
             plain.addAll(dq.findings());
             comparisons.addAll(dq.rateComparisons());
@@ -215,6 +216,22 @@ public final class WaveJudge {
             }
             case TEXT, DATE -> Optional.empty();
         };
+    }
+
+    /** The wave against the variable's configured reference, when it has one and enough valid answers. */
+    static Optional<Comparison> reference(VariableComparator comparator, VariableConfig v, ScreenedVariable c) {
+        if (v.reference() == null || c.validN() < 2) {
+            return Optional.empty();
+        }
+        if (v.reference().mean() != null && c.numeric() != null && c.numeric().size() > 1) {
+            return Optional.of(comparator.referenceMean(v.name(), c.numeric(), v.reference().mean(), v.threshold(),
+                    v.unit()));
+        }
+        if (!v.reference().shares().isEmpty() && c.categories() != null) {
+            return Optional.of(comparator.referenceShares(v.name(), c.categories(), v.reference().shares(),
+                    v.threshold()));
+        }
+        return Optional.empty();
     }
 
     /** Why a variable cannot be compared this time, or null when it can (or is never compared). */

@@ -67,6 +67,40 @@ class CompareWithIntegrationTest {
     }
 
     @Test
+    void everyWaveIsAlsoTestedAgainstAConfiguredReference() {
+        String yaml = SmallSurvey.config(url, null)
+                .replace("        kind: continuous\n        unit: points",
+                        "        kind: continuous\n        unit: points\n        reference: {mean: 50}")
+                .replace("        kind: categorical\n",
+                        "        kind: categorical\n        reference: {shares: {north: 0.25, south: 0.25, east: 0.25}}\n");
+        WardenConfig c = ConfigLoader.parse(yaml);
+        try (Session s = Session.open(c, null, Map.of())) {
+            s.migrate();
+            WaveJudge judge = new WaveJudge(s, Clock.systemUTC());
+            JudgedWave w3 = judge.judge(c.datasets().get(0), "w3", null, null, null);
+            Finding score = find(w3, "score");
+            assertEquals("one-sample t", score.test());
+            assertEquals("MATERIAL", String.valueOf(score.verdict()), score.sentence());
+            assertEquals(null, score.nBaseline());
+            Finding region = find(w3, "region");
+            // Regions are drawn uniformly, so nothing is significant; but 600 answers are too few to show the shares
+            // within w 0.1 of the reference: the honest verdict is UNCERTAIN, not STABLE.
+            assertEquals("UNCERTAIN", String.valueOf(region.verdict()), region.sentence());
+            assertEquals("chi-square goodness of fit", region.test().toLowerCase(java.util.Locale.ROOT)
+                    .replace("pearson ", ""));
+            // The first wave has nothing to be compared with, but it still meets its reference.
+            JudgedWave w1 = judge.judge(c.datasets().get(0), "w1", null, null, null);
+            assertEquals("STABLE", String.valueOf(find(w1, "score").verdict()), find(w1, "score").sentence());
+        }
+    }
+
+    static Finding find(JudgedWave j, String variable) {
+        return j.report().findings().stream().filter(f -> f.variable().equals(variable)
+                && f.kind() == FindingKind.REFERENCE).findFirst().orElseThrow(() -> new AssertionError(
+                "no REFERENCE finding for " + variable));
+    }
+
+    @Test
     void anExplicitAgainstOverridesTheRule() {
         JudgedWave j = judge("{pooledLast: 2}", "w1");
         assertEquals("w1", j.report().againstWave());

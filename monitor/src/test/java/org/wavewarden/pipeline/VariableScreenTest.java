@@ -22,7 +22,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 class VariableScreenTest {
 
     static VariableConfig income(List<MissingCodeSpec> codes, RangeSpec range) {
-        return new VariableConfig("income", VariableKind.CONTINUOUS, "EUR", range, codes, null, null, List.of());
+        return new VariableConfig("income", VariableKind.CONTINUOUS, "EUR", range, codes, null, null, List.of(), null);
     }
 
     @Test
