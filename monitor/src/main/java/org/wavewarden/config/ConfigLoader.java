@@ -61,7 +61,7 @@ public final class ConfigLoader {
     private static final class Walker {
 
         WardenConfig config(ObjectNode root) {
-            known(root, "", "source", "results", "alpha", "fdr", "datasets");
+            known(root, "", "source", "results", "alpha", "fdr", "datasets", "daemon");
             ConnectionConfig source = connection(object(root, "source", "source", true), "source", true);
             WardenConfig.ResultsConfig results = results(object(root, "results", "results", false));
             double alpha = number(root, "alpha", "alpha", 0.05);
@@ -83,7 +83,99 @@ public final class ConfigLoader {
                 }
                 datasets.add(d);
             }
-            return new WardenConfig(source, results, alpha, fdr, datasets);
+            return new WardenConfig(source, results, alpha, fdr, datasets,
+                    daemon(object(root, "daemon", "daemon", false)));
+        }
+
+        DaemonConfig daemon(ObjectNode node) {
+            if (node == null) {
+                return DaemonConfig.DEFAULTS;
+            }
+            known(node, "daemon", "httpBind", "httpPort", "outputDir");
+            String bind = text(node, "httpBind", "daemon.httpBind", false);
+            if (bind != null && !bind.matches("[0-9A-Za-z.:\\-\\[\\]]{1,255}")) {
+                throw new ConfigException("daemon.httpBind", "expected a host name or IP address but got "
+                        + Identifiers.Text.show(bind));
+            }
+            double port = number(node, "httpPort", "daemon.httpPort", DaemonConfig.DEFAULTS.httpPort());
+            if (port != Math.rint(port) || port < -1 || port > 65535) {
+                throw new ConfigException("daemon.httpPort", "expected a port from 0 to 65535, or -1 for none, but got "
+                        + node.get("httpPort").asText());
+            }
+            String dir = text(node, "outputDir", "daemon.outputDir", false);
+            return new DaemonConfig(bind == null ? DaemonConfig.DEFAULTS.httpBind() : bind, (int) port,
+                    dir == null ? DaemonConfig.DEFAULTS.outputDir() : dir);
+        }
+
+        AlertSinks alerts(ObjectNode node, String path) {
+            if (node == null) {
+                return AlertSinks.NONE;
+            }
+            known(node, path, "jsonLines", "webhook");
+            AlertSinks.JsonLines jl = null;
+            AlertSinks.Webhook wh = null;
+            ObjectNode j = object(node, "jsonLines", path + ".jsonLines", false);
+            if (j != null) {
+                known(j, path + ".jsonLines", "path", "minimumVerdict", "kinds");
+                jl = new AlertSinks.JsonLines(text(j, "path", path + ".jsonLines.path", true),
+                        filter(j, path + ".jsonLines"));
+            }
+            ObjectNode w = object(node, "webhook", path + ".webhook", false);
+            if (w != null) {
+                known(w, path + ".webhook", "url", "secretEnv", "minimumVerdict", "kinds", "secret");
+                if (w.has("secret")) {
+                    throw new ConfigException(path + ".webhook.secret", "secrets are never written in the config;"
+                            + " name an environment variable with secretEnv");
+                }
+                String url = text(w, "url", path + ".webhook.url", true);
+                if (!url.matches("https?://[^\\s]+")) {
+                    throw new ConfigException(path + ".webhook.url", "expected an http:// or https:// URL but got "
+                            + Identifiers.Text.show(url));
+                }
+                String env = text(w, "secretEnv", path + ".webhook.secretEnv", true);
+                if (!env.matches("[A-Za-z_][A-Za-z0-9_]*")) {
+                    throw new ConfigException(path + ".webhook.secretEnv", "expected an environment variable name");
+                }
+                wh = new AlertSinks.Webhook(url, env, filter(w, path + ".webhook"));
+            }
+            return new AlertSinks(jl, wh);
+        }
+
+        AlertSinks.Filter filter(ObjectNode node, String path) {
+            String min = text(node, "minimumVerdict", path + ".minimumVerdict", false);
+            if (min != null && !java.util.Set.of("MATERIAL", "MINOR", "UNCERTAIN", "STABLE").contains(min)) {
+                throw new ConfigException(path + ".minimumVerdict", "expected MATERIAL, UNCERTAIN, MINOR or STABLE but"
+                        + " got '" + min + "'");
+            }
+            List<String> kinds = texts(node, "kinds", path + ".kinds");
+            for (int i = 0; i < kinds.size(); i++) {
+                try {
+                    org.wavewarden.judge.FindingKind.valueOf(kinds.get(i));
+                } catch (IllegalArgumentException e) {
+                    throw new ConfigException(path + ".kinds[" + i + "]", "unknown finding kind '" + kinds.get(i) + "'"
+                            + Suggest.nearest(kinds.get(i), java.util.Arrays.stream(
+                                    org.wavewarden.judge.FindingKind.values()).map(Enum::name).toList())
+                            .map(x -> "; did you mean '" + x + "'?").orElse(""));
+                }
+            }
+            return new AlertSinks.Filter(min, new java.util.LinkedHashSet<>(kinds));
+        }
+
+        java.time.Duration duration(ObjectNode node, String key, String path) {
+            String text = text(node, key, path, false);
+            if (text == null) {
+                return java.time.Duration.ZERO;
+            }
+            try {
+                java.time.Duration d = java.time.Duration.parse(text);
+                if (d.isNegative()) {
+                    throw new ConfigException(path, "expected a duration that is not negative");
+                }
+                return d;
+            } catch (java.time.format.DateTimeParseException e) {
+                throw new ConfigException(path, "expected an ISO-8601 duration such as PT10M or PT1H but got '" + text
+                        + "'");
+            }
         }
 
         WardenConfig.FdrMethod fdr(ObjectNode root) {
@@ -152,7 +244,7 @@ public final class ConfigLoader {
 
         DatasetConfig dataset(ObjectNode node, String path) {
             known(node, path, "name", "table", "waveColumn", "tablePattern", "waveOrder", "compareWith", "schedule",
-                    "exclude", "variables");
+                    "exclude", "variables", "quietPeriod", "alerts");
             String name = text(node, "name", path + ".name", true);
             if (!name.matches("[A-Za-z0-9][A-Za-z0-9_.-]{0,99}")) {
                 throw new ConfigException(path + ".name", "expected letters, digits, '-', '_' or '.' (at most 100)"
@@ -208,7 +300,9 @@ public final class ConfigLoader {
                 }
             }
             return new DatasetConfig(name, table, waveColumn, pattern, waveOrder(node, path),
-                    compareWith(node.get("compareWith"), path + ".compareWith"), schedule, exclude, variables);
+                    compareWith(node.get("compareWith"), path + ".compareWith"), schedule, exclude, variables,
+                    duration(node, "quietPeriod", path + ".quietPeriod"),
+                    alerts(object(node, "alerts", path + ".alerts", false), path + ".alerts"));
         }
 
         WaveOrder waveOrder(ObjectNode node, String path) {

@@ -14,15 +14,19 @@ import java.util.List;
  * @param schedule     Quartz cron expression for the daemon; optional
  * @param exclude      columns never monitored (keys, free identifiers)
  * @param variables    declared variables; others are inferred
+ * @param quietPeriod  the daemon judges a wave once its row count has been unchanged this long (zero: at once)
+ * @param alerts       where the daemon delivers this dataset's alerts besides the alerts table
  */
 public record DatasetConfig(String name, String table, String waveColumn, String tablePattern, WaveOrder waveOrder,
                             CompareWith compareWith, String schedule, List<String> exclude,
-                            List<VariableConfig> variables) {
+                            List<VariableConfig> variables, java.time.Duration quietPeriod, AlertSinks alerts) {
 
     public DatasetConfig {
         waveOrder = waveOrder == null ? WaveOrder.NATURAL : waveOrder;
         compareWith = compareWith == null ? CompareWith.PREVIOUS : compareWith;
         exclude = exclude == null ? List.of() : List.copyOf(exclude);
         variables = variables == null ? List.of() : List.copyOf(variables);
+        quietPeriod = quietPeriod == null ? java.time.Duration.ZERO : quietPeriod;
+        alerts = alerts == null ? AlertSinks.NONE : alerts;
     }
 }

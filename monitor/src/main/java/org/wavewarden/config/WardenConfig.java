@@ -10,12 +10,14 @@ import java.util.List;
  * @param alpha    false discovery rate the verdicts are held to
  * @param fdr      multiplicity procedure across every test of a run
  * @param datasets the monitored datasets
+ * @param daemon   settings of the daemon
  */
 public record WardenConfig(ConnectionConfig source, ResultsConfig results, double alpha, FdrMethod fdr,
-                           List<DatasetConfig> datasets) {
+                           List<DatasetConfig> datasets, DaemonConfig daemon) {
 
     public WardenConfig {
         datasets = List.copyOf(datasets);
+        daemon = daemon == null ? DaemonConfig.DEFAULTS : daemon;
     }
 
     public DatasetConfig dataset(String name) {

@@ -23,6 +23,8 @@ public final class Session implements AutoCloseable {
     private final HikariDataSource source;
     private final HikariDataSource results;
     private final ResultsStore store;
+    private String embeddedUrl;
+    private Map<String, String> env = Map.of();
 
     private Session(WardenConfig config, HikariDataSource source, HikariDataSource results) {
         this.config = config;
@@ -53,6 +55,8 @@ public final class Session implements AutoCloseable {
             res = Databases.open(rc, embeddedUrl, "results", false, env, 4);
         }
         Session s = new Session(config, src, res);
+        s.embeddedUrl = embeddedUrl;
+        s.env = Map.copyOf(env);
         try {
             s.ping(src, "source");
             s.ping(res, "results");
@@ -75,6 +79,16 @@ public final class Session implements AutoCloseable {
     /** Applies the results schema (idempotent). */
     public org.flywaydb.core.api.output.MigrateResult migrate() {
         return ResultsSchema.migrate(results, config.results().schema());
+    }
+
+    /** The embedded server's URL when the config says embedded, else null. */
+    public String embeddedUrl() {
+        return embeddedUrl;
+    }
+
+    /** The environment the session's secrets were read from. */
+    public Map<String, String> env() {
+        return env;
     }
 
     public WardenConfig config() {

@@ -165,6 +165,27 @@ public final class ResultsStore {
         b.execute();
     }
 
+    /** Rows of the stored summary a run judged, or -1 when it is gone. */
+    public long summaryRows(String dataset, String wave, String checksum) {
+        return jdbi.withHandle(h -> h.createQuery("SELECT row_count FROM " + s + ".wave_summary WHERE dataset = :d"
+                        + " AND wave = :w AND checksum = :c")
+                .bind("d", dataset).bind("w", wave).bind("c", checksum).mapTo(Long.class).findOne().orElse(-1L));
+    }
+
+    /**
+     * Notes a wave's current row count and returns since when it has had that count: the first time a count is
+     * seen, {@code now}; while it stays the same, the time it was first seen.
+     */
+    public Instant watch(String dataset, String wave, long rows, Instant now) {
+        return jdbi.inTransaction(h -> h.createQuery("INSERT INTO " + s + ".wave_watch AS w (dataset, wave, row_count,"
+                        + " stable_since) VALUES (:d, :w, :n, :now) ON CONFLICT (dataset, wave) DO UPDATE SET"
+                        + " row_count = EXCLUDED.row_count, stable_since = CASE WHEN w.row_count = EXCLUDED.row_count"
+                        + " THEN w.stable_since ELSE EXCLUDED.stable_since END RETURNING stable_since")
+                .bind("d", dataset).bind("w", wave).bind("n", rows)
+                .bind("now", OffsetDateTime.ofInstant(now, ZoneOffset.UTC))
+                .map((rs, ctx) -> rs.getObject(1, OffsetDateTime.class).toInstant()).one());
+    }
+
     /** Open alerts of a dataset, newest first. */
     public List<AlertRow> openAlerts(String dataset) {
         return jdbi.withHandle(h -> h.createQuery("SELECT alert_id, wave, against_wave, variable, kind, verdict, sentence"

@@ -1,0 +1,234 @@
+package org.wavewarden.daemon;
+
+import com.zaxxer.hikari.HikariDataSource;
+import org.quartz.CronScheduleBuilder;
+import org.quartz.JobBuilder;
+import org.quartz.JobDetail;
+import org.quartz.JobKey;
+import org.quartz.Scheduler;
+import org.quartz.SchedulerException;
+import org.quartz.Trigger;
+import org.quartz.TriggerBuilder;
+import org.quartz.impl.StdSchedulerFactory;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
+import org.wavewarden.config.DatasetConfig;
+import org.wavewarden.config.WardenConfig;
+import org.wavewarden.db.Databases;
+import org.wavewarden.deliver.Json;
+import org.wavewarden.deliver.MarkdownDigest;
+import org.wavewarden.pipeline.JudgedWave;
+import org.wavewarden.pipeline.Session;
+
+import java.io.IOException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.StandardCopyOption;
+import java.time.Clock;
+import java.time.Duration;
+import java.time.Instant;
+import java.time.ZoneOffset;
+import java.time.format.DateTimeFormatter;
+import java.util.List;
+import java.util.Map;
+import java.util.Properties;
+import java.util.Set;
+import java.util.UUID;
+
+/**
+ * The long-running monitor: one Quartz cron trigger per dataset on a clustered JDBC job store in the results
+ * database, so several instances share one schedule with fail-over. Misfire policy: a firing missed while every
+ * instance was down runs once, as soon as an instance is back ({@code withMisfireHandlingInstructionFireAndProceed});
+ * since each firing judges every pending wave, one catch-up firing is enough.
+ */
+public final class Daemon implements AutoCloseable {
+
+    private static final Logger LOG = LoggerFactory.getLogger(Daemon.class);
+    static final String GROUP = "wavewarden";
+    static final String DEFAULT_SCHEDULE = "0 15 2 * * ?";
+
+    /** Retry policy of one firing when a database is unreachable: delays double from initial up to max. */
+    public record Retry(int attempts, Duration initial, Duration max) {
+        public static final Retry DEFAULT = new Retry(6, Duration.ofSeconds(2), Duration.ofMinutes(2));
+    }
+
+    private final Session session;
+    private final WardenConfig config;
+    private final Clock clock;
+    private final Retry retry;
+    private final Path outputDir;
+    private final DaemonMetrics metrics = new DaemonMetrics();
+    private final String registryKey = UUID.randomUUID().toString();
+    private final HikariDataSource quartzPool;
+    private final List<AlertDelivery> deliveries;
+    private Scheduler scheduler;
+    private StatusServer status;
+    private volatile Path latestDigest;
+
+    /** Delivers a judged wave's alerts to a sink (file, webhook); the alerts table is written by the run itself. */
+    public interface AlertDelivery {
+        void deliver(String dataset, JudgedWave wave);
+    }
+
+    public Daemon(Session session, Clock clock, Retry retry, List<AlertDelivery> deliveries) {
+        this.session = session;
+        this.config = session.config();
+        this.clock = clock;
+        this.retry = retry;
+        this.deliveries = List.copyOf(deliveries);
+        this.outputDir = Path.of(config.daemon().outputDir());
+        this.quartzPool = Databases.open(config.results().connection() == null ? config.source()
+                : config.results().connection(), session.embeddedUrl(), "results", false, session.env(), 4);
+    }
+
+    public DaemonMetrics metrics() {
+        return metrics;
+    }
+
+    /** Starts the scheduler (and the status endpoint unless its port is -1). */
+    public void start(String instanceId, int clusterCheckinMillis) throws SchedulerException, IOException {
+        session.migrate();
+        RegisteredConnectionProvider.register(registryKey, quartzPool);
+        Properties p = new Properties();
+        p.setProperty("org.quartz.scheduler.instanceName", "wavewarden");
+        p.setProperty("org.quartz.scheduler.instanceId", instanceId == null ? "AUTO" : instanceId);
+        p.setProperty("org.quartz.scheduler.skipUpdateCheck", "true");
+        p.setProperty("org.quartz.threadPool.threadCount", "4");
+        p.setProperty("org.quartz.jobStore.class", "org.quartz.impl.jdbcjobstore.JobStoreTX");
+        p.setProperty("org.quartz.jobStore.driverDelegateClass", "org.quartz.impl.jdbcjobstore.PostgreSQLDelegate");
+        p.setProperty("org.quartz.jobStore.tablePrefix", "\"" + config.results().schema() + "\".QRTZ_");
+        p.setProperty("org.quartz.jobStore.isClustered", "true");
+        p.setProperty("org.quartz.jobStore.clusterCheckinInterval", String.valueOf(clusterCheckinMillis));
+        p.setProperty("org.quartz.jobStore.acquireTriggersWithinLock", "true");
+        p.setProperty("org.quartz.jobStore.misfireThreshold", "60000");
+        p.setProperty("org.quartz.jobStore.dataSource", "results");
+        p.setProperty("org.quartz.dataSource.results.connectionProvider.class",
+                RegisteredConnectionProvider.class.getName());
+        p.setProperty("org.quartz.dataSource.results.registryKey", registryKey);
+        StdSchedulerFactory factory = new StdSchedulerFactory(p);
+        scheduler = factory.getScheduler();
+        // Quartz keeps schedulers in a per-JVM repository by name; every member of a cluster shares the name, so
+        // the entry is dropped to let another instance (in tests, in the same JVM) build its own scheduler.
+        org.quartz.impl.SchedulerRepository.getInstance().remove(scheduler.getSchedulerName());
+        scheduler.setJobFactory((bundle, s) -> new JudgeDatasetJob(this));
+        for (DatasetConfig d : config.datasets()) {
+            JobDetail job = JobBuilder.newJob(JudgeDatasetJob.class).withIdentity(d.name(), GROUP)
+                    .usingJobData(JudgeDatasetJob.DATASET, d.name()).requestRecovery(true).storeDurably(true).build();
+            Trigger trigger = TriggerBuilder.newTrigger().withIdentity(d.name(), GROUP).forJob(job)
+                    .withSchedule(CronScheduleBuilder.cronSchedule(d.schedule() == null ? DEFAULT_SCHEDULE : d.schedule())
+                            .withMisfireHandlingInstructionFireAndProceed())
+                    .build();
+            scheduler.scheduleJob(job, Set.of(trigger), true);
+        }
+        if (config.daemon().httpPort() >= 0) {
+            status = StatusServer.start(config.daemon().httpBind(), config.daemon().httpPort(), this);
+        }
+        scheduler.start();
+        LOG.info("daemon started: {} dataset(s), instance {}", config.datasets().size(), scheduler.getSchedulerInstanceId());
+    }
+
+    /** The status endpoint's port, once started. */
+    public int statusPort() {
+        return status == null ? -1 : status.port();
+    }
+
+    /** One firing of every dataset, in this thread; for {@code run --once}. Returns whether all succeeded. */
+    public boolean runOnce() {
+        session.migrate();
+        boolean ok = true;
+        for (DatasetConfig d : config.datasets()) {
+            ok &= fireWithRetries(d.name());
+        }
+        return ok;
+    }
+
+    /** One firing of one dataset, retried with backoff while a database is unreachable. */
+    boolean fireWithRetries(String dataset) {
+        DatasetConfig d = config.dataset(dataset);
+        Duration delay = retry.initial();
+        for (int attempt = 1; ; attempt++) {
+            try {
+                DatasetFiring.Result r = new DatasetFiring(session, clock, outputDir).fire(d);
+                for (JudgedWave j : r.judged()) {
+                    metrics.waveJudged(dataset, j.alerts());
+                    for (AlertDelivery delivery : deliveries) {
+                        delivery.deliver(dataset, j);
+                    }
+                }
+                if (!r.judged().isEmpty()) {
+                    writeDigest(r);
+                }
+                metrics.firingSucceeded(dataset, clock.instant());
+                return true;
+            } catch (RuntimeException e) {
+                metrics.firingFailed(dataset);
+                if (attempt >= retry.attempts()) {
+                    LOG.error("firing of {} failed {} times; giving up until the next firing: {}", dataset, attempt,
+                            e.toString());
+                    return false;
+                }
+                LOG.warn("firing of {} failed (attempt {} of {}), retrying in {}: {}", dataset, attempt,
+                        retry.attempts(), delay, e.toString());
+                try {
+                    Thread.sleep(delay.toMillis());
+                } catch (InterruptedException ie) {
+                    Thread.currentThread().interrupt();
+                    return false;
+                }
+                delay = delay.multipliedBy(2).compareTo(retry.max()) > 0 ? retry.max() : delay.multipliedBy(2);
+            }
+        }
+    }
+
+    private void writeDigest(DatasetFiring.Result r) {
+        try {
+            String stamp = DateTimeFormatter.ofPattern("yyyyMMdd'T'HHmmss'Z'").withZone(ZoneOffset.UTC)
+                    .format(clock.instant());
+            Path dir = outputDir.resolve(r.dataset()).resolve("digest-" + stamp);
+            Files.createDirectories(dir);
+            var reports = DatasetFiring.reports(r);
+            Files.writeString(dir.resolve("digest.md"), MarkdownDigest.render(reports), StandardCharsets.UTF_8);
+            Files.writeString(dir.resolve("digest.json"), Json.write(Map.of("dataset", r.dataset(), "generatedAt",
+                    Instant.now(clock).toString(), "waves", reports)), StandardCharsets.UTF_8);
+            Path latest = outputDir.resolve(r.dataset()).resolve("latest");
+            Files.createDirectories(latest);
+            for (String f : List.of("digest.md", "digest.json")) {
+                Files.copy(dir.resolve(f), latest.resolve(f), StandardCopyOption.REPLACE_EXISTING);
+            }
+            latestDigest = latest.resolve("digest.md");
+        } catch (IOException e) {
+            LOG.error("could not write the digest of {}: {}", r.dataset(), e.toString());
+        }
+    }
+
+    Path latestDigest() {
+        return latestDigest;
+    }
+
+    /** Stops taking new firings and waits for the one in progress to finish (its run commits or rolls back). */
+    @Override
+    public void close() {
+        try {
+            if (scheduler != null) {
+                scheduler.shutdown(true);
+            }
+        } catch (SchedulerException e) {
+            LOG.warn("scheduler shutdown: {}", e.toString());
+        }
+        if (status != null) {
+            status.stop();
+        }
+        RegisteredConnectionProvider.unregister(registryKey);
+        quartzPool.close();
+    }
+
+    /** For tests: the scheduler's instance id. */
+    String instanceId() throws SchedulerException {
+        return scheduler.getSchedulerInstanceId();
+    }
+
+    JobKey jobKey(String dataset) {
+        return JobKey.jobKey(dataset, GROUP);
+    }
+}

@@ -1,0 +1,63 @@
+package org.wavewarden.daemon;
+
+import org.wavewarden.config.DatasetConfig;
+import org.wavewarden.deliver.FindingsReport;
+import org.wavewarden.pipeline.JudgedWave;
+import org.wavewarden.pipeline.Session;
+import org.wavewarden.pipeline.WaveJudge;
+import org.wavewarden.read.WaveInfo;
+import org.wavewarden.store.ResultsStore;
+
+import java.nio.file.Path;
+import java.time.Clock;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.List;
+
+/**
+ * One firing for one dataset: list the source's waves, and judge, oldest first, every wave that has no current
+ * run or whose row count no longer matches the summary its run judged, once the wave is ready (its row count
+ * unchanged for the dataset's quiet period). A wave that is not ready stops the firing there, since every later
+ * wave is compared against it.
+ */
+public final class DatasetFiring {
+
+    private final Session session;
+    private final Clock clock;
+    private final Path outputDir;
+
+    public DatasetFiring(Session session, Clock clock, Path outputDir) {
+        this.session = session;
+        this.clock = clock;
+        this.outputDir = outputDir;
+    }
+
+    /** What one firing did. */
+    public record Result(String dataset, List<JudgedWave> judged, List<String> waiting) {
+    }
+
+    public Result fire(DatasetConfig d) {
+        WaveJudge judge = new WaveJudge(session, clock);
+        ResultsStore store = session.store();
+        List<JudgedWave> judged = new ArrayList<>();
+        List<String> waiting = new ArrayList<>();
+        for (WaveInfo w : judge.waves(d)) {
+            var run = store.currentRun(d.name(), w.wave());
+            if (run.isPresent() && store.summaryRows(d.name(), w.wave(), run.get().summaryChecksum()) == w.rows()) {
+                continue;
+            }
+            Instant now = clock.instant();
+            Instant stableSince = store.watch(d.name(), w.wave(), w.rows(), now);
+            if (stableSince.plus(d.quietPeriod()).isAfter(now)) {
+                waiting.add(w.wave());
+                break;
+            }
+            judged.add(judge.judge(d, w.wave(), null, outputDir.resolve(d.name()).resolve(w.wave()), null));
+        }
+        return new Result(d.name(), judged, waiting);
+    }
+
+    public static List<FindingsReport> reports(Result r) {
+        return r.judged().stream().map(JudgedWave::report).toList();
+    }
+}
