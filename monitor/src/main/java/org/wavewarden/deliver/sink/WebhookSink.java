@@ -12,11 +12,13 @@ import java.net.http.HttpRequest;
 import java.net.http.HttpResponse;
 import java.nio.charset.StandardCharsets;
 import java.time.Duration;
+import java.util.HashSet;
 import java.util.List;
 import java.util.Locale;
 import java.util.Objects;
 import java.util.Optional;
 import java.util.Random;
+import java.util.Set;
 
 /**
  * Posts each alert to an HTTP endpoint, signed with a shared secret.
@@ -105,7 +107,7 @@ public final class WebhookSink implements AlertSink {
         int duplicates = 0;
         int delivered = 0;
         int dead = 0;
-        java.util.Set<String> seen = new java.util.HashSet<>();
+        Set<String> seen = new HashSet<>();
         RuntimeException recordFailure = null;
         boolean interrupted = false;
         for (AlertMessage m : messages) {
