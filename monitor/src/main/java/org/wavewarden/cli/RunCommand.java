@@ -58,8 +58,8 @@ final class RunCommand implements Callable<Integer> {
         private Deliveries() {
         }
 
-        static List<Daemon.AlertDelivery> from(Session s) {
-            return List.of();
+        static java.util.Map<String, List<org.wavewarden.deliver.sink.AlertSink>> from(Session s) {
+            return org.wavewarden.daemon.Sinks.fromConfig(s);
         }
     }
 }

@@ -107,17 +107,17 @@ public final class ConfigLoader {
                     dir == null ? DaemonConfig.DEFAULTS.outputDir() : dir);
         }
 
-        AlertSinks alerts(ObjectNode node, String path) {
+        SinkSettings alerts(ObjectNode node, String path) {
             if (node == null) {
-                return AlertSinks.NONE;
+                return SinkSettings.NONE;
             }
             known(node, path, "jsonLines", "webhook");
-            AlertSinks.JsonLines jl = null;
-            AlertSinks.Webhook wh = null;
+            SinkSettings.JsonLines jl = null;
+            SinkSettings.Webhook wh = null;
             ObjectNode j = object(node, "jsonLines", path + ".jsonLines", false);
             if (j != null) {
                 known(j, path + ".jsonLines", "path", "minimumVerdict", "kinds");
-                jl = new AlertSinks.JsonLines(text(j, "path", path + ".jsonLines.path", true),
+                jl = new SinkSettings.JsonLines(text(j, "path", path + ".jsonLines.path", true),
                         filter(j, path + ".jsonLines"));
             }
             ObjectNode w = object(node, "webhook", path + ".webhook", false);
@@ -136,12 +136,12 @@ public final class ConfigLoader {
                 if (!env.matches("[A-Za-z_][A-Za-z0-9_]*")) {
                     throw new ConfigException(path + ".webhook.secretEnv", "expected an environment variable name");
                 }
-                wh = new AlertSinks.Webhook(url, env, filter(w, path + ".webhook"));
+                wh = new SinkSettings.Webhook(url, env, filter(w, path + ".webhook"));
             }
-            return new AlertSinks(jl, wh);
+            return new SinkSettings(jl, wh);
         }
 
-        AlertSinks.Filter filter(ObjectNode node, String path) {
+        SinkSettings.Filter filter(ObjectNode node, String path) {
             String min = text(node, "minimumVerdict", path + ".minimumVerdict", false);
             if (min != null && !java.util.Set.of("MATERIAL", "MINOR", "UNCERTAIN", "STABLE").contains(min)) {
                 throw new ConfigException(path + ".minimumVerdict", "expected MATERIAL, UNCERTAIN, MINOR or STABLE but"
@@ -158,7 +158,7 @@ public final class ConfigLoader {
                             .map(x -> "; did you mean '" + x + "'?").orElse(""));
                 }
             }
-            return new AlertSinks.Filter(min, new java.util.LinkedHashSet<>(kinds));
+            return new SinkSettings.Filter(min, new java.util.LinkedHashSet<>(kinds));
         }
 
         java.time.Duration duration(ObjectNode node, String key, String path) {

@@ -19,7 +19,7 @@ import java.util.List;
  */
 public record DatasetConfig(String name, String table, String waveColumn, String tablePattern, WaveOrder waveOrder,
                             CompareWith compareWith, String schedule, List<String> exclude,
-                            List<VariableConfig> variables, java.time.Duration quietPeriod, AlertSinks alerts) {
+                            List<VariableConfig> variables, java.time.Duration quietPeriod, SinkSettings alerts) {
 
     public DatasetConfig {
         waveOrder = waveOrder == null ? WaveOrder.NATURAL : waveOrder;
@@ -27,6 +27,6 @@ public record DatasetConfig(String name, String table, String waveColumn, String
         exclude = exclude == null ? List.of() : List.copyOf(exclude);
         variables = variables == null ? List.of() : List.copyOf(variables);
         quietPeriod = quietPeriod == null ? java.time.Duration.ZERO : quietPeriod;
-        alerts = alerts == null ? AlertSinks.NONE : alerts;
+        alerts = alerts == null ? SinkSettings.NONE : alerts;
     }
 }

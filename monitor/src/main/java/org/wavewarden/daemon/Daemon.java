@@ -61,22 +61,21 @@ public final class Daemon implements AutoCloseable {
     private final DaemonMetrics metrics = new DaemonMetrics();
     private final String registryKey = UUID.randomUUID().toString();
     private final HikariDataSource quartzPool;
-    private final List<AlertDelivery> deliveries;
+    private final AlertOutbox outbox;
     private Scheduler scheduler;
     private StatusServer status;
     private volatile Path latestDigest;
 
-    /** Delivers a judged wave's alerts to a sink (file, webhook); the alerts table is written by the run itself. */
-    public interface AlertDelivery {
-        void deliver(String dataset, JudgedWave wave);
-    }
-
-    public Daemon(Session session, Clock clock, Retry retry, List<AlertDelivery> deliveries) {
+    /**
+     * @param sinksByDataset the sinks of each dataset besides the alerts table, which the run itself writes
+     */
+    public Daemon(Session session, Clock clock, Retry retry,
+                  Map<String, List<org.wavewarden.deliver.sink.AlertSink>> sinksByDataset) {
         this.session = session;
         this.config = session.config();
         this.clock = clock;
         this.retry = retry;
-        this.deliveries = List.copyOf(deliveries);
+        this.outbox = new AlertOutbox(session.store().jdbi(), config.results().schema(), sinksByDataset);
         this.outputDir = Path.of(config.daemon().outputDir());
         this.quartzPool = Databases.open(config.results().connection() == null ? config.source()
                 : config.results().connection(), session.embeddedUrl(), "results", false, session.env(), 4);
@@ -152,10 +151,8 @@ public final class Daemon implements AutoCloseable {
                 DatasetFiring.Result r = new DatasetFiring(session, clock, outputDir).fire(d);
                 for (JudgedWave j : r.judged()) {
                     metrics.waveJudged(dataset, j.alerts());
-                    for (AlertDelivery delivery : deliveries) {
-                        delivery.deliver(dataset, j);
-                    }
                 }
+                outbox.flush(dataset);
                 if (!r.judged().isEmpty()) {
                     writeDigest(r);
                 }

@@ -9,6 +9,12 @@ import org.wavewarden.testing.CliRun;
 import org.wavewarden.testing.SmallSurvey;
 import org.wavewarden.testing.TestDatabase;
 
+import com.sun.net.httpserver.HttpServer;
+import org.wavewarden.deliver.sink.RetryPolicy;
+import org.wavewarden.deliver.sink.Signatures;
+import org.wavewarden.deliver.sink.WebhookSink;
+
+import java.net.InetSocketAddress;
 import java.net.URI;
 import java.net.http.HttpClient;
 import java.net.http.HttpRequest;
@@ -21,6 +27,8 @@ import java.time.Clock;
 import java.time.Duration;
 import java.util.List;
 import java.util.Map;
+import java.util.Set;
+import java.util.concurrent.ConcurrentHashMap;
 import java.util.function.BooleanSupplier;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
@@ -60,9 +68,31 @@ class DaemonIntegrationTest {
     @Test
     void aWaveAddedWhileTheDaemonRunsIsJudgedExactlyOnce() throws Exception {
         String url = setUp("daemon_one", 2);
-        WardenConfig cfg = ConfigLoader.parse(yaml(url));
-        try (Session s = Session.open(cfg, null, Map.of());
-             Daemon d = new Daemon(s, Clock.systemUTC(), FAST, List.of())) {
+        String secret = "a-shared-secret-for-the-test";
+        Set<String> deliveries = ConcurrentHashMap.newKeySet();
+        java.util.concurrent.atomic.AtomicInteger badSignatures = new java.util.concurrent.atomic.AtomicInteger();
+        HttpServer hook = HttpServer.create(new InetSocketAddress("127.0.0.1", 0), 0);
+        hook.createContext("/hook", ex -> {
+            byte[] body = ex.getRequestBody().readAllBytes();
+            if (Signatures.verify(body, secret, ex.getRequestHeaders().getFirst(WebhookSink.SIGNATURE_HEADER))) {
+                deliveries.add(ex.getRequestHeaders().getFirst(WebhookSink.DELIVERY_HEADER));
+            } else {
+                badSignatures.incrementAndGet();
+            }
+            ex.sendResponseHeaders(204, -1);
+            ex.close();
+        });
+        hook.start();
+        Path jsonl = dir.resolve("alerts.jsonl");
+        String withSinks = yaml(url).replace("    exclude: [respondent_id]", "    exclude: [respondent_id]\n"
+                + "    alerts:\n"
+                + "      jsonLines: {path: \"" + jsonl.toString().replace("\\", "/") + "\"}\n"
+                + "      webhook: {url: \"http://127.0.0.1:" + hook.getAddress().getPort() + "/hook\","
+                + " secretEnv: HOOK_SECRET}");
+        WardenConfig cfg = ConfigLoader.parse(withSinks);
+        try (Session s = Session.open(cfg, null, Map.of("HOOK_SECRET", secret));
+             Daemon d = new Daemon(s, Clock.systemUTC(), FAST, Sinks.fromConfig(s,
+                     RetryPolicy.of(3, Duration.ofMillis(10), Duration.ofMillis(50))))) {
             d.start("solo", 1000);
             await(() -> runs(url, "w2") == 1, "w1 and w2 judged");
             assertEquals(0, CliRun.of("import", "--config", dir.resolve("c.yaml").toString(), "--wave", "w3",
@@ -91,6 +121,16 @@ class DaemonIntegrationTest {
             assertTrue(metrics.contains("# TYPE wavewarden_alerts_total counter"), metrics);
             assertEquals(200, http.send(HttpRequest.newBuilder(URI.create(base + "/digest")).build(),
                     HttpResponse.BodyHandlers.ofString()).statusCode());
+
+            // Every open alert reached both sinks once, the webhook with a valid signature.
+            long open = count(url, "SELECT count(*) FROM ww_results.alert WHERE superseded_at IS NULL");
+            assertTrue(open >= 2, "alerts: " + open);
+            await(() -> deliveries.size() == open, "webhook deliveries");
+            assertEquals(0, badSignatures.get());
+            assertEquals(open, Files.readAllLines(jsonl).size());
+            assertEquals(2 * open, count(url, "SELECT count(*) FROM ww_results.alert_delivery"));
+        } finally {
+            hook.stop(0);
         }
     }
 
@@ -99,8 +139,8 @@ class DaemonIntegrationTest {
         String url = setUp("daemon_two", 3);
         WardenConfig cfg = ConfigLoader.parse(yaml(url).replace("httpPort: 0", "httpPort: -1"));
         try (Session s1 = Session.open(cfg, null, Map.of()); Session s2 = Session.open(cfg, null, Map.of());
-             Daemon a = new Daemon(s1, Clock.systemUTC(), FAST, List.of());
-             Daemon b = new Daemon(s2, Clock.systemUTC(), FAST, List.of())) {
+             Daemon a = new Daemon(s1, Clock.systemUTC(), FAST, Map.of());
+             Daemon b = new Daemon(s2, Clock.systemUTC(), FAST, Map.of())) {
             a.start("instance-a", 1000);
             b.start("instance-b", 1000);
             await(() -> runs(url, "w3") == 1, "all waves judged");

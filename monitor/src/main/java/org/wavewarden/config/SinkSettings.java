@@ -8,9 +8,9 @@ import java.util.Set;
  * @param jsonLines a JSON Lines file; null for none
  * @param webhook   an HTTP endpoint; null for none
  */
-public record AlertSinks(JsonLines jsonLines, Webhook webhook) {
+public record SinkSettings(JsonLines jsonLines, Webhook webhook) {
 
-    public static final AlertSinks NONE = new AlertSinks(null, null);
+    public static final SinkSettings NONE = new SinkSettings(null, null);
 
     /** Which alerts a sink takes: shifts at least as urgent as a verdict, and data-quality findings of some kinds. */
     public record Filter(String minimumVerdict, Set<String> kinds) {

@@ -1,0 +1,47 @@
+package org.wavewarden.daemon;
+
+import org.wavewarden.config.DatasetConfig;
+import org.wavewarden.config.SinkSettings;
+import org.wavewarden.deliver.sink.AlertSink;
+import org.wavewarden.deliver.sink.JdbiDeadLetters;
+import org.wavewarden.deliver.sink.RetryPolicy;
+import org.wavewarden.deliver.sink.SinkFactory;
+import org.wavewarden.pipeline.Session;
+
+import java.net.URI;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+
+/** Builds each dataset's alert sinks from its {@code alerts} settings. */
+public final class Sinks {
+
+    private Sinks() {
+    }
+
+    public static Map<String, List<AlertSink>> fromConfig(Session s) {
+        return fromConfig(s, RetryPolicy.standard());
+    }
+
+    public static Map<String, List<AlertSink>> fromConfig(Session s, RetryPolicy retry) {
+        Map<String, List<AlertSink>> out = new LinkedHashMap<>();
+        for (DatasetConfig d : s.config().datasets()) {
+            List<AlertSink> sinks = new ArrayList<>();
+            SinkSettings a = d.alerts();
+            if (a.jsonLines() != null) {
+                sinks.add(SinkFactory.jsonLines(Path.of(a.jsonLines().path()), a.jsonLines().filter().minimumVerdict(),
+                        a.jsonLines().filter().kinds()));
+            }
+            if (a.webhook() != null) {
+                sinks.add(SinkFactory.webhook(URI.create(a.webhook().url()), a.webhook().secretEnv(), s.env()::get,
+                        a.webhook().filter().minimumVerdict(), a.webhook().filter().kinds(), retry,
+                        new JdbiDeadLetters(s.store().jdbi(), s.config().results().schema()),
+                        SinkFactory.httpClient()));
+            }
+            out.put(d.name(), sinks);
+        }
+        return out;
+    }
+}
