@@ -169,21 +169,34 @@ public final class SvgChart {
             return new Bins(min - 0.5, 1, 1);
         }
         double range = max - min;
-        double iqr = quantile(pooled, 0.75) - quantile(pooled, 0.25);
-        double raw = iqr > 0 ? 2 * iqr / Math.cbrt(n) : range / (Math.ceil(Math.log(n) / Math.log(2)) + 1);
-        raw = Math.max(raw, range / MAX_BINS);
+        double raw = Math.max(freedmanDiaconisWidth(pooled), range / MAX_BINS);
         double width = niceNumber(raw, true);
-        if (allWhole(pooled)) {
+        boolean whole = allWhole(pooled);
+        if (whole) {
             width = Math.max(width, 1);
         }
+        // Bins are [left, left + width). For whole numbers the largest value occupies [max, max + 1), so every bin
+        // holds exactly `width` possible answers; otherwise the last bin is closed and holds max.
+        double top = whole ? max + 1 : max;
         while (true) {
             double start = Math.floor(min / width + 1e-9) * width;
-            int count = (int) Math.floor((max - start) / width + 1e-9) + 1;
+            int count = Math.max(1, (int) Math.ceil((top - start) / width - 1e-9));
             if (count <= MAX_BINS) {
                 return new Bins(start, width, count);
             }
             width = niceUp(width * 1.000001);
         }
+    }
+
+    /**
+     * Freedman and Diaconis' bin width {@code 2 IQR n^(-1/3)} with the type-7 quartiles; when the IQR is zero, the
+     * width that gives Sturges' {@code ceil(log2 n) + 1} bins over the range.
+     */
+    static double freedmanDiaconisWidth(NumericDistribution pooled) {
+        long n = pooled.n();
+        double range = pooled.value(pooled.size() - 1) - pooled.value(0);
+        double iqr = quantile(pooled, 0.75) - quantile(pooled, 0.25);
+        return iqr > 0 ? 2 * iqr / Math.cbrt(n) : range / (Math.ceil(Math.log(n) / Math.log(2)) + 1);
     }
 
     /** The smallest of 1, 2, 5 x 10^k that is at least {@code x}. */
@@ -554,7 +567,7 @@ public final class SvgChart {
     }
 
     private static void bar(StringBuilder s, String cls, double x, double y, double w, double h, String tip) {
-        s.append(String.format(Locale.ROOT, "<rect class=\"%s\" x=\"%.1f\" y=\"%.1f\" width=\"%.1f\" height=\"%.1f\"><title>%s</title></rect>",
+        s.append(String.format(Locale.ROOT, "<rect class=\"bar %s\" x=\"%.1f\" y=\"%.1f\" width=\"%.1f\" height=\"%.1f\"><title>%s</title></rect>",
                 cls, x, y, Math.max(0, w), Math.max(0, h), esc(tip)));
     }
 
