@@ -222,10 +222,15 @@ public final class HtmlDigest {
                     .append("), threshold &plusmn;").append(esc(String.format(Locale.ROOT, "%.3g", e.threshold())))
                     .append("</span>");
         }
-        if (f.nBaseline() != null || f.nCurrent() != null) {
-            sb.append("<span>n ").append(f.nBaseline() == null ? "?" : f.nBaseline()).append(" (")
-                    .append(esc(baselineWave)).append("), ").append(f.nCurrent() == null ? "?" : f.nCurrent())
-                    .append(" (").append(esc(currentWave)).append(")</span>");
+        List<String> ns = new java.util.ArrayList<>();
+        if (f.nBaseline() != null) {
+            ns.add(f.nBaseline() + " (" + esc(baselineWave) + ")");
+        }
+        if (f.nCurrent() != null) {
+            ns.add(f.nCurrent() + " (" + esc(currentWave) + ")");
+        }
+        if (!ns.isEmpty()) {
+            sb.append("<span>n ").append(String.join(", ", ns)).append("</span>");
         }
         return sb.toString();
     }

@@ -441,7 +441,7 @@ public final class SvgChart {
                 + " across " + n + " wave(s)";
         int maxLabel = t.waves().stream().mapToInt(String::length).max().orElse(1);
         boolean rotate = n > 1 && (SPARK_WIDTH - 70.0) / n < maxLabel * 6.5;
-        int bottom = rotate ? (int) Math.min(90, 20 + maxLabel * 5.2) : 40;
+        int bottom = rotate ? (int) Math.min(100, 34 + maxLabel * 4.6) : 40;
         Frame f = new Frame(SPARK_WIDTH, 150 + bottom, 58, 20, 28, bottom);
         StringBuilder s = open(f, "trend", title);
         s.append(String.format(Locale.ROOT, "<text class=\"chart-title\" x=\"%d\" y=\"16\">%s</text>", f.left() - 50,
