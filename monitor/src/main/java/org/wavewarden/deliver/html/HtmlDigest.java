@@ -1,0 +1,341 @@
+package org.wavewarden.deliver.html;
+
+import org.wavewarden.deliver.Cautions;
+import org.wavewarden.deliver.FindingsFiles;
+import org.wavewarden.deliver.FindingsReport;
+import org.wavewarden.judge.Finding;
+import org.wavewarden.judge.FindingKind;
+import org.wavewarden.judge.Verdict;
+
+import java.time.Instant;
+import java.time.ZoneOffset;
+import java.time.format.DateTimeFormatter;
+import java.util.ArrayDeque;
+import java.util.Deque;
+import java.util.EnumMap;
+import java.util.IdentityHashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.Objects;
+
+import static org.wavewarden.deliver.html.Html.esc;
+
+/**
+ * The digest as one self-contained HTML page: inline CSS and inline SVG only, no script, no font, no image and no
+ * request to any network, so it opens the same from a mail attachment, a file share or an offline laptop. A
+ * Content-Security-Policy forbids every fetch and every script, so even a mistake elsewhere cannot make the page
+ * call out. All text from the data is escaped.
+ *
+ * <p>Layout: the cautions first, then per wave a header, the verdict counts and the alerts in the project's
+ * reading order ({@link FindingsFiles#ordered}), each with its chart and trend; the cautions again at the end.
+ */
+public final class HtmlDigest {
+
+    private static final DateTimeFormatter STAMP =
+            DateTimeFormatter.ofPattern("yyyy-MM-dd HH:mm 'UTC'", Locale.ROOT).withZone(ZoneOffset.UTC);
+
+    private HtmlDigest() {
+    }
+
+    /**
+     * Renders the page.
+     *
+     * @param dataset     the dataset's name, for the title
+     * @param sections    the judged waves in wave order
+     * @param generatedAt when the digest was made (passed in: rendering reads no clock)
+     */
+    public static String render(String dataset, List<WaveSection> sections, Instant generatedAt) {
+        Objects.requireNonNull(dataset, "dataset");
+        Objects.requireNonNull(sections, "sections");
+        Objects.requireNonNull(generatedAt, "generatedAt");
+        StringBuilder h = new StringBuilder(64 * 1024);
+        h.append("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n")
+                .append("<meta http-equiv=\"Content-Security-Policy\" content=\"default-src 'none'; ")
+                .append("style-src 'unsafe-inline'; img-src data:; base-uri 'none'; form-action 'none'\">\n")
+                .append("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n")
+                .append("<title>Wavewarden digest: ").append(esc(dataset)).append("</title>\n")
+                .append("<style>").append(CSS).append("</style>\n</head>\n<body>\n<main>\n");
+        h.append("<header><h1>Wavewarden change digest</h1><p class=\"meta\">Dataset <strong>").append(esc(dataset))
+                .append("</strong> &middot; ").append(sections.size()).append(" judged wave(s) &middot; generated ")
+                .append(esc(STAMP.format(generatedAt))).append("</p></header>\n");
+        cautions(h, "cautions-top", "Read this first: screening aids, not findings");
+        if (sections.isEmpty()) {
+            h.append("<p class=\"none\">No waves were judged, so there is nothing to report.</p>\n");
+        } else {
+            contents(h, sections);
+        }
+        for (int i = 0; i < sections.size(); i++) {
+            wave(h, sections.get(i), i);
+        }
+        cautions(h, "cautions-end", "Cautions");
+        h.append("<footer id=\"end-of-digest\">End of digest for ").append(esc(dataset)).append(".</footer>\n");
+        h.append("</main>\n</body>\n</html>\n");
+        return h.toString();
+    }
+
+    private static void cautions(StringBuilder h, String id, String heading) {
+        h.append("<aside class=\"cautions\" id=\"").append(id).append("\" role=\"note\"><h2>").append(esc(heading))
+                .append("</h2><ul>");
+        for (String line : Cautions.LINES) {
+            h.append("<li>").append(esc(line)).append("</li>");
+        }
+        h.append("</ul></aside>\n");
+    }
+
+    private static void contents(StringBuilder h, List<WaveSection> sections) {
+        h.append("<nav class=\"contents\" aria-label=\"Waves\"><ol>");
+        for (int i = 0; i < sections.size(); i++) {
+            WaveSection s = sections.get(i);
+            int n = s.alerts().size();
+            h.append("<li><a href=\"#wave-").append(i).append("\">").append(esc(waveTitle(s.report()))).append("</a> ")
+                    .append("<span class=\"count").append(n == 0 ? " zero" : "").append("\">").append(n)
+                    .append(n == 1 ? " alert" : " alerts").append("</span></li>");
+        }
+        h.append("</ol></nav>\n");
+    }
+
+    static String waveTitle(FindingsReport r) {
+        return "wave " + r.wave() + (r.againstWave() == null ? " (first wave, screened alone)"
+                : " against " + r.againstWave());
+    }
+
+    private static void wave(StringBuilder h, WaveSection s, int index) {
+        FindingsReport r = s.report();
+        h.append("<section class=\"wave\" id=\"wave-").append(index).append("\" data-wave=\"").append(esc(r.wave()))
+                .append("\">\n<h2>").append(esc(capitalised(waveTitle(r)))).append("</h2>\n");
+        h.append("<p class=\"summary\">").append(summary(r, s.alerts().size())).append("</p>\n");
+        if (s.alerts().isEmpty()) {
+            h.append("<p class=\"none\">No alerts for this wave: nothing needs attention.</p>\n");
+        }
+        String baselineWave = r.againstWave() == null ? "baseline" : r.againstWave();
+        for (AlertView a : ordered(s.alerts())) {
+            alert(h, a, baselineWave, r.wave(), r.alpha());
+        }
+        h.append("</section>\n");
+    }
+
+    /** The given alerts in the order {@link FindingsFiles#ordered} puts their findings. */
+    static List<AlertView> ordered(List<AlertView> alerts) {
+        Map<Finding, Deque<AlertView>> byFinding = new IdentityHashMap<>();
+        alerts.forEach(a -> byFinding.computeIfAbsent(a.finding(), k -> new ArrayDeque<>()).add(a));
+        return FindingsFiles.ordered(alerts.stream().map(AlertView::finding).toList()).stream()
+                .map(f -> byFinding.get(f).poll()).toList();
+    }
+
+    private static String summary(FindingsReport r, int alerts) {
+        Map<Verdict, Integer> counts = new EnumMap<>(Verdict.class);
+        int quality = 0;
+        int skipped = 0;
+        for (Finding f : r.findings()) {
+            if (f.kind() == FindingKind.SHIFT && f.verdict() != null) {
+                counts.merge(f.verdict(), 1, Integer::sum);
+            } else if (f.kind() == FindingKind.SKIPPED) {
+                skipped++;
+            } else if (f.kind().isDataQuality()) {
+                quality++;
+            }
+        }
+        StringBuilder sb = new StringBuilder("Shift verdicts: ");
+        for (Verdict v : Verdict.values()) {
+            int n = counts.getOrDefault(v, 0);
+            sb.append("<span class=\"tally v-").append(v.name().toLowerCase(Locale.ROOT)).append(n == 0 ? " zero" : "")
+                    .append("\">").append(v.name()).append(" <b>").append(n).append("</b></span> ");
+        }
+        sb.append("&middot; data-quality findings <b>").append(quality).append("</b>");
+        if (skipped > 0) {
+            sb.append(" &middot; not compared <b>").append(skipped).append("</b>");
+        }
+        sb.append(" &middot; alerts shown <b>").append(alerts).append("</b> &middot; q-values at false discovery rate ")
+                .append(esc(java.math.BigDecimal.valueOf(r.alpha()).stripTrailingZeros().toPlainString()));
+        if (r.fdrMethod() != null && !r.fdrMethod().isBlank()) {
+            sb.append(" (").append(esc(methodName(r.fdrMethod()))).append(")");
+        }
+        return sb.toString();
+    }
+
+    private static void alert(StringBuilder h, AlertView a, String baselineWave, String currentWave, double alpha) {
+        Finding f = a.finding();
+        String badge = f.verdict() != null ? f.verdict().name() : f.kind() == FindingKind.SKIPPED ? "SKIPPED" : "DATA QUALITY";
+        String badgeClass = f.verdict() != null ? "v-" + f.verdict().name().toLowerCase(Locale.ROOT) : "v-quality";
+        h.append("<article class=\"alert ").append(badgeClass).append("\" data-variable=\"").append(esc(f.variable()))
+                .append("\" data-kind=\"").append(esc(f.kind().name())).append("\"")
+                .append(f.verdict() == null ? "" : " data-verdict=\"" + f.verdict().name() + "\"").append(">\n");
+        h.append("<header><span class=\"badge ").append(badgeClass).append("\"");
+        if (f.verdict() != null) {
+            h.append(" title=\"").append(esc(f.verdict().meaning())).append("\"");
+        }
+        h.append(">").append(esc(badge)).append("</span> <code class=\"variable\">").append(esc(f.variable()))
+                .append("</code> <span class=\"kind\">").append(esc(kindLabel(f.kind()))).append("</span></header>\n");
+        h.append("<p class=\"sentence\">").append(esc(f.sentence())).append("</p>\n");
+        String stats = stats(f, alpha, baselineWave, currentWave);
+        if (!stats.isEmpty()) {
+            h.append("<p class=\"stats\">").append(stats).append("</p>\n");
+        }
+        if (a.plot() != null || a.trend() != null) {
+            h.append("<div class=\"charts\">");
+            if (a.plot() != null) {
+                h.append(plot(f.variable(), a.plot(), baselineWave, currentWave));
+            }
+            if (a.trend() != null) {
+                h.append(SvgChart.sparkline(f.variable(), a.trend(), currentWave));
+            }
+            h.append("</div>\n");
+        }
+        h.append("</article>\n");
+    }
+
+    static String plot(String variable, VariablePlot p, String baselineWave, String currentWave) {
+        if (p instanceof VariablePlot.NumericPlot n) {
+            return SvgChart.numeric(variable, n, baselineWave, currentWave);
+        }
+        if (p instanceof VariablePlot.SharesPlot s) {
+            return SvgChart.shares(variable, s, baselineWave, currentWave);
+        }
+        return SvgChart.missing(variable, (VariablePlot.MissingPlot) p, baselineWave, currentWave);
+    }
+
+    /**
+     * The numbers behind the sentence. The interval's level is {@code 1 - alpha}: the comparison stage builds
+     * its intervals at the run's alpha.
+     */
+    private static String stats(Finding f, double alpha, String baselineWave, String currentWave) {
+        StringBuilder sb = new StringBuilder();
+        if (f.test() != null) {
+            sb.append("<span>").append(esc(f.test()));
+            if (f.statistic() != null && Double.isFinite(f.statistic())) {
+                sb.append(" = ").append(esc(String.format(Locale.ROOT, "%.4g", f.statistic())));
+            }
+            sb.append("</span>");
+        }
+        if (f.pValue() != null) {
+            sb.append("<span>p ").append(esc(pValue(f.pValue()))).append("</span>");
+        }
+        if (f.qValue() != null) {
+            sb.append("<span>q ").append(esc(pValue(f.qValue()))).append("</span>");
+        }
+        if (f.effect() != null) {
+            Finding.Effect e = f.effect();
+            sb.append("<span>").append(esc(e.name())).append(' ').append(esc(signed(e.estimate())))
+                    .append(" (").append(esc(String.format(Locale.ROOT, "%.0f", 100 * (1 - alpha)))).append("% CI ")
+                    .append(esc(signed(e.ciLow()))).append(" to ").append(esc(signed(e.ciHigh())))
+                    .append("), threshold &plusmn;").append(esc(String.format(Locale.ROOT, "%.3g", e.threshold())))
+                    .append("</span>");
+        }
+        List<String> ns = new java.util.ArrayList<>();
+        if (f.nBaseline() != null) {
+            ns.add(f.nBaseline() + " (" + esc(baselineWave) + ")");
+        }
+        if (f.nCurrent() != null) {
+            ns.add(f.nCurrent() + " (" + esc(currentWave) + ")");
+        }
+        if (!ns.isEmpty()) {
+            sb.append("<span>n ").append(String.join(", ", ns)).append("</span>");
+        }
+        return sb.toString();
+    }
+
+    static String pValue(double p) {
+        if (Double.isNaN(p)) {
+            return "not available";
+        }
+        if (p < 0.0001) {
+            return "< 0.0001";
+        }
+        return "= " + String.format(Locale.ROOT, "%.4f", p);
+    }
+
+    private static String signed(double v) {
+        if (!Double.isFinite(v)) {
+            return v > 0 ? "+\u221e" : v < 0 ? "\u2212\u221e" : "n/a";
+        }
+        String s = String.format(Locale.ROOT, "%+.3f", v);
+        return s.startsWith("-") ? "\u2212" + s.substring(1) : s;
+    }
+
+    /** BENJAMINI_HOCHBERG as Benjamini-Hochberg. */
+    static String methodName(String constant) {
+        StringBuilder sb = new StringBuilder();
+        for (String w : constant.toLowerCase(Locale.ROOT).split("_")) {
+            if (!w.isEmpty()) {
+                sb.append(sb.length() == 0 ? "" : "-").append(Character.toUpperCase(w.charAt(0))).append(w.substring(1));
+            }
+        }
+        return sb.toString();
+    }
+
+    static String kindLabel(FindingKind k) {
+        return switch (k) {
+            case SHIFT -> "distribution shift";
+            case SHAPE_CHANGE -> "change of shape";
+            case MISSING_RATE_CHANGE -> "missing rate change";
+            default -> k.name().toLowerCase(Locale.ROOT).replace('_', ' ');
+        };
+    }
+
+    private static String capitalised(String s) {
+        return s.isEmpty() ? s : Character.toUpperCase(s.charAt(0)) + s.substring(1);
+    }
+
+    /** Colours: baseline slate, current orange (distinct in the common colour-vision deficiencies). */
+    private static final String CSS = """
+            :root{--b:#5b7089;--bf:rgba(91,112,137,.28);--c:#d4570b;--cf:rgba(212,87,11,.18);--ink:#1d232b;\
+            --muted:#5d6875;--line:#d9dee4;--bg:#f5f6f8}
+            *{box-sizing:border-box}
+            body{margin:0;background:var(--bg);color:var(--ink);font:15px/1.45 system-ui,-apple-system,"Segoe UI",\
+            Roboto,"Helvetica Neue",Arial,sans-serif}
+            main{max-width:1080px;margin:0 auto;padding:24px 28px 48px}
+            h1{font-size:26px;margin:0 0 4px}
+            h2{font-size:20px;margin:0 0 6px}
+            .meta{color:var(--muted);margin:0 0 16px}
+            .cautions{background:#fff8e1;border:1px solid #e6c35c;border-left:6px solid #d19a00;border-radius:6px;\
+            padding:12px 18px;margin:0 0 20px}
+            .cautions h2{font-size:16px;margin:0 0 4px}
+            .cautions ul{margin:0;padding-left:20px}
+            .cautions li{margin:2px 0}
+            .contents{background:#fff;border:1px solid var(--line);border-radius:6px;padding:8px 18px;margin:0 0 20px}
+            .contents ol{margin:0;padding-left:20px;columns:2}
+            .contents a{color:#1f4f8f}
+            .count{font-size:12px;background:#fde3d2;color:#8a3000;border-radius:9px;padding:0 7px}
+            .count.zero{background:#e3efe3;color:#2f6b2f}
+            .wave{background:#fff;border:1px solid var(--line);border-radius:8px;padding:18px 22px;margin:0 0 22px}
+            .summary{color:var(--muted);margin:0 0 12px;font-size:14px}
+            .tally{display:inline-block;border-radius:4px;padding:0 6px;margin-right:2px;color:#fff}
+            .tally.zero{opacity:.45}
+            .none{font-style:italic;color:#2f6b2f}
+            .alert{border-top:1px solid var(--line);padding:14px 0 8px;border-left:4px solid transparent;padding-left:12px}
+            .alert.v-material{border-left-color:#b3261e}
+            .alert.v-uncertain{border-left-color:#b07b00}
+            .alert.v-quality{border-left-color:#5b4b9a}
+            .alert header{display:flex;gap:10px;align-items:baseline;flex-wrap:wrap}
+            .badge{font-size:12px;font-weight:700;letter-spacing:.04em;color:#fff;border-radius:4px;padding:2px 8px}
+            .v-material.badge,.tally.v-material{background:#b3261e}
+            .v-minor.badge,.tally.v-minor{background:#4f6f96}
+            .v-uncertain.badge,.tally.v-uncertain{background:#b07b00}
+            .v-stable.badge,.tally.v-stable{background:#2f7d32}
+            .v-quality.badge{background:#5b4b9a}
+            .variable{font-size:17px;font-weight:700;background:none}
+            .kind{color:var(--muted)}
+            .sentence{margin:6px 0 4px;max-width:76ch}
+            .stats{font-size:13px;color:var(--muted);margin:0 0 8px;display:flex;flex-wrap:wrap;gap:4px 14px}
+            .charts{display:flex;flex-wrap:wrap;gap:14px;align-items:flex-start}
+            svg.plot{background:#fff;border:1px solid var(--line);border-radius:4px;max-width:100%;height:auto}
+            svg.plot text{font-size:11px;fill:#39424e;font-family:inherit}
+            svg.plot .axis-title,svg.plot .chart-title{font-size:12px;fill:#1d232b}
+            svg.plot .chart-title{font-weight:600}
+            svg.plot .note{fill:var(--muted);font-style:italic}
+            svg.plot .axis{stroke:#7b8490;stroke-width:1}
+            svg.plot .grid{stroke:#eceff2;stroke-width:1}
+            svg.plot rect.b{fill:var(--b)}
+            svg.plot rect.c{fill:var(--c)}
+            svg.plot .hist.b{fill:var(--bf);stroke:var(--b);stroke-width:1.5}
+            svg.plot .hist.c{fill:var(--cf);stroke:var(--c);stroke-width:2}
+            svg.plot text.val.b{fill:var(--b)}
+            svg.plot text.val.c{fill:var(--c);font-weight:600}
+            svg.plot .line{fill:none;stroke:var(--b);stroke-width:2}
+            svg.plot .pt{fill:var(--b)}
+            svg.plot .pt.cur{fill:var(--c)}
+            footer{color:var(--muted);font-size:13px;text-align:center}
+            @media print{body{background:#fff}.wave{break-inside:auto;border:none}.alert{break-inside:avoid}}
+            """;
+}

@@ -1,0 +1,118 @@
+package org.wavewarden.deliver.html;
+
+import org.wavewarden.profile.NumericDistribution;
+
+import java.util.List;
+import java.util.Objects;
+
+/**
+ * The data behind one alert's chart: what both waves looked like for the variable the alert is about.
+ * Baseline comes first everywhere, as in the comparison stage.
+ */
+public sealed interface VariablePlot permits VariablePlot.NumericPlot, VariablePlot.SharesPlot,
+        VariablePlot.MissingPlot {
+
+    /**
+     * A numeric variable: both waves' valid values, drawn as overlaid histograms.
+     *
+     * @param unit     the variable's unit for the axis label, or null when it has none
+     * @param baseline the baseline wave's valid values
+     * @param current  the current wave's valid values
+     */
+    record NumericPlot(String unit, NumericDistribution baseline, NumericDistribution current) implements VariablePlot {
+        public NumericPlot {
+            Objects.requireNonNull(baseline, "baseline");
+            Objects.requireNonNull(current, "current");
+            if (baseline.n() + current.n() == 0) {
+                throw new IllegalArgumentException("baseline and current are both empty: nothing to draw");
+            }
+        }
+    }
+
+    /**
+     * A categorical or binary variable: each category's count of valid answers in both waves, drawn as bars of
+     * the share of valid answers.
+     *
+     * @param categories category labels, in the order the bars are drawn
+     * @param baseline   baseline counts, aligned with {@code categories}
+     * @param current    current counts, aligned with {@code categories}
+     */
+    record SharesPlot(List<String> categories, long[] baseline, long[] current) implements VariablePlot {
+        public SharesPlot {
+            categories = List.copyOf(categories);
+            baseline = checkedCounts("baseline", baseline, categories.size(), "categories");
+            current = checkedCounts("current", current, categories.size(), "categories");
+            if (categories.isEmpty()) {
+                throw new IllegalArgumentException("categories must not be empty");
+            }
+        }
+
+        @Override
+        public long[] baseline() {
+            return baseline.clone();
+        }
+
+        @Override
+        public long[] current() {
+            return current.clone();
+        }
+    }
+
+    /**
+     * The missing answers of a variable by reason (NULL, a codebook code, a disguised missing value), with each
+     * wave's row count, drawn as the share of rows per reason.
+     *
+     * @param reasons      reason labels, in the order the bars are drawn
+     * @param baseline     baseline rows per reason, aligned with {@code reasons}
+     * @param rowsBaseline rows in the baseline wave (the denominator of its rates)
+     * @param current      current rows per reason, aligned with {@code reasons}
+     * @param rowsCurrent  rows in the current wave
+     */
+    record MissingPlot(List<String> reasons, long[] baseline, long rowsBaseline, long[] current, long rowsCurrent)
+            implements VariablePlot {
+        public MissingPlot {
+            reasons = List.copyOf(reasons);
+            baseline = checkedCounts("baseline", baseline, reasons.size(), "reasons");
+            current = checkedCounts("current", current, reasons.size(), "reasons");
+            if (reasons.isEmpty()) {
+                throw new IllegalArgumentException("reasons must not be empty");
+            }
+            checkRows("rowsBaseline", rowsBaseline, baseline);
+            checkRows("rowsCurrent", rowsCurrent, current);
+        }
+
+        @Override
+        public long[] baseline() {
+            return baseline.clone();
+        }
+
+        @Override
+        public long[] current() {
+            return current.clone();
+        }
+
+        private static void checkRows(String name, long rows, long[] counts) {
+            long sum = 0;
+            for (long c : counts) {
+                sum += c;
+            }
+            if (rows < sum) {
+                throw new IllegalArgumentException(name + " is " + rows + " but the reasons count " + sum + " rows");
+            }
+        }
+    }
+
+    private static long[] checkedCounts(String name, long[] counts, int size, String against) {
+        Objects.requireNonNull(counts, name);
+        if (counts.length != size) {
+            throw new IllegalArgumentException(name + " has " + counts.length + " entries but " + against + " has "
+                    + size);
+        }
+        for (int i = 0; i < counts.length; i++) {
+            if (counts[i] < 0) {
+                throw new IllegalArgumentException(name + "[" + i + "] must not be negative, was " + counts[i]);
+            }
+        }
+        return counts.clone();
+    }
+}
