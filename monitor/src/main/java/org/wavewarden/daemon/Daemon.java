@@ -188,9 +188,11 @@ public final class Daemon implements AutoCloseable {
             Files.writeString(dir.resolve("digest.md"), MarkdownDigest.render(reports), StandardCharsets.UTF_8);
             Files.writeString(dir.resolve("digest.json"), Json.write(Map.of("dataset", r.dataset(), "generatedAt",
                     Instant.now(clock).toString(), "waves", reports)), StandardCharsets.UTF_8);
+            Files.writeString(dir.resolve("digest.html"), new org.wavewarden.pipeline.DigestAssembler(session)
+                    .html(config.dataset(r.dataset()), reports, clock.instant()), StandardCharsets.UTF_8);
             Path latest = outputDir.resolve(r.dataset()).resolve("latest");
             Files.createDirectories(latest);
-            for (String f : List.of("digest.md", "digest.json")) {
+            for (String f : List.of("digest.md", "digest.json", "digest.html")) {
                 Files.copy(dir.resolve(f), latest.resolve(f), StandardCopyOption.REPLACE_EXISTING);
             }
             latestDigest = latest.resolve("digest.md");

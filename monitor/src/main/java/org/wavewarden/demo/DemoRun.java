@@ -71,8 +71,10 @@ public final class DemoRun {
                     reports.add(j.report());
                     out.println(summary(j));
                 }
+                Files.createDirectories(outDir);
+                Files.writeString(outDir.resolve("digest.html"), new org.wavewarden.pipeline.DigestAssembler(s)
+                        .html(d, reports, java.time.Instant.now()), StandardCharsets.UTF_8);
             }
-            Files.createDirectories(outDir);
             Files.writeString(outDir.resolve("digest.md"), MarkdownDigest.render(reports), StandardCharsets.UTF_8);
             return new Outcome(outDir, reports);
         } catch (IOException e) {

@@ -24,8 +24,16 @@ public record ScreenedVariable(long rows, long sqlNulls, Map<String, Long> missi
                                List<MissingCandidate> candidates, List<String> excludedValues,
                                Map<String, Long> invalid, NumericDistribution numeric, CategoryCounts categories) {
 
-    /** Valid answers that enter the comparison. */
+    /** Valid answers: those that enter the comparison, or for text and dates every answer not missing. */
     public long validN() {
-        return numeric != null ? numeric.n() : categories != null ? categories.n() : 0;
+        if (numeric != null) {
+            return numeric.n();
+        }
+        if (categories != null) {
+            return categories.n();
+        }
+        long missing = missingByReason.values().stream().mapToLong(Long::longValue).sum();
+        long bad = invalid.values().stream().mapToLong(Long::longValue).sum();
+        return Math.max(0, rows - sqlNulls - missing - bad);
     }
 }

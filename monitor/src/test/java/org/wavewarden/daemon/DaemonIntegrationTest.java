@@ -104,8 +104,10 @@ class DaemonIntegrationTest {
             assertEquals(1, runs(url, "w3"));
             assertEquals(0, count(url, "SELECT count(*) - count(DISTINCT (wave, against_wave, variable, kind))"
                     + " FROM ww_results.alert WHERE superseded_at IS NULL"));
-            assertTrue(Files.exists(dir.resolve("digests").resolve("small-survey").resolve("latest")
-                    .resolve("digest.md")));
+            Path latest = dir.resolve("digests").resolve("small-survey").resolve("latest");
+            assertTrue(Files.exists(latest.resolve("digest.md")));
+            assertTrue(Files.readString(latest.resolve("digest.html")).contains("class=\"plot"),
+                    "the HTML digest has its plots");
             assertTrue(Files.exists(dir.resolve("digests").resolve("small-survey").resolve("w3")
                     .resolve("findings.json")));
 
