@@ -45,7 +45,7 @@ final class RunCommand implements Callable<Integer> {
             s.close();
             stopped.countDown();
         }, "wavewarden-shutdown"));
-        daemon.start(instanceId, 10_000);
+        daemon.start(instanceId, s.config().daemon().clusterCheckinMillis());
         out.println("daemon running; status on " + s.config().daemon().httpBind() + ":" + daemon.statusPort()
                 + " (/health, /metrics, /digest)");
         out.flush();

@@ -91,7 +91,7 @@ public final class ConfigLoader {
             if (node == null) {
                 return DaemonConfig.DEFAULTS;
             }
-            known(node, "daemon", "httpBind", "httpPort", "outputDir");
+            known(node, "daemon", "httpBind", "httpPort", "outputDir", "clusterCheckinMillis");
             String bind = text(node, "httpBind", "daemon.httpBind", false);
             if (bind != null && !bind.matches("[0-9A-Za-z.:\\-\\[\\]]{1,255}")) {
                 throw new ConfigException("daemon.httpBind", "expected a host name or IP address but got "
@@ -103,8 +103,13 @@ public final class ConfigLoader {
                         + node.get("httpPort").asText());
             }
             String dir = text(node, "outputDir", "daemon.outputDir", false);
+            double checkin = number(node, "clusterCheckinMillis", "daemon.clusterCheckinMillis",
+                    DaemonConfig.DEFAULTS.clusterCheckinMillis());
+            if (checkin != Math.rint(checkin) || checkin < 100 || checkin > 600_000) {
+                throw new ConfigException("daemon.clusterCheckinMillis", "expected milliseconds from 100 to 600000");
+            }
             return new DaemonConfig(bind == null ? DaemonConfig.DEFAULTS.httpBind() : bind, (int) port,
-                    dir == null ? DaemonConfig.DEFAULTS.outputDir() : dir);
+                    dir == null ? DaemonConfig.DEFAULTS.outputDir() : dir, (int) checkin);
         }
 
         SinkSettings alerts(ObjectNode node, String path) {

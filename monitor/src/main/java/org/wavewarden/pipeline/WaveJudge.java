@@ -142,6 +142,7 @@ public final class WaveJudge {
         Instant finished = clock.instant();
         FindingsReport report = new FindingsReport(d.name(), wave, againstLabel, finished, cfg.alpha(),
                 cfg.fdr().name(), inference, findings);
+        FaultPoints.hit(FaultPoints.BEFORE_WRITE);
         long runId = session.store().writeRun(new ResultsStore.RunWrite(d.name(), wave,
                         againstLabel == null ? "" : againstLabel, current.checksum(), started, finished, cfg.alpha(),
                         cfg.fdr().name()),

@@ -110,6 +110,7 @@ public final class ResultsStore {
                     .bind("alpha", run.alpha()).bind("fdr", run.fdrMethod())
                     .bind("nf", findings.size()).bind("na", alerts.size())
                     .mapTo(Long.class).one();
+            org.wavewarden.pipeline.FaultPoints.hit(org.wavewarden.pipeline.FaultPoints.INSIDE_WRITE);
             h.createUpdate("DELETE FROM " + s + ".finding WHERE run_id = :run").bind("run", runId).execute();
             insertFindings(h, runId, findings);
             h.createUpdate("UPDATE " + s + ".alert SET superseded_at = now() WHERE dataset = :dataset AND wave = :wave"
