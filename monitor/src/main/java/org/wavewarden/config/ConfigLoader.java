@@ -249,7 +249,7 @@ public final class ConfigLoader {
 
         DatasetConfig dataset(ObjectNode node, String path) {
             known(node, path, "name", "table", "waveColumn", "tablePattern", "waveOrder", "compareWith", "schedule",
-                    "exclude", "variables", "quietPeriod", "alerts");
+                    "exclude", "variables", "quietPeriod", "alerts", "readyTable", "readyColumn");
             String name = text(node, "name", path + ".name", true);
             if (!name.matches("[A-Za-z0-9][A-Za-z0-9_.-]{0,99}")) {
                 throw new ConfigException(path + ".name", "expected letters, digits, '-', '_' or '.' (at most 100)"
@@ -307,7 +307,25 @@ public final class ConfigLoader {
             return new DatasetConfig(name, table, waveColumn, pattern, waveOrder(node, path),
                     compareWith(node.get("compareWith"), path + ".compareWith"), schedule, exclude, variables,
                     duration(node, "quietPeriod", path + ".quietPeriod"),
-                    alerts(object(node, "alerts", path + ".alerts", false), path + ".alerts"));
+                    alerts(object(node, "alerts", path + ".alerts", false), path + ".alerts"),
+                    readyTable(node, path), readyColumn(node, path));
+        }
+
+        String readyTable(ObjectNode node, String path) {
+            String t = text(node, "readyTable", path + ".readyTable", false);
+            if (t != null) {
+                Identifiers.TableName.parse(path + ".readyTable", t);
+            }
+            return t;
+        }
+
+        String readyColumn(ObjectNode node, String path) {
+            String c = text(node, "readyColumn", path + ".readyColumn", false);
+            if ((c == null) != (node.get("readyTable") == null)) {
+                throw new ConfigException(path + (c == null ? ".readyColumn" : ".readyTable"), "readyTable and"
+                        + " readyColumn go together: the table lists released waves in that column");
+            }
+            return c == null ? null : Identifiers.require(path + ".readyColumn", c);
         }
 
         WaveOrder waveOrder(ObjectNode node, String path) {

@@ -16,10 +16,14 @@ import java.util.List;
  * @param variables    declared variables; others are inferred
  * @param quietPeriod  the daemon judges a wave once its row count has been unchanged this long (zero: at once)
  * @param alerts       where the daemon delivers this dataset's alerts besides the alerts table
+ * @param readyTable   optional {@code schema.table} whose {@code readyColumn} lists the waves released for judging;
+ *                     when set, a wave not listed there is not judged however long its count has been stable
+ * @param readyColumn  the column of {@code readyTable} holding wave labels
  */
 public record DatasetConfig(String name, String table, String waveColumn, String tablePattern, WaveOrder waveOrder,
                             CompareWith compareWith, String schedule, List<String> exclude,
-                            List<VariableConfig> variables, java.time.Duration quietPeriod, SinkSettings alerts) {
+                            List<VariableConfig> variables, java.time.Duration quietPeriod, SinkSettings alerts,
+                            String readyTable, String readyColumn) {
 
     public DatasetConfig {
         waveOrder = waveOrder == null ? WaveOrder.NATURAL : waveOrder;

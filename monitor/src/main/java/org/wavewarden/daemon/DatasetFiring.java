@@ -1,6 +1,7 @@
 package org.wavewarden.daemon;
 
 import org.wavewarden.config.DatasetConfig;
+import org.wavewarden.config.Identifiers;
 import org.wavewarden.deliver.FindingsReport;
 import org.wavewarden.pipeline.JudgedWave;
 import org.wavewarden.pipeline.Session;
@@ -17,8 +18,8 @@ import java.util.List;
 /**
  * One firing for one dataset: list the source's waves, and judge, oldest first, every wave that has no current
  * run or whose row count no longer matches the summary its run judged, once the wave is ready (its row count
- * unchanged for the dataset's quiet period). A wave that is not ready stops the firing there, since every later
- * wave is compared against it.
+ * unchanged for the dataset's quiet period, and listed in the readiness table when one is configured). Waves after
+ * one that is not ready wait too, since they are compared against it.
  */
 public final class DatasetFiring {
 
@@ -41,6 +42,7 @@ public final class DatasetFiring {
         ResultsStore store = session.store();
         List<JudgedWave> judged = new ArrayList<>();
         List<String> waiting = new ArrayList<>();
+        boolean blocked = false;
         for (WaveInfo w : judge.waves(d)) {
             var run = store.currentRun(d.name(), w.wave());
             if (run.isPresent() && store.summaryRows(d.name(), w.wave(), run.get().summaryChecksum()) == w.rows()) {
@@ -48,13 +50,26 @@ public final class DatasetFiring {
             }
             Instant now = clock.instant();
             Instant stableSince = store.watch(d.name(), w.wave(), w.rows(), now);
-            if (stableSince.plus(d.quietPeriod()).isAfter(now)) {
+            // Later waves are still watched, so their quiet periods run at the same time, but none is judged
+            // before the waves it is compared against.
+            if (blocked || stableSince.plus(d.quietPeriod()).isAfter(now) || !released(d, w.wave())) {
                 waiting.add(w.wave());
-                break;
+                blocked = true;
+                continue;
             }
             judged.add(judge.judge(d, w.wave(), null, outputDir.resolve(d.name()).resolve(w.wave()), null));
         }
         return new Result(d.name(), judged, waiting);
+    }
+
+    /** With a readiness table configured, whether it lists the wave; without one, every wave is released. */
+    boolean released(DatasetConfig d, String wave) {
+        if (d.readyTable() == null) {
+            return true;
+        }
+        Identifiers.TableName t = Identifiers.TableName.parse("readyTable", d.readyTable());
+        return session.source().withHandle(h -> h.createQuery("SELECT count(*) FROM " + t.quoted() + " WHERE "
+                + Identifiers.quote(d.readyColumn()) + "::text = :wave").bind("wave", wave).mapTo(Long.class).one() > 0);
     }
 
     public static List<FindingsReport> reports(Result r) {

@@ -55,6 +55,16 @@ public final class CatalogCheck {
                         + " the source table; it has " + names(columns));
             }
         }
+        if (d.readyTable() != null) {
+            var rt = org.wavewarden.config.Identifiers.TableName.parse(key + ".readyTable", d.readyTable());
+            List<SourceColumn> rc = SourceCatalog.columns(h, rt);
+            if (rc.isEmpty()) {
+                throw new ConfigException(key + ".readyTable", "table " + rt + " does not exist in the source database");
+            }
+            if (rc.stream().noneMatch(c -> c.name().equals(d.readyColumn()))) {
+                throw new ConfigException(key + ".readyColumn", "column " + d.readyColumn() + " does not exist in " + rt);
+            }
+        }
         for (int j = 0; j < d.exclude().size(); j++) {
             String name = d.exclude().get(j);
             if (columns.stream().noneMatch(c -> c.name().equals(name))) {

@@ -57,6 +57,11 @@ class HtmlDigestBrowserTest {
     }
 
     static Run browse(String... extra) throws Exception {
+        return browse(page, dir, extra);
+    }
+
+    /** Opens {@code page} in headless Chromium with a fresh profile under {@code dir}. */
+    static Run browse(Path page, Path dir, String... extra) throws Exception {
         Path profile = Files.createTempDirectory(dir, "profile");
         List<String> cmd = new ArrayList<>(List.of(chromium(), "--headless", "--no-sandbox", "--disable-gpu",
                 "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update",
