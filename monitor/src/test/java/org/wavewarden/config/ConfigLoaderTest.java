@@ -124,6 +124,18 @@ class ConfigLoaderTest {
     }
 
     @Test
+    void theShippedConfigsAreValid() {
+        for (String f : new String[] {"demo.yaml", "example-external.yaml", "compose.yaml"}) {
+            WardenConfig c = ConfigLoader.load(Path.of("..", "config", f));
+            assertTrue(!c.datasets().isEmpty(), f);
+        }
+        WardenConfig ext = ConfigLoader.load(Path.of("..", "config", "example-external.yaml"));
+        assertEquals("WAVEWARDEN_HOOK_SECRET", ext.dataset("labour-panel").alerts().webhook().secretEnv());
+        assertEquals(java.time.Duration.ofMinutes(30), ext.dataset("labour-panel").quietPeriod());
+        assertEquals(0.31, ext.dataset("labour-panel").variables().get(4).reference().shares().get("north"));
+    }
+
+    @Test
     void aMissingConfigFileExitsTwo() {
         CliRun r = CliRun.of("waves", "--config", "no-such-file.yaml");
         assertEquals(2, r.exitCode());
