@@ -59,6 +59,11 @@ final class DataQualityFindings {
 
         Map<CandidateKind, List<MissingCandidate>> byKind = new LinkedHashMap<>();
         for (MissingCandidate c : current.candidates()) {
+            // Text in a numeric variable is reported once, below, with the values that failed to parse.
+            boolean numericKind = v.kind() == VariableKind.CONTINUOUS || v.kind() == VariableKind.ORDINAL;
+            if (c.kind() == CandidateKind.TEXT_IN_NUMERIC && numericKind) {
+                continue;
+            }
             if (c.confidence() >= REPORT_CONFIDENCE) {
                 byKind.computeIfAbsent(c.kind(), k -> new ArrayList<>()).add(c);
             }
@@ -94,10 +99,13 @@ final class DataQualityFindings {
                     v.range().min() == null ? "-inf" : fmt(v.range().min()),
                     v.range().max() == null ? "+inf" : fmt(v.range().max())), new CountsDetail(Map.of("outside", outside))));
         }
-        if (!current.invalid().isEmpty()) {
-            long total = current.invalid().values().stream().mapToLong(Long::longValue).sum();
-            String examples = current.invalid().keySet().stream().limit(3).map(DataQualityFindings::quoted)
-                    .reduce((a, b) -> a + ", " + b).orElse("");
+        Long excludedText = current.missingByReason().get("disguised: text in numeric");
+        if (!current.invalid().isEmpty() || excludedText != null) {
+            long total = current.invalid().values().stream().mapToLong(Long::longValue).sum()
+                    + (excludedText == null ? 0 : excludedText);
+            String examples = java.util.stream.Stream.concat(current.invalid().keySet().stream(), current.candidates()
+                            .stream().filter(c -> c.kind() == CandidateKind.TEXT_IN_NUMERIC).map(MissingCandidate::value))
+                    .distinct().limit(3).map(DataQualityFindings::quoted).reduce((a, b) -> a + ", " + b).orElse("");
             out.add(Finding.dataQuality(name, FindingKind.TEXT_IN_NUMERIC, nB, nC, String.format(Locale.ROOT,
                     "%,d answers of this numeric variable are not finite numbers (for example %s) and were left out.",
                     total, examples), new CountsDetail(limit(current.invalid(), 20))));

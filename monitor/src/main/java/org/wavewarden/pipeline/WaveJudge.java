@@ -43,6 +43,8 @@ import java.util.function.LongConsumer;
  */
 public final class WaveJudge {
 
+    private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(WaveJudge.class);
+
     private final Session session;
     private final Clock clock;
     private final WaveScanner scanner;
@@ -112,27 +114,22 @@ public final class WaveJudge {
             if (ct == null) {
                 continue;
             }
-            ColumnTally bt = baseline == null ? null : baseline.columns().get(v.name());
-            ScreenedVariable sc = VariableScreen.screen(ct, v);
-            ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v);
-            reference(comparator, v, sc).ifPresent(comparisons::add);
-            DataQualityFindings.Result dq = DataQualityFindings.of(v, ct, sc, sb, comparator);
-            plain.addAll(dq.findings());
-            comparisons.addAll(dq.rateComparisons());
-            if (sb != null) {
-                compare(comparator, v, sb, sc, ct, bt).ifPresentOrElse(c -> {
-                    comparisons.add(c);
-                    if (v.kind() == VariableKind.CONTINUOUS) {
-                        comparisons.add(comparator.shape(v.name(), sb.numeric(), sc.numeric(), v.unit()));
-                    }
-                }, () -> {
-                    String why = skipReason(v, sb, sc, ct, bt);
-                    if (why != null) {
-                        plain.add(Finding.dataQuality(v.name(), FindingKind.SKIPPED, sb.validN(), sc.validN(),
-                                "Not compared: " + why + ".", null));
-                    }
-                });
+            List<Comparison> mine = new ArrayList<>();
+            List<Finding> myPlain = new ArrayList<>();
+            try {
+                judgeVariable(comparator, v, ct, baseline == null ? null : baseline.columns().get(v.name()), mine,
+                        myPlain);
+            } catch (RuntimeException e) {
+                // A value no method foresaw must cost one variable its comparison, never the whole run.
+                LOG.warn("variable {} of {} wave {} could not be compared: {}", v.name(), d.name(), wave, e.toString());
+                mine.clear();
+                myPlain.clear();
+                myPlain.add(Finding.dataQuality(v.name(), FindingKind.SKIPPED, null, null, "Not compared: the"
+                        + " answers could not be analysed (" + e.getClass().getSimpleName() + ": "
+                        + String.valueOf(e.getMessage()).lines().findFirst().orElse("") + ").", null));
             }
+            comparisons.addAll(mine);
+            plain.addAll(myPlain);
         }
         List<Finding> findings = new ArrayList<>(shapeOnlyWhereLocationIsQuiet(onePerVariableAndKind(
                 Judge.judge(comparisons, cfg.alpha(), cfg.fdr()))));
@@ -151,6 +148,31 @@ public final class WaveJudge {
             FindingsFiles.write(outDir, report);
         }
         return new JudgedWave(report, runId, alerts);
+    }
+
+    private void judgeVariable(VariableComparator comparator, VariableConfig v, ColumnTally ct, ColumnTally bt,
+                               List<Comparison> comparisons, List<Finding> plain) {
+        ScreenedVariable sc = VariableScreen.screen(ct, v);
+        ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v);
+        reference(comparator, v, sc).ifPresent(comparisons::add);
+        DataQualityFindings.Result dq = DataQualityFindings.of(v, ct, sc, sb, comparator);
+        plain.addAll(dq.findings());
+        comparisons.addAll(dq.rateComparisons());
+        if (sb == null) {
+            return;
+        }
+        compare(comparator, v, sb, sc, ct, bt).ifPresentOrElse(c -> {
+            comparisons.add(c);
+            if (v.kind() == VariableKind.CONTINUOUS) {
+                comparisons.add(comparator.shape(v.name(), sb.numeric(), sc.numeric(), v.unit()));
+            }
+        }, () -> {
+            String why = skipReason(v, sb, sc, ct, bt);
+            if (why != null) {
+                plain.add(Finding.dataQuality(v.name(), FindingKind.SKIPPED, sb.validN(), sc.validN(),
+                        "Not compared: " + why + ".", null));
+            }
+        });
     }
 
     /** The missing rate of one reason, as the detail of the variable's MISSING_RATE_CHANGE finding lists it. */

@@ -25,6 +25,9 @@ public final class WaveScanner {
     /** Default cap on distinct values kept per column; beyond it the tally is marked truncated. */
     public static final int DEFAULT_MAX_DISTINCT = 100_000;
 
+    /** Longer values are kept as a prefix plus length and hash, so a free-text essay cannot bloat a summary. */
+    public static final int MAX_VALUE_CHARS = 256;
+
     private final int maxDistinct;
 
     public WaveScanner(int maxDistinct) {
@@ -67,6 +70,9 @@ public final class WaveScanner {
                         nulls[i]++;
                         continue;
                     }
+                    if (v.length() > MAX_VALUE_CHARS) {
+                        v = shortened(v);
+                    }
                     Map<String, long[]> t = tallies.get(i);
                     long[] cell = t.get(v);
                     if (cell != null) {
@@ -93,6 +99,11 @@ public final class WaveScanner {
             out.put(col.name(), new ColumnTally(col.name(), col.type(), rows, nulls[i], counts, truncated[i]));
         }
         return new WaveScan(rows, out);
+    }
+
+    /** A long value's stand-in: its first 200 characters, its length and a hash, distinct for distinct values. */
+    static String shortened(String v) {
+        return v.substring(0, 200) + "\u2026[" + v.length() + " chars, #" + Integer.toHexString(v.hashCode()) + "]";
     }
 
     static String copySql(Handle h, WaveSource source, String wave, List<SourceColumn> columns) {
