@@ -48,7 +48,9 @@ public final class DatasetFiring {
             if (run.isPresent() && store.summaryRows(d.name(), w.wave(), run.get().summaryChecksum()) == w.rows()) {
                 continue;
             }
-            Instant now = clock.instant();
+            // PostgreSQL keeps microseconds (rounding); comparing with a nanosecond clock would let a wave seen just
+            // now look as if first seen in the future.
+            Instant now = clock.instant().truncatedTo(java.time.temporal.ChronoUnit.MICROS);
             Instant stableSince = store.watch(d.name(), w.wave(), w.rows(), now);
             // Later waves are still watched, so their quiet periods run at the same time, but none is judged
             // before the waves it is compared against.

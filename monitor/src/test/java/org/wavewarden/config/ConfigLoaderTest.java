@@ -59,6 +59,10 @@ class ConfigLoaderTest {
                 "compareWith: previous")).dataset("coastal").compareWith());
     }
 
+    /**
+     * Each of these points at an unreachable server (port 1): a config that got past validation would exit 3, so
+     * exit 2 also shows that nothing connected, let alone changed a database.
+     */
     static Stream<Arguments> badConfigs() {
         return Stream.of(
                 Arguments.of("misspelt top-level key", GOOD.replace("alpha:", "alfa:"),
@@ -109,7 +113,31 @@ class ConfigLoaderTest {
                         "datasets[0].variables[0].successValue: only binary variables have a successValue"),
                 Arguments.of("not YAML", "source: [unclosed", "(file): not valid YAML"),
                 Arguments.of("duplicate variable", GOOD.replace("name: broadband", "name: age"),
-                        "datasets[0].variables[1].name: variable 'age' is listed twice"));
+                        "datasets[0].variables[1].name: variable 'age' is listed twice"),
+                Arguments.of("identifier with a comment", GOOD.replace("waveColumn: wave", "waveColumn: \"x; --\""),
+                        "datasets[0].waveColumn: expected a plain SQL identifier"),
+                Arguments.of("quiet period not a duration", GOOD.replace("    schedule:", "    quietPeriod: 10 minutes\n"
+                        + "    schedule:"), "datasets[0].quietPeriod: expected an ISO-8601 duration"),
+                Arguments.of("webhook secret inline", GOOD.replace("    schedule:", "    alerts: {webhook: {url:"
+                        + " \"https://h.example/x\", secret: abc}}\n    schedule:"),
+                        "datasets[0].alerts.webhook.secret: secrets are never written in the config"),
+                Arguments.of("webhook URL not http", GOOD.replace("    schedule:", "    alerts: {webhook: {url:"
+                        + " \"ftp://h.example/x\", secretEnv: S}}\n    schedule:"),
+                        "datasets[0].alerts.webhook.url: expected an http:// or https:// URL"),
+                Arguments.of("unknown alert kind", GOOD.replace("    schedule:", "    alerts: {jsonLines: {path: a.jsonl,"
+                        + " kinds: [BLANKS]}}\n    schedule:"),
+                        "datasets[0].alerts.jsonLines.kinds[0]: unknown finding kind 'BLANKS'; did you mean 'BLANK'?"),
+                Arguments.of("readiness table without column", GOOD.replace("    schedule:",
+                        "    readyTable: survey.released\n    schedule:"),
+                        "datasets[0].readyColumn: readyTable and readyColumn go together"),
+                Arguments.of("reference mean on a binary", GOOD.replace("successValue: \"yes\"",
+                        "successValue: \"yes\"\n        reference: {mean: 0.5}"),
+                        "datasets[0].variables[1].reference.mean: a reference mean applies to continuous and ordinal"),
+                Arguments.of("reference shares above one", GOOD.replace("successValue: \"yes\"",
+                        "successValue: \"yes\"\n        reference: {shares: {\"yes\": 0.7, \"no\": 0.6}}"),
+                        "datasets[0].variables[1].reference.shares: expected at least one share, summing to at most 1"),
+                Arguments.of("port out of range", GOOD + "daemon: {httpPort: 70000}\n",
+                        "daemon.httpPort: expected a port from 0 to 65535"));
     }
 
     @ParameterizedTest(name = "{0}")
