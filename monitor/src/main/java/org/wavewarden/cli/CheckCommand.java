@@ -16,7 +16,7 @@ import java.time.Clock;
 import java.util.concurrent.Callable;
 
 @Command(name = "check", mixinStandardHelpOptions = true,
-        description = "Judge one wave now and write findings.json and digest.md.")
+        description = "Judge one wave now and write findings.json, digest.md and digest.html.")
 final class CheckCommand implements Callable<Integer> {
 
     @Mixin
@@ -41,7 +41,7 @@ final class CheckCommand implements Callable<Integer> {
     picocli.CommandLine.Model.CommandSpec spec;
 
     @Override
-    public Integer call() {
+    public Integer call() throws java.io.IOException {
         try (Session s = config.open()) {
             s.migrate();
             DatasetConfig d = dataset.pick(s.config());
@@ -49,10 +49,12 @@ final class CheckCommand implements Callable<Integer> {
             JudgedWave j = new WaveJudge(s, Clock.systemUTC()).judge(d, wave, against, out,
                     Progress.rows("reading wave " + wave, err));
             Progress.done(err);
+            java.nio.file.Files.writeString(out.resolve("digest.html"), new org.wavewarden.pipeline.DigestAssembler(s)
+                    .html(d, java.util.List.of(j.report()), java.time.Instant.now()));
             var o = spec.commandLine().getOut();
             j.report().inference().forEach(i -> o.println("inferred " + i));
             o.print(ConsoleTable.render(j.report(), all));
-            o.println("wrote " + out.resolve("findings.json") + " and " + out.resolve("digest.md") + "; run "
+            o.println("wrote " + out.resolve("findings.json") + ", digest.md and digest.html; run "
                     + j.runId() + ", " + j.alerts().size() + " alert(s)");
             if (failOn != null && j.report().findings().stream().map(Finding::verdict)
                     .anyMatch(v -> v != null && v.atLeast(failOn))) {

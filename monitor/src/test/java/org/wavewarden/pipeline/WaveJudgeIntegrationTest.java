@@ -112,6 +112,7 @@ class WaveJudgeIntegrationTest {
         assertEquals(600, score.get("nCurrent").asLong());
         assertTrue(score.get("effect").get("estimate").asDouble() > 0.5, score.toString());
         assertTrue(Files.readString(out.resolve("digest.md")).contains("screening aids, not findings"));
+        assertTrue(Files.readString(out.resolve("digest.html")).contains("data-variable=\"score\""));
         // Same mean, three times the spread: the location test is quiet, the shape check is not.
         JsonNode shape = null;
         for (JsonNode f : json.get("findings")) {
