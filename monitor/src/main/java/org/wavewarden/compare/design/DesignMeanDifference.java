@@ -11,7 +11,7 @@ import org.wavewarden.compare.TestResult;
  * Taylor linearisation ({@link WeightedEstimates}), and a design-based t test.
  *
  * <p>Reference distribution: Student t on the design degrees of freedom {@code df = sum over waves of
- * (#PSU - #strata)} (Korn, E. L. and Graubard, B. I. (1999), Analysis of Health Surveys, Wiley, Section 5.2), which
+ * (#PSU - #strata)} (Korn, E. L. and Graubard, B. I. (1999), Analysis of Health Surveys, Wiley), which
  * for many PSUs approaches the normal. R's {@code svyttest(y ~ wave, design)} on the two waves stacked with strata
  * wave x stratum gives the same difference and the same t (its regression sandwich variance reduces to the sum of the
  * two wave variances because the waves share no stratum) but uses one degree of freedom fewer, the residual df of

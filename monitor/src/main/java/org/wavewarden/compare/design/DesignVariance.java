@@ -4,7 +4,7 @@ package org.wavewarden.compare.design;
  * Covariance of linearised estimators from PSU totals, stratum by stratum, PSUs with replacement:
  * {@code V = sum_h n_h/(n_h - 1) sum_i (z_hi - zbar_h)(z_hi - zbar_h)'} with {@code z_hi} the PSU totals of the
  * linearised scores (Wolter, K. M. (2007), Introduction to Variance Estimation, 2nd ed., Springer, Chapter 6;
- * Lumley, T. (2010), Complex Surveys, Wiley, Section 2.2 and Appendix C).
+ * Lumley, T. (2010), Complex Surveys, Wiley).
  *
  * <p>A stratum with a single PSU has no within-stratum spread to measure. Policy: "adjust" as in R's
  * {@code options(survey.lonely.psu = "adjust")}: its PSU total is centred at the overall mean of PSU totals instead

@@ -25,8 +25,7 @@ import org.wavewarden.compare.TestResult;
  * complex sample surveys", JASA 76, 221-230; Rao, J. N. K. and Scott, A. J. (1984), "On chi-squared tests for
  * multiway contingency tables with cell proportions estimated from survey data", Annals of Statistics 12, 46-60;
  * Thomas, D. R. and Rao, J. N. K. (1987), JASA 82, 630-636 (the F form); as implemented in R's
- * {@code svychisq(~cat + wave, design, statistic = "Chisq" | "F")} (Lumley, T. (2010), Complex Surveys, Wiley,
- * Section 6.2).
+ * {@code svychisq(~cat + wave, design, statistic = "Chisq" | "F")} (Lumley, T. (2010), Complex Surveys, Wiley).
  *
  * <p>The cell proportions are shares of the combined weight, so the waves' weights should be on a comparable scale
  * (for instance both summing to the population size); this is also how R treats the stacked data.

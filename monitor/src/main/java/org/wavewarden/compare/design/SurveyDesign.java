@@ -190,7 +190,7 @@ public final class SurveyDesign {
 
     /**
      * Design degrees of freedom, #PSU - #strata (Korn, E. L. and Graubard, B. I. (1999), Analysis of Health
-     * Surveys, Wiley, Section 5.2; R's {@code degf()}).
+     * Surveys, Wiley; R's {@code degf()}).
      */
     public int degreesOfFreedom() {
         return psuCount() - strataCount();
