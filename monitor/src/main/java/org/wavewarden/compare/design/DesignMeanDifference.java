@@ -1,0 +1,79 @@
+package org.wavewarden.compare.design;
+
+import org.apache.commons.math3.distribution.TDistribution;
+import org.apache.commons.math3.random.RandomGenerator;
+import org.wavewarden.compare.EffectSize;
+import org.wavewarden.compare.TestResult;
+
+/**
+ * Difference of weighted means (or shares) between two independently sampled waves, each under its own survey
+ * design: {@code d = ybar_current - ybar_baseline}, {@code SE = sqrt(SE_baseline^2 + SE_current^2)} with each SE by
+ * Taylor linearisation ({@link WeightedEstimates}), and a design-based t test.
+ *
+ * <p>Reference distribution: Student t on the design degrees of freedom {@code df = sum over waves of
+ * (#PSU - #strata)} (Korn, E. L. and Graubard, B. I. (1999), Analysis of Health Surveys, Wiley), which
+ * for many PSUs approaches the normal. R's {@code svyttest(y ~ wave, design)} on the two waves stacked with strata
+ * wave x stratum gives the same difference and the same t (its regression sandwich variance reduces to the sum of the
+ * two wave variances because the waves share no stratum) but uses one degree of freedom fewer, the residual df of
+ * its two-coefficient regression; with few PSUs the p-values therefore differ slightly.
+ */
+public final class DesignMeanDifference {
+
+    public static final String NAME = "design-based t";
+
+    private DesignMeanDifference() {
+    }
+
+    /**
+     * @param baselineValues values of the earlier wave
+     * @param baseline       its design
+     * @param currentValues  values of the wave being judged
+     * @param current        its design
+     * @param confidence     level of the interval of the difference, in (0, 1)
+     * @throws IllegalArgumentException on mismatched lengths, no design degrees of freedom or a zero standard error
+     */
+    public static DesignMeanDifferenceResult test(double[] baselineValues, SurveyDesign baseline,
+                                                  double[] currentValues, SurveyDesign current, double confidence) {
+        checkConfidence(confidence);
+        DesignEstimate a = WeightedEstimates.mean(baselineValues, baseline);
+        DesignEstimate b = WeightedEstimates.mean(currentValues, current);
+        return combine(a, b, baseline, current, confidence, "difference of weighted means");
+    }
+
+    /** The same for the shares of respondents with {@code hit[i] == true}; the effect is in proportion units. */
+    public static DesignMeanDifferenceResult testShares(boolean[] baselineHits, SurveyDesign baseline,
+                                                        boolean[] currentHits, SurveyDesign current,
+                                                        double confidence) {
+        checkConfidence(confidence);
+        DesignEstimate a = WeightedEstimates.share(baselineHits, baseline);
+        DesignEstimate b = WeightedEstimates.share(currentHits, current);
+        return combine(a, b, baseline, current, confidence, "difference of weighted shares");
+    }
+
+    private static DesignMeanDifferenceResult combine(DesignEstimate a, DesignEstimate b, SurveyDesign baseline,
+                                                      SurveyDesign current, double confidence, String effectName) {
+        double df = baseline.degreesOfFreedom() + current.degreesOfFreedom();
+        if (!(df > 0)) {
+            throw new IllegalArgumentException("the designs have no degrees of freedom (#PSU - #strata = 0 in both)");
+        }
+        double se = Math.sqrt(a.standardError() * a.standardError() + b.standardError() * b.standardError());
+        if (!(se > 0)) {
+            throw new IllegalArgumentException("standard error of the difference is " + se
+                    + ": neither wave varies, so the test is undefined");
+        }
+        double d = b.estimate() - a.estimate();
+        double t = d / se;
+        // The generator is only used for sampling, which never happens here.
+        TDistribution student = new TDistribution((RandomGenerator) null, df, 1e-12);
+        double p = Math.min(1.0, 2 * student.cumulativeProbability(-Math.abs(t)));
+        double half = student.inverseCumulativeProbability(0.5 + confidence / 2) * se;
+        return new DesignMeanDifferenceResult(a, b, se, new TestResult(NAME, t, df, p),
+                new EffectSize(effectName, d, d - half, d + half, confidence));
+    }
+
+    private static void checkConfidence(double confidence) {
+        if (!(confidence > 0 && confidence < 1)) {
+            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
+        }
+    }
+}
