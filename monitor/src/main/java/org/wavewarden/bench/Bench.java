@@ -160,6 +160,12 @@ public final class Bench {
                     java.util.Collections.reverse(order);
                 }
                 for (String name : order) {
+                    // The scanner alone on the judged wave: what the read stage costs inside a check.
+                    add(samples, "scan_only_" + name, measure(() -> s.source().withHandle(h ->
+                            profile(h, two.dataset(), WaveSource.of(two.dataset(), "dataset"), "2",
+                                    scanners.get(name)))));
+                }
+                for (String name : order) {
                     for (Target t : List.of(two, hist)) {
                         String key = (t == two ? "b_check_" : "c_check_history_") + name;
                         add(samples, key, measure(() -> check(s, t, scanners.get(name))));
@@ -237,21 +243,22 @@ public final class Bench {
             return;
         }
         WaveSource source = WaveSource.of(d, "dataset");
-        WaveProfile first = s.source().withHandle(h -> profile(h, d, source, "1"));
+        WaveProfile first = s.source().withHandle(h -> profile(h, d, source, "1",
+                new BinaryWaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)::scan));
         for (int w = 1; w <= earlierWaves; w++) {
             WaveProfile p = new WaveProfile(Integer.toString(w), first.rows(), first.schema(), first.columns());
             s.store().saveSummary(d.name(), p, p.checksum());
         }
     }
 
-    private static WaveProfile profile(Handle h, DatasetConfig d, WaveSource source, String wave) {
+    private static WaveProfile profile(Handle h, DatasetConfig d, WaveSource source, String wave,
+                                       WaveJudge.Scanner scanner) {
         List<SourceColumn> all = SourceCatalog.columns(h, source.tableFor(wave));
         Map<String, ColumnType> schema = new LinkedHashMap<>();
         all.forEach(c -> schema.put(c.name(), c.type()));
         List<SourceColumn> monitored = all.stream()
                 .filter(c -> !c.name().equals(d.waveColumn()) && !d.exclude().contains(c.name())).toList();
-        WaveScanner.WaveScan scan = new BinaryWaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)
-                .scan(h, source, wave, monitored, null);
+        WaveScanner.WaveScan scan = scanner.scan(h, source, wave, monitored, null);
         return new WaveProfile(wave, scan.rows(), schema, scan.columns());
     }
 

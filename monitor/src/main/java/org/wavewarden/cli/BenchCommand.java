@@ -19,8 +19,8 @@ import java.util.concurrent.Callable;
                 + " earlier waves. Writes the figures as JSON.",
                 "Without --jdbc-url an embedded server is started. With one, the bench creates and drops the schemas"
                         + " wavewarden_bench and wavewarden_bench_results there.",
-                "Larger runs: --rows 100000, --rows 1000000 (about 2 GB of table and a few minutes), --rows 3000000"
-                        + " (about 6 GB; give the JVM -Xmx4g or more)."})
+                "Larger runs: --rows 200000 --repeat 5, --rows 1000000, --rows 3000000; a check of 40 variables takes"
+                        + " tens of seconds per million rows, so these take from several minutes to an hour."})
 final class BenchCommand implements Callable<Integer> {
 
     @Option(names = "--jdbc-url", paramLabel = "URL", description = "PostgreSQL server (default: an embedded one)")
@@ -29,7 +29,7 @@ final class BenchCommand implements Callable<Integer> {
     String user;
     @Option(names = "--password-env", paramLabel = "VAR", description = "environment variable holding the password")
     String passwordEnv;
-    @Option(names = "--rows", paramLabel = "R", defaultValue = "200000",
+    @Option(names = "--rows", paramLabel = "R", defaultValue = "100000",
             description = "rows in each of the two judged waves (default: ${DEFAULT-VALUE})")
     long rows;
     @Option(names = "--vars", paramLabel = "V", defaultValue = "40",
