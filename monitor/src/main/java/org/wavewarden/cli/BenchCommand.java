@@ -35,13 +35,13 @@ final class BenchCommand implements Callable<Integer> {
     @Option(names = "--vars", paramLabel = "V", defaultValue = "40",
             description = "variables of mixed kinds (default: ${DEFAULT-VALUE})")
     int vars;
-    @Option(names = "--repeat", paramLabel = "N", defaultValue = "5",
+    @Option(names = "--repeat", paramLabel = "N", defaultValue = "3",
             description = "repetitions of every measurement (default: ${DEFAULT-VALUE})")
     int repeat;
     @Option(names = "--history-waves", paramLabel = "W", defaultValue = "30",
             description = "earlier waves stored before the two judged ones in the history table (default: ${DEFAULT-VALUE})")
     int historyWaves;
-    @Option(names = "--history-rows", paramLabel = "R", defaultValue = "20000",
+    @Option(names = "--history-rows", paramLabel = "R", defaultValue = "10000",
             description = "rows in each earlier wave of the history table (default: ${DEFAULT-VALUE})")
     long historyRows;
     @Option(names = "--out", paramLabel = "FILE", defaultValue = "bench.json",

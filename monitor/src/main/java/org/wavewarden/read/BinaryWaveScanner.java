@@ -166,6 +166,8 @@ public final class BinaryWaveScanner {
         for (int i = 0; i < k; i++) {
             SourceColumn col = columns.get(i);
             Map<String, Long> counts = decode[i].bytesKeyed() ? bytes[i].texts(decode[i]) : longs[i].texts(decode[i]);
+            longs[i] = null; // each column's table can go as soon as its text form exists
+            bytes[i] = null;
             out.put(col.name(), new ColumnTally(col.name(), col.type(), rows, nulls[i], counts, truncated[i]));
         }
         return new WaveScanner.WaveScan(rows, out);
