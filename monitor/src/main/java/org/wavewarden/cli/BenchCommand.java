@@ -17,8 +17,9 @@ import java.util.concurrent.Callable;
         description = {"Measure a check against the floor the database sets: generate a survey, then time a counting"
                 + " scan, a binary COPY, and full checks with the text and the binary scanner, with 2 and with many"
                 + " earlier waves. Writes the figures as JSON.",
-                "Without --jdbc-url an embedded server is started. With one, the bench creates and drops the schemas"
-                        + " wavewarden_bench and wavewarden_bench_results there.",
+                "Without --jdbc-url an embedded server is started. With one, the bench replaces the tables survey and"
+                        + " survey_history in schema wavewarden_bench and the schema wavewarden_bench_results there,"
+                        + " and leaves them for inspection.",
                 "Larger runs: --rows 200000 --repeat 5, --rows 1000000, --rows 3000000; a check of 40 variables takes"
                         + " tens of seconds per million rows, so these take from several minutes to an hour."})
 final class BenchCommand implements Callable<Integer> {
