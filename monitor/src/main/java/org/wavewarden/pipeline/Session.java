@@ -23,6 +23,7 @@ public final class Session implements AutoCloseable {
     private final HikariDataSource source;
     private final HikariDataSource results;
     private final ResultsStore store;
+    private final Jdbi sourceJdbi;
     private String embeddedUrl;
     private Map<String, String> env = Map.of();
 
@@ -31,6 +32,7 @@ public final class Session implements AutoCloseable {
         this.source = source;
         this.results = results;
         this.store = new ResultsStore(Jdbi.create(results), config.results().schema());
+        this.sourceJdbi = Jdbi.create(source);
     }
 
     /**
@@ -95,8 +97,9 @@ public final class Session implements AutoCloseable {
         return config;
     }
 
+    /** The source, one Jdbi for the session, so a statement logger set on it sees every query of the session. */
     public Jdbi source() {
-        return Jdbi.create(source);
+        return sourceJdbi;
     }
 
     public ResultsStore store() {

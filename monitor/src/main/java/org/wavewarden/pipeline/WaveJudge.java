@@ -47,12 +47,28 @@ public final class WaveJudge {
 
     private final Session session;
     private final Clock clock;
-    private final WaveScanner scanner;
+    private Scanner scanner;
 
     public WaveJudge(Session session, Clock clock) {
         this.session = session;
         this.clock = clock;
-        this.scanner = new WaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT);
+        this.scanner = new WaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)::scan;
+    }
+
+    /**
+     * Reads one wave's monitored columns into tallies in one pass; {@link WaveScanner#scan} (the default) and
+     * {@link org.wavewarden.read.BinaryWaveScanner#scan} are two, with equal results.
+     */
+    @FunctionalInterface
+    public interface Scanner {
+        WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
+                                  LongConsumer progress);
+    }
+
+    /** Reads waves with the given scanner from now on; returns this judge. */
+    public WaveJudge useScanner(Scanner scanner) {
+        this.scanner = java.util.Objects.requireNonNull(scanner, "scanner");
+        return this;
     }
 
     /** Waves of a dataset in wave order. */

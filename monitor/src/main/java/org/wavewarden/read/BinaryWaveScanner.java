@@ -1,0 +1,678 @@
+package org.wavewarden.read;
+
+import org.jdbi.v3.core.Handle;
+import org.postgresql.PGConnection;
+import org.postgresql.copy.CopyOut;
+import org.postgresql.core.Utils;
+import org.wavewarden.config.Identifiers;
+import org.wavewarden.profile.ColumnTally;
+
+import java.math.BigDecimal;
+import java.math.MathContext;
+import java.math.RoundingMode;
+import java.nio.charset.StandardCharsets;
+import java.sql.Connection;
+import java.sql.SQLException;
+import java.time.LocalDate;
+import java.util.Arrays;
+import java.util.HashMap;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.function.LongConsumer;
+
+/**
+ * Reads one wave in a single pass like {@link WaveScanner}, with the same result, but asks PostgreSQL for
+ * {@code COPY (SELECT ...) TO STDOUT (FORMAT binary)} and tallies each cell without making a Java object for it.
+ *
+ * <p>Integers, {@code real}, {@code double precision}, {@code boolean} and {@code date} cells are counted in an
+ * open-addressing table keyed by the value's bits; text and {@code numeric} cells in a table keyed by their bytes.
+ * Each distinct value is turned into the text PostgreSQL's output function prints (what text COPY sends) once, at
+ * the end. Every other type (timestamps, intervals, arrays, domains, extension types) is sent by the server as the
+ * output of its own output function, {@code format('%s', column)}, and tallied as text; a plain {@code ::text} cast
+ * would not do, because some types cast to text differently than they print ({@code boolean} gives
+ * {@code true}, {@code inet} adds its netmask).
+ *
+ * <p>Floating-point text follows PostgreSQL 12 and later with {@code extra_float_digits > 0} (the JDBC driver sets
+ * 3): the shortest decimal that reads back as the same value, the closest such when several have that length,
+ * printed in fixed notation for decimal exponents from -4 up to 14 ({@code real}: up to 5) and as {@code 1e+20}
+ * otherwise, as the server's Ryu-based {@code float8out} and {@code float4out} do (Adams 2018, "Ryu: fast
+ * float-to-string conversion", PLDI). Dates follow {@code DateStyle = ISO}, which the scan sets, as
+ * {@link WaveScanner} does. Numeric cells are decoded from the binary numeric layout (base-10000 digits, weight,
+ * sign, display scale) the way the server's {@code numeric_out} prints them.
+ */
+public final class BinaryWaveScanner {
+
+    private final int maxDistinct;
+
+    public BinaryWaveScanner(int maxDistinct) {
+        if (maxDistinct < 1) {
+            throw new IllegalArgumentException("maxDistinct must be positive, was " + maxDistinct);
+        }
+        this.maxDistinct = maxDistinct;
+    }
+
+    /** How a column travels in the binary stream and is tallied. */
+    enum Decode {
+        INT2, INT4, INT8, FLOAT4, FLOAT8, BOOL, DATE, NUMERIC, TEXT, OUTPUT_TEXT;
+
+        static Decode of(String postgresType) {
+            return switch (postgresType.toLowerCase(Locale.ROOT)) {
+                case "smallint", "int2" -> INT2;
+                case "integer", "int4", "int" -> INT4;
+                case "bigint", "int8" -> INT8;
+                case "real", "float4" -> FLOAT4;
+                case "double precision", "float8" -> FLOAT8;
+                case "boolean", "bool" -> BOOL;
+                case "date" -> DATE;
+                case "numeric", "decimal" -> NUMERIC;
+                case "text", "character varying", "varchar", "character", "bpchar", "name" -> TEXT;
+                default -> OUTPUT_TEXT;
+            };
+        }
+
+        boolean bytesKeyed() {
+            return this == NUMERIC || this == TEXT || this == OUTPUT_TEXT;
+        }
+    }
+
+    /** Same contract as {@link WaveScanner#scan}: the wave's row count and one tally per requested column. */
+    public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
+                                     LongConsumer progress) {
+        int k = columns.size();
+        Decode[] decode = new Decode[k];
+        LongTally[] longs = new LongTally[k];
+        BytesTally[] bytes = new BytesTally[k];
+        for (int i = 0; i < k; i++) {
+            decode[i] = Decode.of(columns.get(i).postgresType());
+            if (decode[i].bytesKeyed()) {
+                bytes[i] = new BytesTally();
+            } else {
+                longs[i] = new LongTally();
+            }
+        }
+        long[] nulls = new long[k];
+        boolean[] truncated = new boolean[k];
+        long rows = 0;
+        String sql = copySql(source, wave, columns, decode);
+        CopyOut copy = null;
+        boolean finished = false;
+        try {
+            Connection c = h.getConnection();
+            try (var st = c.createStatement()) {
+                st.execute("SET DateStyle = 'ISO, YMD'"); // timestamps sent as text print in one form, as in WaveScanner
+            }
+            copy = c.unwrap(PGConnection.class).getCopyAPI().copyOut(sql);
+            BinaryStream in = new BinaryStream(copy);
+            in.header();
+            int expected = Math.max(k, 1);
+            while (true) {
+                int fields = in.int16();
+                if (fields == -1) {
+                    break;
+                }
+                if (fields != expected) {
+                    throw new IllegalStateException("COPY row had " + fields + " fields, expected " + k);
+                }
+                for (int i = 0; i < fields; i++) {
+                    int len = in.int32();
+                    if (i >= k) { // the placeholder column of a scan without columns
+                        in.skip(Math.max(len, 0));
+                        continue;
+                    }
+                    if (len < 0) {
+                        nulls[i]++;
+                        continue;
+                    }
+                    in.need(len);
+                    byte[] b = in.buf;
+                    int p = in.pos;
+                    boolean kept = switch (decode[i]) {
+                        case INT2 -> longs[i].add((short) (((b[p] & 0xFF) << 8) | (b[p + 1] & 0xFF)), maxDistinct);
+                        case INT4, FLOAT4, DATE -> longs[i].add(int32(b, p), maxDistinct);
+                        case INT8, FLOAT8 -> longs[i].add(int64(b, p), maxDistinct);
+                        case BOOL -> longs[i].add(b[p] != 0 ? 1 : 0, maxDistinct);
+                        case NUMERIC -> bytes[i].add(b, p, len, maxDistinct);
+                        case TEXT, OUTPUT_TEXT -> len > WaveScanner.MAX_VALUE_CHARS
+                                ? addLongText(bytes[i], b, p, len) : bytes[i].add(b, p, len, maxDistinct);
+                    };
+                    if (!kept) {
+                        truncated[i] = true;
+                    }
+                    in.pos += len;
+                }
+                rows++;
+                if ((rows & 0xFFFF) == 0 && progress != null) {
+                    progress.accept(rows);
+                }
+            }
+            while (copy.readFromCopy() != null) {
+                // the trailer came; reading on to the end completes the COPY so the connection is usable again
+            }
+            finished = true;
+        } catch (SQLException e) {
+            throw new WaveScanner.SourceReadException("reading wave " + wave + " failed: " + e.getMessage(), e);
+        } finally {
+            if (!finished && copy != null && copy.isActive()) {
+                try {
+                    copy.cancelCopy();
+                } catch (SQLException ignored) {
+                    // the connection is returned to the pool and validated there
+                }
+            }
+        }
+        Map<String, ColumnTally> out = new LinkedHashMap<>();
+        for (int i = 0; i < k; i++) {
+            SourceColumn col = columns.get(i);
+            Map<String, Long> counts = decode[i].bytesKeyed() ? bytes[i].texts(decode[i]) : longs[i].texts(decode[i]);
+            longs[i] = null; // each column's table can go as soon as its text form exists
+            bytes[i] = null;
+            out.put(col.name(), new ColumnTally(col.name(), col.type(), rows, nulls[i], counts, truncated[i]));
+        }
+        return new WaveScanner.WaveScan(rows, out);
+    }
+
+    /** A cell that may be longer than the text scanner keeps: its stand-in is tallied, as the text scanner does. */
+    private boolean addLongText(BytesTally t, byte[] b, int p, int len) {
+        String v = new String(b, p, len, StandardCharsets.UTF_8);
+        if (v.length() <= WaveScanner.MAX_VALUE_CHARS) {
+            return t.add(b, p, len, maxDistinct);
+        }
+        byte[] s = WaveScanner.shortened(v).getBytes(StandardCharsets.UTF_8);
+        return t.add(s, 0, s.length, maxDistinct);
+    }
+
+    static String copySql(WaveSource source, String wave, List<SourceColumn> columns, Decode[] decode) {
+        StringBuilder select = new StringBuilder("SELECT ");
+        if (columns.isEmpty()) {
+            select.append("1");
+        }
+        for (int i = 0; i < columns.size(); i++) {
+            if (i > 0) {
+                select.append(", ");
+            }
+            String q = Identifiers.quote(columns.get(i).name());
+            if (decode[i] == Decode.OUTPUT_TEXT) {
+                // num_nulls tests the cell itself; IS NULL would call a row of NULL fields NULL.
+                select.append("CASE WHEN num_nulls(").append(q).append(") = 1 THEN NULL ELSE format('%s', ")
+                        .append(q).append(") END");
+            } else {
+                select.append(q);
+            }
+        }
+        select.append(" FROM ").append(source.tableFor(wave).quoted());
+        if (!source.onePerWave()) {
+            // COPY takes no bind parameters; the label (read from the source) is escaped as WaveScanner does.
+            try {
+                select.append(" WHERE ").append(Identifiers.quote(source.waveColumn())).append("::text = '")
+                        .append(Utils.escapeLiteral(null, wave, true)).append('\'');
+            } catch (SQLException e) {
+                throw new IllegalArgumentException("wave label cannot be used: " + e.getMessage(), e);
+            }
+        }
+        return "COPY (" + select + ") TO STDOUT (FORMAT binary)";
+    }
+
+    // ---- text forms, once per distinct value ------------------------------------------------------------------
+
+    static String text(Decode d, long key) {
+        return switch (d) {
+            case INT2, INT4, INT8 -> Long.toString(key);
+            case BOOL -> key != 0 ? "t" : "f";
+            case DATE -> dateText((int) key);
+            case FLOAT4 -> float4Text(Float.intBitsToFloat((int) key));
+            case FLOAT8 -> float8Text(Double.longBitsToDouble(key));
+            default -> throw new IllegalArgumentException("decode " + d + " is not keyed by a long");
+        };
+    }
+
+    /** {@code date_out} under {@code DateStyle = ISO}: days since 2000-01-01, proleptic Gregorian, years BC marked. */
+    static String dateText(int days) {
+        if (days == Integer.MAX_VALUE) {
+            return "infinity";
+        }
+        if (days == Integer.MIN_VALUE) {
+            return "-infinity";
+        }
+        LocalDate d = LocalDate.of(2000, 1, 1).plusDays(days);
+        int y = d.getYear();
+        boolean bc = y <= 0;
+        String year = Integer.toString(bc ? 1 - y : y);
+        StringBuilder sb = new StringBuilder(16);
+        sb.append("0".repeat(Math.max(0, 4 - year.length()))).append(year).append('-');
+        two(sb, d.getMonthValue()).append('-');
+        two(sb, d.getDayOfMonth());
+        return bc ? sb.append(" BC").toString() : sb.toString();
+    }
+
+    private static StringBuilder two(StringBuilder sb, int v) {
+        return sb.append(v < 10 ? "0" : "").append(v);
+    }
+
+    /** {@code float8out} with shortest-exact output. */
+    static String float8Text(double v) {
+        if (Double.isNaN(v)) {
+            return "NaN";
+        }
+        if (Double.isInfinite(v)) {
+            return v > 0 ? "Infinity" : "-Infinity";
+        }
+        if (v == 0) {
+            return 1 / v < 0 ? "-0" : "0";
+        }
+        double a = Math.abs(v);
+        BigDecimal exact = new BigDecimal(a);
+        BigDecimal low = exact.add(new BigDecimal(Math.nextDown(a))).multiply(HALF);
+        BigDecimal high = exact.add(new BigDecimal(Math.ulp(a)).multiply(HALF));
+        BigDecimal s = shortest(exact, low, high, digits(Double.toString(a)), 17);
+        return (v < 0 ? "-" : "") + layout(s, 15);
+    }
+
+    /** {@code float4out} with shortest-exact output. */
+    static String float4Text(float v) {
+        if (Float.isNaN(v)) {
+            return "NaN";
+        }
+        if (Float.isInfinite(v)) {
+            return v > 0 ? "Infinity" : "-Infinity";
+        }
+        if (v == 0) {
+            return 1 / v < 0 ? "-0" : "0";
+        }
+        float a = Math.abs(v);
+        BigDecimal exact = new BigDecimal(a);
+        BigDecimal low = exact.add(new BigDecimal(Math.nextDown(a))).multiply(HALF);
+        BigDecimal high = exact.add(new BigDecimal(Math.ulp(a)).multiply(HALF));
+        BigDecimal s = shortest(exact, low, high, digits(Float.toString(a)), 9);
+        return (v < 0 ? "-" : "") + layout(s, 6);
+    }
+
+    private static final BigDecimal HALF = new BigDecimal("0.5");
+    private static final MathContext[] FLOOR = new MathContext[20];
+    private static final MathContext[] CEILING = new MathContext[20];
+
+    static {
+        for (int p = 1; p < 20; p++) {
+            FLOOR[p] = new MathContext(p, RoundingMode.FLOOR);
+            CEILING[p] = new MathContext(p, RoundingMode.CEILING);
+        }
+    }
+
+    /** Significant digits of Java's own shortest-ish text, the first guess of the length. */
+    private static int digits(String javaText) {
+        String m = javaText.substring(0, javaText.indexOf('E') < 0 ? javaText.length() : javaText.indexOf('E'));
+        return Math.max(1, new BigDecimal(m).stripTrailingZeros().precision());
+    }
+
+    /**
+     * The shortest decimal strictly between the midpoints to the neighbouring values, the nearest of that length.
+     * The server's Ryu never takes a midpoint itself even when reading it back would round to the value, so
+     * {@code 2e23} prints as {@code 1.9999999999999998e+23}. The length is searched from Java's {@code toString}
+     * (Java 17's is sometimes a digit or more too long, sometimes takes a midpoint); the test is monotone because
+     * every p-1 digit decimal is a p digit decimal.
+     */
+    private static BigDecimal shortest(BigDecimal exact, BigDecimal low, BigDecimal high, int guess, int most) {
+        int p = Math.min(guess, most);
+        BigDecimal best = nearest(exact, low, high, p);
+        while (best == null && p < most) {
+            best = nearest(exact, low, high, ++p);
+        }
+        if (best == null) {
+            throw new IllegalStateException("no decimal of " + most + " digits reads back as " + exact);
+        }
+        while (p > 1) {
+            BigDecimal shorter = nearest(exact, low, high, p - 1);
+            if (shorter == null) {
+                break;
+            }
+            best = shorter;
+            p--;
+        }
+        return best.stripTrailingZeros();
+    }
+
+    /** The p-digit decimal nearest to the exact value among the two around it inside (low, high), or null. */
+    private static BigDecimal nearest(BigDecimal exact, BigDecimal low, BigDecimal high, int p) {
+        BigDecimal down = exact.round(FLOOR[p]);
+        BigDecimal up = exact.round(CEILING[p]);
+        boolean d = down.compareTo(low) > 0;
+        boolean u = up.compareTo(high) < 0 && up.compareTo(down) != 0;
+        if (d && u) {
+            int c = exact.subtract(down).compareTo(up.subtract(exact));
+            if (c != 0) {
+                return c < 0 ? down : up;
+            }
+            return down.unscaledValue().testBit(0) ? up : down; // a tie goes to the even last digit
+        }
+        return d ? down : u ? up : null;
+    }
+
+    /** PostgreSQL's layout of shortest digits: fixed for exponents -4 .. fixedBelow-1, else {@code d.ddde+XX}. */
+    static String layout(BigDecimal positive, int fixedBelow) {
+        String digits = positive.unscaledValue().toString();
+        int exp = digits.length() - 1 - positive.scale();
+        StringBuilder sb = new StringBuilder(digits.length() + 8);
+        if (exp >= -4 && exp < fixedBelow) {
+            if (exp < 0) {
+                sb.append("0.").append("0".repeat(-exp - 1)).append(digits);
+            } else if (digits.length() <= exp + 1) {
+                sb.append(digits).append("0".repeat(exp + 1 - digits.length()));
+            } else {
+                sb.append(digits, 0, exp + 1).append('.').append(digits, exp + 1, digits.length());
+            }
+            return sb.toString();
+        }
+        sb.append(digits.charAt(0));
+        if (digits.length() > 1) {
+            sb.append('.').append(digits, 1, digits.length());
+        }
+        int e = Math.abs(exp);
+        sb.append('e').append(exp < 0 ? '-' : '+').append(e < 10 ? "0" : "").append(e);
+        return sb.toString();
+    }
+
+    /** {@code numeric_out} of the binary numeric layout (int16 ndigits, weight, sign, dscale; base-10000 digits). */
+    static String numericText(byte[] b, int p, int len) {
+        if (len < 8) {
+            throw new IllegalStateException("numeric cell of " + len + " bytes");
+        }
+        int ndigits = int16(b, p);
+        int weight = (short) int16(b, p + 2);
+        int sign = int16(b, p + 4);
+        int dscale = int16(b, p + 6);
+        switch (sign) {
+            case 0xC000 -> {
+                return "NaN";
+            }
+            case 0xD000 -> {
+                return "Infinity";
+            }
+            case 0xF000 -> {
+                return "-Infinity";
+            }
+            default -> {
+            }
+        }
+        int[] dig = new int[ndigits];
+        for (int i = 0; i < ndigits; i++) {
+            dig[i] = int16(b, p + 8 + 2 * i);
+        }
+        StringBuilder sb = new StringBuilder(4 * (Math.max(weight, 0) + 1) + dscale + 2);
+        if (sign == 0x4000) {
+            sb.append('-');
+        }
+        if (weight < 0) {
+            sb.append('0');
+        } else {
+            for (int d = 0; d <= weight; d++) {
+                int v = d < ndigits ? dig[d] : 0;
+                if (d == 0) {
+                    sb.append(v);
+                } else {
+                    four(sb, v);
+                }
+            }
+        }
+        if (dscale > 0) {
+            sb.append('.');
+            int start = sb.length();
+            for (int d = weight + 1; sb.length() - start < dscale; d++) {
+                four(sb, d >= 0 && d < ndigits ? dig[d] : 0);
+            }
+            sb.setLength(start + dscale);
+        }
+        return sb.toString();
+    }
+
+    private static void four(StringBuilder sb, int v) {
+        if (v < 1000) {
+            sb.append('0');
+        }
+        if (v < 100) {
+            sb.append('0');
+        }
+        if (v < 10) {
+            sb.append('0');
+        }
+        sb.append(v);
+    }
+
+    static int int16(byte[] b, int p) {
+        return ((b[p] & 0xFF) << 8) | (b[p + 1] & 0xFF);
+    }
+
+    static int int32(byte[] b, int p) {
+        return ((b[p] & 0xFF) << 24) | ((b[p + 1] & 0xFF) << 16) | ((b[p + 2] & 0xFF) << 8) | (b[p + 3] & 0xFF);
+    }
+
+    static long int64(byte[] b, int p) {
+        return ((long) int32(b, p) << 32) | (int32(b, p + 4) & 0xFFFFFFFFL);
+    }
+
+    private static Map<String, Long> merged(int expected) {
+        return new HashMap<>(Math.max(16, expected * 2));
+    }
+
+    private static String keep(String v) {
+        return v.length() > WaveScanner.MAX_VALUE_CHARS ? WaveScanner.shortened(v) : v;
+    }
+
+    // ---- tallies without an object per cell ----------------------------------------------------------------------
+
+    /** Counts per distinct 64-bit key, open addressing with linear probing; a count of zero marks an empty slot. */
+    static final class LongTally {
+        private long[] keys = new long[64];
+        private long[] counts = new long[64];
+        private int size;
+
+        /** Counts one cell; false when the value is new and the table already holds {@code max} values. */
+        boolean add(long key, int max) {
+            int mask = keys.length - 1;
+            int i = mix(key) & mask;
+            while (counts[i] != 0) {
+                if (keys[i] == key) {
+                    counts[i]++;
+                    return true;
+                }
+                i = (i + 1) & mask;
+            }
+            if (size >= max) {
+                return false;
+            }
+            keys[i] = key;
+            counts[i] = 1;
+            if (++size * 2 > keys.length) {
+                grow();
+            }
+            return true;
+        }
+
+        int size() {
+            return size;
+        }
+
+        private static int mix(long key) {
+            long h = key * 0x9E3779B97F4A7C15L;
+            return (int) (h ^ (h >>> 29) ^ (h >>> 47));
+        }
+
+        private void grow() {
+            long[] ok = keys;
+            long[] oc = counts;
+            keys = new long[ok.length * 2];
+            counts = new long[ok.length * 2];
+            int mask = keys.length - 1;
+            for (int j = 0; j < ok.length; j++) {
+                if (oc[j] != 0) {
+                    int i = mix(ok[j]) & mask;
+                    while (counts[i] != 0) {
+                        i = (i + 1) & mask;
+                    }
+                    keys[i] = ok[j];
+                    counts[i] = oc[j];
+                }
+            }
+        }
+
+        Map<String, Long> texts(Decode d) {
+            Map<String, Long> out = merged(size);
+            for (int j = 0; j < keys.length; j++) {
+                if (counts[j] != 0) {
+                    out.merge(keep(text(d, keys[j])), counts[j], Long::sum);
+                }
+            }
+            return out;
+        }
+    }
+
+    /** Counts per distinct byte string: the bytes live once in an arena, slots hold entry numbers. */
+    static final class BytesTally {
+        private byte[] arena = new byte[1024];
+        private int used;
+        private int[] offset = new int[32];
+        private int[] length = new int[32];
+        private int[] hash = new int[32];
+        private long[] count = new long[32];
+        private int size;
+        private int[] slots = new int[64]; // entry number + 1; 0 is empty
+
+        boolean add(byte[] b, int p, int len, int max) {
+            int h = hash(b, p, len);
+            int mask = slots.length - 1;
+            int i = h & mask;
+            int e;
+            while ((e = slots[i]) != 0) {
+                e--;
+                if (hash[e] == h && length[e] == len
+                        && Arrays.equals(arena, offset[e], offset[e] + len, b, p, p + len)) {
+                    count[e]++;
+                    return true;
+                }
+                i = (i + 1) & mask;
+            }
+            if (size >= max) {
+                return false;
+            }
+            if (size == count.length) {
+                int n = size * 2;
+                offset = Arrays.copyOf(offset, n);
+                length = Arrays.copyOf(length, n);
+                hash = Arrays.copyOf(hash, n);
+                count = Arrays.copyOf(count, n);
+            }
+            if (used + len > arena.length) {
+                arena = Arrays.copyOf(arena, Math.max(arena.length * 2, used + len));
+            }
+            System.arraycopy(b, p, arena, used, len);
+            offset[size] = used;
+            length[size] = len;
+            hash[size] = h;
+            count[size] = 1;
+            used += len;
+            slots[i] = ++size;
+            if (size * 2 > slots.length) {
+                rehash();
+            }
+            return true;
+        }
+
+        int size() {
+            return size;
+        }
+
+        private static int hash(byte[] b, int p, int len) {
+            int h = 0x811C9DC5 ^ len;
+            for (int j = p; j < p + len; j++) {
+                h = (h ^ b[j]) * 0x01000193;
+            }
+            return h ^ (h >>> 16);
+        }
+
+        private void rehash() {
+            slots = new int[slots.length * 2];
+            int mask = slots.length - 1;
+            for (int e = 0; e < size; e++) {
+                int i = hash[e] & mask;
+                while (slots[i] != 0) {
+                    i = (i + 1) & mask;
+                }
+                slots[i] = e + 1;
+            }
+        }
+
+        Map<String, Long> texts(Decode d) {
+            Map<String, Long> out = merged(size);
+            for (int e = 0; e < size; e++) {
+                String v = d == Decode.NUMERIC ? keep(numericText(arena, offset[e], length[e]))
+                        : new String(arena, offset[e], length[e], StandardCharsets.UTF_8);
+                out.merge(v, count[e], Long::sum);
+            }
+            return out;
+        }
+    }
+
+    /**
+     * The COPY binary stream over the driver's messages. A message is usually one row, so fields are read in place;
+     * a field that spans messages is gathered into one array first.
+     */
+    static final class BinaryStream {
+        private static final byte[] SIGNATURE = {'P', 'G', 'C', 'O', 'P', 'Y', '\n', (byte) 0xFF, '\r', '\n', 0};
+        private final CopyOut copy;
+        byte[] buf = new byte[0];
+        int pos;
+
+        BinaryStream(CopyOut copy) {
+            this.copy = copy;
+        }
+
+        void header() throws SQLException {
+            need(SIGNATURE.length + 8);
+            if (!Arrays.equals(buf, pos, pos + SIGNATURE.length, SIGNATURE, 0, SIGNATURE.length)) {
+                throw new IllegalStateException("the server did not send a COPY binary header");
+            }
+            pos += SIGNATURE.length + 4; // flags: no OIDs in COPY of a query
+            int extension = int32();
+            skip(extension);
+        }
+
+        int int16() throws SQLException {
+            need(2);
+            int v = (short) BinaryWaveScanner.int16(buf, pos);
+            pos += 2;
+            return v;
+        }
+
+        int int32() throws SQLException {
+            need(4);
+            int v = BinaryWaveScanner.int32(buf, pos);
+            pos += 4;
+            return v;
+        }
+
+        void skip(int n) throws SQLException {
+            need(n);
+            pos += n;
+        }
+
+        /** Makes n bytes available from {@code pos}, fetching messages as needed. */
+        void need(int n) throws SQLException {
+            while (buf.length - pos < n) {
+                byte[] next = copy.readFromCopy();
+                if (next == null) {
+                    throw new IllegalStateException("the COPY stream ended inside a row");
+                }
+                int rest = buf.length - pos;
+                if (rest == 0) {
+                    buf = next;
+                } else {
+                    byte[] joined = new byte[rest + next.length];
+                    System.arraycopy(buf, pos, joined, 0, rest);
+                    System.arraycopy(next, 0, joined, rest, next.length);
+                    buf = joined;
+                }
+                pos = 0;
+            }
+        }
+    }
+}
