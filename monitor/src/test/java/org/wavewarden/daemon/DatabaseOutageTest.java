@@ -43,7 +43,7 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 class DatabaseOutageTest {
 
     static final long SEED = 20260301L;
-    static final int FAULT_POINTS = 20;
+    static final int FAULT_POINTS = Integer.getInteger("points", 20);
     /** Quick retries, so an outage of seconds is ridden out within one firing (30 attempts, delays up to 0.5 s). */
     static final Daemon.Retry RETRY = new Daemon.Retry(30, Duration.ofMillis(100), Duration.ofMillis(500));
     static final List<String> WAVES = List.of("w1", "w2", "w3");
@@ -97,9 +97,30 @@ class DatabaseOutageTest {
         int judgedBeforeCut;
         try (Session s = Session.open(cfg, null, Map.of());
              Daemon d = new Daemon(s, Clock.systemUTC(), RETRY, Map.of())) {
+            long[] firstFiring = new long[2];
+            Daemon[] d0 = {d};
+            d.firingListener(new Daemon.FiringListener() {
+                @Override
+                public synchronized void started(String dataset) {
+                    if (firstFiring[0] == 0) {
+                        firstFiring[0] = System.nanoTime();
+                    }
+                }
+
+                @Override
+                public synchronized void finished(String dataset, boolean succeeded) {
+                    if (firstFiring[1] == 0) {
+                        firstFiring[1] = System.nanoTime();
+                        System.out.println("  first firing ok=" + succeeded + " runs=" + d0[0].metrics().runs(dataset)
+                                + " failures=" + d0[0].metrics().failures(dataset));
+                    }
+                }
+            });
             d.start("outage-" + point, 1000);
+            long t0 = System.nanoTime();
             Thread.sleep(cutAfterMillis);
             proxy.cut();
+            long tCut = System.nanoTime();
             judgedBeforeCut = (int) WAVES.stream().filter(w -> runs(direct, w) > 0).count();
             boolean sawDegraded = false;
             long end = System.nanoTime() + outageMillis * 1_000_000;
@@ -108,6 +129,7 @@ class DatabaseOutageTest {
                 Thread.sleep(50);
             }
             proxy.restore();
+            long tRestore = System.nanoTime();
             if (!sawDegraded) {
                 problems.add("/health never answered 503 during the outage");
             }
@@ -123,6 +145,9 @@ class DatabaseOutageTest {
             if (!await(() -> health(d) == 200, Duration.ofSeconds(30))) {
                 problems.add("/health did not return to 200");
             }
+            System.out.printf("  first firing %d..%d ms after start, cut at %d, restore +%d ms, w4+health after %d%n",
+                    (firstFiring[0] - t0) / 1_000_000, (firstFiring[1] - t0) / 1_000_000, (tCut - t0) / 1_000_000,
+                    (tRestore - tCut) / 1_000_000, (System.nanoTime() - tRestore) / 1_000_000);
         }
         for (String w : List.of("w1", "w2", "w3", "w4")) {
             long n = runs(direct, w);
