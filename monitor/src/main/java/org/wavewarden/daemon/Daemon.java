@@ -104,10 +104,13 @@ public final class Daemon implements AutoCloseable {
         p.setProperty("org.quartz.jobStore.clusterCheckinInterval", String.valueOf(clusterCheckinMillis));
         p.setProperty("org.quartz.jobStore.acquireTriggersWithinLock", "true");
         p.setProperty("org.quartz.jobStore.misfireThreshold", "60000");
-        p.setProperty("org.quartz.jobStore.dataSource", "results");
-        p.setProperty("org.quartz.dataSource.results.connectionProvider.class",
+        // Quartz keeps data sources in one registry per JVM, by name: a name of its own keeps this scheduler off
+        // another daemon's pool (in tests, several run in one JVM; one closing must not strand the others).
+        String dataSource = "results_" + registryKey.replace("-", "");
+        p.setProperty("org.quartz.jobStore.dataSource", dataSource);
+        p.setProperty("org.quartz.dataSource." + dataSource + ".connectionProvider.class",
                 RegisteredConnectionProvider.class.getName());
-        p.setProperty("org.quartz.dataSource.results.registryKey", registryKey);
+        p.setProperty("org.quartz.dataSource." + dataSource + ".registryKey", registryKey);
         StdSchedulerFactory factory = new StdSchedulerFactory(p);
         scheduler = factory.getScheduler();
         // Quartz keeps schedulers in a per-JVM repository by name; every member of a cluster shares the name, so
