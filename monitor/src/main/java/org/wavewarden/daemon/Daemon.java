@@ -12,6 +12,7 @@ import org.quartz.TriggerBuilder;
 import org.quartz.impl.StdSchedulerFactory;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
+import org.wavewarden.config.ConnectionConfig;
 import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.db.Databases;
@@ -64,6 +65,8 @@ public final class Daemon implements AutoCloseable {
     private final AlertOutbox outbox;
     private Scheduler scheduler;
     private StatusServer status;
+    private DatabaseProbe probe;
+    private volatile FiringListener firingListener = FiringListener.NONE;
     private volatile Path latestDigest;
 
     /**
@@ -101,10 +104,13 @@ public final class Daemon implements AutoCloseable {
         p.setProperty("org.quartz.jobStore.clusterCheckinInterval", String.valueOf(clusterCheckinMillis));
         p.setProperty("org.quartz.jobStore.acquireTriggersWithinLock", "true");
         p.setProperty("org.quartz.jobStore.misfireThreshold", "60000");
-        p.setProperty("org.quartz.jobStore.dataSource", "results");
-        p.setProperty("org.quartz.dataSource.results.connectionProvider.class",
+        // Quartz keeps data sources in one registry per JVM, by name: a name of its own keeps this scheduler off
+        // another daemon's pool (in tests, several run in one JVM; one closing must not strand the others).
+        String dataSource = "results_" + registryKey.replace("-", "");
+        p.setProperty("org.quartz.jobStore.dataSource", dataSource);
+        p.setProperty("org.quartz.dataSource." + dataSource + ".connectionProvider.class",
                 RegisteredConnectionProvider.class.getName());
-        p.setProperty("org.quartz.dataSource.results.registryKey", registryKey);
+        p.setProperty("org.quartz.dataSource." + dataSource + ".registryKey", registryKey);
         StdSchedulerFactory factory = new StdSchedulerFactory(p);
         scheduler = factory.getScheduler();
         // Quartz keeps schedulers in a per-JVM repository by name; every member of a cluster shares the name, so
@@ -123,6 +129,16 @@ public final class Daemon implements AutoCloseable {
         if (config.daemon().httpPort() >= 0) {
             status = StatusServer.start(config.daemon().httpBind(), config.daemon().httpPort(), this);
         }
+        // Probed twice per check-in interval, so /health turns 503 within about the time after which another
+        // cluster member would take over this instance's work.
+        Duration every = Duration.ofMillis(Math.max(500, clusterCheckinMillis / 2));
+        Duration timeout = every.dividedBy(2);
+        ConnectionConfig rc = config.results().connection() == null ? config.source() : config.results().connection();
+        probe = new DatabaseProbe(Map.of(
+                "source", Databases.open(config.source(), session.embeddedUrl(), "source", true, session.env(), 1,
+                        timeout),
+                "results", Databases.open(rc, session.embeddedUrl(), "results", false, session.env(), 1, timeout)),
+                metrics, every, timeout);
         scheduler.start();
         LOG.info("daemon started: {} dataset(s), instance {}", config.datasets().size(), scheduler.getSchedulerInstanceId());
     }
@@ -144,6 +160,18 @@ public final class Daemon implements AutoCloseable {
 
     /** One firing of one dataset, retried with backoff while a database is unreachable. */
     boolean fireWithRetries(String dataset) {
+        FiringListener listener = firingListener;
+        listener.started(dataset);
+        boolean ok = false;
+        try {
+            ok = attempts(dataset);
+            return ok;
+        } finally {
+            listener.finished(dataset, ok);
+        }
+    }
+
+    private boolean attempts(String dataset) {
         DatasetConfig d = config.dataset(dataset);
         Duration delay = retry.initial();
         for (int attempt = 1; ; attempt++) {
@@ -218,6 +246,9 @@ public final class Daemon implements AutoCloseable {
         if (status != null) {
             status.stop();
         }
+        if (probe != null) {
+            probe.close();
+        }
         RegisteredConnectionProvider.unregister(registryKey);
         quartzPool.close();
     }
@@ -225,6 +256,22 @@ public final class Daemon implements AutoCloseable {
     /** For tests: the scheduler's instance id. */
     String instanceId() throws SchedulerException {
         return scheduler.getSchedulerInstanceId();
+    }
+
+    /** Told when each firing of a dataset starts and ends (after its retries); for tests. */
+    interface FiringListener {
+        FiringListener NONE = new FiringListener() {
+        };
+
+        default void started(String dataset) {
+        }
+
+        default void finished(String dataset, boolean succeeded) {
+        }
+    }
+
+    void firingListener(FiringListener listener) {
+        this.firingListener = listener == null ? FiringListener.NONE : listener;
     }
 
     JobKey jobKey(String dataset) {

@@ -18,6 +18,7 @@ public final class DaemonMetrics {
     private final Map<String, Instant> lastSuccess = new ConcurrentHashMap<>();
     private final Map<String, AtomicLong> alerts = new ConcurrentHashMap<>();
     private final Map<String, Boolean> degraded = new ConcurrentHashMap<>();
+    private volatile boolean databasesUnreachable;
 
     void waveJudged(String dataset, java.util.List<Finding> alertList) {
         runs.computeIfAbsent(dataset, k -> new AtomicLong()).incrementAndGet();
@@ -38,9 +39,23 @@ public final class DaemonMetrics {
         degraded.put(dataset, true);
     }
 
-    /** True while the latest attempt of some dataset failed (a database outage, typically). */
+    /** What the latest database probe found. */
+    void databasesReachable(boolean reachable) {
+        databasesUnreachable = !reachable;
+    }
+
+    /**
+     * True while the latest attempt of some dataset failed (a database outage, typically), or while the latest
+     * probe of the databases found one unreachable (an outage between firings).
+     */
     public boolean degraded() {
-        return degraded.values().stream().anyMatch(b -> b);
+        return databasesUnreachable || degraded.values().stream().anyMatch(b -> b);
+    }
+
+    /** Firings of a dataset that completed. */
+    public long firings(String dataset) {
+        AtomicLong n = firings.get(dataset);
+        return n == null ? 0 : n.get();
     }
 
     public long runs(String dataset) {
@@ -74,7 +89,8 @@ public final class DaemonMetrics {
             sb.append("wavewarden_alerts_total{dataset=\"").append(esc(p[0])).append("\",verdict=\"").append(esc(p[1]))
                     .append("\"} ").append(n.get()).append('\n');
         });
-        family(sb, "wavewarden_degraded", "gauge", "1 while the latest attempt of some dataset failed.");
+        family(sb, "wavewarden_degraded", "gauge",
+                "1 while the latest attempt of some dataset failed or a database is unreachable.");
         sb.append("wavewarden_degraded ").append(degraded() ? 1 : 0).append('\n');
         return sb.toString();
     }

@@ -12,6 +12,7 @@ import org.wavewarden.store.ResultsStore;
 import java.nio.file.Path;
 import java.time.Clock;
 import java.time.Instant;
+import java.time.temporal.ChronoUnit;
 import java.util.ArrayList;
 import java.util.List;
 
@@ -48,9 +49,9 @@ public final class DatasetFiring {
             if (run.isPresent() && store.summaryRows(d.name(), w.wave(), run.get().summaryChecksum()) == w.rows()) {
                 continue;
             }
-            // PostgreSQL keeps microseconds (rounding); comparing with a nanosecond clock would let a wave seen just
-            // now look as if first seen in the future.
-            Instant now = clock.instant().truncatedTo(java.time.temporal.ChronoUnit.MICROS);
+            // The database keeps microseconds and rounds to them: a finer clock reading could come back later
+            // than itself and hold a wave with no quiet period until the next firing.
+            Instant now = clock.instant().truncatedTo(ChronoUnit.MICROS);
             Instant stableSince = store.watch(d.name(), w.wave(), w.rows(), now);
             // Later waves are still watched, so their quiet periods run at the same time, but none is judged
             // before the waves it is compared against.

@@ -11,8 +11,8 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 
 /**
- * {@code /health} (200 ok, 503 degraded while a firing keeps failing), {@code /metrics} (Prometheus text) and
- * {@code /digest} (the latest digest) on an address that is 127.0.0.1 unless configured otherwise.
+ * {@code /health} (200 ok, 503 degraded while a firing keeps failing or a database is unreachable), {@code /metrics}
+ * (Prometheus text) and {@code /digest} (the latest digest) on an address that is 127.0.0.1 unless configured otherwise.
  */
 final class StatusServer {
 

@@ -24,6 +24,19 @@ public final class Databases {
      */
     public static HikariDataSource open(ConnectionConfig c, String embeddedUrl, String key, boolean readOnly,
                                         Map<String, String> env, int poolSize) {
+        return open(c, embeddedUrl, key, readOnly, env, poolSize, java.time.Duration.ofSeconds(10));
+    }
+
+    /**
+     * As {@link #open(ConnectionConfig, String, String, boolean, Map, int)}, waiting at most
+     * {@code connectionTimeout} (at least 250 ms) for a connection before giving up.
+     */
+    public static HikariDataSource open(ConnectionConfig c, String embeddedUrl, String key, boolean readOnly,
+                                        Map<String, String> env, int poolSize, java.time.Duration connectionTimeout) {
+        if (connectionTimeout.toMillis() < 250) {
+            throw new IllegalArgumentException("connectionTimeout: expected at least 250 ms but got "
+                    + connectionTimeout);
+        }
         HikariConfig hc = new HikariConfig();
         if (c.isEmbedded()) {
             hc.setJdbcUrl(embeddedUrl);
@@ -39,7 +52,7 @@ public final class Databases {
         hc.setPoolName(readOnly ? "source" : "results");
         hc.setMaximumPoolSize(poolSize);
         hc.setMinimumIdle(0);
-        hc.setConnectionTimeout(10_000);
+        hc.setConnectionTimeout(connectionTimeout.toMillis());
         // Fail fast at start-up is handled by the caller, who maps it to exit code 3.
         hc.setInitializationFailTimeout(-1);
         hc.addDataSourceProperty("ApplicationName", readOnly ? "wavewarden-source" : "wavewarden-results");
