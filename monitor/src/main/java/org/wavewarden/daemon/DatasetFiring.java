@@ -7,6 +7,8 @@ import org.wavewarden.pipeline.JudgedWave;
 import org.wavewarden.pipeline.Session;
 import org.wavewarden.pipeline.WaveJudge;
 import org.wavewarden.read.WaveInfo;
+import org.wavewarden.read.WaveListing;
+import org.wavewarden.read.WaveSource;
 import org.wavewarden.store.ResultsStore;
 
 import java.nio.file.Path;
@@ -17,8 +19,8 @@ import java.util.ArrayList;
 import java.util.List;
 
 /**
- * One firing for one dataset: list the source's waves, and judge, oldest first, every wave that has no current
- * run or whose row count no longer matches the summary its run judged, once the wave is ready (its row count
+ * One firing for one dataset: list the source's waves with a content fingerprint, and judge, oldest first, every
+ * wave that has no current run or whose rows changed since its run (count or fingerprint), once the wave is ready (its row count
  * unchanged for the dataset's quiet period, and listed in the readiness table when one is configured). Waves after
  * one that is not ready wait too, since they are compared against it.
  */
@@ -44,15 +46,17 @@ public final class DatasetFiring {
         List<JudgedWave> judged = new ArrayList<>();
         List<String> waiting = new ArrayList<>();
         boolean blocked = false;
-        for (WaveInfo w : judge.waves(d)) {
+        List<WaveInfo> waves = session.source().withHandle(h -> WaveListing.list(h, WaveSource.of(d, "dataset"),
+                d.waveOrder(), true));
+        for (WaveInfo w : waves) {
             var run = store.currentRun(d.name(), w.wave());
-            if (run.isPresent() && store.summaryRows(d.name(), w.wave(), run.get().summaryChecksum()) == w.rows()) {
+            if (run.isPresent() && unchanged(d, w, run.get())) {
                 continue;
             }
             // The database keeps microseconds and rounds to them: a finer clock reading could come back later
             // than itself and hold a wave with no quiet period until the next firing.
             Instant now = clock.instant().truncatedTo(ChronoUnit.MICROS);
-            Instant stableSince = store.watch(d.name(), w.wave(), w.rows(), now);
+            Instant stableSince = store.watch(d.name(), w.wave(), w.rows(), w.fingerprint(), now);
             // Later waves are still watched, so their quiet periods run at the same time, but none is judged
             // before the waves it is compared against.
             if (blocked || stableSince.plus(d.quietPeriod()).isAfter(now) || !released(d, w.wave())) {
@@ -61,8 +65,23 @@ public final class DatasetFiring {
                 continue;
             }
             judged.add(judge.judge(d, w.wave(), null, outputDir.resolve(d.name()).resolve(w.wave()), null));
+            store.judgedFingerprint(d.name(), w.wave(), w.fingerprint());
         }
         return new Result(d.name(), judged, waiting);
+    }
+
+    /**
+     * A judged wave is unchanged when its source fingerprint (row count and row hashes) is the one recorded when
+     * it was judged; a run made outside the daemon (by {@code check}) has no fingerprint, and then the row count of
+     * the summary it judged is compared.
+     */
+    private boolean unchanged(DatasetConfig d, WaveInfo w, ResultsStore.RunRecord run) {
+        var judgedFingerprint = session.store().judgedFingerprint(d.name(), w.wave());
+        if (judgedFingerprint.isPresent()) {
+            return judgedFingerprint.get() == w.fingerprint()
+                    && session.store().summaryRows(d.name(), w.wave(), run.summaryChecksum()) == w.rows();
+        }
+        return session.store().summaryRows(d.name(), w.wave(), run.summaryChecksum()) == w.rows();
     }
 
     /** With a readiness table configured, whether it lists the wave; without one, every wave is released. */

@@ -177,14 +177,28 @@ public final class ResultsStore {
      * Notes a wave's current row count and returns since when it has had that count: the first time a count is
      * seen, {@code now}; while it stays the same, the time it was first seen.
      */
-    public Instant watch(String dataset, String wave, long rows, Instant now) {
+    public Instant watch(String dataset, String wave, long rows, long fingerprint, Instant now) {
         return jdbi.inTransaction(h -> h.createQuery("INSERT INTO " + s + ".wave_watch AS w (dataset, wave, row_count,"
-                        + " stable_since) VALUES (:d, :w, :n, :now) ON CONFLICT (dataset, wave) DO UPDATE SET"
-                        + " row_count = EXCLUDED.row_count, stable_since = CASE WHEN w.row_count = EXCLUDED.row_count"
+                        + " fingerprint, stable_since) VALUES (:d, :w, :n, :f, :now) ON CONFLICT (dataset, wave) DO UPDATE"
+                        + " SET row_count = EXCLUDED.row_count, fingerprint = EXCLUDED.fingerprint, stable_since = CASE"
+                        + " WHEN w.row_count = EXCLUDED.row_count AND w.fingerprint = EXCLUDED.fingerprint"
                         + " THEN w.stable_since ELSE EXCLUDED.stable_since END RETURNING stable_since")
-                .bind("d", dataset).bind("w", wave).bind("n", rows)
+                .bind("d", dataset).bind("w", wave).bind("n", rows).bind("f", fingerprint)
                 .bind("now", OffsetDateTime.ofInstant(now, ZoneOffset.UTC))
                 .map((rs, ctx) -> rs.getObject(1, OffsetDateTime.class).toInstant()).one());
+    }
+
+    /** Records the source fingerprint of the data a wave's current run judged. */
+    public void judgedFingerprint(String dataset, String wave, long fingerprint) {
+        jdbi.useHandle(h -> h.createUpdate("UPDATE " + s + ".wave_watch SET judged_fingerprint = :f WHERE dataset = :d"
+                + " AND wave = :w").bind("d", dataset).bind("w", wave).bind("f", fingerprint).execute());
+    }
+
+    /** The fingerprint recorded when the wave was last judged by the daemon, if any. */
+    public java.util.Optional<Long> judgedFingerprint(String dataset, String wave) {
+        return jdbi.withHandle(h -> h.createQuery("SELECT judged_fingerprint FROM " + s + ".wave_watch WHERE"
+                        + " dataset = :d AND wave = :w AND judged_fingerprint IS NOT NULL")
+                .bind("d", dataset).bind("w", wave).mapTo(Long.class).findOne());
     }
 
     /** Open alerts of a dataset, newest first. */

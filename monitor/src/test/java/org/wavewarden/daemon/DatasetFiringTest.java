@@ -95,6 +95,30 @@ class DatasetFiringTest {
     }
 
     @Test
+    void rowsEditedInPlaceAreNoticedAndTheWaveJudgedAgain() throws Exception {
+        String yaml = load("edited", "");
+        WardenConfig c = ConfigLoader.parse(yaml);
+        try (Session s = Session.open(c, null, Map.of())) {
+            s.migrate();
+            DatasetFiring firing = new DatasetFiring(s, Clock.systemUTC(), dir.resolve("out"));
+            assertEquals(2, firing.fire(c.datasets().get(0)).judged().size());
+            assertEquals(0, firing.fire(c.datasets().get(0)).judged().size());
+            // The same number of rows, one answer changed: only the content fingerprint can tell.
+            try (Connection conn = TestDatabase.connect(c.source().jdbcUrl()); var st = conn.createStatement()) {
+                assertEquals(1, st.executeUpdate("UPDATE src.answers SET score = score + 40 WHERE wave = 'w2'"
+                        + " AND respondent_id = 7"));
+            }
+            assertEquals(List.of("w2"), firing.fire(c.datasets().get(0)).judged().stream()
+                    .map(j -> j.report().wave()).toList());
+            assertEquals(2, DaemonIntegrationTest.count(c.source().jdbcUrl(),
+                    "SELECT count(*) FROM ww_results.run WHERE wave = 'w2'"));
+            assertEquals(1, DaemonIntegrationTest.count(c.source().jdbcUrl(),
+                    "SELECT count(*) FROM ww_results.run WHERE wave = 'w2' AND superseded_at IS NULL"));
+            assertEquals(0, firing.fire(c.datasets().get(0)).judged().size(), "and then it is settled");
+        }
+    }
+
+    @Test
     void withAReadinessTableOnlyReleasedWavesAreJudged() throws Exception {
         String yaml = load("ready", "    readyTable: src.released\n    readyColumn: wave");
         WardenConfig c = ConfigLoader.parse(yaml);
