@@ -3,7 +3,6 @@ package org.wavewarden.read;
 import org.jdbi.v3.core.Handle;
 import org.postgresql.PGConnection;
 import org.postgresql.copy.CopyOut;
-import org.postgresql.core.Utils;
 import org.wavewarden.config.Identifiers;
 import org.wavewarden.profile.ColumnTally;
 
@@ -201,16 +200,7 @@ public final class BinaryWaveScanner {
                 select.append(q);
             }
         }
-        select.append(" FROM ").append(source.tableFor(wave).quoted());
-        if (!source.onePerWave()) {
-            // COPY takes no bind parameters; the label (read from the source) is escaped as WaveScanner does.
-            try {
-                select.append(" WHERE ").append(Identifiers.quote(source.waveColumn())).append("::text = '")
-                        .append(Utils.escapeLiteral(null, wave, true)).append('\'');
-            } catch (SQLException e) {
-                throw new IllegalArgumentException("wave label cannot be used: " + e.getMessage(), e);
-            }
-        }
+        select.append(source.fromClause(wave));
         return "COPY (" + select + ") TO STDOUT (FORMAT binary)";
     }
 

@@ -3,7 +3,6 @@ package org.wavewarden.read;
 import org.jdbi.v3.core.Handle;
 import org.postgresql.PGConnection;
 import org.postgresql.copy.CopyOut;
-import org.postgresql.core.Utils;
 import org.wavewarden.config.Identifiers;
 import org.wavewarden.profile.ColumnTally;
 
@@ -117,17 +116,7 @@ public final class WaveScanner {
             }
             select.append(Identifiers.quote(columns.get(i).name()));
         }
-        select.append(" FROM ").append(source.tableFor(wave).quoted());
-        if (!source.onePerWave()) {
-            // COPY takes no bind parameters, so the wave label (read from the source itself) is escaped by the
-            // driver's literal escaping under standard_conforming_strings.
-            try {
-                select.append(" WHERE ").append(Identifiers.quote(source.waveColumn())).append("::text = '")
-                        .append(Utils.escapeLiteral(null, wave, true)).append('\'');
-            } catch (SQLException e) {
-                throw new IllegalArgumentException("wave label cannot be used: " + e.getMessage(), e);
-            }
-        }
+        select.append(source.fromClause(wave));
         return "COPY (" + select + ") TO STDOUT";
     }
 

@@ -32,6 +32,24 @@ public record WaveSource(TableName table, String waveColumn, String tablePattern
         return TableName.parse("tablePattern", tablePattern.replace("{wave}", wave));
     }
 
+    /**
+     * {@code FROM table [WHERE wave = 'label']} for a COPY of one wave. COPY takes no bind parameters, so the wave
+     * label (read from the source itself) is escaped by the driver's literal escaping under
+     * standard_conforming_strings; identifiers are validated and quoted.
+     */
+    public String fromClause(String wave) {
+        StringBuilder sb = new StringBuilder(" FROM ").append(tableFor(wave).quoted());
+        if (!onePerWave()) {
+            try {
+                sb.append(" WHERE ").append(Identifiers.quote(waveColumn)).append("::text = '")
+                        .append(org.postgresql.core.Utils.escapeLiteral(null, wave, true)).append('\'');
+            } catch (java.sql.SQLException e) {
+                throw new IllegalArgumentException("wave label cannot be used: " + e.getMessage(), e);
+            }
+        }
+        return sb.toString();
+    }
+
     /** The pattern's schema and the fixed text around {wave}, for listing the per-wave tables. */
     public Optional<String[]> patternParts() {
         if (!onePerWave()) {
