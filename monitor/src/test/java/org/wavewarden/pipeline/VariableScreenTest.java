@@ -77,6 +77,26 @@ class VariableScreenTest {
     }
 
     @Test
+    void plainDecimalNotationIsRecognisedAsTheRegularExpressionWouldBe() {
+        java.util.regex.Pattern reference = java.util.regex.Pattern.compile("[-+]?(\\d+\\.?\\d*|\\.\\d+)([eE][-+]?\\d+)?");
+        List<String> cases = List.of("0", "-1", "+2", "3.", ".5", "-.5", "1.25", "1e5", "1E-5", "2.5e+10", "", "-", ".",
+                "e5", "1e", "1e+", "1.2.3", "NaN", "Infinity", "0x1p3", "1.5d", " 1", "1 ", "١٢", "12a", "--1", "1e5.5");
+        for (String c : cases) {
+            assertEquals(reference.matcher(c).matches(), VariableScreen.isPlainDecimal(c), "'" + c + "'");
+        }
+        SplittableRandom r = new SplittableRandom(3);
+        String alphabet = "0123456789.-+eEx ";
+        for (int k = 0; k < 20_000; k++) {
+            StringBuilder sb = new StringBuilder();
+            for (int j = r.nextInt(7); j > 0; j--) {
+                sb.append(alphabet.charAt(r.nextInt(alphabet.length())));
+            }
+            String c = sb.toString();
+            assertEquals(reference.matcher(c).matches(), VariableScreen.isPlainDecimal(c), "'" + c + "'");
+        }
+    }
+
+    @Test
     void textInANumericVariableIsInvalidNotParsed() {
         Map<String, Long> values = new HashMap<>(Map.of("12", 30L, "13", 31L, "twelve", 2L, "NaN", 1L, "0x1p3", 1L,
                 "1.5d", 1L));
