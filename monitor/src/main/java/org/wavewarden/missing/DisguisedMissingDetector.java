@@ -113,6 +113,12 @@ public final class DisguisedMissingDetector {
             if (c <= 0) {
                 continue;
             }
+            if (NumberText.isPlainDecimal(v)) {
+                // A plain number is never blank, invisible or a placeholder; most values of numeric columns are
+                // numbers, and this check is the cheap way past the text tests for each of them.
+                remaining.put(v, c);
+                continue;
+            }
             double share = Math.min(1, (double) c / denominator);
             String shown = "'" + visible(v) + "'";
             if (TextForms.isBlank(v)) {

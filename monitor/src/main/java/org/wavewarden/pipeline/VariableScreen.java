@@ -102,7 +102,7 @@ public final class VariableScreen {
     static Double parse(String s) {
         String t = s.strip();
         // Only plain decimal notation: Java would also accept "NaN", "Infinity", "0x1p3" and "1.5d".
-        if (!isPlainDecimal(t)) {
+        if (!org.wavewarden.missing.NumberText.isPlainDecimal(t)) {
             return null;
         }
         try {
@@ -110,49 +110,6 @@ public final class VariableScreen {
         } catch (NumberFormatException e) {
             return null;
         }
-    }
-
-    /**
-     * {@code [-+]?(digits[.digits?] | .digits)([eE][-+]?digits)?}, checked by hand: this runs once per distinct
-     * value of every numeric column, where a regular expression was the single largest cost.
-     */
-    static boolean isPlainDecimal(String t) {
-        int i = 0;
-        int n = t.length();
-        if (i < n && (t.charAt(i) == '-' || t.charAt(i) == '+')) {
-            i++;
-        }
-        int intDigits = 0;
-        while (i < n && Character.isDigit(t.charAt(i)) && t.charAt(i) < 128) {
-            i++;
-            intDigits++;
-        }
-        int fracDigits = 0;
-        if (i < n && t.charAt(i) == '.') {
-            i++;
-            while (i < n && t.charAt(i) >= '0' && t.charAt(i) <= '9') {
-                i++;
-                fracDigits++;
-            }
-        }
-        if (intDigits == 0 && fracDigits == 0) {
-            return false;
-        }
-        if (i < n && (t.charAt(i) == 'e' || t.charAt(i) == 'E')) {
-            i++;
-            if (i < n && (t.charAt(i) == '-' || t.charAt(i) == '+')) {
-                i++;
-            }
-            int expDigits = 0;
-            while (i < n && t.charAt(i) >= '0' && t.charAt(i) <= '9') {
-                i++;
-                expDigits++;
-            }
-            if (expDigits == 0) {
-                return false;
-            }
-        }
-        return i == n;
     }
 
     /** The answer whose share a binary variable tracks: configured, else 1 / true / yes, else the last in order. */
