@@ -24,7 +24,8 @@ final class DemoCommand implements Callable<Integer> {
         var o = spec.commandLine().getOut();
         DemoRun.Outcome r = DemoRun.run(out, o);
         o.println();
-        o.println("outputs: " + out.toAbsolutePath().normalize() + " (digest.md, and findings.json + digest.md per wave)");
+        o.println("outputs: " + out.toAbsolutePath().normalize() + " (digest.html and digest.md for all waves, and"
+                + " findings.json + digest.md per wave)");
         o.println("These flags are screening aids, not findings; publication decisions rest with the survey's own"
                 + " methodologists.");
         return Main.OK;
