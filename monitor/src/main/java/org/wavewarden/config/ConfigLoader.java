@@ -249,7 +249,7 @@ public final class ConfigLoader {
 
         DatasetConfig dataset(ObjectNode node, String path) {
             known(node, path, "name", "table", "waveColumn", "tablePattern", "waveOrder", "compareWith", "schedule",
-                    "exclude", "variables", "quietPeriod", "alerts", "readyTable", "readyColumn");
+                    "exclude", "variables", "quietPeriod", "alerts", "readyTable", "readyColumn", "weightColumn");
             String name = text(node, "name", path + ".name", true);
             if (!name.matches("[A-Za-z0-9][A-Za-z0-9_.-]{0,99}")) {
                 throw new ConfigException(path + ".name", "expected letters, digits, '-', '_' or '.' (at most 100)"
@@ -308,7 +308,12 @@ public final class ConfigLoader {
                     compareWith(node.get("compareWith"), path + ".compareWith"), schedule, exclude, variables,
                     duration(node, "quietPeriod", path + ".quietPeriod"),
                     alerts(object(node, "alerts", path + ".alerts", false), path + ".alerts"),
-                    readyTable(node, path), readyColumn(node, path));
+                    readyTable(node, path), readyColumn(node, path), weightColumn(node, path));
+        }
+
+        String weightColumn(ObjectNode node, String path) {
+            String w = text(node, "weightColumn", path + ".weightColumn", false);
+            return w == null ? null : Identifiers.require(path + ".weightColumn", w);
         }
 
         String readyTable(ObjectNode node, String path) {

@@ -19,11 +19,13 @@ import java.util.List;
  * @param readyTable   optional {@code schema.table} whose {@code readyColumn} lists the waves released for judging;
  *                     when set, a wave not listed there is not judged however long its count has been stable
  * @param readyColumn  the column of {@code readyTable} holding wave labels
+ * @param weightColumn optional survey weight column: never compared itself, its sums per value are kept in each
+ *                     wave's summary
  */
 public record DatasetConfig(String name, String table, String waveColumn, String tablePattern, WaveOrder waveOrder,
                             CompareWith compareWith, String schedule, List<String> exclude,
                             List<VariableConfig> variables, java.time.Duration quietPeriod, SinkSettings alerts,
-                            String readyTable, String readyColumn) {
+                            String readyTable, String readyColumn, String weightColumn) {
 
     public DatasetConfig {
         waveOrder = waveOrder == null ? WaveOrder.NATURAL : waveOrder;

@@ -65,6 +65,10 @@ public final class CatalogCheck {
                 throw new ConfigException(key + ".readyColumn", "column " + d.readyColumn() + " does not exist in " + rt);
             }
         }
+        if (d.weightColumn() != null && columns.stream().noneMatch(c -> c.name().equals(d.weightColumn()))) {
+            throw new ConfigException(key + ".weightColumn", "column " + d.weightColumn() + " does not exist in the"
+                    + " source table; it has " + names(columns));
+        }
         for (int j = 0; j < d.exclude().size(); j++) {
             String name = d.exclude().get(j);
             if (columns.stream().noneMatch(c -> c.name().equals(name))) {

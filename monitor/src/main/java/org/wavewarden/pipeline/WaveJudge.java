@@ -298,9 +298,13 @@ public final class WaveJudge {
         Map<String, ColumnType> schema = new LinkedHashMap<>();
         all.forEach(c -> schema.put(c.name(), c.type()));
         List<SourceColumn> monitored = all.stream()
-                .filter(c -> !c.name().equals(d.waveColumn()) && !d.exclude().contains(c.name())).toList();
-        WaveScanner.WaveScan scan = scanner.scan(h, source, wave, monitored, progress);
-        return new WaveProfile(wave, scan.rows(), schema, scan.columns());
+                .filter(c -> !c.name().equals(d.waveColumn()) && !d.exclude().contains(c.name())
+                        && !c.name().equals(d.weightColumn())).toList();
+        // Weights are read by the text scanner in the same pass; the binary scanner does not read them yet.
+        WaveScanner.WaveScan scan = d.weightColumn() == null ? scanner.scan(h, source, wave, monitored, progress)
+                : new WaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT, d.weightColumn()).scan(h, source, wave, monitored,
+                progress);
+        return new WaveProfile(wave, scan.rows(), schema, scan.columns(), scan.weights());
     }
 
     /** The stored summary of an earlier wave, read from the source once if it was never stored or lacks columns. */

@@ -17,12 +17,19 @@ import java.util.TreeMap;
  * @param rows    rows in the wave
  * @param schema  column name to storage class, for every column of the source table (not only monitored ones)
  * @param columns tallies of the monitored columns
+ * @param weights with a weight column: per column and value, {sum of weights, sum of squared weights}
  */
-public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns) {
+public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns,
+                          Map<String, Map<String, double[]>> weights) {
 
     public WaveProfile {
         schema = java.util.Collections.unmodifiableMap(new LinkedHashMap<>(schema));
         columns = java.util.Collections.unmodifiableMap(new LinkedHashMap<>(columns));
+        weights = weights == null ? Map.of() : java.util.Collections.unmodifiableMap(new LinkedHashMap<>(weights));
+    }
+
+    public WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns) {
+        this(wave, rows, schema, columns, Map.of());
     }
 
     /**
@@ -37,6 +44,10 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
             for (ColumnTally t : new TreeMap<>(columns).values()) {
                 feed(md, "tally " + t.column() + " " + t.rowCount() + " " + t.nullCount() + " " + t.truncated());
                 new TreeMap<>(t.valueCounts()).forEach((v, c) -> feed(md, v.length() + ":" + v + "=" + c));
+            }
+            for (var w : new TreeMap<>(weights).entrySet()) {
+                new TreeMap<>(w.getValue()).forEach((v, s) -> feed(md, "w " + w.getKey() + " " + v.length() + ":" + v
+                        + "=" + Double.doubleToLongBits(s[0]) + "," + Double.doubleToLongBits(s[1])));
             }
             return HexFormat.of().formatHex(md.digest());
         } catch (NoSuchAlgorithmException e) {

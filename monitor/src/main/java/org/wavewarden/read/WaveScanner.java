@@ -28,29 +28,90 @@ public final class WaveScanner {
     public static final int MAX_VALUE_CHARS = 256;
 
     private final int maxDistinct;
+    private final String weightColumn;
 
     public WaveScanner(int maxDistinct) {
+        this(maxDistinct, null);
+    }
+
+    /**
+     * @param weightColumn a survey weight column read in the same pass; each value's weight sum and sum of squared
+     *                     weights are kept beside its count (for weighted shares and Kish's effective sample size)
+     */
+    public WaveScanner(int maxDistinct, String weightColumn) {
         if (maxDistinct < 1) {
             throw new IllegalArgumentException("maxDistinct must be positive, was " + maxDistinct);
         }
         this.maxDistinct = maxDistinct;
+        this.weightColumn = weightColumn;
     }
 
-    /** The result of one scan: the wave's row count and one tally per requested column. */
-    public record WaveScan(long rows, Map<String, ColumnTally> columns) {
+    /**
+     * The result of one scan: the wave's row count, one tally per requested column and, with a weight column, per
+     * column and value the sum of weights and of squared weights ({@code double[] {sum w, sum w^2}}); rows whose
+     * weight is NULL or not a finite non-negative number count in {@code badWeights} and add no weight.
+     */
+    public record WaveScan(long rows, Map<String, ColumnTally> columns, Map<String, Map<String, double[]>> weights,
+                           long badWeights) {
+
+        public WaveScan(long rows, Map<String, ColumnTally> columns) {
+            this(rows, columns, Map.of(), 0);
+        }
+
+        @Override
+        public boolean equals(Object o) {
+            return o instanceof WaveScan w && rows == w.rows && columns.equals(w.columns) && badWeights == w.badWeights
+                    && WaveScanner.sameWeights(weights, w.weights);
+        }
+
+        @Override
+        public int hashCode() {
+            return java.util.Objects.hash(rows, columns, badWeights);
+        }
+    }
+
+    static boolean sameWeights(Map<String, Map<String, double[]>> a, Map<String, Map<String, double[]>> b) {
+        if (!a.keySet().equals(b.keySet())) {
+            return false;
+        }
+        for (var e : a.entrySet()) {
+            Map<String, double[]> x = e.getValue();
+            Map<String, double[]> y = b.get(e.getKey());
+            if (!x.keySet().equals(y.keySet())) {
+                return false;
+            }
+            for (var v : x.entrySet()) {
+                if (!java.util.Arrays.equals(v.getValue(), y.get(v.getKey()))) {
+                    return false;
+                }
+            }
+        }
+        return true;
     }
 
     public WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, LongConsumer progress) {
-        String sql = copySql(h, source, wave, columns);
+        boolean weighted = weightColumn != null;
+        List<SourceColumn> read = columns;
+        if (weighted) {
+            read = new ArrayList<>(columns);
+            read.add(new SourceColumn(weightColumn, org.wavewarden.profile.ColumnType.DECIMAL, "weight"));
+        }
+        String sql = copySql(h, source, wave, read);
         int k = columns.size();
+        int fieldsPerRow = read.size();
+        List<Map<String, double[]>> weightSums = new ArrayList<>(weighted ? k : 0);
+        long badWeights = 0;
         List<Map<String, long[]>> tallies = new ArrayList<>(k);
         long[] nulls = new long[k];
         boolean[] truncated = new boolean[k];
         for (int i = 0; i < k; i++) {
             tallies.add(new HashMap<>());
+            if (weighted) {
+                weightSums.add(new HashMap<>());
+            }
         }
         long rows = 0;
-        String[] fields = new String[k];
+        String[] fields = new String[fieldsPerRow];
         try {
             Connection c = h.getConnection();
             try (var st = c.createStatement()) {
@@ -60,8 +121,15 @@ public final class WaveScanner {
             byte[] row;
             while ((row = copy.readFromCopy()) != null) {
                 int n = CopyTextRow.split(row, fields);
-                if (n != Math.max(k, 1)) {
-                    throw new IllegalStateException("COPY row had " + n + " fields, expected " + k);
+                if (n != Math.max(fieldsPerRow, 1)) {
+                    throw new IllegalStateException("COPY row had " + n + " fields, expected " + fieldsPerRow);
+                }
+                double w = Double.NaN;
+                if (weighted) {
+                    w = weight(fields[k]);
+                    if (Double.isNaN(w)) {
+                        badWeights++;
+                    }
                 }
                 for (int i = 0; i < k; i++) {
                     String v = fields[i];
@@ -80,6 +148,12 @@ public final class WaveScanner {
                         t.put(v, new long[] {1});
                     } else {
                         truncated[i] = true;
+                        continue;
+                    }
+                    if (weighted && !Double.isNaN(w)) {
+                        double[] ws = weightSums.get(i).computeIfAbsent(v, x -> new double[2]);
+                        ws[0] += w;
+                        ws[1] += w * w;
                     }
                 }
                 rows++;
@@ -97,7 +171,20 @@ public final class WaveScanner {
             SourceColumn col = columns.get(i);
             out.put(col.name(), new ColumnTally(col.name(), col.type(), rows, nulls[i], counts, truncated[i]));
         }
-        return new WaveScan(rows, out);
+        Map<String, Map<String, double[]>> weights = new LinkedHashMap<>();
+        for (int i = 0; weighted && i < k; i++) {
+            weights.put(columns.get(i).name(), weightSums.get(i));
+        }
+        return new WaveScan(rows, out, weights, badWeights);
+    }
+
+    /** A weight as the text form gives it, or NaN when it is NULL, not a number, negative or infinite. */
+    static double weight(String text) {
+        if (text == null || !org.wavewarden.missing.NumberText.isPlainDecimal(text)) {
+            return Double.NaN;
+        }
+        double w = Double.parseDouble(text);
+        return w >= 0 && Double.isFinite(w) ? w : Double.NaN;
     }
 
     /** A long value's stand-in: its first 200 characters, its length and a hash, distinct for distinct values. */

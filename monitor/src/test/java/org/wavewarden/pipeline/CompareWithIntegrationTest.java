@@ -94,6 +94,22 @@ class CompareWithIntegrationTest {
         }
     }
 
+    @Test
+    void aWeightColumnIsKeptOutOfTheComparisonAndItsSumsStoredInTheSummary() {
+        WardenConfig c = ConfigLoader.parse(SmallSurvey.config(url, null).replace("    exclude: [respondent_id]",
+                "    exclude: [respondent_id]\n    weightColumn: satisfied"));
+        try (Session s = Session.open(c, null, Map.of())) {
+            s.migrate();
+            JudgedWave j = new WaveJudge(s, Clock.systemUTC()).judge(c.datasets().get(0), "w2", null, null, null);
+            assertEquals(0, j.report().findings().stream().filter(f -> f.variable().equals("satisfied")).count());
+            var profile = s.store().latestSummary("small-survey", "w2").orElseThrow().profile();
+            double[] north = profile.weights().get("region").get("north");
+            long northCount = profile.columns().get("region").valueCounts().get("north");
+            // satisfied runs 1..5, so the weight sum lies between the count and five times it.
+            assertEquals(true, north[0] >= northCount && north[0] <= 5 * northCount, java.util.Arrays.toString(north));
+        }
+    }
+
     static Finding find(JudgedWave j, String variable) {
         return j.report().findings().stream().filter(f -> f.variable().equals(variable)
                 && f.kind() == FindingKind.REFERENCE).findFirst().orElseThrow(() -> new AssertionError(
