@@ -242,6 +242,22 @@ public final class BinaryWaveScanner {
 
     /** {@code float8out} with shortest-exact output. */
     static String float8Text(double v) {
+        double a = Math.abs(v);
+        return floatText(v, Math.nextDown(a), Math.ulp(a), Double.toString(a), 17, 15);
+    }
+
+    /** {@code float4out} with shortest-exact output; float to double widening is exact, so one routine serves. */
+    static String float4Text(float v) {
+        float a = Math.abs(v);
+        return floatText(v, Math.nextDown(a), Math.ulp(a), Float.toString(a), 9, 6);
+    }
+
+    /**
+     * The shortest decimal strictly between the midpoints to the neighbouring representable values, as PostgreSQL
+     * prints floats; {@code nextDown} and {@code ulp} are of |v| in its own precision.
+     */
+    private static String floatText(double v, double nextDown, double ulp, String javaText, int maxDigits,
+                                    int fixedLimit) {
         if (Double.isNaN(v)) {
             return "NaN";
         }
@@ -251,31 +267,11 @@ public final class BinaryWaveScanner {
         if (v == 0) {
             return 1 / v < 0 ? "-0" : "0";
         }
-        double a = Math.abs(v);
-        BigDecimal exact = new BigDecimal(a);
-        BigDecimal low = exact.add(new BigDecimal(Math.nextDown(a))).multiply(HALF);
-        BigDecimal high = exact.add(new BigDecimal(Math.ulp(a)).multiply(HALF));
-        BigDecimal s = shortest(exact, low, high, digits(Double.toString(a)), 17);
-        return (v < 0 ? "-" : "") + layout(s, 15);
-    }
-
-    /** {@code float4out} with shortest-exact output. */
-    static String float4Text(float v) {
-        if (Float.isNaN(v)) {
-            return "NaN";
-        }
-        if (Float.isInfinite(v)) {
-            return v > 0 ? "Infinity" : "-Infinity";
-        }
-        if (v == 0) {
-            return 1 / v < 0 ? "-0" : "0";
-        }
-        float a = Math.abs(v);
-        BigDecimal exact = new BigDecimal(a);
-        BigDecimal low = exact.add(new BigDecimal(Math.nextDown(a))).multiply(HALF);
-        BigDecimal high = exact.add(new BigDecimal(Math.ulp(a)).multiply(HALF));
-        BigDecimal s = shortest(exact, low, high, digits(Float.toString(a)), 9);
-        return (v < 0 ? "-" : "") + layout(s, 6);
+        BigDecimal exact = new BigDecimal(Math.abs(v));
+        BigDecimal low = exact.add(new BigDecimal(nextDown)).multiply(HALF);
+        BigDecimal high = exact.add(new BigDecimal(ulp).multiply(HALF));
+        BigDecimal s = shortest(exact, low, high, digits(javaText), maxDigits);
+        return (v < 0 ? "-" : "") + layout(s, fixedLimit);
     }
 
     private static final BigDecimal HALF = new BigDecimal("0.5");
