@@ -129,18 +129,12 @@ public final class Bench {
             Target two = new Target(TWO, config.dataset("bench-two"), "2", new StatementCounter(quoted(TWO)));
             Target hist = new Target(HISTORY, config.dataset("bench-history"), h2,
                     new StatementCounter(quoted(HISTORY)));
-            WaveScanner text = new WaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT);
-            BinaryWaveScanner binary = new BinaryWaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT);
-            Map<String, WaveJudge.Scanner> scanners = new LinkedHashMap<>();
-            scanners.put("text", text::scan);
-            scanners.put("binary", binary::scan);
+            WaveJudge.Scanner scanner = new BinaryWaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)::scan;
 
             log.println("warming up: the first checks store the baseline summaries");
             seedHistory(s, hist.dataset(), o.historyWaves());
             for (Target t : List.of(two, hist)) {
-                for (var sc : scanners.entrySet()) {
-                    check(s, t, sc.getValue());
-                }
+                check(s, t, scanner);
             }
             List<String> columns = SyntheticSurvey.columnNames(o.vars());
             Map<String, List<Sample>> samples = new LinkedHashMap<>();
@@ -152,25 +146,14 @@ public final class Bench {
                 add(samples, "listing_two_waves", measure(() -> s.source().withHandle(h ->
                         org.wavewarden.read.WaveListing.list(h, WaveSource.of(two.dataset(), "dataset"),
                                 two.dataset().waveOrder()))));
-                add(samples, "listing_history", measure(() -> s.source().withHandle(h ->
-                        org.wavewarden.read.WaveListing.list(h, WaveSource.of(hist.dataset(), "dataset"),
-                                hist.dataset().waveOrder()))));
-                List<String> order = new ArrayList<>(scanners.keySet());
-                if (r % 2 == 1) {
-                    java.util.Collections.reverse(order);
-                }
-                for (String name : order) {
-                    // The scanner alone on the judged wave: what the read stage costs inside a check.
-                    add(samples, "scan_only_" + name, measure(() -> s.source().withHandle(h ->
-                            profile(h, two.dataset(), WaveSource.of(two.dataset(), "dataset"), "2",
-                                    scanners.get(name)))));
-                }
-                for (String name : order) {
-                    for (Target t : List.of(two, hist)) {
-                        String key = (t == two ? "b_check_" : "c_check_history_") + name;
-                        add(samples, key, measure(() -> check(s, t, scanners.get(name))));
-                        statements.put(key, t.counter().snapshot());
-                    }
+                // The scanner alone on the judged wave: what the read stage costs inside a check.
+                add(samples, "scan_only", measure(() -> s.source().withHandle(h -> WaveJudge.readProfile(h,
+                        two.dataset(), WaveSource.of(two.dataset(), "dataset"), "2", scanner, null))));
+                List<Target> order = r % 2 == 0 ? List.of(two, hist) : List.of(hist, two);
+                for (Target t : order) {
+                    String key = t == two ? "b_check" : "c_check_history";
+                    add(samples, key, measure(() -> check(s, t, scanner)));
+                    statements.put(key, t.counter().snapshot());
                 }
             }
             List<BenchReport.Measurement> ms = new ArrayList<>();
@@ -243,23 +226,12 @@ public final class Bench {
             return;
         }
         WaveSource source = WaveSource.of(d, "dataset");
-        WaveProfile first = s.source().withHandle(h -> profile(h, d, source, "1",
-                new BinaryWaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)::scan));
+        WaveProfile first = s.source().withHandle(h -> WaveJudge.readProfile(h, d, source, "1",
+                new BinaryWaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)::scan, null));
         for (int w = 1; w <= earlierWaves; w++) {
             WaveProfile p = new WaveProfile(Integer.toString(w), first.rows(), first.schema(), first.columns());
             s.store().saveSummary(d.name(), p, p.checksum());
         }
-    }
-
-    private static WaveProfile profile(Handle h, DatasetConfig d, WaveSource source, String wave,
-                                       WaveJudge.Scanner scanner) {
-        List<SourceColumn> all = SourceCatalog.columns(h, source.tableFor(wave));
-        Map<String, ColumnType> schema = new LinkedHashMap<>();
-        all.forEach(c -> schema.put(c.name(), c.type()));
-        List<SourceColumn> monitored = all.stream()
-                .filter(c -> !c.name().equals(d.waveColumn()) && !d.exclude().contains(c.name())).toList();
-        WaveScanner.WaveScan scan = scanner.scan(h, source, wave, monitored, null);
-        return new WaveProfile(wave, scan.rows(), schema, scan.columns());
     }
 
     /** One full check of the target's newer wave, its source statements counted afresh. */

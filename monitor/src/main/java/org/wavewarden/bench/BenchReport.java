@@ -29,19 +29,13 @@ public record BenchReport(Instant generatedAt, Setup setup, List<Measurement> me
         }
     }
 
-    /** Median check time over the median floor time; and text over binary. */
-    public record Ratios(double checkTextOverCountScan, double checkBinaryOverCountScan,
-                         double checkTextOverBinaryCopy, double checkBinaryOverBinaryCopy,
-                         double textOverBinaryCheck, double historyOverTwoWavesText,
-                         double historyOverTwoWavesBinary) {
+    /** Median check time over the median floor times, and a check with 30 earlier waves over one with 2. */
+    public record Ratios(double checkOverCountScan, double checkOverBinaryCopy, double historyOverTwoWaves) {
 
         static Ratios of(List<Measurement> ms) {
-            double a1 = median(ms, "a1_count_scan");
-            double a2 = median(ms, "a2_binary_copy");
-            double bt = median(ms, "b_check_text");
-            double bb = median(ms, "b_check_binary");
-            return new Ratios(bt / a1, bb / a1, bt / a2, bb / a2, bt / bb, median(ms, "c_check_history_text") / bt,
-                    median(ms, "c_check_history_binary") / bb);
+            double b = median(ms, "b_check");
+            return new Ratios(b / median(ms, "a1_count_scan"), b / median(ms, "a2_binary_copy"),
+                    median(ms, "c_check_history") / b);
         }
     }
 
@@ -72,12 +66,9 @@ public record BenchReport(Instant generatedAt, Setup setup, List<Measurement> me
                     m.peakHeapUsedBytes() >> 20, m.peakLiveHeapAfterGcBytes() >> 20);
         }
         Ratios q = r.ratios();
-        out.printf(Locale.ROOT, "check / count scan (b/a1): text %.2f, binary %.2f%n", q.checkTextOverCountScan(),
-                q.checkBinaryOverCountScan());
-        out.printf(Locale.ROOT, "check / binary COPY (b/a2): text %.2f, binary %.2f%n", q.checkTextOverBinaryCopy(),
-                q.checkBinaryOverBinaryCopy());
-        out.printf(Locale.ROOT, "text check / binary check: %.2f; history / two waves: text %.2f, binary %.2f%n",
-                q.textOverBinaryCheck(), q.historyOverTwoWavesText(), q.historyOverTwoWavesBinary());
+        out.printf(Locale.ROOT, "check / count scan (b/a1) %.2f; check / binary COPY (b/a2) %.2f; check with %d earlier"
+                + " waves / with 2 (c) %.2f%n", q.checkOverCountScan(), q.checkOverBinaryCopy(), s.historyWaves() + 2,
+                q.historyOverTwoWaves());
         r.sourceStatementsPerCheck().forEach((k, v) -> out.printf(Locale.ROOT,
                 "%-26s source statements %d (table queries %d, catalog queries %d, COPY %d, other raw %d): %d scans%n",
                 k, v.total(), v.tableQueries(), v.catalogQueries(), v.copies(), v.rawStatements() - v.copies(),

@@ -19,6 +19,7 @@ import org.wavewarden.judge.Verdict;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.ColumnType;
 import org.wavewarden.profile.WaveProfile;
+import org.wavewarden.read.BinaryWaveScanner;
 import org.wavewarden.read.SourceCatalog;
 import org.wavewarden.read.SourceColumn;
 import org.wavewarden.read.WaveInfo;
@@ -52,17 +53,17 @@ public final class WaveJudge {
     public WaveJudge(Session session, Clock clock) {
         this.session = session;
         this.clock = clock;
-        this.scanner = new WaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)::scan;
+        this.scanner = new BinaryWaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)::scan;
     }
 
     /**
-     * Reads one wave's monitored columns into tallies in one pass; {@link WaveScanner#scan} (the default) and
-     * {@link org.wavewarden.read.BinaryWaveScanner#scan} are two, with equal results.
+     * Reads one wave's monitored columns (and the weight column, if any) into tallies in one pass;
+     * {@link BinaryWaveScanner#scan} (the default) and {@link WaveScanner#scan} are two, with equal results.
      */
     @FunctionalInterface
     public interface Scanner {
         WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
-                                  LongConsumer progress);
+                                  SourceColumn weight, LongConsumer progress);
     }
 
     /** Reads waves with the given scanner from now on; returns this judge. */
@@ -120,37 +121,9 @@ public final class WaveJudge {
         WaveProfile baseline = baselines.isEmpty() ? null
                 : baselines.size() == 1 ? baselines.get(0) : WaveProfile.pooled(againstLabel, baselines);
 
-        List<String> inference = new ArrayList<>();
-        List<VariableConfig> variables = variables(d, current, inference);
-        VariableComparator comparator = new VariableComparator(1 - cfg.alpha());
-        List<Comparison> comparisons = new ArrayList<>();
-        List<Finding> plain = new ArrayList<>(schemaFindings(d, baseline, current));
-        for (VariableConfig v : variables) {
-            ColumnTally ct = current.columns().get(v.name());
-            if (ct == null) {
-                continue;
-            }
-            List<Comparison> mine = new ArrayList<>();
-            List<Finding> myPlain = new ArrayList<>();
-            try {
-                judgeVariable(comparator, v, ct, baseline == null ? null : baseline.columns().get(v.name()), mine,
-                        myPlain);
-            } catch (RuntimeException e) {
-                // A value no method foresaw must cost one variable its comparison, never the whole run.
-                LOG.warn("variable {} of {} wave {} could not be compared: {}", v.name(), d.name(), wave, e.toString());
-                mine.clear();
-                myPlain.clear();
-                myPlain.add(Finding.dataQuality(v.name(), FindingKind.SKIPPED, null, null, "Not compared: the"
-                        + " answers could not be analysed (" + e.getClass().getSimpleName() + ": "
-                        + String.valueOf(e.getMessage()).lines().findFirst().orElse("") + ").", null));
-            }
-            comparisons.addAll(mine);
-            plain.addAll(myPlain);
-        }
-        List<Finding> findings = new ArrayList<>(shapeOnlyWhereLocationIsQuiet(onePerVariableAndKind(
-                Judge.judge(comparisons, cfg.alpha(), cfg.fdr()))));
-        findings.addAll(plain);
-        findings = FindingsFiles.ordered(findings);
+        Profiled judged = findings(cfg, d, current, baseline);
+        List<String> inference = judged.inference();
+        List<Finding> findings = judged.findings();
         List<Finding> alerts = Alerts.select(findings);
         Instant finished = clock.instant();
         FindingsReport report = new FindingsReport(d.name(), wave, againstLabel, finished, cfg.alpha(),
@@ -166,7 +139,76 @@ public final class WaveJudge {
         return new JudgedWave(report, runId, alerts);
     }
 
-    private void judgeVariable(VariableComparator comparator, VariableConfig v, ColumnTally ct, ColumnTally bt,
+    /** The findings of a wave and the notes on variables whose kind was inferred, in report order. */
+    public record Profiled(List<Finding> findings, List<String> inference) {
+    }
+
+    /**
+     * Everything a check concludes from two wave summaries, without the database: screening, comparisons, the
+     * false-discovery-rate control and the verdicts. {@code baseline} is null for a first wave.
+     */
+    public static Profiled findings(WardenConfig cfg, DatasetConfig d, WaveProfile current, WaveProfile baseline) {
+        List<String> inference = new ArrayList<>();
+        List<VariableConfig> variables = variables(d, current, inference);
+        VariableComparator comparator = new VariableComparator(1 - cfg.alpha());
+        List<Comparison> comparisons = new ArrayList<>();
+        List<Finding> plain = new ArrayList<>(schemaFindings(d, baseline, current));
+        Map<String, Double> summarised = new LinkedHashMap<>();
+        for (VariableConfig v : variables) {
+            ColumnTally ct = current.columns().get(v.name());
+            if (ct == null) {
+                continue;
+            }
+            ColumnTally bt0 = baseline == null ? null : baseline.columns().get(v.name());
+            double error = Math.max(ct.binning().relativeError(), bt0 == null ? 0 : bt0.binning().relativeError());
+            if (error > 0) {
+                summarised.put(v.name(), error);
+            }
+            List<Comparison> mine = new ArrayList<>();
+            List<Finding> myPlain = new ArrayList<>();
+            try {
+                judgeVariable(comparator, v, ct, baseline == null ? null : baseline.columns().get(v.name()), mine,
+                        myPlain);
+            } catch (RuntimeException e) {
+                // A value no method foresaw must cost one variable its comparison, never the whole run.
+                LOG.warn("variable {} of {} wave {} could not be compared: {}", v.name(), d.name(), current.wave(), e.toString());
+                mine.clear();
+                myPlain.clear();
+                myPlain.add(Finding.dataQuality(v.name(), FindingKind.SKIPPED, null, null, "Not compared: the"
+                        + " answers could not be analysed (" + e.getClass().getSimpleName() + ": "
+                        + String.valueOf(e.getMessage()).lines().findFirst().orElse("") + ").", null));
+            }
+            comparisons.addAll(mine);
+            plain.addAll(myPlain);
+        }
+        List<Finding> findings = new ArrayList<>(withSummaryError(shapeOnlyWhereLocationIsQuiet(
+                onePerVariableAndKind(Judge.judge(comparisons, cfg.alpha(), cfg.fdr()))), summarised));
+        findings.addAll(plain);
+        return new Profiled(FindingsFiles.ordered(findings), inference);
+    }
+
+    /**
+     * Says in each comparison of a summarised variable how far its numbers can be from the data: the bound holds
+     * for every value, so for means, quantiles and shifts too (relative to their size).
+     */
+    static List<Finding> withSummaryError(List<Finding> findings, Map<String, Double> relativeError) {
+        List<Finding> out = new ArrayList<>(findings.size());
+        for (Finding f : findings) {
+            Double e = relativeError.get(f.variable());
+            if (e == null || f.kind().isDataQuality()) {
+                out.add(f);
+                continue;
+            }
+            String note = String.format(java.util.Locale.ROOT, " This variable has more distinct values than are"
+                    + " counted exactly, so its values were summarised in bins: each stands within %.2g%% of its"
+                    + " value, and so do the means, quantiles and shifts above.", 100 * e);
+            out.add(new Finding(f.variable(), f.kind(), f.test(), f.statistic(), f.pValue(), f.qValue(), f.effect(),
+                    f.verdict(), f.nBaseline(), f.nCurrent(), f.sentence() + note, f.detail()));
+        }
+        return out;
+    }
+
+    private static void judgeVariable(VariableComparator comparator, VariableConfig v, ColumnTally ct, ColumnTally bt,
                                List<Comparison> comparisons, List<Finding> plain) {
         ScreenedVariable sc = VariableScreen.screen(ct, v);
         ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v);
@@ -237,7 +279,7 @@ public final class WaveJudge {
                 || location.get(f.variable()) == Verdict.UNCERTAIN))).toList();
     }
 
-    private Optional<Comparison> compare(VariableComparator comparator, VariableConfig v, ScreenedVariable b,
+    private static Optional<Comparison> compare(VariableComparator comparator, VariableConfig v, ScreenedVariable b,
                                          ScreenedVariable c, ColumnTally ct, ColumnTally bt) {
         if (skipReason(v, b, c, ct, bt) != null) {
             return Optional.empty();
@@ -294,16 +336,20 @@ public final class WaveJudge {
     }
 
     private WaveProfile profile(Handle h, DatasetConfig d, WaveSource source, String wave, LongConsumer progress) {
+        return readProfile(h, d, source, wave, scanner, progress);
+    }
+
+    /** One wave's summary: the table's columns from the catalog, the monitored ones read in one pass. */
+    public static WaveProfile readProfile(Handle h, DatasetConfig d, WaveSource source, String wave, Scanner scanner,
+                                          LongConsumer progress) {
         List<SourceColumn> all = SourceCatalog.columns(h, source.tableFor(wave));
         Map<String, ColumnType> schema = new LinkedHashMap<>();
         all.forEach(c -> schema.put(c.name(), c.type()));
         List<SourceColumn> monitored = all.stream()
                 .filter(c -> !c.name().equals(d.waveColumn()) && !d.exclude().contains(c.name())
                         && !c.name().equals(d.weightColumn())).toList();
-        // Weights are read by the text scanner in the same pass; the binary scanner does not read them yet.
-        WaveScanner.WaveScan scan = d.weightColumn() == null ? scanner.scan(h, source, wave, monitored, progress)
-                : new WaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT, d.weightColumn()).scan(h, source, wave, monitored,
-                progress);
+        SourceColumn weight = all.stream().filter(c -> c.name().equals(d.weightColumn())).findFirst().orElse(null);
+        WaveScanner.WaveScan scan = scanner.scan(h, source, wave, monitored, weight, progress);
         return new WaveProfile(wave, scan.rows(), schema, scan.columns(), scan.weights());
     }
 

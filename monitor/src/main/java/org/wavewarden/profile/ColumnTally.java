@@ -9,23 +9,34 @@ import java.util.Map;
  *
  * <p>The read stage builds one per monitored column in a single pass over the wave; the missing-in-disguise
  * detectors and the typed distributions ({@link NumericDistribution}, {@link CategoryCounts}) are derived from it.
+ * A numeric column with more distinct values than the reader keeps exactly is summarised instead
+ * ({@link RelativeBins}): code-like numbers stay exact, every other value is replaced by its bin's stand-in, and
+ * {@code binning} says how far a stand-in can be from the values it replaces.
  *
  * @param column      the source column name
  * @param type        the column's storage class
  * @param rowCount    rows in the wave
  * @param nullCount   rows where the column is SQL NULL
  * @param valueCounts distinct non-null values (text form, untrimmed) to counts; iteration order is not meaningful
- * @param truncated   true when the column had more distinct values than the reader keeps; then valueCounts holds
- *                    only the values seen before the cap and {@code rowCount - nullCount} exceeds their sum
+ * @param truncated   true when a non-numeric column had more distinct values than the reader keeps; then
+ *                    valueCounts holds only the values seen before the cap and {@code rowCount - nullCount} exceeds
+ *                    their sum
+ * @param binning     {@link Binning#EXACT}, or the relative bins numeric values were summarised in
  */
 public record ColumnTally(String column, ColumnType type, long rowCount, long nullCount,
-                          Map<String, Long> valueCounts, boolean truncated) {
+                          Map<String, Long> valueCounts, boolean truncated, Binning binning) {
 
     public ColumnTally {
         if (nullCount < 0 || nullCount > rowCount) {
             throw new IllegalArgumentException("nullCount " + nullCount + " outside [0, rowCount=" + rowCount + "]");
         }
         valueCounts = Collections.unmodifiableMap(new LinkedHashMap<>(valueCounts));
+        binning = binning == null ? Binning.EXACT : binning; // summaries stored before binning existed were exact
+    }
+
+    public ColumnTally(String column, ColumnType type, long rowCount, long nullCount, Map<String, Long> valueCounts,
+                       boolean truncated) {
+        this(column, type, rowCount, nullCount, valueCounts, truncated, Binning.EXACT);
     }
 
     /** Rows with a non-null value. */
@@ -35,5 +46,10 @@ public record ColumnTally(String column, ColumnType type, long rowCount, long nu
 
     public int distinctCount() {
         return valueCounts.size();
+    }
+
+    /** The same tally with other value counts (and the row count adjusted by the caller), same binning. */
+    public ColumnTally withValues(long rows, Map<String, Long> values) {
+        return new ColumnTally(column, type, rows, nullCount, values, truncated, binning);
     }
 }

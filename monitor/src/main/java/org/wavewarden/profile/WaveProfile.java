@@ -42,8 +42,13 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
             feed(md, "rows=" + rows);
             new TreeMap<>(schema).forEach((k, v) -> feed(md, "col " + k + " " + v));
             for (ColumnTally t : new TreeMap<>(columns).values()) {
-                feed(md, "tally " + t.column() + " " + t.rowCount() + " " + t.nullCount() + " " + t.truncated());
-                new TreeMap<>(t.valueCounts()).forEach((v, c) -> feed(md, v.length() + ":" + v + "=" + c));
+                feed(md, "tally " + t.column() + " " + t.rowCount() + " " + t.nullCount() + " " + t.truncated()
+                        + (t.binning().isExact() ? "" : " bins " + t.binning().level()));
+                String[] values = t.valueCounts().keySet().toArray(new String[0]);
+                java.util.Arrays.sort(values);
+                for (String v : values) {
+                    feed(md, v.length() + ":" + v + "=" + t.valueCounts().get(v));
+                }
             }
             for (var w : new TreeMap<>(weights).entrySet()) {
                 new TreeMap<>(w.getValue()).forEach((v, s) -> feed(md, "w " + w.getKey() + " " + v.length() + ":" + v
@@ -77,13 +82,27 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
                 if (prev == null) {
                     columns.put(t.column(), t);
                 } else {
-                    Map<String, Long> merged = new java.util.HashMap<>(prev.valueCounts());
-                    t.valueCounts().forEach((v, c) -> merged.merge(v, c, Long::sum));
-                    columns.put(t.column(), new ColumnTally(t.column(), t.type(), prev.rowCount() + t.rowCount(),
-                            prev.nullCount() + t.nullCount(), merged, prev.truncated() || t.truncated()));
+                    columns.put(t.column(), pooled(prev, t));
                 }
             }
         }
         return new WaveProfile(label, rows, schema, columns);
+    }
+
+    /** Two waves' tallies of one column as one; summarised tallies pool in the coarser binning of the two. */
+    static ColumnTally pooled(ColumnTally a, ColumnTally b) {
+        Map<String, Long> merged;
+        Binning binning = a.binning().coarser(b.binning());
+        if (binning.isExact()) {
+            merged = new java.util.HashMap<>(a.valueCounts());
+            b.valueCounts().forEach((v, c) -> merged.merge(v, c, Long::sum));
+        } else {
+            RelativeBins bins = RelativeBins.of(binning.level(), false, a.valueCounts(), null);
+            b.valueCounts().forEach((v, c) -> bins.add(Double.parseDouble(v.strip()), c, 0, 0));
+            merged = bins.counts();
+            binning = bins.binning();
+        }
+        return new ColumnTally(a.column(), b.type(), a.rowCount() + b.rowCount(), a.nullCount() + b.nullCount(),
+                merged, a.truncated() || b.truncated(), binning);
     }
 }

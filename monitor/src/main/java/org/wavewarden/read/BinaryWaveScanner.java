@@ -4,7 +4,9 @@ import org.jdbi.v3.core.Handle;
 import org.postgresql.PGConnection;
 import org.postgresql.copy.CopyOut;
 import org.wavewarden.config.Identifiers;
+import org.wavewarden.profile.Binning;
 import org.wavewarden.profile.ColumnTally;
+import org.wavewarden.profile.RelativeBins;
 
 import java.math.BigDecimal;
 import java.math.MathContext;
@@ -44,12 +46,24 @@ import java.util.function.LongConsumer;
 public final class BinaryWaveScanner {
 
     private final int maxDistinct;
+    private final int exactNumbers;
 
     public BinaryWaveScanner(int maxDistinct) {
-        if (maxDistinct < 1) {
-            throw new IllegalArgumentException("maxDistinct must be positive, was " + maxDistinct);
+        this(maxDistinct, WaveScanner.DEFAULT_EXACT_NUMBERS);
+    }
+
+    /**
+     * @param maxDistinct  distinct values kept per non-numeric column; beyond it the tally is marked truncated
+     * @param exactNumbers distinct values a numeric column is counted exactly up to; beyond it the column is
+     *                     summarised in {@link RelativeBins}
+     */
+    public BinaryWaveScanner(int maxDistinct, int exactNumbers) {
+        if (maxDistinct < 1 || exactNumbers < 1) {
+            throw new IllegalArgumentException("maxDistinct and exactNumbers must be positive, were " + maxDistinct
+                    + " and " + exactNumbers);
         }
         this.maxDistinct = maxDistinct;
+        this.exactNumbers = exactNumbers;
     }
 
     /** How a column travels in the binary stream and is tallied. */
@@ -74,27 +88,52 @@ public final class BinaryWaveScanner {
         boolean bytesKeyed() {
             return this == NUMERIC || this == TEXT || this == OUTPUT_TEXT;
         }
+
+        boolean isNumber() {
+            return this == INT2 || this == INT4 || this == INT8 || this == FLOAT4 || this == FLOAT8 || this == NUMERIC;
+        }
     }
 
-    /** Same contract as {@link WaveScanner#scan}: the wave's row count and one tally per requested column. */
+    /** {@link #scan(Handle, WaveSource, String, List, SourceColumn, LongConsumer)} without a weight column. */
     public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
                                      LongConsumer progress) {
+        return scan(h, source, wave, columns, null, progress);
+    }
+
+    /**
+     * Same contract as {@link WaveScanner#scan}: the wave's row count, one tally per requested column and, with a
+     * weight column, each value's sum of weights and of squared weights.
+     */
+    public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
+                                     SourceColumn weight, LongConsumer progress) {
         int k = columns.size();
-        Decode[] decode = new Decode[k];
+        int first = weight == null ? 0 : 1; // the weight travels first, so every cell of a row knows it
+        List<SourceColumn> read = new java.util.ArrayList<>(k + first);
+        if (weight != null) {
+            read.add(weight);
+        }
+        read.addAll(columns);
+        Decode[] all = new Decode[read.size()];
+        for (int i = 0; i < read.size(); i++) {
+            all[i] = Decode.of(read.get(i).postgresType());
+        }
+        Decode weightDecode = weight == null ? null : all[0];
+        Decode[] decode = Arrays.copyOfRange(all, first, all.length);
         LongTally[] longs = new LongTally[k];
         BytesTally[] bytes = new BytesTally[k];
+        RelativeBins[] bins = new RelativeBins[k];
         for (int i = 0; i < k; i++) {
-            decode[i] = Decode.of(columns.get(i).postgresType());
             if (decode[i].bytesKeyed()) {
-                bytes[i] = new BytesTally();
+                bytes[i] = new BytesTally(weight != null);
             } else {
-                longs[i] = new LongTally();
+                longs[i] = new LongTally(weight != null);
             }
         }
         long[] nulls = new long[k];
         boolean[] truncated = new boolean[k];
         long rows = 0;
-        String sql = copySql(source, wave, columns, decode);
+        long badWeights = 0;
+        String sql = copySql(source, wave, read, all);
         CopyOut copy = null;
         boolean finished = false;
         try {
@@ -105,16 +144,28 @@ public final class BinaryWaveScanner {
             copy = c.unwrap(PGConnection.class).getCopyAPI().copyOut(sql);
             BinaryStream in = new BinaryStream(copy);
             in.header();
-            int expected = Math.max(k, 1);
+            int expected = Math.max(k + first, 1);
             while (true) {
                 int fields = in.int16();
                 if (fields == -1) {
                     break;
                 }
                 if (fields != expected) {
-                    throw new IllegalStateException("COPY row had " + fields + " fields, expected " + k);
+                    throw new IllegalStateException("COPY row had " + fields + " fields, expected " + expected);
                 }
-                for (int i = 0; i < fields; i++) {
+                double w = Double.NaN;
+                if (weight != null) {
+                    int len = in.int32();
+                    if (len >= 0) {
+                        in.need(len);
+                        w = weightValue(weightDecode, in.buf, in.pos, len);
+                        in.pos += len;
+                    }
+                    if (Double.isNaN(w)) {
+                        badWeights++;
+                    }
+                }
+                for (int i = 0; i < fields - first; i++) {
                     int len = in.int32();
                     if (i >= k) { // the placeholder column of a scan without columns
                         in.skip(Math.max(len, 0));
@@ -127,17 +178,30 @@ public final class BinaryWaveScanner {
                     in.need(len);
                     byte[] b = in.buf;
                     int p = in.pos;
+                    if (bins[i] != null) {
+                        bins[i].add(number(decode[i], b, p, len), w);
+                        in.pos += len;
+                        continue;
+                    }
                     boolean kept = switch (decode[i]) {
-                        case INT2 -> longs[i].add((short) (((b[p] & 0xFF) << 8) | (b[p + 1] & 0xFF)), maxDistinct);
-                        case INT4, FLOAT4, DATE -> longs[i].add(int32(b, p), maxDistinct);
-                        case INT8, FLOAT8 -> longs[i].add(int64(b, p), maxDistinct);
-                        case BOOL -> longs[i].add(b[p] != 0 ? 1 : 0, maxDistinct);
-                        case NUMERIC -> bytes[i].add(b, p, len, maxDistinct);
+                        case INT2 -> longs[i].add((short) (((b[p] & 0xFF) << 8) | (b[p + 1] & 0xFF)), exactNumbers, w);
+                        case INT4, FLOAT4 -> longs[i].add(int32(b, p), exactNumbers, w);
+                        case DATE -> longs[i].add(int32(b, p), maxDistinct, w);
+                        case INT8, FLOAT8 -> longs[i].add(int64(b, p), exactNumbers, w);
+                        case BOOL -> longs[i].add(b[p] != 0 ? 1 : 0, maxDistinct, w);
+                        case NUMERIC -> bytes[i].add(b, p, len, exactNumbers, w);
                         case TEXT, OUTPUT_TEXT -> len > WaveScanner.MAX_VALUE_CHARS
-                                ? addLongText(bytes[i], b, p, len) : bytes[i].add(b, p, len, maxDistinct);
+                                ? addLongText(bytes[i], b, p, len, w) : bytes[i].add(b, p, len, maxDistinct, w);
                     };
                     if (!kept) {
-                        truncated[i] = true;
+                        if (decode[i].isNumber()) {
+                            bins[i] = summarise(decode[i], longs[i], bytes[i]);
+                            longs[i] = null;
+                            bytes[i] = null;
+                            bins[i].add(number(decode[i], b, p, len), w);
+                        } else {
+                            truncated[i] = true;
+                        }
                     }
                     in.pos += len;
                 }
@@ -162,24 +226,129 @@ public final class BinaryWaveScanner {
             }
         }
         Map<String, ColumnTally> out = new LinkedHashMap<>();
+        Map<String, Map<String, double[]>> weights = new LinkedHashMap<>();
         for (int i = 0; i < k; i++) {
             SourceColumn col = columns.get(i);
-            Map<String, Long> counts = decode[i].bytesKeyed() ? bytes[i].texts(decode[i]) : longs[i].texts(decode[i]);
+            Map<String, Long> counts;
+            Binning binning = Binning.EXACT;
+            if (bins[i] != null) {
+                counts = bins[i].counts();
+                binning = bins[i].binning();
+                if (weight != null) {
+                    weights.put(col.name(), bins[i].weights());
+                }
+            } else if (decode[i].bytesKeyed()) {
+                counts = bytes[i].texts(decode[i]);
+                if (weight != null) {
+                    weights.put(col.name(), bytes[i].weightTexts(decode[i]));
+                }
+            } else {
+                counts = longs[i].texts(decode[i]);
+                if (weight != null) {
+                    weights.put(col.name(), longs[i].weightTexts(decode[i]));
+                }
+            }
             longs[i] = null; // each column's table can go as soon as its text form exists
             bytes[i] = null;
-            out.put(col.name(), new ColumnTally(col.name(), col.type(), rows, nulls[i], counts, truncated[i]));
+            bins[i] = null;
+            out.put(col.name(), new ColumnTally(col.name(), col.type(), rows, nulls[i], counts, truncated[i], binning));
         }
-        return new WaveScanner.WaveScan(rows, out);
+        return new WaveScanner.WaveScan(rows, out, weights, badWeights);
+    }
+
+    /** Moves a numeric column's exact counts into relative bins, when it has more distinct values than kept. */
+    private static RelativeBins summarise(Decode d, LongTally longs, BytesTally bytes) {
+        RelativeBins bins = new RelativeBins(RelativeBins.DEFAULT_MAX_BINS, 0, d == Decode.FLOAT4);
+        if (longs != null) {
+            longs.forEach((key, count, w, w2) -> bins.add(number(d, key), count, w, w2));
+        } else {
+            bytes.forEach((b, p, len, count, w, w2) -> bins.add(number(d, b, p, len), count, w, w2));
+        }
+        return bins;
+    }
+
+    /** A numeric cell's value, as the server's text form would read back in Java (float4 widened exactly). */
+    static double number(Decode d, byte[] b, int p, int len) {
+        return switch (d) {
+            case INT2 -> (short) int16(b, p);
+            case INT4 -> int32(b, p);
+            case INT8 -> int64(b, p);
+            case FLOAT4 -> Float.intBitsToFloat(int32(b, p));
+            case FLOAT8 -> Double.longBitsToDouble(int64(b, p));
+            case NUMERIC -> numericValue(b, p, len);
+            default -> throw new IllegalArgumentException("decode " + d + " is not a number");
+        };
+    }
+
+    private static double number(Decode d, long key) {
+        return switch (d) {
+            case INT2, INT4, INT8 -> key;
+            case FLOAT4 -> Float.intBitsToFloat((int) key);
+            case FLOAT8 -> Double.longBitsToDouble(key);
+            default -> throw new IllegalArgumentException("decode " + d + " is not keyed by a number");
+        };
+    }
+
+    /**
+     * A binary numeric as the nearest double: exact digits up to 2^53 scaled by a power of ten of at most 22 are
+     * one correctly rounded operation (Clinger 1990, "How to read floating point numbers accurately", PLDI);
+     * anything else goes through the text form.
+     */
+    static double numericValue(byte[] b, int p, int len) {
+        int ndigits = int16(b, p);
+        int weight = (short) int16(b, p + 2);
+        int sign = int16(b, p + 4);
+        if (sign == 0xC000 || sign == 0xD000 || sign == 0xF000 || ndigits > 4) {
+            return Double.parseDouble(numericText(b, p, len));
+        }
+        long u = 0;
+        for (int i = 0; i < ndigits; i++) {
+            u = u * 10000 + int16(b, p + 8 + 2 * i);
+        }
+        int exp10 = 4 * (weight - ndigits + 1);
+        double x;
+        if (ndigits == 0) {
+            x = 0;
+        } else if (exp10 >= 0 && exp10 <= 22 && u < (1L << 53)) {
+            x = u * POW10[exp10];
+            if (x >= 0x1p53) {
+                return Double.parseDouble(numericText(b, p, len));
+            }
+        } else if (exp10 < 0 && exp10 >= -22 && u < (1L << 53)) {
+            x = u / POW10[-exp10];
+        } else {
+            return Double.parseDouble(numericText(b, p, len));
+        }
+        return sign == 0x4000 ? -x : x;
+    }
+
+    private static final double[] POW10 = new double[23];
+
+    static {
+        double v = 1;
+        for (int i = 0; i < POW10.length; i++) {
+            POW10[i] = v;
+            v *= 10;
+        }
+    }
+
+    /** A weight cell, or NaN when it is not a finite non-negative number (as {@link WaveScanner#weight}). */
+    static double weightValue(Decode d, byte[] b, int p, int len) {
+        double w = switch (d) {
+            case INT2, INT4, INT8, FLOAT4, FLOAT8, NUMERIC -> number(d, b, p, len);
+            default -> WaveScanner.weight(new String(b, p, len, StandardCharsets.UTF_8));
+        };
+        return w >= 0 && Double.isFinite(w) ? w : Double.NaN;
     }
 
     /** A cell that may be longer than the text scanner keeps: its stand-in is tallied, as the text scanner does. */
-    private boolean addLongText(BytesTally t, byte[] b, int p, int len) {
+    private boolean addLongText(BytesTally t, byte[] b, int p, int len, double w) {
         String v = new String(b, p, len, StandardCharsets.UTF_8);
         if (v.length() <= WaveScanner.MAX_VALUE_CHARS) {
-            return t.add(b, p, len, maxDistinct);
+            return t.add(b, p, len, maxDistinct, w);
         }
         byte[] s = WaveScanner.shortened(v).getBytes(StandardCharsets.UTF_8);
-        return t.add(s, 0, s.length, maxDistinct);
+        return t.add(s, 0, s.length, maxDistinct, w);
     }
 
     static String copySql(WaveSource source, String wave, List<SourceColumn> columns, Decode[] decode) {
@@ -446,19 +615,34 @@ public final class BinaryWaveScanner {
 
     // ---- tallies without an object per cell ----------------------------------------------------------------------
 
-    /** Counts per distinct 64-bit key, open addressing with linear probing; a count of zero marks an empty slot. */
+    /**
+     * Counts per distinct 64-bit key, open addressing with linear probing; a count of zero marks an empty slot.
+     * With weights, each slot also sums its cells' weights and squared weights.
+     */
     static final class LongTally {
+        private final boolean weighted;
         private long[] keys = new long[64];
         private long[] counts = new long[64];
+        private double[] wsum;
+        private double[] wsq;
         private int size;
 
-        /** Counts one cell; false when the value is new and the table already holds {@code max} values. */
-        boolean add(long key, int max) {
+        LongTally(boolean weighted) {
+            this.weighted = weighted;
+            if (weighted) {
+                wsum = new double[64];
+                wsq = new double[64];
+            }
+        }
+
+        /** Counts one cell of weight w (NaN: none); false when the value is new and {@code max} are held. */
+        boolean add(long key, int max, double w) {
             int mask = keys.length - 1;
             int i = mix(key) & mask;
             while (counts[i] != 0) {
                 if (keys[i] == key) {
                     counts[i]++;
+                    weigh(i, w);
                     return true;
                 }
                 i = (i + 1) & mask;
@@ -468,10 +652,18 @@ public final class BinaryWaveScanner {
             }
             keys[i] = key;
             counts[i] = 1;
+            weigh(i, w);
             if (++size * 2 > keys.length) {
                 grow();
             }
             return true;
+        }
+
+        private void weigh(int i, double w) {
+            if (weighted && !Double.isNaN(w)) {
+                wsum[i] += w;
+                wsq[i] += w * w;
+            }
         }
 
         int size() {
@@ -486,8 +678,14 @@ public final class BinaryWaveScanner {
         private void grow() {
             long[] ok = keys;
             long[] oc = counts;
+            double[] ow = wsum;
+            double[] ow2 = wsq;
             keys = new long[ok.length * 2];
             counts = new long[ok.length * 2];
+            if (weighted) {
+                wsum = new double[ok.length * 2];
+                wsq = new double[ok.length * 2];
+            }
             int mask = keys.length - 1;
             for (int j = 0; j < ok.length; j++) {
                 if (oc[j] != 0) {
@@ -497,33 +695,68 @@ public final class BinaryWaveScanner {
                     }
                     keys[i] = ok[j];
                     counts[i] = oc[j];
+                    if (weighted) {
+                        wsum[i] = ow[j];
+                        wsq[i] = ow2[j];
+                    }
+                }
+            }
+        }
+
+        interface Slot {
+            void accept(long key, long count, double sumW, double sumW2);
+        }
+
+        void forEach(Slot s) {
+            for (int j = 0; j < keys.length; j++) {
+                if (counts[j] != 0) {
+                    s.accept(keys[j], counts[j], weighted ? wsum[j] : 0, weighted ? wsq[j] : 0);
                 }
             }
         }
 
         Map<String, Long> texts(Decode d) {
             Map<String, Long> out = merged(size);
-            for (int j = 0; j < keys.length; j++) {
-                if (counts[j] != 0) {
-                    out.merge(keep(text(d, keys[j])), counts[j], Long::sum);
-                }
-            }
+            forEach((key, count, w, w2) -> out.merge(keep(text(d, key)), count, Long::sum));
+            return out;
+        }
+
+        Map<String, double[]> weightTexts(Decode d) {
+            Map<String, double[]> out = new HashMap<>(Math.max(16, size * 2));
+            forEach((key, count, w, w2) -> addWeights(out, keep(text(d, key)), w, w2));
             return out;
         }
     }
 
+    private static void addWeights(Map<String, double[]> out, String text, double w, double w2) {
+        double[] cell = out.computeIfAbsent(text, x -> new double[2]);
+        cell[0] += w;
+        cell[1] += w2;
+    }
+
     /** Counts per distinct byte string: the bytes live once in an arena, slots hold entry numbers. */
     static final class BytesTally {
+        private final boolean weighted;
         private byte[] arena = new byte[1024];
         private int used;
         private int[] offset = new int[32];
         private int[] length = new int[32];
         private int[] hash = new int[32];
         private long[] count = new long[32];
+        private double[] wsum;
+        private double[] wsq;
         private int size;
         private int[] slots = new int[64]; // entry number + 1; 0 is empty
 
-        boolean add(byte[] b, int p, int len, int max) {
+        BytesTally(boolean weighted) {
+            this.weighted = weighted;
+            if (weighted) {
+                wsum = new double[32];
+                wsq = new double[32];
+            }
+        }
+
+        boolean add(byte[] b, int p, int len, int max, double w) {
             int h = hash(b, p, len);
             int mask = slots.length - 1;
             int i = h & mask;
@@ -533,6 +766,7 @@ public final class BinaryWaveScanner {
                 if (hash[e] == h && length[e] == len
                         && Arrays.equals(arena, offset[e], offset[e] + len, b, p, p + len)) {
                     count[e]++;
+                    weigh(e, w);
                     return true;
                 }
                 i = (i + 1) & mask;
@@ -546,6 +780,10 @@ public final class BinaryWaveScanner {
                 length = Arrays.copyOf(length, n);
                 hash = Arrays.copyOf(hash, n);
                 count = Arrays.copyOf(count, n);
+                if (weighted) {
+                    wsum = Arrays.copyOf(wsum, n);
+                    wsq = Arrays.copyOf(wsq, n);
+                }
             }
             if (used + len > arena.length) {
                 arena = Arrays.copyOf(arena, Math.max(arena.length * 2, used + len));
@@ -555,12 +793,20 @@ public final class BinaryWaveScanner {
             length[size] = len;
             hash[size] = h;
             count[size] = 1;
+            weigh(size, w);
             used += len;
             slots[i] = ++size;
             if (size * 2 > slots.length) {
                 rehash();
             }
             return true;
+        }
+
+        private void weigh(int e, double w) {
+            if (weighted && !Double.isNaN(w)) {
+                wsum[e] += w;
+                wsq[e] += w * w;
+            }
         }
 
         int size() {
@@ -587,12 +833,33 @@ public final class BinaryWaveScanner {
             }
         }
 
+        interface Entry {
+            void accept(byte[] arena, int offset, int length, long count, double sumW, double sumW2);
+        }
+
+        void forEach(Entry x) {
+            for (int e = 0; e < size; e++) {
+                x.accept(arena, offset[e], length[e], count[e], weighted ? wsum[e] : 0, weighted ? wsq[e] : 0);
+            }
+        }
+
+        private String text(Decode d, int e) {
+            return d == Decode.NUMERIC ? keep(numericText(arena, offset[e], length[e]))
+                    : new String(arena, offset[e], length[e], StandardCharsets.UTF_8);
+        }
+
         Map<String, Long> texts(Decode d) {
             Map<String, Long> out = merged(size);
             for (int e = 0; e < size; e++) {
-                String v = d == Decode.NUMERIC ? keep(numericText(arena, offset[e], length[e]))
-                        : new String(arena, offset[e], length[e], StandardCharsets.UTF_8);
-                out.merge(v, count[e], Long::sum);
+                out.merge(text(d, e), count[e], Long::sum);
+            }
+            return out;
+        }
+
+        Map<String, double[]> weightTexts(Decode d) {
+            Map<String, double[]> out = new HashMap<>(Math.max(16, size * 2));
+            for (int e = 0; e < size; e++) {
+                addWeights(out, text(d, e), wsum[e], wsq[e]);
             }
             return out;
         }

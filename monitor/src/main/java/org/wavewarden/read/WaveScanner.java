@@ -5,6 +5,7 @@ import org.postgresql.PGConnection;
 import org.postgresql.copy.CopyOut;
 import org.wavewarden.config.Identifiers;
 import org.wavewarden.profile.ColumnTally;
+import org.wavewarden.profile.RelativeBins;
 
 import java.sql.Connection;
 import java.sql.SQLException;
@@ -21,29 +22,38 @@ import java.util.function.LongConsumer;
  */
 public final class WaveScanner {
 
-    /** Default cap on distinct values kept per column; beyond it the tally is marked truncated. */
+    /** Default cap on distinct values kept per non-numeric column; beyond it the tally is marked truncated. */
     public static final int DEFAULT_MAX_DISTINCT = 100_000;
+
+    /**
+     * Default number of distinct values a numeric column is counted exactly up to; beyond it the column is
+     * summarised in {@link RelativeBins}. Ten thousand distinct values hold any coded answer, age, scale or
+     * rounded amount exactly; what has more is a measurement or an amount to the cent, where 0.05% is finer than
+     * any shift worth reporting.
+     */
+    public static final int DEFAULT_EXACT_NUMBERS = 10_000;
 
     /** Longer values are kept as a prefix plus length and hash, so a free-text essay cannot bloat a summary. */
     public static final int MAX_VALUE_CHARS = 256;
 
     private final int maxDistinct;
-    private final String weightColumn;
+    private final int exactNumbers;
 
     public WaveScanner(int maxDistinct) {
-        this(maxDistinct, null);
+        this(maxDistinct, DEFAULT_EXACT_NUMBERS);
     }
 
     /**
-     * @param weightColumn a survey weight column read in the same pass; each value's weight sum and sum of squared
-     *                     weights are kept beside its count (for weighted shares and Kish's effective sample size)
+     * @param maxDistinct  distinct values kept per non-numeric column
+     * @param exactNumbers distinct values a numeric column is counted exactly up to
      */
-    public WaveScanner(int maxDistinct, String weightColumn) {
-        if (maxDistinct < 1) {
-            throw new IllegalArgumentException("maxDistinct must be positive, was " + maxDistinct);
+    public WaveScanner(int maxDistinct, int exactNumbers) {
+        if (maxDistinct < 1 || exactNumbers < 1) {
+            throw new IllegalArgumentException("maxDistinct and exactNumbers must be positive, were " + maxDistinct
+                    + " and " + exactNumbers);
         }
         this.maxDistinct = maxDistinct;
-        this.weightColumn = weightColumn;
+        this.exactNumbers = exactNumbers;
     }
 
     /**
@@ -89,12 +99,24 @@ public final class WaveScanner {
         return true;
     }
 
+    /** {@link #scan(Handle, WaveSource, String, List, SourceColumn, LongConsumer)} without a weight column. */
     public WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, LongConsumer progress) {
-        boolean weighted = weightColumn != null;
+        return scan(h, source, wave, columns, null, progress);
+    }
+
+    /**
+     * Reads the columns of one wave in one pass.
+     *
+     * @param weight a survey weight column read in the same pass, or null; each value's weight sum and sum of
+     *               squared weights are kept beside its count (for weighted shares and Kish's effective sample size)
+     */
+    public WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, SourceColumn weight,
+                         LongConsumer progress) {
+        boolean weighted = weight != null;
         List<SourceColumn> read = columns;
         if (weighted) {
             read = new ArrayList<>(columns);
-            read.add(new SourceColumn(weightColumn, org.wavewarden.profile.ColumnType.DECIMAL, "weight"));
+            read.add(weight);
         }
         String sql = copySql(h, source, wave, read);
         int k = columns.size();
@@ -102,13 +124,12 @@ public final class WaveScanner {
         List<Map<String, double[]>> weightSums = new ArrayList<>(weighted ? k : 0);
         long badWeights = 0;
         List<Map<String, long[]>> tallies = new ArrayList<>(k);
+        RelativeBins[] bins = new RelativeBins[k];
         long[] nulls = new long[k];
         boolean[] truncated = new boolean[k];
         for (int i = 0; i < k; i++) {
             tallies.add(new HashMap<>());
-            if (weighted) {
-                weightSums.add(new HashMap<>());
-            }
+            weightSums.add(weighted ? new HashMap<>() : null);
         }
         long rows = 0;
         String[] fields = new String[fieldsPerRow];
@@ -137,15 +158,26 @@ public final class WaveScanner {
                         nulls[i]++;
                         continue;
                     }
+                    if (bins[i] != null) {
+                        bins[i].add(number(columns.get(i), v), w);
+                        continue;
+                    }
                     if (v.length() > MAX_VALUE_CHARS) {
                         v = shortened(v);
                     }
                     Map<String, long[]> t = tallies.get(i);
                     long[] cell = t.get(v);
+                    boolean numeric = columns.get(i).type().isNumeric();
                     if (cell != null) {
                         cell[0]++;
-                    } else if (t.size() < maxDistinct) {
+                    } else if (t.size() < (numeric ? exactNumbers : maxDistinct)) {
                         t.put(v, new long[] {1});
+                    } else if (numeric) {
+                        bins[i] = summarise(columns.get(i), t, weightSums.get(i));
+                        tallies.set(i, null);
+                        weightSums.set(i, null);
+                        bins[i].add(number(columns.get(i), v), w);
+                        continue;
                     } else {
                         truncated[i] = true;
                         continue;
@@ -165,17 +197,47 @@ public final class WaveScanner {
             throw new SourceReadException("reading wave " + wave + " failed: " + e.getMessage(), e);
         }
         Map<String, ColumnTally> out = new LinkedHashMap<>();
+        Map<String, Map<String, double[]>> weights = new LinkedHashMap<>();
         for (int i = 0; i < k; i++) {
+            SourceColumn col = columns.get(i);
+            if (bins[i] != null) {
+                out.put(col.name(), new ColumnTally(col.name(), col.type(), rows, nulls[i], bins[i].counts(), false,
+                        bins[i].binning()));
+                if (weighted) {
+                    weights.put(col.name(), bins[i].weights());
+                }
+                continue;
+            }
             Map<String, Long> counts = new HashMap<>(tallies.get(i).size() * 2);
             tallies.get(i).forEach((v, cell) -> counts.put(v, cell[0]));
-            SourceColumn col = columns.get(i);
             out.put(col.name(), new ColumnTally(col.name(), col.type(), rows, nulls[i], counts, truncated[i]));
-        }
-        Map<String, Map<String, double[]>> weights = new LinkedHashMap<>();
-        for (int i = 0; weighted && i < k; i++) {
-            weights.put(columns.get(i).name(), weightSums.get(i));
+            if (weighted) {
+                Map<String, double[]> ws = weightSums.get(i);
+                counts.keySet().forEach(v -> ws.computeIfAbsent(v, x -> new double[2]));
+                weights.put(col.name(), ws);
+            }
         }
         return new WaveScan(rows, out, weights, badWeights);
+    }
+
+    /** Moves a numeric column's exact counts into relative bins, when it has more distinct values than kept. */
+    private static RelativeBins summarise(SourceColumn col, Map<String, long[]> tally, Map<String, double[]> weights) {
+        RelativeBins bins = new RelativeBins(RelativeBins.DEFAULT_MAX_BINS, 0, isReal(col));
+        tally.forEach((v, cell) -> {
+            double[] w = weights == null ? null : weights.get(v);
+            bins.add(number(col, v), cell[0], w == null ? 0 : w[0], w == null ? 0 : w[1]);
+        });
+        return bins;
+    }
+
+    private static boolean isReal(SourceColumn col) {
+        String t = col.postgresType().toLowerCase(java.util.Locale.ROOT);
+        return t.equals("real") || t.equals("float4");
+    }
+
+    /** A numeric column's text as a double; a {@code real} reads as the float it is, widened exactly. */
+    private static double number(SourceColumn col, String text) {
+        return isReal(col) ? Float.parseFloat(text) : Double.parseDouble(text);
     }
 
     /** A weight as the text form gives it, or NaN when it is NULL, not a number, negative or infinite. */

@@ -73,11 +73,11 @@ class SourceScanCountTest {
 
     @Test
     void scansPerCheckDoNotGrowWithVariablesNorWithEarlierWaves() {
-        WaveJudge.Scanner text = new WaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)::scan;
-        var narrowFew = counted("narrow_few", 3, text);
-        var wideFew = counted("wide_few", 3, text);
-        var narrowMany = counted("narrow_many", 11, text);
-        var wideMany = counted("wide_many", 11, text);
+        WaveJudge.Scanner binary = new BinaryWaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)::scan;
+        var narrowFew = counted("narrow_few", 3, binary);
+        var wideFew = counted("wide_few", 3, binary);
+        var narrowMany = counted("narrow_many", 11, binary);
+        var wideMany = counted("wide_many", 11, binary);
         assertEquals(1, narrowFew.copies(), "one COPY of the judged wave: " + narrowFew);
         assertTrue(narrowFew.tableQueries() >= 1, "the wave listing reads the table: " + narrowFew);
         assertEquals(narrowFew.scans(), wideFew.scans(), "10 versus 40 variables");

@@ -1,0 +1,284 @@
+package org.wavewarden.profile;
+
+import java.math.BigDecimal;
+import java.math.MathContext;
+import java.util.HashMap;
+import java.util.Map;
+
+/**
+ * A bounded summary of the numbers of one column, for a column with more distinct values than the reader keeps
+ * exactly: every value goes to a bin on a logarithmic scale, so each bin's stand-in is within a fixed relative
+ * distance of every value in it, whatever the spread of the data.
+ *
+ * <p>Bin {@code i} of level {@code L} holds the positive values in {@code (g^(i-1), g^i]} with
+ * {@code g = g0^(2^L)}, {@code g0 = (1 + a0) / (1 - a0)}; its stand-in {@code 2 g^i / (g + 1)} is within
+ * {@code (g - 1) / (g + 1)} of each of them, relative to the value (the relative-error sketch of Masson, Rim and Lee
+ * 2019, "DDSketch: a fast and fully-mergeable quantile sketch with relative-error guarantees", PVLDB 12(12)).
+ * Negative values are binned by their magnitude. When the bins exceed their budget, neighbouring pairs merge into
+ * the bins of the next level, which doubles {@code ln g}: the error bound roughly doubles and is reported, never
+ * exceeded. A bin that holds one distinct value keeps that value exactly, and so do zero, non-finite values and
+ * code-like numbers ({@link #isCodeLike}), so a missing-value code such as {@code -9} or {@code 999} keeps its exact
+ * count. The result does not depend on the order values arrive in: a bin's level is the smallest within budget for
+ * all the data, and counts, sums, minimum and maximum are order-free.
+ */
+public final class RelativeBins {
+
+    /** Relative error of level 0: 0.05% of the value. */
+    public static final double BASE_RELATIVE_ERROR = 0.0005;
+
+    /** Bins kept before neighbours merge; about 1,700 span a factor of 5 at level 0. */
+    public static final int DEFAULT_MAX_BINS = 4096;
+
+    /** Significant digits a stand-in is printed with; the rounding adds at most half a unit in the last place. */
+    private static final int DIGITS = 7;
+    private static final double ROUNDING = 5e-7;
+    private static final MathContext PRINT = new MathContext(DIGITS);
+    private static final double LN_GAMMA0 = Math.log((1 + BASE_RELATIVE_ERROR) / (1 - BASE_RELATIVE_ERROR));
+
+    private final int maxBins;
+    private final boolean singlePrecision;
+    private int level;
+    private long[] keys = new long[256];
+    private long[] counts = new long[256]; // 0 marks an empty slot
+    private double[] min = new double[256];
+    private double[] max = new double[256];
+    private double[] wsum = new double[256];
+    private double[] wsq = new double[256];
+    private int size;
+    private final Map<Double, double[]> exact = new HashMap<>(); // {count, sum w, sum w^2}
+
+    /**
+     * @param maxBins         bins kept before neighbours merge
+     * @param level           the level to start at (a pooled summary starts at the coarser of its parts)
+     * @param singlePrecision the column is {@code real}: exact values print as the float they are
+     */
+    public RelativeBins(int maxBins, int level, boolean singlePrecision) {
+        if (maxBins < 16) {
+            throw new IllegalArgumentException("maxBins must be at least 16, was " + maxBins);
+        }
+        this.maxBins = maxBins;
+        this.level = new Binning(Math.max(0, level)).level();
+        this.singlePrecision = singlePrecision;
+    }
+
+    public RelativeBins() {
+        this(DEFAULT_MAX_BINS, 0, false);
+    }
+
+    /** The error bound of a level: {@code (g - 1) / (g + 1)} plus the rounding of the printed stand-in. */
+    static double relativeError(int level) {
+        double g = Math.exp(LN_GAMMA0 * Math.pow(2, level));
+        return (g - 1) / (g + 1) + ROUNDING;
+    }
+
+    /**
+     * Numbers that survey codebooks use for "no answer" and that must keep their exact counts: zero, the negative
+     * integers from -1 to -99, and integers whose digits are all one digit (7, 88, 999, 9999, -999; common practice
+     * in survey codebooks, no single source).
+     */
+    public static boolean isCodeLike(double x) {
+        if (x == 0) {
+            return true;
+        }
+        if (x != Math.rint(x) || Math.abs(x) >= 1e7) {
+            return false;
+        }
+        long a = Math.abs((long) x);
+        if (x < 0 && a <= 99) {
+            return true;
+        }
+        long digit = a % 10;
+        while (a > 0) {
+            if (a % 10 != digit) {
+                return false;
+            }
+            a /= 10;
+        }
+        return true;
+    }
+
+    /** Adds one value; {@code w} is its weight, NaN for none. */
+    public void add(double x, double w) {
+        boolean weighted = !Double.isNaN(w);
+        add(x, 1, weighted ? w : 0, weighted ? w * w : 0);
+    }
+
+    /** Adds {@code count} copies of a value with the given sums of weights and squared weights. */
+    public void add(double x, long count, double sumW, double sumW2) {
+        if (count <= 0) {
+            throw new IllegalArgumentException("count must be positive, was " + count);
+        }
+        if (!Double.isFinite(x) || isCodeLike(x)) {
+            double[] cell = exact.computeIfAbsent(x == 0 ? 0.0 : x, k -> new double[3]);
+            cell[0] += count;
+            cell[1] += sumW;
+            cell[2] += sumW2;
+            return;
+        }
+        long key = key(x, level);
+        int mask = keys.length - 1;
+        int i = mix(key) & mask;
+        while (counts[i] != 0) {
+            if (keys[i] == key) {
+                counts[i] += count;
+                min[i] = Math.min(min[i], x);
+                max[i] = Math.max(max[i], x);
+                wsum[i] += sumW;
+                wsq[i] += sumW2;
+                return;
+            }
+            i = (i + 1) & mask;
+        }
+        keys[i] = key;
+        counts[i] = count;
+        min[i] = x;
+        max[i] = x;
+        wsum[i] = sumW;
+        wsq[i] = sumW2;
+        size++;
+        if (size > maxBins) {
+            while (size > maxBins) {
+                rebuild(keys.length, 1);
+            }
+        } else if (size * 2 > keys.length) {
+            rebuild(keys.length * 2, 0);
+        }
+    }
+
+    /** The bin of a nonzero finite value at a level: its index on the log scale, doubled, plus 1 when negative. */
+    static long key(double x, int level) {
+        long i0 = (long) Math.ceil(Math.log(Math.abs(x)) / LN_GAMMA0);
+        long i = -Math.floorDiv(-i0, 1L << level); // ceil(i0 / 2^level): ceil(ceil(a) / 2) = ceil(a / 2)
+        return (i << 1) | (x < 0 ? 1 : 0);
+    }
+
+    private static int mix(long key) {
+        long h = key * 0x9E3779B97F4A7C15L;
+        return (int) (h ^ (h >>> 29) ^ (h >>> 47));
+    }
+
+    /** Rehashes into {@code capacity} slots, {@code up} levels coarser. */
+    private void rebuild(int capacity, int up) {
+        long[] ok = keys;
+        long[] oc = counts;
+        double[] omin = min;
+        double[] omax = max;
+        double[] ow = wsum;
+        double[] ow2 = wsq;
+        keys = new long[capacity];
+        counts = new long[capacity];
+        min = new double[capacity];
+        max = new double[capacity];
+        wsum = new double[capacity];
+        wsq = new double[capacity];
+        level += up;
+        size = 0;
+        int mask = capacity - 1;
+        for (int j = 0; j < ok.length; j++) {
+            if (oc[j] == 0) {
+                continue;
+            }
+            long key = ok[j];
+            if (up > 0) {
+                long idx = key >> 1;
+                key = ((-Math.floorDiv(-idx, 2L)) << 1) | (key & 1);
+            }
+            int i = mix(key) & mask;
+            while (counts[i] != 0 && keys[i] != key) {
+                i = (i + 1) & mask;
+            }
+            if (counts[i] == 0) {
+                keys[i] = key;
+                min[i] = omin[j];
+                max[i] = omax[j];
+                size++;
+            } else {
+                min[i] = Math.min(min[i], omin[j]);
+                max[i] = Math.max(max[i], omax[j]);
+            }
+            counts[i] += oc[j];
+            wsum[i] += ow[j];
+            wsq[i] += ow2[j];
+        }
+    }
+
+    public Binning binning() {
+        return new Binning(level);
+    }
+
+    /** Distinct entries the summary yields: bins plus exact values. */
+    public int size() {
+        return size + exact.size();
+    }
+
+    /** Each bin's stand-in (or its one exact value) and each exact value, as text, with its count. */
+    public Map<String, Long> counts() {
+        Map<String, Long> out = new HashMap<>(size() * 2);
+        forEach((text, c, w, w2) -> out.merge(text, c, Long::sum));
+        return out;
+    }
+
+    /** The same entries as {@link #counts()} with {@code {sum of weights, sum of squared weights}}. */
+    public Map<String, double[]> weights() {
+        Map<String, double[]> out = new HashMap<>(size() * 2);
+        forEach((text, c, w, w2) -> {
+            double[] cell = out.computeIfAbsent(text, k -> new double[2]);
+            cell[0] += w;
+            cell[1] += w2;
+        });
+        return out;
+    }
+
+    /** One entry of the summary. */
+    @FunctionalInterface
+    public interface Entry {
+        void accept(String text, long count, double sumW, double sumW2);
+    }
+
+    public void forEach(Entry e) {
+        for (int j = 0; j < keys.length; j++) {
+            if (counts[j] != 0) {
+                String text = min[j] == max[j] ? exactText(min[j]) : standIn(keys[j], level);
+                e.accept(text, counts[j], wsum[j], wsq[j]);
+            }
+        }
+        exact.forEach((x, cell) -> e.accept(exactText(x), (long) cell[0], cell[1], cell[2]));
+    }
+
+    /** The printed stand-in of a bin: {@code 2 g^i / (g + 1)}, signed, to {@value #DIGITS} significant digits. */
+    static String standIn(long key, int level) {
+        double lnG = LN_GAMMA0 * Math.pow(2, level);
+        double g = Math.exp(lnG);
+        double v = 2 * Math.exp((key >> 1) * lnG) / (g + 1);
+        String s = new BigDecimal(v).round(PRINT).stripTrailingZeros().toPlainString();
+        return (key & 1) == 1 ? "-" + s : s;
+    }
+
+    private String exactText(double x) {
+        if (Double.isNaN(x)) {
+            return "NaN";
+        }
+        if (Double.isInfinite(x)) {
+            return x > 0 ? "Infinity" : "-Infinity";
+        }
+        if (x == Math.rint(x) && Math.abs(x) < 1e15) {
+            return Long.toString((long) x);
+        }
+        String shortest = singlePrecision ? Float.toString((float) x) : Double.toString(x);
+        return new BigDecimal(shortest).stripTrailingZeros().toPlainString();
+    }
+
+    /**
+     * Re-summarises tallies at a common level, for pooling waves: each entry's text is read back as a number (a
+     * stand-in falls in its own bin again) and added with its count and weights.
+     */
+    public static RelativeBins of(int level, boolean singlePrecision, Map<String, Long> counts,
+                                  Map<String, double[]> weights) {
+        RelativeBins bins = new RelativeBins(DEFAULT_MAX_BINS, level, singlePrecision);
+        counts.forEach((text, c) -> {
+            double[] w = weights == null ? null : weights.get(text);
+            bins.add(Double.parseDouble(text.strip()), c, w == null ? 0 : w[0], w == null ? 0 : w[1]);
+        });
+        return bins;
+    }
+}

@@ -1,0 +1,141 @@
+package org.wavewarden.profile;
+
+import org.apache.commons.math3.stat.descriptive.rank.Percentile;
+import org.junit.jupiter.api.Test;
+
+import java.util.ArrayList;
+import java.util.Collections;
+import java.util.List;
+import java.util.Map;
+import java.util.Random;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+/** The bounded summary of high-cardinality numeric columns keeps its stated error and its counts. */
+class RelativeBinsTest {
+
+    @Test
+    void everyValueLiesWithinTheStatedRelativeErrorOfItsStandIn() {
+        Random r = new Random(7);
+        for (int trial = 0; trial < 20; trial++) {
+            RelativeBins bins = new RelativeBins(64 + r.nextInt(4000), 0, false);
+            double[] xs = new double[20_000];
+            for (int i = 0; i < xs.length; i++) {
+                xs[i] = (r.nextBoolean() ? 1 : -1) * Math.exp(r.nextGaussian() * (1 + trial));
+                bins.add(xs[i], Double.NaN);
+            }
+            Binning b = bins.binning();
+            for (double x : xs) {
+                if (RelativeBins.isCodeLike(x)) {
+                    continue;
+                }
+                double standIn = Double.parseDouble(RelativeBins.standIn(RelativeBins.key(x, b.level()), b.level()));
+                assertTrue(Math.abs(standIn - x) <= b.relativeError() * Math.abs(x),
+                        x + " stands as " + standIn + " beyond " + b.relativeError());
+            }
+            long total = bins.counts().values().stream().mapToLong(Long::longValue).sum();
+            assertEquals(xs.length, total, "no value is lost");
+            assertTrue(bins.size() <= bins.binning().level() * 0 + 4096 + 1, "within budget");
+        }
+    }
+
+    @Test
+    void theSummaryDoesNotDependOnTheOrderValuesArriveIn() {
+        Random r = new Random(11);
+        List<Double> xs = new ArrayList<>();
+        for (int i = 0; i < 30_000; i++) {
+            xs.add(Math.round(r.nextGaussian() * 1e6) / 100.0);
+        }
+        xs.add(-9.0);
+        xs.add(999.0);
+        Map<String, Long> first = summary(xs);
+        Collections.shuffle(xs, r);
+        assertEquals(first, summary(xs));
+        Collections.sort(xs);
+        assertEquals(first, summary(xs), "sorted input, the worst order for a summary that fills up");
+    }
+
+    private static Map<String, Long> summary(List<Double> xs) {
+        RelativeBins bins = new RelativeBins(512, 0, false);
+        xs.forEach(x -> bins.add(x, 1.0));
+        return bins.counts();
+    }
+
+    @Test
+    void codeLikeNumbersZeroAndSingleValuedBinsStayExact() {
+        RelativeBins bins = new RelativeBins();
+        for (int i = 0; i < 1000; i++) {
+            bins.add(500 + i * 0.0137, Double.NaN);
+        }
+        for (int i = 0; i < 40; i++) {
+            bins.add(-9, Double.NaN);
+            bins.add(999, Double.NaN);
+            bins.add(0, Double.NaN);
+        }
+        bins.add(1e6 + 0.25, Double.NaN); // alone in its bin
+        Map<String, Long> c = bins.counts();
+        assertEquals(40L, c.get("-9"));
+        assertEquals(40L, c.get("999"));
+        assertEquals(40L, c.get("0"));
+        assertEquals(1L, c.get("1000000.25"));
+        assertTrue(RelativeBins.isCodeLike(-99) && RelativeBins.isCodeLike(7777) && RelativeBins.isCodeLike(88));
+        assertFalse(RelativeBins.isCodeLike(-100) || RelativeBins.isCodeLike(998) || RelativeBins.isCodeLike(9.5));
+    }
+
+    @Test
+    void quantilesOfTheSummaryMatchCommonsMathOnTheRawDataWithinTheBound() {
+        // Reference: commons-math3 3.6.1 Percentile (type R-7 estimation is not needed: we compare the lower
+        // empirical quantile, EstimationType.R_1, which is an order statistic and so moves by at most the bound).
+        Random r = new Random(3);
+        double[] raw = new double[50_001];
+        RelativeBins bins = new RelativeBins(1024, 0, false);
+        for (int i = 0; i < raw.length; i++) {
+            raw[i] = 100 + 15 * r.nextGaussian() + r.nextDouble() * 1e-3;
+            bins.add(raw[i], Double.NaN);
+        }
+        double[][] table = sorted(bins.counts());
+        Percentile p = new Percentile().withEstimationType(Percentile.EstimationType.R_1);
+        for (double q : new double[] {1, 10, 25, 50, 75, 90, 99}) {
+            double exact = p.evaluate(raw, q);
+            double approx = quantile(table, q / 100, raw.length);
+            assertEquals(exact, approx, bins.binning().relativeError() * Math.abs(exact), "quantile " + q);
+        }
+    }
+
+    private static double[][] sorted(Map<String, Long> counts) {
+        double[][] t = counts.entrySet().stream()
+                .map(e -> new double[] {Double.parseDouble(e.getKey()), e.getValue()})
+                .sorted((a, b) -> Double.compare(a[0], b[0])).toArray(double[][]::new);
+        return t;
+    }
+
+    /** The R-1 quantile (inverse of the empirical distribution function) of a value table. */
+    private static double quantile(double[][] table, double q, long n) {
+        long rank = (long) Math.ceil(q * n);
+        long seen = 0;
+        for (double[] row : table) {
+            seen += (long) row[1];
+            if (seen >= rank) {
+                return row[0];
+            }
+        }
+        return table[table.length - 1][0];
+    }
+
+    @Test
+    void binsMergeIntoTheCoarserLevelWhenPooled() {
+        RelativeBins fine = new RelativeBins(4096, 0, false);
+        RelativeBins coarse = new RelativeBins(4096, 3, false);
+        for (int i = 1; i <= 5000; i++) {
+            fine.add(i * 0.731, Double.NaN);
+            coarse.add(i * 0.913, Double.NaN);
+        }
+        ColumnTally a = new ColumnTally("x", ColumnType.DECIMAL, 5000, 0, fine.counts(), false, fine.binning());
+        ColumnTally b = new ColumnTally("x", ColumnType.DECIMAL, 5000, 0, coarse.counts(), false, coarse.binning());
+        ColumnTally pooled = WaveProfile.pooled(a, b);
+        assertEquals(3, pooled.binning().level());
+        assertEquals(10_000L, pooled.valueCounts().values().stream().mapToLong(Long::longValue).sum());
+    }
+}
