@@ -122,34 +122,9 @@ public final class WaveJudge {
 
         List<String> inference = new ArrayList<>();
         List<VariableConfig> variables = variables(d, current, inference);
-        VariableComparator comparator = new VariableComparator(1 - cfg.alpha());
-        List<Comparison> comparisons = new ArrayList<>();
-        List<Finding> plain = new ArrayList<>(schemaFindings(d, baseline, current));
-        for (VariableConfig v : variables) {
-            ColumnTally ct = current.columns().get(v.name());
-            if (ct == null) {
-                continue;
-            }
-            List<Comparison> mine = new ArrayList<>();
-            List<Finding> myPlain = new ArrayList<>();
-            try {
-                judgeVariable(comparator, v, ct, baseline == null ? null : baseline.columns().get(v.name()), mine,
-                        myPlain);
-            } catch (RuntimeException e) {
-                // A value no method foresaw must cost one variable its comparison, never the whole run.
-                LOG.warn("variable {} of {} wave {} could not be compared: {}", v.name(), d.name(), wave, e.toString());
-                mine.clear();
-                myPlain.clear();
-                myPlain.add(Finding.dataQuality(v.name(), FindingKind.SKIPPED, null, null, "Not compared: the"
-                        + " answers could not be analysed (" + e.getClass().getSimpleName() + ": "
-                        + String.valueOf(e.getMessage()).lines().findFirst().orElse("") + ").", null));
-            }
-            comparisons.addAll(mine);
-            plain.addAll(myPlain);
-        }
-        List<Finding> findings = new ArrayList<>(shapeOnlyWhereLocationIsQuiet(onePerVariableAndKind(
-                Judge.judge(comparisons, cfg.alpha(), cfg.fdr()))));
-        findings.addAll(plain);
+        List<Finding> findings = new ArrayList<>(judgeVariables(variables, baseline == null ? null
+                : baseline.columns(), current.columns(), cfg.alpha(), cfg.fdr(), d.name() + " wave " + wave));
+        findings.addAll(schemaFindings(d, baseline, current));
         findings = FindingsFiles.ordered(findings);
         List<Finding> alerts = Alerts.select(findings);
         Instant finished = clock.instant();
@@ -166,8 +141,50 @@ public final class WaveJudge {
         return new JudgedWave(report, runId, alerts);
     }
 
-    private void judgeVariable(VariableComparator comparator, VariableConfig v, ColumnTally ct, ColumnTally bt,
-                               List<Comparison> comparisons, List<Finding> plain) {
+    /**
+     * Every variable's comparisons and data-quality findings between two sets of tallies, judged together: one
+     * false-discovery-rate family, the verdict rule, one missing-rate finding per variable, shape findings only
+     * where they add something. A variable that cannot be analysed gets a SKIPPED finding instead. Public so that
+     * two sides that are not two waves' summaries (two releases of one wave) are judged exactly as waves are.
+     *
+     * @param baseline the baseline's tallies by column, or null when there is nothing to compare with
+     * @param what     names the comparison in the log, e.g. {@code labour wave 2025-Q1}
+     */
+    public static List<Finding> judgeVariables(List<VariableConfig> variables, Map<String, ColumnTally> baseline,
+                                               Map<String, ColumnTally> current, double alpha,
+                                               WardenConfig.FdrMethod fdr, String what) {
+        VariableComparator comparator = new VariableComparator(1 - alpha);
+        List<Comparison> comparisons = new ArrayList<>();
+        List<Finding> plain = new ArrayList<>();
+        for (VariableConfig v : variables) {
+            ColumnTally ct = current.get(v.name());
+            if (ct == null) {
+                continue;
+            }
+            List<Comparison> mine = new ArrayList<>();
+            List<Finding> myPlain = new ArrayList<>();
+            try {
+                judgeVariable(comparator, v, ct, baseline == null ? null : baseline.get(v.name()), mine, myPlain);
+            } catch (RuntimeException e) {
+                // A value no method foresaw must cost one variable its comparison, never the whole run.
+                LOG.warn("variable {} of {} could not be compared: {}", v.name(), what, e.toString());
+                mine.clear();
+                myPlain.clear();
+                myPlain.add(Finding.dataQuality(v.name(), FindingKind.SKIPPED, null, null, "Not compared: the"
+                        + " answers could not be analysed (" + e.getClass().getSimpleName() + ": "
+                        + String.valueOf(e.getMessage()).lines().findFirst().orElse("") + ").", null));
+            }
+            comparisons.addAll(mine);
+            plain.addAll(myPlain);
+        }
+        List<Finding> findings = new ArrayList<>(shapeOnlyWhereLocationIsQuiet(onePerVariableAndKind(
+                Judge.judge(comparisons, alpha, fdr))));
+        findings.addAll(plain);
+        return findings;
+    }
+
+    private static void judgeVariable(VariableComparator comparator, VariableConfig v, ColumnTally ct,
+                                      ColumnTally bt, List<Comparison> comparisons, List<Finding> plain) {
         ScreenedVariable sc = VariableScreen.screen(ct, v);
         ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v);
         reference(comparator, v, sc).ifPresent(comparisons::add);
@@ -237,8 +254,9 @@ public final class WaveJudge {
                 || location.get(f.variable()) == Verdict.UNCERTAIN))).toList();
     }
 
-    private Optional<Comparison> compare(VariableComparator comparator, VariableConfig v, ScreenedVariable b,
-                                         ScreenedVariable c, ColumnTally ct, ColumnTally bt) {
+    private static Optional<Comparison> compare(VariableComparator comparator, VariableConfig v,
+                                                ScreenedVariable b, ScreenedVariable c, ColumnTally ct,
+                                                ColumnTally bt) {
         if (skipReason(v, b, c, ct, bt) != null) {
             return Optional.empty();
         }
@@ -298,8 +316,7 @@ public final class WaveJudge {
         Map<String, ColumnType> schema = new LinkedHashMap<>();
         all.forEach(c -> schema.put(c.name(), c.type()));
         List<SourceColumn> monitored = all.stream()
-                .filter(c -> !c.name().equals(d.waveColumn()) && !d.exclude().contains(c.name())
-                        && !c.name().equals(d.weightColumn())).toList();
+                .filter(c -> !d.isBookkeeping(c.name())).toList();
         // Weights are read by the text scanner in the same pass; the binary scanner does not read them yet.
         WaveScanner.WaveScan scan = d.weightColumn() == null ? scanner.scan(h, source, wave, monitored, progress)
                 : new WaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT, d.weightColumn()).scan(h, source, wave, monitored,
@@ -323,8 +340,14 @@ public final class WaveJudge {
     }
 
     private static List<VariableConfig> variables(DatasetConfig d, WaveProfile current, List<String> inference) {
+        return variables(d, current.columns().values(), inference);
+    }
+
+    /** The declared variables, and for every other tallied column the inferred one, described in {@code inference}. */
+    public static List<VariableConfig> variables(DatasetConfig d, java.util.Collection<ColumnTally> tallies,
+                                                 List<String> inference) {
         List<VariableConfig> out = new ArrayList<>(d.variables());
-        for (ColumnTally t : current.columns().values()) {
+        for (ColumnTally t : tallies) {
             if (d.variables().stream().noneMatch(v -> v.name().equals(t.column()))) {
                 VariableInference.Inferred i = VariableInference.infer(t);
                 inference.add(VariableInference.describe(i));
