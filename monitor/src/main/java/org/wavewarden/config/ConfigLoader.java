@@ -249,7 +249,8 @@ public final class ConfigLoader {
 
         DatasetConfig dataset(ObjectNode node, String path) {
             known(node, path, "name", "table", "waveColumn", "tablePattern", "waveOrder", "compareWith", "schedule",
-                    "exclude", "variables", "quietPeriod", "alerts", "readyTable", "readyColumn", "weightColumn");
+                    "exclude", "variables", "quietPeriod", "alerts", "readyTable", "readyColumn", "weightColumn",
+                    "respondentKey", "releases");
             String name = text(node, "name", path + ".name", true);
             if (!name.matches("[A-Za-z0-9][A-Za-z0-9_.-]{0,99}")) {
                 throw new ConfigException(path + ".name", "expected letters, digits, '-', '_' or '.' (at most 100)"
@@ -304,11 +305,87 @@ public final class ConfigLoader {
                     variables.add(v);
                 }
             }
+            String key = respondentKey(node, path, waveColumn);
+            ReleasesConfig releases = releases(object(node, "releases", path + ".releases", false), path, key,
+                    table, pattern, waveColumn);
+            for (int i = 0; i < variables.size(); i++) {
+                String v = variables.get(i).name();
+                if (v.equals(key) || (releases != null && v.equals(releases.column()))) {
+                    throw new ConfigException(path + ".variables[" + i + "].name", "'" + v + "' is the "
+                            + (v.equals(key) ? "respondent key" : "release column") + " and is never compared as a"
+                            + " variable");
+                }
+            }
             return new DatasetConfig(name, table, waveColumn, pattern, waveOrder(node, path),
                     compareWith(node.get("compareWith"), path + ".compareWith"), schedule, exclude, variables,
                     duration(node, "quietPeriod", path + ".quietPeriod"),
                     alerts(object(node, "alerts", path + ".alerts", false), path + ".alerts"),
-                    readyTable(node, path), readyColumn(node, path), weightColumn(node, path));
+                    readyTable(node, path), readyColumn(node, path), weightColumn(node, path), key, releases);
+        }
+
+        String respondentKey(ObjectNode node, String path, String waveColumn) {
+            String k = text(node, "respondentKey", path + ".respondentKey", false);
+            if (k == null) {
+                return null;
+            }
+            Identifiers.require(path + ".respondentKey", k);
+            if (k.equals(waveColumn)) {
+                throw new ConfigException(path + ".respondentKey", "expected the column identifying a respondent,"
+                        + " not the wave column '" + k + "'");
+            }
+            return k;
+        }
+
+        /**
+         * The earlier publications of a wave: a release column in the same table, or a previous table of the same
+         * layout. Either way respondents are matched across the two by the respondent key, so it is required.
+         */
+        ReleasesConfig releases(ObjectNode node, String path, String key, String table, String pattern,
+                                String waveColumn) {
+            if (node == null) {
+                return null;
+            }
+            String p = path + ".releases";
+            known(node, p, "column", "previousTable");
+            if (node.size() != 1) {
+                throw new ConfigException(p, "expected exactly one of column (a release column in the same table)"
+                        + " or previousTable (a table holding the earlier publication)");
+            }
+            if (key == null) {
+                throw new ConfigException(path + ".respondentKey", "missing: releases are compared respondent by"
+                        + " respondent, so name the column identifying a respondent");
+            }
+            if (node.has("column")) {
+                String c = Identifiers.require(p + ".column", text(node, "column", p + ".column", true));
+                if (c.equals(waveColumn) || c.equals(key)) {
+                    throw new ConfigException(p + ".column", "expected a column of its own telling the releases"
+                            + " apart, but '" + c + "' is the " + (c.equals(key) ? "respondent key" : "wave column"));
+                }
+                return new ReleasesConfig(c, null);
+            }
+            String prev = text(node, "previousTable", p + ".previousTable", true);
+            if (table != null) {
+                if (prev.contains("{wave}")) {
+                    throw new ConfigException(p + ".previousTable", "expected one table (the dataset has one table"
+                            + " with a wave column) but got the pattern " + Identifiers.Text.show(prev));
+                }
+                Identifiers.TableName before = Identifiers.TableName.parse(p + ".previousTable", prev);
+                if (before.equals(Identifiers.TableName.parse(path + ".table", table))) {
+                    throw new ConfigException(p + ".previousTable", "expected another table than the dataset's own "
+                            + before);
+                }
+            } else {
+                if (!prev.contains("{wave}")) {
+                    throw new ConfigException(p + ".previousTable", "expected a pattern containing {wave} like the"
+                            + " dataset's tablePattern, such as survey_v1.wave_{wave}");
+                }
+                Identifiers.TableName.parse(p + ".previousTable", prev.replace("{wave}", "w"));
+                if (prev.equals(pattern)) {
+                    throw new ConfigException(p + ".previousTable", "expected another pattern than the dataset's own "
+                            + pattern);
+                }
+            }
+            return new ReleasesConfig(null, prev);
         }
 
         String weightColumn(ObjectNode node, String path) {

@@ -21,11 +21,15 @@ import java.util.List;
  * @param readyColumn  the column of {@code readyTable} holding wave labels
  * @param weightColumn optional survey weight column: never compared itself, its sums per value are kept in each
  *                     wave's summary
+ * @param respondentKey optional column identifying a respondent across waves and releases; never compared as a
+ *                     variable
+ * @param releases     optional: where earlier publications of a wave are kept (needs {@code respondentKey})
  */
 public record DatasetConfig(String name, String table, String waveColumn, String tablePattern, WaveOrder waveOrder,
                             CompareWith compareWith, String schedule, List<String> exclude,
                             List<VariableConfig> variables, java.time.Duration quietPeriod, SinkSettings alerts,
-                            String readyTable, String readyColumn, String weightColumn) {
+                            String readyTable, String readyColumn, String weightColumn, String respondentKey,
+                            ReleasesConfig releases) {
 
     public DatasetConfig {
         waveOrder = waveOrder == null ? WaveOrder.NATURAL : waveOrder;
@@ -34,5 +38,19 @@ public record DatasetConfig(String name, String table, String waveColumn, String
         variables = variables == null ? List.of() : List.copyOf(variables);
         quietPeriod = quietPeriod == null ? java.time.Duration.ZERO : quietPeriod;
         alerts = alerts == null ? SinkSettings.NONE : alerts;
+    }
+
+    /** The column numbering releases within the table, or null when there is none. */
+    public String releaseColumn() {
+        return releases == null ? null : releases.column();
+    }
+
+    /**
+     * Whether a column is bookkeeping rather than an answer: the wave and release columns, the respondent key, the
+     * weight and the excluded columns are never compared as variables.
+     */
+    public boolean isBookkeeping(String column) {
+        return column.equals(waveColumn) || column.equals(releaseColumn()) || column.equals(respondentKey)
+                || column.equals(weightColumn) || exclude.contains(column);
     }
 }

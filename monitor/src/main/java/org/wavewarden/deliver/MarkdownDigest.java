@@ -21,20 +21,7 @@ public final class MarkdownDigest {
         for (FindingsReport r : reports) {
             md.append("## ").append(r.dataset()).append(": wave ").append(r.wave());
             md.append(r.againstWave() == null ? " (screened alone)" : " against " + r.againstWave()).append("\n\n");
-            Map<Verdict, Integer> counts = new EnumMap<>(Verdict.class);
-            long dq = 0;
-            for (Finding f : r.findings()) {
-                if (f.verdict() != null && f.kind() == org.wavewarden.judge.FindingKind.SHIFT) {
-                    counts.merge(f.verdict(), 1, Integer::sum);
-                } else if (f.kind().isDataQuality()) {
-                    dq++;
-                }
-            }
-            md.append("Shift verdicts: ");
-            for (Verdict v : Verdict.values()) {
-                md.append(v.name()).append(' ').append(counts.getOrDefault(v, 0)).append(v == Verdict.STABLE ? "" : ", ");
-            }
-            md.append(". Data-quality findings: ").append(dq).append(". False discovery rate ")
+            md.append(verdictCounts(r.findings())).append(" False discovery rate ")
                     .append(r.alpha()).append(" (").append(r.fdrMethod()).append(").\n\n");
             List<Finding> worth = FindingsFiles.ordered(r.findings()).stream().filter(Alerts::worthAPerson).toList();
             if (worth.isEmpty()) {
@@ -52,6 +39,24 @@ public final class MarkdownDigest {
         md.append("## Cautions\n\n");
         Cautions.LINES.forEach(l -> md.append("- ").append(l).append('\n'));
         return md.toString();
+    }
+
+    /** {@code Shift verdicts: MATERIAL 1, MINOR 0, UNCERTAIN 2, STABLE 5. Data-quality findings: 3.} */
+    static String verdictCounts(List<Finding> findings) {
+        Map<Verdict, Integer> counts = new EnumMap<>(Verdict.class);
+        long dq = 0;
+        for (Finding f : findings) {
+            if (f.verdict() != null && f.kind() == org.wavewarden.judge.FindingKind.SHIFT) {
+                counts.merge(f.verdict(), 1, Integer::sum);
+            } else if (f.kind().isDataQuality()) {
+                dq++;
+            }
+        }
+        StringBuilder sb = new StringBuilder("Shift verdicts: ");
+        for (Verdict v : Verdict.values()) {
+            sb.append(v.name()).append(' ').append(counts.getOrDefault(v, 0)).append(v == Verdict.STABLE ? "" : ", ");
+        }
+        return sb.append(". Data-quality findings: ").append(dq).append('.').toString();
     }
 
     static String escape(String s) {

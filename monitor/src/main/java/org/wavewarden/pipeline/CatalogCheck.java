@@ -69,11 +69,47 @@ public final class CatalogCheck {
             throw new ConfigException(key + ".weightColumn", "column " + d.weightColumn() + " does not exist in the"
                     + " source table; it has " + names(columns));
         }
+        if (d.respondentKey() != null && columns.stream().noneMatch(c -> c.name().equals(d.respondentKey()))) {
+            throw new ConfigException(key + ".respondentKey", "column " + d.respondentKey() + " does not exist in the"
+                    + " source table; it has " + names(columns));
+        }
+        if (d.releaseColumn() != null && columns.stream().noneMatch(c -> c.name().equals(d.releaseColumn()))) {
+            throw new ConfigException(key + ".releases.column", "column " + d.releaseColumn() + " does not exist in"
+                    + " the source table; it has " + names(columns));
+        }
+        if (d.releases() != null && d.releases().previousTable() != null) {
+            verifyPreviousTable(h, d, key);
+        }
         for (int j = 0; j < d.exclude().size(); j++) {
             String name = d.exclude().get(j);
             if (columns.stream().noneMatch(c -> c.name().equals(name))) {
                 throw new ConfigException(key + ".exclude[" + j + "]", "column " + name + " does not exist in the"
                         + " source table");
+            }
+        }
+    }
+
+    /** The earlier publication must exist and carry the respondent key, or no respondent can be matched. */
+    private static void verifyPreviousTable(Handle h, DatasetConfig d, String key) {
+        WaveSource prev = WaveSource.previousPublication(d, key);
+        String at = key + ".releases.previousTable";
+        if (prev.onePerWave()) {
+            String[] parts = prev.patternParts().orElseThrow();
+            if (SourceCatalog.tablesMatching(h, parts[0], parts[1], parts[2]).isEmpty()) {
+                throw new ConfigException(at, "no table in schema " + parts[0] + " matches "
+                        + d.releases().previousTable());
+            }
+            return;
+        }
+        List<SourceColumn> columns = SourceCatalog.columns(h, prev.table());
+        if (columns.isEmpty()) {
+            throw new ConfigException(at, "table " + prev.table() + " does not exist in the source database (or this"
+                    + " role cannot see it)");
+        }
+        for (String needed : new String[] {d.waveColumn(), d.respondentKey()}) {
+            if (columns.stream().noneMatch(c -> c.name().equals(needed))) {
+                throw new ConfigException(at, "table " + prev.table() + " has no column " + needed + "; the earlier"
+                        + " publication needs the same layout; it has " + names(columns));
             }
         }
     }

@@ -150,28 +150,45 @@ public final class WaveJudge {
     public static Profiled findings(WardenConfig cfg, DatasetConfig d, WaveProfile current, WaveProfile baseline) {
         List<String> inference = new ArrayList<>();
         List<VariableConfig> variables = variables(d, current, inference);
-        VariableComparator comparator = new VariableComparator(1 - cfg.alpha());
+        List<Finding> findings = new ArrayList<>(judgeVariables(variables, baseline == null ? null
+                : baseline.columns(), current.columns(), cfg.alpha(), cfg.fdr(), d.name() + " wave " + current.wave()));
+        findings.addAll(schemaFindings(d, baseline, current));
+        return new Profiled(FindingsFiles.ordered(findings), inference);
+    }
+
+    /**
+     * Every variable's comparisons and data-quality findings between two sets of tallies, judged together: one
+     * false-discovery-rate family, the verdict rule, one missing-rate finding per variable, shape findings only
+     * where they add something. A variable that cannot be analysed gets a SKIPPED finding instead. Public so that
+     * two sides that are not two waves' summaries (two releases of one wave) are judged exactly as waves are.
+     *
+     * @param baseline the baseline's tallies by column, or null when there is nothing to compare with
+     * @param what     names the comparison in the log, e.g. {@code labour wave 2025-Q1}
+     */
+    public static List<Finding> judgeVariables(List<VariableConfig> variables, Map<String, ColumnTally> baseline,
+                                               Map<String, ColumnTally> current, double alpha,
+                                               WardenConfig.FdrMethod fdr, String what) {
+        VariableComparator comparator = new VariableComparator(1 - alpha);
         List<Comparison> comparisons = new ArrayList<>();
-        List<Finding> plain = new ArrayList<>(schemaFindings(d, baseline, current));
+        List<Finding> plain = new ArrayList<>();
         Map<String, Double> summarised = new LinkedHashMap<>();
         for (VariableConfig v : variables) {
-            ColumnTally ct = current.columns().get(v.name());
+            ColumnTally ct = current.get(v.name());
             if (ct == null) {
                 continue;
             }
-            ColumnTally bt0 = baseline == null ? null : baseline.columns().get(v.name());
-            double error = Math.max(ct.binning().relativeError(), bt0 == null ? 0 : bt0.binning().relativeError());
+            ColumnTally bt = baseline == null ? null : baseline.get(v.name());
+            double error = Math.max(ct.binning().relativeError(), bt == null ? 0 : bt.binning().relativeError());
             if (error > 0) {
                 summarised.put(v.name(), error);
             }
             List<Comparison> mine = new ArrayList<>();
             List<Finding> myPlain = new ArrayList<>();
             try {
-                judgeVariable(comparator, v, ct, baseline == null ? null : baseline.columns().get(v.name()), mine,
-                        myPlain);
+                judgeVariable(comparator, v, ct, bt, mine, myPlain);
             } catch (RuntimeException e) {
                 // A value no method foresaw must cost one variable its comparison, never the whole run.
-                LOG.warn("variable {} of {} wave {} could not be compared: {}", v.name(), d.name(), current.wave(), e.toString());
+                LOG.warn("variable {} of {} could not be compared: {}", v.name(), what, e.toString());
                 mine.clear();
                 myPlain.clear();
                 myPlain.add(Finding.dataQuality(v.name(), FindingKind.SKIPPED, null, null, "Not compared: the"
@@ -182,9 +199,9 @@ public final class WaveJudge {
             plain.addAll(myPlain);
         }
         List<Finding> findings = new ArrayList<>(withSummaryError(shapeOnlyWhereLocationIsQuiet(
-                onePerVariableAndKind(Judge.judge(comparisons, cfg.alpha(), cfg.fdr()))), summarised));
+                onePerVariableAndKind(Judge.judge(comparisons, alpha, fdr))), summarised));
         findings.addAll(plain);
-        return new Profiled(FindingsFiles.ordered(findings), inference);
+        return findings;
     }
 
     /**
@@ -208,8 +225,8 @@ public final class WaveJudge {
         return out;
     }
 
-    private static void judgeVariable(VariableComparator comparator, VariableConfig v, ColumnTally ct, ColumnTally bt,
-                               List<Comparison> comparisons, List<Finding> plain) {
+    private static void judgeVariable(VariableComparator comparator, VariableConfig v, ColumnTally ct,
+                                      ColumnTally bt, List<Comparison> comparisons, List<Finding> plain) {
         ScreenedVariable sc = VariableScreen.screen(ct, v);
         ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v);
         reference(comparator, v, sc).ifPresent(comparisons::add);
@@ -279,8 +296,9 @@ public final class WaveJudge {
                 || location.get(f.variable()) == Verdict.UNCERTAIN))).toList();
     }
 
-    private static Optional<Comparison> compare(VariableComparator comparator, VariableConfig v, ScreenedVariable b,
-                                         ScreenedVariable c, ColumnTally ct, ColumnTally bt) {
+    private static Optional<Comparison> compare(VariableComparator comparator, VariableConfig v,
+                                                ScreenedVariable b, ScreenedVariable c, ColumnTally ct,
+                                                ColumnTally bt) {
         if (skipReason(v, b, c, ct, bt) != null) {
             return Optional.empty();
         }
@@ -346,8 +364,7 @@ public final class WaveJudge {
         Map<String, ColumnType> schema = new LinkedHashMap<>();
         all.forEach(c -> schema.put(c.name(), c.type()));
         List<SourceColumn> monitored = all.stream()
-                .filter(c -> !c.name().equals(d.waveColumn()) && !d.exclude().contains(c.name())
-                        && !c.name().equals(d.weightColumn())).toList();
+                .filter(c -> !d.isBookkeeping(c.name())).toList();
         SourceColumn weight = all.stream().filter(c -> c.name().equals(d.weightColumn())).findFirst().orElse(null);
         WaveScanner.WaveScan scan = scanner.scan(h, source, wave, monitored, weight, progress);
         return new WaveProfile(wave, scan.rows(), schema, scan.columns(), scan.weights());
@@ -369,8 +386,14 @@ public final class WaveJudge {
     }
 
     private static List<VariableConfig> variables(DatasetConfig d, WaveProfile current, List<String> inference) {
+        return variables(d, current.columns().values(), inference);
+    }
+
+    /** The declared variables, and for every other tallied column the inferred one, described in {@code inference}. */
+    public static List<VariableConfig> variables(DatasetConfig d, java.util.Collection<ColumnTally> tallies,
+                                                 List<String> inference) {
         List<VariableConfig> out = new ArrayList<>(d.variables());
-        for (ColumnTally t : current.columns().values()) {
+        for (ColumnTally t : tallies) {
             if (d.variables().stream().noneMatch(v -> v.name().equals(t.column()))) {
                 VariableInference.Inferred i = VariableInference.infer(t);
                 inference.add(VariableInference.describe(i));
