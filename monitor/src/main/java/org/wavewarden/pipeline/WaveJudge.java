@@ -3,6 +3,7 @@ package org.wavewarden.pipeline;
 import org.jdbi.v3.core.Handle;
 import org.wavewarden.compare.Comparison;
 import org.wavewarden.compare.VariableComparator;
+import org.wavewarden.compare.WeightedComparator;
 import org.wavewarden.config.CompareWith;
 import org.wavewarden.config.ConfigException;
 import org.wavewarden.config.DatasetConfig;
@@ -151,6 +152,7 @@ public final class WaveJudge {
         List<String> inference = new ArrayList<>();
         List<VariableConfig> variables = variables(d, current, inference);
         VariableComparator comparator = new VariableComparator(1 - cfg.alpha());
+        WeightedComparator weighted = new WeightedComparator(1 - cfg.alpha());
         List<Comparison> comparisons = new ArrayList<>();
         List<Finding> plain = new ArrayList<>(schemaFindings(d, baseline, current));
         Map<String, Double> summarised = new LinkedHashMap<>();
@@ -167,8 +169,9 @@ public final class WaveJudge {
             List<Comparison> mine = new ArrayList<>();
             List<Finding> myPlain = new ArrayList<>();
             try {
-                judgeVariable(comparator, v, ct, baseline == null ? null : baseline.columns().get(v.name()), mine,
-                        myPlain);
+                judgeVariable(comparator, weighted, v, ct, baseline == null ? null : baseline.columns().get(v.name()),
+                        WeightedComparisons.weightsOf(d, current, v.name()),
+                        WeightedComparisons.weightsOf(d, baseline, v.name()), mine, myPlain);
             } catch (RuntimeException e) {
                 // A value no method foresaw must cost one variable its comparison, never the whole run.
                 LOG.warn("variable {} of {} wave {} could not be compared: {}", v.name(), d.name(), current.wave(), e.toString());
@@ -208,21 +211,25 @@ public final class WaveJudge {
         return out;
     }
 
-    private static void judgeVariable(VariableComparator comparator, VariableConfig v, ColumnTally ct, ColumnTally bt,
-                               List<Comparison> comparisons, List<Finding> plain) {
-        ScreenedVariable sc = VariableScreen.screen(ct, v);
-        ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v);
-        reference(comparator, v, sc).ifPresent(comparisons::add);
+    private static void judgeVariable(VariableComparator comparator, WeightedComparator weighted, VariableConfig v,
+                                      ColumnTally ct, ColumnTally bt, Map<String, double[]> cw,
+                                      Map<String, double[]> bw, List<Comparison> comparisons, List<Finding> plain) {
+        ScreenedVariable sc = VariableScreen.screen(ct, v, cw);
+        ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v, bw);
+        (sc.weighted() == null ? reference(comparator, v, sc) : WeightedComparisons.reference(weighted, v, sc)
+                .or(() -> reference(comparator, v, sc))).ifPresent(comparisons::add);
         DataQualityFindings.Result dq = DataQualityFindings.of(v, ct, sc, sb, comparator);
         plain.addAll(dq.findings());
         comparisons.addAll(dq.rateComparisons());
         if (sb == null) {
             return;
         }
-        compare(comparator, v, sb, sc, ct, bt).ifPresentOrElse(c -> {
+        boolean weigh = WeightedComparisons.applies(sb, sc);
+        compare(comparator, v, sb, sc, ct, bt, weigh ? weighted : null).ifPresentOrElse(c -> {
             comparisons.add(c);
             if (v.kind() == VariableKind.CONTINUOUS) {
-                comparisons.add(comparator.shape(v.name(), sb.numeric(), sc.numeric(), v.unit()));
+                comparisons.add(weigh ? WeightedComparisons.shape(weighted, v, sb, sc)
+                        : comparator.shape(v.name(), sb.numeric(), sc.numeric(), v.unit()));
             }
         }, () -> {
             String why = skipReason(v, sb, sc, ct, bt);
@@ -280,9 +287,13 @@ public final class WaveJudge {
     }
 
     private static Optional<Comparison> compare(VariableComparator comparator, VariableConfig v, ScreenedVariable b,
-                                         ScreenedVariable c, ColumnTally ct, ColumnTally bt) {
+                                         ScreenedVariable c, ColumnTally ct, ColumnTally bt,
+                                         WeightedComparator weighted) {
         if (skipReason(v, b, c, ct, bt) != null) {
             return Optional.empty();
+        }
+        if (weighted != null) {
+            return WeightedComparisons.compare(weighted, v, b, c);
         }
         return switch (v.kind()) {
             case CONTINUOUS, ORDINAL -> Optional.of(comparator.numeric(v.name(), v.kind() == VariableKind.ORDINAL,
@@ -332,7 +343,7 @@ public final class WaveJudge {
         if (v.kind() == VariableKind.CATEGORICAL && b.categories().unionOrder(c.categories()).size() < 2) {
             return "a single category";
         }
-        return null;
+        return WeightedComparisons.skipReason(b, c);
     }
 
     private WaveProfile profile(Handle h, DatasetConfig d, WaveSource source, String wave, LongConsumer progress) {
