@@ -57,6 +57,9 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
  * pool &lt;- svydesign(ids = ~1, weights = ~w, data = d3[d3$wave &lt; 3, ]); m &lt;- svymean(~owns_home, pool); print(c(coef(m), SE(m)))
  * sp &lt;- svydesign(ids = ~1, strata = ~late, weights = ~w, data = d3)
  * t &lt;- svyttest(owns_home ~ late, sp); print(c(t$estimate, t$statistic))
+ * # income against its reference mean 1950 in wave 2
+ * t &lt;- svyttest(I(income - 1950) ~ 0, svydesign(ids = ~1, weights = ~w, data = d[d$wave == 2, ]))
+ * print(c(t$estimate, t$statistic))
  * </pre>
  * svyttest's df (3977) leaves out the zero-weight rows and one more for its regression; the design df used here is
  * #PSU - #strata = 3998, so p-values are not compared with svyttest's.
@@ -90,7 +93,7 @@ class WeightedJudgeIntegrationTest {
                     variables:
                       - {name: owns_home, kind: binary, successValue: "1"}
                       - {name: region, kind: categorical}
-                      - {name: income, kind: continuous, unit: EUR}
+                      - {name: income, kind: continuous, unit: EUR, reference: {mean: 1950}}
                 """;
         config = ConfigLoader.parse("source:\n  jdbcUrl: \"" + url + "\"\n  user: postgres\n"
                 + "results:\n  schema: weighted_results\ndatasets:\n"
@@ -186,6 +189,17 @@ class WeightedJudgeIntegrationTest {
         assertTrue(income.sentence().startsWith("Weighted mean income rose from 1889 to 2033 EUR"),
                 income.sentence());
         assertTrue(income.sentence().contains("weighted: Kish effective sample sizes 1849"), income.sentence());
+    }
+
+    @Test
+    void theReferenceMeanIsTestedOnTheWeightedMean() {
+        Finding ref = judge(0, "2").stream().filter(f -> f.variable().equals("income")
+                && f.kind() == FindingKind.REFERENCE).findFirst().orElseThrow();
+        assertEquals("design-based one-sample t on the weighted mean", ref.test());
+        // R: svyttest(I(income - 1950) ~ 0, des): estimate, t
+        rel(83.1984271602570, ref.effect().estimate(), "difference from the reference");
+        rel(7.59911983996282, ref.statistic(), "t");
+        assertTrue(ref.sentence().contains("Kish effective sample size 1649"), ref.sentence());
     }
 
     @Test
