@@ -87,6 +87,9 @@ class WeightedJudgeIntegrationTest {
                            (ARRAY['north', 'east', 'south', 'west'])[1 + (g / 2) % 4] AS region,
                            1000 + (g % 50) * 20 + 800 * (g % 2) AS income
                     FROM generate_series(1, 3) wave, generate_series(1, 2000) g;
+                    CREATE TABLE survey.unweighable AS
+                    SELECT wave::text AS wave, g % 2 AS owns_home, CASE WHEN wave = 1 THEN 1.5 ELSE 0 END AS w
+                    FROM generate_series(1, 2) wave, generate_series(1, 50) g;
                     """);
         }
         String variables = """
@@ -102,7 +105,8 @@ class WeightedJudgeIntegrationTest {
                 + "  - name: unweighted\n    table: survey.household\n    waveColumn: wave\n"
                 + "    exclude: [household_id, w]\n" + variables
                 + "  - name: pooled\n    table: survey.household\n    waveColumn: wave\n"
-                + "    exclude: [household_id]\n    weightColumn: w\n    compareWith: {pooledLast: 2}\n" + variables);
+                + "    exclude: [household_id]\n    weightColumn: w\n    compareWith: {pooledLast: 2}\n" + variables
+                + "  - name: unweighable\n    table: survey.unweighable\n    waveColumn: wave\n    weightColumn: w\n");
         session = Session.open(config, null, Map.of());
         session.migrate();
     }
@@ -213,6 +217,13 @@ class WeightedJudgeIntegrationTest {
         rel(1.19939387291713e+04, d.denominatorDf(), "ddf");
         assertEquals(Verdict.STABLE, region.verdict(), region.sentence());
         assertTrue(region.effect().name().startsWith("Cramér's V (weighted"), region.effect().name());
+    }
+
+    @Test
+    void aWaveWithoutPositiveWeightsIsSkippedWithItsReason() {
+        Finding skipped = judge(3, "2").stream().filter(f -> f.variable().equals("owns_home")
+                && f.kind() == FindingKind.SKIPPED).findFirst().orElseThrow();
+        assertEquals("Not compared: no valid answer carries a positive weight in a wave.", skipped.sentence());
     }
 
     @Test

@@ -18,21 +18,18 @@ public final class TallyEstimates {
 
     /** Weighted mean of the tally's values with its design-based standard error and design effects. */
     public static DesignEstimate mean(WeightedTally t) {
-        check(t);
+        double sw2 = weightedVariance(t);
         long n = t.n();
         double total = t.totalWeight();
         double mean = weightedMean(t, total);
         double s = 0;
         double zz = 0;
-        double ss = 0;
         for (int i = 0; i < t.size(); i++) {
             double e = t.value(i) - mean;
             s += t.weight(i) * e / total;
             zz += t.squaredWeight(i) * e * e / (total * total);
-            ss += t.weight(i) * e * e;
         }
-        double v = n / (n - 1.0) * (zz - s * s / n);
-        return estimate(mean, v, n / (n - 1.0) * ss / total, n, total);
+        return estimate(mean, n / (n - 1.0) * (zz - s * s / n), sw2, n, total);
     }
 
     /**
