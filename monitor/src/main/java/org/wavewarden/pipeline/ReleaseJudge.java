@@ -121,7 +121,7 @@ public final class ReleaseJudge {
             List<String> inference = new ArrayList<>();
             List<VariableConfig> variables = WaveJudge.variables(d, a.values(), inference);
             return new ReleaseRevision.Distributions(inference, FindingsFiles.ordered(
-                    WaveJudge.judgeVariables(variables, b, a, cfg.alpha(), cfg.fdr(), what)));
+                    WaveJudge.judgeVariables(variables, b, a, null, null, cfg.alpha(), cfg.fdr(), what)));
         });
         return new ReleaseReport(d.name(), wave, sides.layout(), sides.beforeSelection().label(),
                 sides.afterSelection().label(), d.respondentKey(), clock.instant(), cfg.alpha(), cfg.fdr().name(),

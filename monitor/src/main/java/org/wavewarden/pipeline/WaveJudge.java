@@ -3,6 +3,7 @@ package org.wavewarden.pipeline;
 import org.jdbi.v3.core.Handle;
 import org.wavewarden.compare.Comparison;
 import org.wavewarden.compare.VariableComparator;
+import org.wavewarden.compare.WeightedComparator;
 import org.wavewarden.config.CompareWith;
 import org.wavewarden.config.ConfigException;
 import org.wavewarden.config.DatasetConfig;
@@ -150,8 +151,10 @@ public final class WaveJudge {
     public static Profiled findings(WardenConfig cfg, DatasetConfig d, WaveProfile current, WaveProfile baseline) {
         List<String> inference = new ArrayList<>();
         List<VariableConfig> variables = variables(d, current, inference);
+        boolean weighted = d.weightColumn() != null;
         List<Finding> findings = new ArrayList<>(judgeVariables(variables, baseline == null ? null
-                : baseline.columns(), current.columns(), cfg.alpha(), cfg.fdr(), d.name() + " wave " + current.wave()));
+                : baseline.columns(), current.columns(), weighted && baseline != null ? baseline.weights() : null,
+                weighted ? current.weights() : null, cfg.alpha(), cfg.fdr(), d.name() + " wave " + current.wave()));
         findings.addAll(schemaFindings(d, baseline, current));
         return new Profiled(FindingsFiles.ordered(findings), inference);
     }
@@ -162,13 +165,18 @@ public final class WaveJudge {
      * where they add something. A variable that cannot be analysed gets a SKIPPED finding instead. Public so that
      * two sides that are not two waves' summaries (two releases of one wave) are judged exactly as waves are.
      *
-     * @param baseline the baseline's tallies by column, or null when there is nothing to compare with
-     * @param what     names the comparison in the log, e.g. {@code labour wave 2025-Q1}
+     * @param baseline        the baseline's tallies by column, or null when there is nothing to compare with
+     * @param baselineWeights per column and value the baseline's weight sums, or null to compare unweighted
+     * @param currentWeights  the same for the current side
+     * @param what            names the comparison in the log, e.g. {@code labour wave 2025-Q1}
      */
     public static List<Finding> judgeVariables(List<VariableConfig> variables, Map<String, ColumnTally> baseline,
-                                               Map<String, ColumnTally> current, double alpha,
+                                               Map<String, ColumnTally> current,
+                                               Map<String, Map<String, double[]>> baselineWeights,
+                                               Map<String, Map<String, double[]>> currentWeights, double alpha,
                                                WardenConfig.FdrMethod fdr, String what) {
         VariableComparator comparator = new VariableComparator(1 - alpha);
+        WeightedComparator weighted = new WeightedComparator(1 - alpha);
         List<Comparison> comparisons = new ArrayList<>();
         List<Finding> plain = new ArrayList<>();
         Map<String, Double> summarised = new LinkedHashMap<>();
@@ -185,7 +193,9 @@ public final class WaveJudge {
             List<Comparison> mine = new ArrayList<>();
             List<Finding> myPlain = new ArrayList<>();
             try {
-                judgeVariable(comparator, v, ct, bt, mine, myPlain);
+                judgeVariable(comparator, weighted, v, ct, bt,
+                        currentWeights == null ? null : currentWeights.get(v.name()),
+                        baselineWeights == null ? null : baselineWeights.get(v.name()), mine, myPlain);
             } catch (RuntimeException e) {
                 // A value no method foresaw must cost one variable its comparison, never the whole run.
                 LOG.warn("variable {} of {} could not be compared: {}", v.name(), what, e.toString());
@@ -225,21 +235,25 @@ public final class WaveJudge {
         return out;
     }
 
-    private static void judgeVariable(VariableComparator comparator, VariableConfig v, ColumnTally ct,
-                                      ColumnTally bt, List<Comparison> comparisons, List<Finding> plain) {
-        ScreenedVariable sc = VariableScreen.screen(ct, v);
-        ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v);
-        reference(comparator, v, sc).ifPresent(comparisons::add);
+    private static void judgeVariable(VariableComparator comparator, WeightedComparator weighted, VariableConfig v,
+                                      ColumnTally ct, ColumnTally bt, Map<String, double[]> cw,
+                                      Map<String, double[]> bw, List<Comparison> comparisons, List<Finding> plain) {
+        ScreenedVariable sc = VariableScreen.screen(ct, v, cw);
+        ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v, bw);
+        (sc.weighted() == null ? reference(comparator, v, sc) : WeightedComparisons.reference(weighted, v, sc)
+                .or(() -> reference(comparator, v, sc))).ifPresent(comparisons::add);
         DataQualityFindings.Result dq = DataQualityFindings.of(v, ct, sc, sb, comparator);
         plain.addAll(dq.findings());
         comparisons.addAll(dq.rateComparisons());
         if (sb == null) {
             return;
         }
-        compare(comparator, v, sb, sc, ct, bt).ifPresentOrElse(c -> {
+        boolean weigh = WeightedComparisons.applies(sb, sc);
+        compare(comparator, v, sb, sc, ct, bt, weigh ? weighted : null).ifPresentOrElse(c -> {
             comparisons.add(c);
             if (v.kind() == VariableKind.CONTINUOUS) {
-                comparisons.add(comparator.shape(v.name(), sb.numeric(), sc.numeric(), v.unit()));
+                comparisons.add(weigh ? WeightedComparisons.shape(weighted, v, sb, sc)
+                        : comparator.shape(v.name(), sb.numeric(), sc.numeric(), v.unit()));
             }
         }, () -> {
             String why = skipReason(v, sb, sc, ct, bt);
@@ -298,9 +312,12 @@ public final class WaveJudge {
 
     private static Optional<Comparison> compare(VariableComparator comparator, VariableConfig v,
                                                 ScreenedVariable b, ScreenedVariable c, ColumnTally ct,
-                                                ColumnTally bt) {
+                                                ColumnTally bt, WeightedComparator weighted) {
         if (skipReason(v, b, c, ct, bt) != null) {
             return Optional.empty();
+        }
+        if (weighted != null) {
+            return WeightedComparisons.compare(weighted, v, b, c);
         }
         return switch (v.kind()) {
             case CONTINUOUS, ORDINAL -> Optional.of(comparator.numeric(v.name(), v.kind() == VariableKind.ORDINAL,
@@ -350,7 +367,7 @@ public final class WaveJudge {
         if (v.kind() == VariableKind.CATEGORICAL && b.categories().unionOrder(c.categories()).size() < 2) {
             return "a single category";
         }
-        return null;
+        return WeightedComparisons.skipReason(b, c);
     }
 
     private WaveProfile profile(Handle h, DatasetConfig d, WaveSource source, String wave, LongConsumer progress) {

@@ -69,40 +69,83 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
         return List.copyOf(columns.keySet());
     }
 
-    /** Pools several waves' profiles (for comparison against the pooled last k waves). */
+    /**
+     * Pools several waves' profiles (for comparison against the pooled last k waves). A column's weight sums are
+     * pooled with its counts, value by value (in the coarser binning for summarised columns); a column keeps weights
+     * in the pool only when every wave that has the column has its weights, so a pool never mixes weighted and
+     * unweighted waves.
+     */
     public static WaveProfile pooled(String label, List<WaveProfile> waves) {
         long rows = 0;
         Map<String, ColumnType> schema = new LinkedHashMap<>();
         Map<String, ColumnTally> columns = new LinkedHashMap<>();
+        Map<String, Map<String, double[]>> weights = new LinkedHashMap<>();
+        java.util.Set<String> unweighted = new java.util.HashSet<>();
         for (WaveProfile w : waves) {
             rows += w.rows;
             schema.putAll(w.schema);
             for (ColumnTally t : w.columns.values()) {
                 ColumnTally prev = columns.get(t.column());
+                Map<String, double[]> tw = w.weights.get(t.column());
+                if (tw == null) {
+                    unweighted.add(t.column());
+                }
                 if (prev == null) {
                     columns.put(t.column(), t);
+                    if (tw != null) {
+                        weights.put(t.column(), tw);
+                    }
                 } else {
-                    columns.put(t.column(), pooled(prev, t));
+                    Pooled p = pooled(prev, weights.get(t.column()), t, tw);
+                    columns.put(t.column(), p.tally());
+                    if (p.weights() != null) {
+                        weights.put(t.column(), p.weights());
+                    }
                 }
             }
         }
-        return new WaveProfile(label, rows, schema, columns);
+        unweighted.forEach(weights::remove);
+        return new WaveProfile(label, rows, schema, columns, weights);
     }
 
     /** Two waves' tallies of one column as one; summarised tallies pool in the coarser binning of the two. */
     static ColumnTally pooled(ColumnTally a, ColumnTally b) {
+        return pooled(a, null, b, null).tally();
+    }
+
+    /** A pooled tally and its weight sums (null unless both parts had them). */
+    record Pooled(ColumnTally tally, Map<String, double[]> weights) {
+    }
+
+    static Pooled pooled(ColumnTally a, Map<String, double[]> aw, ColumnTally b, Map<String, double[]> bw) {
+        boolean weighted = aw != null && bw != null;
         Map<String, Long> merged;
+        Map<String, double[]> mergedWeights = null;
         Binning binning = a.binning().coarser(b.binning());
         if (binning.isExact()) {
             merged = new java.util.HashMap<>(a.valueCounts());
             b.valueCounts().forEach((v, c) -> merged.merge(v, c, Long::sum));
+            if (weighted) {
+                mergedWeights = new java.util.HashMap<>();
+                for (Map<String, double[]> part : List.of(aw, bw)) {
+                    for (Map.Entry<String, double[]> e : part.entrySet()) {
+                        double[] cell = mergedWeights.computeIfAbsent(e.getKey(), k -> new double[2]);
+                        cell[0] += e.getValue()[0];
+                        cell[1] += e.getValue()[1];
+                    }
+                }
+            }
         } else {
-            RelativeBins bins = RelativeBins.of(binning.level(), false, a.valueCounts(), null);
-            b.valueCounts().forEach((v, c) -> bins.add(Double.parseDouble(v.strip()), c, 0, 0));
+            RelativeBins bins = RelativeBins.of(binning.level(), false, a.valueCounts(), weighted ? aw : null);
+            b.valueCounts().forEach((v, c) -> {
+                double[] w = weighted ? bw.get(v) : null;
+                bins.add(Double.parseDouble(v.strip()), c, w == null ? 0 : w[0], w == null ? 0 : w[1]);
+            });
             merged = bins.counts();
             binning = bins.binning();
+            mergedWeights = weighted ? bins.weights() : null;
         }
-        return new ColumnTally(a.column(), b.type(), a.rowCount() + b.rowCount(), a.nullCount() + b.nullCount(),
-                merged, a.truncated() || b.truncated(), binning);
+        return new Pooled(new ColumnTally(a.column(), b.type(), a.rowCount() + b.rowCount(),
+                a.nullCount() + b.nullCount(), merged, a.truncated() || b.truncated(), binning), mergedWeights);
     }
 }
