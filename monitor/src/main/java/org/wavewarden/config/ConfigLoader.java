@@ -250,7 +250,7 @@ public final class ConfigLoader {
         DatasetConfig dataset(ObjectNode node, String path) {
             known(node, path, "name", "table", "waveColumn", "tablePattern", "waveOrder", "compareWith", "schedule",
                     "exclude", "variables", "quietPeriod", "alerts", "readyTable", "readyColumn", "weightColumn",
-                    "respondentKey", "releases");
+                    "respondentKey", "releases", "design");
             String name = text(node, "name", path + ".name", true);
             if (!name.matches("[A-Za-z0-9][A-Za-z0-9_.-]{0,99}")) {
                 throw new ConfigException(path + ".name", "expected letters, digits, '-', '_' or '.' (at most 100)"
@@ -320,7 +320,43 @@ public final class ConfigLoader {
                     compareWith(node.get("compareWith"), path + ".compareWith"), schedule, exclude, variables,
                     duration(node, "quietPeriod", path + ".quietPeriod"),
                     alerts(object(node, "alerts", path + ".alerts", false), path + ".alerts"),
-                    readyTable(node, path), readyColumn(node, path), weightColumn(node, path), key, releases);
+                    readyTable(node, path), readyColumn(node, path), weightColumn(node, path), key, releases,
+                    design(object(node, "design", path + ".design", false), path, waveColumn, key,
+                            weightColumn(node, path)));
+        }
+
+        DesignColumns design(ObjectNode node, String datasetPath, String waveColumn, String key, String weight) {
+            if (node == null) {
+                return null;
+            }
+            String p = datasetPath + ".design";
+            known(node, p, "strata", "clusters");
+            String strata = text(node, "strata", p + ".strata", false);
+            String clusters = text(node, "clusters", p + ".clusters", false);
+            if (clusters == null) {
+                throw new ConfigException(p + ".clusters", "missing: the column naming each respondent's primary"
+                        + " sampling unit (with strata optional); without clusters, weightColumn alone gives the"
+                        + " weights-only design");
+            }
+            if (weight == null) {
+                throw new ConfigException(datasetPath + ".weightColumn", "missing: a design needs the survey weights"
+                        + " it was drawn with");
+            }
+            for (String[] c : new String[][] {{"strata", strata}, {"clusters", clusters}}) {
+                if (c[1] == null) {
+                    continue;
+                }
+                Identifiers.require(p + "." + c[0], c[1]);
+                if (c[1].equals(waveColumn) || c[1].equals(key) || c[1].equals(weight)) {
+                    throw new ConfigException(p + "." + c[0], "expected a column of its own, but '" + c[1]
+                            + "' is the " + (c[1].equals(waveColumn) ? "wave column" : c[1].equals(key)
+                            ? "respondent key" : "weight column"));
+                }
+            }
+            if (strata != null && strata.equals(clusters)) {
+                throw new ConfigException(p + ".clusters", "expected a column other than the strata column");
+            }
+            return new DesignColumns(strata, clusters);
         }
 
         String respondentKey(ObjectNode node, String path, String waveColumn) {

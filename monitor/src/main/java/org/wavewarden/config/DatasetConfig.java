@@ -24,12 +24,13 @@ import java.util.List;
  * @param respondentKey optional column identifying a respondent across waves and releases; never compared as a
  *                     variable
  * @param releases     optional: where earlier publications of a wave are kept (needs {@code respondentKey})
+ * @param design       optional strata and cluster columns of the sampling design (needs {@code weightColumn})
  */
 public record DatasetConfig(String name, String table, String waveColumn, String tablePattern, WaveOrder waveOrder,
                             CompareWith compareWith, String schedule, List<String> exclude,
                             List<VariableConfig> variables, java.time.Duration quietPeriod, SinkSettings alerts,
                             String readyTable, String readyColumn, String weightColumn, String respondentKey,
-                            ReleasesConfig releases) {
+                            ReleasesConfig releases, DesignColumns design) {
 
     public DatasetConfig {
         waveOrder = waveOrder == null ? WaveOrder.NATURAL : waveOrder;
@@ -47,10 +48,10 @@ public record DatasetConfig(String name, String table, String waveColumn, String
 
     /**
      * Whether a column is bookkeeping rather than an answer: the wave and release columns, the respondent key, the
-     * weight and the excluded columns are never compared as variables.
+     * weight, the design and the excluded columns are never compared as variables.
      */
     public boolean isBookkeeping(String column) {
         return column.equals(waveColumn) || column.equals(releaseColumn()) || column.equals(respondentKey)
-                || column.equals(weightColumn) || exclude.contains(column);
+                || column.equals(weightColumn) || exclude.contains(column) || (design != null && design.names(column));
     }
 }

@@ -69,6 +69,14 @@ public final class CatalogCheck {
             throw new ConfigException(key + ".weightColumn", "column " + d.weightColumn() + " does not exist in the"
                     + " source table; it has " + names(columns));
         }
+        if (d.design() != null) {
+            for (String[] c : new String[][] {{"strata", d.design().strata()}, {"clusters", d.design().clusters()}}) {
+                if (c[1] != null && columns.stream().noneMatch(x -> x.name().equals(c[1]))) {
+                    throw new ConfigException(key + ".design." + c[0], "column " + c[1] + " does not exist in the"
+                            + " source table; it has " + names(columns));
+                }
+            }
+        }
         if (d.respondentKey() != null && columns.stream().noneMatch(c -> c.name().equals(d.respondentKey()))) {
             throw new ConfigException(key + ".respondentKey", "column " + d.respondentKey() + " does not exist in the"
                     + " source table; it has " + names(columns));

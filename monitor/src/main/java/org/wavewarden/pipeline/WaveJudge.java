@@ -64,7 +64,7 @@ public final class WaveJudge {
     @FunctionalInterface
     public interface Scanner {
         WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
-                                  SourceColumn weight, LongConsumer progress);
+                                  SourceColumn weight, WaveScanner.Design design, LongConsumer progress);
     }
 
     /** Reads waves with the given scanner from now on; returns this judge. */
@@ -382,9 +382,15 @@ public final class WaveJudge {
         all.forEach(c -> schema.put(c.name(), c.type()));
         List<SourceColumn> monitored = all.stream()
                 .filter(c -> !d.isBookkeeping(c.name())).toList();
-        SourceColumn weight = all.stream().filter(c -> c.name().equals(d.weightColumn())).findFirst().orElse(null);
-        WaveScanner.WaveScan scan = scanner.scan(h, source, wave, monitored, weight, progress);
-        return new WaveProfile(wave, scan.rows(), schema, scan.columns(), scan.weights());
+        SourceColumn weight = column(all, d.weightColumn());
+        WaveScanner.Design design = d.design() == null ? null
+                : new WaveScanner.Design(column(all, d.design().strata()), column(all, d.design().clusters()));
+        WaveScanner.WaveScan scan = scanner.scan(h, source, wave, monitored, weight, design, progress);
+        return new WaveProfile(wave, scan.rows(), schema, scan.columns(), scan.weights(), scan.design());
+    }
+
+    private static SourceColumn column(List<SourceColumn> all, String name) {
+        return name == null ? null : all.stream().filter(c -> c.name().equals(name)).findFirst().orElse(null);
     }
 
     /** The stored summary of an earlier wave, read from the source once if it was never stored or lacks columns. */

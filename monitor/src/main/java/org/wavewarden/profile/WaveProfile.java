@@ -18,9 +18,11 @@ import java.util.TreeMap;
  * @param schema  column name to storage class, for every column of the source table (not only monitored ones)
  * @param columns tallies of the monitored columns
  * @param weights with a weight column: per column and value, {sum of weights, sum of squared weights}
+ * @param design  with design columns: the PSUs and per column their weight sums; null otherwise (and for
+ *                summaries stored before designs were read)
  */
 public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns,
-                          Map<String, Map<String, double[]>> weights) {
+                          Map<String, Map<String, double[]>> weights, DesignSummary design) {
 
     public WaveProfile {
         schema = java.util.Collections.unmodifiableMap(new LinkedHashMap<>(schema));
@@ -29,7 +31,12 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
     }
 
     public WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns) {
-        this(wave, rows, schema, columns, Map.of());
+        this(wave, rows, schema, columns, Map.of(), null);
+    }
+
+    public WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns,
+                       Map<String, Map<String, double[]>> weights) {
+        this(wave, rows, schema, columns, weights, null);
     }
 
     /**
@@ -53,6 +60,16 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
             for (var w : new TreeMap<>(weights).entrySet()) {
                 new TreeMap<>(w.getValue()).forEach((v, s) -> feed(md, "w " + w.getKey() + " " + v.length() + ":" + v
                         + "=" + Double.doubleToLongBits(s[0]) + "," + Double.doubleToLongBits(s[1])));
+            }
+            if (design != null) {
+                feed(md, "design " + design.rowsWithoutPsu() + " " + design.psuStratum() + " " + design.psuLabel());
+                for (var c : new TreeMap<>(design.columns()).entrySet()) {
+                    var cd = c.getValue();
+                    feed(md, "psu " + c.getKey() + " " + cd.complete() + " " + java.util.Arrays.toString(cd.weight())
+                            + java.util.Arrays.toString(cd.weightedSum()) + java.util.Arrays.toString(cd.weightedSquares()));
+                    new TreeMap<>(cd.cells()).forEach((v, sums) -> feed(md, v.length() + ":" + v + "="
+                            + java.util.Arrays.toString(sums)));
+                }
             }
             return HexFormat.of().formatHex(md.digest());
         } catch (NoSuchAlgorithmException e) {

@@ -5,6 +5,7 @@ import org.postgresql.PGConnection;
 import org.postgresql.copy.CopyOut;
 import org.wavewarden.config.Identifiers;
 import org.wavewarden.profile.ColumnTally;
+import org.wavewarden.profile.DesignSummary;
 import org.wavewarden.profile.RelativeBins;
 
 import java.sql.Connection;
@@ -62,16 +63,21 @@ public final class WaveScanner {
      * weight is NULL or not a finite non-negative number count in {@code badWeights} and add no weight.
      */
     public record WaveScan(long rows, Map<String, ColumnTally> columns, Map<String, Map<String, double[]>> weights,
-                           long badWeights) {
+                           long badWeights, DesignSummary design) {
 
         public WaveScan(long rows, Map<String, ColumnTally> columns) {
-            this(rows, columns, Map.of(), 0);
+            this(rows, columns, Map.of(), 0, null);
+        }
+
+        public WaveScan(long rows, Map<String, ColumnTally> columns, Map<String, Map<String, double[]>> weights,
+                        long badWeights) {
+            this(rows, columns, weights, badWeights, null);
         }
 
         @Override
         public boolean equals(Object o) {
             return o instanceof WaveScan w && rows == w.rows && columns.equals(w.columns) && badWeights == w.badWeights
-                    && WaveScanner.sameWeights(weights, w.weights);
+                    && WaveScanner.sameWeights(weights, w.weights) && java.util.Objects.equals(design, w.design);
         }
 
         @Override
@@ -97,6 +103,23 @@ public final class WaveScanner {
             }
         }
         return true;
+    }
+
+    /** The stratum column (null for one stratum) and the cluster column of a wave's sampling design. */
+    public record Design(SourceColumn strata, SourceColumn clusters) {
+    }
+
+    /**
+     * The scanner interface's form: this reference scanner reads no sampling design (the binary scanner does).
+     *
+     * @throws IllegalArgumentException when a design is given
+     */
+    public WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, SourceColumn weight,
+                         Design design, LongConsumer progress) {
+        if (design != null) {
+            throw new IllegalArgumentException("the text scanner reads no sampling design; use the binary scanner");
+        }
+        return scan(h, source, wave, columns, weight, progress);
     }
 
     /** {@link #scan(Handle, WaveSource, String, List, SourceColumn, LongConsumer)} without a weight column. */
