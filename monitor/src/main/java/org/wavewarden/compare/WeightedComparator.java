@@ -7,6 +7,8 @@ import org.wavewarden.compare.categorical.CramersV;
 import org.wavewarden.compare.design.DesignEstimate;
 import org.wavewarden.compare.design.DesignMeanDifference;
 import org.wavewarden.compare.design.DesignMeanDifferenceResult;
+import org.wavewarden.compare.design.PsuTally;
+import org.wavewarden.compare.design.PsuTotals;
 import org.wavewarden.compare.design.RaoScott;
 import org.wavewarden.compare.design.RaoScottResult;
 import org.wavewarden.compare.design.TallyEstimates;
@@ -60,7 +62,20 @@ public final class WeightedComparator {
     public static final String CATEGORIES_TEST = "Rao-Scott F (second order) on weighted shares";
     public static final String SHAPE_TEST = "Kolmogorov-Smirnov on weighted distributions (Kish effective sizes)";
 
+    /** What a test name says when strata and clusters, not the weights alone, give its variance. */
+    public static final String WITH_DESIGN = " (stratified cluster design, Taylor linearisation)";
+
     private final double confidence;
+
+    /**
+     * Both waves' sampling designs as PSU sums of the variable's valid answers: {@code tally} for categories (and
+     * numeric variables whose every value's sums are kept), {@code totals} for numeric variables. With a design the
+     * variances come from the PSUs (Wolter 2007, Chapter 6) instead of the weights-only design; the estimates, the
+     * Kish figures and the effect sizes stay those of the weights.
+     */
+    public record Design(PsuTally baselineTally, PsuTally currentTally, PsuTotals baselineTotals,
+                         PsuTotals currentTotals) {
+    }
 
     public WeightedComparator(double confidence) {
         if (!(confidence > 0 && confidence < 1)) {
@@ -120,7 +135,14 @@ public final class WeightedComparator {
     /** Continuous and ordinal variables: the design-based t on weighted means. */
     public Comparison numeric(String variable, WeightedTally baseline, WeightedTally current, Threshold configured,
                               String unit) {
-        DesignMeanDifferenceResult md = DesignMeanDifference.test(baseline, current, confidence);
+        return numeric(variable, baseline, current, null, configured, unit);
+    }
+
+    /** The same with the waves' designs (null: weights only). */
+    public Comparison numeric(String variable, WeightedTally baseline, WeightedTally current, Design design,
+                              Threshold configured, String unit) {
+        DesignMeanDifferenceResult md = design == null ? DesignMeanDifference.test(baseline, current, confidence)
+                : DesignMeanDifference.test(design.baselineTotals(), design.currentTotals(), confidence);
         EffectSize diff = md.difference();
         double sdB = Math.sqrt(TallyEstimates.weightedVariance(baseline));
         double sdC = Math.sqrt(TallyEstimates.weightedVariance(current));
@@ -143,7 +165,8 @@ public final class WeightedComparator {
                 md.current().designEffect(), quartiles(baseline), quartiles(current), sdB, sdC, d, raw, ks, ksP);
         Change change = new Change("weighted mean " + variable, md.baseline().estimate(), md.current().estimate(),
                 false, unit, diff.estimate(), diff.ciLow(), diff.ciHigh(), weightingNote(wb, wc));
-        TestResult test = new TestResult(MEANS_TEST, md.test().statistic(), md.test().df(), md.test().pValue());
+        TestResult test = new TestResult(MEANS_TEST + (design == null ? "" : WITH_DESIGN), md.test().statistic(),
+                md.test().df(), md.test().pValue());
         return new Comparison(variable, FindingKind.SHIFT, test, t.rawScale() ? raw : d, t.value(), t.source(), nb,
                 nc, change, detail);
     }
@@ -169,7 +192,14 @@ public final class WeightedComparator {
      */
     public Comparison proportion(String variable, String successLabel, WeightedTally baseline, WeightedTally current,
                                  Threshold configured) {
-        DesignMeanDifferenceResult r = DesignMeanDifference.testShares(baseline, current, confidence);
+        return proportion(variable, successLabel, baseline, current, null, configured);
+    }
+
+    /** The same with the waves' designs, whose tallies hold the 0/1 indicator (null: weights only). */
+    public Comparison proportion(String variable, String successLabel, WeightedTally baseline, WeightedTally current,
+                                 Design design, Threshold configured) {
+        DesignMeanDifferenceResult r = design == null ? DesignMeanDifference.testShares(baseline, current, confidence)
+                : DesignMeanDifference.testShares(design.baselineTally(), design.currentTally(), confidence);
         Weighting wb = Weighting.of(baseline);
         Weighting wc = Weighting.of(current);
         EffectSize h = cohensH(r.baseline(), r.current(), wb, wc);
@@ -179,7 +209,8 @@ public final class WeightedComparator {
                 r.current().estimate(), r.baseline().standardError(), r.current().standardError(), rd, h);
         Change change = new Change("weighted share " + successLabel, r.baseline().estimate(), r.current().estimate(),
                 true, null, rd.estimate(), rd.ciLow(), rd.ciHigh(), weightingNote(wb, wc));
-        TestResult test = new TestResult(SHARES_TEST, r.test().statistic(), r.test().df(), r.test().pValue());
+        TestResult test = new TestResult(SHARES_TEST + (design == null ? "" : WITH_DESIGN), r.test().statistic(),
+                r.test().df(), r.test().pValue());
         return new Comparison(variable, FindingKind.SHIFT, test, t.rawScale() ? rd : h, t.value(), t.source(),
                 baseline.n(), current.n(), change, d);
     }
@@ -190,7 +221,14 @@ public final class WeightedComparator {
      */
     public Comparison categorical(String variable, List<String> categories, WeightedTally baseline,
                                   WeightedTally current, Threshold configured) {
-        RaoScottResult rs = RaoScott.test(baseline, current);
+        return categorical(variable, categories, baseline, current, null, configured);
+    }
+
+    /** The same with the waves' designs, whose tallies' values are the same category positions (null: weights). */
+    public Comparison categorical(String variable, List<String> categories, WeightedTally baseline,
+                                  WeightedTally current, Design design, Threshold configured) {
+        RaoScottResult rs = design == null ? RaoScott.test(baseline, current)
+                : RaoScott.test(design.baselineTally(), design.currentTally());
         Weighting wb = Weighting.of(baseline);
         Weighting wc = Weighting.of(current);
         int[] codes = rs.codes();
@@ -205,7 +243,7 @@ public final class WeightedComparator {
         DesignMeanDifferenceResult top = null;
         int topIndex = -1;
         for (int j = 0; j < k; j++) {
-            DesignMeanDifferenceResult m = shareDifference(baseline, current, codes[j]);
+            DesignMeanDifferenceResult m = shareDifference(baseline, current, design, codes[j]);
             double tj = m == null ? 0 : m.test().statistic();
             rows.add(new CategoryRow(categories.get(codes[j]), nb[j], nc[j], sb[j], sc[j], tj));
             if (m != null && (top == null || Math.abs(tj) > Math.abs(top.test().statistic()))) {
@@ -232,7 +270,8 @@ public final class WeightedComparator {
         CategoryDetail d = new CategoryDetail(wb, wc, rows, rs.pearsonChiSquare(), rs.designEffects(),
                 rs.firstOrder(), rs.denominatorDf());
         TestResult second = rs.secondOrder();
-        TestResult test = new TestResult(CATEGORIES_TEST, second.statistic(), second.df(), second.pValue());
+        TestResult test = new TestResult(CATEGORIES_TEST + (design == null ? "" : WITH_DESIGN), second.statistic(),
+                second.df(), second.pValue());
         return new Comparison(variable, FindingKind.SHIFT, test, effect, t.value(), t.source(), baseline.n(),
                 current.n(), change, d);
     }
@@ -296,9 +335,11 @@ public final class WeightedComparator {
         return q > 0 ? p.standardError() * p.standardError() / q : 1 / w.effectiveSampleSize();
     }
 
-    private DesignMeanDifferenceResult shareDifference(WeightedTally b, WeightedTally c, int code) {
+    private DesignMeanDifferenceResult shareDifference(WeightedTally b, WeightedTally c, Design design, int code) {
         try {
-            return DesignMeanDifference.testShares(b.indicator(code), c.indicator(code), confidence);
+            return design == null ? DesignMeanDifference.testShares(b.indicator(code), c.indicator(code), confidence)
+                    : DesignMeanDifference.testShares(design.baselineTally().indicator(code),
+                    design.currentTally().indicator(code), confidence);
         } catch (IllegalArgumentException e) {
             return null; // a category with no spread in either wave (standard error 0) has no t
         }

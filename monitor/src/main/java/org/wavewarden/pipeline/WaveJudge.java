@@ -19,6 +19,7 @@ import org.wavewarden.judge.Judge;
 import org.wavewarden.judge.Verdict;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.ColumnType;
+import org.wavewarden.profile.DesignSummary;
 import org.wavewarden.profile.WaveProfile;
 import org.wavewarden.read.BinaryWaveScanner;
 import org.wavewarden.read.SourceCatalog;
@@ -154,7 +155,8 @@ public final class WaveJudge {
         boolean weighted = d.weightColumn() != null;
         List<Finding> findings = new ArrayList<>(judgeVariables(variables, baseline == null ? null
                 : baseline.columns(), current.columns(), weighted && baseline != null ? baseline.weights() : null,
-                weighted ? current.weights() : null, cfg.alpha(), cfg.fdr(), d.name() + " wave " + current.wave()));
+                weighted ? current.weights() : null, weighted && baseline != null ? baseline.design() : null,
+                weighted ? current.design() : null, cfg.alpha(), cfg.fdr(), d.name() + " wave " + current.wave()));
         findings.addAll(schemaFindings(d, baseline, current));
         return new Profiled(FindingsFiles.ordered(findings), inference);
     }
@@ -175,6 +177,20 @@ public final class WaveJudge {
                                                Map<String, Map<String, double[]>> baselineWeights,
                                                Map<String, Map<String, double[]>> currentWeights, double alpha,
                                                WardenConfig.FdrMethod fdr, String what) {
+        return judgeVariables(variables, baseline, current, baselineWeights, currentWeights, null, null, alpha, fdr,
+                what);
+    }
+
+    /**
+     * The same with both sides' sampling designs (PSU sums; null for none): weighted comparisons then take their
+     * variances from the strata and clusters.
+     */
+    public static List<Finding> judgeVariables(List<VariableConfig> variables, Map<String, ColumnTally> baseline,
+                                               Map<String, ColumnTally> current,
+                                               Map<String, Map<String, double[]>> baselineWeights,
+                                               Map<String, Map<String, double[]>> currentWeights,
+                                               DesignSummary baselineDesign, DesignSummary currentDesign,
+                                               double alpha, WardenConfig.FdrMethod fdr, String what) {
         VariableComparator comparator = new VariableComparator(1 - alpha);
         WeightedComparator weighted = new WeightedComparator(1 - alpha);
         List<Comparison> comparisons = new ArrayList<>();
@@ -195,7 +211,8 @@ public final class WaveJudge {
             try {
                 judgeVariable(comparator, weighted, v, ct, bt,
                         currentWeights == null ? null : currentWeights.get(v.name()),
-                        baselineWeights == null ? null : baselineWeights.get(v.name()), mine, myPlain);
+                        baselineWeights == null ? null : baselineWeights.get(v.name()), baselineDesign, currentDesign,
+                        mine, myPlain);
             } catch (RuntimeException e) {
                 // A value no method foresaw must cost one variable its comparison, never the whole run.
                 LOG.warn("variable {} of {} could not be compared: {}", v.name(), what, e.toString());
@@ -237,7 +254,8 @@ public final class WaveJudge {
 
     private static void judgeVariable(VariableComparator comparator, WeightedComparator weighted, VariableConfig v,
                                       ColumnTally ct, ColumnTally bt, Map<String, double[]> cw,
-                                      Map<String, double[]> bw, List<Comparison> comparisons, List<Finding> plain) {
+                                      Map<String, double[]> bw, DesignSummary bd, DesignSummary cd,
+                                      List<Comparison> comparisons, List<Finding> plain) {
         ScreenedVariable sc = VariableScreen.screen(ct, v, cw);
         ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v, bw);
         (sc.weighted() == null ? reference(comparator, v, sc) : WeightedComparisons.reference(weighted, v, sc)
@@ -249,7 +267,9 @@ public final class WaveJudge {
             return;
         }
         boolean weigh = WeightedComparisons.applies(sb, sc);
-        compare(comparator, v, sb, sc, ct, bt, weigh ? weighted : null).ifPresentOrElse(c -> {
+        WeightedComparator.Design design = weigh && bd != null && cd != null
+                ? WeightedComparisons.design(v, bt, ct, sb, sc, bd, cd) : null;
+        compare(comparator, v, sb, sc, ct, bt, weigh ? weighted : null, design).ifPresentOrElse(c -> {
             comparisons.add(c);
             if (v.kind() == VariableKind.CONTINUOUS) {
                 comparisons.add(weigh ? WeightedComparisons.shape(weighted, v, sb, sc)
@@ -312,12 +332,13 @@ public final class WaveJudge {
 
     private static Optional<Comparison> compare(VariableComparator comparator, VariableConfig v,
                                                 ScreenedVariable b, ScreenedVariable c, ColumnTally ct,
-                                                ColumnTally bt, WeightedComparator weighted) {
+                                                ColumnTally bt, WeightedComparator weighted,
+                                                WeightedComparator.Design design) {
         if (skipReason(v, b, c, ct, bt) != null) {
             return Optional.empty();
         }
         if (weighted != null) {
-            return WeightedComparisons.compare(weighted, v, b, c);
+            return WeightedComparisons.compare(weighted, v, b, c, design);
         }
         return switch (v.kind()) {
             case CONTINUOUS, ORDINAL -> Optional.of(comparator.numeric(v.name(), v.kind() == VariableKind.ORDINAL,

@@ -5,6 +5,8 @@ import org.wavewarden.compare.WeightedComparator;
 import org.wavewarden.compare.design.WeightedTally;
 import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.VariableConfig;
+import org.wavewarden.profile.ColumnTally;
+import org.wavewarden.profile.DesignSummary;
 import org.wavewarden.profile.WaveProfile;
 
 import java.util.List;
@@ -41,22 +43,62 @@ final class WeightedComparisons {
     }
 
     static Optional<Comparison> compare(WeightedComparator comparator, VariableConfig v, ScreenedVariable b,
-                                        ScreenedVariable c) {
+                                        ScreenedVariable c, WeightedComparator.Design design) {
         return switch (v.kind()) {
-            case CONTINUOUS, ORDINAL -> Optional.of(comparator.numeric(v.name(), b.weighted(), c.weighted(),
+            case CONTINUOUS, ORDINAL -> Optional.of(comparator.numeric(v.name(), b.weighted(), c.weighted(), design,
                     v.threshold(), v.unit()));
             case CATEGORICAL -> {
                 List<String> order = b.categories().unionOrder(c.categories());
                 yield Optional.of(comparator.categorical(v.name(), order, VariableScreen.aligned(b, order),
-                        VariableScreen.aligned(c, order), v.threshold()));
+                        VariableScreen.aligned(c, order), design, v.threshold()));
             }
             case BINARY -> {
                 String success = VariableScreen.successValue(v, b.categories(), c.categories());
+                WeightedComparator.Design shares = design == null ? null : new WeightedComparator.Design(
+                        design.baselineTally().indicator(position(b, c, success)),
+                        design.currentTally().indicator(position(b, c, success)), null, null);
                 yield Optional.of(comparator.proportion(v.name(), "answering '" + success + "'",
-                        indicator(b, success), indicator(c, success), v.threshold()));
+                        indicator(b, success), indicator(c, success), shares, v.threshold()));
             }
             case TEXT, DATE -> Optional.empty();
         };
+    }
+
+    /**
+     * Both waves' design views of a variable, or null when a wave has none (the comparison then takes its variance
+     * from the weights alone, and says so by its test name).
+     */
+    static WeightedComparator.Design design(VariableConfig v, ColumnTally bt, ColumnTally ct, ScreenedVariable b,
+                                            ScreenedVariable c, DesignSummary bd, DesignSummary cd) {
+        DesignViews.View vb;
+        DesignViews.View vc;
+        switch (v.kind()) {
+            case CONTINUOUS, ORDINAL -> {
+                vb = DesignViews.numeric(bd, bt, b, v);
+                vc = DesignViews.numeric(cd, ct, c, v);
+            }
+            case CATEGORICAL, BINARY -> {
+                List<String> order = b.categories().unionOrder(c.categories());
+                vb = DesignViews.categories(bd, bt.column(), b, order);
+                vc = DesignViews.categories(cd, ct.column(), c, order);
+            }
+            default -> {
+                return null;
+            }
+        }
+        if (vb.unavailable() != null || vc.unavailable() != null) {
+            LOG.info("{} compared with its weights alone: {}", v.name(),
+                    vb.unavailable() != null ? vb.unavailable() : vc.unavailable());
+            return null;
+        }
+        return new WeightedComparator.Design(vb.tally(), vc.tally(), vb.totals(), vc.totals());
+    }
+
+    private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(WeightedComparisons.class);
+
+    /** The success answer's position in the union order both design tallies share. */
+    private static int position(ScreenedVariable b, ScreenedVariable c, String success) {
+        return b.categories().unionOrder(c.categories()).indexOf(success);
     }
 
     static Comparison shape(WeightedComparator comparator, VariableConfig v, ScreenedVariable b, ScreenedVariable c) {

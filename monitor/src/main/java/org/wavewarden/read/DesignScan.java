@@ -128,7 +128,7 @@ final class DesignScan {
                 weightedSquares = Arrays.copyOf(weightedSquares, n);
             }
             psus = Math.max(psus, psu + 1);
-            if (numeric && !Double.isNaN(x)) {
+            if (numeric && Double.isFinite(x)) {
                 weight[psu] += weightOrZero;
                 weightedSum[psu] += weightOrZero * x;
                 weightedSquares[psu] += weightOrZero * x * x;

@@ -138,6 +138,18 @@ class ConfigLoaderTest {
                         "datasets[0].variables[1].reference.shares: expected at least one share, summing to at most 1"),
                 Arguments.of("port out of range", GOOD + "daemon: {httpPort: 70000}\n",
                         "daemon.httpPort: expected a port from 0 to 65535"),
+                Arguments.of("design without clusters", releases("weightColumn: w\n    design: {strata: district}"),
+                        "datasets[0].design.clusters: missing: the column naming each respondent's primary sampling"),
+                Arguments.of("design without weights", releases("design: {clusters: village}"),
+                        "datasets[0].weightColumn: missing: a design needs the survey weights"),
+                Arguments.of("misspelt design key", releases("weightColumn: w\n    design: {cluster: village}"),
+                        "datasets[0].design.cluster: unknown key; did you mean 'clusters'?"),
+                Arguments.of("design cluster is the weight", releases("weightColumn: w\n    design: {clusters: w}"),
+                        "datasets[0].design.clusters: expected a column of its own, but 'w' is the weight column"),
+                Arguments.of("strata equal clusters", releases("weightColumn: w\n    design: {strata: v, clusters: v}"),
+                        "datasets[0].design.clusters: expected a column other than the strata column"),
+                Arguments.of("design column carrying SQL", releases("weightColumn: w\n    design: {clusters: \"v; --\"}"),
+                        "datasets[0].design.clusters: expected a plain SQL identifier"),
                 Arguments.of("releases without a respondent key", releases("releases: {column: revision}"),
                         "datasets[0].respondentKey: missing: releases are compared respondent by respondent"),
                 Arguments.of("releases with both layouts", releases("respondentKey: household_id\n    releases:"
@@ -183,6 +195,17 @@ class ConfigLoaderTest {
     /** GOOD with the given dataset keys added (indented as dataset keys). */
     static String releases(String keys) {
         return GOOD.replace("    schedule:", "    " + keys + "\n    schedule:");
+    }
+
+    @Test
+    void aDesignParsesWithOrWithoutStrata() {
+        DatasetConfig both = ConfigLoader.parse(releases("weightColumn: w\n    design: {strata: district, clusters:"
+                + " village}")).dataset("coastal");
+        assertEquals(new DesignColumns("district", "village"), both.design());
+        assertTrue(both.isBookkeeping("district") && both.isBookkeeping("village"), "never compared as answers");
+        assertEquals(null, ConfigLoader.parse(releases("weightColumn: w\n    design: {clusters: village}"))
+                .dataset("coastal").design().strata());
+        assertEquals(null, ConfigLoader.parse(GOOD).dataset("coastal").design());
     }
 
     @Test
