@@ -16,6 +16,11 @@ import org.wavewarden.compare.TestResult;
  * wave x stratum gives the same difference and the same t (its regression sandwich variance reduces to the sum of the
  * two wave variances because the waves share no stratum) but uses one degree of freedom fewer, the residual df of
  * its two-coefficient regression; with few PSUs the p-values therefore differ slightly.
+ *
+ * <p>The same test is computed from per-value tallies under weights-only designs ({@link WeightedTally}) and from
+ * PSU sums under stratified cluster designs ({@link PsuTotals}, {@link PsuTally}); with missing answers the design
+ * df of a wave counts the PSUs and strata that hold answers, as R's {@code degf} and {@code svyttest} on the
+ * answering subset.
  */
 public final class DesignMeanDifference {
 
@@ -59,16 +64,40 @@ public final class DesignMeanDifference {
     public static DesignMeanDifferenceResult testShares(WeightedTally baseline, WeightedTally current,
                                                         double confidence) {
         checkConfidence(confidence);
-        for (WeightedTally t : new WeightedTally[] {baseline, current}) {
-            for (double v : t == null ? new double[0] : t.values()) {
-                if (v != 0 && v != 1) {
-                    throw new IllegalArgumentException("share tallies must hold the values 0 and 1 only, found " + v);
-                }
-            }
-        }
+        checkBinary(baseline == null ? null : baseline.values(), current == null ? null : current.values());
         DesignEstimate a = TallyEstimates.mean(baseline);
         DesignEstimate b = TallyEstimates.mean(current);
         return combine(a, b, baseline.n() - 1 + current.n() - 1, confidence, "difference of weighted shares");
+    }
+
+    /**
+     * The same from the waves' PSU sums under stratified cluster designs ({@link PsuTotals#mean()}), with
+     * {@code df} the sum over waves of {@link PsuTotals#degreesOfFreedom()}: PSUs with answers minus strata with
+     * answers, which is the design's #PSU - #strata when no answer is missing.
+     */
+    public static DesignMeanDifferenceResult test(PsuTotals baseline, PsuTotals current, double confidence) {
+        checkConfidence(confidence);
+        if (baseline == null || current == null) {
+            throw new IllegalArgumentException("baseline and current totals must not be null");
+        }
+        return combine(baseline.mean(), current.mean(), baseline.degreesOfFreedom() + current.degreesOfFreedom(),
+                confidence, "difference of weighted means");
+    }
+
+    /**
+     * The difference of weighted shares from 0/1 PSU tallies ({@link PsuTally#indicator}) under stratified cluster
+     * designs; the effect is in proportion units and df as in {@link #test(PsuTotals, PsuTotals, double)}.
+     */
+    public static DesignMeanDifferenceResult testShares(PsuTally baseline, PsuTally current, double confidence) {
+        checkConfidence(confidence);
+        if (baseline == null || current == null) {
+            throw new IllegalArgumentException("baseline and current tallies must not be null");
+        }
+        checkBinary(baseline.values(), current.values());
+        PsuTotals a = baseline.totals();
+        PsuTotals b = current.totals();
+        return combine(a.mean(), b.mean(), a.degreesOfFreedom() + b.degreesOfFreedom(), confidence,
+                "difference of weighted shares");
     }
 
     /** The same for the shares of respondents with {@code hit[i] == true}; the effect is in proportion units. */
@@ -100,6 +129,16 @@ public final class DesignMeanDifference {
         double half = student.inverseCumulativeProbability(0.5 + confidence / 2) * se;
         return new DesignMeanDifferenceResult(a, b, se, new TestResult(NAME, t, df, p),
                 new EffectSize(effectName, d, d - half, d + half, confidence));
+    }
+
+    private static void checkBinary(double[]... waves) {
+        for (double[] values : waves) {
+            for (double v : values == null ? new double[0] : values) {
+                if (v != 0 && v != 1) {
+                    throw new IllegalArgumentException("share tallies must hold the values 0 and 1 only, found " + v);
+                }
+            }
+        }
     }
 
     private static void checkConfidence(double confidence) {

@@ -25,7 +25,6 @@ final class DesignVariance {
     static double[][] covariance(SurveyDesign design, double[][] scores) {
         int p = scores.length;
         int psus = design.psuCount();
-        int strata = design.strataCount();
         double[][] totals = new double[psus][p];
         for (int c = 0; c < p; c++) {
             double[] z = scores[c];
@@ -33,15 +32,35 @@ final class DesignVariance {
                 totals[design.psuOf(i)][c] += z[i];
             }
         }
+        int[] psuStratum = new int[psus];
+        for (int k = 0; k < psus; k++) {
+            psuStratum[k] = design.psuStratum(k);
+        }
+        return covariance(psuStratum, totals);
+    }
+
+    /**
+     * The same from the PSU totals themselves. The number of PSUs of a stratum is the number of entries of
+     * {@code psuStratum} naming it, so a PSU whose totals are all zero (no respondent of a domain) still counts.
+     *
+     * @param psuStratum stratum index 0..H-1 of each PSU, every index present
+     * @param totals     {@code totals[k][c]}: total of the linearised scores of estimator c in PSU k
+     * @return the p x p covariance matrix
+     */
+    static double[][] covariance(int[] psuStratum, double[][] totals) {
+        int psus = psuStratum.length;
+        int p = psus == 0 ? 0 : totals[0].length;
+        int[] psusInStratum = psusInStratum(psuStratum);
+        int strata = psusInStratum.length;
         double[][] centre = new double[strata][p];
         for (int k = 0; k < psus; k++) {
-            int h = design.psuStratum(k);
+            int h = psuStratum[k];
             for (int c = 0; c < p; c++) {
                 centre[h][c] += totals[k][c];
             }
         }
         for (int h = 0; h < strata; h++) {
-            int nh = design.psusInStratum(h);
+            int nh = psusInStratum[h];
             for (int c = 0; c < p; c++) {
                 centre[h][c] = nh > 1 ? centre[h][c] / nh : 0.0;
             }
@@ -49,8 +68,8 @@ final class DesignVariance {
         double[][] v = new double[p][p];
         double[] dev = new double[p];
         for (int k = 0; k < psus; k++) {
-            int h = design.psuStratum(k);
-            int nh = design.psusInStratum(h);
+            int h = psuStratum[k];
+            int nh = psusInStratum[h];
             double scale = nh > 1 ? nh / (nh - 1.0) : 1.0;
             for (int c = 0; c < p; c++) {
                 dev[c] = totals[k][c] - centre[h][c];
@@ -67,5 +86,18 @@ final class DesignVariance {
             }
         }
         return v;
+    }
+
+    /** PSUs per stratum; strata are 0..max of {@code psuStratum}. */
+    static int[] psusInStratum(int[] psuStratum) {
+        int strata = 0;
+        for (int h : psuStratum) {
+            strata = Math.max(strata, h + 1);
+        }
+        int[] count = new int[strata];
+        for (int h : psuStratum) {
+            count[h]++;
+        }
+        return count;
     }
 }

@@ -159,6 +159,80 @@ public final class RaoScott {
         return corrected(codes, p, v, n, n - 2);
     }
 
+    /**
+     * The same test from the two waves' {@link PsuTally} tallies under stratified cluster designs: the stacked
+     * design has strata wave x stratum and the PSUs of the two waves are distinct, as in
+     * {@link #test(int[], SurveyDesign, int[], SurveyDesign)}. Values are category codes (integers); categories
+     * without weight in either wave are left out. Cell (j, w) of PSU p holds {@code W_jp} in its own wave and
+     * nothing in the other, so the PSU totals of the linearised cell shares are {@code (W_jp - p_jw W_p) / T} and
+     * {@code -p_jw W_p / T}, with {@code T} the weight of both waves; the corrections are those of the row-level
+     * form (Rao and Scott 1984, Annals of Statistics 12, 46-60; Lumley 2010).
+     *
+     * <p>Respondents without a valid answer are handled by the domain rule of {@link PsuTotals}: the variance keeps
+     * every PSU of both designs, n counts the valid answers and {@code nu} is the sum of the waves'
+     * {@link PsuTally#degreesOfFreedom()}. This is R's {@code svychisq(~cat + wave, subset(stacked, !is.na(cat)))}.
+     * Called on the stacked design without the subset, svychisq scales X2 to every row, answered or not, and takes
+     * {@code nu} from every PSU, with or without answers, unlike {@code degf} and {@code svyttest}: its F, ndf and
+     * first-order p are the same, its X2 and ddf larger.
+     *
+     * @throws IllegalArgumentException with fewer than 2 categories with weight, a wave with fewer than 2 answers or
+     *                                  without weight, or no design degrees of freedom
+     */
+    public static RaoScottResult test(PsuTally baseline, PsuTally current) {
+        if (baseline == null || current == null) {
+            throw new IllegalArgumentException("baseline and current tallies must not be null");
+        }
+        PsuTally[] waves = {baseline, current};
+        double[][] psuWeights = {baseline.psuWeights(), current.psuWeights()};
+        java.util.TreeMap<Integer, double[][]> byCode = new java.util.TreeMap<>(); // code -> weight per wave, PSU
+        for (int h = 0; h < 2; h++) {
+            PsuTally t = waves[h];
+            double total = 0;
+            for (double w : psuWeights[h]) {
+                total += w;
+            }
+            PsuTotals.checkEstimable(t.n(), total);
+            for (int v = 0; v < t.size(); v++) {
+                double[][] cell = byCode.computeIfAbsent(TallyEstimates.code(t.value(v)),
+                        x -> new double[][] {new double[baseline.psuCount()], new double[current.psuCount()]});
+                for (int p = 0; p < t.psuCount(); p++) {
+                    cell[h][p] += t.weight(v, p);
+                }
+            }
+        }
+        byCode.values().removeIf(c -> !(Arrays.stream(c[0]).sum() + Arrays.stream(c[1]).sum() > 0));
+        int k = byCode.size();
+        if (k < 2) {
+            throw new IllegalArgumentException("the waves hold " + k + " category with weight, need at least 2");
+        }
+        int p1 = baseline.psuCount();
+        int psus = p1 + current.psuCount();
+        int strata1 = DesignVariance.psusInStratum(baseline.psuStratum()).length;
+        int[] psuStratum = new int[psus];
+        double[] psuWeight = new double[psus];
+        for (int p = 0; p < psus; p++) {
+            boolean first = p < p1;
+            psuStratum[p] = first ? baseline.stratumOf(p) : current.stratumOf(p - p1) + strata1;
+            psuWeight[p] = first ? psuWeights[0][p] : psuWeights[1][p - p1];
+        }
+        // Cell (j, w) is row j + k w: category varies fastest, as in the row-level form.
+        double[][] cells = new double[2 * k][psus];
+        int j = 0;
+        for (double[][] c : byCode.values()) {
+            System.arraycopy(c[0], 0, cells[j], 0, p1);
+            System.arraycopy(c[1], 0, cells[j + k], p1, psus - p1);
+            j++;
+        }
+        long n = baseline.n() + current.n();
+        int nu = baseline.degreesOfFreedom() + current.degreesOfFreedom();
+        if (nu <= 0) {
+            throw new IllegalArgumentException("the designs have no degrees of freedom (#PSU - #strata = 0)");
+        }
+        int[] codes = byCode.keySet().stream().mapToInt(Integer::intValue).toArray();
+        WeightedEstimates.Means m = WeightedEstimates.means(psuStratum, psuWeight, cells, cells, n);
+        return corrected(codes, m.means(), m.covariance(), n, nu);
+    }
+
     /** The corrections from the 2k cell shares (category fastest) and their covariance. */
     private static RaoScottResult corrected(int[] codes, double[] p, double[][] covariance, long n, long nu) {
         int k = codes.length;

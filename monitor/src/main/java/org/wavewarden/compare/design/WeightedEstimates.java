@@ -67,7 +67,7 @@ public final class WeightedEstimates {
     }
 
     /** Means of several variables on one design, their covariance, and the weighted variances s_w^2. */
-    record Means(double[] means, double[][] covariance, double[] weightedVariances, int n, double sumOfWeights) {
+    record Means(double[] means, double[][] covariance, double[] weightedVariances, long n, double sumOfWeights) {
 
         DesignEstimate estimate(int c) {
             double v = covariance[c][c];
@@ -105,5 +105,39 @@ public final class WeightedEstimates {
             variances[c] = n / (n - 1.0) * ss / total;
         }
         return new Means(means, DesignVariance.covariance(design, scores), variances, n, total);
+    }
+
+    /**
+     * The same from PSU sums: for PSU k, {@code weight[k] = sum w}, {@code sums[c][k] = sum w y_c} and
+     * {@code squares[c][k] = sum w y_c^2} over the respondents counted in n. The PSU total of the scores
+     * {@code w_i (y_i - ybar) / W} is {@code (sums[c][k] - ybar weight[k]) / W}, and {@code sum w (y - ybar)^2 / W =
+     * sum w y^2 / W - ybar^2}, so nothing but the sums is needed.
+     */
+    static Means means(int[] psuStratum, double[] weight, double[][] sums, double[][] squares, long n) {
+        int psus = psuStratum.length;
+        int p = sums.length;
+        double total = 0;
+        for (double w : weight) {
+            total += w;
+        }
+        double[] means = new double[p];
+        double[] variances = new double[p];
+        double[][] totals = new double[psus][p];
+        for (int c = 0; c < p; c++) {
+            double s = 0;
+            double s2 = 0;
+            for (int k = 0; k < psus; k++) {
+                s += sums[c][k];
+                s2 += squares[c][k];
+            }
+            double mean = s / total;
+            for (int k = 0; k < psus; k++) {
+                totals[k][c] = (sums[c][k] - mean * weight[k]) / total;
+            }
+            means[c] = mean;
+            // The raw-moment form can fall a rounding error below zero when y hardly varies.
+            variances[c] = Math.max(0, n / (n - 1.0) * (s2 / total - mean * mean));
+        }
+        return new Means(means, DesignVariance.covariance(psuStratum, totals), variances, n, total);
     }
 }

@@ -12,7 +12,14 @@
  * variance exactly: {@link org.wavewarden.compare.design.TallyEstimates},
  * {@link org.wavewarden.compare.design.WeightedDistribution}, and the tally forms of
  * {@link org.wavewarden.compare.design.DesignMeanDifference} and {@link org.wavewarden.compare.design.RaoScott}.
- * This is what the monitor uses, since a wave's summary keeps those sums and not the rows. Designs with strata or
- * clusters need the rows (or PSU totals) and are not read by the monitor yet.
+ * This is what the monitor uses, since a wave's summary keeps those sums and not the rows.
+ *
+ * <p>Under a stratified cluster design the linearised scores of respondents in one PSU no longer collapse onto
+ * their values, but they enter the variance only through their PSU totals. The per-PSU sums of {@code w},
+ * {@code w y} and {@code w y^2} of a numeric variable ({@link org.wavewarden.compare.design.PsuTotals}), or of the
+ * weights of each value of a variable with few values ({@link org.wavewarden.compare.design.PsuTally}), with the
+ * stratum of each PSU, give the same estimates, design effects, two-wave t tests and Rao-Scott tests as the rows.
+ * Missing answers follow the domain rule described at {@code PsuTotals}: every PSU of the design stays in the
+ * variance, as R's {@code subset} of a survey design keeps it. The read stage does not collect PSU sums yet.
  */
 package org.wavewarden.compare.design;
