@@ -21,11 +21,13 @@ import java.util.List;
  * @param readyColumn  the column of {@code readyTable} holding wave labels
  * @param weightColumn optional survey weight column: never compared itself, its sums per value are kept in each
  *                     wave's summary
+ * @param relationships pairs of numeric variables whose correlation is compared between waves
  */
 public record DatasetConfig(String name, String table, String waveColumn, String tablePattern, WaveOrder waveOrder,
                             CompareWith compareWith, String schedule, List<String> exclude,
                             List<VariableConfig> variables, java.time.Duration quietPeriod, SinkSettings alerts,
-                            String readyTable, String readyColumn, String weightColumn) {
+                            String readyTable, String readyColumn, String weightColumn,
+                            List<RelationshipConfig> relationships) {
 
     public DatasetConfig {
         waveOrder = waveOrder == null ? WaveOrder.NATURAL : waveOrder;
@@ -34,5 +36,15 @@ public record DatasetConfig(String name, String table, String waveColumn, String
         variables = variables == null ? List.of() : List.copyOf(variables);
         quietPeriod = quietPeriod == null ? java.time.Duration.ZERO : quietPeriod;
         alerts = alerts == null ? SinkSettings.NONE : alerts;
+        relationships = relationships == null ? List.of() : List.copyOf(relationships);
+    }
+
+    /** A dataset without relationships. */
+    public DatasetConfig(String name, String table, String waveColumn, String tablePattern, WaveOrder waveOrder,
+                         CompareWith compareWith, String schedule, List<String> exclude,
+                         List<VariableConfig> variables, java.time.Duration quietPeriod, SinkSettings alerts,
+                         String readyTable, String readyColumn, String weightColumn) {
+        this(name, table, waveColumn, tablePattern, waveOrder, compareWith, schedule, exclude, variables, quietPeriod,
+                alerts, readyTable, readyColumn, weightColumn, List.of());
     }
 }

@@ -22,17 +22,22 @@ public final class MarkdownDigest {
             md.append("## ").append(r.dataset()).append(": wave ").append(r.wave());
             md.append(r.againstWave() == null ? " (screened alone)" : " against " + r.againstWave()).append("\n\n");
             Map<Verdict, Integer> counts = new EnumMap<>(Verdict.class);
+            Map<Verdict, Integer> relations = new EnumMap<>(Verdict.class);
             long dq = 0;
             for (Finding f : r.findings()) {
                 if (f.verdict() != null && f.kind() == org.wavewarden.judge.FindingKind.SHIFT) {
                     counts.merge(f.verdict(), 1, Integer::sum);
+                } else if (f.verdict() != null && f.kind() == org.wavewarden.judge.FindingKind.RELATIONSHIP_CHANGE) {
+                    relations.merge(f.verdict(), 1, Integer::sum);
                 } else if (f.kind().isDataQuality()) {
                     dq++;
                 }
             }
             md.append("Shift verdicts: ");
-            for (Verdict v : Verdict.values()) {
-                md.append(v.name()).append(' ').append(counts.getOrDefault(v, 0)).append(v == Verdict.STABLE ? "" : ", ");
+            verdicts(md, counts);
+            if (!relations.isEmpty()) {
+                md.append(". Relationship verdicts: ");
+                verdicts(md, relations);
             }
             md.append(". Data-quality findings: ").append(dq).append(". False discovery rate ")
                     .append(r.alpha()).append(" (").append(r.fdrMethod()).append(").\n\n");
@@ -52,6 +57,12 @@ public final class MarkdownDigest {
         md.append("## Cautions\n\n");
         Cautions.LINES.forEach(l -> md.append("- ").append(l).append('\n'));
         return md.toString();
+    }
+
+    private static void verdicts(StringBuilder md, Map<Verdict, Integer> counts) {
+        for (Verdict v : Verdict.values()) {
+            md.append(v.name()).append(' ').append(counts.getOrDefault(v, 0)).append(v == Verdict.STABLE ? "" : ", ");
+        }
     }
 
     static String escape(String s) {

@@ -20,6 +20,7 @@ import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.ColumnType;
 import org.wavewarden.profile.WaveProfile;
 import org.wavewarden.read.BinaryWaveScanner;
+import org.wavewarden.read.PairSpec;
 import org.wavewarden.read.SourceCatalog;
 import org.wavewarden.read.SourceColumn;
 import org.wavewarden.read.WaveInfo;
@@ -57,13 +58,14 @@ public final class WaveJudge {
     }
 
     /**
-     * Reads one wave's monitored columns (and the weight column, if any) into tallies in one pass;
-     * {@link BinaryWaveScanner#scan} (the default) and {@link WaveScanner#scan} are two, with equal results.
+     * Reads one wave's monitored columns (and the weight column, if any) into tallies in one pass, with the joint
+     * tallies of the configured pairs; {@link BinaryWaveScanner#scan} (the default) and {@link WaveScanner#scan} are
+     * two, with equal results.
      */
     @FunctionalInterface
     public interface Scanner {
         WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
-                                  SourceColumn weight, LongConsumer progress);
+                                  SourceColumn weight, List<PairSpec> pairs, LongConsumer progress);
     }
 
     /** Reads waves with the given scanner from now on; returns this judge. */
@@ -181,10 +183,23 @@ public final class WaveJudge {
             comparisons.addAll(mine);
             plain.addAll(myPlain);
         }
+        relationships(cfg, d, variables, current, baseline, comparisons, plain);
         List<Finding> findings = new ArrayList<>(withSummaryError(shapeOnlyWhereLocationIsQuiet(
                 onePerVariableAndKind(Judge.judge(comparisons, cfg.alpha(), cfg.fdr()))), summarised));
         findings.addAll(plain);
         return new Profiled(FindingsFiles.ordered(findings), inference);
+    }
+
+    /** Relationship drift of the configured pairs: comparisons for the run's family, skip notices beside them. */
+    private static void relationships(WardenConfig cfg, DatasetConfig d, List<VariableConfig> variables,
+                                      WaveProfile current, WaveProfile baseline, List<Comparison> comparisons,
+                                      List<Finding> plain) {
+        if (d.relationships().isEmpty()) {
+            return;
+        }
+        Map<String, VariableConfig> byName = new LinkedHashMap<>();
+        variables.forEach(v -> byName.put(v.name(), v));
+        RelationshipFindings.of(d.relationships(), byName, current, baseline, 1 - cfg.alpha(), comparisons, plain);
     }
 
     /**
@@ -349,16 +364,38 @@ public final class WaveJudge {
                 .filter(c -> !c.name().equals(d.waveColumn()) && !d.exclude().contains(c.name())
                         && !c.name().equals(d.weightColumn())).toList();
         SourceColumn weight = all.stream().filter(c -> c.name().equals(d.weightColumn())).findFirst().orElse(null);
-        WaveScanner.WaveScan scan = scanner.scan(h, source, wave, monitored, weight, progress);
-        return new WaveProfile(wave, scan.rows(), schema, scan.columns(), scan.weights());
+        WaveScanner.WaveScan scan = scanner.scan(h, source, wave, monitored, weight, pairs(d, monitored), progress);
+        return new WaveProfile(wave, scan.rows(), schema, scan.columns(), scan.weights(), scan.pairs());
     }
 
-    /** The stored summary of an earlier wave, read from the source once if it was never stored or lacks columns. */
+    /** The configured relationships whose two columns this wave has as monitored numbers. */
+    static List<PairSpec> pairs(DatasetConfig d, List<SourceColumn> monitored) {
+        java.util.Set<String> numbers = new java.util.HashSet<>();
+        monitored.stream().filter(c -> c.type().isNumeric()).forEach(c -> numbers.add(c.name()));
+        return d.relationships().stream().filter(r -> numbers.contains(r.x()) && numbers.contains(r.y()))
+                .map(r -> new PairSpec(r.x(), r.y())).toList();
+    }
+
+    /** True when a stored summary lacks the pairs of a relationship it has both columns for. */
+    private static boolean lacksPairs(DatasetConfig d, WaveProfile p) {
+        return d.relationships().stream().anyMatch(r -> isNumber(p, r.x()) && isNumber(p, r.y())
+                && p.pair(r.x(), r.y()).isEmpty());
+    }
+
+    private static boolean isNumber(WaveProfile p, String column) {
+        return p.columns().containsKey(column) && p.schema().get(column) != null && p.schema().get(column).isNumeric();
+    }
+
+    /**
+     * The stored summary of an earlier wave, read from the source once if it was never stored or lacks columns or
+     * the pairs of a configured relationship (a summary stored before the relationship was configured).
+     */
     private WaveProfile baselineProfile(DatasetConfig d, WaveSource source, String wave, List<String> needed) {
         Optional<ResultsStore.StoredSummary> stored = session.store().latestSummary(d.name(), wave);
         if (stored.isPresent()) {
             WaveProfile p = stored.get().profile();
-            boolean complete = needed.stream().allMatch(c -> p.columns().containsKey(c) || !p.schema().containsKey(c));
+            boolean complete = needed.stream().allMatch(c -> p.columns().containsKey(c) || !p.schema().containsKey(c))
+                    && !lacksPairs(d, p);
             if (complete) {
                 return p;
             }

@@ -6,6 +6,8 @@ import org.postgresql.copy.CopyOut;
 import org.wavewarden.config.Identifiers;
 import org.wavewarden.profile.Binning;
 import org.wavewarden.profile.ColumnTally;
+import org.wavewarden.profile.JointTally;
+import org.wavewarden.profile.PairCounter;
 import org.wavewarden.profile.RelativeBins;
 
 import java.math.BigDecimal;
@@ -94,18 +96,25 @@ public final class BinaryWaveScanner {
         }
     }
 
-    /** {@link #scan(Handle, WaveSource, String, List, SourceColumn, LongConsumer)} without a weight column. */
+    /** {@link #scan(Handle, WaveSource, String, List, SourceColumn, List, LongConsumer)} without weight or pairs. */
     public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
                                      LongConsumer progress) {
-        return scan(h, source, wave, columns, null, progress);
+        return scan(h, source, wave, columns, null, List.of(), progress);
+    }
+
+    /** {@link #scan(Handle, WaveSource, String, List, SourceColumn, List, LongConsumer)} without pairs. */
+    public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
+                                     SourceColumn weight, LongConsumer progress) {
+        return scan(h, source, wave, columns, weight, List.of(), progress);
     }
 
     /**
-     * Same contract as {@link WaveScanner#scan}: the wave's row count, one tally per requested column and, with a
-     * weight column, each value's sum of weights and of squared weights.
+     * Same contract as {@link WaveScanner#scan}: the wave's row count, one tally per requested column, with a
+     * weight column each value's sum of weights and of squared weights, and one joint tally per requested pair.
+     * A pair's cells are decoded to doubles as they pass, into one array reused for every row.
      */
     public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
-                                     SourceColumn weight, LongConsumer progress) {
+                                     SourceColumn weight, List<PairSpec> pairs, LongConsumer progress) {
         int k = columns.size();
         int first = weight == null ? 0 : 1; // the weight travels first, so every cell of a row knows it
         List<SourceColumn> read = new java.util.ArrayList<>(k + first);
@@ -131,6 +140,16 @@ public final class BinaryWaveScanner {
         }
         long[] nulls = new long[k];
         boolean[] truncated = new boolean[k];
+        int[][] pairAt = new int[pairs.size()][];
+        PairCounter[] joint = new PairCounter[pairs.size()];
+        boolean[] inPair = new boolean[k];
+        for (int j = 0; j < pairs.size(); j++) {
+            pairAt[j] = pairs.get(j).indexIn(columns);
+            joint[j] = new PairCounter();
+            inPair[pairAt[j][0]] = true;
+            inPair[pairAt[j][1]] = true;
+        }
+        double[] value = new double[k]; // this row's number in each column of a pair; NaN for NULL
         long rows = 0;
         long badWeights = 0;
         String sql = copySql(source, wave, read, all);
@@ -173,11 +192,15 @@ public final class BinaryWaveScanner {
                     }
                     if (len < 0) {
                         nulls[i]++;
+                        value[i] = Double.NaN;
                         continue;
                     }
                     in.need(len);
                     byte[] b = in.buf;
                     int p = in.pos;
+                    if (inPair[i]) {
+                        value[i] = number(decode[i], b, p, len);
+                    }
                     if (bins[i] != null) {
                         bins[i].add(number(decode[i], b, p, len), w);
                         in.pos += len;
@@ -204,6 +227,13 @@ public final class BinaryWaveScanner {
                         }
                     }
                     in.pos += len;
+                }
+                for (int j = 0; j < joint.length; j++) {
+                    double x = value[pairAt[j][0]];
+                    double y = value[pairAt[j][1]];
+                    if (Double.isFinite(x) && Double.isFinite(y)) {
+                        joint[j].add(x, y);
+                    }
                 }
                 rows++;
                 if ((rows & 0xFFFF) == 0 && progress != null) {
@@ -253,7 +283,11 @@ public final class BinaryWaveScanner {
             bins[i] = null;
             out.put(col.name(), new ColumnTally(col.name(), col.type(), rows, nulls[i], counts, truncated[i], binning));
         }
-        return new WaveScanner.WaveScan(rows, out, weights, badWeights);
+        List<JointTally> jointTallies = new java.util.ArrayList<>(pairs.size());
+        for (int j = 0; j < joint.length; j++) {
+            jointTallies.add(joint[j].tally(pairs.get(j).x(), pairs.get(j).y()));
+        }
+        return new WaveScanner.WaveScan(rows, out, weights, badWeights, jointTallies);
     }
 
     /** Moves a numeric column's exact counts into relative bins, when it has more distinct values than kept. */

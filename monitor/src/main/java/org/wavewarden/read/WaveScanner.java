@@ -5,6 +5,8 @@ import org.postgresql.PGConnection;
 import org.postgresql.copy.CopyOut;
 import org.wavewarden.config.Identifiers;
 import org.wavewarden.profile.ColumnTally;
+import org.wavewarden.profile.JointTally;
+import org.wavewarden.profile.PairCounter;
 import org.wavewarden.profile.RelativeBins;
 
 import java.sql.Connection;
@@ -59,19 +61,29 @@ public final class WaveScanner {
     /**
      * The result of one scan: the wave's row count, one tally per requested column and, with a weight column, per
      * column and value the sum of weights and of squared weights ({@code double[] {sum w, sum w^2}}); rows whose
-     * weight is NULL or not a finite non-negative number count in {@code badWeights} and add no weight.
+     * weight is NULL or not a finite non-negative number count in {@code badWeights} and add no weight. With pairs
+     * requested, one joint tally per pair, in the order requested.
      */
     public record WaveScan(long rows, Map<String, ColumnTally> columns, Map<String, Map<String, double[]>> weights,
-                           long badWeights) {
+                           long badWeights, List<JointTally> pairs) {
+
+        public WaveScan {
+            pairs = pairs == null ? List.of() : List.copyOf(pairs);
+        }
+
+        public WaveScan(long rows, Map<String, ColumnTally> columns, Map<String, Map<String, double[]>> weights,
+                        long badWeights) {
+            this(rows, columns, weights, badWeights, List.of());
+        }
 
         public WaveScan(long rows, Map<String, ColumnTally> columns) {
-            this(rows, columns, Map.of(), 0);
+            this(rows, columns, Map.of(), 0, List.of());
         }
 
         @Override
         public boolean equals(Object o) {
             return o instanceof WaveScan w && rows == w.rows && columns.equals(w.columns) && badWeights == w.badWeights
-                    && WaveScanner.sameWeights(weights, w.weights);
+                    && WaveScanner.sameWeights(weights, w.weights) && pairs.equals(w.pairs);
         }
 
         @Override
@@ -99,9 +111,15 @@ public final class WaveScanner {
         return true;
     }
 
-    /** {@link #scan(Handle, WaveSource, String, List, SourceColumn, LongConsumer)} without a weight column. */
+    /** {@link #scan(Handle, WaveSource, String, List, SourceColumn, List, LongConsumer)} without weight or pairs. */
     public WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, LongConsumer progress) {
-        return scan(h, source, wave, columns, null, progress);
+        return scan(h, source, wave, columns, null, List.of(), progress);
+    }
+
+    /** {@link #scan(Handle, WaveSource, String, List, SourceColumn, List, LongConsumer)} without pairs. */
+    public WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, SourceColumn weight,
+                         LongConsumer progress) {
+        return scan(h, source, wave, columns, weight, List.of(), progress);
     }
 
     /**
@@ -109,9 +127,11 @@ public final class WaveScanner {
      *
      * @param weight a survey weight column read in the same pass, or null; each value's weight sum and sum of
      *               squared weights are kept beside its count (for weighted shares and Kish's effective sample size)
+     * @param pairs  pairs of numeric columns among {@code columns} whose joint values are tallied in the same pass,
+     *               over the rows where both cells are finite numbers ({@link PairCounter})
      */
     public WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, SourceColumn weight,
-                         LongConsumer progress) {
+                         List<PairSpec> pairs, LongConsumer progress) {
         boolean weighted = weight != null;
         List<SourceColumn> read = columns;
         if (weighted) {
@@ -130,6 +150,12 @@ public final class WaveScanner {
         for (int i = 0; i < k; i++) {
             tallies.add(new HashMap<>());
             weightSums.add(weighted ? new HashMap<>() : null);
+        }
+        int[][] pairAt = new int[pairs.size()][];
+        PairCounter[] joint = new PairCounter[pairs.size()];
+        for (int j = 0; j < pairs.size(); j++) {
+            pairAt[j] = pairs.get(j).indexIn(columns);
+            joint[j] = new PairCounter();
         }
         long rows = 0;
         String[] fields = new String[fieldsPerRow];
@@ -188,6 +214,17 @@ public final class WaveScanner {
                         ws[1] += w * w;
                     }
                 }
+                for (int j = 0; j < joint.length; j++) {
+                    String x = fields[pairAt[j][0]];
+                    String y = fields[pairAt[j][1]];
+                    if (x != null && y != null) {
+                        double a = number(columns.get(pairAt[j][0]), x);
+                        double b = number(columns.get(pairAt[j][1]), y);
+                        if (Double.isFinite(a) && Double.isFinite(b)) {
+                            joint[j].add(a, b);
+                        }
+                    }
+                }
                 rows++;
                 if ((rows & 0xFFFF) == 0 && progress != null) {
                     progress.accept(rows);
@@ -217,7 +254,11 @@ public final class WaveScanner {
                 weights.put(col.name(), ws);
             }
         }
-        return new WaveScan(rows, out, weights, badWeights);
+        List<JointTally> jointTallies = new ArrayList<>(pairs.size());
+        for (int j = 0; j < joint.length; j++) {
+            jointTallies.add(joint[j].tally(pairs.get(j).x(), pairs.get(j).y()));
+        }
+        return new WaveScan(rows, out, weights, badWeights, jointTallies);
     }
 
     /** Moves a numeric column's exact counts into relative bins, when it has more distinct values than kept. */
