@@ -250,7 +250,7 @@ public final class ConfigLoader {
         DatasetConfig dataset(ObjectNode node, String path) {
             known(node, path, "name", "table", "waveColumn", "tablePattern", "waveOrder", "compareWith", "schedule",
                     "exclude", "variables", "quietPeriod", "alerts", "readyTable", "readyColumn", "weightColumn",
-                    "relationships");
+                    "respondentKey", "releases", "design", "relationships");
             String name = text(node, "name", path + ".name", true);
             if (!name.matches("[A-Za-z0-9][A-Za-z0-9_.-]{0,99}")) {
                 throw new ConfigException(path + ".name", "expected letters, digits, '-', '_' or '.' (at most 100)"
@@ -305,11 +305,24 @@ public final class ConfigLoader {
                     variables.add(v);
                 }
             }
+            String key = respondentKey(node, path, waveColumn);
+            ReleasesConfig releases = releases(object(node, "releases", path + ".releases", false), path, key,
+                    table, pattern, waveColumn);
+            for (int i = 0; i < variables.size(); i++) {
+                String v = variables.get(i).name();
+                if (v.equals(key) || (releases != null && v.equals(releases.column()))) {
+                    throw new ConfigException(path + ".variables[" + i + "].name", "'" + v + "' is the "
+                            + (v.equals(key) ? "respondent key" : "release column") + " and is never compared as a"
+                            + " variable");
+                }
+            }
             return new DatasetConfig(name, table, waveColumn, pattern, waveOrder(node, path),
                     compareWith(node.get("compareWith"), path + ".compareWith"), schedule, exclude, variables,
                     duration(node, "quietPeriod", path + ".quietPeriod"),
                     alerts(object(node, "alerts", path + ".alerts", false), path + ".alerts"),
-                    readyTable(node, path), readyColumn(node, path), weightColumn(node, path),
+                    readyTable(node, path), readyColumn(node, path), weightColumn(node, path), key, releases,
+                    design(object(node, "design", path + ".design", false), path, waveColumn, key,
+                            weightColumn(node, path)),
                     relationships(node.get("relationships"), path + ".relationships"));
         }
 
@@ -346,6 +359,105 @@ public final class ConfigLoader {
                 out.add(new RelationshipConfig(x, y, threshold));
             }
             return out;
+        }
+
+        DesignColumns design(ObjectNode node, String datasetPath, String waveColumn, String key, String weight) {
+            if (node == null) {
+                return null;
+            }
+            String p = datasetPath + ".design";
+            known(node, p, "strata", "clusters");
+            String strata = text(node, "strata", p + ".strata", false);
+            String clusters = text(node, "clusters", p + ".clusters", false);
+            if (clusters == null) {
+                throw new ConfigException(p + ".clusters", "missing: the column naming each respondent's primary"
+                        + " sampling unit (with strata optional); without clusters, weightColumn alone gives the"
+                        + " weights-only design");
+            }
+            if (weight == null) {
+                throw new ConfigException(datasetPath + ".weightColumn", "missing: a design needs the survey weights"
+                        + " it was drawn with");
+            }
+            for (String[] c : new String[][] {{"strata", strata}, {"clusters", clusters}}) {
+                if (c[1] == null) {
+                    continue;
+                }
+                Identifiers.require(p + "." + c[0], c[1]);
+                if (c[1].equals(waveColumn) || c[1].equals(key) || c[1].equals(weight)) {
+                    throw new ConfigException(p + "." + c[0], "expected a column of its own, but '" + c[1]
+                            + "' is the " + (c[1].equals(waveColumn) ? "wave column" : c[1].equals(key)
+                            ? "respondent key" : "weight column"));
+                }
+            }
+            if (strata != null && strata.equals(clusters)) {
+                throw new ConfigException(p + ".clusters", "expected a column other than the strata column");
+            }
+            return new DesignColumns(strata, clusters);
+        }
+
+        String respondentKey(ObjectNode node, String path, String waveColumn) {
+            String k = text(node, "respondentKey", path + ".respondentKey", false);
+            if (k == null) {
+                return null;
+            }
+            Identifiers.require(path + ".respondentKey", k);
+            if (k.equals(waveColumn)) {
+                throw new ConfigException(path + ".respondentKey", "expected the column identifying a respondent,"
+                        + " not the wave column '" + k + "'");
+            }
+            return k;
+        }
+
+        /**
+         * The earlier publications of a wave: a release column in the same table, or a previous table of the same
+         * layout. Either way respondents are matched across the two by the respondent key, so it is required.
+         */
+        ReleasesConfig releases(ObjectNode node, String path, String key, String table, String pattern,
+                                String waveColumn) {
+            if (node == null) {
+                return null;
+            }
+            String p = path + ".releases";
+            known(node, p, "column", "previousTable");
+            if (node.size() != 1) {
+                throw new ConfigException(p, "expected exactly one of column (a release column in the same table)"
+                        + " or previousTable (a table holding the earlier publication)");
+            }
+            if (key == null) {
+                throw new ConfigException(path + ".respondentKey", "missing: releases are compared respondent by"
+                        + " respondent, so name the column identifying a respondent");
+            }
+            if (node.has("column")) {
+                String c = Identifiers.require(p + ".column", text(node, "column", p + ".column", true));
+                if (c.equals(waveColumn) || c.equals(key)) {
+                    throw new ConfigException(p + ".column", "expected a column of its own telling the releases"
+                            + " apart, but '" + c + "' is the " + (c.equals(key) ? "respondent key" : "wave column"));
+                }
+                return new ReleasesConfig(c, null);
+            }
+            String prev = text(node, "previousTable", p + ".previousTable", true);
+            if (table != null) {
+                if (prev.contains("{wave}")) {
+                    throw new ConfigException(p + ".previousTable", "expected one table (the dataset has one table"
+                            + " with a wave column) but got the pattern " + Identifiers.Text.show(prev));
+                }
+                Identifiers.TableName before = Identifiers.TableName.parse(p + ".previousTable", prev);
+                if (before.equals(Identifiers.TableName.parse(path + ".table", table))) {
+                    throw new ConfigException(p + ".previousTable", "expected another table than the dataset's own "
+                            + before);
+                }
+            } else {
+                if (!prev.contains("{wave}")) {
+                    throw new ConfigException(p + ".previousTable", "expected a pattern containing {wave} like the"
+                            + " dataset's tablePattern, such as survey_v1.wave_{wave}");
+                }
+                Identifiers.TableName.parse(p + ".previousTable", prev.replace("{wave}", "w"));
+                if (prev.equals(pattern)) {
+                    throw new ConfigException(p + ".previousTable", "expected another pattern than the dataset's own "
+                            + pattern);
+                }
+            }
+            return new ReleasesConfig(null, prev);
         }
 
         String weightColumn(ObjectNode node, String path) {

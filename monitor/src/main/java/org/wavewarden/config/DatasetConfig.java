@@ -21,13 +21,17 @@ import java.util.List;
  * @param readyColumn  the column of {@code readyTable} holding wave labels
  * @param weightColumn optional survey weight column: never compared itself, its sums per value are kept in each
  *                     wave's summary
+ * @param respondentKey optional column identifying a respondent across waves and releases; never compared as a
+ *                     variable
+ * @param releases     optional: where earlier publications of a wave are kept (needs {@code respondentKey})
+ * @param design       optional strata and cluster columns of the sampling design (needs {@code weightColumn})
  * @param relationships pairs of numeric variables whose correlation is compared between waves
  */
 public record DatasetConfig(String name, String table, String waveColumn, String tablePattern, WaveOrder waveOrder,
                             CompareWith compareWith, String schedule, List<String> exclude,
                             List<VariableConfig> variables, java.time.Duration quietPeriod, SinkSettings alerts,
-                            String readyTable, String readyColumn, String weightColumn,
-                            List<RelationshipConfig> relationships) {
+                            String readyTable, String readyColumn, String weightColumn, String respondentKey,
+                            ReleasesConfig releases, DesignColumns design, List<RelationshipConfig> relationships) {
 
     public DatasetConfig {
         waveOrder = waveOrder == null ? WaveOrder.NATURAL : waveOrder;
@@ -43,8 +47,23 @@ public record DatasetConfig(String name, String table, String waveColumn, String
     public DatasetConfig(String name, String table, String waveColumn, String tablePattern, WaveOrder waveOrder,
                          CompareWith compareWith, String schedule, List<String> exclude,
                          List<VariableConfig> variables, java.time.Duration quietPeriod, SinkSettings alerts,
-                         String readyTable, String readyColumn, String weightColumn) {
+                         String readyTable, String readyColumn, String weightColumn, String respondentKey,
+                         ReleasesConfig releases, DesignColumns design) {
         this(name, table, waveColumn, tablePattern, waveOrder, compareWith, schedule, exclude, variables, quietPeriod,
-                alerts, readyTable, readyColumn, weightColumn, List.of());
+                alerts, readyTable, readyColumn, weightColumn, respondentKey, releases, design, List.of());
+    }
+
+    /** The column numbering releases within the table, or null when there is none. */
+    public String releaseColumn() {
+        return releases == null ? null : releases.column();
+    }
+
+    /**
+     * Whether a column is bookkeeping rather than an answer: the wave and release columns, the respondent key, the
+     * weight, the design and the excluded columns are never compared as variables.
+     */
+    public boolean isBookkeeping(String column) {
+        return column.equals(waveColumn) || column.equals(releaseColumn()) || column.equals(respondentKey)
+                || column.equals(weightColumn) || exclude.contains(column) || (design != null && design.names(column));
     }
 }

@@ -21,25 +21,7 @@ public final class MarkdownDigest {
         for (FindingsReport r : reports) {
             md.append("## ").append(r.dataset()).append(": wave ").append(r.wave());
             md.append(r.againstWave() == null ? " (screened alone)" : " against " + r.againstWave()).append("\n\n");
-            Map<Verdict, Integer> counts = new EnumMap<>(Verdict.class);
-            Map<Verdict, Integer> relations = new EnumMap<>(Verdict.class);
-            long dq = 0;
-            for (Finding f : r.findings()) {
-                if (f.verdict() != null && f.kind() == org.wavewarden.judge.FindingKind.SHIFT) {
-                    counts.merge(f.verdict(), 1, Integer::sum);
-                } else if (f.verdict() != null && f.kind() == org.wavewarden.judge.FindingKind.RELATIONSHIP_CHANGE) {
-                    relations.merge(f.verdict(), 1, Integer::sum);
-                } else if (f.kind().isDataQuality()) {
-                    dq++;
-                }
-            }
-            md.append("Shift verdicts: ");
-            verdicts(md, counts);
-            if (!relations.isEmpty()) {
-                md.append(". Relationship verdicts: ");
-                verdicts(md, relations);
-            }
-            md.append(". Data-quality findings: ").append(dq).append(". False discovery rate ")
+            md.append(verdictCounts(r.findings())).append(" False discovery rate ")
                     .append(r.alpha()).append(" (").append(r.fdrMethod()).append(").\n\n");
             List<Finding> worth = FindingsFiles.ordered(r.findings()).stream().filter(Alerts::worthAPerson).toList();
             if (worth.isEmpty()) {
@@ -59,9 +41,35 @@ public final class MarkdownDigest {
         return md.toString();
     }
 
-    private static void verdicts(StringBuilder md, Map<Verdict, Integer> counts) {
+    /**
+     * {@code Shift verdicts: MATERIAL 1, MINOR 0, UNCERTAIN 2, STABLE 5. Data-quality findings: 3.}, with the
+     * relationship verdicts after the shift verdicts when the wave has any.
+     */
+    static String verdictCounts(List<Finding> findings) {
+        Map<Verdict, Integer> counts = new EnumMap<>(Verdict.class);
+        Map<Verdict, Integer> relations = new EnumMap<>(Verdict.class);
+        long dq = 0;
+        for (Finding f : findings) {
+            if (f.verdict() != null && f.kind() == org.wavewarden.judge.FindingKind.SHIFT) {
+                counts.merge(f.verdict(), 1, Integer::sum);
+            } else if (f.verdict() != null && f.kind() == org.wavewarden.judge.FindingKind.RELATIONSHIP_CHANGE) {
+                relations.merge(f.verdict(), 1, Integer::sum);
+            } else if (f.kind().isDataQuality()) {
+                dq++;
+            }
+        }
+        StringBuilder sb = new StringBuilder("Shift verdicts: ");
+        verdicts(sb, counts);
+        if (!relations.isEmpty()) {
+            sb.append(". Relationship verdicts: ");
+            verdicts(sb, relations);
+        }
+        return sb.append(". Data-quality findings: ").append(dq).append('.').toString();
+    }
+
+    private static void verdicts(StringBuilder sb, Map<Verdict, Integer> counts) {
         for (Verdict v : Verdict.values()) {
-            md.append(v.name()).append(' ').append(counts.getOrDefault(v, 0)).append(v == Verdict.STABLE ? "" : ", ");
+            sb.append(v.name()).append(' ').append(counts.getOrDefault(v, 0)).append(v == Verdict.STABLE ? "" : ", ");
         }
     }
 

@@ -70,6 +70,25 @@ public final class CatalogCheck {
             throw new ConfigException(key + ".weightColumn", "column " + d.weightColumn() + " does not exist in the"
                     + " source table; it has " + names(columns));
         }
+        if (d.design() != null) {
+            for (String[] c : new String[][] {{"strata", d.design().strata()}, {"clusters", d.design().clusters()}}) {
+                if (c[1] != null && columns.stream().noneMatch(x -> x.name().equals(c[1]))) {
+                    throw new ConfigException(key + ".design." + c[0], "column " + c[1] + " does not exist in the"
+                            + " source table; it has " + names(columns));
+                }
+            }
+        }
+        if (d.respondentKey() != null && columns.stream().noneMatch(c -> c.name().equals(d.respondentKey()))) {
+            throw new ConfigException(key + ".respondentKey", "column " + d.respondentKey() + " does not exist in the"
+                    + " source table; it has " + names(columns));
+        }
+        if (d.releaseColumn() != null && columns.stream().noneMatch(c -> c.name().equals(d.releaseColumn()))) {
+            throw new ConfigException(key + ".releases.column", "column " + d.releaseColumn() + " does not exist in"
+                    + " the source table; it has " + names(columns));
+        }
+        if (d.releases() != null && d.releases().previousTable() != null) {
+            verifyPreviousTable(h, d, key);
+        }
         for (int j = 0; j < d.relationships().size(); j++) {
             RelationshipConfig r = d.relationships().get(j);
             String at = key + ".relationships[" + j + "]";
@@ -92,7 +111,8 @@ public final class CatalogCheck {
                         + names(columns)));
         String why = name.equals(d.waveColumn()) ? "it is the wave column"
                 : name.equals(d.weightColumn()) ? "it is the weight column"
-                : d.exclude().contains(name) ? "it is listed in exclude" : null;
+                : d.exclude().contains(name) ? "it is listed in exclude"
+                : d.isBookkeeping(name) ? "it is the respondent key, the release column or a design column" : null;
         if (why != null) {
             throw new ConfigException(key, "expected a monitored numeric column, but " + name + " is not monitored: "
                     + why);
@@ -100,6 +120,31 @@ public final class CatalogCheck {
         if (!c.type().isNumeric()) {
             throw new ConfigException(key, "expected a numeric column (an INTEGER or DECIMAL type such as integer,"
                     + " numeric or double precision), but " + name + " is " + c.postgresType());
+        }
+    }
+
+    /** The earlier publication must exist and carry the respondent key, or no respondent can be matched. */
+    private static void verifyPreviousTable(Handle h, DatasetConfig d, String key) {
+        WaveSource prev = WaveSource.previousPublication(d, key);
+        String at = key + ".releases.previousTable";
+        if (prev.onePerWave()) {
+            String[] parts = prev.patternParts().orElseThrow();
+            if (SourceCatalog.tablesMatching(h, parts[0], parts[1], parts[2]).isEmpty()) {
+                throw new ConfigException(at, "no table in schema " + parts[0] + " matches "
+                        + d.releases().previousTable());
+            }
+            return;
+        }
+        List<SourceColumn> columns = SourceCatalog.columns(h, prev.table());
+        if (columns.isEmpty()) {
+            throw new ConfigException(at, "table " + prev.table() + " does not exist in the source database (or this"
+                    + " role cannot see it)");
+        }
+        for (String needed : new String[] {d.waveColumn(), d.respondentKey()}) {
+            if (columns.stream().noneMatch(c -> c.name().equals(needed))) {
+                throw new ConfigException(at, "table " + prev.table() + " has no column " + needed + "; the earlier"
+                        + " publication needs the same layout; it has " + names(columns));
+            }
         }
     }
 

@@ -1,5 +1,6 @@
 package org.wavewarden.pipeline;
 
+import org.wavewarden.compare.design.WeightedTally;
 import org.wavewarden.missing.MissingCandidate;
 import org.wavewarden.profile.CategoryCounts;
 import org.wavewarden.profile.NumericDistribution;
@@ -19,10 +20,21 @@ import java.util.Map;
  * @param invalid        values that are not of the variable's type (text in a number), with counts
  * @param numeric        valid answers of a continuous or ordinal variable; null otherwise
  * @param categories     valid answers of a categorical or binary variable; null otherwise
+ * @param weighted       with a weight column, the valid answers with their counts and weight sums: for a numeric
+ *                       variable the values of {@code numeric}, for a categorical or binary one the positions of
+ *                       {@code categories}; null without weights (and for text and dates)
  */
 public record ScreenedVariable(long rows, long sqlNulls, Map<String, Long> missingByReason,
                                List<MissingCandidate> candidates, List<String> excludedValues,
-                               Map<String, Long> invalid, NumericDistribution numeric, CategoryCounts categories) {
+                               Map<String, Long> invalid, NumericDistribution numeric, CategoryCounts categories,
+                               WeightedTally weighted) {
+
+    /** An unweighted screen. */
+    public ScreenedVariable(long rows, long sqlNulls, Map<String, Long> missingByReason,
+                            List<MissingCandidate> candidates, List<String> excludedValues, Map<String, Long> invalid,
+                            NumericDistribution numeric, CategoryCounts categories) {
+        this(rows, sqlNulls, missingByReason, candidates, excludedValues, invalid, numeric, categories, null);
+    }
 
     /** Valid answers: those that enter the comparison, or for text and dates every answer not missing. */
     public long validN() {

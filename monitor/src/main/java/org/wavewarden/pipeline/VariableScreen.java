@@ -1,5 +1,6 @@
 package org.wavewarden.pipeline;
 
+import org.wavewarden.compare.design.WeightedTally;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.config.VariableKind;
 import org.wavewarden.missing.Codebook;
@@ -43,6 +44,16 @@ public final class VariableScreen {
     }
 
     public static ScreenedVariable screen(ColumnTally tally, VariableConfig v) {
+        return screen(tally, v, null);
+    }
+
+    /**
+     * The same, and with the column's per-value weight sums ({@code {sum w, sum w^2}}, as
+     * {@link org.wavewarden.profile.WaveProfile#weights()} keeps them) the weighted view of the valid answers: the
+     * values that enter the comparison with their counts and weight sums, missing codes and excluded values removed
+     * from the weights as from the counts. Without weights (null) the result is that of the unweighted screen.
+     */
+    public static ScreenedVariable screen(ColumnTally tally, VariableConfig v, Map<String, double[]> weights) {
         CodebookSplit split = codebook(v).split(tally);
         Map<String, Long> missing = new LinkedHashMap<>(split.countsByReason());
         List<String> excluded = new ArrayList<>();
@@ -66,8 +77,71 @@ public final class VariableScreen {
                 // Screened for disguised missing values only; no distribution comparison.
             }
         }
+        WeightedTally weighted = weights == null ? null : switch (v.kind()) {
+            case CONTINUOUS, ORDINAL -> weightedNumbers(rest, v, weights);
+            case CATEGORICAL, BINARY -> weightedCategories(categories, weights);
+            case TEXT, DATE -> null;
+        };
         return new ScreenedVariable(tally.rowCount(), tally.nullCount(), missing, candidates, excluded, invalid,
-                numeric, categories);
+                numeric, categories, weighted);
+    }
+
+    /** The valid numbers with their weights: the same values as {@link #numeric}'s distribution, in the same order. */
+    private static WeightedTally weightedNumbers(Map<String, Long> values, VariableConfig v,
+                                                 Map<String, double[]> weights) {
+        Map<String, Integer> levelRank = levelRanks(v);
+        ValueRange range = range(v).orElse(null);
+        Map<Double, double[]> cells = new HashMap<>();
+        for (Map.Entry<String, Long> e : values.entrySet()) {
+            Double x = valueOf(e.getKey(), levelRank);
+            if (x == null || !Double.isFinite(x) || outside(x, range)) {
+                continue;
+            }
+            double[] cell = cells.computeIfAbsent(x == 0.0 ? 0.0 : x, k -> new double[3]);
+            double[] w = weights.getOrDefault(e.getKey(), NO_WEIGHT);
+            cell[0] += e.getValue();
+            cell[1] += w[0];
+            cell[2] += w[1];
+        }
+        return WeightedTally.ofCells(cells);
+    }
+
+    private static final double[] NO_WEIGHT = {0, 0};
+
+    /** The valid categories with their weights; the tally's values are the positions in {@code categories}. */
+    private static WeightedTally weightedCategories(CategoryCounts categories, Map<String, double[]> weights) {
+        return aligned(categories, weights, categories.categories());
+    }
+
+    /**
+     * A weighted categorical view laid out along {@code order} (the union of both waves' categories), as the weighted
+     * comparison needs: value j is {@code order.get(j)}, with count and weights 0 where this wave lacks it.
+     */
+    static WeightedTally aligned(ScreenedVariable s, List<String> order) {
+        List<String> own = s.categories().categories();
+        double[] w = s.weighted().weights();
+        double[] q = s.weighted().squaredWeights();
+        Map<String, double[]> weights = new HashMap<>();
+        for (int j = 0; j < own.size(); j++) {
+            weights.put(own.get(j), new double[] {w[j], q[j]});
+        }
+        return aligned(s.categories(), weights, order);
+    }
+
+    private static WeightedTally aligned(CategoryCounts counts, Map<String, double[]> weights, List<String> order) {
+        int k = order.size();
+        double[] values = new double[k];
+        long[] n = new long[k];
+        double[] w = new double[k];
+        double[] q = new double[k];
+        for (int j = 0; j < k; j++) {
+            values[j] = j;
+            n[j] = counts.count(order.get(j));
+            double[] ws = n[j] == 0 ? NO_WEIGHT : weights.getOrDefault(order.get(j), NO_WEIGHT);
+            w[j] = ws[0];
+            q[j] = ws[1];
+        }
+        return new WeightedTally(values, n, w, q);
     }
 
     static String reasonOf(MissingCandidate c) {
@@ -77,19 +151,15 @@ public final class VariableScreen {
     private static NumericDistribution numeric(Map<String, Long> values, VariableConfig v, Map<String, Long> invalid,
                                                List<String> excluded, Map<String, Long> missing) {
         Map<Double, Long> tally = new HashMap<>();
-        Map<String, Integer> levelRank = new HashMap<>();
-        for (int i = 0; i < v.levels().size(); i++) {
-            levelRank.put(v.levels().get(i), i + 1);
-        }
+        Map<String, Integer> levelRank = levelRanks(v);
         ValueRange range = range(v).orElse(null);
         for (Map.Entry<String, Long> e : values.entrySet()) {
-            Double x = levelRank.isEmpty() ? parse(e.getKey()) : levelRank.get(e.getKey().strip()) == null ? null
-                    : (double) levelRank.get(e.getKey().strip());
+            Double x = valueOf(e.getKey(), levelRank);
             if (x == null || !Double.isFinite(x)) {
                 invalid.merge(e.getKey(), e.getValue(), Long::sum);
                 continue;
             }
-            if (range != null && ((range.min() != null && x < range.min()) || (range.max() != null && x > range.max()))) {
+            if (outside(x, range)) {
                 excluded.add(e.getKey());
                 missing.merge("outside the declared range", e.getValue(), Long::sum);
                 continue;
@@ -97,6 +167,24 @@ public final class VariableScreen {
             tally.merge(x == 0.0 ? 0.0 : x, e.getValue(), Long::sum);
         }
         return NumericDistribution.ofTally(tally);
+    }
+
+    private static Map<String, Integer> levelRanks(VariableConfig v) {
+        Map<String, Integer> levelRank = new HashMap<>();
+        for (int i = 0; i < v.levels().size(); i++) {
+            levelRank.put(v.levels().get(i), i + 1);
+        }
+        return levelRank;
+    }
+
+    /** A numeric answer's value: its number, or for an ordinal variable with levels the rank of its level. */
+    private static Double valueOf(String text, Map<String, Integer> levelRank) {
+        return levelRank.isEmpty() ? parse(text) : levelRank.get(text.strip()) == null ? null
+                : (double) levelRank.get(text.strip());
+    }
+
+    private static boolean outside(double x, ValueRange range) {
+        return range != null && ((range.min() != null && x < range.min()) || (range.max() != null && x > range.max()));
     }
 
     static Double parse(String s) {

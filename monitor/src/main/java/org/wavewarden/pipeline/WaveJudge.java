@@ -3,6 +3,7 @@ package org.wavewarden.pipeline;
 import org.jdbi.v3.core.Handle;
 import org.wavewarden.compare.Comparison;
 import org.wavewarden.compare.VariableComparator;
+import org.wavewarden.compare.WeightedComparator;
 import org.wavewarden.config.CompareWith;
 import org.wavewarden.config.ConfigException;
 import org.wavewarden.config.DatasetConfig;
@@ -65,7 +66,8 @@ public final class WaveJudge {
     @FunctionalInterface
     public interface Scanner {
         WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
-                                  SourceColumn weight, List<PairSpec> pairs, LongConsumer progress);
+                                  SourceColumn weight, WaveScanner.Design design, List<PairSpec> pairs,
+                                  LongConsumer progress);
     }
 
     /** Reads waves with the given scanner from now on; returns this judge. */
@@ -152,28 +154,72 @@ public final class WaveJudge {
     public static Profiled findings(WardenConfig cfg, DatasetConfig d, WaveProfile current, WaveProfile baseline) {
         List<String> inference = new ArrayList<>();
         List<VariableConfig> variables = variables(d, current, inference);
-        VariableComparator comparator = new VariableComparator(1 - cfg.alpha());
+        boolean weighted = d.weightColumn() != null;
+        List<Comparison> relations = new ArrayList<>();
+        List<Finding> relationNotes = new ArrayList<>();
+        relationships(cfg, d, variables, current, baseline, relations, relationNotes);
+        List<Finding> findings = new ArrayList<>(judgeVariables(variables, baseline == null ? null
+                : baseline.columns(), current.columns(), weighted && baseline != null ? baseline.weights() : null,
+                weighted ? current.weights() : null, cfg.alpha(), cfg.fdr(), d.name() + " wave " + current.wave(),
+                relations));
+        findings.addAll(relationNotes);
+        findings.addAll(schemaFindings(d, baseline, current));
+        return new Profiled(FindingsFiles.ordered(findings), inference);
+    }
+
+    /**
+     * Every variable's comparisons and data-quality findings between two sets of tallies, judged together: one
+     * false-discovery-rate family, the verdict rule, one missing-rate finding per variable, shape findings only
+     * where they add something. A variable that cannot be analysed gets a SKIPPED finding instead. Public so that
+     * two sides that are not two waves' summaries (two releases of one wave) are judged exactly as waves are.
+     *
+     * @param baseline        the baseline's tallies by column, or null when there is nothing to compare with
+     * @param baselineWeights per column and value the baseline's weight sums, or null to compare unweighted
+     * @param currentWeights  the same for the current side
+     * @param what            names the comparison in the log, e.g. {@code labour wave 2025-Q1}
+     */
+    public static List<Finding> judgeVariables(List<VariableConfig> variables, Map<String, ColumnTally> baseline,
+                                               Map<String, ColumnTally> current,
+                                               Map<String, Map<String, double[]>> baselineWeights,
+                                               Map<String, Map<String, double[]>> currentWeights, double alpha,
+                                               WardenConfig.FdrMethod fdr, String what) {
+        return judgeVariables(variables, baseline, current, baselineWeights, currentWeights, alpha, fdr, what,
+                List.of());
+    }
+
+    /**
+     * {@link #judgeVariables(List, Map, Map, Map, Map, double, WardenConfig.FdrMethod, String)} with comparisons
+     * made elsewhere (the relationships of configured pairs) judged in the same false-discovery-rate family.
+     */
+    static List<Finding> judgeVariables(List<VariableConfig> variables, Map<String, ColumnTally> baseline,
+                                        Map<String, ColumnTally> current,
+                                        Map<String, Map<String, double[]>> baselineWeights,
+                                        Map<String, Map<String, double[]>> currentWeights, double alpha,
+                                        WardenConfig.FdrMethod fdr, String what, List<Comparison> alsoJudged) {
+        VariableComparator comparator = new VariableComparator(1 - alpha);
+        WeightedComparator weighted = new WeightedComparator(1 - alpha);
         List<Comparison> comparisons = new ArrayList<>();
-        List<Finding> plain = new ArrayList<>(schemaFindings(d, baseline, current));
+        List<Finding> plain = new ArrayList<>();
         Map<String, Double> summarised = new LinkedHashMap<>();
         for (VariableConfig v : variables) {
-            ColumnTally ct = current.columns().get(v.name());
+            ColumnTally ct = current.get(v.name());
             if (ct == null) {
                 continue;
             }
-            ColumnTally bt0 = baseline == null ? null : baseline.columns().get(v.name());
-            double error = Math.max(ct.binning().relativeError(), bt0 == null ? 0 : bt0.binning().relativeError());
+            ColumnTally bt = baseline == null ? null : baseline.get(v.name());
+            double error = Math.max(ct.binning().relativeError(), bt == null ? 0 : bt.binning().relativeError());
             if (error > 0) {
                 summarised.put(v.name(), error);
             }
             List<Comparison> mine = new ArrayList<>();
             List<Finding> myPlain = new ArrayList<>();
             try {
-                judgeVariable(comparator, v, ct, baseline == null ? null : baseline.columns().get(v.name()), mine,
-                        myPlain);
+                judgeVariable(comparator, weighted, v, ct, bt,
+                        currentWeights == null ? null : currentWeights.get(v.name()),
+                        baselineWeights == null ? null : baselineWeights.get(v.name()), mine, myPlain);
             } catch (RuntimeException e) {
                 // A value no method foresaw must cost one variable its comparison, never the whole run.
-                LOG.warn("variable {} of {} wave {} could not be compared: {}", v.name(), d.name(), current.wave(), e.toString());
+                LOG.warn("variable {} of {} could not be compared: {}", v.name(), what, e.toString());
                 mine.clear();
                 myPlain.clear();
                 myPlain.add(Finding.dataQuality(v.name(), FindingKind.SKIPPED, null, null, "Not compared: the"
@@ -183,11 +229,11 @@ public final class WaveJudge {
             comparisons.addAll(mine);
             plain.addAll(myPlain);
         }
-        relationships(cfg, d, variables, current, baseline, comparisons, plain);
+        comparisons.addAll(alsoJudged);
         List<Finding> findings = new ArrayList<>(withSummaryError(shapeOnlyWhereLocationIsQuiet(
-                onePerVariableAndKind(Judge.judge(comparisons, cfg.alpha(), cfg.fdr()))), summarised));
+                onePerVariableAndKind(Judge.judge(comparisons, alpha, fdr))), summarised));
         findings.addAll(plain);
-        return new Profiled(FindingsFiles.ordered(findings), inference);
+        return findings;
     }
 
     /** Relationship drift of the configured pairs: comparisons for the run's family, skip notices beside them. */
@@ -223,21 +269,25 @@ public final class WaveJudge {
         return out;
     }
 
-    private static void judgeVariable(VariableComparator comparator, VariableConfig v, ColumnTally ct, ColumnTally bt,
-                               List<Comparison> comparisons, List<Finding> plain) {
-        ScreenedVariable sc = VariableScreen.screen(ct, v);
-        ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v);
-        reference(comparator, v, sc).ifPresent(comparisons::add);
+    private static void judgeVariable(VariableComparator comparator, WeightedComparator weighted, VariableConfig v,
+                                      ColumnTally ct, ColumnTally bt, Map<String, double[]> cw,
+                                      Map<String, double[]> bw, List<Comparison> comparisons, List<Finding> plain) {
+        ScreenedVariable sc = VariableScreen.screen(ct, v, cw);
+        ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v, bw);
+        (sc.weighted() == null ? reference(comparator, v, sc) : WeightedComparisons.reference(weighted, v, sc)
+                .or(() -> reference(comparator, v, sc))).ifPresent(comparisons::add);
         DataQualityFindings.Result dq = DataQualityFindings.of(v, ct, sc, sb, comparator);
         plain.addAll(dq.findings());
         comparisons.addAll(dq.rateComparisons());
         if (sb == null) {
             return;
         }
-        compare(comparator, v, sb, sc, ct, bt).ifPresentOrElse(c -> {
+        boolean weigh = WeightedComparisons.applies(sb, sc);
+        compare(comparator, v, sb, sc, ct, bt, weigh ? weighted : null).ifPresentOrElse(c -> {
             comparisons.add(c);
             if (v.kind() == VariableKind.CONTINUOUS) {
-                comparisons.add(comparator.shape(v.name(), sb.numeric(), sc.numeric(), v.unit()));
+                comparisons.add(weigh ? WeightedComparisons.shape(weighted, v, sb, sc)
+                        : comparator.shape(v.name(), sb.numeric(), sc.numeric(), v.unit()));
             }
         }, () -> {
             String why = skipReason(v, sb, sc, ct, bt);
@@ -294,10 +344,14 @@ public final class WaveJudge {
                 || location.get(f.variable()) == Verdict.UNCERTAIN))).toList();
     }
 
-    private static Optional<Comparison> compare(VariableComparator comparator, VariableConfig v, ScreenedVariable b,
-                                         ScreenedVariable c, ColumnTally ct, ColumnTally bt) {
+    private static Optional<Comparison> compare(VariableComparator comparator, VariableConfig v,
+                                                ScreenedVariable b, ScreenedVariable c, ColumnTally ct,
+                                                ColumnTally bt, WeightedComparator weighted) {
         if (skipReason(v, b, c, ct, bt) != null) {
             return Optional.empty();
+        }
+        if (weighted != null) {
+            return WeightedComparisons.compare(weighted, v, b, c);
         }
         return switch (v.kind()) {
             case CONTINUOUS, ORDINAL -> Optional.of(comparator.numeric(v.name(), v.kind() == VariableKind.ORDINAL,
@@ -347,7 +401,7 @@ public final class WaveJudge {
         if (v.kind() == VariableKind.CATEGORICAL && b.categories().unionOrder(c.categories()).size() < 2) {
             return "a single category";
         }
-        return null;
+        return WeightedComparisons.skipReason(b, c);
     }
 
     private WaveProfile profile(Handle h, DatasetConfig d, WaveSource source, String wave, LongConsumer progress) {
@@ -361,11 +415,18 @@ public final class WaveJudge {
         Map<String, ColumnType> schema = new LinkedHashMap<>();
         all.forEach(c -> schema.put(c.name(), c.type()));
         List<SourceColumn> monitored = all.stream()
-                .filter(c -> !c.name().equals(d.waveColumn()) && !d.exclude().contains(c.name())
-                        && !c.name().equals(d.weightColumn())).toList();
-        SourceColumn weight = all.stream().filter(c -> c.name().equals(d.weightColumn())).findFirst().orElse(null);
-        WaveScanner.WaveScan scan = scanner.scan(h, source, wave, monitored, weight, pairs(d, monitored), progress);
-        return new WaveProfile(wave, scan.rows(), schema, scan.columns(), scan.weights(), scan.pairs());
+                .filter(c -> !d.isBookkeeping(c.name())).toList();
+        SourceColumn weight = column(all, d.weightColumn());
+        WaveScanner.Design design = d.design() == null ? null
+                : new WaveScanner.Design(column(all, d.design().strata()), column(all, d.design().clusters()));
+        WaveScanner.WaveScan scan = scanner.scan(h, source, wave, monitored, weight, design, pairs(d, monitored),
+                progress);
+        return new WaveProfile(wave, scan.rows(), schema, scan.columns(), scan.weights(), scan.design(),
+                scan.pairs());
+    }
+
+    private static SourceColumn column(List<SourceColumn> all, String name) {
+        return name == null ? null : all.stream().filter(c -> c.name().equals(name)).findFirst().orElse(null);
     }
 
     /** The configured relationships whose two columns this wave has as monitored numbers. */
@@ -406,8 +467,14 @@ public final class WaveJudge {
     }
 
     private static List<VariableConfig> variables(DatasetConfig d, WaveProfile current, List<String> inference) {
+        return variables(d, current.columns().values(), inference);
+    }
+
+    /** The declared variables, and for every other tallied column the inferred one, described in {@code inference}. */
+    public static List<VariableConfig> variables(DatasetConfig d, java.util.Collection<ColumnTally> tallies,
+                                                 List<String> inference) {
         List<VariableConfig> out = new ArrayList<>(d.variables());
-        for (ColumnTally t : current.columns().values()) {
+        for (ColumnTally t : tallies) {
             if (d.variables().stream().noneMatch(v -> v.name().equals(t.column()))) {
                 VariableInference.Inferred i = VariableInference.infer(t);
                 inference.add(VariableInference.describe(i));

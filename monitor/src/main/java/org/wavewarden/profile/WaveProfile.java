@@ -18,11 +18,13 @@ import java.util.TreeMap;
  * @param schema  column name to storage class, for every column of the source table (not only monitored ones)
  * @param columns tallies of the monitored columns
  * @param weights with a weight column: per column and value, {sum of weights, sum of squared weights}
+ * @param design  with design columns: the PSUs and per column their weight sums; null otherwise (and for
+ *                summaries stored before designs were read)
  * @param pairs   joint tallies of the configured pairs of numeric columns (relationship drift); empty in summaries
  *                stored before pairs were tallied
  */
 public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns,
-                          Map<String, Map<String, double[]>> weights, List<JointTally> pairs) {
+                          Map<String, Map<String, double[]>> weights, DesignSummary design, List<JointTally> pairs) {
 
     public WaveProfile {
         schema = java.util.Collections.unmodifiableMap(new LinkedHashMap<>(schema));
@@ -31,13 +33,18 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
         pairs = pairs == null ? List.of() : List.copyOf(pairs);
     }
 
-    public WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns,
-                       Map<String, Map<String, double[]>> weights) {
-        this(wave, rows, schema, columns, weights, List.of());
+    public WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns) {
+        this(wave, rows, schema, columns, Map.of(), null, List.of());
     }
 
-    public WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns) {
-        this(wave, rows, schema, columns, Map.of(), List.of());
+    public WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns,
+                       Map<String, Map<String, double[]>> weights) {
+        this(wave, rows, schema, columns, weights, null, List.of());
+    }
+
+    public WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns,
+                       Map<String, Map<String, double[]>> weights, DesignSummary design) {
+        this(wave, rows, schema, columns, weights, design, List.of());
     }
 
     /** The joint tally of columns x and y, in that order, if this summary holds one. */
@@ -67,6 +74,16 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
                 new TreeMap<>(w.getValue()).forEach((v, s) -> feed(md, "w " + w.getKey() + " " + v.length() + ":" + v
                         + "=" + Double.doubleToLongBits(s[0]) + "," + Double.doubleToLongBits(s[1])));
             }
+            if (design != null) {
+                feed(md, "design " + design.rowsWithoutPsu() + " " + design.psuStratum() + " " + design.psuLabel());
+                for (var c : new TreeMap<>(design.columns()).entrySet()) {
+                    var cd = c.getValue();
+                    feed(md, "psu " + c.getKey() + " " + cd.complete() + " " + java.util.Arrays.toString(cd.weight())
+                            + java.util.Arrays.toString(cd.weightedSum()) + java.util.Arrays.toString(cd.weightedSquares()));
+                    new TreeMap<>(cd.cells()).forEach((v, sums) -> feed(md, v.length() + ":" + v + "="
+                            + java.util.Arrays.toString(sums)));
+                }
+            }
             // Only summaries with pairs feed them, so the checksum of every summary without pairs is what it was.
             List<JointTally> sorted = new java.util.ArrayList<>(pairs);
             sorted.sort(java.util.Comparator.comparing(JointTally::x).thenComparing(JointTally::y));
@@ -95,11 +112,18 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
         return List.copyOf(columns.keySet());
     }
 
-    /** Pools several waves' profiles (for comparison against the pooled last k waves). */
+    /**
+     * Pools several waves' profiles (for comparison against the pooled last k waves). A column's weight sums are
+     * pooled with its counts, value by value (in the coarser binning for summarised columns); a column keeps weights
+     * in the pool only when every wave that has the column has its weights, so a pool never mixes weighted and
+     * unweighted waves.
+     */
     public static WaveProfile pooled(String label, List<WaveProfile> waves) {
         long rows = 0;
         Map<String, ColumnType> schema = new LinkedHashMap<>();
         Map<String, ColumnTally> columns = new LinkedHashMap<>();
+        Map<String, Map<String, double[]>> weights = new LinkedHashMap<>();
+        java.util.Set<String> unweighted = new java.util.HashSet<>();
         Map<List<String>, List<JointTally>> pairs = new LinkedHashMap<>();
         for (WaveProfile w : waves) {
             for (JointTally p : w.pairs) {
@@ -109,15 +133,27 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
             schema.putAll(w.schema);
             for (ColumnTally t : w.columns.values()) {
                 ColumnTally prev = columns.get(t.column());
+                Map<String, double[]> tw = w.weights.get(t.column());
+                if (tw == null) {
+                    unweighted.add(t.column());
+                }
                 if (prev == null) {
                     columns.put(t.column(), t);
+                    if (tw != null) {
+                        weights.put(t.column(), tw);
+                    }
                 } else {
-                    columns.put(t.column(), pooled(prev, t));
+                    Pooled p = pooled(prev, weights.get(t.column()), t, tw);
+                    columns.put(t.column(), p.tally());
+                    if (p.weights() != null) {
+                        weights.put(t.column(), p.weights());
+                    }
                 }
             }
         }
+        unweighted.forEach(weights::remove);
         List<JointTally> pooledPairs = pairs.values().stream().map(WaveProfile::pooled).toList();
-        return new WaveProfile(label, rows, schema, columns, Map.of(), pooledPairs);
+        return new WaveProfile(label, rows, schema, columns, weights, null, pooledPairs);
     }
 
     /**
@@ -144,18 +180,42 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
 
     /** Two waves' tallies of one column as one; summarised tallies pool in the coarser binning of the two. */
     static ColumnTally pooled(ColumnTally a, ColumnTally b) {
+        return pooled(a, null, b, null).tally();
+    }
+
+    /** A pooled tally and its weight sums (null unless both parts had them). */
+    record Pooled(ColumnTally tally, Map<String, double[]> weights) {
+    }
+
+    static Pooled pooled(ColumnTally a, Map<String, double[]> aw, ColumnTally b, Map<String, double[]> bw) {
+        boolean weighted = aw != null && bw != null;
         Map<String, Long> merged;
+        Map<String, double[]> mergedWeights = null;
         Binning binning = a.binning().coarser(b.binning());
         if (binning.isExact()) {
             merged = new java.util.HashMap<>(a.valueCounts());
             b.valueCounts().forEach((v, c) -> merged.merge(v, c, Long::sum));
+            if (weighted) {
+                mergedWeights = new java.util.HashMap<>();
+                for (Map<String, double[]> part : List.of(aw, bw)) {
+                    for (Map.Entry<String, double[]> e : part.entrySet()) {
+                        double[] cell = mergedWeights.computeIfAbsent(e.getKey(), k -> new double[2]);
+                        cell[0] += e.getValue()[0];
+                        cell[1] += e.getValue()[1];
+                    }
+                }
+            }
         } else {
-            RelativeBins bins = RelativeBins.of(binning.level(), false, a.valueCounts(), null);
-            b.valueCounts().forEach((v, c) -> bins.add(Double.parseDouble(v.strip()), c, 0, 0));
+            RelativeBins bins = RelativeBins.of(binning.level(), false, a.valueCounts(), weighted ? aw : null);
+            b.valueCounts().forEach((v, c) -> {
+                double[] w = weighted ? bw.get(v) : null;
+                bins.add(Double.parseDouble(v.strip()), c, w == null ? 0 : w[0], w == null ? 0 : w[1]);
+            });
             merged = bins.counts();
             binning = bins.binning();
+            mergedWeights = weighted ? bins.weights() : null;
         }
-        return new ColumnTally(a.column(), b.type(), a.rowCount() + b.rowCount(), a.nullCount() + b.nullCount(),
-                merged, a.truncated() || b.truncated(), binning);
+        return new Pooled(new ColumnTally(a.column(), b.type(), a.rowCount() + b.rowCount(),
+                a.nullCount() + b.nullCount(), merged, a.truncated() || b.truncated(), binning), mergedWeights);
     }
 }

@@ -96,31 +96,50 @@ public final class BinaryWaveScanner {
         }
     }
 
-    /** {@link #scan(Handle, WaveSource, String, List, SourceColumn, List, LongConsumer)} without weight or pairs. */
+    /** The scan without weight, design or pairs. */
     public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
                                      LongConsumer progress) {
-        return scan(h, source, wave, columns, null, List.of(), progress);
+        return scan(h, source, wave, columns, null, null, List.of(), progress);
     }
 
-    /** {@link #scan(Handle, WaveSource, String, List, SourceColumn, List, LongConsumer)} without pairs. */
+    /** The scan with a weight column and no sampling design. */
     public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
                                      SourceColumn weight, LongConsumer progress) {
-        return scan(h, source, wave, columns, weight, List.of(), progress);
+        return scan(h, source, wave, columns, weight, null, List.of(), progress);
+    }
+
+    /** The scan with a weight column and a sampling design, without pairs. */
+    public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
+                                     SourceColumn weight, WaveScanner.Design design, LongConsumer progress) {
+        return scan(h, source, wave, columns, weight, design, List.of(), progress);
     }
 
     /**
-     * Same contract as {@link WaveScanner#scan}: the wave's row count, one tally per requested column, with a
-     * weight column each value's sum of weights and of squared weights, and one joint tally per requested pair.
-     * A pair's cells are decoded to doubles as they pass, into one array reused for every row.
+     * Same contract as {@link WaveScanner#scan}: the wave's row count, one tally per requested column and, with a
+     * weight column, each value's sum of weights and of squared weights; with a design, the PSU sums of
+     * {@link org.wavewarden.profile.DesignSummary} (a weight that is NULL or invalid counts as zero there); with
+     * pairs, one joint tally per pair, its cells decoded to doubles as they pass into one array reused for every row.
+     *
+     * @param design the stratum and cluster columns, or null
+     * @param pairs  pairs of numeric columns among {@code columns} to tally jointly, possibly none
      */
     public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
-                                     SourceColumn weight, List<PairSpec> pairs, LongConsumer progress) {
+                                     SourceColumn weight, WaveScanner.Design design, List<PairSpec> pairs,
+                                     LongConsumer progress) {
         int k = columns.size();
-        int first = weight == null ? 0 : 1; // the weight travels first, so every cell of a row knows it
-        List<SourceColumn> read = new java.util.ArrayList<>(k + first);
+        // The weight and the design travel first, so every cell of a row knows its weight and PSU.
+        List<SourceColumn> read = new java.util.ArrayList<>(k + 3);
         if (weight != null) {
             read.add(weight);
         }
+        boolean hasStrata = design != null && design.strata() != null;
+        if (hasStrata) {
+            read.add(asText(design.strata()));
+        }
+        if (design != null) {
+            read.add(asText(design.clusters()));
+        }
+        int first = read.size();
         read.addAll(columns);
         Decode[] all = new Decode[read.size()];
         for (int i = 0; i < read.size(); i++) {
@@ -140,6 +159,11 @@ public final class BinaryWaveScanner {
         }
         long[] nulls = new long[k];
         boolean[] truncated = new boolean[k];
+        boolean[] numeric = new boolean[k];
+        for (int i = 0; i < k; i++) {
+            numeric[i] = decode[i].isNumber();
+        }
+        DesignScan ds = design == null ? null : new DesignScan(numeric);
         int[][] pairAt = new int[pairs.size()][];
         PairCounter[] joint = new PairCounter[pairs.size()];
         boolean[] inPair = new boolean[k];
@@ -184,6 +208,11 @@ public final class BinaryWaveScanner {
                         badWeights++;
                     }
                 }
+                int psu = -1;
+                if (ds != null) {
+                    String stratum = hasStrata ? in.text() : "";
+                    psu = ds.psu(stratum, in.text());
+                }
                 for (int i = 0; i < fields - first; i++) {
                     int len = in.int32();
                     if (i >= k) { // the placeholder column of a scan without columns
@@ -202,28 +231,48 @@ public final class BinaryWaveScanner {
                         value[i] = number(decode[i], b, p, len);
                     }
                     if (bins[i] != null) {
-                        bins[i].add(number(decode[i], b, p, len), w);
+                        double x = number(decode[i], b, p, len);
+                        bins[i].add(x, w);
+                        if (ds != null && psu >= 0) {
+                            ds.addBinned(i, psu, x, w);
+                        }
                         in.pos += len;
                         continue;
                     }
-                    boolean kept = switch (decode[i]) {
-                        case INT2 -> longs[i].add((short) (((b[p] & 0xFF) << 8) | (b[p + 1] & 0xFF)), exactNumbers, w);
-                        case INT4, FLOAT4 -> longs[i].add(int32(b, p), exactNumbers, w);
-                        case DATE -> longs[i].add(int32(b, p), maxDistinct, w);
-                        case INT8, FLOAT8 -> longs[i].add(int64(b, p), exactNumbers, w);
-                        case BOOL -> longs[i].add(b[p] != 0 ? 1 : 0, maxDistinct, w);
+                    long key = switch (decode[i]) {
+                        case INT2 -> (short) (((b[p] & 0xFF) << 8) | (b[p + 1] & 0xFF));
+                        case INT4, FLOAT4, DATE -> int32(b, p);
+                        case INT8, FLOAT8 -> int64(b, p);
+                        case BOOL -> b[p] != 0 ? 1 : 0;
                         case NUMERIC -> bytes[i].add(b, p, len, exactNumbers, w);
                         case TEXT, OUTPUT_TEXT -> len > WaveScanner.MAX_VALUE_CHARS
                                 ? addLongText(bytes[i], b, p, len, w) : bytes[i].add(b, p, len, maxDistinct, w);
                     };
-                    if (!kept) {
-                        if (decode[i].isNumber()) {
-                            bins[i] = summarise(decode[i], longs[i], bytes[i]);
-                            longs[i] = null;
-                            bytes[i] = null;
-                            bins[i].add(number(decode[i], b, p, len), w);
-                        } else {
-                            truncated[i] = true;
+                    boolean kept = decode[i].bytesKeyed() ? key >= 0
+                            : longs[i].add(key, numeric[i] ? exactNumbers : maxDistinct, w);
+                    if (kept) {
+                        if (ds != null && psu >= 0) {
+                            ds.add(i, psu, key, numeric[i] ? number(decode[i], b, p, len) : Double.NaN, w);
+                        }
+                    } else if (numeric[i]) {
+                        if (ds != null) {
+                            Decode d = decode[i];
+                            LongTally lt = longs[i];
+                            BytesTally bt = bytes[i];
+                            ds.toBins(i, lt != null ? x -> number(d, x) : e -> bt.number(d, (int) e));
+                        }
+                        bins[i] = summarise(decode[i], longs[i], bytes[i]);
+                        longs[i] = null;
+                        bytes[i] = null;
+                        double x = number(decode[i], b, p, len);
+                        bins[i].add(x, w);
+                        if (ds != null && psu >= 0) {
+                            ds.addBinned(i, psu, x, w);
+                        }
+                    } else {
+                        truncated[i] = true;
+                        if (ds != null) {
+                            ds.incomplete(i);
                         }
                     }
                     in.pos += len;
@@ -254,6 +303,18 @@ public final class BinaryWaveScanner {
                     // the connection is returned to the pool and validated there
                 }
             }
+        }
+        org.wavewarden.profile.DesignSummary designSummary = null;
+        if (ds != null) {
+            List<java.util.function.LongFunction<String>> texts = new java.util.ArrayList<>();
+            boolean[] binned = new boolean[k];
+            for (int i = 0; i < k; i++) {
+                Decode d = decode[i];
+                BytesTally bt = bytes[i];
+                binned[i] = bins[i] != null;
+                texts.add(binned[i] ? null : d.bytesKeyed() ? e -> bt.text(d, (int) e) : x -> keep(text(d, x)));
+            }
+            designSummary = ds.result(columns.stream().map(SourceColumn::name).toList(), texts, binned);
         }
         Map<String, ColumnTally> out = new LinkedHashMap<>();
         Map<String, Map<String, double[]>> weights = new LinkedHashMap<>();
@@ -287,7 +348,12 @@ public final class BinaryWaveScanner {
         for (int j = 0; j < joint.length; j++) {
             jointTallies.add(joint[j].tally(pairs.get(j).x(), pairs.get(j).y()));
         }
-        return new WaveScanner.WaveScan(rows, out, weights, badWeights, jointTallies);
+        return new WaveScanner.WaveScan(rows, out, weights, badWeights, designSummary, jointTallies);
+    }
+
+    /** A design column travels as its output text, whatever its type. */
+    private static SourceColumn asText(SourceColumn c) {
+        return new SourceColumn(c.name(), org.wavewarden.profile.ColumnType.OTHER, "design label");
     }
 
     /** Moves a numeric column's exact counts into relative bins, when it has more distinct values than kept. */
@@ -376,7 +442,7 @@ public final class BinaryWaveScanner {
     }
 
     /** A cell that may be longer than the text scanner keeps: its stand-in is tallied, as the text scanner does. */
-    private boolean addLongText(BytesTally t, byte[] b, int p, int len, double w) {
+    private int addLongText(BytesTally t, byte[] b, int p, int len, double w) {
         String v = new String(b, p, len, StandardCharsets.UTF_8);
         if (v.length() <= WaveScanner.MAX_VALUE_CHARS) {
             return t.add(b, p, len, maxDistinct, w);
@@ -790,7 +856,8 @@ public final class BinaryWaveScanner {
             }
         }
 
-        boolean add(byte[] b, int p, int len, int max, double w) {
+        /** Counts one cell; its entry number, or -1 when the value is new and {@code max} are held. */
+        int add(byte[] b, int p, int len, int max, double w) {
             int h = hash(b, p, len);
             int mask = slots.length - 1;
             int i = h & mask;
@@ -801,12 +868,12 @@ public final class BinaryWaveScanner {
                         && Arrays.equals(arena, offset[e], offset[e] + len, b, p, p + len)) {
                     count[e]++;
                     weigh(e, w);
-                    return true;
+                    return e;
                 }
                 i = (i + 1) & mask;
             }
             if (size >= max) {
-                return false;
+                return -1;
             }
             if (size == count.length) {
                 int n = size * 2;
@@ -833,7 +900,7 @@ public final class BinaryWaveScanner {
             if (size * 2 > slots.length) {
                 rehash();
             }
-            return true;
+            return size - 1;
         }
 
         private void weigh(int e, double w) {
@@ -877,7 +944,11 @@ public final class BinaryWaveScanner {
             }
         }
 
-        private String text(Decode d, int e) {
+        double number(Decode d, int e) {
+            return BinaryWaveScanner.number(d, arena, offset[e], length[e]);
+        }
+
+        String text(Decode d, int e) {
             return d == Decode.NUMERIC ? keep(numericText(arena, offset[e], length[e]))
                     : new String(arena, offset[e], length[e], StandardCharsets.UTF_8);
         }
@@ -935,6 +1006,18 @@ public final class BinaryWaveScanner {
             int v = BinaryWaveScanner.int32(buf, pos);
             pos += 4;
             return v;
+        }
+
+        /** A text field (length-prefixed), or null for NULL. */
+        String text() throws SQLException {
+            int len = int32();
+            if (len < 0) {
+                return null;
+            }
+            need(len);
+            String t = new String(buf, pos, len, StandardCharsets.UTF_8);
+            pos += len;
+            return t;
         }
 
         void skip(int n) throws SQLException {

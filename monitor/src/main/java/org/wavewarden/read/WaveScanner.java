@@ -5,6 +5,7 @@ import org.postgresql.PGConnection;
 import org.postgresql.copy.CopyOut;
 import org.wavewarden.config.Identifiers;
 import org.wavewarden.profile.ColumnTally;
+import org.wavewarden.profile.DesignSummary;
 import org.wavewarden.profile.JointTally;
 import org.wavewarden.profile.PairCounter;
 import org.wavewarden.profile.RelativeBins;
@@ -65,25 +66,31 @@ public final class WaveScanner {
      * requested, one joint tally per pair, in the order requested.
      */
     public record WaveScan(long rows, Map<String, ColumnTally> columns, Map<String, Map<String, double[]>> weights,
-                           long badWeights, List<JointTally> pairs) {
+                           long badWeights, DesignSummary design, List<JointTally> pairs) {
 
         public WaveScan {
             pairs = pairs == null ? List.of() : List.copyOf(pairs);
         }
 
-        public WaveScan(long rows, Map<String, ColumnTally> columns, Map<String, Map<String, double[]>> weights,
-                        long badWeights) {
-            this(rows, columns, weights, badWeights, List.of());
+        public WaveScan(long rows, Map<String, ColumnTally> columns) {
+            this(rows, columns, Map.of(), 0, null, List.of());
         }
 
-        public WaveScan(long rows, Map<String, ColumnTally> columns) {
-            this(rows, columns, Map.of(), 0, List.of());
+        public WaveScan(long rows, Map<String, ColumnTally> columns, Map<String, Map<String, double[]>> weights,
+                        long badWeights) {
+            this(rows, columns, weights, badWeights, null, List.of());
+        }
+
+        public WaveScan(long rows, Map<String, ColumnTally> columns, Map<String, Map<String, double[]>> weights,
+                        long badWeights, DesignSummary design) {
+            this(rows, columns, weights, badWeights, design, List.of());
         }
 
         @Override
         public boolean equals(Object o) {
             return o instanceof WaveScan w && rows == w.rows && columns.equals(w.columns) && badWeights == w.badWeights
-                    && WaveScanner.sameWeights(weights, w.weights) && pairs.equals(w.pairs);
+                    && WaveScanner.sameWeights(weights, w.weights) && java.util.Objects.equals(design, w.design)
+                    && pairs.equals(w.pairs);
         }
 
         @Override
@@ -111,15 +118,38 @@ public final class WaveScanner {
         return true;
     }
 
-    /** {@link #scan(Handle, WaveSource, String, List, SourceColumn, List, LongConsumer)} without weight or pairs. */
-    public WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, LongConsumer progress) {
-        return scan(h, source, wave, columns, null, List.of(), progress);
+    /** The stratum column (null for one stratum) and the cluster column of a wave's sampling design. */
+    public record Design(SourceColumn strata, SourceColumn clusters) {
     }
 
-    /** {@link #scan(Handle, WaveSource, String, List, SourceColumn, List, LongConsumer)} without pairs. */
+    /**
+     * The scanner interface's form: this reference scanner reads no sampling design (the binary scanner does).
+     *
+     * @throws IllegalArgumentException when a design is given
+     */
+    public WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, SourceColumn weight,
+                         Design design, List<PairSpec> pairs, LongConsumer progress) {
+        if (design != null) {
+            throw new IllegalArgumentException("the text scanner reads no sampling design; use the binary scanner");
+        }
+        return read(h, source, wave, columns, weight, pairs, progress);
+    }
+
+    /** {@link #scan(Handle, WaveSource, String, List, SourceColumn, Design, List, LongConsumer)} without pairs. */
+    public WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, SourceColumn weight,
+                         Design design, LongConsumer progress) {
+        return scan(h, source, wave, columns, weight, design, List.of(), progress);
+    }
+
+    /** {@link #scan(Handle, WaveSource, String, List, SourceColumn, LongConsumer)} without a weight column. */
+    public WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, LongConsumer progress) {
+        return read(h, source, wave, columns, null, List.of(), progress);
+    }
+
+    /** A scan with a weight column, without design or pairs. */
     public WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, SourceColumn weight,
                          LongConsumer progress) {
-        return scan(h, source, wave, columns, weight, List.of(), progress);
+        return read(h, source, wave, columns, weight, List.of(), progress);
     }
 
     /**
@@ -130,8 +160,8 @@ public final class WaveScanner {
      * @param pairs  pairs of numeric columns among {@code columns} whose joint values are tallied in the same pass,
      *               over the rows where both cells are finite numbers ({@link PairCounter})
      */
-    public WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, SourceColumn weight,
-                         List<PairSpec> pairs, LongConsumer progress) {
+    private WaveScan read(Handle h, WaveSource source, String wave, List<SourceColumn> columns, SourceColumn weight,
+                          List<PairSpec> pairs, LongConsumer progress) {
         boolean weighted = weight != null;
         List<SourceColumn> read = columns;
         if (weighted) {
@@ -258,7 +288,7 @@ public final class WaveScanner {
         for (int j = 0; j < joint.length; j++) {
             jointTallies.add(joint[j].tally(pairs.get(j).x(), pairs.get(j).y()));
         }
-        return new WaveScan(rows, out, weights, badWeights, jointTallies);
+        return new WaveScan(rows, out, weights, badWeights, null, jointTallies);
     }
 
     /** Moves a numeric column's exact counts into relative bins, when it has more distinct values than kept. */

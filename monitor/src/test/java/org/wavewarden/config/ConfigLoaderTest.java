@@ -155,7 +155,78 @@ class ConfigLoaderTest {
                 Arguments.of("misspelt relationship key", withRelationships("[{x: age, why: income}]"),
                         "datasets[0].relationships[0].why: unknown key"),
                 Arguments.of("relationship column carrying SQL", withRelationships("[{x: \"age; --\", y: income}]"),
-                        "datasets[0].relationships[0].x: expected a plain SQL identifier"));
+                        "datasets[0].relationships[0].x: expected a plain SQL identifier"),
+                Arguments.of("releases without a respondent key", releases("releases: {column: revision}"),
+                        "datasets[0].respondentKey: missing: releases are compared respondent by respondent"),
+                Arguments.of("releases with both layouts", releases("respondentKey: household_id\n    releases:"
+                                + " {column: revision, previousTable: survey.household_wave_v1}"),
+                        "datasets[0].releases: expected exactly one of column (a release column in the same table)"
+                                + " or previousTable"),
+                Arguments.of("releases with neither layout", releases("respondentKey: household_id\n    releases: {}"),
+                        "datasets[0].releases: expected exactly one of column"),
+                Arguments.of("releases not a mapping", releases("respondentKey: household_id\n    releases: revision"),
+                        "datasets[0].releases: expected a mapping but got text"),
+                Arguments.of("misspelt previous table", releases("respondentKey: household_id\n    releases:"
+                        + " {previous_table: survey.household_wave_v1}"),
+                        "datasets[0].releases.previous_table: unknown key; did you mean 'previousTable'?"),
+                Arguments.of("misspelt respondent key", releases("respondent_key: household_id"),
+                        "datasets[0].respondent_key: unknown key; did you mean 'respondentKey'?"),
+                Arguments.of("respondent key carrying SQL", releases("respondentKey: \"id) OR (1=1\""),
+                        "datasets[0].respondentKey: expected a plain SQL identifier"),
+                Arguments.of("release column carrying SQL", releases("respondentKey: household_id\n    releases:"
+                        + " {column: \"rev; --\"}"), "datasets[0].releases.column: expected a plain SQL identifier"),
+                Arguments.of("previous table carrying SQL", releases("respondentKey: household_id\n    releases:"
+                        + " {previousTable: \"x\\\"; DROP TABLE t; --\"}"),
+                        "datasets[0].releases.previousTable: expected a plain SQL identifier"),
+                Arguments.of("release column is the wave column", releases("respondentKey: household_id\n"
+                        + "    releases: {column: wave}"), "datasets[0].releases.column: expected a column of its own"
+                        + " telling the releases apart, but 'wave' is the wave column"),
+                Arguments.of("respondent key is the wave column", releases("respondentKey: wave"),
+                        "datasets[0].respondentKey: expected the column identifying a respondent, not the wave"
+                                + " column 'wave'"),
+                Arguments.of("previous table is the table itself", releases("respondentKey: household_id\n"
+                        + "    releases: {previousTable: survey.household_wave}"),
+                        "datasets[0].releases.previousTable: expected another table than the dataset's own"),
+                Arguments.of("previous table a pattern beside one table", releases("respondentKey: household_id\n"
+                        + "    releases: {previousTable: \"v1.wave_{wave}\"}"),
+                        "datasets[0].releases.previousTable: expected one table"),
+                Arguments.of("previous table not a pattern beside a pattern", releases("respondentKey: household_id\n"
+                        + "    releases: {previousTable: survey.old}").replace("table: survey.household_wave\n"
+                        + "    waveColumn: wave", "tablePattern: \"survey.wave_{wave}\""),
+                        "datasets[0].releases.previousTable: expected a pattern containing {wave}"),
+                Arguments.of("a variable that is the respondent key", releases("respondentKey: age"),
+                        "datasets[0].variables[0].name: 'age' is the respondent key and is never compared"));
+    }
+
+    /** GOOD with the given dataset keys added (indented as dataset keys). */
+    static String releases(String keys) {
+        return GOOD.replace("    schedule:", "    " + keys + "\n    schedule:");
+    }
+
+    @Test
+    void releasesParseForBothLayouts() {
+        DatasetConfig column = ConfigLoader.parse(releases("respondentKey: household_id\n    releases: {column:"
+                + " revision}")).dataset("coastal");
+        assertEquals("household_id", column.respondentKey());
+        assertEquals(new ReleasesConfig("revision", null), column.releases());
+        assertEquals("revision", column.releaseColumn());
+        assertTrue(column.isBookkeeping("revision") && column.isBookkeeping("household_id")
+                && !column.isBookkeeping("age"));
+
+        DatasetConfig table = ConfigLoader.parse(releases("respondentKey: household_id\n    releases:"
+                + " {previousTable: survey_v1.household_wave}")).dataset("coastal");
+        assertEquals(new ReleasesConfig(null, "survey_v1.household_wave"), table.releases());
+        assertEquals(null, table.releaseColumn());
+
+        DatasetConfig pattern = ConfigLoader.parse(releases("respondentKey: household_id\n    releases:"
+                + " {previousTable: \"v1.wave_{wave}\"}").replace("table: survey.household_wave\n    waveColumn: wave",
+                "tablePattern: \"survey.wave_{wave}\"")).dataset("coastal");
+        assertEquals("v1.wave_{wave}", pattern.releases().previousTable());
+
+        DatasetConfig keyOnly = ConfigLoader.parse(releases("respondentKey: household_id")).dataset("coastal");
+        assertEquals("household_id", keyOnly.respondentKey());
+        assertEquals(null, keyOnly.releases());
+        assertEquals(null, ConfigLoader.parse(GOOD).dataset("coastal").respondentKey());
     }
 
     private static String withRelationships(String yaml) {

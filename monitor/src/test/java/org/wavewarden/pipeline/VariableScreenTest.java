@@ -114,4 +114,37 @@ class VariableScreenTest {
         assertEquals(286, s.numeric().n() + invalid + s.missingByReason().values().stream().mapToLong(Long::longValue)
                 .sum());
     }
+
+    @Test
+    void theWeightedViewHoldsTheValidAnswersWithTheirWeightsOnly() {
+        Map<String, Long> values = new HashMap<>(Map.of("-9", 40L, "1", 10L, "1.0", 5L, "150", 2L));
+        Map<String, double[]> weights = new HashMap<>();
+        weights.put("-9", new double[] {80, 160});
+        weights.put("1", new double[] {20, 45});
+        weights.put("1.0", new double[] {5, 5});
+        weights.put("150", new double[] {2, 2});
+        for (int v = 2; v < 40; v++) {
+            values.put(String.valueOf(v), 3L);
+            weights.put(String.valueOf(v), new double[] {3 * v, 3 * v * v});
+        }
+        ColumnTally t = new ColumnTally("income", ColumnType.DECIMAL, 171, 0, values, false);
+        VariableConfig v = income(List.of(new MissingCodeSpec("-9", "refused")), new RangeSpec(0.0, 100.0));
+        ScreenedVariable s = VariableScreen.screen(t, v, weights);
+        var w = s.weighted();
+        // the same values as the unweighted distribution: -9 (a code) and 150 (out of range) are gone, "1" and
+        // "1.0" are one value
+        assertEquals(s.numeric().n(), w.n());
+        assertEquals(s.numeric().size(), w.size());
+        assertEquals(1.0, w.values()[0]);
+        assertEquals(15L, w.counts()[0]);
+        assertEquals(25.0, w.weights()[0]);
+        assertEquals(50.0, w.squaredWeights()[0]);
+        double total = 25;
+        for (int x = 2; x < 40; x++) {
+            total += 3 * x;
+        }
+        assertEquals(total, w.totalWeight(), 1e-9);
+        assertEquals(null, VariableScreen.screen(t, v).weighted(), "no weights, no weighted view");
+        assertEquals(s.numeric(), VariableScreen.screen(t, v).numeric(), "weights change nothing unweighted");
+    }
 }

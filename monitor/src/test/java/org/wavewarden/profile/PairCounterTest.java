@@ -131,7 +131,7 @@ class PairCounterTest {
         JointTally t = tally(rows(60_000, 37), PairCounter.DEFAULT_MAX_PAIRS);
         ColumnTally col = new ColumnTally("x", ColumnType.DECIMAL, 3, 0, Map.of("1.5", 3L), false);
         WaveProfile p = new WaveProfile("w1", 3, Map.of("x", ColumnType.DECIMAL), Map.of("x", col), Map.of(),
-                List.of(t));
+                null, List.of(t));
         WaveProfile back = Json.read(Json.write(p), WaveProfile.class);
         assertEquals(List.of(t), back.pairs());
         assertEquals(p.checksum(), back.checksum());

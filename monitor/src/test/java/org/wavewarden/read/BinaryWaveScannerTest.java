@@ -197,9 +197,9 @@ class BinaryWaveScannerTest {
                 new PairSpec("i8", "f4"), new PairSpec("f8", "n"));
         for (String wave : List.of("edge", "bulk", "floats")) {
             WaveScanner.WaveScan text = new WaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)
-                    .scan(h, source(), wave, columns(), null, pairs, null);
+                    .scan(h, source(), wave, columns(), null, null, pairs, null);
             WaveScanner.WaveScan binary = new BinaryWaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)
-                    .scan(h, source(), wave, columns(), null, pairs, null);
+                    .scan(h, source(), wave, columns(), null, null, pairs, null);
             assertEquals(pairs.size(), binary.pairs().size());
             assertEquals(text.pairs(), binary.pairs(), wave);
             assertEquals(text, binary, wave);

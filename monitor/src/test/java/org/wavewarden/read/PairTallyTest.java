@@ -77,13 +77,14 @@ class PairTallyTest {
 
     private static WaveScanner.WaveScan binary(String table, String wave) {
         WaveSource s = new WaveSource(TableName.parse("table", table), "wave", null);
-        return new BinaryWaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT).scan(h, s, wave, columns(table), null, PAIRS,
-                null);
+        return new BinaryWaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT).scan(h, s, wave, columns(table), null, null,
+                PAIRS, null);
     }
 
     private static WaveScanner.WaveScan text(String table, String wave) {
         WaveSource s = new WaveSource(TableName.parse("table", table), "wave", null);
-        return new WaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT).scan(h, s, wave, columns(table), null, PAIRS, null);
+        return new WaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT).scan(h, s, wave, columns(table), null, null, PAIRS,
+                null);
     }
 
     /** PostgreSQL's own count of each pair of finite values, as doubles (real widened exactly, numeric rounded). */
@@ -143,10 +144,23 @@ class PairTallyTest {
     }
 
     @Test
+    void aWeightAndASamplingDesignReadInTheSamePassLeaveThePairsAsTheyAre() {
+        WaveSource s = new WaveSource(TableName.parse("table", "src.answers"), "wave", null);
+        List<SourceColumn> all = SourceCatalog.columns(h, TableName.parse("table", "src.answers"));
+        SourceColumn id = all.stream().filter(c -> c.name().equals("id")).findFirst().orElseThrow();
+        SourceColumn region = all.stream().filter(c -> c.name().equals("region")).findFirst().orElseThrow();
+        List<SourceColumn> answers = columns("src.answers").stream().filter(c -> !c.name().equals("region")).toList();
+        WaveScanner.WaveScan designed = new BinaryWaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT).scan(h, s, "small",
+                answers, id, new WaveScanner.Design(null, region), PAIRS, null);
+        assertTrue(designed.design() != null, "the design was read too");
+        assertEquals(binary("src.answers", "small").pairs(), designed.pairs());
+    }
+
+    @Test
     void aPairOfATextColumnIsRefusedBeforeTheScan() {
         var e = assertThrows(IllegalArgumentException.class, () -> new BinaryWaveScanner(10).scan(h,
                 new WaveSource(TableName.parse("table", "src.answers"), "wave", null), "small",
-                columns("src.answers"), null, List.of(new PairSpec("age", "region")), null));
+                columns("src.answers"), null, null, List.of(new PairSpec("age", "region")), null));
         assertTrue(e.getMessage().contains("column region is text, not a number"), e.getMessage());
     }
 }

@@ -37,6 +37,24 @@ public final class CramersV {
                 confidence);
     }
 
+    /**
+     * V of a two-wave table from its chi-square statistic and total: {@code sqrt(X2 / n)} (a 2 x k table has
+     * min(r, c) - 1 = 1), with the same noncentral chi-square interval as {@link #estimate}. For weighted waves the
+     * monitor passes X2 of the weighted shares scaled to Kish's effective sample sizes and n their sum.
+     *
+     * @param name the effect's name in the finding
+     */
+    public static EffectSize ofTwoWaveChiSquare(String name, double x2, double df, double n, double confidence) {
+        if (!(n > 0) || Double.isInfinite(n)) {
+            throw new IllegalArgumentException("n must be finite and positive, was " + n);
+        }
+        if (!(x2 >= 0)) {
+            throw new IllegalArgumentException("x2 must be >= 0, was " + x2);
+        }
+        double[] ncp = NoncentralityInterval.of(x2, df, confidence);
+        return new EffectSize(name, Math.sqrt(x2 / n), Math.sqrt(ncp[0] / n), Math.sqrt(ncp[1] / n), confidence);
+    }
+
     /** Bergsma's (2013) bias-corrected V; 0 when the corrected phi-square is not positive. */
     public static double biasCorrected(long[][] table) {
         ChiSquareResult chi = ChiSquareHomogeneity.test(table);

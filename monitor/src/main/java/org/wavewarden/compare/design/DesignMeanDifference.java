@@ -37,7 +37,38 @@ public final class DesignMeanDifference {
         checkConfidence(confidence);
         DesignEstimate a = WeightedEstimates.mean(baselineValues, baseline);
         DesignEstimate b = WeightedEstimates.mean(currentValues, current);
-        return combine(a, b, baseline, current, confidence, "difference of weighted means");
+        return combine(a, b, baseline.degreesOfFreedom() + current.degreesOfFreedom(), confidence,
+                "difference of weighted means");
+    }
+
+    /**
+     * The same from the waves' tallies under weights-only designs: each wave has {@code n - 1} design degrees of
+     * freedom (n respondents, each its own PSU, one stratum), so {@code df = n_baseline + n_current - 2}.
+     */
+    public static DesignMeanDifferenceResult test(WeightedTally baseline, WeightedTally current, double confidence) {
+        checkConfidence(confidence);
+        DesignEstimate a = TallyEstimates.mean(baseline);
+        DesignEstimate b = TallyEstimates.mean(current);
+        return combine(a, b, baseline.n() - 1 + current.n() - 1, confidence, "difference of weighted means");
+    }
+
+    /**
+     * The difference of weighted shares from 0/1 tallies ({@link WeightedTally#indicator}) under weights-only
+     * designs; the effect is in proportion units.
+     */
+    public static DesignMeanDifferenceResult testShares(WeightedTally baseline, WeightedTally current,
+                                                        double confidence) {
+        checkConfidence(confidence);
+        for (WeightedTally t : new WeightedTally[] {baseline, current}) {
+            for (double v : t == null ? new double[0] : t.values()) {
+                if (v != 0 && v != 1) {
+                    throw new IllegalArgumentException("share tallies must hold the values 0 and 1 only, found " + v);
+                }
+            }
+        }
+        DesignEstimate a = TallyEstimates.mean(baseline);
+        DesignEstimate b = TallyEstimates.mean(current);
+        return combine(a, b, baseline.n() - 1 + current.n() - 1, confidence, "difference of weighted shares");
     }
 
     /** The same for the shares of respondents with {@code hit[i] == true}; the effect is in proportion units. */
@@ -47,12 +78,12 @@ public final class DesignMeanDifference {
         checkConfidence(confidence);
         DesignEstimate a = WeightedEstimates.share(baselineHits, baseline);
         DesignEstimate b = WeightedEstimates.share(currentHits, current);
-        return combine(a, b, baseline, current, confidence, "difference of weighted shares");
+        return combine(a, b, baseline.degreesOfFreedom() + current.degreesOfFreedom(), confidence,
+                "difference of weighted shares");
     }
 
-    private static DesignMeanDifferenceResult combine(DesignEstimate a, DesignEstimate b, SurveyDesign baseline,
-                                                      SurveyDesign current, double confidence, String effectName) {
-        double df = baseline.degreesOfFreedom() + current.degreesOfFreedom();
+    private static DesignMeanDifferenceResult combine(DesignEstimate a, DesignEstimate b, double df,
+                                                      double confidence, String effectName) {
         if (!(df > 0)) {
             throw new IllegalArgumentException("the designs have no degrees of freedom (#PSU - #strata = 0 in both)");
         }

@@ -33,6 +33,37 @@ public final class Kish {
         return weights.length / effectiveSampleSize(weights);
     }
 
+    /**
+     * {@code (sum w)^2 / sum w^2} from the two sums, as a tally of the wave keeps them.
+     *
+     * @throws IllegalArgumentException unless both sums are finite and positive
+     */
+    public static double effectiveSampleSize(double sumOfWeights, double sumOfSquaredWeights) {
+        checkSums(sumOfWeights, sumOfSquaredWeights);
+        return sumOfWeights * sumOfWeights / sumOfSquaredWeights;
+    }
+
+    /**
+     * {@code n sum w^2 / (sum w)^2} from the two sums and the number of respondents n. A respondent of weight zero
+     * counts in n, so such respondents raise the design effect, as they lower the information per respondent.
+     */
+    public static double designEffect(long n, double sumOfWeights, double sumOfSquaredWeights) {
+        if (n < 1) {
+            throw new IllegalArgumentException("n must be positive, was " + n);
+        }
+        return n / effectiveSampleSize(sumOfWeights, sumOfSquaredWeights);
+    }
+
+    private static void checkSums(double sumOfWeights, double sumOfSquaredWeights) {
+        if (!(sumOfWeights > 0) || Double.isInfinite(sumOfWeights)) {
+            throw new IllegalArgumentException("sumOfWeights must be finite and > 0, was " + sumOfWeights);
+        }
+        if (!(sumOfSquaredWeights > 0) || Double.isInfinite(sumOfSquaredWeights)) {
+            throw new IllegalArgumentException("sumOfSquaredWeights must be finite and > 0, was "
+                    + sumOfSquaredWeights);
+        }
+    }
+
     private static void check(double[] weights) {
         if (weights == null || weights.length == 0) {
             throw new IllegalArgumentException("weights must hold at least one weight");

@@ -74,7 +74,94 @@ public final class RaoScott {
             cells[Arrays.binarySearch(codes, all[i]) + (i < n1 ? 0 : k)][i] = 1;
         }
         WeightedEstimates.Means m = WeightedEstimates.means(cells, stacked);
-        double[] p = m.means();
+        return corrected(codes, m.means(), m.covariance(), n, nu);
+    }
+
+    /**
+     * The same test from the two waves' {@link WeightedTally} tallies under weights-only designs (each respondent its
+     * own PSU; R: {@code svydesign(ids = ~1, strata = ~wave, weights = ~w)} on the stacked rows). Values are
+     * category codes (integers); categories without weight in either wave are left out, as they would be absent
+     * from the rows. The covariance of the 2k cell shares is exact from the per-category sums: with {@code T} the
+     * weight of both waves, cell c = (j, h) and {@code z_i[c] = w_i (1[c = cell of i] - p_c) / T}, wave h contributes
+     * {@code n_h/(n_h - 1) (sum_i z_i z_i' - S_h S_h' / n_h)}, and {@code sum_i z_i[c] z_i[d]} is a sum over the
+     * categories of wave h of {@code Q_jh (1[c = (j, h)] - p_c)(1[d = (j, h)] - p_d) / T^2}.
+     *
+     * @throws IllegalArgumentException with fewer than 2 respondents in a wave, fewer than 2 categories with weight,
+     *                                  or a wave without weight
+     */
+    public static RaoScottResult test(WeightedTally baseline, WeightedTally current) {
+        TallyEstimates.check(baseline);
+        TallyEstimates.check(current);
+        java.util.TreeMap<Integer, double[]> cells = new java.util.TreeMap<>(); // code -> {W0, Q0, W1, Q1}
+        WeightedTally[] waves = {baseline, current};
+        for (int h = 0; h < 2; h++) {
+            WeightedTally t = waves[h];
+            for (int i = 0; i < t.size(); i++) {
+                double[] c = cells.computeIfAbsent(TallyEstimates.code(t.value(i)), x -> new double[4]);
+                c[2 * h] += t.weight(i);
+                c[2 * h + 1] += t.squaredWeight(i);
+            }
+        }
+        cells.values().removeIf(c -> !(c[0] + c[2] > 0));
+        int k = cells.size();
+        if (k < 2) {
+            throw new IllegalArgumentException("the waves hold " + k + " category with weight, need at least 2");
+        }
+        int[] codes = cells.keySet().stream().mapToInt(Integer::intValue).toArray();
+        double[] w = new double[2 * k];
+        double[] q = new double[2 * k];
+        int j = 0;
+        for (double[] c : cells.values()) {
+            w[j] = c[0];
+            q[j] = c[1];
+            w[j + k] = c[2];
+            q[j + k] = c[3];
+            j++;
+        }
+        double total = 0;
+        for (double x : w) {
+            total += x;
+        }
+        double[] p = new double[2 * k];
+        for (int c = 0; c < 2 * k; c++) {
+            p[c] = w[c] / total;
+        }
+        double[][] v = new double[2 * k][2 * k];
+        for (int h = 0; h < 2; h++) {
+            long nh = waves[h].n();
+            double wh = 0;
+            double qh = 0;
+            for (int c = h * k; c < (h + 1) * k; c++) {
+                wh += w[c];
+                qh += q[c];
+            }
+            double[] s = new double[2 * k];
+            for (int c = 0; c < 2 * k; c++) {
+                boolean mine = c / k == h;
+                s[c] = ((mine ? w[c] : 0) - wh * p[c]) / total;
+            }
+            double t2 = total * total;
+            for (int c = 0; c < 2 * k; c++) {
+                double qc = c / k == h ? q[c] : 0;
+                for (int d = 0; d <= c; d++) {
+                    double qd = d / k == h ? q[d] : 0;
+                    double zz = ((c == d ? qc : 0) - qc * p[d] - p[c] * qd + qh * p[c] * p[d]) / t2;
+                    v[c][d] += nh / (nh - 1.0) * (zz - s[c] * s[d] / nh);
+                }
+            }
+        }
+        for (int c = 0; c < 2 * k; c++) {
+            for (int d = c + 1; d < 2 * k; d++) {
+                v[c][d] = v[d][c];
+            }
+        }
+        long n = baseline.n() + current.n();
+        return corrected(codes, p, v, n, n - 2);
+    }
+
+    /** The corrections from the 2k cell shares (category fastest) and their covariance. */
+    private static RaoScottResult corrected(int[] codes, double[] p, double[][] covariance, long n, long nu) {
+        int k = codes.length;
 
         double x2 = pearson(p, k, n);
         RealMatrix c = contrasts(k);
@@ -88,7 +175,7 @@ public final class RaoScott {
         }
         RealMatrix cd = c.transpose().multiply(dInv);
         RealMatrix denominator = cd.multiply(c).scalarMultiply(1.0 / n);
-        RealMatrix numerator = cd.multiply(new Array2DRowRealMatrix(m.covariance(), false)).multiply(dInv).multiply(c);
+        RealMatrix numerator = cd.multiply(new Array2DRowRealMatrix(covariance, false)).multiply(dInv).multiply(c);
         RealMatrix delta = new LUDecomposition(denominator).getSolver().solve(numerator);
         double trace = delta.getTrace();
         double trace2 = delta.multiply(delta).getTrace();
@@ -117,7 +204,7 @@ public final class RaoScott {
         return Math.max(0, Math.min(1, p));
     }
 
-    private static double pearson(double[] p, int k, int n) {
+    private static double pearson(double[] p, int k, long n) {
         double[] wave = new double[2];
         double[] row = new double[k];
         for (int w = 0; w < 2; w++) {

@@ -25,6 +25,28 @@ public final class DistanceInterval {
         return Math.sqrt(Math.log(4 / (1 - confidence)) / (2.0 * n));
     }
 
+    /**
+     * The same interval for weighted waves, with Kish's effective sample sizes in place of n (an approximation:
+     * the inequality holds for simple random samples, and a weighted wave is treated as one of its effective size).
+     */
+    public static EffectSize ofEffectiveSizes(double d, double nBaseline, double nCurrent, double confidence) {
+        if (!(d >= 0 && d <= 1)) {
+            throw new IllegalArgumentException("d must lie in [0, 1], was " + d);
+        }
+        double e = halfWidth(nBaseline, confidence) + halfWidth(nCurrent, confidence);
+        return new EffectSize("KS distance (weighted)", d, Math.max(0, d - e), Math.min(1, d + e), confidence);
+    }
+
+    private static double halfWidth(double n, double confidence) {
+        if (!(n > 0) || Double.isInfinite(n)) {
+            throw new IllegalArgumentException("n must be finite and positive, was " + n);
+        }
+        if (!(confidence > 0 && confidence < 1)) {
+            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
+        }
+        return Math.sqrt(Math.log(4 / (1 - confidence)) / (2.0 * n));
+    }
+
     public static EffectSize of(double d, long nBaseline, long nCurrent, double confidence) {
         if (!(d >= 0 && d <= 1)) {
             throw new IllegalArgumentException("d must lie in [0, 1], was " + d);

@@ -48,6 +48,24 @@ public final class KolmogorovSmirnovTest {
     }
 
     /**
+     * The limiting p-value {@code 1 - K(sqrt(n1 n2 / (n1 + n2)) d)} for sample sizes that need not be whole
+     * numbers: with survey weights, Kish's effective sample sizes stand in for n1 and n2, the approximation that
+     * treats a weighted wave as a simple random sample of its effective size (Kish, L. (1965), Survey Sampling,
+     * Wiley, Section 11.7). For whole n1 and n2 with n1 n2 &gt;= 10000 it is the p-value of {@link #test}.
+     */
+    public static double asymptoticPValue(double d, double nBaseline, double nCurrent) {
+        if (!(d >= 0 && d <= 1)) {
+            throw new IllegalArgumentException("d must lie in [0, 1], was " + d);
+        }
+        if (!(nBaseline > 0 && nCurrent > 0) || Double.isInfinite(nBaseline) || Double.isInfinite(nCurrent)) {
+            throw new IllegalArgumentException("nBaseline and nCurrent must be finite and positive, were "
+                    + nBaseline + " and " + nCurrent);
+        }
+        double p = 1 - kolmogorovCdf(Math.sqrt(nBaseline * nCurrent / (nBaseline + nCurrent)) * d);
+        return Math.max(0.0, Math.min(1.0, p));
+    }
+
+    /**
      * P(D &lt; d) under random assignment of the pooled sample to the two waves. The path takes a step for every
      * pooled observation; a path is admissible if, at every point where the pooled value changes, the gap between
      * the two partial distribution functions stays below d. Probabilities are propagated with the weights

@@ -1,0 +1,342 @@
+package org.wavewarden.compare;
+
+import org.apache.commons.math3.distribution.NormalDistribution;
+import org.apache.commons.math3.distribution.TDistribution;
+import org.apache.commons.math3.random.RandomGenerator;
+import org.wavewarden.compare.categorical.CramersV;
+import org.wavewarden.compare.design.DesignEstimate;
+import org.wavewarden.compare.design.DesignMeanDifference;
+import org.wavewarden.compare.design.DesignMeanDifferenceResult;
+import org.wavewarden.compare.design.RaoScott;
+import org.wavewarden.compare.design.RaoScottResult;
+import org.wavewarden.compare.design.TallyEstimates;
+import org.wavewarden.compare.design.WeightedDistribution;
+import org.wavewarden.compare.design.WeightedTally;
+import org.wavewarden.compare.shape.DistanceInterval;
+import org.wavewarden.compare.shape.KolmogorovSmirnovTest;
+import org.wavewarden.config.Threshold;
+import org.wavewarden.judge.FindingKind;
+
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+
+/**
+ * The weighted counterpart of {@link VariableComparator}, for a dataset with a weight column: every mean, share,
+ * quantile and distribution is weighted, and tests are design-based.
+ *
+ * <p>Design: the monitor reads no strata or cluster columns, so each wave is taken as a weights-only design, each
+ * respondent its own PSU, drawn with replacement, which is also the design Kish's effective sample size assumes.
+ * Under it the Taylor-linearised variances of {@link org.wavewarden.compare.design} are exact functions of each
+ * value's sums of weights and squared weights ({@link WeightedTally}), equal to R's {@code survey} package on the
+ * rows. A design with strata or clusters would usually have larger variances; reading such columns is future work.
+ *
+ * <ul>
+ *   <li>Continuous and ordinal: the design-based t on the weighted means ({@link DesignMeanDifference}, df = n_b +
+ *   n_c - 2). Effect: the difference of weighted means with its t interval when the threshold is in raw units;
+ *   otherwise that difference and its interval divided by the pooled weighted SD (each wave's {@code svyvar}
+ *   pooled with weights n - 1), a weighted Cohen's d (Cohen 1988), default threshold 0.2. The SD is treated as
+ *   known in the interval. An effect-scale threshold configured for the variable is read on this d scale.</li>
+ *   <li>Binary: the design-based t on the weighted shares. Effect: Cohen's h (Cohen 1988) of the weighted shares,
+ *   its interval from the delta method on the design standard errors ({@code var h = SE_b^2 / (p_b (1 - p_b)) +
+ *   SE_c^2 / (p_c (1 - p_c))}, Kish's {@code 1 / n_eff} for a share of 0 or 1); or, with a threshold in points,
+ *   the difference of weighted shares with its t interval.</li>
+ *   <li>Categorical: the Rao-Scott second-order F ({@link RaoScott}); the first-order corrected chi-square is in the
+ *   detail. Effect: Cramér's V of the weighted shares with each wave scaled to its Kish effective sample size
+ *   (noncentral chi-square interval on that scale: a Kish approximation); or, with a threshold in points, the
+ *   difference of weighted shares of the category whose design-based t is largest.</li>
+ *   <li>Shape of a continuous variable: the largest gap between the weighted distribution functions, with the
+ *   limiting Kolmogorov p-value and the DKW interval at Kish's effective sample sizes (an approximation; there is
+ *   no design-based KS test in common use).</li>
+ * </ul>
+ * Every weighted finding names the weighting in its test, and states each wave's Kish effective sample size
+ * {@code n_eff = W^2 / sum w^2} and design effect due to weighting {@code deff_w = n sum w^2 / W^2} (Kish, L.
+ * (1965), Survey Sampling, Wiley, Section 11.7) in its sentence and detail.
+ */
+public final class WeightedComparator {
+
+    public static final String MEANS_TEST = "design-based t on weighted means";
+    public static final String SHARES_TEST = "design-based t on weighted shares";
+    public static final String CATEGORIES_TEST = "Rao-Scott F (second order) on weighted shares";
+    public static final String SHAPE_TEST = "Kolmogorov-Smirnov on weighted distributions (Kish effective sizes)";
+
+    private final double confidence;
+
+    public WeightedComparator(double confidence) {
+        if (!(confidence > 0 && confidence < 1)) {
+            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
+        }
+        this.confidence = confidence;
+    }
+
+    /**
+     * Kish's figures for one wave of one variable's valid answers.
+     *
+     * @param n                   respondents (a weight of zero counts)
+     * @param sumOfWeights        W
+     * @param effectiveSampleSize {@code W^2 / sum w^2}
+     * @param designEffect        {@code n sum w^2 / W^2}, the design effect due to weighting
+     */
+    public record Weighting(long n, double sumOfWeights, double effectiveSampleSize, double designEffect) {
+
+        public static Weighting of(WeightedTally t) {
+            return new Weighting(t.n(), t.totalWeight(), t.effectiveSampleSize(), t.weightingDesignEffect());
+        }
+    }
+
+    /**
+     * Detail of a weighted continuous or ordinal comparison. The design effects are those of the weighted means
+     * (R's {@code deff(svymean(..., deff = "replace"))}), which depend on the variable; the Kish figures in
+     * {@code weighting*} depend on the weights only.
+     */
+    public record LocationDetail(Weighting weightingBaseline, Weighting weightingCurrent, double meanBaseline,
+                                 double meanCurrent, double standardErrorBaseline, double standardErrorCurrent,
+                                 double meanDesignEffectBaseline, double meanDesignEffectCurrent,
+                                 double[] quartilesBaseline, double[] quartilesCurrent, double sdBaseline,
+                                 double sdCurrent, EffectSize standardized, EffectSize rawShift, double ksD,
+                                 double ksPValue) {
+    }
+
+    /** Detail of a weighted binary comparison. */
+    public record ProportionDetail(String successValue, Weighting weightingBaseline, Weighting weightingCurrent,
+                                   double shareBaseline, double shareCurrent, double standardErrorBaseline,
+                                   double standardErrorCurrent, EffectSize shareDifference, EffectSize cohensH) {
+    }
+
+    /** One category of a weighted categorical comparison, with the design-based t of its share difference. */
+    public record CategoryRow(String category, long countBaseline, long countCurrent, double shareBaseline,
+                              double shareCurrent, double designT) {
+    }
+
+    /**
+     * Detail of a weighted categorical comparison: the Rao-Scott corrections (first-order statistic, df and p;
+     * the generalized design effects; the F's denominator df) beside the per-category weighted shares.
+     */
+    public record CategoryDetail(Weighting weightingBaseline, Weighting weightingCurrent, List<CategoryRow> categories,
+                                 double pearsonChiSquare, double[] generalizedDesignEffects,
+                                 TestResult firstOrder, double denominatorDf) {
+    }
+
+    /** Continuous and ordinal variables: the design-based t on weighted means. */
+    public Comparison numeric(String variable, WeightedTally baseline, WeightedTally current, Threshold configured,
+                              String unit) {
+        DesignMeanDifferenceResult md = DesignMeanDifference.test(baseline, current, confidence);
+        EffectSize diff = md.difference();
+        double sdB = Math.sqrt(TallyEstimates.weightedVariance(baseline));
+        double sdC = Math.sqrt(TallyEstimates.weightedVariance(current));
+        long nb = baseline.n();
+        long nc = current.n();
+        double pooled = Math.sqrt(((nb - 1) * sdB * sdB + (nc - 1) * sdC * sdC) / (nb + nc - 2));
+        EffectSize d = pooled > 0
+                ? new EffectSize("Cohen's d (weighted)", diff.estimate() / pooled, diff.ciLow() / pooled,
+                diff.ciHigh() / pooled, confidence)
+                : new EffectSize("Cohen's d (weighted)", 0, 0, 0, confidence);
+        EffectSize raw = new EffectSize("difference of weighted means", diff.estimate(), diff.ciLow(), diff.ciHigh(),
+                confidence);
+        Thresholds.Resolved t = Thresholds.resolve(configured, d.name(), Thresholds.HEDGES_G, unit);
+        Weighting wb = Weighting.of(baseline);
+        Weighting wc = Weighting.of(current);
+        double ks = WeightedDistribution.cdfDistance(baseline, current);
+        double ksP = KolmogorovSmirnovTest.asymptoticPValue(ks, wb.effectiveSampleSize(), wc.effectiveSampleSize());
+        LocationDetail detail = new LocationDetail(wb, wc, md.baseline().estimate(), md.current().estimate(),
+                md.baseline().standardError(), md.current().standardError(), md.baseline().designEffect(),
+                md.current().designEffect(), quartiles(baseline), quartiles(current), sdB, sdC, d, raw, ks, ksP);
+        Change change = new Change("weighted mean " + variable, md.baseline().estimate(), md.current().estimate(),
+                false, unit, diff.estimate(), diff.ciLow(), diff.ciHigh(), weightingNote(wb, wc));
+        TestResult test = new TestResult(MEANS_TEST, md.test().statistic(), md.test().df(), md.test().pValue());
+        return new Comparison(variable, FindingKind.SHIFT, test, t.rawScale() ? raw : d, t.value(), t.source(), nb,
+                nc, change, detail);
+    }
+
+    /** The shape check of a weighted continuous variable. Threshold: KS distance 0.1 (common practice, no source). */
+    public Comparison shape(String variable, WeightedTally baseline, WeightedTally current) {
+        Weighting wb = Weighting.of(baseline);
+        Weighting wc = Weighting.of(current);
+        double ks = WeightedDistribution.cdfDistance(baseline, current);
+        double p = KolmogorovSmirnovTest.asymptoticPValue(ks, wb.effectiveSampleSize(), wc.effectiveSampleSize());
+        EffectSize d = DistanceInterval.ofEffectiveSizes(ks, wb.effectiveSampleSize(), wc.effectiveSampleSize(),
+                confidence);
+        Change change = new Change("largest gap between the two waves' weighted cumulative distributions of "
+                + variable, 0, ks, true, null, ks, d.ciLow(), d.ciHigh(), weightingNote(wb, wc));
+        return new Comparison(variable, FindingKind.SHAPE_CHANGE, TestResult.withoutDf(SHAPE_TEST, ks, p), d,
+                Thresholds.KS_DISTANCE, "default " + Thresholds.KS_DISTANCE + " for the KS distance",
+                baseline.n(), current.n(), change, null);
+    }
+
+    /**
+     * Binary variables: the design-based t on weighted shares; the tallies hold 0 and 1, 1 for {@code successLabel}
+     * ({@link WeightedTally#indicator}).
+     */
+    public Comparison proportion(String variable, String successLabel, WeightedTally baseline, WeightedTally current,
+                                 Threshold configured) {
+        DesignMeanDifferenceResult r = DesignMeanDifference.testShares(baseline, current, confidence);
+        Weighting wb = Weighting.of(baseline);
+        Weighting wc = Weighting.of(current);
+        EffectSize h = cohensH(r.baseline(), r.current(), wb, wc);
+        Thresholds.Resolved t = Thresholds.resolve(configured, h.name(), Thresholds.COHENS_H, null);
+        EffectSize rd = r.difference();
+        ProportionDetail d = new ProportionDetail(successLabel, wb, wc, r.baseline().estimate(),
+                r.current().estimate(), r.baseline().standardError(), r.current().standardError(), rd, h);
+        Change change = new Change("weighted share " + successLabel, r.baseline().estimate(), r.current().estimate(),
+                true, null, rd.estimate(), rd.ciLow(), rd.ciHigh(), weightingNote(wb, wc));
+        TestResult test = new TestResult(SHARES_TEST, r.test().statistic(), r.test().df(), r.test().pValue());
+        return new Comparison(variable, FindingKind.SHIFT, test, t.rawScale() ? rd : h, t.value(), t.source(),
+                baseline.n(), current.n(), change, d);
+    }
+
+    /**
+     * Categorical variables: the Rao-Scott second-order F on the weighted shares. The tallies' values are the
+     * positions of the categories in {@code categories}, the same for both waves.
+     */
+    public Comparison categorical(String variable, List<String> categories, WeightedTally baseline,
+                                  WeightedTally current, Threshold configured) {
+        RaoScottResult rs = RaoScott.test(baseline, current);
+        Weighting wb = Weighting.of(baseline);
+        Weighting wc = Weighting.of(current);
+        int[] codes = rs.codes();
+        int k = codes.length;
+        double[] sb = new double[k];
+        double[] sc = new double[k];
+        long[] nb = new long[k];
+        long[] nc = new long[k];
+        fill(baseline, codes, sb, nb);
+        fill(current, codes, sc, nc);
+        List<CategoryRow> rows = new ArrayList<>();
+        DesignMeanDifferenceResult top = null;
+        int topIndex = -1;
+        for (int j = 0; j < k; j++) {
+            DesignMeanDifferenceResult m = shareDifference(baseline, current, codes[j]);
+            double tj = m == null ? 0 : m.test().statistic();
+            rows.add(new CategoryRow(categories.get(codes[j]), nb[j], nc[j], sb[j], sc[j], tj));
+            if (m != null && (top == null || Math.abs(tj) > Math.abs(top.test().statistic()))) {
+                top = m;
+                topIndex = j;
+            }
+        }
+        if (top == null) {
+            throw new IllegalArgumentException("no category's weighted share varies within a wave");
+        }
+        double x2 = pearson(sb, sc, wb.effectiveSampleSize(), wc.effectiveSampleSize());
+        EffectSize v = CramersV.ofTwoWaveChiSquare("Cramér's V (weighted, Kish effective sizes)", x2, k - 1,
+                wb.effectiveSampleSize() + wc.effectiveSampleSize(), confidence);
+        Thresholds.Resolved t = Thresholds.resolve(configured, v.name(), Thresholds.CRAMERS_V, null);
+        String moved = categories.get(codes[topIndex]);
+        EffectSize share = top.difference();
+        EffectSize effect = t.rawScale()
+                ? new EffectSize("difference of weighted shares of '" + moved + "'", share.estimate(), share.ciLow(),
+                share.ciHigh(), confidence)
+                : v;
+        Change change = new Change("weighted share answering '" + moved + "'", sb[topIndex], sc[topIndex], true,
+                null, share.estimate(), share.ciLow(), share.ciHigh(), "the category that moved most (design-based t "
+                + VariableComparator.signed(top.test().statistic(), 1) + "); " + weightingNote(wb, wc));
+        CategoryDetail d = new CategoryDetail(wb, wc, rows, rs.pearsonChiSquare(), rs.designEffects(),
+                rs.firstOrder(), rs.denominatorDf());
+        TestResult second = rs.secondOrder();
+        TestResult test = new TestResult(CATEGORIES_TEST, second.statistic(), second.df(), second.pValue());
+        return new Comparison(variable, FindingKind.SHIFT, test, effect, t.value(), t.source(), baseline.n(),
+                current.n(), change, d);
+    }
+
+    /**
+     * One wave against a reference mean: the design-based one-sample t, {@code (ybar_w - mu) / SE} on n - 1 df,
+     * with the difference and its t interval as the effect. Without a raw threshold, T is 0.2 weighted standard
+     * deviations of the wave (Cohen's d 0.2, Cohen 1988, in the variable's units).
+     */
+    public Comparison referenceMean(String variable, WeightedTally current, double mu, Threshold configured,
+                                    String unit) {
+        DesignEstimate m = TallyEstimates.mean(current);
+        if (!(m.standardError() > 0)) {
+            throw new IllegalArgumentException("the weighted mean has standard error 0: the wave does not vary");
+        }
+        double df = current.n() - 1;
+        TDistribution student = new TDistribution((RandomGenerator) null, df, 1e-12);
+        double d = m.estimate() - mu;
+        double tStat = d / m.standardError();
+        double p = Math.min(1.0, 2 * student.cumulativeProbability(-Math.abs(tStat)));
+        double half = student.inverseCumulativeProbability(0.5 + confidence / 2) * m.standardError();
+        EffectSize raw = new EffectSize("difference of the weighted mean from the reference", d, d - half, d + half,
+                confidence);
+        double threshold;
+        String source;
+        if (configured != null && configured.raw() != null) {
+            threshold = configured.raw();
+            source = "configured " + Thresholds.trim(threshold) + (unit == null ? "" : " " + unit);
+        } else {
+            double e = configured != null && configured.effect() != null ? configured.effect() : Thresholds.HEDGES_G;
+            threshold = e * Math.sqrt(TallyEstimates.weightedVariance(current));
+            source = "configured " + String.format(Locale.ROOT, "%.3g", threshold) + (unit == null ? "" : " " + unit)
+                    + " (d " + e + " times the wave's weighted SD)";
+        }
+        Weighting w = Weighting.of(current);
+        Change change = new Change("weighted mean " + variable + " against its reference", mu, m.estimate(), false,
+                unit, d, d - half, d + half, "the first value is the reference; " + String.format(Locale.ROOT,
+                "weighted: Kish effective sample size %.0f, design effect due to weighting %.2f",
+                w.effectiveSampleSize(), w.designEffect()));
+        return new Comparison(variable, FindingKind.REFERENCE, new TestResult("design-based one-sample t on the"
+                + " weighted mean", tStat, df, p), raw, threshold, source, 0, current.n(), change, w);
+    }
+
+    /** "weighted: Kish effective sample sizes 205 and 244, design effects due to weighting 1.46 and 1.39". */
+    static String weightingNote(Weighting b, Weighting c) {
+        return String.format(Locale.ROOT, "weighted: Kish effective sample sizes %.0f (baseline) and %.0f (current),"
+                        + " design effects due to weighting %.2f and %.2f", b.effectiveSampleSize(),
+                c.effectiveSampleSize(), b.designEffect(), c.designEffect());
+    }
+
+    private EffectSize cohensH(DesignEstimate b, DesignEstimate c, Weighting wb, Weighting wc) {
+        double h = 2 * Math.asin(Math.sqrt(c.estimate())) - 2 * Math.asin(Math.sqrt(b.estimate()));
+        double var = arcsineVariance(b, wb) + arcsineVariance(c, wc);
+        double half = new NormalDistribution().inverseCumulativeProbability(0.5 + confidence / 2) * Math.sqrt(var);
+        return new EffectSize("Cohen's h (weighted shares)", h, h - half, h + half, confidence);
+    }
+
+    /** Delta method: d(2 asin sqrt p)/dp = 1 / sqrt(p (1 - p)); at p = 0 or 1, Kish's 1 / n_eff instead. */
+    private static double arcsineVariance(DesignEstimate p, Weighting w) {
+        double q = p.estimate() * (1 - p.estimate());
+        return q > 0 ? p.standardError() * p.standardError() / q : 1 / w.effectiveSampleSize();
+    }
+
+    private DesignMeanDifferenceResult shareDifference(WeightedTally b, WeightedTally c, int code) {
+        try {
+            return DesignMeanDifference.testShares(b.indicator(code), c.indicator(code), confidence);
+        } catch (IllegalArgumentException e) {
+            return null; // a category with no spread in either wave (standard error 0) has no t
+        }
+    }
+
+    /** Weighted lower quartile, median and upper quartile ({@link WeightedDistribution#quantile}). */
+    private static double[] quartiles(WeightedTally t) {
+        return new double[] {WeightedDistribution.quantile(t, 0.25), WeightedDistribution.quantile(t, 0.5),
+                WeightedDistribution.quantile(t, 0.75)};
+    }
+
+    private static void fill(WeightedTally t, int[] codes, double[] shares, long[] counts) {
+        double total = t.totalWeight();
+        double[] v = t.values();
+        double[] w = t.weights();
+        long[] n = t.counts();
+        for (int i = 0; i < v.length; i++) {
+            int j = java.util.Arrays.binarySearch(codes, (int) v[i]);
+            if (j >= 0) {
+                shares[j] = w[i] / total;
+                counts[j] = n[i];
+            }
+        }
+    }
+
+    /** Pearson's X2 of the 2 x k table whose waves hold their weighted shares times their effective sizes. */
+    private static double pearson(double[] sb, double[] sc, double nb, double nc) {
+        double n = nb + nc;
+        double x2 = 0;
+        for (int j = 0; j < sb.length; j++) {
+            double col = sb[j] * nb + sc[j] * nc;
+            if (col <= 0) {
+                continue;
+            }
+            double eb = col * nb / n;
+            double ec = col * nc / n;
+            x2 += (sb[j] * nb - eb) * (sb[j] * nb - eb) / eb + (sc[j] * nc - ec) * (sc[j] * nc - ec) / ec;
+        }
+        return x2;
+    }
+}

@@ -1,0 +1,242 @@
+package org.wavewarden.read;
+
+import org.wavewarden.profile.DesignSummary;
+import org.wavewarden.profile.RelativeBins;
+
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.HashMap;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.function.LongFunction;
+
+/**
+ * Accumulates, during the one pass of {@link BinaryWaveScanner}, the PSU sums a sampling design needs
+ * ({@link DesignSummary}): each row's PSU from its stratum and cluster labels, and per column and PSU the weight of
+ * each value, and for numeric columns the sums of w, w y and w y^2. Cells are kept in one primitive table per column
+ * keyed by (PSU, value key); beyond {@link #MAX_CELLS} a column keeps only its code-like values per PSU.
+ */
+final class DesignScan {
+
+    /** Values times PSUs kept per column; beyond it only code-like values are kept per PSU (and the totals). */
+    static final int MAX_CELLS = 50_000;
+
+    private final Map<String, Integer> psuIds = new HashMap<>();
+    private final List<String> psuStratum = new ArrayList<>();
+    private final List<String> psuLabel = new ArrayList<>();
+    private long rowsWithoutPsu;
+    private final Column[] columns;
+
+    DesignScan(boolean[] numeric) {
+        columns = new Column[numeric.length];
+        for (int i = 0; i < numeric.length; i++) {
+            columns[i] = new Column(numeric[i]);
+        }
+    }
+
+    /** The PSU of a row from its stratum text (absent: one stratum) and cluster text, or -1 when one is NULL. */
+    int psu(String stratum, String cluster) {
+        if (stratum == null || cluster == null) {
+            rowsWithoutPsu++;
+            return -1;
+        }
+        String key = stratum.length() + ":" + stratum + cluster;
+        Integer id = psuIds.get(key);
+        if (id == null) {
+            id = psuLabel.size();
+            psuIds.put(key, id);
+            psuStratum.add(stratum);
+            psuLabel.add(cluster);
+        }
+        return id;
+    }
+
+    /** One cell of column i: its value key (bits, or entry number), its number (NaN if none) and weight. */
+    void add(int i, int psu, long valueKey, double x, double w) {
+        columns[i].add(psu, valueKey, x, w, true);
+    }
+
+    /** A cell of a column summarised in bins: only totals and code-like values are kept. */
+    void addBinned(int i, int psu, double x, double w) {
+        Column c = columns[i];
+        c.exact = false;
+        c.add(psu, Double.doubleToLongBits(x == 0 ? 0.0 : x), x, w, RelativeBins.isCodeLike(x));
+    }
+
+    /**
+     * Column i moves to bins: its cells so far are re-keyed by the bits of their value ({@code valueOf} maps the old
+     * key), and only code-like values keep cells from now on.
+     */
+    void toBins(int i, java.util.function.LongToDoubleFunction valueOf) {
+        columns[i].toBins(valueOf);
+    }
+
+    /** Marks column i as keeping only its code-like values (it was truncated or moved to bins). */
+    void incomplete(int i) {
+        columns[i].exact = false;
+    }
+
+    /**
+     * The summary, with each column's value keys turned into text by {@code texts[i]}; for a column moved to bins
+     * the keys are the bits of the value.
+     */
+    DesignSummary result(List<String> names, List<LongFunction<String>> texts, boolean[] binned) {
+        int psus = psuLabel.size();
+        Map<String, DesignSummary.ColumnDesign> out = new LinkedHashMap<>();
+        for (int i = 0; i < columns.length; i++) {
+            LongFunction<String> text = binned[i] ? bits -> binnedText(Double.longBitsToDouble(bits)) : texts.get(i);
+            out.put(names.get(i), columns[i].result(psus, text));
+        }
+        return new DesignSummary(psuStratum, psuLabel, rowsWithoutPsu, out);
+    }
+
+    private static String binnedText(double x) {
+        return x == Math.rint(x) ? Long.toString((long) x) : Double.toString(x);
+    }
+
+    private static final class Column {
+        private final boolean numeric;
+        private boolean exact = true;
+        private double[] weight = new double[16];
+        private double[] weightedSum = new double[16];
+        private double[] weightedSquares = new double[16];
+        private int psus;
+        // (psu, value key) -> weight; an open-addressing table, a slot used when keysPsu >= 0
+        private int[] keysPsu = filled(256);
+        private long[] keysValue = new long[256];
+        private double[] cellWeight = new double[256];
+        private int size;
+        private final Map<Long, Boolean> codeLike = new HashMap<>();
+
+        Column(boolean numeric) {
+            this.numeric = numeric;
+        }
+
+        private static int[] filled(int n) {
+            int[] a = new int[n];
+            Arrays.fill(a, -1);
+            return a;
+        }
+
+        void add(int psu, long valueKey, double x, double w, boolean keepCell) {
+            double weightOrZero = Double.isNaN(w) ? 0 : w;
+            if (psu >= weight.length) {
+                int n = Math.max(weight.length * 2, psu + 1);
+                weight = Arrays.copyOf(weight, n);
+                weightedSum = Arrays.copyOf(weightedSum, n);
+                weightedSquares = Arrays.copyOf(weightedSquares, n);
+            }
+            psus = Math.max(psus, psu + 1);
+            if (numeric && !Double.isNaN(x)) {
+                weight[psu] += weightOrZero;
+                weightedSum[psu] += weightOrZero * x;
+                weightedSquares[psu] += weightOrZero * x * x;
+            }
+            if (keepCell) {
+                addCell(psu, valueKey, weightOrZero);
+            }
+        }
+
+        void toBins(java.util.function.LongToDoubleFunction valueOf) {
+            exact = false;
+            int[] op = keysPsu;
+            long[] ov = keysValue;
+            double[] ow = cellWeight;
+            keysPsu = filled(256);
+            keysValue = new long[256];
+            cellWeight = new double[256];
+            size = 0;
+            for (int j = 0; j < op.length; j++) {
+                if (op[j] < 0) {
+                    continue;
+                }
+                double x = valueOf.applyAsDouble(ov[j]);
+                if (RelativeBins.isCodeLike(x)) {
+                    addCell(op[j], Double.doubleToLongBits(x == 0 ? 0.0 : x), ow[j]);
+                }
+            }
+        }
+
+        private void addCell(int psu, long valueKey, double w) {
+            int mask = keysPsu.length - 1;
+            int i = mix(psu, valueKey) & mask;
+            while (keysPsu[i] >= 0) {
+                if (keysPsu[i] == psu && keysValue[i] == valueKey) {
+                    cellWeight[i] += w;
+                    return;
+                }
+                i = (i + 1) & mask;
+            }
+            keysPsu[i] = psu;
+            keysValue[i] = valueKey;
+            cellWeight[i] = w;
+            if (++size * 2 > keysPsu.length) {
+                grow();
+            }
+        }
+
+        private static int mix(int psu, long key) {
+            long h = (key + 0x9E3779B97F4A7C15L * (psu + 1)) * 0xBF58476D1CE4E5B9L;
+            return (int) (h ^ (h >>> 31));
+        }
+
+        private void grow() {
+            int[] op = keysPsu;
+            long[] ov = keysValue;
+            double[] ow = cellWeight;
+            keysPsu = filled(op.length * 2);
+            keysValue = new long[op.length * 2];
+            cellWeight = new double[op.length * 2];
+            int mask = keysPsu.length - 1;
+            for (int j = 0; j < op.length; j++) {
+                if (op[j] >= 0) {
+                    int i = mix(op[j], ov[j]) & mask;
+                    while (keysPsu[i] >= 0) {
+                        i = (i + 1) & mask;
+                    }
+                    keysPsu[i] = op[j];
+                    keysValue[i] = ov[j];
+                    cellWeight[i] = ow[j];
+                }
+            }
+        }
+
+        DesignSummary.ColumnDesign result(int totalPsus, LongFunction<String> text) {
+            Map<Long, double[]> byValue = new HashMap<>();
+            for (int j = 0; j < keysPsu.length; j++) {
+                if (keysPsu[j] >= 0) {
+                    byValue.computeIfAbsent(keysValue[j], k -> new double[totalPsus])[keysPsu[j]] += cellWeight[j];
+                }
+            }
+            boolean complete = exact && (long) byValue.size() * totalPsus <= MAX_CELLS;
+            Map<String, double[]> cells = new LinkedHashMap<>();
+            byValue.forEach((key, sums) -> {
+                String t = text.apply(key);
+                if (complete || isCodeLikeText(t)) {
+                    double[] before = cells.get(t);
+                    if (before == null) {
+                        cells.put(t, sums);
+                    } else {
+                        for (int p = 0; p < sums.length; p++) {
+                            before[p] += sums[p];
+                        }
+                    }
+                }
+            });
+            return new DesignSummary.ColumnDesign(cells, complete,
+                    numeric ? Arrays.copyOf(weight, totalPsus) : null,
+                    numeric ? Arrays.copyOf(weightedSum, totalPsus) : null,
+                    numeric ? Arrays.copyOf(weightedSquares, totalPsus) : null);
+        }
+    }
+
+    /** Whether a value's text is a code-like number, the values a column without complete cells still keeps. */
+    static boolean isCodeLikeText(String t) {
+        try {
+            return RelativeBins.isCodeLike(Double.parseDouble(t.strip()));
+        } catch (NumberFormatException e) {
+            return false;
+        }
+    }
+}
