@@ -15,6 +15,11 @@ public final class Thresholds {
     public static final double COHENS_H = 0.2;
     /** KS distance that counts as a changed shape: common practice, no source. */
     public static final double KS_DISTANCE = 0.1;
+    /**
+     * Difference of two waves' Spearman correlations that counts as a changed relationship: common practice, no
+     * source.
+     */
+    public static final double CORRELATION_DIFFERENCE = 0.1;
 
     private Thresholds() {
     }

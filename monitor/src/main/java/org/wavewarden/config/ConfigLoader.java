@@ -250,7 +250,7 @@ public final class ConfigLoader {
         DatasetConfig dataset(ObjectNode node, String path) {
             known(node, path, "name", "table", "waveColumn", "tablePattern", "waveOrder", "compareWith", "schedule",
                     "exclude", "variables", "quietPeriod", "alerts", "readyTable", "readyColumn", "weightColumn",
-                    "respondentKey", "releases", "design");
+                    "respondentKey", "releases", "design", "relationships");
             String name = text(node, "name", path + ".name", true);
             if (!name.matches("[A-Za-z0-9][A-Za-z0-9_.-]{0,99}")) {
                 throw new ConfigException(path + ".name", "expected letters, digits, '-', '_' or '.' (at most 100)"
@@ -322,7 +322,43 @@ public final class ConfigLoader {
                     alerts(object(node, "alerts", path + ".alerts", false), path + ".alerts"),
                     readyTable(node, path), readyColumn(node, path), weightColumn(node, path), key, releases,
                     design(object(node, "design", path + ".design", false), path, waveColumn, key,
-                            weightColumn(node, path)));
+                            weightColumn(node, path)),
+                    relationships(node.get("relationships"), path + ".relationships"));
+        }
+
+        List<RelationshipConfig> relationships(JsonNode node, String path) {
+            if (node == null || node.isNull()) {
+                return List.of();
+            }
+            if (!node.isArray()) {
+                throw new ConfigException(path, "expected a list of {x, y, threshold}");
+            }
+            List<RelationshipConfig> out = new ArrayList<>();
+            Set<Set<String>> seen = new HashSet<>();
+            for (int i = 0; i < node.size(); i++) {
+                String p = path + "[" + i + "]";
+                ObjectNode o = asObject(node.get(i), p);
+                known(o, p, "x", "y", "threshold");
+                String x = Identifiers.require(p + ".x", text(o, "x", p + ".x", true));
+                String y = Identifiers.require(p + ".y", text(o, "y", p + ".y", true));
+                if (x.equals(y)) {
+                    throw new ConfigException(p + ".y", "expected a column other than x, but both are '" + x + "'");
+                }
+                if (!seen.add(Set.of(x, y))) {
+                    throw new ConfigException(p, "the pair " + x + " and " + y + " is listed twice");
+                }
+                Double threshold = null;
+                if (o.has("threshold")) {
+                    double t = number(o, "threshold", p + ".threshold", Double.NaN);
+                    if (!(t > 0 && t < 2)) {
+                        throw new ConfigException(p + ".threshold", "expected a difference of correlations above 0"
+                                + " and below 2 (such as 0.1) but got " + o.get("threshold").asText());
+                    }
+                    threshold = t;
+                }
+                out.add(new RelationshipConfig(x, y, threshold));
+            }
+            return out;
         }
 
         DesignColumns design(ObjectNode node, String datasetPath, String waveColumn, String key, String weight) {

@@ -25,12 +25,13 @@ import java.util.List;
  *                     variable
  * @param releases     optional: where earlier publications of a wave are kept (needs {@code respondentKey})
  * @param design       optional strata and cluster columns of the sampling design (needs {@code weightColumn})
+ * @param relationships pairs of numeric variables whose correlation is compared between waves
  */
 public record DatasetConfig(String name, String table, String waveColumn, String tablePattern, WaveOrder waveOrder,
                             CompareWith compareWith, String schedule, List<String> exclude,
                             List<VariableConfig> variables, java.time.Duration quietPeriod, SinkSettings alerts,
                             String readyTable, String readyColumn, String weightColumn, String respondentKey,
-                            ReleasesConfig releases, DesignColumns design) {
+                            ReleasesConfig releases, DesignColumns design, List<RelationshipConfig> relationships) {
 
     public DatasetConfig {
         waveOrder = waveOrder == null ? WaveOrder.NATURAL : waveOrder;
@@ -39,6 +40,17 @@ public record DatasetConfig(String name, String table, String waveColumn, String
         variables = variables == null ? List.of() : List.copyOf(variables);
         quietPeriod = quietPeriod == null ? java.time.Duration.ZERO : quietPeriod;
         alerts = alerts == null ? SinkSettings.NONE : alerts;
+        relationships = relationships == null ? List.of() : List.copyOf(relationships);
+    }
+
+    /** A dataset without relationships. */
+    public DatasetConfig(String name, String table, String waveColumn, String tablePattern, WaveOrder waveOrder,
+                         CompareWith compareWith, String schedule, List<String> exclude,
+                         List<VariableConfig> variables, java.time.Duration quietPeriod, SinkSettings alerts,
+                         String readyTable, String readyColumn, String weightColumn, String respondentKey,
+                         ReleasesConfig releases, DesignColumns design) {
+        this(name, table, waveColumn, tablePattern, waveOrder, compareWith, schedule, exclude, variables, quietPeriod,
+                alerts, readyTable, readyColumn, weightColumn, respondentKey, releases, design, List.of());
     }
 
     /** The column numbering releases within the table, or null when there is none. */

@@ -41,22 +41,36 @@ public final class MarkdownDigest {
         return md.toString();
     }
 
-    /** {@code Shift verdicts: MATERIAL 1, MINOR 0, UNCERTAIN 2, STABLE 5. Data-quality findings: 3.} */
+    /**
+     * {@code Shift verdicts: MATERIAL 1, MINOR 0, UNCERTAIN 2, STABLE 5. Data-quality findings: 3.}, with the
+     * relationship verdicts after the shift verdicts when the wave has any.
+     */
     static String verdictCounts(List<Finding> findings) {
         Map<Verdict, Integer> counts = new EnumMap<>(Verdict.class);
+        Map<Verdict, Integer> relations = new EnumMap<>(Verdict.class);
         long dq = 0;
         for (Finding f : findings) {
             if (f.verdict() != null && f.kind() == org.wavewarden.judge.FindingKind.SHIFT) {
                 counts.merge(f.verdict(), 1, Integer::sum);
+            } else if (f.verdict() != null && f.kind() == org.wavewarden.judge.FindingKind.RELATIONSHIP_CHANGE) {
+                relations.merge(f.verdict(), 1, Integer::sum);
             } else if (f.kind().isDataQuality()) {
                 dq++;
             }
         }
         StringBuilder sb = new StringBuilder("Shift verdicts: ");
+        verdicts(sb, counts);
+        if (!relations.isEmpty()) {
+            sb.append(". Relationship verdicts: ");
+            verdicts(sb, relations);
+        }
+        return sb.append(". Data-quality findings: ").append(dq).append('.').toString();
+    }
+
+    private static void verdicts(StringBuilder sb, Map<Verdict, Integer> counts) {
         for (Verdict v : Verdict.values()) {
             sb.append(v.name()).append(' ').append(counts.getOrDefault(v, 0)).append(v == Verdict.STABLE ? "" : ", ");
         }
-        return sb.append(". Data-quality findings: ").append(dq).append('.').toString();
     }
 
     static String escape(String s) {

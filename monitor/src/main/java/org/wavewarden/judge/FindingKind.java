@@ -1,6 +1,6 @@
 package org.wavewarden.judge;
 
-/** What a finding is about: a distribution shift, or one of the data-quality signals. */
+/** What a finding is about: a distribution shift, a changed relationship, or one of the data-quality signals. */
 public enum FindingKind {
     /** The variable's distribution moved between the waves (location, shares or proportion). */
     SHIFT,
@@ -8,6 +8,11 @@ public enum FindingKind {
     SHAPE_CHANGE,
     /** The wave against a configured reference mean or reference shares (one-sample tests). */
     REFERENCE,
+    /**
+     * Two configured variables go together more or less strongly than in the baseline: the difference of their
+     * Spearman correlations, judged like a shift.
+     */
+    RELATIONSHIP_CHANGE,
     /** Codebook missing codes, counted by reason. */
     MISSING_CODE,
     /** The share of a missing reason moved between the waves. */
@@ -42,6 +47,7 @@ public enum FindingKind {
     SKIPPED;
 
     public boolean isDataQuality() {
-        return this != SHIFT && this != SHAPE_CHANGE && this != REFERENCE && this != SKIPPED;
+        return this != SHIFT && this != SHAPE_CHANGE && this != REFERENCE && this != RELATIONSHIP_CHANGE
+                && this != SKIPPED;
     }
 }

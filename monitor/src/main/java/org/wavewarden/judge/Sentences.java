@@ -17,6 +17,9 @@ public final class Sentences {
 
     public static String shift(Comparison c, double qValue, Verdict verdict, double alpha) {
         Change ch = c.change();
+        if (c.kind() == FindingKind.RELATIONSHIP_CHANGE) {
+            return relationship(c, qValue, verdict);
+        }
         if (c.kind() == FindingKind.SHAPE_CHANGE) {
             return String.format(Locale.ROOT, "The shape of %s's distribution changed although its typical value did"
                             + " not: the %s is %.1f points (%d%% CI %.1f to %.1f; %s); %s (q = %s): %s.",
@@ -58,6 +61,48 @@ public final class Sentences {
         }
         s.append(": ").append(verdict.name()).append('.');
         return s.toString();
+    }
+
+    /**
+     * "The Spearman correlation of hours and income fell from 0.612 to 0.204 (difference -0.408, 95% CI -0.452 to
+     * -0.362; Pearson r 0.598 to 0.201); chance alone ...; the difference is at or above the 0.1 threshold: MATERIAL."
+     */
+    static String relationship(Comparison c, double qValue, Verdict verdict) {
+        Change ch = c.change();
+        String pair = ch.measure().replaceFirst("^Spearman rho of ", "");
+        double diff = ch.after() - ch.before();
+        StringBuilder s = new StringBuilder("The Spearman correlation of ").append(pair).append(' ');
+        if (diff == 0) {
+            s.append("stayed at ").append(num(ch.after(), 3));
+        } else {
+            s.append(diff > 0 ? "rose" : "fell").append(" from ").append(num(ch.before(), 3)).append(" to ")
+                    .append(num(ch.after(), 3));
+        }
+        s.append(" (difference ").append(signed3(ch.estimate())).append(", ")
+                .append(Math.round(c.effect().confidence() * 100)).append("% CI ").append(signed3(ch.ciLow()))
+                .append(" to ").append(signed3(ch.ciHigh()));
+        if (!ch.note().isEmpty()) {
+            s.append("; ").append(ch.note());
+        }
+        s.append("); ").append(chance(c.test().pValue())).append(" (").append(q(qValue)).append("); the difference is");
+        boolean beyond = Math.abs(c.effect().estimate()) >= c.threshold();
+        s.append(beyond ? " at or above" : " below").append(" the ").append(thresholdText(c)).append(" threshold");
+        if (verdict == Verdict.UNCERTAIN) {
+            s.append(", but its interval still reaches it");
+        } else if (verdict == Verdict.STABLE) {
+            s.append(", and its interval rules out a change that large");
+        }
+        s.append(": ").append(verdict.name()).append('.');
+        if (c.detail() instanceof org.wavewarden.compare.relation.RelationshipDetail d && d.relativeError() > 0) {
+            s.append(String.format(Locale.ROOT, " The pairs have more distinct values than are counted exactly, so"
+                    + " they were summarised in bins: each value stands within %.2g%% of the one it replaces, and"
+                    + " values sharing a bin count as ties.", 100 * d.relativeError()));
+        }
+        return s.toString();
+    }
+
+    private static String signed3(double d) {
+        return (d >= 0 ? "+" : "") + num(d, 3);
     }
 
     /** "chance alone would give a gap this large in fewer than 1 in 1,000 comparisons". */

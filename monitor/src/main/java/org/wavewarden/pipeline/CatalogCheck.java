@@ -3,6 +3,7 @@ package org.wavewarden.pipeline;
 import org.jdbi.v3.core.Handle;
 import org.wavewarden.config.ConfigException;
 import org.wavewarden.config.DatasetConfig;
+import org.wavewarden.config.RelationshipConfig;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.read.SourceCatalog;
 import org.wavewarden.read.SourceColumn;
@@ -88,12 +89,37 @@ public final class CatalogCheck {
         if (d.releases() != null && d.releases().previousTable() != null) {
             verifyPreviousTable(h, d, key);
         }
+        for (int j = 0; j < d.relationships().size(); j++) {
+            RelationshipConfig r = d.relationships().get(j);
+            String at = key + ".relationships[" + j + "]";
+            monitoredNumber(d, columns, at + ".x", r.x());
+            monitoredNumber(d, columns, at + ".y", r.y());
+        }
         for (int j = 0; j < d.exclude().size(); j++) {
             String name = d.exclude().get(j);
             if (columns.stream().noneMatch(c -> c.name().equals(name))) {
                 throw new ConfigException(key + ".exclude[" + j + "]", "column " + name + " does not exist in the"
                         + " source table");
             }
+        }
+    }
+
+    /** A relationship's column must be read in the scan and hold numbers, or its correlation means nothing. */
+    private static void monitoredNumber(DatasetConfig d, List<SourceColumn> columns, String key, String name) {
+        SourceColumn c = columns.stream().filter(x -> x.name().equals(name)).findFirst().orElseThrow(() ->
+                new ConfigException(key, "column " + name + " does not exist in the source table; it has "
+                        + names(columns)));
+        String why = name.equals(d.waveColumn()) ? "it is the wave column"
+                : name.equals(d.weightColumn()) ? "it is the weight column"
+                : d.exclude().contains(name) ? "it is listed in exclude"
+                : d.isBookkeeping(name) ? "it is the respondent key, the release column or a design column" : null;
+        if (why != null) {
+            throw new ConfigException(key, "expected a monitored numeric column, but " + name + " is not monitored: "
+                    + why);
+        }
+        if (!c.type().isNumeric()) {
+            throw new ConfigException(key, "expected a numeric column (an INTEGER or DECIMAL type such as integer,"
+                    + " numeric or double precision), but " + name + " is " + c.postgresType());
         }
     }
 

@@ -22,6 +22,7 @@ import org.wavewarden.profile.ColumnType;
 import org.wavewarden.profile.DesignSummary;
 import org.wavewarden.profile.WaveProfile;
 import org.wavewarden.read.BinaryWaveScanner;
+import org.wavewarden.read.PairSpec;
 import org.wavewarden.read.SourceCatalog;
 import org.wavewarden.read.SourceColumn;
 import org.wavewarden.read.WaveInfo;
@@ -59,13 +60,15 @@ public final class WaveJudge {
     }
 
     /**
-     * Reads one wave's monitored columns (and the weight column, if any) into tallies in one pass;
-     * {@link BinaryWaveScanner#scan} (the default) and {@link WaveScanner#scan} are two, with equal results.
+     * Reads one wave's monitored columns (and the weight column, if any) into tallies in one pass, with the joint
+     * tallies of the configured pairs; {@link BinaryWaveScanner#scan} (the default) and {@link WaveScanner#scan} are
+     * two, with equal results.
      */
     @FunctionalInterface
     public interface Scanner {
         WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
-                                  SourceColumn weight, WaveScanner.Design design, LongConsumer progress);
+                                  SourceColumn weight, WaveScanner.Design design, List<PairSpec> pairs,
+                                  LongConsumer progress);
     }
 
     /** Reads waves with the given scanner from now on; returns this judge. */
@@ -153,10 +156,15 @@ public final class WaveJudge {
         List<String> inference = new ArrayList<>();
         List<VariableConfig> variables = variables(d, current, inference);
         boolean weighted = d.weightColumn() != null;
+        List<Comparison> relations = new ArrayList<>();
+        List<Finding> relationNotes = new ArrayList<>();
+        relationships(cfg, d, variables, current, baseline, relations, relationNotes);
         List<Finding> findings = new ArrayList<>(judgeVariables(variables, baseline == null ? null
                 : baseline.columns(), current.columns(), weighted && baseline != null ? baseline.weights() : null,
                 weighted ? current.weights() : null, weighted && baseline != null ? baseline.design() : null,
-                weighted ? current.design() : null, cfg.alpha(), cfg.fdr(), d.name() + " wave " + current.wave()));
+                weighted ? current.design() : null, cfg.alpha(), cfg.fdr(), d.name() + " wave " + current.wave(),
+                relations));
+        findings.addAll(relationNotes);
         findings.addAll(schemaFindings(d, baseline, current));
         return new Profiled(FindingsFiles.ordered(findings), inference);
     }
@@ -178,19 +186,20 @@ public final class WaveJudge {
                                                Map<String, Map<String, double[]>> currentWeights, double alpha,
                                                WardenConfig.FdrMethod fdr, String what) {
         return judgeVariables(variables, baseline, current, baselineWeights, currentWeights, null, null, alpha, fdr,
-                what);
+                what, List.of());
     }
 
     /**
-     * The same with both sides' sampling designs (PSU sums; null for none): weighted comparisons then take their
-     * variances from the strata and clusters.
+     * The same with both sides' sampling designs (PSU sums; null for none), whose weighted comparisons then take
+     * their variances from the strata and clusters, and with comparisons made elsewhere (the relationships of
+     * configured pairs) judged in the same false-discovery-rate family.
      */
-    public static List<Finding> judgeVariables(List<VariableConfig> variables, Map<String, ColumnTally> baseline,
-                                               Map<String, ColumnTally> current,
-                                               Map<String, Map<String, double[]>> baselineWeights,
-                                               Map<String, Map<String, double[]>> currentWeights,
-                                               DesignSummary baselineDesign, DesignSummary currentDesign,
-                                               double alpha, WardenConfig.FdrMethod fdr, String what) {
+    static List<Finding> judgeVariables(List<VariableConfig> variables, Map<String, ColumnTally> baseline,
+                                        Map<String, ColumnTally> current,
+                                        Map<String, Map<String, double[]>> baselineWeights,
+                                        Map<String, Map<String, double[]>> currentWeights,
+                                        DesignSummary baselineDesign, DesignSummary currentDesign, double alpha,
+                                        WardenConfig.FdrMethod fdr, String what, List<Comparison> alsoJudged) {
         VariableComparator comparator = new VariableComparator(1 - alpha);
         WeightedComparator weighted = new WeightedComparator(1 - alpha);
         List<Comparison> comparisons = new ArrayList<>();
@@ -225,10 +234,23 @@ public final class WaveJudge {
             comparisons.addAll(mine);
             plain.addAll(myPlain);
         }
+        comparisons.addAll(alsoJudged);
         List<Finding> findings = new ArrayList<>(withSummaryError(shapeOnlyWhereLocationIsQuiet(
                 onePerVariableAndKind(Judge.judge(comparisons, alpha, fdr))), summarised));
         findings.addAll(plain);
         return findings;
+    }
+
+    /** Relationship drift of the configured pairs: comparisons for the run's family, skip notices beside them. */
+    private static void relationships(WardenConfig cfg, DatasetConfig d, List<VariableConfig> variables,
+                                      WaveProfile current, WaveProfile baseline, List<Comparison> comparisons,
+                                      List<Finding> plain) {
+        if (d.relationships().isEmpty()) {
+            return;
+        }
+        Map<String, VariableConfig> byName = new LinkedHashMap<>();
+        variables.forEach(v -> byName.put(v.name(), v));
+        RelationshipFindings.of(d.relationships(), byName, current, baseline, 1 - cfg.alpha(), comparisons, plain);
     }
 
     /**
@@ -406,20 +428,44 @@ public final class WaveJudge {
         SourceColumn weight = column(all, d.weightColumn());
         WaveScanner.Design design = d.design() == null ? null
                 : new WaveScanner.Design(column(all, d.design().strata()), column(all, d.design().clusters()));
-        WaveScanner.WaveScan scan = scanner.scan(h, source, wave, monitored, weight, design, progress);
-        return new WaveProfile(wave, scan.rows(), schema, scan.columns(), scan.weights(), scan.design());
+        WaveScanner.WaveScan scan = scanner.scan(h, source, wave, monitored, weight, design, pairs(d, monitored),
+                progress);
+        return new WaveProfile(wave, scan.rows(), schema, scan.columns(), scan.weights(), scan.design(),
+                scan.pairs());
     }
 
     private static SourceColumn column(List<SourceColumn> all, String name) {
         return name == null ? null : all.stream().filter(c -> c.name().equals(name)).findFirst().orElse(null);
     }
 
-    /** The stored summary of an earlier wave, read from the source once if it was never stored or lacks columns. */
+    /** The configured relationships whose two columns this wave has as monitored numbers. */
+    static List<PairSpec> pairs(DatasetConfig d, List<SourceColumn> monitored) {
+        java.util.Set<String> numbers = new java.util.HashSet<>();
+        monitored.stream().filter(c -> c.type().isNumeric()).forEach(c -> numbers.add(c.name()));
+        return d.relationships().stream().filter(r -> numbers.contains(r.x()) && numbers.contains(r.y()))
+                .map(r -> new PairSpec(r.x(), r.y())).toList();
+    }
+
+    /** True when a stored summary lacks the pairs of a relationship it has both columns for. */
+    private static boolean lacksPairs(DatasetConfig d, WaveProfile p) {
+        return d.relationships().stream().anyMatch(r -> isNumber(p, r.x()) && isNumber(p, r.y())
+                && p.pair(r.x(), r.y()).isEmpty());
+    }
+
+    private static boolean isNumber(WaveProfile p, String column) {
+        return p.columns().containsKey(column) && p.schema().get(column) != null && p.schema().get(column).isNumeric();
+    }
+
+    /**
+     * The stored summary of an earlier wave, read from the source once if it was never stored or lacks columns or
+     * the pairs of a configured relationship (a summary stored before the relationship was configured).
+     */
     private WaveProfile baselineProfile(DatasetConfig d, WaveSource source, String wave, List<String> needed) {
         Optional<ResultsStore.StoredSummary> stored = session.store().latestSummary(d.name(), wave);
         if (stored.isPresent()) {
             WaveProfile p = stored.get().profile();
-            boolean complete = needed.stream().allMatch(c -> p.columns().containsKey(c) || !p.schema().containsKey(c));
+            boolean complete = needed.stream().allMatch(c -> p.columns().containsKey(c) || !p.schema().containsKey(c))
+                    && !lacksPairs(d, p);
             if (complete) {
                 return p;
             }

@@ -245,6 +245,29 @@ public final class RelativeBins {
         exact.forEach((x, cell) -> e.accept(exactText(x), (long) cell[0], cell[1], cell[2]));
     }
 
+    /**
+     * The number a value stands for at a level, unprinted: the bin's stand-in {@code 2 g^i / (g + 1)}, or the value
+     * itself when it is zero, not finite or code-like ({@link #isCodeLike}). The stand-in lies in the middle of its
+     * own bin on the log scale, so binning it again at the same level gives it back and binning it at a coarser
+     * level gives what binning the value there gives: summaries re-binned step by step do not depend on the order
+     * of the steps. A stand-in beyond the largest double is clamped to it.
+     */
+    public static double binnedValue(double x, int level) {
+        if (!Double.isFinite(x) || isCodeLike(x)) {
+            return x == 0 ? 0.0 : x;
+        }
+        int l = new Binning(level).level();
+        if (l < 0) {
+            return x;
+        }
+        long key = key(x, l);
+        double lnG = LN_GAMMA0 * Math.pow(2, l);
+        // 2 g^i / (g + 1) = exp((i - 1) ln g + ln 2 - ln(1 + 1/g)), one exp that cannot overflow on the way
+        double v = Math.exp(((key >> 1) - 1) * lnG + Math.log(2) - Math.log1p(Math.exp(-lnG)));
+        v = Double.isInfinite(v) ? Double.MAX_VALUE : v == 0 ? Double.MIN_VALUE : v;
+        return (key & 1) == 1 ? -v : v;
+    }
+
     /** The printed stand-in of a bin: {@code 2 g^i / (g + 1)}, signed, to {@value #DIGITS} significant digits. */
     static String standIn(long key, int level) {
         double lnG = LN_GAMMA0 * Math.pow(2, level);

@@ -20,23 +20,36 @@ import java.util.TreeMap;
  * @param weights with a weight column: per column and value, {sum of weights, sum of squared weights}
  * @param design  with design columns: the PSUs and per column their weight sums; null otherwise (and for
  *                summaries stored before designs were read)
+ * @param pairs   joint tallies of the configured pairs of numeric columns (relationship drift); empty in summaries
+ *                stored before pairs were tallied
  */
 public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns,
-                          Map<String, Map<String, double[]>> weights, DesignSummary design) {
+                          Map<String, Map<String, double[]>> weights, DesignSummary design, List<JointTally> pairs) {
 
     public WaveProfile {
         schema = java.util.Collections.unmodifiableMap(new LinkedHashMap<>(schema));
         columns = java.util.Collections.unmodifiableMap(new LinkedHashMap<>(columns));
         weights = weights == null ? Map.of() : java.util.Collections.unmodifiableMap(new LinkedHashMap<>(weights));
+        pairs = pairs == null ? List.of() : List.copyOf(pairs);
     }
 
     public WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns) {
-        this(wave, rows, schema, columns, Map.of(), null);
+        this(wave, rows, schema, columns, Map.of(), null, List.of());
     }
 
     public WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns,
                        Map<String, Map<String, double[]>> weights) {
-        this(wave, rows, schema, columns, weights, null);
+        this(wave, rows, schema, columns, weights, null, List.of());
+    }
+
+    public WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns,
+                       Map<String, Map<String, double[]>> weights, DesignSummary design) {
+        this(wave, rows, schema, columns, weights, design, List.of());
+    }
+
+    /** The joint tally of columns x and y, in that order, if this summary holds one. */
+    public java.util.Optional<JointTally> pair(String x, String y) {
+        return pairs.stream().filter(t -> t.of(x, y)).findFirst();
     }
 
     /**
@@ -71,6 +84,19 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
                             + java.util.Arrays.toString(sums)));
                 }
             }
+            // Only summaries with pairs feed them, so the checksum of every summary without pairs is what it was.
+            List<JointTally> sorted = new java.util.ArrayList<>(pairs);
+            sorted.sort(java.util.Comparator.comparing(JointTally::x).thenComparing(JointTally::y));
+            for (JointTally p : sorted) {
+                feed(md, "pair " + p.x().length() + ":" + p.x() + " " + p.y().length() + ":" + p.y()
+                        + (p.binning().isExact() ? "" : " bins " + p.binning().level()));
+                double[] xs = p.xs();
+                double[] ys = p.ys();
+                long[] n = p.counts();
+                for (int i = 0; i < n.length; i++) {
+                    feed(md, Double.doubleToLongBits(xs[i]) + "," + Double.doubleToLongBits(ys[i]) + "=" + n[i]);
+                }
+            }
             return HexFormat.of().formatHex(md.digest());
         } catch (NoSuchAlgorithmException e) {
             throw new IllegalStateException(e);
@@ -98,7 +124,11 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
         Map<String, ColumnTally> columns = new LinkedHashMap<>();
         Map<String, Map<String, double[]>> weights = new LinkedHashMap<>();
         java.util.Set<String> unweighted = new java.util.HashSet<>();
+        Map<List<String>, List<JointTally>> pairs = new LinkedHashMap<>();
         for (WaveProfile w : waves) {
+            for (JointTally p : w.pairs) {
+                pairs.computeIfAbsent(List.of(p.x(), p.y()), k -> new java.util.ArrayList<>()).add(p);
+            }
             rows += w.rows;
             schema.putAll(w.schema);
             for (ColumnTally t : w.columns.values()) {
@@ -122,7 +152,30 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
             }
         }
         unweighted.forEach(weights::remove);
-        return new WaveProfile(label, rows, schema, columns, weights);
+        List<JointTally> pooledPairs = pairs.values().stream().map(WaveProfile::pooled).toList();
+        return new WaveProfile(label, rows, schema, columns, weights, null, pooledPairs);
+    }
+
+    /**
+     * Several waves' tallies of one pair as one: counts of equal pairs add up, within the same budget of distinct
+     * pairs, summarised at least at the coarsest binning among them.
+     */
+    static JointTally pooled(List<JointTally> parts) {
+        PairCounter counter = new PairCounter();
+        Binning coarsest = Binning.EXACT;
+        for (JointTally p : parts) {
+            coarsest = coarsest.coarser(p.binning());
+        }
+        counter.summariseAtLeast(coarsest);
+        for (JointTally p : parts) {
+            double[] xs = p.xs();
+            double[] ys = p.ys();
+            long[] n = p.counts();
+            for (int i = 0; i < n.length; i++) {
+                counter.add(xs[i], ys[i], n[i]);
+            }
+        }
+        return counter.tally(parts.get(0).x(), parts.get(0).y());
     }
 
     /** Two waves' tallies of one column as one; summarised tallies pool in the coarser binning of the two. */

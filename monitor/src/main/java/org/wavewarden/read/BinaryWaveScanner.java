@@ -6,6 +6,8 @@ import org.postgresql.copy.CopyOut;
 import org.wavewarden.config.Identifiers;
 import org.wavewarden.profile.Binning;
 import org.wavewarden.profile.ColumnTally;
+import org.wavewarden.profile.JointTally;
+import org.wavewarden.profile.PairCounter;
 import org.wavewarden.profile.RelativeBins;
 
 import java.math.BigDecimal;
@@ -94,27 +96,36 @@ public final class BinaryWaveScanner {
         }
     }
 
-    /** {@link #scan(Handle, WaveSource, String, List, SourceColumn, LongConsumer)} without a weight column. */
+    /** The scan without weight, design or pairs. */
     public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
                                      LongConsumer progress) {
-        return scan(h, source, wave, columns, null, null, progress);
+        return scan(h, source, wave, columns, null, null, List.of(), progress);
     }
 
     /** The scan with a weight column and no sampling design. */
     public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
                                      SourceColumn weight, LongConsumer progress) {
-        return scan(h, source, wave, columns, weight, null, progress);
+        return scan(h, source, wave, columns, weight, null, List.of(), progress);
+    }
+
+    /** The scan with a weight column and a sampling design, without pairs. */
+    public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
+                                     SourceColumn weight, WaveScanner.Design design, LongConsumer progress) {
+        return scan(h, source, wave, columns, weight, design, List.of(), progress);
     }
 
     /**
      * Same contract as {@link WaveScanner#scan}: the wave's row count, one tally per requested column and, with a
      * weight column, each value's sum of weights and of squared weights; with a design, the PSU sums of
-     * {@link org.wavewarden.profile.DesignSummary} (a weight that is NULL or invalid counts as zero there).
+     * {@link org.wavewarden.profile.DesignSummary} (a weight that is NULL or invalid counts as zero there); with
+     * pairs, one joint tally per pair, its cells decoded to doubles as they pass into one array reused for every row.
      *
      * @param design the stratum and cluster columns, or null
+     * @param pairs  pairs of numeric columns among {@code columns} to tally jointly, possibly none
      */
     public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
-                                     SourceColumn weight, WaveScanner.Design design, LongConsumer progress) {
+                                     SourceColumn weight, WaveScanner.Design design, List<PairSpec> pairs,
+                                     LongConsumer progress) {
         int k = columns.size();
         // The weight and the design travel first, so every cell of a row knows its weight and PSU.
         List<SourceColumn> read = new java.util.ArrayList<>(k + 3);
@@ -153,6 +164,16 @@ public final class BinaryWaveScanner {
             numeric[i] = decode[i].isNumber();
         }
         DesignScan ds = design == null ? null : new DesignScan(numeric);
+        int[][] pairAt = new int[pairs.size()][];
+        PairCounter[] joint = new PairCounter[pairs.size()];
+        boolean[] inPair = new boolean[k];
+        for (int j = 0; j < pairs.size(); j++) {
+            pairAt[j] = pairs.get(j).indexIn(columns);
+            joint[j] = new PairCounter();
+            inPair[pairAt[j][0]] = true;
+            inPair[pairAt[j][1]] = true;
+        }
+        double[] value = new double[k]; // this row's number in each column of a pair; NaN for NULL
         long rows = 0;
         long badWeights = 0;
         String sql = copySql(source, wave, read, all);
@@ -200,11 +221,15 @@ public final class BinaryWaveScanner {
                     }
                     if (len < 0) {
                         nulls[i]++;
+                        value[i] = Double.NaN;
                         continue;
                     }
                     in.need(len);
                     byte[] b = in.buf;
                     int p = in.pos;
+                    if (inPair[i]) {
+                        value[i] = number(decode[i], b, p, len);
+                    }
                     if (bins[i] != null) {
                         double x = number(decode[i], b, p, len);
                         bins[i].add(x, w);
@@ -251,6 +276,13 @@ public final class BinaryWaveScanner {
                         }
                     }
                     in.pos += len;
+                }
+                for (int j = 0; j < joint.length; j++) {
+                    double x = value[pairAt[j][0]];
+                    double y = value[pairAt[j][1]];
+                    if (Double.isFinite(x) && Double.isFinite(y)) {
+                        joint[j].add(x, y);
+                    }
                 }
                 rows++;
                 if ((rows & 0xFFFF) == 0 && progress != null) {
@@ -312,7 +344,11 @@ public final class BinaryWaveScanner {
             bins[i] = null;
             out.put(col.name(), new ColumnTally(col.name(), col.type(), rows, nulls[i], counts, truncated[i], binning));
         }
-        return new WaveScanner.WaveScan(rows, out, weights, badWeights, designSummary);
+        List<JointTally> jointTallies = new java.util.ArrayList<>(pairs.size());
+        for (int j = 0; j < joint.length; j++) {
+            jointTallies.add(joint[j].tally(pairs.get(j).x(), pairs.get(j).y()));
+        }
+        return new WaveScanner.WaveScan(rows, out, weights, badWeights, designSummary, jointTallies);
     }
 
     /** A design column travels as its output text, whatever its type. */

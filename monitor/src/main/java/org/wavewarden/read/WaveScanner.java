@@ -6,6 +6,8 @@ import org.postgresql.copy.CopyOut;
 import org.wavewarden.config.Identifiers;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.DesignSummary;
+import org.wavewarden.profile.JointTally;
+import org.wavewarden.profile.PairCounter;
 import org.wavewarden.profile.RelativeBins;
 
 import java.sql.Connection;
@@ -60,24 +62,35 @@ public final class WaveScanner {
     /**
      * The result of one scan: the wave's row count, one tally per requested column and, with a weight column, per
      * column and value the sum of weights and of squared weights ({@code double[] {sum w, sum w^2}}); rows whose
-     * weight is NULL or not a finite non-negative number count in {@code badWeights} and add no weight.
+     * weight is NULL or not a finite non-negative number count in {@code badWeights} and add no weight. With pairs
+     * requested, one joint tally per pair, in the order requested.
      */
     public record WaveScan(long rows, Map<String, ColumnTally> columns, Map<String, Map<String, double[]>> weights,
-                           long badWeights, DesignSummary design) {
+                           long badWeights, DesignSummary design, List<JointTally> pairs) {
+
+        public WaveScan {
+            pairs = pairs == null ? List.of() : List.copyOf(pairs);
+        }
 
         public WaveScan(long rows, Map<String, ColumnTally> columns) {
-            this(rows, columns, Map.of(), 0, null);
+            this(rows, columns, Map.of(), 0, null, List.of());
         }
 
         public WaveScan(long rows, Map<String, ColumnTally> columns, Map<String, Map<String, double[]>> weights,
                         long badWeights) {
-            this(rows, columns, weights, badWeights, null);
+            this(rows, columns, weights, badWeights, null, List.of());
+        }
+
+        public WaveScan(long rows, Map<String, ColumnTally> columns, Map<String, Map<String, double[]>> weights,
+                        long badWeights, DesignSummary design) {
+            this(rows, columns, weights, badWeights, design, List.of());
         }
 
         @Override
         public boolean equals(Object o) {
             return o instanceof WaveScan w && rows == w.rows && columns.equals(w.columns) && badWeights == w.badWeights
-                    && WaveScanner.sameWeights(weights, w.weights) && java.util.Objects.equals(design, w.design);
+                    && WaveScanner.sameWeights(weights, w.weights) && java.util.Objects.equals(design, w.design)
+                    && pairs.equals(w.pairs);
         }
 
         @Override
@@ -115,16 +128,28 @@ public final class WaveScanner {
      * @throws IllegalArgumentException when a design is given
      */
     public WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, SourceColumn weight,
-                         Design design, LongConsumer progress) {
+                         Design design, List<PairSpec> pairs, LongConsumer progress) {
         if (design != null) {
             throw new IllegalArgumentException("the text scanner reads no sampling design; use the binary scanner");
         }
-        return scan(h, source, wave, columns, weight, progress);
+        return read(h, source, wave, columns, weight, pairs, progress);
+    }
+
+    /** {@link #scan(Handle, WaveSource, String, List, SourceColumn, Design, List, LongConsumer)} without pairs. */
+    public WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, SourceColumn weight,
+                         Design design, LongConsumer progress) {
+        return scan(h, source, wave, columns, weight, design, List.of(), progress);
     }
 
     /** {@link #scan(Handle, WaveSource, String, List, SourceColumn, LongConsumer)} without a weight column. */
     public WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, LongConsumer progress) {
-        return scan(h, source, wave, columns, null, progress);
+        return read(h, source, wave, columns, null, List.of(), progress);
+    }
+
+    /** A scan with a weight column, without design or pairs. */
+    public WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, SourceColumn weight,
+                         LongConsumer progress) {
+        return read(h, source, wave, columns, weight, List.of(), progress);
     }
 
     /**
@@ -132,9 +157,11 @@ public final class WaveScanner {
      *
      * @param weight a survey weight column read in the same pass, or null; each value's weight sum and sum of
      *               squared weights are kept beside its count (for weighted shares and Kish's effective sample size)
+     * @param pairs  pairs of numeric columns among {@code columns} whose joint values are tallied in the same pass,
+     *               over the rows where both cells are finite numbers ({@link PairCounter})
      */
-    public WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, SourceColumn weight,
-                         LongConsumer progress) {
+    private WaveScan read(Handle h, WaveSource source, String wave, List<SourceColumn> columns, SourceColumn weight,
+                          List<PairSpec> pairs, LongConsumer progress) {
         boolean weighted = weight != null;
         List<SourceColumn> read = columns;
         if (weighted) {
@@ -153,6 +180,12 @@ public final class WaveScanner {
         for (int i = 0; i < k; i++) {
             tallies.add(new HashMap<>());
             weightSums.add(weighted ? new HashMap<>() : null);
+        }
+        int[][] pairAt = new int[pairs.size()][];
+        PairCounter[] joint = new PairCounter[pairs.size()];
+        for (int j = 0; j < pairs.size(); j++) {
+            pairAt[j] = pairs.get(j).indexIn(columns);
+            joint[j] = new PairCounter();
         }
         long rows = 0;
         String[] fields = new String[fieldsPerRow];
@@ -211,6 +244,17 @@ public final class WaveScanner {
                         ws[1] += w * w;
                     }
                 }
+                for (int j = 0; j < joint.length; j++) {
+                    String x = fields[pairAt[j][0]];
+                    String y = fields[pairAt[j][1]];
+                    if (x != null && y != null) {
+                        double a = number(columns.get(pairAt[j][0]), x);
+                        double b = number(columns.get(pairAt[j][1]), y);
+                        if (Double.isFinite(a) && Double.isFinite(b)) {
+                            joint[j].add(a, b);
+                        }
+                    }
+                }
                 rows++;
                 if ((rows & 0xFFFF) == 0 && progress != null) {
                     progress.accept(rows);
@@ -240,7 +284,11 @@ public final class WaveScanner {
                 weights.put(col.name(), ws);
             }
         }
-        return new WaveScan(rows, out, weights, badWeights);
+        List<JointTally> jointTallies = new ArrayList<>(pairs.size());
+        for (int j = 0; j < joint.length; j++) {
+            jointTallies.add(joint[j].tally(pairs.get(j).x(), pairs.get(j).y()));
+        }
+        return new WaveScan(rows, out, weights, badWeights, null, jointTallies);
     }
 
     /** Moves a numeric column's exact counts into relative bins, when it has more distinct values than kept. */

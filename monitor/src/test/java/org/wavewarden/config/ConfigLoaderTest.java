@@ -150,6 +150,24 @@ class ConfigLoaderTest {
                         "datasets[0].design.clusters: expected a column other than the strata column"),
                 Arguments.of("design column carrying SQL", releases("weightColumn: w\n    design: {clusters: \"v; --\"}"),
                         "datasets[0].design.clusters: expected a plain SQL identifier"),
+                Arguments.of("relationships not a list", withRelationships("age ~ income"),
+                        "datasets[0].relationships: expected a list of {x, y, threshold}"),
+                Arguments.of("relationship without y", withRelationships("[{x: age}]"),
+                        "datasets[0].relationships[0].y: missing"),
+                Arguments.of("relationship of a column with itself", withRelationships("[{x: age, y: age}]"),
+                        "datasets[0].relationships[0].y: expected a column other than x, but both are 'age'"),
+                Arguments.of("relationship listed twice", withRelationships("[{x: age, y: income},"
+                        + " {x: income, y: age}]"),
+                        "datasets[0].relationships[1]: the pair income and age is listed twice"),
+                Arguments.of("relationship threshold beyond the scale", withRelationships("[{x: age, y: income,"
+                        + " threshold: 2.5}]"), "datasets[0].relationships[0].threshold: expected a difference of"
+                        + " correlations above 0 and below 2 (such as 0.1) but got 2.5"),
+                Arguments.of("relationship threshold as text", withRelationships("[{x: age, y: income,"
+                        + " threshold: small}]"), "datasets[0].relationships[0].threshold: expected a number"),
+                Arguments.of("misspelt relationship key", withRelationships("[{x: age, why: income}]"),
+                        "datasets[0].relationships[0].why: unknown key"),
+                Arguments.of("relationship column carrying SQL", withRelationships("[{x: \"age; --\", y: income}]"),
+                        "datasets[0].relationships[0].x: expected a plain SQL identifier"),
                 Arguments.of("releases without a respondent key", releases("releases: {column: revision}"),
                         "datasets[0].respondentKey: missing: releases are compared respondent by respondent"),
                 Arguments.of("releases with both layouts", releases("respondentKey: household_id\n    releases:"
@@ -234,6 +252,20 @@ class ConfigLoaderTest {
         assertEquals(null, ConfigLoader.parse(GOOD).dataset("coastal").respondentKey());
     }
 
+    private static String withRelationships(String yaml) {
+        return GOOD.replace("    variables:\n", "    relationships: " + yaml + "\n    variables:\n");
+    }
+
+    @Test
+    void relationshipsParseWithTheirThresholdOrNoneForTheDefault() {
+        DatasetConfig d = ConfigLoader.parse(withRelationships("[{x: age, y: income, threshold: 0.15},"
+                + " {x: age, y: hours}]")).dataset("coastal");
+        assertEquals(java.util.List.of(new RelationshipConfig("age", "income", 0.15),
+                new RelationshipConfig("age", "hours", null)), d.relationships());
+        assertEquals("age ~ income", d.relationships().get(0).label());
+        assertEquals(java.util.List.of(), ConfigLoader.parse(GOOD).dataset("coastal").relationships());
+    }
+
     @ParameterizedTest(name = "{0}")
     @MethodSource("badConfigs")
     void aBadConfigExitsTwoNamingTheKey(String what, String yaml, String expected, @TempDir Path dir) throws Exception {
@@ -255,6 +287,8 @@ class ConfigLoaderTest {
         assertEquals("WAVEWARDEN_HOOK_SECRET", ext.dataset("labour-panel").alerts().webhook().secretEnv());
         assertEquals(java.time.Duration.ofMinutes(30), ext.dataset("labour-panel").quietPeriod());
         assertEquals(0.31, ext.dataset("labour-panel").variables().get(4).reference().shares().get("north"));
+        assertEquals(new RelationshipConfig("hours_worked", "job_satisfaction", 0.1),
+                ext.dataset("labour-panel").relationships().get(0));
     }
 
     @Test

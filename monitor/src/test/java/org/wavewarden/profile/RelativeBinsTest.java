@@ -138,4 +138,31 @@ class RelativeBinsTest {
         assertEquals(3, pooled.binning().level());
         assertEquals(10_000L, pooled.valueCounts().values().stream().mapToLong(Long::longValue).sum());
     }
+
+    @Test
+    void aBinnedValueIsItsBinsStandInAndBinningItAgainAtACoarserLevelEqualsBinningTheValueThere() {
+        // What makes a joint tally re-binned step by step independent of when the steps happened.
+        Random r = new Random(5);
+        for (int i = 0; i < 20_000; i++) {
+            double x = (r.nextBoolean() ? 1 : -1) * Math.exp(r.nextGaussian() * 20);
+            int level = r.nextInt(12);
+            double b = RelativeBins.binnedValue(x, level);
+            if (RelativeBins.isCodeLike(x)) {
+                assertEquals(x, b);
+                continue;
+            }
+            assertEquals(Double.parseDouble(RelativeBins.standIn(RelativeBins.key(x, level), level)), b,
+                    1e-6 * Math.abs(b), "the printed stand-in of " + x);
+            assertTrue(Math.abs(b - x) <= new Binning(level).relativeError() * Math.abs(x), x + " as " + b);
+            assertEquals(b, RelativeBins.binnedValue(b, level), "binning a stand-in again keeps it: " + x);
+            assertEquals(RelativeBins.binnedValue(x, level + 1), RelativeBins.binnedValue(b, level + 1),
+                    "coarser bin of " + x);
+            assertEquals(RelativeBins.binnedValue(x, level + 3), RelativeBins.binnedValue(b, level + 3),
+                    "three levels coarser, " + x);
+        }
+        assertEquals(-9.0, RelativeBins.binnedValue(-9, 5));
+        assertEquals(0.0, RelativeBins.binnedValue(-0.0, 5));
+        assertTrue(Double.isFinite(RelativeBins.binnedValue(Double.MAX_VALUE, 0)), "the largest double's bin");
+        assertTrue(Double.isFinite(RelativeBins.binnedValue(-Double.MAX_VALUE, 0)));
+    }
 }

@@ -191,6 +191,22 @@ class BinaryWaveScannerTest {
     }
 
     @Test
+    void pairTalliesEqualTheTextScannersToTheLastBit() {
+        // Every numeric type against every other, with NULLs, NaN, infinities, -0 and 300-digit numerics.
+        List<PairSpec> pairs = List.of(new PairSpec("i4", "f8"), new PairSpec("f4", "n"), new PairSpec("i2", "n2"),
+                new PairSpec("i8", "f4"), new PairSpec("f8", "n"));
+        for (String wave : List.of("edge", "bulk", "floats")) {
+            WaveScanner.WaveScan text = new WaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)
+                    .scan(h, source(), wave, columns(), null, null, pairs, null);
+            WaveScanner.WaveScan binary = new BinaryWaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)
+                    .scan(h, source(), wave, columns(), null, null, pairs, null);
+            assertEquals(pairs.size(), binary.pairs().size());
+            assertEquals(text.pairs(), binary.pairs(), wave);
+            assertEquals(text, binary, wave);
+        }
+    }
+
+    @Test
     void aWaveWithoutColumnsCountsItsRows() {
         WaveScanner.WaveScan b = new BinaryWaveScanner(10).scan(h, source(), "edge", List.of(), null);
         WaveScanner.WaveScan t = new WaveScanner(10).scan(h, source(), "edge", List.of(), null);

@@ -125,11 +125,14 @@ public final class HtmlDigest {
 
     private static String summary(FindingsReport r, int alerts) {
         Map<Verdict, Integer> counts = new EnumMap<>(Verdict.class);
+        Map<Verdict, Integer> relations = new EnumMap<>(Verdict.class);
         int quality = 0;
         int skipped = 0;
         for (Finding f : r.findings()) {
             if (f.kind() == FindingKind.SHIFT && f.verdict() != null) {
                 counts.merge(f.verdict(), 1, Integer::sum);
+            } else if (f.kind() == FindingKind.RELATIONSHIP_CHANGE && f.verdict() != null) {
+                relations.merge(f.verdict(), 1, Integer::sum);
             } else if (f.kind() == FindingKind.SKIPPED) {
                 skipped++;
             } else if (f.kind().isDataQuality()) {
@@ -137,10 +140,10 @@ public final class HtmlDigest {
             }
         }
         StringBuilder sb = new StringBuilder("Shift verdicts: ");
-        for (Verdict v : Verdict.values()) {
-            int n = counts.getOrDefault(v, 0);
-            sb.append("<span class=\"tally v-").append(v.name().toLowerCase(Locale.ROOT)).append(n == 0 ? " zero" : "")
-                    .append("\">").append(v.name()).append(" <b>").append(n).append("</b></span> ");
+        tallies(sb, counts);
+        if (!relations.isEmpty()) {
+            sb.append("&middot; relationship verdicts: ");
+            tallies(sb, relations);
         }
         sb.append("&middot; data-quality findings <b>").append(quality).append("</b>");
         if (skipped > 0) {
@@ -152,6 +155,14 @@ public final class HtmlDigest {
             sb.append(" (").append(esc(methodName(r.fdrMethod()))).append(")");
         }
         return sb.toString();
+    }
+
+    private static void tallies(StringBuilder sb, Map<Verdict, Integer> counts) {
+        for (Verdict v : Verdict.values()) {
+            int n = counts.getOrDefault(v, 0);
+            sb.append("<span class=\"tally v-").append(v.name().toLowerCase(Locale.ROOT)).append(n == 0 ? " zero" : "")
+                    .append("\">").append(v.name()).append(" <b>").append(n).append("</b></span> ");
+        }
     }
 
     private static void alert(StringBuilder h, AlertView a, String baselineWave, String currentWave, double alpha) {
@@ -268,6 +279,7 @@ public final class HtmlDigest {
         return switch (k) {
             case SHIFT -> "distribution shift";
             case SHAPE_CHANGE -> "change of shape";
+            case RELATIONSHIP_CHANGE -> "relationship change";
             case MISSING_RATE_CHANGE -> "missing rate change";
             default -> k.name().toLowerCase(Locale.ROOT).replace('_', ' ');
         };
