@@ -169,7 +169,7 @@ public final class VariableScreen {
         return NumericDistribution.ofTally(tally);
     }
 
-    private static Map<String, Integer> levelRanks(VariableConfig v) {
+    static Map<String, Integer> levelRanks(VariableConfig v) {
         Map<String, Integer> levelRank = new HashMap<>();
         for (int i = 0; i < v.levels().size(); i++) {
             levelRank.put(v.levels().get(i), i + 1);
@@ -178,12 +178,12 @@ public final class VariableScreen {
     }
 
     /** A numeric answer's value: its number, or for an ordinal variable with levels the rank of its level. */
-    private static Double valueOf(String text, Map<String, Integer> levelRank) {
+    static Double valueOf(String text, Map<String, Integer> levelRank) {
         return levelRank.isEmpty() ? parse(text) : levelRank.get(text.strip()) == null ? null
                 : (double) levelRank.get(text.strip());
     }
 
-    private static boolean outside(double x, ValueRange range) {
+    static boolean outside(double x, ValueRange range) {
         return range != null && ((range.min() != null && x < range.min()) || (range.max() != null && x > range.max()));
     }
 

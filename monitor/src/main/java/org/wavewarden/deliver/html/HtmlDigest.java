@@ -128,7 +128,7 @@ public final class HtmlDigest {
         int quality = 0;
         int skipped = 0;
         for (Finding f : r.findings()) {
-            if (f.kind() == FindingKind.SHIFT && f.verdict() != null) {
+            if (f.kind().isShift() && f.verdict() != null) {
                 counts.merge(f.verdict(), 1, Integer::sum);
             } else if (f.kind() == FindingKind.SKIPPED) {
                 skipped++;
@@ -267,6 +267,7 @@ public final class HtmlDigest {
     static String kindLabel(FindingKind k) {
         return switch (k) {
             case SHIFT -> "distribution shift";
+            case PANEL_SHIFT -> "shift within respondents";
             case SHAPE_CHANGE -> "change of shape";
             case MISSING_RATE_CHANGE -> "missing rate change";
             default -> k.name().toLowerCase(Locale.ROOT).replace('_', ' ');
