@@ -6,7 +6,7 @@ import org.wavewarden.judge.FindingKind;
  * The outcome of comparing one variable between two waves, before false-discovery-rate control and the verdict.
  *
  * @param variable        source column
- * @param kind            SHIFT, SHAPE_CHANGE, MISSING_RATE_CHANGE, REFERENCE or RELATIONSHIP_CHANGE
+ * @param kind            SHIFT, PANEL_SHIFT, SHAPE_CHANGE, MISSING_RATE_CHANGE, REFERENCE or RELATIONSHIP_CHANGE
  * @param test            the primary test
  * @param effect          the effect the verdict is judged on (raw scale when the threshold is in raw units)
  * @param threshold       T on the scale of {@code effect}

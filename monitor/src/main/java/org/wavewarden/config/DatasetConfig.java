@@ -22,7 +22,7 @@ import java.util.List;
  * @param weightColumn optional survey weight column: never compared itself, its sums per value are kept in each
  *                     wave's summary
  * @param respondentKey optional column identifying a respondent across waves and releases; never compared as a
- *                     variable
+ *                     variable; with it, respondents in both waves are also compared paired
  * @param releases     optional: where earlier publications of a wave are kept (needs {@code respondentKey})
  * @param design       optional strata and cluster columns of the sampling design (needs {@code weightColumn})
  * @param relationships pairs of numeric variables whose correlation is compared between waves

@@ -50,7 +50,7 @@ public final class MarkdownDigest {
         Map<Verdict, Integer> relations = new EnumMap<>(Verdict.class);
         long dq = 0;
         for (Finding f : findings) {
-            if (f.verdict() != null && f.kind() == org.wavewarden.judge.FindingKind.SHIFT) {
+            if (f.verdict() != null && f.kind().isShift()) {
                 counts.merge(f.verdict(), 1, Integer::sum);
             } else if (f.verdict() != null && f.kind() == org.wavewarden.judge.FindingKind.RELATIONSHIP_CHANGE) {
                 relations.merge(f.verdict(), 1, Integer::sum);

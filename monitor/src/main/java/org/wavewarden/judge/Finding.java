@@ -12,7 +12,7 @@ import com.fasterxml.jackson.annotation.JsonInclude;
  * @param pValue     its p-value
  * @param qValue     the p-value adjusted for the false discovery rate across the run
  * @param effect     the primary effect with its interval and threshold
- * @param verdict    for SHIFT and MISSING_RATE_CHANGE
+ * @param verdict    for SHIFT, PANEL_SHIFT and MISSING_RATE_CHANGE
  * @param nBaseline  valid observations in the baseline wave
  * @param nCurrent   valid observations in the current wave
  * @param sentence   one plain sentence for a reader who is not a statistician

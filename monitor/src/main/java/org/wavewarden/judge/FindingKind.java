@@ -4,6 +4,11 @@ package org.wavewarden.judge;
 public enum FindingKind {
     /** The variable's distribution moved between the waves (location, shares or proportion). */
     SHIFT,
+    /**
+     * The answers of the respondents present in both waves moved, compared pair by pair (paired t or signed rank,
+     * McNemar, Stuart-Maxwell); judged and alerted like {@link #SHIFT}.
+     */
+    PANEL_SHIFT,
     /** The location test is quiet but the shape changed (KS or Wasserstein beyond its threshold). */
     SHAPE_CHANGE,
     /** The wave against a configured reference mean or reference shares (one-sample tests). */
@@ -47,7 +52,12 @@ public enum FindingKind {
     SKIPPED;
 
     public boolean isDataQuality() {
-        return this != SHIFT && this != SHAPE_CHANGE && this != REFERENCE && this != RELATIONSHIP_CHANGE
-                && this != SKIPPED;
+        return this != SHIFT && this != PANEL_SHIFT && this != SHAPE_CHANGE && this != REFERENCE
+                && this != RELATIONSHIP_CHANGE && this != SKIPPED;
+    }
+
+    /** A change of the answers themselves, between two waves' distributions or within the same respondents. */
+    public boolean isShift() {
+        return this == SHIFT || this == PANEL_SHIFT;
     }
 }

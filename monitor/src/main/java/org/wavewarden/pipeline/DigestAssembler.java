@@ -92,7 +92,7 @@ public final class DigestAssembler {
         ScreenedVariable c = VariableScreen.screen(ct, v);
         ColumnTally bt = baseline == null ? null : baseline.columns().get(v.name());
         ScreenedVariable b = bt == null ? null : VariableScreen.screen(bt, v);
-        boolean aboutValues = f.kind() == FindingKind.SHIFT || f.kind() == FindingKind.SHAPE_CHANGE
+        boolean aboutValues = f.kind().isShift() || f.kind() == FindingKind.SHAPE_CHANGE
                 || f.kind() == FindingKind.REFERENCE || f.kind() == FindingKind.HEAPING
                 || f.kind() == FindingKind.DIGIT_PREFERENCE || f.kind() == FindingKind.CODE_APPEARED
                 || f.kind() == FindingKind.CODE_VANISHED;
@@ -132,9 +132,9 @@ public final class DigestAssembler {
             return null;
         }
         List<String> waves = order.subList(0, end + 1);
-        String category = f.kind() == FindingKind.SHIFT && current != null && v.kind() == VariableKind.CATEGORICAL
+        String category = f.kind().isShift() && current != null && v.kind() == VariableKind.CATEGORICAL
                 ? movedMost(v, baseline, current) : null;
-        boolean values = (f.kind() == FindingKind.SHIFT || f.kind() == FindingKind.SHAPE_CHANGE
+        boolean values = (f.kind().isShift() || f.kind() == FindingKind.SHAPE_CHANGE
                 || f.kind() == FindingKind.REFERENCE) && v.kind() != VariableKind.TEXT && v.kind() != VariableKind.DATE;
         String measure = !values ? "share missing (any reason)" : v.kind().isNumericScale() ? "mean"
                 : category != null ? "share '" + category + "'" : "share";

@@ -183,7 +183,7 @@ public final class VariableScreen {
                 : (double) levelRank.get(text.strip());
     }
 
-    private static boolean outside(double x, ValueRange range) {
+    static boolean outside(double x, ValueRange range) {
         return range != null && ((range.min() != null && x < range.min()) || (range.max() != null && x > range.max()));
     }
 

@@ -52,6 +52,7 @@ public final class WaveJudge {
     private final Session session;
     private final Clock clock;
     private Scanner scanner;
+    private PanelPairs.Reader pairReader = org.wavewarden.read.KeyedPairReader::read;
 
     public WaveJudge(Session session, Clock clock) {
         this.session = session;
@@ -74,6 +75,12 @@ public final class WaveJudge {
     /** Reads waves with the given scanner from now on; returns this judge. */
     public WaveJudge useScanner(Scanner scanner) {
         this.scanner = java.util.Objects.requireNonNull(scanner, "scanner");
+        return this;
+    }
+
+    /** Reads a panel's pairs with the given reader from now on; returns this judge. */
+    public WaveJudge usePairReader(PanelPairs.Reader reader) {
+        this.pairReader = java.util.Objects.requireNonNull(reader, "reader");
         return this;
     }
 
@@ -126,7 +133,7 @@ public final class WaveJudge {
         WaveProfile baseline = baselines.isEmpty() ? null
                 : baselines.size() == 1 ? baselines.get(0) : WaveProfile.pooled(againstLabel, baselines);
 
-        Profiled judged = findings(cfg, d, current, baseline);
+        Profiled judged = findings(cfg, d, current, baseline, panel(d, source, against, baseline, current));
         List<String> inference = judged.inference();
         List<Finding> findings = judged.findings();
         List<Finding> alerts = Alerts.select(findings);
@@ -144,7 +151,10 @@ public final class WaveJudge {
         return new JudgedWave(report, runId, alerts);
     }
 
-    /** The findings of a wave and the notes on variables whose kind was inferred, in report order. */
+    /**
+     * The findings of a wave and the notes on variables whose kind was inferred and on paired comparisons not made,
+     * in report order.
+     */
     public record Profiled(List<Finding> findings, List<String> inference) {
     }
 
@@ -153,12 +163,27 @@ public final class WaveJudge {
      * false-discovery-rate control and the verdicts. {@code baseline} is null for a first wave.
      */
     public static Profiled findings(WardenConfig cfg, DatasetConfig d, WaveProfile current, WaveProfile baseline) {
+        return findings(cfg, d, current, baseline, null);
+    }
+
+    /**
+     * The same, with the paired comparisons of a panel ({@link PanelComparisons}) in the same false-discovery-rate
+     * family; {@code panel} is null when the wave is not compared paired. Why a variable or the whole panel was not
+     * compared paired is added to the notes.
+     */
+    public static Profiled findings(WardenConfig cfg, DatasetConfig d, WaveProfile current, WaveProfile baseline,
+                                    PanelPairs.Panel panel) {
         List<String> inference = new ArrayList<>();
         List<VariableConfig> variables = variables(d, current, inference);
         boolean weighted = d.weightColumn() != null;
         List<Comparison> relations = new ArrayList<>();
         List<Finding> relationNotes = new ArrayList<>();
         relationships(cfg, d, variables, current, baseline, relations, relationNotes);
+        if (panel != null) {
+            PanelComparisons.Result r = PanelComparisons.compare(panel, variables, 1 - cfg.alpha());
+            relations.addAll(r.comparisons());
+            inference.addAll(r.notes());
+        }
         List<Finding> findings = new ArrayList<>(judgeVariables(variables, baseline == null ? null
                 : baseline.columns(), current.columns(), weighted && baseline != null ? baseline.weights() : null,
                 weighted ? current.weights() : null, weighted && baseline != null ? baseline.design() : null,
@@ -192,14 +217,15 @@ public final class WaveJudge {
     /**
      * The same with both sides' sampling designs (PSU sums; null for none), whose weighted comparisons then take
      * their variances from the strata and clusters, and with comparisons made elsewhere (the relationships of
-     * configured pairs) judged in the same false-discovery-rate family.
+     * configured pairs, a panel's paired comparisons) judged in the same false-discovery-rate family.
      */
-    static List<Finding> judgeVariables(List<VariableConfig> variables, Map<String, ColumnTally> baseline,
-                                        Map<String, ColumnTally> current,
-                                        Map<String, Map<String, double[]>> baselineWeights,
-                                        Map<String, Map<String, double[]>> currentWeights,
-                                        DesignSummary baselineDesign, DesignSummary currentDesign, double alpha,
-                                        WardenConfig.FdrMethod fdr, String what, List<Comparison> alsoJudged) {
+    public static List<Finding> judgeVariables(List<VariableConfig> variables, Map<String, ColumnTally> baseline,
+                                               Map<String, ColumnTally> current,
+                                               Map<String, Map<String, double[]>> baselineWeights,
+                                               Map<String, Map<String, double[]>> currentWeights,
+                                               DesignSummary baselineDesign, DesignSummary currentDesign,
+                                               double alpha, WardenConfig.FdrMethod fdr, String what,
+                                               List<Comparison> alsoJudged) {
         VariableComparator comparator = new VariableComparator(1 - alpha);
         WeightedComparator weighted = new WeightedComparator(1 - alpha);
         List<Comparison> comparisons = new ArrayList<>();
@@ -261,7 +287,8 @@ public final class WaveJudge {
         List<Finding> out = new ArrayList<>(findings.size());
         for (Finding f : findings) {
             Double e = relativeError.get(f.variable());
-            if (e == null || f.kind().isDataQuality()) {
+            // Paired comparisons read the answers themselves and say so when they bin the differences.
+            if (e == null || f.kind().isDataQuality() || f.kind() == FindingKind.PANEL_SHIFT) {
                 out.add(f);
                 continue;
             }
@@ -456,10 +483,22 @@ public final class WaveJudge {
         return p.columns().containsKey(column) && p.schema().get(column) != null && p.schema().get(column).isNumeric();
     }
 
+    /** The panel's pairs when the dataset has a respondent key and the wave one baseline: one more statement. */
+    private PanelPairs.Panel panel(DatasetConfig d, WaveSource source, List<String> against, WaveProfile baseline,
+                                   WaveProfile current) {
+        PanelPairs plan = PanelPairs.plan(d, against, baseline, current);
+        if (plan == null) {
+            return null;
+        }
+        return plan.needsRead() ? session.source().withHandle(h -> plan.read(h, source, pairReader))
+                : plan.read(null, source, pairReader);
+    }
+
     /**
      * The stored summary of an earlier wave, read from the source once if it was never stored or lacks columns or
      * the pairs of a configured relationship (a summary stored before the relationship was configured).
      */
+
     private WaveProfile baselineProfile(DatasetConfig d, WaveSource source, String wave, List<String> needed) {
         Optional<ResultsStore.StoredSummary> stored = session.store().latestSummary(d.name(), wave);
         if (stored.isPresent()) {

@@ -52,4 +52,30 @@ public final class PairedTTest {
         return OneSampleTTest.of(NAME, NumericDistribution.ofSample(diff), 0.0, confidence,
                 sumB / diff.length, sumC / diff.length);
     }
+
+    /**
+     * The same test from the moments of the differences, for pairs streamed past once and never held: t = mean /
+     * (sd / sqrt(n)) on n - 1 degrees of freedom.
+     *
+     * @param pairs          number of pairs, at least 2
+     * @param meanDifference mean of {@code current - baseline}
+     * @param sdDifference   sample standard deviation (divisor n - 1) of the differences, positive
+     * @param meanBaseline   mean of the baseline answers of the pairs, for the report
+     * @param meanCurrent    mean of the current answers of the pairs
+     * @param confidence     level of the interval, in (0, 1)
+     * @throws IllegalArgumentException on fewer than 2 pairs, non-finite moments or differences without spread
+     */
+    public static MeanDifference ofDifferences(long pairs, double meanDifference, double sdDifference,
+                                               double meanBaseline, double meanCurrent, double confidence) {
+        if (pairs < 2) {
+            throw new IllegalArgumentException("pairs must be at least 2, was " + pairs);
+        }
+        if (!Double.isFinite(meanDifference) || !Double.isFinite(sdDifference)) {
+            throw new IllegalArgumentException("meanDifference and sdDifference must be finite, were "
+                    + meanDifference + " and " + sdDifference);
+        }
+        TStatistics.checkConfidence(confidence);
+        return TStatistics.result(NAME, meanDifference, sdDifference / Math.sqrt(pairs), pairs - 1.0, meanBaseline,
+                meanCurrent, confidence);
+    }
 }

@@ -1,6 +1,5 @@
 package org.wavewarden.compare.rank;
 
-import org.apache.commons.math3.distribution.NormalDistribution;
 import org.wavewarden.compare.EffectSize;
 import org.wavewarden.profile.NumericDistribution;
 
@@ -29,8 +28,6 @@ import org.wavewarden.profile.NumericDistribution;
 public final class CliffsDelta {
 
     public static final String NAME = "Cliff's delta";
-
-    private static final NormalDistribution STANDARD_NORMAL = new NormalDistribution(0, 1);
 
     private CliffsDelta() {
     }
@@ -96,17 +93,6 @@ public final class CliffsDelta {
         double var = (nb * nb * rowSs + nc * nc * colSs - cellSs) / (nc * nb * (nc - 1) * (nb - 1));
         var = Math.max(var, (1 - d * d) / (pairs - 1));
 
-        double z = STANDARD_NORMAL.inverseCumulativeProbability(0.5 + confidence / 2);
-        double oneMinus = 1 - d * d;
-        if (oneMinus <= 0) {
-            return new EffectSize(NAME, d, d, d, confidence);
-        }
-        double zs2 = z * z * var;
-        double centre = d - d * d * d;
-        double spread = z * Math.sqrt(var) * Math.sqrt(oneMinus * oneMinus + zs2);
-        double denom = oneMinus + zs2;
-        double low = Math.max(-1.0, (centre - spread) / denom);
-        double high = Math.min(1.0, (centre + spread) / denom);
-        return new EffectSize(NAME, d, low, high, confidence);
+        return Tables.fengCliff(NAME, d, var, confidence);
     }
 }

@@ -129,7 +129,7 @@ public final class HtmlDigest {
         int quality = 0;
         int skipped = 0;
         for (Finding f : r.findings()) {
-            if (f.kind() == FindingKind.SHIFT && f.verdict() != null) {
+            if (f.kind().isShift() && f.verdict() != null) {
                 counts.merge(f.verdict(), 1, Integer::sum);
             } else if (f.kind() == FindingKind.RELATIONSHIP_CHANGE && f.verdict() != null) {
                 relations.merge(f.verdict(), 1, Integer::sum);
@@ -278,6 +278,7 @@ public final class HtmlDigest {
     static String kindLabel(FindingKind k) {
         return switch (k) {
             case SHIFT -> "distribution shift";
+            case PANEL_SHIFT -> "shift within respondents";
             case SHAPE_CHANGE -> "change of shape";
             case RELATIONSHIP_CHANGE -> "relationship change";
             case MISSING_RATE_CHANGE -> "missing rate change";

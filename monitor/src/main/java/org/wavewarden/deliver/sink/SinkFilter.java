@@ -16,7 +16,7 @@ import java.util.stream.Collectors;
  * Which alerts one sink receives, so that, say, a pager hears only of MATERIAL shifts while a log file keeps
  * everything.
  *
- * <p>An alert with a verdict (SHIFT, MISSING_RATE_CHANGE) passes when its verdict is at least as urgent as
+ * <p>An alert with a verdict (SHIFT, PANEL_SHIFT, MISSING_RATE_CHANGE) passes when its verdict is at least as urgent as
  * {@code minimumVerdict} in the order of {@link Verdict} (MATERIAL, MINOR, UNCERTAIN, STABLE); a null minimum lets
  * every verdict through. An alert without a verdict passes when its kind is in {@code kinds}; an empty set stands
  * for every data-quality kind ({@link FindingKind#isDataQuality()}), so SHAPE_CHANGE and SKIPPED pass only when

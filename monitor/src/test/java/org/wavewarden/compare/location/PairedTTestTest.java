@@ -67,6 +67,27 @@ class PairedTTestTest {
     }
 
     @Test
+    void fromTheMomentsOfTheDifferencesEqualsTheTestOnThePairs() {
+        // What a streamed panel has: n, the mean and SD of the differences, and the two means.
+        MeanDifference pairs = PairedTTest.test(SLEEP_2, SLEEP_1, 0.95);
+        double[] d = new double[SLEEP_1.length];
+        for (int i = 0; i < d.length; i++) {
+            d[i] = SLEEP_1[i] - SLEEP_2[i];
+        }
+        var table = org.wavewarden.profile.NumericDistribution.ofSample(d);
+        MeanDifference moments = PairedTTest.ofDifferences(10, table.mean(), table.standardDeviation(), 2.33, 0.75,
+                0.95);
+        assertEquals(pairs.test().statistic(), moments.test().statistic(), 1e-12);
+        assertEquals(pairs.test().df(), moments.test().df(), 0.0);
+        assertEquals(pairs.test().pValue(), moments.test().pValue(), 1e-15);
+        assertEquals(pairs.ciLow(), moments.ciLow(), 1e-12);
+        assertEquals(pairs.ciHigh(), moments.ciHigh(), 1e-12);
+        assertEquals(2.33, moments.meanBaseline(), 0.0);
+        assertThrows(IllegalArgumentException.class, () -> PairedTTest.ofDifferences(1, 0.5, 1, 0, 0, 0.95));
+        assertThrows(IllegalArgumentException.class, () -> PairedTTest.ofDifferences(5, 0.5, 0, 0, 0, 0.95));
+    }
+
+    @Test
     void rejectsUnequalLengthsAndNonFiniteValues() {
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
                 () -> PairedTTest.test(new double[] {1, 2, 3}, new double[] {1, 2}, 0.95));

@@ -1,0 +1,564 @@
+package org.wavewarden.pipeline;
+
+import org.jdbi.v3.core.Handle;
+import org.wavewarden.config.DatasetConfig;
+import org.wavewarden.config.VariableConfig;
+import org.wavewarden.config.VariableKind;
+import org.wavewarden.missing.ValueRange;
+import org.wavewarden.profile.Binning;
+import org.wavewarden.profile.ColumnTally;
+import org.wavewarden.profile.NumericDistribution;
+import org.wavewarden.profile.RelativeBins;
+import org.wavewarden.profile.WaveProfile;
+import org.wavewarden.read.KeyedPairReader;
+import org.wavewarden.read.WaveScanner;
+import org.wavewarden.read.WaveSource;
+
+import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.HashSet;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import java.util.function.LongConsumer;
+
+/**
+ * The respondents of a panel matched across the baseline wave and the judged wave, summarised per variable while
+ * their rows stream past: what the paired comparisons ({@link PanelComparisons}) need, and nothing else.
+ *
+ * <p>This is the one place a check reads an earlier wave's rows (every other comparison works from the earlier
+ * wave's stored summary): pairing needs to know who answered what at both waves. Both waves come in one
+ * {@code COPY} of a {@code FULL JOIN} on the respondent key ({@link KeyedPairReader}), one statement whatever the
+ * number of variables. The JVM holds one joined row at a time and per variable a bounded summary:
+ * <ul>
+ *   <li>continuous and ordinal: the paired differences {@code current - baseline} as a frequency table, exact up to
+ *       {@value #MAX_EXACT_DIFFERENCES} distinct differences and then in {@link RelativeBins}, beside the exact
+ *       mean and variance of the differences (Welford's running update) and the means of both answers;</li>
+ *   <li>binary: the 2 x 2 table of the tracked answer at the two waves;</li>
+ *   <li>categorical: the k x k table of the answers at the two waves, k at most {@value #MAX_CATEGORIES}.</li>
+ * </ul>
+ * A pair enters a variable's summary only when both answers are valid by that wave's own screen of the variable
+ * ({@link VariableScreen}, computed from the same tallies the two-sample comparison uses): a NULL, a codebook
+ * missing code, a confidently detected disguised missing value, a value outside the declared range or text in a
+ * number leaves the pair out of that variable, and it is counted as left out. Ordinal answers with {@code levels}
+ * are their ranks, as in the screen.
+ *
+ * <p>Panel comparisons are made when the dataset names a {@code respondentKey} and the wave is judged against one
+ * earlier wave; a pooled baseline ({@code compareWith: {pooledLast: n}}) has no single earlier answer to pair with,
+ * and is noted as skipped. Pairs are unweighted: each respondent counts once.
+ */
+public final class PanelPairs implements KeyedPairReader.Visitor {
+
+    /** Distinct paired differences counted exactly before the rest are summarised in relative bins. */
+    public static final int MAX_EXACT_DIFFERENCES = WaveScanner.DEFAULT_EXACT_NUMBERS;
+    /** Categories a paired table may have; a variable with more is not compared paired. */
+    public static final int MAX_CATEGORIES = 50;
+
+    /** Reads two selections side by side, as {@link KeyedPairReader#read} does (tests wrap it to count reads). */
+    @FunctionalInterface
+    public interface Reader {
+        KeyedPairReader.PairScan read(Handle h, String keyColumn, List<String> columns,
+                                      KeyedPairReader.Selection before, KeyedPairReader.Selection after,
+                                      KeyedPairReader.Visitor visitor, LongConsumer progress);
+    }
+
+    /**
+     * What the pairing found: how many respondents were in both waves or in one only, and per variable its paired
+     * summary. A panel that could not be paired at all has no variables and says why in {@code notes}.
+     *
+     * @param baselineWave  the earlier wave
+     * @param currentWave   the judged wave
+     * @param matched       respondents with a row in both waves
+     * @param onlyBaseline  respondents with a row in the baseline wave only
+     * @param onlyCurrent   respondents with a row in the judged wave only
+     * @param baselineKeys  the baseline wave's keys (rows with NULL or repeated keys are matched to no one); null
+     *                      when nothing was read
+     * @param currentKeys   the same for the judged wave
+     * @param variables     one summary per variable compared paired, in variable order
+     * @param notes         variables (or the whole panel) not compared paired, with the reason
+     */
+    public record Panel(String baselineWave, String currentWave, long matched, long onlyBaseline, long onlyCurrent,
+                        KeyedPairReader.SideKeys baselineKeys, KeyedPairReader.SideKeys currentKeys,
+                        List<VariablePairs> variables, List<String> notes) {
+
+        public Panel {
+            variables = List.copyOf(variables);
+            notes = List.copyOf(notes);
+        }
+
+        /** A panel that was not paired, and why. */
+        public static Panel skipped(String baselineWave, String currentWave, String why) {
+            return new Panel(baselineWave, currentWave, 0, 0, 0, null, null, List.of(), List.of(why));
+        }
+
+        /** Rows of a wave that are matched to no one because their key is NULL or repeated. */
+        public long unmatchedRows(boolean baseline) {
+            KeyedPairReader.SideKeys k = baseline ? baselineKeys : currentKeys;
+            return k == null ? 0 : k.nullKeyRows() + k.duplicateKeyRows();
+        }
+    }
+
+    /** One variable's paired summary. {@code leftOut} counts matched respondents whose pair had an invalid answer. */
+    public sealed interface VariablePairs {
+        String variable();
+
+        long pairs();
+
+        long leftOut();
+    }
+
+    /**
+     * The paired differences of a continuous or ordinal variable.
+     *
+     * @param meanDifference mean of {@code current - baseline}, exact
+     * @param sdDifference   sample standard deviation of the differences (divisor n - 1), exact; NaN for one pair
+     * @param differences    the differences as a frequency table, exact or summarised as {@code binning} says
+     */
+    public record NumericPairs(String variable, long pairs, long leftOut, double meanBaseline, double meanCurrent,
+                               double meanDifference, double sdDifference, NumericDistribution differences,
+                               Binning binning) implements VariablePairs {
+    }
+
+    /**
+     * The paired 2 x 2 table of a binary variable's tracked answer {@code successValue}: yes at both waves, yes then
+     * no, no then yes, no at both.
+     */
+    public record BinaryPairs(String variable, String successValue, long bothYes, long yesNo, long noYes,
+                              long bothNo, long leftOut) implements VariablePairs {
+        @Override
+        public long pairs() {
+            return bothYes + yesNo + noYes + bothNo;
+        }
+    }
+
+    /**
+     * The paired k x k table of a categorical variable: {@code counts[i][j]} respondents answered {@code labels[i]}
+     * in the baseline wave and {@code labels[j]} in the judged wave.
+     */
+    public record CategoricalPairs(String variable, List<String> labels, long[][] counts, long leftOut)
+            implements VariablePairs {
+
+        public CategoricalPairs {
+            labels = List.copyOf(labels);
+            counts = deepCopy(counts);
+        }
+
+        @Override
+        public long[][] counts() {
+            return deepCopy(counts);
+        }
+
+        @Override
+        public long pairs() {
+            long n = 0;
+            for (long[] row : counts) {
+                for (long c : row) {
+                    n += c;
+                }
+            }
+            return n;
+        }
+
+        private static long[][] deepCopy(long[][] t) {
+            long[][] out = new long[t.length][];
+            for (int i = 0; i < t.length; i++) {
+                out[i] = t[i].clone();
+            }
+            return out;
+        }
+    }
+
+    private final DatasetConfig dataset;
+    private final String baselineWave;
+    private final String currentWave;
+    private final List<String> columns = new ArrayList<>();
+    private final List<Accumulator> accumulators = new ArrayList<>();
+    private final List<String> notes = new ArrayList<>();
+    private final String skipped;
+    private long matched;
+    private long onlyBaseline;
+    private long onlyCurrent;
+
+    private PanelPairs(DatasetConfig dataset, String baselineWave, String currentWave, String skipped) {
+        this.dataset = dataset;
+        this.baselineWave = baselineWave;
+        this.currentWave = currentWave;
+        this.skipped = skipped;
+    }
+
+    /**
+     * The pairing a check of {@code current} against {@code against} makes, before anything is read: null when the
+     * dataset has no respondent key or the wave has no baseline; otherwise the variables to pair, with their
+     * screens taken from the two waves' summaries.
+     */
+    public static PanelPairs plan(DatasetConfig d, List<String> against, WaveProfile baseline, WaveProfile current) {
+        if (d.respondentKey() == null || baseline == null || against.isEmpty()) {
+            return null;
+        }
+        String wave = current.wave();
+        if (against.size() > 1) {
+            return new PanelPairs(d, baseline.wave(), wave, "panel comparisons skipped: the baseline pools "
+                    + against.size() + " waves (" + String.join(", ", against) + "); pairing respondents needs one"
+                    + " earlier wave");
+        }
+        String b = against.get(0);
+        for (WaveProfile p : List.of(baseline, current)) {
+            if (!p.schema().containsKey(d.respondentKey())) {
+                return new PanelPairs(d, b, wave, "panel comparisons skipped: wave " + p.wave() + " has no column "
+                        + d.respondentKey() + " (the respondent key)");
+            }
+        }
+        PanelPairs plan = new PanelPairs(d, b, wave, null);
+        for (VariableConfig v : WaveJudge.variables(d, current.columns().values(), new ArrayList<>())) {
+            ColumnTally ct = current.columns().get(v.name());
+            ColumnTally bt = baseline.columns().get(v.name());
+            if (ct == null || bt == null || !pairable(v.kind())) {
+                continue;
+            }
+            if (ct.truncated() || bt.truncated()) {
+                plan.notes.add(v.name() + ": not compared paired: too many distinct values to compare exactly");
+                continue;
+            }
+            plan.add(v, VariableScreen.screen(bt, v), VariableScreen.screen(ct, v));
+        }
+        return plan;
+    }
+
+    private static boolean pairable(VariableKind k) {
+        return k == VariableKind.CONTINUOUS || k == VariableKind.ORDINAL || k == VariableKind.BINARY
+                || k == VariableKind.CATEGORICAL;
+    }
+
+    private void add(VariableConfig v, ScreenedVariable b, ScreenedVariable c) {
+        Accumulator a = switch (v.kind()) {
+            case CONTINUOUS, ORDINAL -> new Numbers(v, b, c);
+            case BINARY -> new Binary(v, b, c);
+            case CATEGORICAL -> {
+                List<String> labels = b.categories().unionOrder(c.categories());
+                if (labels.size() > MAX_CATEGORIES) {
+                    notes.add(v.name() + ": not compared paired: " + labels.size() + " categories, more than the "
+                            + MAX_CATEGORIES + " a paired table is kept for");
+                    yield null;
+                }
+                yield new Categories(v, labels, b, c);
+            }
+            case TEXT, DATE -> null;
+        };
+        if (a != null) {
+            columns.add(v.name());
+            accumulators.add(a);
+        }
+    }
+
+    /** The columns read for the pairs, in the order of the reader's arrays. */
+    public List<String> columns() {
+        return List.copyOf(columns);
+    }
+
+    /** Whether any rows need reading: there is a variable to pair and nothing ruled the panel out. */
+    public boolean needsRead() {
+        return skipped == null && !accumulators.isEmpty();
+    }
+
+    /**
+     * Reads both waves in one statement and returns the paired summaries.
+     *
+     * @param source where the dataset's waves are; each wave is selected as its own check selects it (the latest
+     *               release, with a release column)
+     */
+    public Panel read(Handle h, WaveSource source, Reader reader) {
+        if (!needsRead()) {
+            return finish(null);
+        }
+        KeyedPairReader.PairScan scan = reader.read(h, dataset.respondentKey(), columns,
+                new KeyedPairReader.Selection("wave " + baselineWave, source.fromClause(baselineWave)),
+                new KeyedPairReader.Selection("wave " + currentWave, source.fromClause(currentWave)), this, null);
+        return finish(scan);
+    }
+
+    /** The summaries of the rows seen so far, with the keys of the scan (null when nothing was read). */
+    Panel finish(KeyedPairReader.PairScan scan) {
+        if (skipped != null) {
+            return Panel.skipped(baselineWave, currentWave, skipped);
+        }
+        List<VariablePairs> out = new ArrayList<>(accumulators.size());
+        accumulators.forEach(a -> out.add(a.result()));
+        return new Panel(baselineWave, currentWave, matched, onlyBaseline, onlyCurrent,
+                scan == null ? null : scan.before(), scan == null ? null : scan.after(), out, notes);
+    }
+
+    @Override
+    public void row(String key, String[] before, String[] after) {
+        if (before == null) {
+            onlyCurrent++;
+            return;
+        }
+        if (after == null) {
+            onlyBaseline++;
+            return;
+        }
+        matched++;
+        for (int i = 0; i < accumulators.size(); i++) {
+            accumulators.get(i).add(before[i], after[i]);
+        }
+    }
+
+    @Override
+    public void unmatched(String key, String[] before, String[] after) {
+        // Counted by the reader in each side's keys; such rows belong to no pair.
+    }
+
+    /** One variable's running summary of the pairs. */
+    private abstract static class Accumulator {
+        final String variable;
+        long leftOut;
+
+        Accumulator(String variable) {
+            this.variable = variable;
+        }
+
+        abstract void add(String baseline, String current);
+
+        abstract VariablePairs result();
+    }
+
+    private static final class Numbers extends Accumulator {
+        private final Map<String, Integer> levels;
+        private final ValueRange range;
+        private final Set<String> excludedB;
+        private final Set<String> excludedC;
+        private final DoubleCounts exact = new DoubleCounts();
+        private RelativeBins bins;
+        private long n;
+        private double mean;
+        private double m2;
+        private double sumB;
+        private double sumC;
+
+        Numbers(VariableConfig v, ScreenedVariable b, ScreenedVariable c) {
+            super(v.name());
+            levels = VariableScreen.levelRanks(v);
+            range = VariableScreen.range(v).orElse(null);
+            excludedB = new HashSet<>(b.excludedValues());
+            excludedC = new HashSet<>(c.excludedValues());
+        }
+
+        @Override
+        void add(String baseline, String current) {
+            double xb = valid(baseline, excludedB);
+            double xc = valid(current, excludedC);
+            if (Double.isNaN(xb) || Double.isNaN(xc)) {
+                leftOut++;
+                return;
+            }
+            double d = xc - xb;
+            d = d == 0 ? 0.0 : d; // -0.0 and 0.0 are one difference
+            n++;
+            double delta = d - mean;
+            mean += delta / n;
+            m2 += delta * (d - mean);
+            sumB += xb;
+            sumC += xc;
+            if (bins != null) {
+                bins.add(d, Double.NaN);
+            } else if (!exact.add(d, MAX_EXACT_DIFFERENCES)) {
+                bins = new RelativeBins();
+                exact.forEach((x, count) -> bins.add(x, count, 0, 0));
+                bins.add(d, Double.NaN);
+            }
+        }
+
+        /** The answer's value, or NaN when it does not enter the comparison. */
+        private double valid(String text, Set<String> excluded) {
+            if (text == null) {
+                return Double.NaN;
+            }
+            String t = KeyedPairReader.tallied(text);
+            if (excluded.contains(t)) {
+                return Double.NaN;
+            }
+            Double x = VariableScreen.valueOf(t, levels);
+            return x == null || !Double.isFinite(x) || VariableScreen.outside(x, range) ? Double.NaN : x;
+        }
+
+        @Override
+        VariablePairs result() {
+            NumericDistribution table;
+            Binning binning;
+            if (bins == null) {
+                table = exact.distribution();
+                binning = Binning.EXACT;
+            } else {
+                Map<Double, Long> tally = new HashMap<>();
+                bins.counts().forEach((text, c) -> tally.merge(Double.parseDouble(text), c, Long::sum));
+                table = NumericDistribution.ofTally(tally);
+                binning = bins.binning();
+            }
+            double sd = n > 1 ? Math.sqrt(m2 / (n - 1)) : Double.NaN;
+            return new NumericPairs(variable, n, leftOut, n == 0 ? Double.NaN : sumB / n,
+                    n == 0 ? Double.NaN : sumC / n, n == 0 ? Double.NaN : mean, sd, table, binning);
+        }
+    }
+
+    private static final class Binary extends Accumulator {
+        private final String success;
+        private final Set<String> validB;
+        private final Set<String> validC;
+        private long bothYes;
+        private long yesNo;
+        private long noYes;
+        private long bothNo;
+
+        Binary(VariableConfig v, ScreenedVariable b, ScreenedVariable c) {
+            super(v.name());
+            success = VariableScreen.successValue(v, b.categories(), c.categories());
+            validB = new HashSet<>(b.categories().categories());
+            validC = new HashSet<>(c.categories().categories());
+        }
+
+        @Override
+        void add(String baseline, String current) {
+            String b = baseline == null ? null : KeyedPairReader.tallied(baseline);
+            String c = current == null ? null : KeyedPairReader.tallied(current);
+            if (b == null || c == null || !validB.contains(b) || !validC.contains(c)) {
+                leftOut++;
+                return;
+            }
+            boolean yb = b.equals(success);
+            boolean yc = c.equals(success);
+            if (yb) {
+                if (yc) {
+                    bothYes++;
+                } else {
+                    yesNo++;
+                }
+            } else if (yc) {
+                noYes++;
+            } else {
+                bothNo++;
+            }
+        }
+
+        @Override
+        VariablePairs result() {
+            return new BinaryPairs(variable, success, bothYes, yesNo, noYes, bothNo, leftOut);
+        }
+    }
+
+    private static final class Categories extends Accumulator {
+        private final List<String> labels;
+        private final Map<String, Integer> indexB = new HashMap<>();
+        private final Map<String, Integer> indexC = new HashMap<>();
+        private final long[][] counts;
+
+        Categories(VariableConfig v, List<String> labels, ScreenedVariable b, ScreenedVariable c) {
+            super(v.name());
+            this.labels = labels;
+            Map<String, Integer> index = new HashMap<>();
+            for (int i = 0; i < labels.size(); i++) {
+                index.put(labels.get(i), i);
+            }
+            b.categories().categories().forEach(x -> indexB.put(x, index.get(x)));
+            c.categories().categories().forEach(x -> indexC.put(x, index.get(x)));
+            counts = new long[labels.size()][labels.size()];
+        }
+
+        @Override
+        void add(String baseline, String current) {
+            Integer i = baseline == null ? null : indexB.get(KeyedPairReader.tallied(baseline));
+            Integer j = current == null ? null : indexC.get(KeyedPairReader.tallied(current));
+            if (i == null || j == null) {
+                leftOut++;
+                return;
+            }
+            counts[i][j]++;
+        }
+
+        @Override
+        VariablePairs result() {
+            return new CategoricalPairs(variable, labels, counts, leftOut);
+        }
+    }
+
+    /** Counts of distinct doubles by open addressing, so the per-pair path neither boxes nor allocates. */
+    static final class DoubleCounts {
+        private double[] keys = new double[64];
+        private long[] counts = new long[64]; // 0 marks an empty slot
+        private int size;
+
+        /** Counts x once; false (and nothing counted) when x is new and {@code limit} values are counted already. */
+        boolean add(double x, int limit) {
+            int mask = keys.length - 1;
+            int i = slot(x, mask);
+            while (counts[i] != 0) {
+                if (keys[i] == x) {
+                    counts[i]++;
+                    return true;
+                }
+                i = (i + 1) & mask;
+            }
+            if (size >= limit) {
+                return false;
+            }
+            keys[i] = x;
+            counts[i] = 1;
+            if (++size * 2 > keys.length) {
+                grow();
+            }
+            return true;
+        }
+
+        private static int slot(double x, int mask) {
+            long h = Double.doubleToLongBits(x) * 0x9E3779B97F4A7C15L;
+            return (int) (h ^ (h >>> 31)) & mask;
+        }
+
+        private void grow() {
+            double[] ok = keys;
+            long[] oc = counts;
+            keys = new double[ok.length * 2];
+            counts = new long[ok.length * 2];
+            int mask = keys.length - 1;
+            for (int j = 0; j < ok.length; j++) {
+                if (oc[j] != 0) {
+                    int i = slot(ok[j], mask);
+                    while (counts[i] != 0) {
+                        i = (i + 1) & mask;
+                    }
+                    keys[i] = ok[j];
+                    counts[i] = oc[j];
+                }
+            }
+        }
+
+        interface Entry {
+            void accept(double value, long count);
+        }
+
+        void forEach(Entry e) {
+            for (int j = 0; j < keys.length; j++) {
+                if (counts[j] != 0) {
+                    e.accept(keys[j], counts[j]);
+                }
+            }
+        }
+
+        NumericDistribution distribution() {
+            double[] v = new double[size];
+            int m = 0;
+            for (int j = 0; j < keys.length; j++) {
+                if (counts[j] != 0) {
+                    v[m++] = keys[j];
+                }
+            }
+            java.util.Arrays.sort(v);
+            long[] c = new long[size];
+            for (int j = 0; j < keys.length; j++) {
+                if (counts[j] != 0) {
+                    c[java.util.Arrays.binarySearch(v, keys[j])] = counts[j];
+                }
+            }
+            return new NumericDistribution(v, c);
+        }
+    }
+}
