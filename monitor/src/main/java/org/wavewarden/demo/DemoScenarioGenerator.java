@@ -245,7 +245,7 @@ public final class DemoScenarioGenerator {
         return (year * 10 + quarter) * 10_000_000L;
     }
 
-    static int pick(SplittableRandom rnd, double[] shares) {
+    private static int pick(SplittableRandom rnd, double[] shares) {
         double u = rnd.nextDouble();
         double cumulative = 0;
         for (int k = 0; k < shares.length - 1; k++) {

@@ -179,10 +179,6 @@ public final class PanelScenarioGenerator {
         }
     }
 
-    /** The answers of one household in one release, as published. */
-    private record Row(Household h, String weight, String[] fields) {
-    }
-
     private Map<String, String> simulate() {
         List<Village> villages = villages();
         Set<Integer> storm = stormVillages(villages.size());
@@ -313,9 +309,9 @@ public final class PanelScenarioGenerator {
                 h.size = 1 + pick(draw, HOUSEHOLD_SIZE);
             }
 
-            change = rooms.nextDouble();
+            // The panel follows the household in its home: rooms never change, so rooms are not compared paired.
             draw = rooms.nextDouble();
-            if (entering || change < 0.01) {
+            if (entering) {
                 h.rooms = 1 + pick(draw, ROOMS);
             }
 
@@ -331,8 +327,8 @@ public final class PanelScenarioGenerator {
                 h.employment = pick(draw, shares);
             }
 
-            double z = DemoScenarioGenerator.normal(hours);
             double noise = DemoScenarioGenerator.normal(hours);
+            double z = DemoScenarioGenerator.normal(hours);
             if (entering) {
                 h.zHours = z;
             }
@@ -441,7 +437,8 @@ public final class PanelScenarioGenerator {
             row[2] = Long.toString(h.id);
             row[3] = DISTRICTS[d];
             row[4] = h.village.label();
-            row[5] = BigDecimal.valueOf(totals[d] * h.adjustment / adjustments[d]).setScale(3, RoundingMode.HALF_EVEN)
+            // the exact binary value rounded, not Double.toString's digits, which differ between JDK versions
+            row[5] = new BigDecimal(totals[d] * h.adjustment / adjustments[d]).setScale(3, RoundingMode.HALF_EVEN)
                     .toPlainString();
             row[6] = Integer.toString(h.size);
             row[7] = Integer.toString(h.rooms);
