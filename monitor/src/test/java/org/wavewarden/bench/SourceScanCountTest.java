@@ -3,13 +3,13 @@ package org.wavewarden.bench;
 import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
-import org.wavewarden.config.ConfigLoader;
 import org.wavewarden.config.Identifiers;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.pipeline.Session;
 import org.wavewarden.pipeline.WaveJudge;
 import org.wavewarden.read.BinaryWaveScanner;
 import org.wavewarden.read.WaveScanner;
+import org.wavewarden.testing.SyntheticDatasets;
 import org.wavewarden.testing.TestDatabase;
 
 import java.sql.Connection;
@@ -37,13 +37,7 @@ class SourceScanCountTest {
             table(c, "narrow_many", 10, 11);
             table(c, "wide_many", 40, 11);
         }
-        StringBuilder yaml = new StringBuilder("source:\n  jdbcUrl: \"" + url + "\"\n  user: postgres\n"
-                + "results:\n  schema: scan_results\ndatasets:\n");
-        for (String t : new String[] {"narrow_few", "wide_few", "narrow_many", "wide_many"}) {
-            yaml.append("  - name: ").append(t).append("\n    table: gen.").append(t)
-                    .append("\n    waveColumn: wave\n    exclude: [respondent_id]\n");
-        }
-        config = ConfigLoader.parse(yaml.toString());
+        config = SyntheticDatasets.config(url, "scan_results", "narrow_few", "wide_few", "narrow_many", "wide_many");
         session = Session.open(config, null, Map.of());
         session.migrate();
     }

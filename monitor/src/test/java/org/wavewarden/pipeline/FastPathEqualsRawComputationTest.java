@@ -5,7 +5,6 @@ import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 import org.wavewarden.bench.SyntheticSurvey;
-import org.wavewarden.config.ConfigLoader;
 import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.judge.Finding;
@@ -17,6 +16,7 @@ import org.wavewarden.read.SourceCatalog;
 import org.wavewarden.read.SourceColumn;
 import org.wavewarden.read.WaveScanner;
 import org.wavewarden.read.WaveSource;
+import org.wavewarden.testing.SyntheticDatasets;
 import org.wavewarden.testing.TestDatabase;
 
 import java.sql.Connection;
@@ -54,13 +54,7 @@ class FastPathEqualsRawComputationTest {
             table(c, "t10", 10, 8000, -0.42);
             table(c, "t30", 30, 1500, 0.73);
         }
-        StringBuilder yaml = new StringBuilder("source:\n  jdbcUrl: \"" + url + "\"\n  user: postgres\n"
-                + "results:\n  schema: raw_results\ndatasets:\n");
-        for (String t : new String[] {"t20", "t10", "t30"}) {
-            yaml.append("  - name: ").append(t).append("\n    table: gen.").append(t)
-                    .append("\n    waveColumn: wave\n    exclude: [respondent_id]\n");
-        }
-        config = ConfigLoader.parse(yaml.toString());
+        config = SyntheticDatasets.config(url, "raw_results", "t20", "t10", "t30");
         session = Session.open(config, null, Map.of());
         session.migrate();
     }
