@@ -7,9 +7,13 @@ import org.wavewarden.config.WardenConfig;
 import org.wavewarden.db.EmbeddedServer;
 import org.wavewarden.deliver.FindingsReport;
 import org.wavewarden.deliver.MarkdownDigest;
+import org.wavewarden.deliver.ReleaseDigest;
+import org.wavewarden.deliver.ReleaseReport;
 import org.wavewarden.load.CsvWaveImporter;
 import org.wavewarden.pipeline.CatalogCheck;
+import org.wavewarden.pipeline.DigestAssembler;
 import org.wavewarden.pipeline.JudgedWave;
+import org.wavewarden.pipeline.ReleaseJudge;
 import org.wavewarden.pipeline.Session;
 import org.wavewarden.pipeline.WaveJudge;
 
@@ -25,63 +29,123 @@ import java.sql.Connection;
 import java.sql.DriverManager;
 import java.sql.SQLException;
 import java.time.Clock;
+import java.time.Instant;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 
 /**
- * The demo end to end: starts an embedded PostgreSQL server, creates the demo's source table, imports every demo
- * wave with the same CSV importer users run, judges each wave against the previous one and writes the outputs.
- * The scenario, its config and its schema travel inside the jar, so the demo needs nothing but Java.
+ * The demo end to end: starts an embedded PostgreSQL server, creates the demo's source tables, imports every wave of
+ * both demo datasets with the same CSV importer users run, judges each wave against the previous one, compares the
+ * two publications of the panel's revised wave and writes the outputs. The scenario, its config and its schema
+ * travel inside the jar, so the demo needs nothing but Java.
+ *
+ * <p>Outputs: for the household survey, {@code digest.html} and {@code digest.md} in {@code outDir} and
+ * {@code findings.json} + {@code digest.md} per wave in {@code outDir/<wave>/}; for the panel the same under
+ * {@code outDir/harrowmere-panel/}, and the release comparison's {@code releases.json} and {@code releases.md} under
+ * {@code outDir/harrowmere-panel/releases/<wave>/}.
  */
 public final class DemoRun {
+
+    /** The folder, below the demo's output folder, that holds the panel's outputs. */
+    public static final String PANEL_FOLDER = "harrowmere-panel";
 
     private DemoRun() {
     }
 
-    public record Outcome(Path outDir, List<FindingsReport> reports) {
+    /**
+     * What the demo judged and wrote.
+     *
+     * @param outDir       the output folder
+     * @param reports      the household survey's judged waves, in time order
+     * @param panelReports the panel's judged waves, in time order
+     * @param release      the comparison of the panel's revised wave with its first publication
+     * @param outputs      every file written, in the order written
+     */
+    public record Outcome(Path outDir, List<FindingsReport> reports, List<FindingsReport> panelReports,
+                          ReleaseReport release, List<Path> outputs) {
     }
 
     public static Outcome run(Path outDir, PrintWriter out) {
         try (EmbeddedServer server = EmbeddedServer.start()) {
             out.println("started an embedded PostgreSQL server on 127.0.0.1:" + server.port());
             WardenConfig config = ConfigLoader.parse(resource("/config/demo.yaml"));
-            DatasetConfig d = config.datasets().get(0);
+            DatasetConfig household = config.datasets().get(0);
+            DatasetConfig panel = config.datasets().get(1);
             createSourceTables(server);
             Path staging = Files.createTempDirectory("wavewarden-demo");
             try (Connection c = DriverManager.getConnection(server.jdbcUrl())) {
-                for (String file : DemoScenarioGenerator.WAVES.stream().map(DemoWave::fileName).toList()) {
-                    Path csv = staging.resolve(file);
-                    try (InputStream in = DemoRun.class.getResourceAsStream("/demo-data/waves/" + file)) {
-                        Files.copy(in, csv, StandardCopyOption.REPLACE_EXISTING);
-                    }
-                    String wave = file.replaceFirst("\\.csv(\\.gz)?$", "");
-                    var r = CsvWaveImporter.load(c, Identifiers.TableName.parse("table", d.table()), d.waveColumn(),
-                            wave, csv, false, null);
-                    out.println("imported wave " + wave + ": " + r.rows() + " rows");
-                }
+                importWaves(c, household, "/demo-data/waves/",
+                        DemoScenarioGenerator.WAVES.stream().map(DemoWave::fileName).toList(), staging, out);
+                importWaves(c, panel, "/demo-data/panel/",
+                        PanelScenarioGenerator.WAVES.stream().map(PanelScenarioGenerator::fileName).toList(), staging,
+                        out);
             }
-            List<FindingsReport> reports = new ArrayList<>();
+            List<Path> outputs = new ArrayList<>();
+            List<FindingsReport> reports;
+            List<FindingsReport> panelReports;
+            ReleaseReport release;
+            Path panelDir = outDir.resolve(PANEL_FOLDER);
             try (Session s = Session.open(config, server, Map.of())) {
                 s.migrate();
                 s.source().useHandle(h -> CatalogCheck.verify(h, config));
-                WaveJudge judge = new WaveJudge(s, Clock.systemUTC());
-                for (var w : judge.waves(d)) {
-                    JudgedWave j = judge.judge(d, w.wave(), null, outDir.resolve(w.wave()), null);
-                    reports.add(j.report());
-                    out.println(summary(j));
-                }
-                Files.createDirectories(outDir);
-                Files.writeString(outDir.resolve("digest.html"), new org.wavewarden.pipeline.DigestAssembler(s)
-                        .html(d, reports, java.time.Instant.now()), StandardCharsets.UTF_8);
+                reports = judgeAll(s, household, outDir, out, outputs);
+                panelReports = judgeAll(s, panel, panelDir, out, outputs);
+                Path releaseDir = panelDir.resolve("releases").resolve(PanelScenarioGenerator.REVISED_WAVE);
+                release = new ReleaseJudge(s, Clock.systemUTC()).compare(panel, PanelScenarioGenerator.REVISED_WAVE,
+                        null, null, releaseDir, null);
+                out.println("compared the releases of " + panel.name() + " wave " + release.wave() + ": "
+                        + release.after() + " against " + release.before());
+                out.print(ReleaseDigest.summary(release, false));
+                outputs.add(releaseDir.resolve("releases.json"));
+                outputs.add(releaseDir.resolve("releases.md"));
             }
-            Files.writeString(outDir.resolve("digest.md"), MarkdownDigest.render(reports), StandardCharsets.UTF_8);
-            return new Outcome(outDir, reports);
+            out.println("wrote " + outputs.size() + " files:");
+            outputs.forEach(p -> out.println("    " + outDir.relativize(p)));
+            return new Outcome(outDir, reports, panelReports, release, List.copyOf(outputs));
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         } catch (SQLException e) {
             throw new IllegalStateException("demo database step failed: " + e.getMessage(), e);
         }
+    }
+
+    private static void importWaves(Connection c, DatasetConfig d, String folder, List<String> files, Path staging,
+                                    PrintWriter out) throws IOException, SQLException {
+        for (String file : files) {
+            Path csv = staging.resolve(d.name() + "-" + file);
+            try (InputStream in = DemoRun.class.getResourceAsStream(folder + file)) {
+                if (in == null) {
+                    throw new IllegalStateException("the build is missing " + folder + file);
+                }
+                Files.copy(in, csv, StandardCopyOption.REPLACE_EXISTING);
+            }
+            String wave = file.replaceFirst("\\.csv(\\.gz)?$", "");
+            var r = CsvWaveImporter.load(c, Identifiers.TableName.parse("table", d.table()), d.waveColumn(), wave,
+                    csv, false, null);
+            out.println("imported " + d.name() + " wave " + wave + ": " + r.rows() + " rows");
+        }
+    }
+
+    /** Judges every wave of a dataset and writes its findings and digests under {@code dir}. */
+    private static List<FindingsReport> judgeAll(Session s, DatasetConfig d, Path dir, PrintWriter out,
+                                                 List<Path> outputs) throws IOException {
+        List<FindingsReport> reports = new ArrayList<>();
+        WaveJudge judge = new WaveJudge(s, Clock.systemUTC());
+        for (var w : judge.waves(d)) {
+            JudgedWave j = judge.judge(d, w.wave(), null, dir.resolve(w.wave()), null);
+            reports.add(j.report());
+            outputs.add(dir.resolve(w.wave()).resolve("findings.json"));
+            outputs.add(dir.resolve(w.wave()).resolve("digest.md"));
+            out.println(d.name() + ": " + summary(j));
+        }
+        Files.createDirectories(dir);
+        Files.writeString(dir.resolve("digest.html"), new DigestAssembler(s).html(d, reports, Instant.now()),
+                StandardCharsets.UTF_8);
+        Files.writeString(dir.resolve("digest.md"), MarkdownDigest.render(reports), StandardCharsets.UTF_8);
+        outputs.add(dir.resolve("digest.html"));
+        outputs.add(dir.resolve("digest.md"));
+        return reports;
     }
 
     static String summary(JudgedWave j) {
@@ -98,6 +162,7 @@ public final class DemoRun {
         try (Connection c = DriverManager.getConnection(server.jdbcUrl());
              var st = c.createStatement()) {
             st.execute(resource("/db/demo/V1__demo_source_tables.sql"));
+            st.execute(resource("/db/demo/V2__demo_panel_table.sql"));
         }
     }
 

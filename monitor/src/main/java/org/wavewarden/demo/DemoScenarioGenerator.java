@@ -218,6 +218,11 @@ public final class DemoScenarioGenerator {
     }
 
     private SplittableRandom stream(int waveIndex, String variable) {
+        return stream(seed, waveIndex, variable);
+    }
+
+    /** The random stream of one (wave, variable) pair under a seed; shared with the panel scenario. */
+    static SplittableRandom stream(long seed, int waveIndex, String variable) {
         long h = seed;
         h = mix(h + 0x9E3779B97F4A7C15L * (waveIndex + 1));
         for (int k = 0; k < variable.length(); k++) {
@@ -252,7 +257,7 @@ public final class DemoScenarioGenerator {
         return shares.length - 1;
     }
 
-    private static double normal(SplittableRandom rnd) {
+    static double normal(SplittableRandom rnd) {
         // Box and Muller (1958), Ann. Math. Statist. 29; 1 - u keeps the logarithm finite
         double u1 = 1.0 - rnd.nextDouble();
         double u2 = rnd.nextDouble();

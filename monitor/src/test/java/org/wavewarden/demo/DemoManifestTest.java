@@ -3,12 +3,19 @@ package org.wavewarden.demo;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.dataformat.yaml.YAMLFactory;
+import org.junit.jupiter.api.Assumptions;
 import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.DynamicTest;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.TestFactory;
 import org.junit.jupiter.api.io.TempDir;
+import org.wavewarden.compare.WeightedComparator;
+import org.wavewarden.compare.release.ReleaseRevision;
 import org.wavewarden.deliver.Alerts;
 import org.wavewarden.deliver.FindingsFiles;
 import org.wavewarden.deliver.FindingsReport;
+import org.wavewarden.deliver.Json;
+import org.wavewarden.deliver.ReleaseReport;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
 
@@ -21,15 +28,20 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Optional;
+import java.util.Set;
+import java.util.TreeMap;
+import java.util.stream.Stream;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 /**
- * The demo end to end on an embedded PostgreSQL server, held to the manifest of planted events
- * ({@code demo-data/manifest.yaml}): every plant is found with its kind, variable, wave and verdict; every other
- * comparison is STABLE (or what the manifest says for that variable); and no data-quality alert appears that no
- * plant explains.
+ * The demo end to end on an embedded PostgreSQL server, held to the manifests of planted events: for the household
+ * survey ({@code demo-data/manifest.yaml}) every plant is found with its kind, variable, wave and verdict, every other
+ * comparison is STABLE (or what the manifest says for that variable), and no data-quality alert appears that no
+ * plant explains; for the panel ({@code demo-data/panel-manifest.yaml}) every plant is found with its verdict and
+ * with the effect R computed from the committed files, every other finding is STABLE, no alert is left unexplained,
+ * and the release comparison of the revised wave reports the exact counts.
  */
 class DemoManifestTest {
 
@@ -38,17 +50,24 @@ class DemoManifestTest {
     static Map<String, FindingsReport> byWave = new LinkedHashMap<>();
     static JsonNode manifest;
     static List<String> waves = new ArrayList<>();
+    static DemoRun.Outcome outcome;
+    static String console;
+    static Map<String, FindingsReport> panelByWave = new LinkedHashMap<>();
+    static JsonNode panelManifest;
 
     @BeforeAll
     static void runTheDemo() throws Exception {
-        StringWriter console = new StringWriter();
-        DemoRun.Outcome outcome = DemoRun.run(out, new PrintWriter(console, true));
+        StringWriter text = new StringWriter();
+        outcome = DemoRun.run(out, new PrintWriter(text, true));
+        console = text.toString();
         for (FindingsReport r : outcome.reports()) {
             byWave.put(r.wave(), r);
             waves.add(r.wave());
         }
-        manifest = new ObjectMapper(new YAMLFactory()).readTree(Files.readString(Path.of("..", "demo-data",
-                "manifest.yaml")));
+        outcome.panelReports().forEach(r -> panelByWave.put(r.wave(), r));
+        ObjectMapper yaml = new ObjectMapper(new YAMLFactory());
+        manifest = yaml.readTree(Files.readString(Path.of("..", "demo-data", "manifest.yaml")));
+        panelManifest = yaml.readTree(Files.readString(Path.of("..", "demo-data", "panel-manifest.yaml")));
     }
 
     @Test
@@ -131,6 +150,166 @@ class DemoManifestTest {
             }
         }
         assertTrue(problems.isEmpty(), String.join("\n", problems));
+    }
+
+    // ---- the panel ------------------------------------------------------------------------------------------
+
+    /** The finding kinds a panel finding can have that a verdict is planted for. */
+    private static final Set<FindingKind> JUDGED = Set.of(FindingKind.SHIFT, FindingKind.PANEL_SHIFT,
+            FindingKind.RELATIONSHIP_CHANGE, FindingKind.REFERENCE, FindingKind.SHAPE_CHANGE);
+
+    @Test
+    void everyPanelWaveIsJudgedAndWrittenToTheContract() {
+        assertEquals(PanelScenarioGenerator.WAVES, List.copyOf(panelByWave.keySet()));
+        Path dir = out.resolve(DemoRun.PANEL_FOLDER);
+        for (String w : PanelScenarioGenerator.WAVES) {
+            FindingsReport back = FindingsFiles.read(dir.resolve(w).resolve("findings.json"));
+            assertEquals(panelManifest.get("dataset").asText(), back.dataset());
+            assertEquals(panelByWave.get(w).findings().size(), back.findings().size());
+        }
+        for (Path p : outcome.outputs()) {
+            assertTrue(Files.isRegularFile(p), "named but not written: " + p);
+            assertTrue(console.contains(out.relativize(p).toString()), "written but not named: " + p);
+        }
+        assertTrue(outcome.outputs().contains(dir.resolve("digest.html")));
+        assertTrue(outcome.outputs().contains(dir.resolve("releases").resolve("2025-Q2").resolve("releases.json")));
+    }
+
+    @TestFactory
+    Stream<DynamicTest> everyPanelPlantIsFoundWithItsVerdictAndTheEffectComputedInR() {
+        List<DynamicTest> tests = new ArrayList<>();
+        for (JsonNode p : panelManifest.get("plants")) {
+            tests.add(DynamicTest.dynamicTest(p.get("id").asText(), () -> {
+                String needs = p.path("needs").asText("");
+                Assumptions.assumeTrue(hasFeature(needs), () -> p.get("id").asText() + " needs '" + needs
+                        + "', which this build of the monitor does not have: skipped");
+                FindingsReport r = panelByWave.get(p.get("wave").asText());
+                assertEquals(p.path("against").asText(null), r.againstWave(), "judged against");
+                FindingKind kind = FindingKind.valueOf(p.get("kind").asText());
+                Finding f = find(r, p.get("variable").asText(), kind).orElseThrow(() -> new AssertionError("no "
+                        + kind + " finding for " + p.get("variable").asText() + " in " + r.wave()));
+                assertEquals(p.get("verdict").asText(), String.valueOf(f.verdict()), f.sentence());
+                JsonNode m = p.get("measured");
+                assertEquals(m.get("effect").asDouble(), f.effect().estimate(), 5e-4, "effect against R: " + f.sentence());
+                if (m.has("effectCI")) {
+                    assertEquals(m.get("effectCI").get(0).asDouble(), f.effect().ciLow(), 5e-4, "interval against R");
+                    assertEquals(m.get("effectCI").get(1).asDouble(), f.effect().ciHigh(), 5e-4, "interval against R");
+                }
+                if (needs.equals("design")) {
+                    assertTrue(f.test().endsWith(WeightedComparator.WITH_DESIGN), f.test());
+                }
+                if (p.has("largestFlow")) {
+                    JsonNode flow = Json.mapper().valueToTree(f.detail()).path("paired").path("largestFlows").path(0);
+                    JsonNode planted = p.get("largestFlow");
+                    assertEquals(planted.get("from").asText(), flow.path("from").asText(), "largest flow: " + flow);
+                    assertEquals(planted.get("to").asText(), flow.path("to").asText(), "largest flow: " + flow);
+                    assertEquals(planted.get("count").asLong(), flow.path("count").asLong(), "largest flow: " + flow);
+                }
+            }));
+        }
+        return tests.stream();
+    }
+
+    @Test
+    void everyPanelFindingWithoutAPlantIsStable() {
+        List<String> problems = new ArrayList<>();
+        for (FindingsReport r : panelByWave.values()) {
+            for (Finding f : r.findings()) {
+                if (JUDGED.contains(f.kind()) && panelPlant(r.wave(), f).isEmpty()
+                        && !panelManifest.get("expectedElsewhere").get("verdict").asText()
+                        .equals(String.valueOf(f.verdict()))) {
+                    problems.add(r.wave() + " " + f.variable() + " " + f.kind() + ": " + f.verdict() + " ("
+                            + f.sentence() + ")");
+                }
+            }
+        }
+        assertTrue(problems.isEmpty(), String.join("\n", problems));
+    }
+
+    @Test
+    void noPanelAlertThatNoPlantExplains() {
+        List<String> problems = new ArrayList<>();
+        for (FindingsReport r : panelByWave.values()) {
+            for (Finding f : Alerts.select(r.findings())) {
+                if (panelPlant(r.wave(), f).isEmpty()) {
+                    problems.add(r.wave() + " " + f.variable() + " " + f.kind() + ": " + f.sentence());
+                }
+            }
+        }
+        assertTrue(problems.isEmpty(), String.join("\n", problems));
+    }
+
+    @Test
+    void roomsAreComparedAsTwoSamplesButNotPairedBecauseNobodysRoomsChange() {
+        for (JsonNode v : panelManifest.get("expectedElsewhere").get("notComparedPaired")) {
+            String variable = v.get("variable").asText();
+            for (FindingsReport r : panelByWave.values()) {
+                if (r.againstWave() == null) {
+                    continue;
+                }
+                assertTrue(find(r, variable, FindingKind.PANEL_SHIFT).isEmpty(), r.wave());
+                assertTrue(find(r, variable, FindingKind.SHIFT).isPresent(), r.wave());
+                assertTrue(r.inference().stream().anyMatch(i -> i.startsWith(variable + ": not compared paired")),
+                        r.inference().toString());
+            }
+        }
+    }
+
+    @Test
+    void theRevisedReleaseIsReportedWithItsExactCounts() {
+        JsonNode planted = panelManifest.get("releases").get(0);
+        ReleaseReport report = outcome.release();
+        assertEquals(planted.get("wave").asText(), report.wave());
+        assertEquals(planted.get("before").asText(), report.before());
+        assertEquals(planted.get("after").asText(), report.after());
+        ReleaseRevision rev = report.revision();
+        assertEquals(planted.get("rowsBefore").asLong(), rev.rowsBefore());
+        assertEquals(planted.get("rowsAfter").asLong(), rev.rowsAfter());
+        assertEquals(planted.get("matched").asLong(), rev.matched());
+        assertEquals(planted.get("added").asLong(), rev.added());
+        assertEquals(planted.get("removed").asLong(), rev.removed());
+        Map<String, Long> changed = new TreeMap<>();
+        rev.variables().forEach(v -> changed.put(v.variable(), v.changedCells()));
+        Map<String, Long> expected = new TreeMap<>();
+        planted.get("changedCells").fields().forEachRemaining(e -> expected.put(e.getKey(), e.getValue().asLong()));
+        assertEquals(expected, changed);
+        rev.variables().stream().filter(v -> v.variable().equals("income_monthly")).flatMap(v -> v.examples().stream())
+                .forEach(e -> assertEquals(100 * Long.parseLong(e.after()), Long.parseLong(e.before()), e.key()));
+        for (JsonNode f : planted.get("findings")) {
+            Finding found = rev.findings().stream().filter(x -> x.variable().equals(f.get("variable").asText())
+                    && x.kind().name().equals(f.get("kind").asText())).findFirst().orElseThrow();
+            assertEquals(f.get("verdict").asText(), String.valueOf(found.verdict()), found.sentence());
+        }
+        rev.findings().stream().filter(x -> x.kind() == FindingKind.SHIFT).forEach(x -> assertEquals(
+                planted.get("distributionsElsewhere").asText(), String.valueOf(x.verdict()), x.sentence()));
+        Path dir = out.resolve(DemoRun.PANEL_FOLDER).resolve("releases").resolve(report.wave());
+        assertTrue(Files.isRegularFile(dir.resolve("releases.json")) && Files.isRegularFile(dir.resolve("releases.md")));
+        assertTrue(console.contains(planted.get("added").asText() + " added")
+                && console.contains(planted.get("removed").asText() + " removed"), console);
+    }
+
+    /** The plant that names this finding (same wave, variable and kind), if any. */
+    static Optional<JsonNode> panelPlant(String wave, Finding f) {
+        for (JsonNode p : panelManifest.get("plants")) {
+            if (p.get("wave").asText().equals(wave) && p.get("variable").asText().equals(f.variable())
+                    && p.get("kind").asText().equals(f.kind().name())) {
+                return Optional.of(p);
+            }
+        }
+        return Optional.empty();
+    }
+
+    /** Whether this build of the monitor has a feature a plant depends on. */
+    static boolean hasFeature(String feature) {
+        return switch (feature) {
+            case "" -> true;
+            case "panel" -> Stream.of(FindingKind.values()).anyMatch(k -> k.name().equals("PANEL_SHIFT"));
+            case "relationships" -> Stream.of(FindingKind.values()).anyMatch(k -> k.name().equals("RELATIONSHIP_CHANGE"));
+            case "design" -> panelByWave.values().stream().flatMap(r -> r.findings().stream())
+                    .anyMatch(f -> f.kind() == FindingKind.SHIFT && f.test() != null
+                            && f.test().endsWith(WeightedComparator.WITH_DESIGN));
+            default -> throw new IllegalArgumentException("unknown feature '" + feature + "' in the panel manifest");
+        };
     }
 
     /** A data-quality alert is explained by a plant on its variable whose condition covers its wave. */
