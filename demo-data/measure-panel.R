@@ -156,12 +156,18 @@ relationship <- function(b, c, x, y) {
 }
 register <- c(0.30, 0.34, 0.15, 0.13, 0.06, 0.02)   # household size 1..6 in the county register
 benchmark <- function(d, w) {
-  x <- table(factor(d$household_size, 1:6)); n <- sum(x)
-  t <- chisq.test(x, p = register); x2 <- unname(t$statistic)
-  # Cohen's w and its interval from the noncentral chi-square (the noncentrality whose upper/lower tail is 2.5%)
-  ncp <- function(q) if (pchisq(x2, 5, 0) < q) 0 else uniroot(function(l) pchisq(x2, 5, l) - q, c(0, 10 * x2 + 100))$root
-  say("%s household size against the register: shares %s; X2 %s on 5 df, p %s; Cohen's w %s (95%% CI %s to %s)", w,
-      paste(sprintf("%.4f", x / n), collapse = " "), f4(x2), f4(t$p.value), f4(sqrt(x2 / n)),
+  # Weighted, design-based, as the monitor judges a weighted dataset: svygofchisq on the weighted totals, and
+  # Cohen's w of the weighted shares with its noncentral chi-square interval on the Satterthwaite scale (X2 / scale on
+  # its df, the effective size chosen so that the point estimate is w).
+  d$hs <- factor(d$household_size, 1:6)
+  des <- designs(d, TRUE)
+  g <- svygofchisq(~hs, register, des)
+  x2 <- unname(g$statistic); scale <- unname(g$parameter[["scale"]]); df <- unname(g$parameter[["df"]])
+  shares <- unname(coef(svymean(~hs, des)))
+  ww <- sqrt(sum((shares - register)^2 / register)); s <- x2 / scale; n <- s / ww^2
+  ncp <- function(q) if (pchisq(s, df, 0) < q) 0 else uniroot(function(l) pchisq(s, df, l) - q, c(0, 10 * s + 100))$root
+  say("%s household size against the register: weighted shares %s; X2 %s, scale %s, df %s, p %s; Cohen's w %s (95%% CI %s to %s)",
+      w, paste(sprintf("%.4f", shares), collapse = " "), f4(x2), f4(scale), f4(df), f4(g$p.value), f4(ww),
       f4(sqrt(ncp(0.975) / n)), f4(sqrt(ncp(0.025) / n)))
 }
 

@@ -3,8 +3,10 @@ package org.wavewarden.compare;
 import org.apache.commons.math3.distribution.NormalDistribution;
 import org.apache.commons.math3.distribution.TDistribution;
 import org.apache.commons.math3.random.RandomGenerator;
+import org.wavewarden.compare.categorical.CohensW;
 import org.wavewarden.compare.categorical.CramersV;
 import org.wavewarden.compare.design.DesignEstimate;
+import org.wavewarden.compare.design.DesignGoodnessOfFit;
 import org.wavewarden.compare.design.DesignMeanDifference;
 import org.wavewarden.compare.design.DesignMeanDifferenceResult;
 import org.wavewarden.compare.design.PsuTally;
@@ -274,6 +276,53 @@ public final class WeightedComparator {
                 second.df(), second.pValue());
         return new Comparison(variable, FindingKind.SHIFT, test, effect, t.value(), t.source(), baseline.n(),
                 current.n(), change, d);
+    }
+
+    /**
+     * One wave's weighted shares against configured reference shares (benchmark margins): R's {@code svygofchisq}
+     * ({@link DesignGoodnessOfFit}), under the weights-only design or, with {@code design}, the stratified cluster
+     * design. The effect is Cohen's w of the weighted shares, {@code sqrt(sum (p_j - pi_j)^2 / pi_j)}, with the
+     * noncentral chi-square interval taken on the Satterthwaite scale ({@code X2 / scale} on its df, the effective
+     * size chosen so that its point estimate is w). The tally's values are the positions of {@code categories}.
+     *
+     * @param expected the reference share of each category, summing to 1
+     * @param design   the wave's PSU view over the same positions, or null for weights only
+     */
+    public Comparison referenceShares(String variable, List<String> categories, WeightedTally current,
+                                      double[] expected, PsuTally design, Threshold configured) {
+        DesignGoodnessOfFit.Result r = design == null ? DesignGoodnessOfFit.test(current, expected)
+                : DesignGoodnessOfFit.test(design, expected);
+        double w2 = 0;
+        int worst = 0;
+        double[] p = r.shares();
+        for (int j = 0; j < expected.length; j++) {
+            w2 += (p[j] - expected[j]) * (p[j] - expected[j]) / expected[j];
+            if (Math.abs(p[j] - expected[j]) > Math.abs(p[worst] - expected[worst])) {
+                worst = j;
+            }
+        }
+        Weighting wc = Weighting.of(current);
+        double scaled = r.scaledStatistic();
+        double effectiveN = w2 > 0 ? scaled / w2 : wc.effectiveSampleSize();
+        EffectSize ws = CohensW.fromStatistic(scaled, r.test().df(), effectiveN, confidence);
+        EffectSize w = new EffectSize("Cohen's w (weighted shares)", ws.estimate(), ws.ciLow(), ws.ciHigh(),
+                confidence);
+        Thresholds.Resolved t = Thresholds.resolve(configured, w.name(), Thresholds.CRAMERS_V, null);
+        DesignEstimate share = design == null ? TallyEstimates.mean(current.indicator(worst))
+                : design.indicator(worst).totals().mean();
+        double half = new NormalDistribution().inverseCumulativeProbability(0.5 + confidence / 2)
+                * share.standardError();
+        double d = share.estimate() - expected[worst];
+        Change change = new Change("weighted share answering '" + categories.get(worst) + "' against its reference",
+                expected[worst], share.estimate(), true, null, d, d - half, d + half, "the first value is the"
+                + " reference; " + String.format(Locale.ROOT, "Satterthwaite scale %.3g on %.3g df; ", r.scale(),
+                r.test().df()) + "Kish effective sample size " + String.format(Locale.ROOT, "%.0f",
+                wc.effectiveSampleSize()) + ", design effect due to weighting " + String.format(Locale.ROOT, "%.2f",
+                wc.designEffect()));
+        TestResult test = new TestResult(DesignGoodnessOfFit.NAME + (design == null ? "" : WITH_DESIGN),
+                r.test().statistic(), r.test().df(), r.test().pValue());
+        return new Comparison(variable, FindingKind.REFERENCE, test, w, t.value(), t.source(), 0, current.n(), change,
+                wc);
     }
 
     /**

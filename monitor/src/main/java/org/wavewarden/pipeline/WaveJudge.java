@@ -307,7 +307,7 @@ public final class WaveJudge {
                                       List<Comparison> comparisons, List<Finding> plain) {
         ScreenedVariable sc = VariableScreen.screen(ct, v, cw);
         ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v, bw);
-        (sc.weighted() == null ? reference(comparator, v, sc) : WeightedComparisons.reference(weighted, v, sc)
+        (sc.weighted() == null ? reference(comparator, v, sc) : WeightedComparisons.reference(weighted, v, sc, ct, cd)
                 .or(() -> reference(comparator, v, sc))).ifPresent(comparisons::add);
         DataQualityFindings.Result dq = DataQualityFindings.of(v, ct, sc, sb, comparator);
         plain.addAll(dq.findings());

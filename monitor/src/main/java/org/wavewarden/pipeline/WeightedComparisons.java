@@ -105,14 +105,73 @@ final class WeightedComparisons {
         return comparator.shape(v.name(), b.weighted(), c.weighted());
     }
 
-    /** The weighted reference comparison, when the variable has a reference mean; empty otherwise. */
-    static Optional<Comparison> reference(WeightedComparator comparator, VariableConfig v, ScreenedVariable c) {
-        if (v.reference() == null || v.reference().mean() == null || c.numeric() == null || c.numeric().size() < 2
-                || c.validN() < 2 || !(c.weighted().totalWeight() > 0)) {
+    /**
+     * The weighted reference comparison, when the variable has a reference mean or reference shares; empty
+     * otherwise. With the wave's design (null: none), the shares' variance comes from its strata and clusters.
+     */
+    static Optional<Comparison> reference(WeightedComparator comparator, VariableConfig v, ScreenedVariable c,
+                                          ColumnTally ct, DesignSummary cd) {
+        if (v.reference() == null || c.validN() < 2 || !(c.weighted().totalWeight() > 0)) {
             return Optional.empty();
         }
-        return Optional.of(comparator.referenceMean(v.name(), c.weighted(), v.reference().mean(), v.threshold(),
-                v.unit()));
+        if (v.reference().mean() != null && c.numeric() != null && c.numeric().size() > 1) {
+            return Optional.of(comparator.referenceMean(v.name(), c.weighted(), v.reference().mean(), v.threshold(),
+                    v.unit()));
+        }
+        if (v.reference().shares().isEmpty() || c.categories() == null) {
+            return Optional.empty();
+        }
+        List<String> cats = new java.util.ArrayList<>(v.reference().shares().keySet());
+        double listed = v.reference().shares().values().stream().mapToDouble(Double::doubleValue).sum();
+        boolean other = listed < 1 - 1e-9;
+        int k = cats.size() + (other ? 1 : 0);
+        double[] expected = new double[k];
+        for (int j = 0; j < cats.size(); j++) {
+            expected[j] = v.reference().shares().get(cats.get(j));
+        }
+        List<String> labels = new java.util.ArrayList<>(cats);
+        if (other) {
+            expected[k - 1] = 1 - listed;
+            labels.add("any other answer");
+        }
+        // Each of the wave's categories goes to its listed position, or to "other".
+        List<String> own = c.categories().categories();
+        int[] to = new int[own.size()];
+        for (int i = 0; i < own.size(); i++) {
+            int j = cats.indexOf(own.get(i));
+            to[i] = j >= 0 ? j : other ? k - 1 : -1;
+        }
+        double[] values = new double[k];
+        long[] n = new long[k];
+        double[] w = new double[k];
+        double[] q = new double[k];
+        for (int j = 0; j < k; j++) {
+            values[j] = j;
+        }
+        for (int i = 0; i < own.size(); i++) {
+            if (to[i] >= 0) {
+                n[to[i]] += c.weighted().counts()[i];
+                w[to[i]] += c.weighted().weights()[i];
+                q[to[i]] += c.weighted().squaredWeights()[i];
+            }
+        }
+        WeightedTally tally = new WeightedTally(values, n, w, q);
+        org.wavewarden.compare.design.PsuTally design = null;
+        if (cd != null) {
+            DesignViews.View view = DesignViews.categories(cd, ct.column(), c, own);
+            if (view.unavailable() == null) {
+                double[][] byPsu = new double[k][view.tally().psuCount()];
+                for (int i = 0; i < own.size(); i++) {
+                    for (int h = 0; to[i] >= 0 && h < byPsu[to[i]].length; h++) {
+                        byPsu[to[i]][h] += view.tally().weight()[i][h];
+                    }
+                }
+                design = new org.wavewarden.compare.design.PsuTally(values, n, view.tally().psuStratum(), byPsu);
+            } else {
+                LOG.info("{} reference shares with its weights alone: {}", v.name(), view.unavailable());
+            }
+        }
+        return Optional.of(comparator.referenceShares(v.name(), labels, tally, expected, design, v.threshold()));
     }
 
     /** The 0/1 view of a binary variable: 1 for the success answer. */

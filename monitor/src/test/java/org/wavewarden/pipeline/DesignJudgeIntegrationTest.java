@@ -47,12 +47,17 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
  * des &lt;- svydesign(ids = ~psu, strata = ~sw, weights = ~wt, data = st, nest = TRUE)
  * svychisq(~cat + wave, des, statistic = "F"); svychisq(~cat + wave, des, statistic = "Chisq"); svyttest(y ~ wave, des)
  * se &lt;- sqrt(2) * 1.13860010265175; t &lt;- 2 / se; 2 * pt(-t, 40)
+ * p &lt;- c(0.25, 0.30, 0.45)    # the reference shares of cat in wave 2, "c" taking the rest
+ * svygofchisq(~cat, p, svydesign(ids = ~psu, strata = ~stratum, weights = ~wt, data = b, nest = TRUE))
+ * svygofchisq(~cat, p, svydesign(ids = ~1, weights = ~wt, data = b))
  * </pre>
  * gives: y 15.5023148148148 (w1) and 17.5023148148148 (w2), SE 1.13860010265175 in both (weights only:
  * 0.263477531699468); flag 0.5 (SE 0.11180339887499) and 0.511111111111111 (SE 0.10943175335329); degf 20 a wave;
  * Rao-Scott F = 0.10804 on 1.9908 and 79.6325 df, p = 0.8969; first order X2 = 0.15618, p = 0.8976; svyttest
  * difference 2, t = 1.2421 (on its 39 df; on the design's 20 + 20 = 40 df, t = 1.24206344183481 and
- * p = 0.221446454566596).
+ * p = 0.221446454566596). svygofchisq: X2 = 123.103703703704 on the weighted totals; with the design scale
+ * 1.92006888631977, df 1.99463436871122, p = 1.18311034298895e-14; with the weights alone scale 3.99525198376937,
+ * df 1.95226053502731, p = 1.87921871694695e-07; weighted shares 0.32361, 0.34167, 0.33472.
  */
 class DesignJudgeIntegrationTest {
 
@@ -79,7 +84,7 @@ class DesignJudgeIntegrationTest {
         String variables = """
                     variables:
                       - {name: y, kind: continuous, unit: points, threshold: {raw: 1.0}}
-                      - {name: cat, kind: categorical}
+                      - {name: cat, kind: categorical, reference: {shares: {a: 0.25, b: 0.30}}}
                       - {name: flag, kind: binary, successValue: "1"}
                 """;
         config = ConfigLoader.parse("source:\n  jdbcUrl: \"" + url + "\"\n  user: postgres\n"
@@ -141,6 +146,26 @@ class DesignJudgeIntegrationTest {
         rel(0.10804 * 2, d.firstOrder().statistic(), 1e-4, "first-order X2 = X2 / mean design effect");
         rel(0.8976, d.firstOrder().pValue(), 1e-4, "its p");
         rel(79.6325, d.denominatorDf(), 1e-6, "denominator df");
+    }
+
+    @Test
+    void benchmarkSharesAreTestedAsRsSvygofchisqTestsThem() {
+        for (int dataset : new int[] {0, 1}) {
+            List<Finding> f = new WaveJudge(session, Clock.systemUTC()).judge(config.datasets().get(dataset), "w2",
+                    null, null, null).report().findings();
+            Finding r = f.stream().filter(x -> x.variable().equals("cat") && x.kind() == FindingKind.REFERENCE)
+                    .findFirst().orElseThrow(() -> new AssertionError("no REFERENCE finding: " + f));
+            boolean design = dataset == 0;
+            assertEquals(org.wavewarden.compare.design.DesignGoodnessOfFit.NAME
+                    + (design ? WeightedComparator.WITH_DESIGN : ""), r.test());
+            rel(123.103703703704, r.statistic(), 1e-9, "X2 on the weighted totals");
+            // the p-value rests on the Satterthwaite scale and df, so it checks them too
+            rel(design ? 1.18311034298895e-14 : 1.87921871694695e-07, r.pValue(), 1e-6, "p");
+            double w = Math.sqrt(Math.pow(0.323611111 - 0.25, 2) / 0.25 + Math.pow(0.341666667 - 0.30, 2) / 0.30
+                    + Math.pow(0.334722222 - 0.45, 2) / 0.45);
+            rel(w, r.effect().estimate(), 1e-6, "Cohen's w of the weighted shares");
+            assertEquals(Verdict.MATERIAL, r.verdict(), r.sentence());
+        }
     }
 
     @Test

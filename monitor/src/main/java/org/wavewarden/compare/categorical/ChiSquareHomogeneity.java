@@ -89,7 +89,7 @@ public final class ChiSquareHomogeneity {
      * Upper tail of the central chi-square distribution, computed as the regularized upper incomplete gamma
      * function so that very small p-values keep their relative precision.
      */
-    static double upperTail(double x2, double df) {
+    public static double upperTail(double x2, double df) {
         if (df <= 0) {
             return 1;
         }

@@ -20,7 +20,7 @@ public final class CohensW {
         return fromStatistic(chi.test().statistic(), chi.test().df(), CramersV.n(table), confidence);
     }
 
-    static EffectSize fromStatistic(double x2, double df, double n, double confidence) {
+    public static EffectSize fromStatistic(double x2, double df, double n, double confidence) {
         if (!(confidence > 0 && confidence < 1)) {
             throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
         }
