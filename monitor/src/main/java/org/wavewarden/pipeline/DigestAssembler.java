@@ -1,5 +1,6 @@
 package org.wavewarden.pipeline;
 
+import org.wavewarden.compare.relation.RelationshipDetail;
 import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.config.VariableKind;
@@ -48,7 +49,8 @@ public final class DigestAssembler {
             List<AlertView> views = new ArrayList<>();
             for (Finding f : org.wavewarden.deliver.Alerts.select(r.findings())) {
                 VariableConfig v = variable(d, current, f.variable());
-                VariablePlot plot = v == null || current == null ? null : plot(v, f, baseline, current);
+                VariablePlot plot = f.detail() instanceof RelationshipDetail rd ? correlations(rd)
+                        : v == null || current == null ? null : plot(v, f, baseline, current);
                 Trend trend = v == null ? null : trend(d, order, r.wave(), v, f, baseline, current);
                 views.add(new AlertView(f, plot, trend));
             }
@@ -82,6 +84,17 @@ public final class DigestAssembler {
             return null;
         }
         return VariableInference.infer(current.columns().get(name)).variable();
+    }
+
+    /** A relationship alert's plot: both waves' Spearman rho and Pearson r with their intervals. */
+    static VariablePlot correlations(RelationshipDetail d) {
+        return new VariablePlot.CorrelationPlot(List.of("Spearman rho", "Pearson r"),
+                new double[][] {row(d.spearmanBaseline()), row(d.pearsonBaseline())},
+                new double[][] {row(d.spearmanCurrent()), row(d.pearsonCurrent())});
+    }
+
+    private static double[] row(org.wavewarden.compare.relation.CorrelationResult r) {
+        return new double[] {r.estimate(), r.ciLow(), r.ciHigh()};
     }
 
     static VariablePlot plot(VariableConfig v, Finding f, WaveProfile baseline, WaveProfile current) {

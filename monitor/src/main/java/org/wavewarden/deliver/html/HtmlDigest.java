@@ -203,6 +203,9 @@ public final class HtmlDigest {
         if (p instanceof VariablePlot.SharesPlot s) {
             return SvgChart.shares(variable, s, baselineWave, currentWave);
         }
+        if (p instanceof VariablePlot.CorrelationPlot c) {
+            return SvgChart.correlation(variable, c, baselineWave, currentWave);
+        }
         return SvgChart.missing(variable, (VariablePlot.MissingPlot) p, baselineWave, currentWave);
     }
 
@@ -348,6 +351,9 @@ public final class HtmlDigest {
             svg.plot .line{fill:none;stroke:var(--b);stroke-width:2}
             svg.plot .pt{fill:var(--b)}
             svg.plot .pt.cur{fill:var(--c)}
+            svg.plot .pt.c{fill:var(--c)}
+            svg.plot line.ci.b{stroke:var(--b);stroke-width:2}
+            svg.plot line.ci.c{stroke:var(--c);stroke-width:2.5}
             footer{color:var(--muted);font-size:13px;text-align:center}
             @media print{body{background:#fff}.wave{break-inside:auto;border:none}.alert{break-inside:avoid}}
             """;

@@ -420,6 +420,48 @@ public final class SvgChart {
                 divide(c, nc), baselineWave + " n = " + nb, currentWave + " n = " + nc, "% of valid answers");
     }
 
+    /** Each wave's correlations with their intervals, points and whiskers on the scale from -1 to 1. */
+    public static String correlation(String relationship, VariablePlot.CorrelationPlot p, String baselineWave,
+                                     String currentWave) {
+        int row = 34;
+        int labelWidth = 110;
+        int shown = p.labels().size();
+        Frame f = new Frame(WIDTH, 40 + shown * row + 46, labelWidth + 8, 30, 40, 46);
+        StringBuilder s = open(f, "correlation", "Correlations of " + relationship + ": " + baselineWave
+                + " against " + currentWave + ", with " + "confidence intervals");
+        legend(s, f, baselineWave + " (baseline)", currentWave + " (current)");
+        for (double t = -1; t <= 1.0001; t += 0.5) {
+            double x = f.sx(t, -1, 1);
+            s.append(String.format(Locale.ROOT, "<line class=\"grid\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>",
+                    x, f.y1(), x, f.y0()));
+            s.append(String.format(Locale.ROOT, "<text class=\"tick\" x=\"%.1f\" y=\"%.1f\" text-anchor=\"middle\">%s</text>",
+                    x, f.y0() + 14, esc(tickLabel(t, 0.5))));
+        }
+        s.append(String.format(Locale.ROOT, "<line class=\"axis\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>",
+                f.x0(), f.y0(), f.x1(), f.y0()));
+        s.append(String.format(Locale.ROOT, "<text class=\"axis-title\" x=\"%.1f\" y=\"%d\" text-anchor=\"middle\">%s</text>",
+                (f.x0() + f.x1()) / 2, f.height() - 8, esc("correlation (-1 to 1)")));
+        for (int i = 0; i < shown; i++) {
+            double y = f.y1() + i * row + 6;
+            s.append(String.format(Locale.ROOT, "<text class=\"cat\" x=\"%d\" y=\"%.1f\" text-anchor=\"end\">%s</text>",
+                    labelWidth, y + 14, esc(p.labels().get(i))));
+            whisker(s, f, "b", y + 6, p.baseline()[i], baselineWave + ", " + p.labels().get(i));
+            whisker(s, f, "c", y + 19, p.current()[i], currentWave + ", " + p.labels().get(i));
+        }
+        return s.append("</svg>").toString();
+    }
+
+    private static void whisker(StringBuilder s, Frame f, String cls, double y, double[] e, String what) {
+        double lo = f.sx(Math.max(-1, e[1]), -1, 1);
+        double hi = f.sx(Math.min(1, e[2]), -1, 1);
+        double x = f.sx(e[0], -1, 1);
+        String tip = what + ": " + number(e[0]) + " (" + number(e[1]) + " to " + number(e[2]) + ")";
+        s.append(String.format(Locale.ROOT, "<g class=\"whisker %s\"><title>%s</title><line class=\"ci %s\" x1=\"%.1f\""
+                + " y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/><circle class=\"pt %s\" cx=\"%.1f\" cy=\"%.1f\" r=\"4\"/>"
+                + "<text class=\"val %s\" x=\"%.1f\" y=\"%.1f\">%s</text></g>", cls, esc(tip), cls, lo, y, hi, y, cls,
+                x, y, cls, hi + 5, y + 4, esc(number(e[0]))));
+    }
+
     /** Missing rate by reason, both waves, as a share of the wave's rows. */
     public static String missing(String variable, VariablePlot.MissingPlot p, String baselineWave,
                                  String currentWave) {

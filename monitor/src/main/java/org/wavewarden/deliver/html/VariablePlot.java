@@ -10,7 +10,24 @@ import java.util.Objects;
  * Baseline comes first everywhere, as in the comparison stage.
  */
 public sealed interface VariablePlot permits VariablePlot.NumericPlot, VariablePlot.SharesPlot,
-        VariablePlot.MissingPlot {
+        VariablePlot.MissingPlot, VariablePlot.CorrelationPlot {
+
+    /**
+     * A relationship of two variables: each wave's correlation (Spearman's rho, and Pearson's r beside it) with its
+     * confidence interval, drawn as points with whiskers on the scale from -1 to 1.
+     *
+     * @param labels    the measures, e.g. "Spearman rho", "Pearson r"
+     * @param baseline  per measure {estimate, low, high} in the baseline wave
+     * @param current   per measure {estimate, low, high} in the current wave
+     */
+    record CorrelationPlot(List<String> labels, double[][] baseline, double[][] current) implements VariablePlot {
+        public CorrelationPlot {
+            if (labels.size() != baseline.length || labels.size() != current.length) {
+                throw new IllegalArgumentException("one row of baseline and current per label");
+            }
+            labels = List.copyOf(labels);
+        }
+    }
 
     /**
      * A numeric variable: both waves' valid values, drawn as overlaid histograms.

@@ -20,7 +20,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 
 /**
  * The demo's own HTML digests, the household survey's and the panel's, opened in headless Chromium: every alert is
- * on the page, each with its plot except a relationship change, for which the digest draws none yet.
+ * on the page, each with its plot (a relationship change with both waves' correlations and their intervals).
  */
 class DemoDigestBrowserTest {
 
@@ -48,10 +48,11 @@ class DemoDigestBrowserTest {
         }
         assertEquals(alerts, articles.size(), page + ": one article per alert");
         for (String a : articles) {
-            // The digest's plots show one variable's distributions; a relationship change (x ~ y) has none yet.
-            boolean relationship = a.contains("The Spearman correlation of ");
-            assertTrue(relationship || a.contains("class=\"plot"), page + ": an alert without its plot: "
+            assertTrue(a.contains("class=\"plot"), page + ": an alert without its plot: "
                     + a.substring(0, Math.min(300, a.length())));
+            if (a.contains("data-kind=\"RELATIONSHIP_CHANGE\"") || a.contains("The Spearman correlation of ")) {
+                assertTrue(a.contains("class=\"plot correlation"), "a relationship alert draws its correlations");
+            }
         }
         assertTrue(dom.contains("screening aids, not findings"));
         assertTrue(Files.size(page) > 10_000);
