@@ -1,6 +1,5 @@
 package org.wavewarden.bench;
 
-import org.jdbi.v3.core.Handle;
 import org.postgresql.PGConnection;
 import org.wavewarden.config.ConfigLoader;
 import org.wavewarden.config.DatasetConfig;
@@ -9,11 +8,8 @@ import org.wavewarden.config.WardenConfig;
 import org.wavewarden.db.EmbeddedServer;
 import org.wavewarden.pipeline.Session;
 import org.wavewarden.pipeline.WaveJudge;
-import org.wavewarden.profile.ColumnType;
 import org.wavewarden.profile.WaveProfile;
 import org.wavewarden.read.BinaryWaveScanner;
-import org.wavewarden.read.SourceCatalog;
-import org.wavewarden.read.SourceColumn;
 import org.wavewarden.read.WaveScanner;
 import org.wavewarden.read.WaveSource;
 

@@ -29,13 +29,6 @@ public record ScreenedVariable(long rows, long sqlNulls, Map<String, Long> missi
                                Map<String, Long> invalid, NumericDistribution numeric, CategoryCounts categories,
                                WeightedTally weighted) {
 
-    /** An unweighted screen. */
-    public ScreenedVariable(long rows, long sqlNulls, Map<String, Long> missingByReason,
-                            List<MissingCandidate> candidates, List<String> excludedValues, Map<String, Long> invalid,
-                            NumericDistribution numeric, CategoryCounts categories) {
-        this(rows, sqlNulls, missingByReason, candidates, excludedValues, invalid, numeric, categories, null);
-    }
-
     /** Valid answers: those that enter the comparison, or for text and dates every answer not missing. */
     public long validN() {
         if (numeric != null) {

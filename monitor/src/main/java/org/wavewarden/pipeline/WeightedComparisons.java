@@ -54,9 +54,9 @@ final class WeightedComparisons {
             }
             case BINARY -> {
                 String success = VariableScreen.successValue(v, b.categories(), c.categories());
+                int at = b.categories().unionOrder(c.categories()).indexOf(success);
                 WeightedComparator.Design shares = design == null ? null : new WeightedComparator.Design(
-                        design.baselineTally().indicator(position(b, c, success)),
-                        design.currentTally().indicator(position(b, c, success)), null, null);
+                        design.baselineTally().indicator(at), design.currentTally().indicator(at), null, null);
                 yield Optional.of(comparator.proportion(v.name(), "answering '" + success + "'",
                         indicator(b, success), indicator(c, success), shares, v.threshold()));
             }
@@ -95,11 +95,6 @@ final class WeightedComparisons {
     }
 
     private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(WeightedComparisons.class);
-
-    /** The success answer's position in the union order both design tallies share. */
-    private static int position(ScreenedVariable b, ScreenedVariable c, String success) {
-        return b.categories().unionOrder(c.categories()).indexOf(success);
-    }
 
     static Comparison shape(WeightedComparator comparator, VariableConfig v, ScreenedVariable b, ScreenedVariable c) {
         return comparator.shape(v.name(), b.weighted(), c.weighted());
@@ -148,11 +143,14 @@ final class WeightedComparisons {
         for (int j = 0; j < k; j++) {
             values[j] = j;
         }
+        long[] cn = c.weighted().counts();
+        double[] cw = c.weighted().weights();
+        double[] cq = c.weighted().squaredWeights();
         for (int i = 0; i < own.size(); i++) {
             if (to[i] >= 0) {
-                n[to[i]] += c.weighted().counts()[i];
-                w[to[i]] += c.weighted().weights()[i];
-                q[to[i]] += c.weighted().squaredWeights()[i];
+                n[to[i]] += cn[i];
+                w[to[i]] += cw[i];
+                q[to[i]] += cq[i];
             }
         }
         WeightedTally tally = new WeightedTally(values, n, w, q);
@@ -160,10 +158,14 @@ final class WeightedComparisons {
         if (cd != null) {
             DesignViews.View view = DesignViews.categories(cd, ct.column(), c, own);
             if (view.unavailable() == null) {
+                double[][] psuSums = view.tally().weight();
                 double[][] byPsu = new double[k][view.tally().psuCount()];
                 for (int i = 0; i < own.size(); i++) {
-                    for (int h = 0; to[i] >= 0 && h < byPsu[to[i]].length; h++) {
-                        byPsu[to[i]][h] += view.tally().weight()[i][h];
+                    if (to[i] < 0) {
+                        continue;
+                    }
+                    for (int h = 0; h < byPsu[to[i]].length; h++) {
+                        byPsu[to[i]][h] += psuSums[i][h];
                     }
                 }
                 design = new org.wavewarden.compare.design.PsuTally(values, n, view.tally().psuStratum(), byPsu);

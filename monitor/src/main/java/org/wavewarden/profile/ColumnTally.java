@@ -48,8 +48,4 @@ public record ColumnTally(String column, ColumnType type, long rowCount, long nu
         return valueCounts.size();
     }
 
-    /** The same tally with other value counts (and the row count adjusted by the caller), same binning. */
-    public ColumnTally withValues(long rows, Map<String, Long> values) {
-        return new ColumnTally(column, type, rows, nullCount, values, truncated, binning);
-    }
 }

@@ -127,7 +127,7 @@ public final class PairCounter {
         long kx = Double.doubleToLongBits(x == 0 ? 0.0 : x); // -0 and 0 are one answer
         long ky = Double.doubleToLongBits(y == 0 ? 0.0 : y);
         int mask = counts.length - 1;
-        int i = mix(kx, ky) & mask;
+        int i = Hashes.mix(kx, ky) & mask;
         while (counts[i] != 0) {
             if (xbits[i] == kx && ybits[i] == ky) {
                 counts[i] += count;
@@ -141,12 +141,6 @@ public final class PairCounter {
         if (++size * 2 > counts.length) {
             grow();
         }
-    }
-
-    private static int mix(long kx, long ky) {
-        long h = (kx * 0x9E3779B97F4A7C15L) ^ Long.rotateLeft(ky * 0xC2B2AE3D27D4EB4FL, 31);
-        h ^= h >>> 29;
-        return (int) (h ^ (h >>> 47));
     }
 
     /** Re-bins every entry at {@code newLevel}; entries that meet in one bin merge. */

@@ -117,7 +117,7 @@ public final class RelativeBins {
         }
         long key = key(x, level);
         int mask = keys.length - 1;
-        int i = mix(key) & mask;
+        int i = Hashes.mix(key) & mask;
         while (counts[i] != 0) {
             if (keys[i] == key) {
                 counts[i] += count;
@@ -152,11 +152,6 @@ public final class RelativeBins {
         return (i << 1) | (x < 0 ? 1 : 0);
     }
 
-    private static int mix(long key) {
-        long h = key * 0x9E3779B97F4A7C15L;
-        return (int) (h ^ (h >>> 29) ^ (h >>> 47));
-    }
-
     /** Rehashes into {@code capacity} slots, {@code up} levels coarser. */
     private void rebuild(int capacity, int up) {
         long[] ok = keys;
@@ -183,7 +178,7 @@ public final class RelativeBins {
                 long idx = key >> 1;
                 key = ((-Math.floorDiv(-idx, 2L)) << 1) | (key & 1);
             }
-            int i = mix(key) & mask;
+            int i = Hashes.mix(key) & mask;
             while (counts[i] != 0 && keys[i] != key) {
                 i = (i + 1) & mask;
             }

@@ -6,6 +6,7 @@ import org.postgresql.copy.CopyOut;
 import org.wavewarden.config.Identifiers;
 import org.wavewarden.profile.Binning;
 import org.wavewarden.profile.ColumnTally;
+import org.wavewarden.profile.Hashes;
 import org.wavewarden.profile.JointTally;
 import org.wavewarden.profile.PairCounter;
 import org.wavewarden.profile.RelativeBins;
@@ -227,11 +228,13 @@ public final class BinaryWaveScanner {
                     in.need(len);
                     byte[] b = in.buf;
                     int p = in.pos;
+                    // A number is decoded once, and only where a pair, the bins or the design needs it.
+                    double x = numeric[i] && (inPair[i] || bins[i] != null || ds != null)
+                            ? number(decode[i], b, p, len) : Double.NaN;
                     if (inPair[i]) {
-                        value[i] = number(decode[i], b, p, len);
+                        value[i] = x;
                     }
                     if (bins[i] != null) {
-                        double x = number(decode[i], b, p, len);
                         bins[i].add(x, w);
                         if (ds != null && psu >= 0) {
                             ds.addBinned(i, psu, x, w);
@@ -252,19 +255,21 @@ public final class BinaryWaveScanner {
                             : longs[i].add(key, numeric[i] ? exactNumbers : maxDistinct, w);
                     if (kept) {
                         if (ds != null && psu >= 0) {
-                            ds.add(i, psu, key, numeric[i] ? number(decode[i], b, p, len) : Double.NaN, w);
+                            ds.add(i, psu, key, x, w);
                         }
                     } else if (numeric[i]) {
                         if (ds != null) {
                             Decode d = decode[i];
                             LongTally lt = longs[i];
                             BytesTally bt = bytes[i];
-                            ds.toBins(i, lt != null ? x -> number(d, x) : e -> bt.number(d, (int) e));
+                            ds.toBins(i, lt != null ? bits -> number(d, bits) : e -> bt.number(d, (int) e));
                         }
                         bins[i] = summarise(decode[i], longs[i], bytes[i]);
                         longs[i] = null;
                         bytes[i] = null;
-                        double x = number(decode[i], b, p, len);
+                        if (Double.isNaN(x)) {
+                            x = number(decode[i], b, p, len);
+                        }
                         bins[i].add(x, w);
                         if (ds != null && psu >= 0) {
                             ds.addBinned(i, psu, x, w);
@@ -738,7 +743,7 @@ public final class BinaryWaveScanner {
         /** Counts one cell of weight w (NaN: none); false when the value is new and {@code max} are held. */
         boolean add(long key, int max, double w) {
             int mask = keys.length - 1;
-            int i = mix(key) & mask;
+            int i = Hashes.mix(key) & mask;
             while (counts[i] != 0) {
                 if (keys[i] == key) {
                     counts[i]++;
@@ -770,11 +775,6 @@ public final class BinaryWaveScanner {
             return size;
         }
 
-        private static int mix(long key) {
-            long h = key * 0x9E3779B97F4A7C15L;
-            return (int) (h ^ (h >>> 29) ^ (h >>> 47));
-        }
-
         private void grow() {
             long[] ok = keys;
             long[] oc = counts;
@@ -789,7 +789,7 @@ public final class BinaryWaveScanner {
             int mask = keys.length - 1;
             for (int j = 0; j < ok.length; j++) {
                 if (oc[j] != 0) {
-                    int i = mix(ok[j]) & mask;
+                    int i = Hashes.mix(ok[j]) & mask;
                     while (counts[i] != 0) {
                         i = (i + 1) & mask;
                     }

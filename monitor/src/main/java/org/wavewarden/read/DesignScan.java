@@ -1,6 +1,7 @@
 package org.wavewarden.read;
 
 import org.wavewarden.profile.DesignSummary;
+import org.wavewarden.profile.Hashes;
 import org.wavewarden.profile.RelativeBins;
 
 import java.util.ArrayList;
@@ -107,7 +108,6 @@ final class DesignScan {
         private long[] keysValue = new long[256];
         private double[] cellWeight = new double[256];
         private int size;
-        private final Map<Long, Boolean> codeLike = new HashMap<>();
 
         Column(boolean numeric) {
             this.numeric = numeric;
@@ -160,7 +160,7 @@ final class DesignScan {
 
         private void addCell(int psu, long valueKey, double w) {
             int mask = keysPsu.length - 1;
-            int i = mix(psu, valueKey) & mask;
+            int i = Hashes.mix(psu, valueKey) & mask;
             while (keysPsu[i] >= 0) {
                 if (keysPsu[i] == psu && keysValue[i] == valueKey) {
                     cellWeight[i] += w;
@@ -176,11 +176,6 @@ final class DesignScan {
             }
         }
 
-        private static int mix(int psu, long key) {
-            long h = (key + 0x9E3779B97F4A7C15L * (psu + 1)) * 0xBF58476D1CE4E5B9L;
-            return (int) (h ^ (h >>> 31));
-        }
-
         private void grow() {
             int[] op = keysPsu;
             long[] ov = keysValue;
@@ -191,7 +186,7 @@ final class DesignScan {
             int mask = keysPsu.length - 1;
             for (int j = 0; j < op.length; j++) {
                 if (op[j] >= 0) {
-                    int i = mix(op[j], ov[j]) & mask;
+                    int i = Hashes.mix(op[j], ov[j]) & mask;
                     while (keysPsu[i] >= 0) {
                         i = (i + 1) & mask;
                     }

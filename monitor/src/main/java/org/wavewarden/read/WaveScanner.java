@@ -72,20 +72,6 @@ public final class WaveScanner {
             pairs = pairs == null ? List.of() : List.copyOf(pairs);
         }
 
-        public WaveScan(long rows, Map<String, ColumnTally> columns) {
-            this(rows, columns, Map.of(), 0, null, List.of());
-        }
-
-        public WaveScan(long rows, Map<String, ColumnTally> columns, Map<String, Map<String, double[]>> weights,
-                        long badWeights) {
-            this(rows, columns, weights, badWeights, null, List.of());
-        }
-
-        public WaveScan(long rows, Map<String, ColumnTally> columns, Map<String, Map<String, double[]>> weights,
-                        long badWeights, DesignSummary design) {
-            this(rows, columns, weights, badWeights, design, List.of());
-        }
-
         @Override
         public boolean equals(Object o) {
             return o instanceof WaveScan w && rows == w.rows && columns.equals(w.columns) && badWeights == w.badWeights

@@ -51,8 +51,8 @@ public final class CramersV {
         if (!(x2 >= 0)) {
             throw new IllegalArgumentException("x2 must be >= 0, was " + x2);
         }
-        double[] ncp = NoncentralityInterval.of(x2, df, confidence);
-        return new EffectSize(name, Math.sqrt(x2 / n), Math.sqrt(ncp[0] / n), Math.sqrt(ncp[1] / n), confidence);
+        EffectSize w = CohensW.fromStatistic(x2, df, n, confidence);
+        return new EffectSize(name, w.estimate(), w.ciLow(), w.ciHigh(), confidence);
     }
 
     /** Bergsma's (2013) bias-corrected V; 0 when the corrected phi-square is not positive. */

@@ -69,11 +69,11 @@ public final class DesignGoodnessOfFit {
         double[][] psuTotals = new double[psus][k];
         double[] totals = new double[k];
         for (int i = 0; i < tally.size(); i++) {
-            int j = position(tally.values()[i], k);
-            double[] w = tally.weight()[i];
+            int j = position(tally.value(i), k);
             for (int h = 0; h < psus; h++) {
-                psuTotals[h][j] += w[h];
-                totals[j] += w[h];
+                double w = tally.weight(i, h);
+                psuTotals[h][j] += w;
+                totals[j] += w;
             }
         }
         return test(totals, DesignVariance.covariance(tally.psuStratum(), psuTotals), p);

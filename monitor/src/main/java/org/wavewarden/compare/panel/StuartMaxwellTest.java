@@ -9,7 +9,6 @@ import org.apache.commons.math3.linear.Array2DRowRealMatrix;
 import org.apache.commons.math3.linear.ArrayRealVector;
 import org.apache.commons.math3.linear.LUDecomposition;
 import org.apache.commons.math3.linear.RealVector;
-import org.apache.commons.math3.special.Gamma;
 import org.wavewarden.compare.EffectSize;
 import org.wavewarden.compare.TestResult;
 
@@ -102,7 +101,7 @@ public final class StuartMaxwellTest {
             tested.addAll(g);
         }
         tested.sort(null);
-        double p = df == 0 || !(x2 > 0) ? 1 : Math.max(0, Math.min(1, Gamma.regularizedGammaQ(df / 2.0, x2 / 2)));
+        double p = org.wavewarden.compare.categorical.ChiSquareHomogeneity.upperTail(x2, df);
         TestResult test = new TestResult(NAME, x2, df, p);
 
         int largest = 0;
