@@ -45,6 +45,10 @@ public final class Main implements Runnable {
                 line.getErr().println("config error at " + ce.key() + ": " + ce.problem());
                 return USAGE;
             }
+            if (e instanceof org.wavewarden.load.CsvWaveImporter.ImportRefusedException ir) {
+                line.getErr().println("import refused: " + ir.getMessage());
+                return USAGE;
+            }
             if (e instanceof org.wavewarden.db.Databases.LoginFailedException lf) {
                 line.getErr().println("database login refused: " + lf.getMessage());
                 return UNREACHABLE;
