@@ -219,21 +219,25 @@ class ConnectionSafetyTest {
                 st.execute("SELECT pg_reload_conf()");
             }
             PasswordLogin login = new PasswordLogin(url, hba, original);
-            // The postmaster rereads the file when it handles the reload signal; wait until it has.
-            for (int tries = 0; ; tries++) {
-                try (Connection c = DriverManager.getConnection(url, role, "not-" + password)) {
-                    if (tries > 500) {
-                        login.close();
-                        throw new IllegalStateException("the server still trusts " + role);
+            try {
+                // The postmaster rereads the file when it handles the reload signal; wait until it has.
+                for (int tries = 0; ; tries++) {
+                    try (Connection c = DriverManager.getConnection(url, role, "not-" + password)) {
+                        if (tries > 500) {
+                            throw new IllegalStateException("the server still trusts " + role);
+                        }
+                        Thread.sleep(20);
+                    } catch (SQLException e) {
+                        assertEquals("28P01", e.getSQLState(), e.toString());
+                        break;
                     }
-                    Thread.sleep(20);
-                } catch (SQLException e) {
-                    assertEquals("28P01", e.getSQLState(), e.toString());
-                    break;
                 }
-            }
-            try (Connection c = DriverManager.getConnection(url, role, password)) {
-                assertTrue(c.isValid(1), "the right password logs in");
+                try (Connection c = DriverManager.getConnection(url, role, password)) {
+                    assertTrue(c.isValid(1), "the right password logs in");
+                }
+            } catch (Exception | AssertionError e) {
+                login.close();
+                throw e;
             }
             return login;
         }
