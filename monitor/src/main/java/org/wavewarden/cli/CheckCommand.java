@@ -2,6 +2,7 @@ package org.wavewarden.cli;
 
 import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.deliver.ConsoleTable;
+import org.wavewarden.deliver.DataText;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.Verdict;
 import org.wavewarden.pipeline.JudgedWave;
@@ -52,7 +53,7 @@ final class CheckCommand implements Callable<Integer> {
             java.nio.file.Files.writeString(out.resolve("digest.html"), new org.wavewarden.pipeline.DigestAssembler(s)
                     .html(d, java.util.List.of(j.report()), java.time.Instant.now()));
             var o = spec.commandLine().getOut();
-            j.report().inference().forEach(i -> o.println("inferred " + i));
+            j.report().inference().forEach(i -> o.println("inferred " + DataText.visible(i)));
             o.print(ConsoleTable.render(j.report(), all));
             o.println("wrote " + out.resolve("findings.json") + ", digest.md and digest.html; run "
                     + j.runId() + ", " + j.alerts().size() + " alert(s)");

@@ -5,6 +5,7 @@ import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.Identifiers;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.db.Databases;
+import org.wavewarden.deliver.DataText;
 import org.wavewarden.load.CsvWaveImporter;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -43,13 +44,17 @@ final class ImportCommand implements Callable<Integer> {
                     + " one table per wave");
         }
         var table = Identifiers.TableName.parse("table", d.table());
-        try (var ds = Databases.open(c.source(), null, "source", false, System.getenv(), 1);
-             Connection conn = ds.getConnection()) {
-            var err = spec.commandLine().getErr();
-            var r = CsvWaveImporter.load(conn, table, d.waveColumn(), wave, csv, replace,
-                    Progress.rows("importing " + csv.getFileName() + " (bytes)", err));
-            Progress.done(err);
-            spec.commandLine().getOut().println("imported " + r.rows() + " rows into " + table + " as wave " + r.wave());
+        try (var ds = Databases.open(c.source(), null, "source", false, System.getenv(), 1)) {
+            // A wrong password is reported at once rather than after the pool's connection timeout.
+            Databases.firstContact(ds, "source");
+            try (Connection conn = ds.getConnection()) {
+                var err = spec.commandLine().getErr();
+                var r = CsvWaveImporter.load(conn, table, d.waveColumn(), wave, csv, replace,
+                        Progress.rows("importing " + csv.getFileName() + " (bytes)", err));
+                Progress.done(err);
+                spec.commandLine().getOut().println("imported " + r.rows() + " rows into " + table + " as wave "
+                        + DataText.visible(r.wave()));
+            }
         }
         return Main.OK;
     }

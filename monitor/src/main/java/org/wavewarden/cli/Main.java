@@ -9,7 +9,7 @@ import java.io.PrintWriter;
 
 /**
  * The one executable. Exit codes: 0 fine, 1 findings at or above {@code --fail-on}, 2 usage or config error,
- * 3 database unreachable.
+ * 3 database unreachable or login refused.
  */
 @Command(name = "wavewarden", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
         description = "Judges each new survey wave against earlier waves and flags disguised missing values.",
@@ -44,6 +44,14 @@ public final class Main implements Runnable {
             if (e instanceof ConfigException ce) {
                 line.getErr().println("config error at " + ce.key() + ": " + ce.problem());
                 return USAGE;
+            }
+            if (e instanceof org.wavewarden.load.CsvWaveImporter.ImportRefusedException ir) {
+                line.getErr().println("import refused: " + ir.getMessage());
+                return USAGE;
+            }
+            if (e instanceof org.wavewarden.db.Databases.LoginFailedException lf) {
+                line.getErr().println("database login refused: " + lf.getMessage());
+                return UNREACHABLE;
             }
             if (e instanceof Session.DatabaseUnavailableException du) {
                 line.getErr().println("database unreachable: " + du.getMessage());

@@ -1,6 +1,7 @@
 package org.wavewarden.cli;
 
 import org.wavewarden.config.DatasetConfig;
+import org.wavewarden.deliver.DataText;
 import org.wavewarden.deliver.ReleaseDigest;
 import org.wavewarden.deliver.ReleaseReport;
 import org.wavewarden.pipeline.ReleaseJudge;
@@ -50,7 +51,7 @@ final class ReleasesCommand implements Callable<Integer> {
                     Progress.rows("reading wave " + wave, err));
             Progress.done(err);
             var o = spec.commandLine().getOut();
-            r.revision().inference().forEach(i -> o.println("inferred " + i));
+            r.revision().inference().forEach(i -> o.println("inferred " + DataText.visible(i)));
             o.print(ReleaseDigest.summary(r, all));
             o.println("wrote " + out.resolve("releases.json") + " and releases.md");
         }

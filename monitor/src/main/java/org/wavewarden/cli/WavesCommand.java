@@ -1,6 +1,7 @@
 package org.wavewarden.cli;
 
 import org.wavewarden.config.DatasetConfig;
+import org.wavewarden.deliver.DataText;
 import org.wavewarden.pipeline.Session;
 import org.wavewarden.pipeline.WaveJudge;
 import org.wavewarden.read.WaveInfo;
@@ -33,9 +34,10 @@ final class WavesCommand implements Callable<Integer> {
                     "alerts"));
             for (WaveInfo w : new WaveJudge(s, Clock.systemUTC()).waves(d)) {
                 var run = s.store().currentRun(d.name(), w.wave());
-                out.println(String.format(Locale.ROOT, "%-16s %,10d  %-9s %-16s %s", w.wave(), w.rows(),
-                        run.isPresent() ? "yes" : "no", run.map(r -> r.againstWave().isEmpty() ? "-" : r.againstWave())
-                                .orElse(""), run.map(r -> String.valueOf(r.alertsCount())).orElse("")));
+                out.println(String.format(Locale.ROOT, "%-16s %,10d  %-9s %-16s %s", DataText.visible(w.wave()),
+                        w.rows(), run.isPresent() ? "yes" : "no",
+                        run.map(r -> r.againstWave().isEmpty() ? "-" : DataText.visible(r.againstWave())).orElse(""),
+                        run.map(r -> String.valueOf(r.alertsCount())).orElse("")));
             }
         }
         return Main.OK;

@@ -207,9 +207,8 @@ public final class ConfigLoader {
                         + " environment variable with passwordEnv or a file with passwordFile");
             }
             String url = text(node, "jdbcUrl", path + ".jdbcUrl", true);
-            if (!url.equals(ConnectionConfig.EMBEDDED) && !url.startsWith("jdbc:postgresql:")) {
-                throw new ConfigException(path + ".jdbcUrl", "expected 'embedded' or a URL starting with"
-                        + " jdbc:postgresql:// but got " + Identifiers.Text.show(url));
+            if (!url.equals(ConnectionConfig.EMBEDDED)) {
+                JdbcUrl.check(path + ".jdbcUrl", url);
             }
             String user = text(node, "user", path + ".user", !url.equals(ConnectionConfig.EMBEDDED));
             String env = text(node, "passwordEnv", path + ".passwordEnv", false);

@@ -5,7 +5,10 @@ import org.wavewarden.judge.FindingKind;
 
 import java.util.Locale;
 
-/** A fixed-width table of a judged wave's findings for the terminal. */
+/**
+ * A fixed-width table of a judged wave's findings for the terminal: one line per finding, whatever characters the
+ * labels hold (they are shown through {@link DataText#visible(String)}).
+ */
 public final class ConsoleTable {
 
     private ConsoleTable() {
@@ -13,8 +16,9 @@ public final class ConsoleTable {
 
     public static String render(FindingsReport r, boolean all) {
         StringBuilder sb = new StringBuilder();
-        sb.append(r.dataset()).append(" wave ").append(r.wave())
-                .append(r.againstWave() == null ? " (screened alone)" : " against " + r.againstWave()).append('\n');
+        sb.append(DataText.visible(r.dataset())).append(" wave ").append(DataText.visible(r.wave()))
+                .append(r.againstWave() == null ? " (screened alone)" : " against " + DataText.visible(r.againstWave()))
+                .append('\n');
         sb.append(String.format(Locale.ROOT, "  %-10s %-22s %-20s %-28s %9s %9s%n", "verdict", "variable", "kind",
                 "effect [CI]", "p", "q"));
         for (Finding f : FindingsFiles.ordered(r.findings())) {
@@ -25,7 +29,8 @@ public final class ConsoleTable {
                     f.effect().estimate(), f.effect().ciLow(), f.effect().ciHigh());
             sb.append(String.format(Locale.ROOT, "  %-10s %-22s %-20s %-28s %9s %9s%n",
                     f.verdict() == null ? (f.kind() == FindingKind.SKIPPED ? "skipped" : "quality") : f.verdict().name(),
-                    cut(f.variable(), 22), cut(f.kind().name(), 20), effect, p(f.pValue()), p(f.qValue())));
+                    cut(DataText.visible(f.variable()), 22), cut(f.kind().name(), 20), effect, p(f.pValue()),
+                    p(f.qValue())));
         }
         return sb.toString();
     }

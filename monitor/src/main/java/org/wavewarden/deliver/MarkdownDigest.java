@@ -7,7 +7,11 @@ import java.util.EnumMap;
 import java.util.List;
 import java.util.Map;
 
-/** The digest for chat and e-mail: what changed, what is suspicious in the data, and the cautions. */
+/**
+ * The digest for chat and e-mail: what changed, what is suspicious in the data, and the cautions. Every string
+ * that comes from the data (dataset, wave labels, variables, the sentences quoting category values) goes through
+ * {@link #escape(String)}, so it renders as text and never as markup.
+ */
 public final class MarkdownDigest {
 
     private MarkdownDigest() {
@@ -19,8 +23,9 @@ public final class MarkdownDigest {
         md.append("> **Screening aid, not a finding.** ").append(Cautions.LINES.get(0)).append(' ')
                 .append(Cautions.LINES.get(1)).append("\n\n");
         for (FindingsReport r : reports) {
-            md.append("## ").append(r.dataset()).append(": wave ").append(r.wave());
-            md.append(r.againstWave() == null ? " (screened alone)" : " against " + r.againstWave()).append("\n\n");
+            md.append("## ").append(escape(r.dataset())).append(": wave ").append(escape(r.wave()));
+            md.append(r.againstWave() == null ? " (screened alone)" : " against " + escape(r.againstWave()))
+                    .append("\n\n");
             md.append(verdictCounts(r.findings())).append(" False discovery rate ")
                     .append(r.alpha()).append(" (").append(r.fdrMethod()).append(").\n\n");
             List<Finding> worth = FindingsFiles.ordered(r.findings()).stream().filter(Alerts::worthAPerson).toList();
@@ -32,7 +37,8 @@ public final class MarkdownDigest {
             for (Finding f : worth) {
                 md.append("| ").append(f.verdict() != null ? "**" + f.verdict() + "** " : "")
                         .append(f.kind() == org.wavewarden.judge.FindingKind.SHIFT ? "" : f.kind().name())
-                        .append(" | `").append(f.variable()).append("` | ").append(escape(f.sentence())).append(" |\n");
+                        .append(" | ").append(escape(f.variable())).append(" | ").append(escape(f.sentence()))
+                        .append(" |\n");
             }
             md.append('\n');
         }
@@ -73,7 +79,8 @@ public final class MarkdownDigest {
         }
     }
 
+    /** Data in Markdown: see {@link DataText#markdown(String)}. */
     static String escape(String s) {
-        return s.replace("|", "\\|").replace("\n", " ");
+        return DataText.markdown(s);
     }
 }

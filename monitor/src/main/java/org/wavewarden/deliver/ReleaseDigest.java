@@ -43,9 +43,10 @@ public final class ReleaseDigest {
         StringBuilder md = new StringBuilder("# Wavewarden release comparison\n\n");
         md.append("> **Screening aid, not a finding.** ").append(Cautions.LINES.get(0)).append(' ')
                 .append(Cautions.LINES.get(1)).append("\n\n");
-        md.append("## ").append(r.dataset()).append(": wave ").append(r.wave()).append(", ").append(r.after())
-                .append(" against ").append(r.before()).append("\n\n");
-        md.append(rowsSentence(r)).append("\n\n");
+        md.append("## ").append(MarkdownDigest.escape(r.dataset())).append(": wave ")
+                .append(MarkdownDigest.escape(r.wave())).append(", ").append(MarkdownDigest.escape(r.after()))
+                .append(" against ").append(MarkdownDigest.escape(r.before())).append("\n\n");
+        md.append(MarkdownDigest.escape(rowsSentence(r))).append("\n\n");
         List<String> problems = new ArrayList<>(v.notes());
         if (!r.columnsAdded().isEmpty() || !r.columnsDropped().isEmpty()) {
             problems.add("Not compared: columns only in " + r.after() + ": " + r.columnsAdded() + "; only in "
@@ -58,14 +59,16 @@ public final class ReleaseDigest {
         md.append("| variable | changed | of | share | value to NULL | NULL to value | examples (key: before → after)"
                 + " |\n|---|---:|---:|---:|---:|---:|---|\n");
         for (VariableChanges c : v.variables()) {
-            md.append("| `").append(c.variable()).append("` | ").append(c.changedCells()).append(" | ")
+            md.append("| ").append(MarkdownDigest.escape(c.variable())).append(" | ").append(c.changedCells())
+                    .append(" | ")
                     .append(c.comparedCells()).append(" | ").append(share(c.shareChanged())).append(" | ")
                     .append(c.becameNull()).append(" | ").append(c.becameValue()).append(" | ")
                     .append(MarkdownDigest.escape(examples(c.examples()))).append(" |\n");
         }
         md.append("\n### Distributions of the two releases\n\n");
         md.append(MarkdownDigest.verdictCounts(v.findings())).append(" False discovery rate ").append(r.alpha())
-                .append(" (").append(r.fdrMethod()).append("), ").append(r.before()).append(" as the baseline.\n\n");
+                .append(" (").append(r.fdrMethod()).append("), ").append(MarkdownDigest.escape(r.before()))
+                .append(" as the baseline.\n\n");
         List<Finding> worth = FindingsFiles.ordered(v.findings()).stream().filter(Alerts::worthAPerson).toList();
         if (worth.isEmpty()) {
             md.append("Nothing needs attention.\n\n");
@@ -73,8 +76,9 @@ public final class ReleaseDigest {
             md.append("| verdict / kind | variable | what happened |\n|---|---|---|\n");
             for (Finding f : worth) {
                 md.append("| ").append(f.verdict() != null ? "**" + f.verdict() + "** " : "")
-                        .append(f.kind() == FindingKind.SHIFT ? "" : f.kind().name()).append(" | `")
-                        .append(f.variable()).append("` | ").append(MarkdownDigest.escape(f.sentence())).append(" |\n");
+                        .append(f.kind() == FindingKind.SHIFT ? "" : f.kind().name()).append(" | ")
+                        .append(MarkdownDigest.escape(f.variable())).append(" | ")
+                        .append(MarkdownDigest.escape(f.sentence())).append(" |\n");
             }
             md.append('\n');
         }
@@ -87,17 +91,19 @@ public final class ReleaseDigest {
     public static String summary(ReleaseReport r, boolean all) {
         ReleaseRevision v = r.revision();
         StringBuilder sb = new StringBuilder();
-        sb.append(r.dataset()).append(" wave ").append(r.wave()).append(": ").append(r.after()).append(" against ")
-                .append(r.before()).append('\n');
-        sb.append("  ").append(rowsSentence(r)).append('\n');
+        sb.append(DataText.visible(r.dataset())).append(" wave ").append(DataText.visible(r.wave())).append(": ")
+                .append(DataText.visible(r.after())).append(" against ").append(DataText.visible(r.before()))
+                .append('\n');
+        sb.append("  ").append(DataText.visible(rowsSentence(r))).append('\n');
         List<VariableChanges> changedColumns = v.variables().stream().filter(c -> c.changedCells() > 0).toList();
         sb.append("  changed cells:").append(changedColumns.isEmpty() ? " none" : "").append('\n');
         for (VariableChanges c : changedColumns) {
-            sb.append(String.format(Locale.ROOT, "    %-22s %,d of %,d (%s)%s%n", ConsoleTable.cut(c.variable(), 22),
-                    c.changedCells(), c.comparedCells(), share(c.shareChanged()),
+            sb.append(String.format(Locale.ROOT, "    %-22s %,d of %,d (%s)%s%n",
+                    ConsoleTable.cut(DataText.visible(c.variable()), 22), c.changedCells(), c.comparedCells(),
+                    share(c.shareChanged()),
                     c.examples().isEmpty() ? "" : ", e.g. " + examples(c.examples().subList(0, 1))));
         }
-        v.notes().forEach(n -> sb.append("  ").append(n).append('\n'));
+        v.notes().forEach(n -> sb.append("  ").append(DataText.visible(n)).append('\n'));
         sb.append("  distributions: ").append(MarkdownDigest.verdictCounts(v.findings())).append('\n');
         FindingsReport asWave = new FindingsReport(r.dataset(), r.wave() + " " + r.after(), r.before(),
                 r.generatedAt(), r.alpha(), r.fdrMethod(), v.inference(), v.findings());
@@ -119,7 +125,7 @@ public final class ReleaseDigest {
     static String examples(List<CellChange> examples) {
         List<String> out = new ArrayList<>();
         for (CellChange c : examples) {
-            out.add(c.key() + ": " + shown(c.before()) + " → " + shown(c.after()));
+            out.add(DataText.visible(c.key()) + ": " + shown(c.before()) + " → " + shown(c.after()));
         }
         return String.join("; ", out);
     }
@@ -129,18 +135,7 @@ public final class ReleaseDigest {
         if (value == null) {
             return "NULL";
         }
-        StringBuilder sb = new StringBuilder();
-        value.codePoints().forEach(cp -> {
-            if (cp == '\t') {
-                sb.append("\\t");
-            } else if (cp == '\n') {
-                sb.append("\\n");
-            } else if (Character.isISOControl(cp) || Character.getType(cp) == Character.FORMAT) {
-                sb.append(String.format(Locale.ROOT, "\\u%04X", cp));
-            } else {
-                sb.appendCodePoint(cp);
-            }
-        });
+        String sb = DataText.visible(value);
         return "'" + (sb.length() > 60 ? sb.substring(0, 60) + "..." : sb) + "'";
     }
 

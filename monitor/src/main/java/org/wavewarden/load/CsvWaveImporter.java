@@ -1,9 +1,11 @@
 package org.wavewarden.load;
 
 import org.postgresql.PGConnection;
+import org.postgresql.util.PSQLException;
 import org.wavewarden.config.ConfigException;
 import org.wavewarden.config.Identifiers;
 import org.wavewarden.config.Identifiers.TableName;
+import org.wavewarden.deliver.DataText;
 
 import java.io.BufferedReader;
 import java.io.FilterInputStream;
@@ -21,13 +23,19 @@ import java.sql.Statement;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.function.LongConsumer;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
 import java.util.zip.GZIPInputStream;
 
 /**
  * Loads one wave from a CSV file into a source table with {@code COPY ... FROM STDIN (FORMAT csv)}: an unquoted
  * empty field is NULL, a quoted empty field ({@code ""}) is an empty string, as PostgreSQL defines the format.
  * The rows go through a temporary staging table and are inserted in one transaction, so a failed import leaves
- * nothing behind; the wave label is bound as a parameter, never pasted into SQL.
+ * nothing behind; the wave label is bound as a parameter, never pasted into SQL. Imports of one wave into one
+ * table are serialised by a transaction-level advisory lock taken before the wave's rows are counted, so of two
+ * concurrent imports the second sees the first one's rows. A file the server cannot read (bytes that are not
+ * UTF-8, a row with too many or too few fields, a value of the wrong type) is refused with its file, line and
+ * column, as is a file with no data rows.
  */
 public final class CsvWaveImporter {
 
@@ -36,6 +44,19 @@ public final class CsvWaveImporter {
 
     public record Imported(String wave, long rows) {
     }
+
+    /** The file cannot be imported as it is (exit code 2); the message says where and why. */
+    public static final class ImportRefusedException extends RuntimeException {
+        private static final long serialVersionUID = 1L;
+
+        public ImportRefusedException(String message) {
+            super(message);
+        }
+    }
+
+    /** COPY's error context: {@code COPY wavewarden_staging, line 3, column score: "abc"}. */
+    private static final Pattern COPY_WHERE = Pattern.compile("COPY \\S+, line (\\d+)(?:, column ([^:]+))?");
+    private static final Pattern COLUMN_IN_MESSAGE = Pattern.compile("column \"([^\"]+)\"");
 
     public static Imported load(Connection c, TableName table, String waveColumn, String wave, Path csv,
                                 boolean replace, LongConsumer bytesRead) throws SQLException, IOException {
@@ -67,6 +88,11 @@ public final class CsvWaveImporter {
         boolean autoCommit = c.getAutoCommit();
         c.setAutoCommit(false);
         try {
+            try (PreparedStatement ps = c.prepareStatement("SELECT pg_advisory_xact_lock(hashtext(?), hashtext(?))")) {
+                ps.setString(1, "wavewarden import " + table.quoted());
+                ps.setString(2, wave);
+                ps.execute();
+            }
             long existing;
             try (PreparedStatement ps = c.prepareStatement("SELECT count(*) FROM " + table.quoted() + " WHERE "
                     + Identifiers.quote(waveColumn) + "::text = ?")) {
@@ -90,11 +116,26 @@ public final class CsvWaveImporter {
             try (InputStream in = counting(open(csv), bytesRead)) {
                 rows = c.unwrap(PGConnection.class).getCopyAPI().copyIn("COPY wavewarden_staging (" + cols
                         + ") FROM STDIN (FORMAT csv, HEADER true)", in);
+            } catch (SQLException e) {
+                if (isBadInput(e)) {
+                    throw refusedCopy(csv, header, e);
+                }
+                throw e;
+            }
+            if (rows == 0) {
+                throw new ImportRefusedException(csv + " has a header row but no data rows; nothing was imported"
+                        + " and wave '" + DataText.visible(wave) + "' was not created");
             }
             try (PreparedStatement ps = c.prepareStatement("UPDATE wavewarden_staging SET "
                     + Identifiers.quote(waveColumn) + " = ?")) {
                 ps.setObject(1, wave, java.sql.Types.OTHER);
                 ps.executeUpdate();
+            } catch (SQLException e) {
+                if (isBadInput(e)) {
+                    throw new ConfigException("--wave", "'" + DataText.visible(wave) + "' is not a value the wave"
+                            + " column " + waveColumn + " can hold: " + serverMessage(e));
+                }
+                throw e;
             }
             if (existing > 0) {
                 try (PreparedStatement ps = c.prepareStatement("DELETE FROM " + table.quoted() + " WHERE "
@@ -109,6 +150,12 @@ public final class CsvWaveImporter {
                 // Naming the columns lets the table's own defaults fill any column the file does not have.
                 st.executeUpdate("INSERT INTO " + table.quoted() + " (" + insertCols + ") SELECT " + insertCols
                         + " FROM wavewarden_staging");
+            } catch (SQLException e) {
+                if (isBadInput(e)) {
+                    throw new ImportRefusedException("the rows of " + csv + " do not fit " + table + ": "
+                            + serverMessage(e) + "; nothing was imported");
+                }
+                throw e;
             }
             c.commit();
             return new Imported(wave, rows);
@@ -118,6 +165,46 @@ public final class CsvWaveImporter {
         } finally {
             c.setAutoCommit(autoCommit);
         }
+    }
+
+    /** Data exceptions (class 22) and integrity violations (class 23): the file's content, not the server, is wrong. */
+    static boolean isBadInput(SQLException e) {
+        String state = e.getSQLState();
+        return state != null && (state.startsWith("22") || state.startsWith("23"));
+    }
+
+    /** The COPY error as the file's author can act on it: file, line, column number and name, what is wrong. */
+    static ImportRefusedException refusedCopy(Path csv, List<String> header, SQLException e) {
+        String where = e instanceof PSQLException p && p.getServerErrorMessage() != null
+                ? p.getServerErrorMessage().getWhere() : null;
+        Matcher m = where == null ? null : COPY_WHERE.matcher(where);
+        StringBuilder at = new StringBuilder(csv.toString());
+        String column = null;
+        if (m != null && m.find()) {
+            at.append(" line ").append(m.group(1));
+            column = m.group(2);
+        }
+        if (column == null) {
+            Matcher named = COLUMN_IN_MESSAGE.matcher(serverMessage(e));
+            column = named.find() ? named.group(1) : null;
+        }
+        if (column != null) {
+            int index = header.indexOf(column.strip());
+            at.append(", column ").append(index < 0 ? "" : (index + 1) + " ").append('(')
+                    .append(DataText.visible(column.strip())).append(')');
+        }
+        String hint = "22021".equals(e.getSQLState()) ? "; the file must be UTF-8 (convert it, for example from"
+                + " Latin-1, before importing)" : "";
+        return new ImportRefusedException(at + ": " + serverMessage(e) + hint + "; nothing was imported");
+    }
+
+    /** The server's own sentence, with data in it made visible and cut short. */
+    static String serverMessage(SQLException e) {
+        String m = e instanceof PSQLException p && p.getServerErrorMessage() != null
+                && p.getServerErrorMessage().getMessage() != null ? p.getServerErrorMessage().getMessage()
+                : e.getClass().getSimpleName();
+        String shown = DataText.visible(m);
+        return shown.length() > 300 ? shown.substring(0, 300) + "..." : shown;
     }
 
     static InputStream open(Path csv) throws IOException {

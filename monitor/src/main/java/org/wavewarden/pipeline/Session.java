@@ -40,6 +40,8 @@ public final class Session implements AutoCloseable {
      *
      * @param embedded the running embedded server for configs that say {@code embedded}; may be null otherwise
      * @throws DatabaseUnavailableException when a server cannot be reached (exit code 3)
+     * @throws Databases.LoginFailedException when a server refuses the login (exit code 3, at once)
+     * @throws org.wavewarden.config.ConfigException when the source session turns out not to be read-only
      */
     public static Session open(WardenConfig config, EmbeddedServer embedded, Map<String, String> env) {
         String embeddedUrl = embedded == null ? null : embedded.jdbcUrl();
@@ -60,6 +62,10 @@ public final class Session implements AutoCloseable {
         s.embeddedUrl = embeddedUrl;
         s.env = Map.copyOf(env);
         try {
+            Databases.firstContact(src, "source");
+            if (config.results().connection() != null) {
+                Databases.firstContact(res, "results");
+            }
             s.ping(src, "source");
             s.ping(res, "results");
         } catch (RuntimeException e) {
@@ -132,7 +138,7 @@ public final class Session implements AutoCloseable {
 
         static String message(Throwable e) {
             String m = e.getMessage() == null ? e.getClass().getSimpleName() : e.getMessage();
-            return m.replaceAll("(?i)password=[^&\\s]*", "password=***");
+            return m.replaceAll("(?i)password=[^&\\s]*", "password=***").replaceAll("//[^/\\s@]*@", "//***@");
         }
     }
 

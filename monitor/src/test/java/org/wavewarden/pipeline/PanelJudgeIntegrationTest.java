@@ -226,7 +226,7 @@ class PanelJudgeIntegrationTest {
         assertEquals("bus", flows.get(0).get("to").asText());
         assertEquals(90, flows.get(0).get("count").asLong());
         String digest = Files.readString(dir.resolve("w2").resolve("digest.md"));
-        assertTrue(digest.contains("| **MATERIAL** PANEL_SHIFT | `commute` |"), digest);
+        assertTrue(digest.contains("| **MATERIAL** PANEL_SHIFT | commute |"), digest);
     }
 
     /** What one check sends to the source, with the pair reads counted beside the wave scans. */
