@@ -175,6 +175,7 @@ public final class Daemon implements AutoCloseable {
         DatasetConfig d = config.dataset(dataset);
         Duration delay = retry.initial();
         for (int attempt = 1; ; attempt++) {
+            long started = System.nanoTime();
             try {
                 DatasetFiring.Result r = new DatasetFiring(session, clock, outputDir).fire(d);
                 for (JudgedWave j : r.judged()) {
@@ -185,6 +186,7 @@ public final class Daemon implements AutoCloseable {
                     writeDigest(r);
                 }
                 metrics.firingSucceeded(dataset, clock.instant());
+                metrics.firingDuration(dataset, (System.nanoTime() - started) / 1e9);
                 return true;
             } catch (RuntimeException e) {
                 metrics.firingFailed(dataset);
