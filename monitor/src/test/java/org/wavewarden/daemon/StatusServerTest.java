@@ -196,6 +196,24 @@ class StatusServerTest {
     }
 
     @Test
+    void aDaemonWhosePortIsInUseIsRefusedBeforeItWritesAnything() throws Exception {
+        String url = TestDatabase.freshDatabase("status_busy");
+        SmallSurvey.createTable(url);
+        try (ServerSocket taken = new ServerSocket(0, 1, InetAddress.getByName("127.0.0.1"))) {
+            String yaml = SmallSurvey.config(url, null) + "daemon:\n  httpPort: " + taken.getLocalPort()
+                    + "\n  outputDir: \"" + dir.resolve("busy").toString().replace("\\", "/") + "\"\n";
+            try (Session s = Session.open(ConfigLoader.parse(yaml), null, Map.of());
+                 Daemon d = new Daemon(s, Clock.systemUTC(), DaemonIntegrationTest.FAST, Map.of())) {
+                ConfigException e = assertThrows(ConfigException.class, () -> d.start("busy", 1000));
+                assertEquals("daemon.httpPort", e.key());
+            }
+        }
+        assertEquals(0, DaemonIntegrationTest.count(url,
+                "SELECT count(*) FROM information_schema.schemata WHERE schema_name = 'ww_results'"),
+                "no results schema, no job stored");
+    }
+
+    @Test
     void aPortInUseIsAConfigErrorNamingTheKey() throws Exception {
         try (ServerSocket taken = new ServerSocket(0, 1, InetAddress.getByName("127.0.0.1"))) {
             ConfigException e = assertThrows(ConfigException.class,
