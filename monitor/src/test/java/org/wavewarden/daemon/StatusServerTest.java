@@ -123,6 +123,20 @@ class StatusServerTest {
     }
 
     @Test
+    void oversizedRequestHeadersAreRefused() throws Exception {
+        try (Socket client = new Socket(InetAddress.getLoopbackAddress(), daemon.statusPort())) {
+            client.setSoTimeout(30_000);
+            String request = "GET /health HTTP/1.1\r\nHost: 127.0.0.1\r\nX-Filler: "
+                    + "x".repeat(2 * StatusServer.MAX_REQUEST_HEADER_BYTES) + "\r\nConnection: close\r\n\r\n";
+            client.getOutputStream().write(request.getBytes(StandardCharsets.US_ASCII));
+            client.getOutputStream().flush();
+            String statusLine = new java.io.BufferedReader(new java.io.InputStreamReader(client.getInputStream(),
+                    StandardCharsets.US_ASCII)).readLine();
+            assertEquals("HTTP/1.1 431 Request Header Fields Too Large", statusLine);
+        }
+    }
+
+    @Test
     void anUnknownPathIsNotFound() throws Exception {
         assertEquals(404, send("GET", "/nope").statusCode());
         assertEquals(404, send("GET", "/health/extra").statusCode(), "paths are exact, not prefixes");
