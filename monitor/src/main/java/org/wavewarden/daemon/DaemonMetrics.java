@@ -70,7 +70,7 @@ public final class DaemonMetrics {
     private final Counter alerts;
     private final Histogram firingDuration;
     private final Map<String, Boolean> failing = new ConcurrentHashMap<>();
-    private volatile boolean databasesUnreachable;
+    private volatile String unreachableDatabase;
     private volatile Supplier<List<DeliveryBacklog>> backlogSource = List::of;
 
     public DaemonMetrics() {
@@ -121,9 +121,12 @@ public final class DaemonMetrics {
         firingDuration.labelValues(dataset).observe(seconds);
     }
 
-    /** What the latest database probe found. */
-    void databasesReachable(boolean reachable) {
-        databasesUnreachable = !reachable;
+    /**
+     * What the latest database probe found: null when every database answered, else the name of one that did not
+     * ("source", "results"). Only the name reaches {@code /health}; the driver's message stays in the log.
+     */
+    void unreachableDatabase(String name) {
+        unreachableDatabase = name;
     }
 
     /**
@@ -154,8 +157,9 @@ public final class DaemonMetrics {
      */
     public Health health() {
         List<String> problems = new ArrayList<>();
-        if (databasesUnreachable) {
-            problems.add("a database is unreachable");
+        String unreachable = unreachableDatabase;
+        if (unreachable != null) {
+            problems.add("the " + unreachable + " database is unreachable");
         }
         new TreeMap<>(failing).forEach((dataset, failed) -> {
             if (failed) {

@@ -92,11 +92,11 @@ class DaemonMetricsTest {
     }
 
     @Test
-    void anUnreachableDatabaseIsDegraded() {
+    void anUnreachableDatabaseIsDegradedAndNamed() {
         DaemonMetrics m = new DaemonMetrics();
-        m.databasesReachable(false);
-        assertEquals(List.of("a database is unreachable"), m.health().problems());
-        m.databasesReachable(true);
+        m.unreachableDatabase("results");
+        assertEquals(List.of("the results database is unreachable"), m.health().problems());
+        m.unreachableDatabase(null);
         assertFalse(m.degraded());
     }
 
