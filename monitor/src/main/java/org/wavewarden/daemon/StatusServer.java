@@ -6,6 +6,8 @@ import org.eclipse.jetty.server.NetworkConnectionLimit;
 import org.eclipse.jetty.server.Server;
 import org.eclipse.jetty.server.ServerConnector;
 import org.eclipse.jetty.util.thread.QueuedThreadPool;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
 import org.wavewarden.config.ConfigException;
 import org.wavewarden.deliver.Json;
 
@@ -25,6 +27,8 @@ import java.time.Duration;
  * connections are capped, and request headers are limited in size.
  */
 final class StatusServer {
+
+    private static final Logger LOG = LoggerFactory.getLogger(StatusServer.class);
 
     /** Workers for requests (Jetty's acceptor and selector take two of them). */
     static final int MAX_THREADS = 16;
@@ -136,7 +140,7 @@ final class StatusServer {
         try {
             server.stop();
         } catch (Exception e) {
-            org.slf4j.LoggerFactory.getLogger(StatusServer.class).warn("status endpoint stop: {}", e.toString());
+            LOG.warn("status endpoint stop: {}", e.toString());
         }
     }
 }
