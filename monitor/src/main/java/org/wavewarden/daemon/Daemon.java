@@ -90,6 +90,10 @@ public final class Daemon implements AutoCloseable {
 
     /** Starts the scheduler (and the status endpoint unless its port is -1). */
     public void start(String instanceId, int clusterCheckinMillis) throws SchedulerException, IOException {
+        // First, so that a port in use is refused before the schema is migrated or a job is stored.
+        if (config.daemon().httpPort() >= 0) {
+            status = StatusServer.start(config.daemon().httpBind(), config.daemon().httpPort(), this);
+        }
         session.migrate();
         RegisteredConnectionProvider.register(registryKey, quartzPool);
         Properties p = new Properties();
@@ -125,9 +129,6 @@ public final class Daemon implements AutoCloseable {
                             .withMisfireHandlingInstructionFireAndProceed())
                     .build();
             scheduler.scheduleJob(job, Set.of(trigger), true);
-        }
-        if (config.daemon().httpPort() >= 0) {
-            status = StatusServer.start(config.daemon().httpBind(), config.daemon().httpPort(), this);
         }
         // Probed twice per check-in interval, so /health turns 503 within about the time after which another
         // cluster member would take over this instance's work.
@@ -175,6 +176,7 @@ public final class Daemon implements AutoCloseable {
         DatasetConfig d = config.dataset(dataset);
         Duration delay = retry.initial();
         for (int attempt = 1; ; attempt++) {
+            long started = System.nanoTime();
             try {
                 DatasetFiring.Result r = new DatasetFiring(session, clock, outputDir).fire(d);
                 for (JudgedWave j : r.judged()) {
@@ -185,6 +187,7 @@ public final class Daemon implements AutoCloseable {
                     writeDigest(r);
                 }
                 metrics.firingSucceeded(dataset, clock.instant());
+                metrics.firingDuration(dataset, (System.nanoTime() - started) / 1e9);
                 return true;
             } catch (RuntimeException e) {
                 metrics.firingFailed(dataset);

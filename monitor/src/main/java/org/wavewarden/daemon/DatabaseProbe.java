@@ -53,6 +53,7 @@ final class DatabaseProbe implements AutoCloseable {
 
     void check() {
         String problem = null;
+        String unreachable = null;
         for (Map.Entry<String, HikariDataSource> e : pools.entrySet()) {
             try (Connection c = e.getValue().getConnection()) {
                 if (!c.isValid(validSeconds)) {
@@ -62,10 +63,11 @@ final class DatabaseProbe implements AutoCloseable {
                 problem = "the " + e.getKey() + " database is unreachable: " + ex.getMessage();
             }
             if (problem != null) {
+                unreachable = e.getKey();
                 break;
             }
         }
-        metrics.databasesReachable(problem == null);
+        metrics.unreachableDatabase(unreachable);
         if (problem != null && lastProblem == null) {
             LOG.warn("{}; /health reports degraded until it answers again", problem);
         } else if (problem == null && lastProblem != null) {
