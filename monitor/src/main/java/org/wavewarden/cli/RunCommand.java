@@ -29,7 +29,7 @@ final class RunCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws Exception {
-        Session s = config.open();
+        Session s = config.open(c -> Preflight.run(c, System.getenv(), !once));
         Daemon daemon = new Daemon(s, Clock.systemUTC(), Daemon.Retry.DEFAULT, Deliveries.from(s));
         var out = spec.commandLine().getOut();
         if (once) {
