@@ -36,7 +36,7 @@ final class RunCommand implements Callable<Integer> {
             try (s; daemon) {
                 boolean ok = daemon.runOnce();
                 out.println(ok ? "one firing of every dataset completed" : "a firing failed; see the log");
-                return ok ? Main.OK : Main.UNREACHABLE;
+                return ok ? Main.OK : Main.firingFailed(s);
             }
         }
         CountDownLatch stopped = new CountDownLatch(1);
