@@ -32,11 +32,7 @@ final class JobStoreReconciler {
     private JobStoreReconciler() {
     }
 
-    /** What reconciliation changed, for the log and the tests. */
-    record Outcome(Set<String> removed, Set<String> rescheduled) {
-    }
-
-    static Outcome reconcile(Scheduler scheduler, List<DatasetConfig> datasets) throws SchedulerException {
+    static void reconcile(Scheduler scheduler, List<DatasetConfig> datasets) throws SchedulerException {
         Set<String> configured = datasets.stream().map(DatasetConfig::name).collect(Collectors.toUnmodifiableSet());
         scheduler.getContext().put(CONFIGURED, configured);
         Set<String> removed = new TreeSet<>();
@@ -56,17 +52,14 @@ final class JobStoreReconciler {
             LOG.warn("the job store held {} dataset(s) that are no longer in the config; their schedules are"
                     + " deleted: {}", removed.size(), removed);
         }
-        Set<String> rescheduled = new TreeSet<>();
         for (DatasetConfig d : datasets) {
             String wanted = d.schedule() == null ? Daemon.DEFAULT_SCHEDULE : d.schedule();
             Trigger stored = scheduler.getTrigger(TriggerKey.triggerKey(d.name(), Daemon.GROUP));
             if (stored instanceof CronTrigger cron && !cron.getCronExpression().equals(wanted)) {
                 LOG.info("schedule of dataset {} changed from '{}' to '{}'", d.name(), cron.getCronExpression(),
                         wanted);
-                rescheduled.add(d.name());
             }
         }
-        return new Outcome(Set.copyOf(removed), Set.copyOf(rescheduled));
     }
 
     /**
