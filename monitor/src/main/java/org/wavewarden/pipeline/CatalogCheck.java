@@ -74,7 +74,7 @@ public final class CatalogCheck {
                         + " values) or " + (column.type().isNumeric() ? "continuous" : "categorical") + " instead");
             }
             if (v.successValue() != null) {
-                successValueOccurs(h, src, tables, v, at + ".successValue");
+                successValueOccurs(h, tables, v, column, at + ".successValue");
             }
         }
         if (d.compareWith() instanceof CompareWith.Baseline b) {
@@ -140,12 +140,14 @@ public final class CatalogCheck {
      * scan keys its answers (a boolean prints t or f). One EXISTS per variable, which stops at the first match and
      * uses an index on a text column where there is one; a column with no answers yet is not judged.
      */
-    private static void successValueOccurs(Handle h, WaveSource src, List<TableName> tables, VariableConfig v,
+    private static void successValueOccurs(Handle h, List<TableName> tables, VariableConfig v, SourceColumn source,
                                            String key) {
         String column = Identifiers.quote(v.name());
         String printed = "format('%s', " + column + ")";
-        String match = tables.stream().map(t -> "EXISTS (SELECT 1 FROM " + t.quoted() + " WHERE " + column
-                + " IS NOT NULL AND " + printed + " = :value)").collect(Collectors.joining(" OR "));
+        // A text column prints as it is stored, so it is compared directly, where an index on it can serve.
+        boolean asStored = source.postgresType().equals("text") || source.postgresType().startsWith("character varying");
+        String match = tables.stream().map(t -> "EXISTS (SELECT 1 FROM " + t.quoted() + " WHERE "
+                + (asStored ? column : printed) + " = :value)").collect(Collectors.joining(" OR "));
         if (h.createQuery("SELECT " + match).bind("value", v.successValue()).mapTo(Boolean.class).one()) {
             return;
         }

@@ -68,6 +68,11 @@ class CatalogCheckTest {
                         "      - {name: has_car, kind: binary, successValue: \"yes\"}"),
                         "datasets[0].variables[3].successValue: 'yes' never occurs in column has_car of any wave, so"
                                 + " its share would read 0% in every wave; values that do occur include ['f', 't']"),
+                Arguments.of("a text column's success value that never occurs", config(null, null).replace("      - name: region\n"
+                        + "        kind: categorical\n", "      - {name: region, kind: binary, successValue: \"North\"}\n"),
+                        "datasets[0].variables[1].successValue: 'North' never occurs in column region of any wave, so"
+                                + " its share would read 0% in every wave; values that do occur include ['east',"
+                                + " 'north', 'south', 'west']"),
                 Arguments.of("a success value outside the codes", config(null,
                         "      - {name: satisfied, kind: binary, successValue: \"9\"}"),
                         "datasets[0].variables[3].successValue: '9' never occurs in column satisfied"),
