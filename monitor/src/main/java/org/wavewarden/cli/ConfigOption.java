@@ -22,7 +22,14 @@ final class ConfigOption {
 
     /** Loads the config, connects, and checks every configured table and column against the catalog. */
     Session open() {
+        return open(c -> {
+        });
+    }
+
+    /** As {@link #open()}, with checks of the loaded config that run before anything connects. */
+    Session open(java.util.function.Consumer<WardenConfig> preflight) {
         WardenConfig config = load();
+        preflight.accept(config);
         Session s = Session.open(config, null, System.getenv());
         try (Handle h = s.source().open()) {
             CatalogCheck.verify(h, config);

@@ -8,8 +8,8 @@ import picocli.CommandLine.Command;
 import java.io.PrintWriter;
 
 /**
- * The one executable. Exit codes: 0 fine, 1 findings at or above {@code --fail-on}, 2 usage or config error,
- * 3 database unreachable or login refused.
+ * The one executable. Its exit codes are the constants below; the README's table of exit codes lists the same, and
+ * {@code ExitCodeTableTest} holds the two together.
  */
 @Command(name = "wavewarden", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
         description = "Judges each new survey wave against earlier waves and flags disguised missing values.",
@@ -18,10 +18,19 @@ import java.io.PrintWriter;
                 CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
 
+    /** Done: judged, imported, listed or migrated as asked. */
     public static final int OK = 0;
+    /** {@code check --fail-on}: a finding at or above the given verdict. */
     public static final int FINDINGS = 1;
+    /** A bad command line or config, refused with the key before anything is written. */
     public static final int USAGE = 2;
+    /** A database cannot be reached or refuses the login. */
     public static final int UNREACHABLE = 3;
+    /**
+     * Anything else failed: an unexpected error, or a firing of {@code run --once} that still failed after its
+     * retries while both databases answer. The message or the log says why.
+     */
+    public static final int FAILED = 4;
 
     @CommandLine.Spec
     CommandLine.Model.CommandSpec spec;
@@ -62,7 +71,7 @@ public final class Main implements Runnable {
                 return UNREACHABLE;
             }
             line.getErr().println("error: " + e);
-            return 4;
+            return FAILED;
         });
         cl.setParameterExceptionHandler((ex, a) -> {
             ex.getCommandLine().getErr().println(ex.getMessage());
@@ -70,6 +79,20 @@ public final class Main implements Runnable {
             return USAGE;
         });
         return cl.execute(args);
+    }
+
+    /**
+     * The exit code of a {@code run --once} whose firing failed after its retries: 3 when a database does not
+     * answer now (the likeliest cause), else 4.
+     */
+    static int firingFailed(Session s) {
+        try {
+            s.source().useHandle(h -> h.execute("SELECT 1"));
+            s.store().jdbi().useHandle(h -> h.execute("SELECT 1"));
+            return FAILED;
+        } catch (RuntimeException e) {
+            return UNREACHABLE;
+        }
     }
 
     static boolean isConnectionFailure(Throwable e) {

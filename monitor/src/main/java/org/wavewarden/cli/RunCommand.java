@@ -29,14 +29,14 @@ final class RunCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws Exception {
-        Session s = config.open();
+        Session s = config.open(c -> Preflight.run(c, System.getenv(), !once));
         Daemon daemon = new Daemon(s, Clock.systemUTC(), Daemon.Retry.DEFAULT, Deliveries.from(s));
         var out = spec.commandLine().getOut();
         if (once) {
             try (s; daemon) {
                 boolean ok = daemon.runOnce();
                 out.println(ok ? "one firing of every dataset completed" : "a firing failed; see the log");
-                return ok ? Main.OK : Main.UNREACHABLE;
+                return ok ? Main.OK : Main.firingFailed(s);
             }
         }
         CountDownLatch stopped = new CountDownLatch(1);

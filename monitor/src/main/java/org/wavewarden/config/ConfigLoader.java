@@ -1,6 +1,8 @@
 package org.wavewarden.config;
 
+import com.fasterxml.jackson.core.JsonParser;
 import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.core.JsonStreamContext;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ObjectNode;
@@ -27,7 +29,9 @@ import java.util.Set;
  */
 public final class ConfigLoader {
 
-    private static final ObjectMapper YAML = new ObjectMapper(new YAMLFactory());
+    // Without strict detection a key given twice silently keeps its last value, so a config could say two things.
+    private static final ObjectMapper YAML = new ObjectMapper(new YAMLFactory())
+            .enable(JsonParser.Feature.STRICT_DUPLICATE_DETECTION);
 
     private ConfigLoader() {
     }
@@ -47,6 +51,7 @@ public final class ConfigLoader {
         try {
             root = YAML.readTree(yaml);
         } catch (JsonProcessingException e) {
+            duplicateKey(e);
             String where = e.getLocation() == null ? "" : " at line " + e.getLocation().getLineNr();
             String first = String.valueOf(e.getOriginalMessage()).lines().findFirst().orElse("").strip();
             throw new ConfigException("(file)", "not valid YAML" + where + ": " + first);
@@ -55,6 +60,27 @@ public final class ConfigLoader {
             throw new ConfigException("(file)", "expected a mapping with keys source, datasets, ... at the top");
         }
         return new ConfigLoader.Walker().config((ObjectNode) root);
+    }
+
+    /** A key given twice in one mapping: refused at its key path, with the line of the second occurrence. */
+    private static void duplicateKey(JsonProcessingException e) {
+        String message = String.valueOf(e.getOriginalMessage());
+        if (!(e.getProcessor() instanceof JsonParser parser) || !message.startsWith("Duplicate field")) {
+            return;
+        }
+        String line = e.getLocation() == null ? "" : " (line " + e.getLocation().getLineNr() + ")";
+        throw new ConfigException(keyPath(parser.getParsingContext()), "the key is given twice in the same"
+                + " mapping" + line + "; give it once");
+    }
+
+    /** The key path of a parsing context in the form ConfigException uses: {@code datasets[0].variables[2]}. */
+    private static String keyPath(JsonStreamContext context) {
+        java.util.Deque<String> parts = new java.util.ArrayDeque<>();
+        for (JsonStreamContext c = context; c != null && !c.inRoot(); c = c.getParent()) {
+            parts.push(c.inArray() ? "[" + c.getCurrentIndex() + "]" : "." + c.getCurrentName());
+        }
+        String path = String.join("", parts);
+        return path.startsWith(".") ? path.substring(1) : path;
     }
 
     /** Walks the tree; each method gets the node and its path. */
@@ -284,6 +310,10 @@ public final class ConfigLoader {
                 throw new ConfigException(path + ".schedule", "expected a Quartz cron expression (seconds minutes"
                         + " hours day-of-month month day-of-week), e.g. \"0 15 2 * * ?\", but got '" + schedule + "'");
             }
+            if (schedule != null && neverFires(schedule)) {
+                throw new ConfigException(path + ".schedule", "the cron expression '" + schedule + "' never fires"
+                        + " again (its last time is in the past), so the dataset would never be judged");
+            }
             List<String> exclude = texts(node, "exclude", path + ".exclude");
             for (int i = 0; i < exclude.size(); i++) {
                 Identifiers.require(path + ".exclude[" + i + "]", exclude.get(i));
@@ -307,22 +337,52 @@ public final class ConfigLoader {
             String key = respondentKey(node, path, waveColumn);
             ReleasesConfig releases = releases(object(node, "releases", path + ".releases", false), path, key,
                     table, pattern, waveColumn);
-            for (int i = 0; i < variables.size(); i++) {
-                String v = variables.get(i).name();
-                if (v.equals(key) || (releases != null && v.equals(releases.column()))) {
-                    throw new ConfigException(path + ".variables[" + i + "].name", "'" + v + "' is the "
-                            + (v.equals(key) ? "respondent key" : "release column") + " and is never compared as a"
-                            + " variable");
-                }
+            WaveOrder order = waveOrder(node, path);
+            CompareWith compareWith = compareWith(node.get("compareWith"), path + ".compareWith");
+            if (compareWith instanceof CompareWith.Baseline b && !order.isNatural() && !order.explicit().contains(b.wave())) {
+                throw new ConfigException(path + ".compareWith.baseline", "wave '" + b.wave() + "' is not in "
+                        + path + ".waveOrder " + order.explicit());
             }
-            return new DatasetConfig(name, table, waveColumn, pattern, waveOrder(node, path),
-                    compareWith(node.get("compareWith"), path + ".compareWith"), schedule, exclude, variables,
-                    duration(node, "quietPeriod", path + ".quietPeriod"),
+            DatasetConfig d = new DatasetConfig(name, table, waveColumn, pattern, order, compareWith, schedule,
+                    exclude, variables, duration(node, "quietPeriod", path + ".quietPeriod"),
                     alerts(object(node, "alerts", path + ".alerts", false), path + ".alerts"),
                     readyTable(node, path), readyColumn(node, path), weightColumn(node, path), key, releases,
                     design(object(node, "design", path + ".design", false), path, waveColumn, key,
                             weightColumn(node, path)),
                     relationships(node.get("relationships"), path + ".relationships"));
+            notBookkeeping(d, path);
+            return d;
+        }
+
+        /**
+         * A bookkeeping column (wave, weight, design, respondent key, release or excluded column) is never compared,
+         * so declaring it as a variable as well would silently drop the declaration: refused, naming both keys.
+         */
+        void notBookkeeping(DatasetConfig d, String path) {
+            for (int i = 0; i < d.variables().size(); i++) {
+                String v = d.variables().get(i).name();
+                String other = v.equals(d.waveColumn()) ? "waveColumn"
+                        : v.equals(d.weightColumn()) ? "weightColumn"
+                        : v.equals(d.respondentKey()) ? "respondentKey"
+                        : v.equals(d.releaseColumn()) ? "releases.column"
+                        : d.design() != null && v.equals(d.design().strata()) ? "design.strata"
+                        : d.design() != null && v.equals(d.design().clusters()) ? "design.clusters"
+                        : d.exclude().contains(v) ? "exclude[" + d.exclude().indexOf(v) + "]" : null;
+                if (other != null) {
+                    throw new ConfigException(path + ".variables[" + i + "].name", "'" + v + "' is also "
+                            + path + "." + other + ", a column that is never compared as a variable; keep one of the"
+                            + " two");
+                }
+            }
+        }
+
+        /** Quartz accepts a cron whose every time is past (a year in the past); such a trigger never fires. */
+        static boolean neverFires(String schedule) {
+            try {
+                return new CronExpression(schedule).getNextValidTimeAfter(new java.util.Date()) == null;
+            } catch (java.text.ParseException e) {
+                return false;
+            }
         }
 
         List<RelationshipConfig> relationships(JsonNode node, String path) {
@@ -669,20 +729,33 @@ public final class ConfigLoader {
                         throw new ConfigException(path + ".points", "percentage points apply to binary and categorical"
                                 + " shares; for a " + kind.configName() + " variable use raw or effect");
                     }
-                    if (value >= 100) {
-                        throw new ConfigException(path + ".points", "expected fewer than 100 percentage points");
+                    if (value > 100) {
+                        throw new ConfigException(path + ".points", "expected at most 100 percentage points");
                     }
                     return new Threshold(null, value, null);
                 }
                 default -> {
-                    if (value > 2) {
-                        throw new ConfigException(path + ".effect", "effect-scale thresholds are at most 2 (Hedges' g,"
-                                + " Cohen's h) and usually at most 1 (Cliff's delta, Cramér's V); got " + value
-                                + ": was a raw-unit threshold meant?");
+                    EffectScale tightest = EffectScale.tightest(kind);
+                    if (tightest == null) {
+                        throw new ConfigException(path + ".effect", "effect-scale thresholds apply to compared"
+                                + " variables; a " + kind.configName() + " variable is screened, not compared");
+                    }
+                    if (value > tightest.max()) {
+                        throw new ConfigException(path + ".effect", "effect-scale thresholds of " + kind.configName()
+                                + " variables are judged on " + orList(EffectScale.of(kind).stream()
+                                .map(EffectScale::label).toList()) + ", so at most "
+                                + (tightest.max() == Math.PI ? "pi" : String.valueOf((long) tightest.max())) + " ("
+                                + tightest.label() + " cannot exceed it); got " + value
+                                + (kind.isNumericScale() ? ": was a raw-unit threshold meant?" : ""));
                     }
                     return new Threshold(null, null, value);
                 }
             }
+        }
+
+        static String orList(List<String> items) {
+            return items.size() < 2 ? String.join("", items) : String.join(", ", items.subList(0, items.size() - 1))
+                    + " or " + items.get(items.size() - 1);
         }
 
         // --- small typed accessors that name the key on failure ---

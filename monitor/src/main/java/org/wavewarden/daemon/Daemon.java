@@ -121,6 +121,7 @@ public final class Daemon implements AutoCloseable {
         // the entry is dropped to let another instance (in tests, in the same JVM) build its own scheduler.
         org.quartz.impl.SchedulerRepository.getInstance().remove(scheduler.getSchedulerName());
         scheduler.setJobFactory((bundle, s) -> new JudgeDatasetJob(this));
+        JobStoreReconciler.reconcile(scheduler, config.datasets());
         for (DatasetConfig d : config.datasets()) {
             JobDetail job = JobBuilder.newJob(JudgeDatasetJob.class).withIdentity(d.name(), GROUP)
                     .usingJobData(JudgeDatasetJob.DATASET, d.name()).requestRecovery(true).storeDurably(true).build();

@@ -24,6 +24,8 @@ public final class JudgeDatasetJob implements Job {
     @Override
     public void execute(JobExecutionContext context) throws JobExecutionException {
         String dataset = context.getMergedJobDataMap().getString(DATASET);
-        daemon.fireWithRetries(dataset);
+        if (JobStoreReconciler.configured(context, dataset)) {
+            daemon.fireWithRetries(dataset);
+        }
     }
 }

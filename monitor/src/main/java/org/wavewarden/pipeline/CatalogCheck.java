@@ -2,14 +2,22 @@ package org.wavewarden.pipeline;
 
 import org.jdbi.v3.core.Handle;
 import org.wavewarden.config.ConfigException;
+import org.wavewarden.config.CompareWith;
 import org.wavewarden.config.DatasetConfig;
+import org.wavewarden.config.Identifiers;
+import org.wavewarden.config.Identifiers.TableName;
+import org.wavewarden.config.VariableConfig;
+import org.wavewarden.config.VariableKind;
+import org.wavewarden.profile.ColumnType;
 import org.wavewarden.config.RelationshipConfig;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.read.SourceCatalog;
 import org.wavewarden.read.SourceColumn;
 import org.wavewarden.read.WaveSource;
 
+import java.util.ArrayList;
 import java.util.List;
+import java.util.stream.Collectors;
 
 /**
  * The part of config validation that needs the database: every configured table and column must exist in the
@@ -29,32 +37,48 @@ public final class CatalogCheck {
     static void verify(Handle h, DatasetConfig d, String key) {
         WaveSource src = WaveSource.of(d, key);
         List<SourceColumn> columns;
+        List<TableName> tables;
         if (src.onePerWave()) {
             String[] parts = src.patternParts().orElseThrow();
-            List<String> tables = SourceCatalog.tablesMatching(h, parts[0], parts[1], parts[2]);
-            if (tables.isEmpty()) {
+            List<String> names = SourceCatalog.tablesMatching(h, parts[0], parts[1], parts[2]);
+            if (names.isEmpty()) {
                 throw new ConfigException(key + ".tablePattern", "no table in schema " + parts[0] + " matches "
                         + d.tablePattern());
             }
-            columns = SourceCatalog.columns(h, src.tableFor(tables.get(tables.size() - 1)
-                    .substring(parts[1].length(), tables.get(tables.size() - 1).length() - parts[2].length())));
+            tables = names.stream().filter(Identifiers::isPlain).map(t -> new TableName(parts[0], t)).toList();
+            String last = names.get(names.size() - 1);
+            columns = SourceCatalog.columns(h, src.tableFor(last.substring(parts[1].length(),
+                    last.length() - parts[2].length())));
         } else {
             if (!SourceCatalog.tableExists(h, src.table())) {
                 throw new ConfigException(key + ".table", "table " + src.table() + " does not exist in the source"
                         + " database (or this role cannot see it)");
             }
             columns = SourceCatalog.columns(h, src.table());
+            tables = List.of(src.table());
             if (columns.stream().noneMatch(c -> c.name().equals(d.waveColumn()))) {
                 throw new ConfigException(key + ".waveColumn", "column " + d.waveColumn() + " does not exist in "
                         + src.table() + "; it has " + names(columns));
             }
         }
         for (int j = 0; j < d.variables().size(); j++) {
-            String name = d.variables().get(j).name();
-            if (columns.stream().noneMatch(c -> c.name().equals(name))) {
-                throw new ConfigException(key + ".variables[" + j + "].name", "column " + name + " does not exist in"
-                        + " the source table; it has " + names(columns));
+            VariableConfig v = d.variables().get(j);
+            String at = key + ".variables[" + j + "]";
+            SourceColumn column = columns.stream().filter(c -> c.name().equals(v.name())).findFirst().orElseThrow(() ->
+                    new ConfigException(at + ".name", "column " + v.name() + " does not exist in the source table;"
+                            + " it has " + names(columns)));
+            if (v.kind() == VariableKind.DATE && column.type() != ColumnType.DATE
+                    && column.type() != ColumnType.TIMESTAMP) {
+                throw new ConfigException(at + ".kind", "kind date needs a date or timestamp column, but " + v.name()
+                        + " is " + column.postgresType() + "; declare it as text (screened for disguised missing"
+                        + " values) or " + (column.type().isNumeric() ? "continuous" : "categorical") + " instead");
             }
+            if (v.successValue() != null) {
+                successValueOccurs(h, tables, v, column, at + ".successValue");
+            }
+        }
+        if (d.compareWith() instanceof CompareWith.Baseline b) {
+            baselineExists(h, src, tables, b.wave(), key + ".compareWith.baseline");
         }
         if (d.readyTable() != null) {
             var rt = org.wavewarden.config.Identifiers.TableName.parse(key + ".readyTable", d.readyTable());
@@ -66,9 +90,15 @@ public final class CatalogCheck {
                 throw new ConfigException(key + ".readyColumn", "column " + d.readyColumn() + " does not exist in " + rt);
             }
         }
-        if (d.weightColumn() != null && columns.stream().noneMatch(c -> c.name().equals(d.weightColumn()))) {
-            throw new ConfigException(key + ".weightColumn", "column " + d.weightColumn() + " does not exist in the"
-                    + " source table; it has " + names(columns));
+        if (d.weightColumn() != null) {
+            SourceColumn w = columns.stream().filter(c -> c.name().equals(d.weightColumn())).findFirst().orElseThrow(
+                    () -> new ConfigException(key + ".weightColumn", "column " + d.weightColumn() + " does not exist"
+                            + " in the source table; it has " + names(columns)));
+            if (!w.type().isNumeric()) {
+                throw new ConfigException(key + ".weightColumn", "expected a numeric column (an INTEGER or DECIMAL"
+                        + " type such as integer, numeric or double precision) holding the survey weights, but "
+                        + w.name() + " is " + w.postgresType());
+            }
         }
         if (d.design() != null) {
             for (String[] c : new String[][] {{"strata", d.design().strata()}, {"clusters", d.design().clusters()}}) {
@@ -102,6 +132,74 @@ public final class CatalogCheck {
                         + " source table");
             }
         }
+    }
+
+    /**
+     * A binary variable's configured success value must occur somewhere in the source, or every wave reads 0%
+     * and the comparison says "stable" about nothing. The value is compared as the column prints, which is how the
+     * scan keys its answers (a boolean prints t or f). One EXISTS per variable, which stops at the first match and
+     * uses an index on a text column where there is one; a column with no answers yet is not judged.
+     */
+    private static void successValueOccurs(Handle h, List<TableName> tables, VariableConfig v, SourceColumn source,
+                                           String key) {
+        String column = Identifiers.quote(v.name());
+        String printed = "format('%s', " + column + ")";
+        // A text column prints as it is stored, so it is compared directly, where an index on it can serve.
+        boolean asStored = source.postgresType().equals("text") || source.postgresType().startsWith("character varying");
+        String match = tables.stream().map(t -> "EXISTS (SELECT 1 FROM " + t.quoted() + " WHERE "
+                + (asStored ? column : printed) + " = :value)").collect(Collectors.joining(" OR "));
+        if (h.createQuery("SELECT " + match).bind("value", v.successValue()).mapTo(Boolean.class).one()) {
+            return;
+        }
+        List<String> seen = new ArrayList<>();
+        for (TableName t : tables) {
+            if (seen.size() >= FEW) {
+                break;
+            }
+            seen.addAll(h.createQuery("SELECT DISTINCT " + printed + " FROM " + t.quoted() + " WHERE " + column
+                    + " IS NOT NULL ORDER BY 1 LIMIT " + FEW).mapTo(String.class).list());
+        }
+        if (seen.isEmpty()) {
+            return;
+        }
+        throw new ConfigException(key, "'" + v.successValue() + "' never occurs in column " + v.name() + " of any"
+                + " wave, so its share would read 0% in every wave; values that do occur include "
+                + seen.stream().distinct().limit(FEW).map(CatalogCheck::shown).toList());
+    }
+
+    /** A fixed baseline wave must be in the source, unless the source holds no wave yet. */
+    private static void baselineExists(Handle h, WaveSource src, List<TableName> tables, String wave, String key) {
+        if (src.onePerWave()) {
+            TableName t;
+            try {
+                t = src.tableFor(wave);
+            } catch (ConfigException e) {
+                throw new ConfigException(key, "wave '" + wave + "' cannot name a table of the pattern: "
+                        + e.problem());
+            }
+            if (!tables.contains(t)) {
+                throw new ConfigException(key, "no wave '" + wave + "': table " + t + " does not exist");
+            }
+            return;
+        }
+        String wc = Identifiers.quote(src.waveColumn());
+        String from = " FROM " + src.table().quoted();
+        boolean found = h.createQuery("SELECT EXISTS (SELECT 1" + from + " WHERE " + wc + "::text = :wave)")
+                .bind("wave", wave).mapTo(Boolean.class).one();
+        if (found || !h.createQuery("SELECT EXISTS (SELECT 1" + from + ")").mapTo(Boolean.class).one()) {
+            return;
+        }
+        List<String> waves = h.createQuery("SELECT DISTINCT " + wc + "::text" + from + " ORDER BY 1 LIMIT " + FEW)
+                .mapTo(String.class).list();
+        throw new ConfigException(key, "no wave '" + wave + "' in " + src.table() + "; waves there include " + waves);
+    }
+
+    private static final int FEW = 5;
+
+    /** A value from the data, quoted and kept on one line (data never shapes the message). */
+    private static String shown(String value) {
+        String cut = value.length() > 40 ? value.substring(0, 40) + "..." : value;
+        return "'" + cut.replaceAll("\\p{Cntrl}", "?") + "'";
     }
 
     /** A relationship's column must be read in the scan and hold numbers, or its correlation means nothing. */

@@ -99,7 +99,7 @@ class ConfigLoaderTest {
                         "datasets[0].variables[0].threshold.points: percentage points apply to binary and categorical"),
                 Arguments.of("effect threshold on the wrong scale", GOOD.replace("threshold: {raw: 1.5}",
                         "threshold: {effect: 15}"), "datasets[0].variables[0].threshold.effect: effect-scale thresholds"
-                        + " are at most 2"),
+                        + " of continuous variables are judged on Hedges' g, Cliff's delta"),
                 Arguments.of("range min above max", GOOD.replace("{min: 16, max: 99}", "{min: 99, max: 16}"),
                         "datasets[0].variables[0].range: min 99.0 is above max 16.0"),
                 Arguments.of("pooledLast not a whole number", GOOD.replace("pooledLast: 3", "pooledLast: 2.5"),
@@ -207,7 +207,70 @@ class ConfigLoaderTest {
                         + "    waveColumn: wave", "tablePattern: \"survey.wave_{wave}\""),
                         "datasets[0].releases.previousTable: expected a pattern containing {wave}"),
                 Arguments.of("a variable that is the respondent key", releases("respondentKey: age"),
-                        "datasets[0].variables[0].name: 'age' is the respondent key and is never compared"));
+                        "datasets[0].variables[0].name: 'age' is also datasets[0].respondentKey, a column that is"
+                                + " never compared as a variable"));
+    }
+
+    /** Configs that used to load and then said something other than what they meant (or nothing at all). */
+    static Stream<Arguments> configsThatSaidTwoThingsOrNothing() {
+        return Stream.of(
+                Arguments.of("a key given twice", GOOD.replace("kind: continuous", "kind: continuous\n        kind:"
+                        + " ordinal"), "datasets[0].variables[0].kind: the key is given twice in the same mapping"
+                        + " (line 15)"),
+                Arguments.of("a top-level key given twice", GOOD + "alpha: 0.01\n",
+                        "alpha: the key is given twice"),
+                Arguments.of("the weight column declared as a variable", releases("weightColumn: age"),
+                        "datasets[0].variables[0].name: 'age' is also datasets[0].weightColumn"),
+                Arguments.of("the wave column declared as a variable", GOOD.replace("name: age", "name: wave"),
+                        "datasets[0].variables[0].name: 'wave' is also datasets[0].waveColumn"),
+                Arguments.of("an excluded column declared as a variable", releases("exclude: [id, broadband]"),
+                        "datasets[0].variables[1].name: 'broadband' is also datasets[0].exclude[1]"),
+                Arguments.of("a stratum column declared as a variable", releases("weightColumn: w\n    design:"
+                        + " {strata: broadband, clusters: village}"),
+                        "datasets[0].variables[1].name: 'broadband' is also datasets[0].design.strata"),
+                Arguments.of("a cluster column declared as a variable", releases("weightColumn: w\n    design:"
+                        + " {clusters: age}"), "datasets[0].variables[0].name: 'age' is also datasets[0].design.clusters"),
+                Arguments.of("Cliff's delta above 1 on an ordinal", GOOD.replace("kind: continuous",
+                        "kind: ordinal").replace("threshold: {raw: 1.5}", "threshold: {effect: 1.5}"),
+                        "datasets[0].variables[0].threshold.effect: effect-scale thresholds of ordinal variables"
+                                + " are judged on Cliff's delta or rank-biserial r, so at most 1"),
+                Arguments.of("an effect above 1 on a continuous, judged on Cliff's delta when skewed",
+                        GOOD.replace("threshold: {raw: 1.5}", "threshold: {effect: 1.5}"),
+                        "datasets[0].variables[0].threshold.effect: effect-scale thresholds of continuous variables"),
+                Arguments.of("Cramér's V above 1", GOOD.replace("kind: binary", "kind: categorical")
+                        .replace("        successValue: \"yes\"\n", "").replace("{points: 2}", "{effect: 1.2}"),
+                        "datasets[0].variables[1].threshold.effect: effect-scale thresholds of categorical variables"
+                                + " are judged on Cramér's V, so at most 1"),
+                Arguments.of("Cohen's h above pi", GOOD.replace("{points: 2}", "{effect: 3.2}"),
+                        "datasets[0].variables[1].threshold.effect: effect-scale thresholds of binary variables are"
+                                + " judged on Cohen's h, so at most pi"),
+                Arguments.of("an effect threshold on a text variable", GOOD.replace("kind: binary", "kind: text")
+                        .replace("        successValue: \"yes\"\n", "").replace("{points: 2}", "{effect: 0.2}"),
+                        "datasets[0].variables[1].threshold.effect: effect-scale thresholds apply to compared"),
+                Arguments.of("more than 100 percentage points", GOOD.replace("{points: 2}", "{points: 101}"),
+                        "datasets[0].variables[1].threshold.points: expected at most 100 percentage points"),
+                Arguments.of("a cron that never fires again", GOOD.replace("0 15 2 * * ?", "0 0 0 1 1 ? 2001"),
+                        "datasets[0].schedule: the cron expression '0 0 0 1 1 ? 2001' never fires again"),
+                Arguments.of("a baseline outside the explicit wave order", GOOD.replace("compareWith: {pooledLast: 3}",
+                        "compareWith: {baseline: 2019}\n    waveOrder: [\"2020\", \"2021\"]"),
+                        "datasets[0].compareWith.baseline: wave '2019' is not in datasets[0].waveOrder"));
+    }
+
+    @ParameterizedTest(name = "{0}")
+    @MethodSource("configsThatSaidTwoThingsOrNothing")
+    void aConfigThatWouldSayTwoThingsOrNothingExitsTwoNamingTheKey(String what, String yaml, String expected,
+                                                                  @TempDir Path dir) throws Exception {
+        aBadConfigExitsTwoNamingTheKey(what, yaml, expected, dir);
+    }
+
+    @Test
+    void effectThresholdsUpToTheirScalesBoundAreAccepted() {
+        assertEquals(1.0, ConfigLoader.parse(GOOD.replace("threshold: {raw: 1.5}", "threshold: {effect: 1}"))
+                .dataset("coastal").variables().get(0).threshold().effect());
+        assertEquals(3.0, ConfigLoader.parse(GOOD.replace("{points: 2}", "{effect: 3}"))
+                .dataset("coastal").variables().get(1).threshold().effect());
+        assertEquals(100.0, ConfigLoader.parse(GOOD.replace("{points: 2}", "{points: 100}"))
+                .dataset("coastal").variables().get(1).threshold().points());
     }
 
     /** GOOD with the given dataset keys added (indented as dataset keys). */
