@@ -65,6 +65,8 @@ final class FaultInjector {
     private static final Duration RECEIVER_OUTAGE = Duration.ofSeconds(60);
     /** How long a targeted fault waits for its moment before it is given up (and logged as not injected). */
     private static final Duration TARGET_WAIT = Duration.ofSeconds(15);
+    /** Alerts come in bursts a few waves apart, so a webhook request is waited for longer. */
+    private static final Duration DELIVERY_WAIT = Duration.ofSeconds(45);
 
     private final SplittableRandom random;
     private final TcpProxy proxy;
@@ -156,10 +158,10 @@ final class FaultInjector {
             case DAEMON_SIGKILL -> killAndRestart(kind, "at random", Instant.now());
             case DAEMON_SIGKILL_DURING_DELIVERY -> {
                 WebhookReceiver.Hold hold = receiver.holdNext();
-                boolean arrived = hold.awaitArrival(TARGET_WAIT);
+                boolean arrived = hold.awaitArrival(DELIVERY_WAIT);
                 if (!arrived) {
                     receiver.cancel(hold);
-                    note(kind, "not injected: no webhook request in " + TARGET_WAIT.toSeconds() + " s");
+                    note(kind, "not injected: no webhook request in " + DELIVERY_WAIT.toSeconds() + " s");
                     return;
                 }
                 Instant t = Instant.now();

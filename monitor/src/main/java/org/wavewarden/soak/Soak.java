@@ -146,7 +146,8 @@ public final class Soak {
         }
         try (EmbeddedServer server = o.jdbcUrl() == null ? EmbeddedServer.start() : null) {
             String url = server != null ? server.jdbcUrl() : o.jdbcUrl();
-            Target target = Target.of(url);
+            // The embedded server listens on 127.0.0.1 only, while its URL says localhost, which may resolve to ::1.
+            Target target = server != null ? Target.of(url).onLoopback() : Target.of(url);
             try (Connection main = connect(url, o, password);
                  Connection producerDb = connect(url, o, password);
                  Connection watchDb = connect(url, o, password);
@@ -404,7 +405,7 @@ public final class Soak {
         return m;
     }
 
-    /** Where the server is, and the daemon's URL to it through the forwarder. */
+    /** Where the server is (a null host is loopback), and the daemon's URL to it through the forwarder. */
     record Target(String host, int port, String database, String query) {
         static Target of(String url) {
             Properties p = Driver.parseURL(url, new Properties());
@@ -419,6 +420,10 @@ public final class Soak {
             int q = url.indexOf('?');
             return new Target(host, Integer.parseInt(port), p.getProperty("PGDBNAME", ""),
                     q < 0 ? "" : url.substring(q));
+        }
+
+        Target onLoopback() {
+            return new Target(null, port, database, query);
         }
 
         /**
