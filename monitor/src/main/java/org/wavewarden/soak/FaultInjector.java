@@ -216,7 +216,7 @@ final class FaultInjector {
             while (Instant.now().isBefore(end) && Instant.now().isBefore(deadline)) {
                 try (ResultSet rs = ps.executeQuery()) {
                     if (rs.next()) {
-                        return rs.getString(1).replaceAll("\\s+", " ");
+                        return rs.getString(1).replaceAll("\\s+", " ") + "...";
                     }
                 }
                 Thread.sleep(5);

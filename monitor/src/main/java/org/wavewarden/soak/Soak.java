@@ -402,6 +402,7 @@ public final class Soak {
         m.put("faults", dir.resolve(FAULT_LOG).toString());
         m.put("digests", dir.resolve(DIGEST_DIR).toString());
         m.put("summary", dir.resolve(SUMMARY_FILE).toString());
+        m.put("lock", dir.resolve(LOCK_FILE).toString());
         return m;
     }
 
