@@ -110,10 +110,6 @@ final class DaemonProcess implements AutoCloseable {
         return code;
     }
 
-    synchronized boolean isRunning() {
-        return process != null && process.isAlive();
-    }
-
     /** SIGTERM, as a service manager stops it; SIGKILL if it has not exited within {@code grace}. */
     synchronized int stop(Duration grace) throws InterruptedException {
         held = true;

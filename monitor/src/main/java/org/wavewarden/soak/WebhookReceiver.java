@@ -38,7 +38,7 @@ import java.util.concurrent.TimeUnit;
 public final class WebhookReceiver implements AutoCloseable {
 
     /** How the receiver answers signed requests. */
-    public enum Mode {
+    private enum Mode {
         ACCEPT, FAIL, SLOW
     }
 
@@ -115,10 +115,6 @@ public final class WebhookReceiver implements AutoCloseable {
             server.stop(0);
             server = null;
         }
-    }
-
-    public synchronized boolean isUp() {
-        return server != null;
     }
 
     /** Answers 500 to every request until the mode changes. */
