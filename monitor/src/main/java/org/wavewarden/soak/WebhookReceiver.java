@@ -200,9 +200,12 @@ public final class WebhookReceiver implements AutoCloseable {
                 }
                 status = 200;
             }
-            boolean written = answer(ex, status);
+            // Recorded between the status line and the end of the answer: the sender cannot have its answer before
+            // the request is on record, so whoever reads the record after an answer finds it there.
+            boolean written = startAnswer(ex, status);
             record(new Request(Instant.now(), key, status, written && status / 100 == 2, signed,
                     new String(body, StandardCharsets.UTF_8)));
+            finishAnswer(ex);
         }
     }
 
@@ -231,14 +234,30 @@ public final class WebhookReceiver implements AutoCloseable {
         }
     }
 
-    /** Writes the answer; false when the sender was gone. */
-    private static boolean answer(HttpExchange ex, int status) {
+    private static final byte[] ANSWER_BODY = "{}".getBytes(StandardCharsets.UTF_8);
+
+    /** Writes the status line and headers; false when the sender was gone. */
+    private static boolean startAnswer(HttpExchange ex, int status) {
         try {
-            ex.sendResponseHeaders(status, -1);
-            ex.getResponseBody().close();
+            ex.sendResponseHeaders(status, ANSWER_BODY.length);
             return true;
         } catch (IOException e) {
             return false;
+        }
+    }
+
+    private static void finishAnswer(HttpExchange ex) {
+        try (var out = ex.getResponseBody()) {
+            out.write(ANSWER_BODY);
+        } catch (IOException e) {
+            // the sender went away after the status line; it is on record as answered
+        }
+    }
+
+    /** The whole answer at once, for requests that are not deliveries. */
+    private static void answer(HttpExchange ex, int status) {
+        if (startAnswer(ex, status)) {
+            finishAnswer(ex);
         }
     }
 
