@@ -14,7 +14,7 @@ import java.io.PrintWriter;
 @Command(name = "wavewarden", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
         description = "Judges each new survey wave against earlier waves and flags disguised missing values.",
         subcommands = {DemoCommand.class, InitDbCommand.class, ImportCommand.class, WavesCommand.class,
-                CheckCommand.class, ReleasesCommand.class, RunCommand.class, BenchCommand.class,
+                CheckCommand.class, ReleasesCommand.class, RunCommand.class, BenchCommand.class, SoakCommand.class,
                 CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
 

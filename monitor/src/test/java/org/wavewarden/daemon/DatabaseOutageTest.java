@@ -7,7 +7,7 @@ import org.wavewarden.config.WardenConfig;
 import org.wavewarden.pipeline.Session;
 import org.wavewarden.testing.CliRun;
 import org.wavewarden.testing.SmallSurvey;
-import org.wavewarden.testing.TcpProxy;
+import org.wavewarden.soak.TcpProxy;
 import org.wavewarden.testing.TestDatabase;
 
 import java.net.URI;

@@ -1,4 +1,4 @@
-package org.wavewarden.testing;
+package org.wavewarden.soak;
 
 import java.io.IOException;
 import java.io.InputStream;
@@ -12,15 +12,18 @@ import java.util.List;
 import java.util.concurrent.atomic.AtomicLong;
 
 /**
- * A loopback TCP forwarder that stands between the monitor and its database server, so a test can take the
- * database away the way a network partition or a restarting server does: {@link #cut()} drops every open
- * connection at once (the server sees its clients vanish and rolls back their open transactions) and turns
- * every new connection away until {@link #restore()}. The listening port stays the same throughout, so the
- * monitor's JDBC URL keeps pointing at it.
+ * A loopback TCP forwarder that stands between the monitor and its database server, so the soak (and the
+ * reliability tests) can take the database away the way a network partition or a restarting server does:
+ * {@link #cut()} drops every open connection at once (the server sees its clients vanish and rolls back their
+ * open transactions) and turns every new connection away until {@link #restore()}. The listening port stays the
+ * same throughout, so the monitor's JDBC URL keeps pointing at it. It listens on 127.0.0.1 only.
  */
 public final class TcpProxy implements AutoCloseable {
 
+    private static final int CONNECT_TIMEOUT_MILLIS = 5_000;
+
     private final ServerSocket listener;
+    private final String targetHost;
     private final int targetPort;
     private final Object lock = new Object();
     private final List<Socket> open = new ArrayList<>();
@@ -29,20 +32,29 @@ public final class TcpProxy implements AutoCloseable {
     private boolean cut;
     private volatile boolean closed;
 
-    private TcpProxy(ServerSocket listener, int targetPort) {
+    private TcpProxy(ServerSocket listener, String targetHost, int targetPort) {
         this.listener = listener;
+        this.targetHost = targetHost;
         this.targetPort = targetPort;
     }
 
     /** Listens on 127.0.0.1 at a free port and forwards every connection to 127.0.0.1:{@code targetPort}. */
     public static TcpProxy start(int targetPort) throws IOException {
+        return start(null, targetPort);
+    }
+
+    /**
+     * Listens on 127.0.0.1 at a free port and forwards every connection to {@code targetHost:targetPort}
+     * (loopback when the host is null).
+     */
+    public static TcpProxy start(String targetHost, int targetPort) throws IOException {
         if (targetPort <= 0 || targetPort > 65535) {
             throw new IllegalArgumentException("targetPort: expected 1 to 65535 but got " + targetPort);
         }
         ServerSocket s = new ServerSocket();
         s.setReuseAddress(true);
         s.bind(new InetSocketAddress(InetAddress.getLoopbackAddress(), 0), 64);
-        TcpProxy p = new TcpProxy(s, targetPort);
+        TcpProxy p = new TcpProxy(s, targetHost, targetPort);
         Thread t = new Thread(p::acceptLoop, "tcp-proxy-accept-" + s.getLocalPort());
         t.setDaemon(true);
         t.start();
@@ -76,6 +88,13 @@ public final class TcpProxy implements AutoCloseable {
         return accepted.get();
     }
 
+    /** Whether new connections are turned away now. */
+    public boolean isCut() {
+        synchronized (lock) {
+            return cut;
+        }
+    }
+
     /** Connections turned away while cut. */
     public long refused() {
         return refused.get();
@@ -99,7 +118,10 @@ public final class TcpProxy implements AutoCloseable {
             }
             if (forward) {
                 try {
-                    upstream = new Socket(InetAddress.getLoopbackAddress(), targetPort);
+                    upstream = new Socket();
+                    // Bounded, as a connection is made in the accept loop: a silent server must not stall it.
+                    upstream.connect(targetHost == null ? new InetSocketAddress(InetAddress.getLoopbackAddress(),
+                            targetPort) : new InetSocketAddress(targetHost, targetPort), CONNECT_TIMEOUT_MILLIS);
                     upstream.setTcpNoDelay(true);
                     client.setTcpNoDelay(true);
                 } catch (IOException e) {
