@@ -250,7 +250,7 @@ public final class WaveJudge {
                         mine, myPlain);
             } catch (RuntimeException e) {
                 // A value no method foresaw must cost one variable its comparison, never the whole run.
-                LOG.warn("variable {} of {} could not be compared: {}", v.name(), what, e.toString());
+                LOG.warn("variable {} of {} could not be compared: {}", v.name(), what, e.toString(), e);
                 mine.clear();
                 myPlain.clear();
                 myPlain.add(Finding.dataQuality(v.name(), FindingKind.SKIPPED, null, null, "Not compared: the"

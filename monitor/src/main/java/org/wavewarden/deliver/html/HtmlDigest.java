@@ -32,6 +32,8 @@ import static org.wavewarden.deliver.html.Html.esc;
  */
 public final class HtmlDigest {
 
+    private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(HtmlDigest.class);
+
     private static final DateTimeFormatter STAMP =
             DateTimeFormatter.ofPattern("yyyy-MM-dd HH:mm 'UTC'", Locale.ROOT).withZone(ZoneOffset.UTC);
 
@@ -186,14 +188,28 @@ public final class HtmlDigest {
         if (a.plot() != null || a.trend() != null) {
             h.append("<div class=\"charts\">");
             if (a.plot() != null) {
-                h.append(plot(f.variable(), a.plot(), baselineWave, currentWave));
+                h.append(contained(f, "plot", () -> plot(f.variable(), a.plot(), baselineWave, currentWave)));
             }
             if (a.trend() != null) {
-                h.append(SvgChart.sparkline(f.variable(), a.trend(), currentWave));
+                h.append(contained(f, "trend", () -> SvgChart.sparkline(f.variable(), a.trend(), currentWave)));
             }
             h.append("</div>\n");
         }
         h.append("</article>\n");
+    }
+
+    /**
+     * A chart of one alert, or a note in its place when drawing it fails: one chart must never cost the digest
+     * (the alert's sentence and numbers are already written above it).
+     */
+    static String contained(Finding f, String what, java.util.function.Supplier<String> chart) {
+        try {
+            return chart.get();
+        } catch (RuntimeException e) {
+            LOG.warn("the {} of {} ({}) could not be drawn: {}", what, f.variable(), f.kind(), e.toString(), e);
+            return "<p class=\"note\">The " + what + " of this alert could not be drawn ("
+                    + esc(e.getClass().getSimpleName()) + ").</p>";
+        }
     }
 
     static String plot(String variable, VariablePlot p, String baselineWave, String currentWave) {
