@@ -127,24 +127,29 @@ public final class WaveJudge {
 
         WaveProfile current = session.source().withHandle(h -> profile(h, d, source, wave, progress));
         List<WaveProfile> baselines = new ArrayList<>();
+        List<String> notes = new ArrayList<>();
         for (String b : against) {
-            baselines.add(baselineProfile(d, source, b, current.columnNames()));
+            baselines.add(baselineProfile(d, source, b, current.columnNames(), notes));
         }
         WaveProfile baseline = baselines.isEmpty() ? null
                 : baselines.size() == 1 ? baselines.get(0) : WaveProfile.pooled(againstLabel, baselines);
 
         Profiled judged = findings(cfg, d, current, baseline, panel(d, source, against, baseline, current));
-        List<String> inference = judged.inference();
+        List<String> inference = new ArrayList<>(notes);
+        inference.addAll(judged.inference());
         List<Finding> findings = judged.findings();
         List<Finding> alerts = Alerts.select(findings);
         Instant finished = clock.instant();
         FindingsReport report = new FindingsReport(d.name(), wave, againstLabel, finished, cfg.alpha(),
                 cfg.fdr().name(), inference, findings);
         FaultPoints.hit(FaultPoints.BEFORE_WRITE);
+        String checksum = current.checksum();
         long runId = session.store().writeRun(new ResultsStore.RunWrite(d.name(), wave,
-                        againstLabel == null ? "" : againstLabel, current.checksum(), started, finished, cfg.alpha(),
+                        againstLabel == null ? "" : againstLabel, checksum, started, finished, cfg.alpha(),
                         cfg.fdr().name()),
                 current, findings, alerts);
+        // The summary the run stored becomes the baseline of later waves under this configuration.
+        session.store().keySummary(d.name(), wave, checksum, SummaryKey.of(d, current.schema()).value());
         if (outDir != null) {
             FindingsFiles.write(outDir, report);
         }
@@ -467,8 +472,19 @@ public final class WaveJudge {
 
     /** The configured relationships whose two columns this wave has as monitored numbers. */
     static List<PairSpec> pairs(DatasetConfig d, List<SourceColumn> monitored) {
+        Map<String, ColumnType> types = new LinkedHashMap<>();
+        monitored.forEach(c -> types.put(c.name(), c.type()));
+        return pairs(d, types);
+    }
+
+    /** The same from a column layout: the relationships whose two columns are monitored numbers there. */
+    static List<PairSpec> pairs(DatasetConfig d, Map<String, ColumnType> schema) {
         java.util.Set<String> numbers = new java.util.HashSet<>();
-        monitored.stream().filter(c -> c.type().isNumeric()).forEach(c -> numbers.add(c.name()));
+        schema.forEach((name, type) -> {
+            if (type.isNumeric() && !d.isBookkeeping(name)) {
+                numbers.add(name);
+            }
+        });
         return d.relationships().stream().filter(r -> numbers.contains(r.x()) && numbers.contains(r.y()))
                 .map(r -> new PairSpec(r.x(), r.y())).toList();
     }
@@ -495,22 +511,32 @@ public final class WaveJudge {
     }
 
     /**
-     * The stored summary of an earlier wave, read from the source once if it was never stored or lacks columns or
-     * the pairs of a configured relationship (a summary stored before the relationship was configured).
+     * The stored summary of an earlier wave, read from the source once if it was never stored, lacks columns or
+     * the pairs of a configured relationship, or was made under another configuration (its {@link SummaryKey}
+     * differs: weights, design, codebook codes, kinds, ranges or the columns read changed since). A summary read
+     * again for that reason is named in {@code notes}.
      */
-
-    private WaveProfile baselineProfile(DatasetConfig d, WaveSource source, String wave, List<String> needed) {
+    private WaveProfile baselineProfile(DatasetConfig d, WaveSource source, String wave, List<String> needed,
+                                        List<String> notes) {
         Optional<ResultsStore.StoredSummary> stored = session.store().latestSummary(d.name(), wave);
         if (stored.isPresent()) {
             WaveProfile p = stored.get().profile();
+            boolean sameConfig = SummaryKey.of(d, p.schema()).value().equals(stored.get().summaryKey());
             boolean complete = needed.stream().allMatch(c -> p.columns().containsKey(c) || !p.schema().containsKey(c))
                     && !lacksPairs(d, p);
-            if (complete) {
+            if (complete && sameConfig) {
                 return p;
+            }
+            if (!sameConfig) {
+                String note = "The stored summary of baseline wave " + wave + " was made under another configuration"
+                        + " (columns read, weights, design, codebook codes, kinds, ranges or relationships differ), so"
+                        + " the baseline summary was recomputed from the source.";
+                LOG.info("dataset {}: {}", d.name(), note);
+                notes.add(note);
             }
         }
         WaveProfile p = session.source().withHandle(h -> profile(h, d, source, wave, null));
-        session.store().saveSummary(d.name(), p, p.checksum());
+        session.store().saveSummary(d.name(), p, p.checksum(), SummaryKey.of(d, p.schema()).value());
         return p;
     }
 

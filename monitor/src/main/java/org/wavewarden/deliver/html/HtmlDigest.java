@@ -107,6 +107,13 @@ public final class HtmlDigest {
         h.append("<section class=\"wave\" id=\"wave-").append(index).append("\" data-wave=\"").append(esc(r.wave()))
                 .append("\">\n<h2>").append(esc(capitalised(waveTitle(r)))).append("</h2>\n");
         h.append("<p class=\"summary\">").append(summary(r, s.alerts().size())).append("</p>\n");
+        if (!r.inference().isEmpty()) {
+            // How the run read its data: kinds it inferred, baselines it read again, waves it passed over.
+            h.append("<details class=\"notes\"><summary>Notes on this run (").append(r.inference().size())
+                    .append(")</summary><ul>");
+            r.inference().forEach(n -> h.append("<li>").append(esc(n)).append("</li>"));
+            h.append("</ul></details>\n");
+        }
         if (s.alerts().isEmpty()) {
             h.append("<p class=\"none\">No alerts for this wave: nothing needs attention.</p>\n");
         }
