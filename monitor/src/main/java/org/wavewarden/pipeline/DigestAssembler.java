@@ -32,6 +32,8 @@ import java.util.Set;
  */
 public final class DigestAssembler {
 
+    private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(DigestAssembler.class);
+
     private final Session session;
     private final Map<String, Optional<WaveProfile>> summaries = new HashMap<>();
 
@@ -49,9 +51,20 @@ public final class DigestAssembler {
             List<AlertView> views = new ArrayList<>();
             for (Finding f : org.wavewarden.deliver.Alerts.select(r.findings())) {
                 VariableConfig v = variable(d, current, f.variable());
-                VariablePlot plot = f.detail() instanceof RelationshipDetail rd ? correlations(rd)
-                        : v == null || current == null ? null : plot(v, f, baseline, current);
-                Trend trend = v == null ? null : trend(d, order, r.wave(), v, f, baseline, current);
+                VariablePlot plot;
+                Trend trend;
+                try {
+                    FaultPoints.hit(FaultPoints.PLOT_VARIABLE + f.variable());
+                    plot = f.detail() instanceof RelationshipDetail rd ? correlations(rd)
+                            : v == null || current == null ? null : plot(v, f, baseline, current);
+                    trend = v == null ? null : trend(d, order, r.wave(), v, f, baseline, current);
+                } catch (RuntimeException e) {
+                    // One alert's chart must never cost the digest: the alert is shown with a note instead.
+                    LOG.warn("the chart of {} ({}) in {} wave {} could not be prepared: {}", f.variable(), f.kind(),
+                            d.name(), r.wave(), e.toString(), e);
+                    plot = new VariablePlot.Unavailable(e.getClass().getSimpleName());
+                    trend = null;
+                }
                 views.add(new AlertView(f, plot, trend));
             }
             sections.add(new WaveSection(r, views));

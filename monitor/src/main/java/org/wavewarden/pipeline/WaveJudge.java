@@ -254,7 +254,8 @@ public final class WaveJudge {
                         baselineWeights == null ? null : baselineWeights.get(v.name()), baselineDesign, currentDesign,
                         mine, myPlain);
             } catch (RuntimeException e) {
-                // A value no method foresaw must cost one variable its comparison, never the whole run.
+                // A value no method foresaw, in screening, data-quality checks or comparison, must cost one variable
+                // its comparison, never the whole run.
                 LOG.warn("variable {} of {} could not be compared: {}", v.name(), what, e.toString(), e);
                 mine.clear();
                 myPlain.clear();
@@ -310,6 +311,7 @@ public final class WaveJudge {
                                       ColumnTally ct, ColumnTally bt, Map<String, double[]> cw,
                                       Map<String, double[]> bw, DesignSummary bd, DesignSummary cd,
                                       List<Comparison> comparisons, List<Finding> plain) {
+        FaultPoints.hit(FaultPoints.JUDGE_VARIABLE + v.name());
         ScreenedVariable sc = VariableScreen.screen(ct, v, cw);
         ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v, bw);
         (sc.weighted() == null ? reference(comparator, v, sc) : WeightedComparisons.reference(weighted, v, sc, ct, cd)
@@ -550,9 +552,17 @@ public final class WaveJudge {
         List<VariableConfig> out = new ArrayList<>(d.variables());
         for (ColumnTally t : tallies) {
             if (d.variables().stream().noneMatch(v -> v.name().equals(t.column()))) {
-                VariableInference.Inferred i = VariableInference.infer(t);
-                inference.add(VariableInference.describe(i));
-                out.add(i.variable());
+                try {
+                    VariableInference.Inferred i = VariableInference.infer(t);
+                    inference.add(VariableInference.describe(i));
+                    out.add(i.variable());
+                } catch (RuntimeException e) {
+                    // Screened as text (for disguised missing values only) rather than lost with the run.
+                    LOG.warn("the kind of column {} could not be inferred: {}", t.column(), e.toString(), e);
+                    inference.add(t.column() + ": kind could not be inferred (" + e.getClass().getSimpleName()
+                            + "); screened as text");
+                    out.add(VariableConfig.inferred(t.column(), VariableKind.TEXT));
+                }
             }
         }
         return out;

@@ -214,12 +214,18 @@ public final class HtmlDigest {
             return chart.get();
         } catch (RuntimeException e) {
             LOG.warn("the {} of {} ({}) could not be drawn: {}", what, f.variable(), f.kind(), e.toString(), e);
-            return "<p class=\"note\">The " + what + " of this alert could not be drawn ("
-                    + esc(e.getClass().getSimpleName()) + ").</p>";
+            return notDrawn(what, e.getClass().getSimpleName());
         }
     }
 
+    private static String notDrawn(String what, String error) {
+        return "<p class=\"note\">The " + what + " of this alert could not be drawn (" + esc(error) + ").</p>";
+    }
+
     static String plot(String variable, VariablePlot p, String baselineWave, String currentWave) {
+        if (p instanceof VariablePlot.Unavailable u) {
+            return notDrawn("plot", u.error());
+        }
         if (p instanceof VariablePlot.NumericPlot n) {
             return SvgChart.numeric(variable, n, baselineWave, currentWave);
         }
