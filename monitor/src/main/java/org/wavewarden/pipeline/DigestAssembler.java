@@ -42,12 +42,12 @@ public final class DigestAssembler {
     }
 
     public String html(DatasetConfig d, List<FindingsReport> reports, Instant generatedAt) {
-        List<String> order = new WaveJudge(session, java.time.Clock.systemUTC()).waves(d).stream()
-                .map(WaveInfo::wave).toList();
+        List<WaveInfo> listed = new WaveJudge(session, java.time.Clock.systemUTC()).waves(d);
+        List<String> order = listed.stream().map(WaveInfo::wave).toList();
         List<WaveSection> sections = new ArrayList<>();
         for (FindingsReport r : reports) {
             WaveProfile current = summary(d, r.wave()).orElse(null);
-            WaveProfile baseline = baseline(d, order, r);
+            WaveProfile baseline = baseline(d, listed, r);
             List<AlertView> views = new ArrayList<>();
             for (Finding f : org.wavewarden.deliver.Alerts.select(r.findings())) {
                 VariableConfig v = variable(d, current, f.variable());
@@ -77,12 +77,13 @@ public final class DigestAssembler {
                 .map(s -> s.profile()));
     }
 
-    private WaveProfile baseline(DatasetConfig d, List<String> order, FindingsReport r) {
+    private WaveProfile baseline(DatasetConfig d, List<WaveInfo> listed, FindingsReport r) {
+        List<String> order = listed.stream().map(WaveInfo::wave).toList();
         if (r.againstWave() == null || !order.contains(r.wave())) {
             return null;
         }
         List<String> waves = order.contains(r.againstWave()) ? List.of(r.againstWave())
-                : WaveJudge.baselineWaves(d, order, r.wave(), null);
+                : WaveJudge.baselinesWithRows(d, listed, r.wave(), null);
         List<WaveProfile> profiles = waves.stream().map(w -> summary(d, w)).flatMap(Optional::stream).toList();
         return profiles.isEmpty() ? null : profiles.size() == 1 ? profiles.get(0)
                 : WaveProfile.pooled(r.againstWave(), profiles);

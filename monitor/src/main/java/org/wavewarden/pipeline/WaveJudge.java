@@ -48,6 +48,8 @@ import java.util.function.LongConsumer;
 public final class WaveJudge {
 
     private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(WaveJudge.class);
+    /** The subject of findings about a whole wave rather than one variable. */
+    public static final String EMPTY_WAVE_SUBJECT = "(wave)";
 
     private final Session session;
     private final Clock clock;
@@ -89,6 +91,36 @@ public final class WaveJudge {
         return session.source().withHandle(h -> WaveListing.list(h, WaveSource.of(d, "dataset"), d.waveOrder()));
     }
 
+    /**
+     * The same with the waves' row counts: under the previous-wave and pooled rules a wave without rows is never a
+     * baseline, and the last waves with rows stand in (a configured baseline or {@code --against} is taken as
+     * given).
+     */
+    public static List<String> baselinesWithRows(DatasetConfig d, List<WaveInfo> waves, String wave, String override) {
+        List<String> order = waves.stream().map(WaveInfo::wave).toList();
+        List<String> asListed = baselineWaves(d, order, wave, override);
+        if (override != null || d.compareWith() instanceof CompareWith.Baseline) {
+            return asListed;
+        }
+        java.util.Set<String> empty = new java.util.HashSet<>();
+        waves.stream().filter(w -> w.rows() == 0).forEach(w -> empty.add(w.wave()));
+        List<String> earlier = order.subList(0, order.indexOf(wave)).stream().filter(w -> !empty.contains(w)).toList();
+        int take = d.compareWith() instanceof CompareWith.PooledLast p ? p.waves() : 1;
+        return earlier.subList(Math.max(0, earlier.size() - take), earlier.size());
+    }
+
+    /** The waves without rows the rule passed over to reach {@code chosen}. */
+    private static List<String> passedOver(DatasetConfig d, List<WaveInfo> waves, String wave, String override,
+                                           List<String> chosen) {
+        List<String> asListed = baselineWaves(d, waves.stream().map(WaveInfo::wave).toList(), wave, override);
+        if (asListed.equals(chosen)) {
+            return List.of();
+        }
+        int from = chosen.isEmpty() ? 0 : waves.stream().map(WaveInfo::wave).toList().indexOf(chosen.get(0));
+        int to = waves.stream().map(WaveInfo::wave).toList().indexOf(wave);
+        return waves.subList(from, to).stream().filter(w -> w.rows() == 0).map(WaveInfo::wave).toList();
+    }
+
     /** The waves the given wave is compared against under the dataset's rule (empty for the first wave). */
     public static List<String> baselineWaves(DatasetConfig d, List<String> order, String wave, String override) {
         int i = order.indexOf(wave);
@@ -120,14 +152,23 @@ public final class WaveJudge {
         Instant started = clock.instant();
         WardenConfig cfg = session.config();
         WaveSource source = WaveSource.of(d, "dataset");
-        List<String> order = waves(d).stream().map(WaveInfo::wave).toList();
-        List<String> against = baselineWaves(d, order, wave, againstOverride);
+        List<WaveInfo> listed = waves(d);
+        List<String> order = listed.stream().map(WaveInfo::wave).toList();
+        List<String> against = baselinesWithRows(d, listed, wave, againstOverride);
         String againstLabel = against.isEmpty() ? null : against.size() == 1 ? against.get(0)
                 : "pooled " + against.get(0) + " .. " + against.get(against.size() - 1);
 
         WaveProfile current = session.source().withHandle(h -> profile(h, d, source, wave, progress));
         List<WaveProfile> baselines = new ArrayList<>();
         List<String> notes = new ArrayList<>();
+        List<String> passedOver = passedOver(d, listed, wave, againstOverride, against);
+        if (!passedOver.isEmpty()) {
+            notes.add("Wave" + (passedOver.size() == 1 ? " " : "s ") + String.join(", ", passedOver)
+                    + (passedOver.size() == 1 ? " has" : " have") + " no rows and " + (passedOver.size() == 1 ? "is"
+                    : "are") + " never a baseline: wave " + wave + " is compared against " + (against.isEmpty()
+                    ? "nothing" : String.join(", ", against)) + ", the last wave" + (against.size() > 1 ? "s" : "")
+                    + " with rows.");
+        }
         for (String b : against) {
             baselines.add(baselineProfile(d, source, b, current.columnNames(), notes));
         }
@@ -196,6 +237,11 @@ public final class WaveJudge {
                 relations));
         findings.addAll(relationNotes);
         findings.addAll(schemaFindings(d, baseline, current));
+        if (current.rows() == 0) {
+            findings.add(Finding.dataQuality(EMPTY_WAVE_SUBJECT, FindingKind.EMPTY_WAVE, null, 0L, "Wave "
+                    + current.wave() + " of " + d.name() + " has no rows: nothing can be judged in it, and later"
+                    + " waves are compared against the last wave with rows.", null));
+        }
         return new Profiled(FindingsFiles.ordered(findings), inference);
     }
 
