@@ -39,6 +39,14 @@ public final class VariableComparator {
     /** Monte Carlo replicates for tables that fail Cochran's rule; the seed makes the p-value reproducible. */
     static final int MONTE_CARLO_REPLICATES = 20_000;
     static final long MONTE_CARLO_SEED = 20_061_975L;
+    /**
+     * Cells drawn by the Monte Carlo test at most (table cells x replicates, about five seconds of drawing): a
+     * table of many sparse categories draws fewer tables, down to {@link #MONTE_CARLO_MIN_REPLICATES}; beyond that
+     * the chi-square approximation stands, and the note says so. Common practice, no source.
+     */
+    static final long MONTE_CARLO_BUDGET = 10_000_000L;
+    /** Fewest replicates worth drawing: p-values resolve to 0.001, still below any usual alpha. */
+    static final int MONTE_CARLO_MIN_REPLICATES = 1_000;
 
     private final double confidence;
 
@@ -216,9 +224,16 @@ public final class VariableComparator {
                 primary = FisherExact.twoByTwo(b[i], b[j], c[i], c[j]);
                 note = "Fisher's exact test, since " + chi.cochranNote();
             } else {
-                primary = MonteCarloExactTest.test(table, MONTE_CARLO_REPLICATES, MONTE_CARLO_SEED);
-                note = "Monte Carlo exact p-value (" + MONTE_CARLO_REPLICATES + " tables, fixed seed), since "
-                        + chi.cochranNote();
+                int replicates = monteCarloReplicates(2L * chi.keptColumns().length);
+                if (replicates > 0) {
+                    primary = MonteCarloExactTest.test(table, replicates, MONTE_CARLO_SEED);
+                    note = "Monte Carlo exact p-value (" + replicates + " tables, fixed seed), since "
+                            + chi.cochranNote();
+                } else {
+                    note = "Pearson chi-square approximation, since a Monte Carlo p-value over "
+                            + chi.keptColumns().length + " categories would exceed its budget of "
+                            + MONTE_CARLO_BUDGET + " drawn cells; " + chi.cochranNote();
+                }
             }
         }
         EffectSize v = CramersV.estimate(table, confidence);
@@ -254,6 +269,16 @@ public final class VariableComparator {
         CategoryDetail d = new CategoryDetail(rows, chi.cochranSatisfied(), chi.cochranNote(),
                 CramersV.biasCorrected(table), JensenShannon.distance(b, c), note);
         return new Comparison(variable, FindingKind.SHIFT, primary, effect, t.value(), t.source(), nB, nC, change, d);
+    }
+
+    /**
+     * Replicates of the Monte Carlo test for a table of {@code cells} cells within {@link #MONTE_CARLO_BUDGET}, or 0
+     * when even {@link #MONTE_CARLO_MIN_REPLICATES} would exceed it.
+     */
+    static int monteCarloReplicates(long cells) {
+        long affordable = MONTE_CARLO_BUDGET / Math.max(1, cells);
+        return affordable >= MONTE_CARLO_REPLICATES ? MONTE_CARLO_REPLICATES
+                : affordable >= MONTE_CARLO_MIN_REPLICATES ? (int) affordable : 0;
     }
 
     /**

@@ -41,6 +41,8 @@ public enum FindingKind {
     HEAPING,
     /** Terminal-digit preference on other numeric answers. */
     DIGIT_PREFERENCE,
+    /** A wave listed with no rows at all: a finding on the dataset; the wave is never a baseline. */
+    EMPTY_WAVE,
     COLUMN_ADDED,
     COLUMN_DROPPED,
     COLUMN_RETYPED,

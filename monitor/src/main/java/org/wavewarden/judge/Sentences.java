@@ -142,6 +142,10 @@ public final class Sentences {
     }
 
     static String num(double v, int digits) {
+        // Beyond 1e15 the digits of a double are not the answer's any more, and 1e308 would print 309 of them.
+        if (Math.abs(v) >= 1e15 && Double.isFinite(v)) {
+            return String.format(Locale.ROOT, "%.4g", v);
+        }
         return String.format(Locale.ROOT, "%." + digits + "f", v);
     }
 

@@ -1,12 +1,12 @@
 package org.wavewarden.missing;
 
 import java.math.BigDecimal;
-import java.util.regex.Pattern;
 
 /** Reading and writing numbers in the plain decimal text form PostgreSQL prints. */
 public final class NumberText {
 
-    private static final Pattern NUMBER = Pattern.compile("[+-]?(\\d+(\\.\\d*)?|\\.\\d+)([eE][+-]?\\d+)?");
+    /** Longest text read digit for digit; a double's 309 integer digits or 324 decimals, written out, fit easily. */
+    static final int MAX_LENGTH = 2_000;
 
     private NumberText() {
     }
@@ -14,10 +14,16 @@ public final class NumberText {
     /** The number written in {@code text} (surrounding whitespace allowed), or null when it is not a finite number. */
     static BigDecimal parse(String text) {
         String t = text.strip();
-        if (t.isEmpty() || t.length() > 60 || !NUMBER.matcher(t).matches()) {
+        // PostgreSQL prints a numeric in full: -1e-300 takes 303 characters, and a numeric may have thousands of
+        // digits. Beyond MAX_LENGTH the nearest double stands in, which keeps BigDecimal's cost bounded.
+        if (t.isEmpty() || !isPlainDecimal(t)) {
             return null;
         }
         try {
+            if (t.length() > MAX_LENGTH) {
+                double x = Double.parseDouble(t);
+                return Double.isFinite(x) ? new BigDecimal(x) : null;
+            }
             return new BigDecimal(t);
         } catch (NumberFormatException e) {
             return null;

@@ -48,7 +48,9 @@ public record TerminalDigitPreference(boolean applicable, String reason, long[] 
             if (x != Math.rint(x)) {
                 return notApplicable("values are not whole numbers (" + NumberText.plain(x) + ")", counts);
             }
-            counts[(int) (Math.abs((long) x) % 10)] += values.count(i);
+            // The remainder in double arithmetic is exact and never overflows: a cast to long would saturate at
+            // +-1e308, and the absolute value of Long.MIN_VALUE stays negative.
+            counts[(int) Math.abs(x % 10)] += values.count(i);
         }
         if (n < MIN_N) {
             return notApplicable("only " + n + " answers; at least " + MIN_N + " are needed", counts);

@@ -32,6 +32,8 @@ import java.util.Set;
  */
 public final class DigestAssembler {
 
+    private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(DigestAssembler.class);
+
     private final Session session;
     private final Map<String, Optional<WaveProfile>> summaries = new HashMap<>();
 
@@ -40,18 +42,29 @@ public final class DigestAssembler {
     }
 
     public String html(DatasetConfig d, List<FindingsReport> reports, Instant generatedAt) {
-        List<String> order = new WaveJudge(session, java.time.Clock.systemUTC()).waves(d).stream()
-                .map(WaveInfo::wave).toList();
+        List<WaveInfo> listed = new WaveJudge(session, java.time.Clock.systemUTC()).waves(d);
+        List<String> order = listed.stream().map(WaveInfo::wave).toList();
         List<WaveSection> sections = new ArrayList<>();
         for (FindingsReport r : reports) {
             WaveProfile current = summary(d, r.wave()).orElse(null);
-            WaveProfile baseline = baseline(d, order, r);
+            WaveProfile baseline = baseline(d, listed, r);
             List<AlertView> views = new ArrayList<>();
             for (Finding f : org.wavewarden.deliver.Alerts.select(r.findings())) {
                 VariableConfig v = variable(d, current, f.variable());
-                VariablePlot plot = f.detail() instanceof RelationshipDetail rd ? correlations(rd)
-                        : v == null || current == null ? null : plot(v, f, baseline, current);
-                Trend trend = v == null ? null : trend(d, order, r.wave(), v, f, baseline, current);
+                VariablePlot plot;
+                Trend trend;
+                try {
+                    FaultPoints.hit(FaultPoints.PLOT_VARIABLE + f.variable());
+                    plot = f.detail() instanceof RelationshipDetail rd ? correlations(rd)
+                            : v == null || current == null ? null : plot(v, f, baseline, current);
+                    trend = v == null ? null : trend(d, order, r.wave(), v, f, baseline, current);
+                } catch (RuntimeException e) {
+                    // One alert's chart must never cost the digest: the alert is shown with a note instead.
+                    LOG.warn("the chart of {} ({}) in {} wave {} could not be prepared: {}", f.variable(), f.kind(),
+                            d.name(), r.wave(), e.toString(), e);
+                    plot = new VariablePlot.Unavailable(e.getClass().getSimpleName());
+                    trend = null;
+                }
                 views.add(new AlertView(f, plot, trend));
             }
             sections.add(new WaveSection(r, views));
@@ -64,12 +77,13 @@ public final class DigestAssembler {
                 .map(s -> s.profile()));
     }
 
-    private WaveProfile baseline(DatasetConfig d, List<String> order, FindingsReport r) {
+    private WaveProfile baseline(DatasetConfig d, List<WaveInfo> listed, FindingsReport r) {
+        List<String> order = listed.stream().map(WaveInfo::wave).toList();
         if (r.againstWave() == null || !order.contains(r.wave())) {
             return null;
         }
         List<String> waves = order.contains(r.againstWave()) ? List.of(r.againstWave())
-                : WaveJudge.baselineWaves(d, order, r.wave(), null);
+                : WaveJudge.baselinesWithRows(d, listed, r.wave(), null);
         List<WaveProfile> profiles = waves.stream().map(w -> summary(d, w)).flatMap(Optional::stream).toList();
         return profiles.isEmpty() ? null : profiles.size() == 1 ? profiles.get(0)
                 : WaveProfile.pooled(r.againstWave(), profiles);

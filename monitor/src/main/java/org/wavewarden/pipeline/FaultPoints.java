@@ -11,6 +11,10 @@ public final class FaultPoints {
     public static final String BEFORE_WRITE = "before-write";
     /** Inside the results transaction, after the run row and before its findings. */
     public static final String INSIDE_WRITE = "inside-write";
+    /** While one variable is judged: this prefix and the variable's name ({@code judge-variable:income}). */
+    public static final String JUDGE_VARIABLE = "judge-variable:";
+    /** While the data of one alert's chart are prepared: this prefix and the variable's name. */
+    public static final String PLOT_VARIABLE = "plot-variable:";
 
     private FaultPoints() {
     }

@@ -48,6 +48,8 @@ import java.util.function.LongConsumer;
 public final class WaveJudge {
 
     private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(WaveJudge.class);
+    /** The subject of findings about a whole wave rather than one variable. */
+    public static final String EMPTY_WAVE_SUBJECT = "(wave)";
 
     private final Session session;
     private final Clock clock;
@@ -89,6 +91,36 @@ public final class WaveJudge {
         return session.source().withHandle(h -> WaveListing.list(h, WaveSource.of(d, "dataset"), d.waveOrder()));
     }
 
+    /**
+     * The same with the waves' row counts: under the previous-wave and pooled rules a wave without rows is never a
+     * baseline, and the last waves with rows stand in (a configured baseline or {@code --against} is taken as
+     * given).
+     */
+    public static List<String> baselinesWithRows(DatasetConfig d, List<WaveInfo> waves, String wave, String override) {
+        List<String> order = waves.stream().map(WaveInfo::wave).toList();
+        List<String> asListed = baselineWaves(d, order, wave, override);
+        if (override != null || d.compareWith() instanceof CompareWith.Baseline) {
+            return asListed;
+        }
+        java.util.Set<String> empty = new java.util.HashSet<>();
+        waves.stream().filter(w -> w.rows() == 0).forEach(w -> empty.add(w.wave()));
+        List<String> earlier = order.subList(0, order.indexOf(wave)).stream().filter(w -> !empty.contains(w)).toList();
+        int take = d.compareWith() instanceof CompareWith.PooledLast p ? p.waves() : 1;
+        return earlier.subList(Math.max(0, earlier.size() - take), earlier.size());
+    }
+
+    /** The waves without rows the rule passed over to reach {@code chosen}. */
+    private static List<String> passedOver(DatasetConfig d, List<WaveInfo> waves, String wave, String override,
+                                           List<String> chosen) {
+        List<String> asListed = baselineWaves(d, waves.stream().map(WaveInfo::wave).toList(), wave, override);
+        if (asListed.equals(chosen)) {
+            return List.of();
+        }
+        int from = chosen.isEmpty() ? 0 : waves.stream().map(WaveInfo::wave).toList().indexOf(chosen.get(0));
+        int to = waves.stream().map(WaveInfo::wave).toList().indexOf(wave);
+        return waves.subList(from, to).stream().filter(w -> w.rows() == 0).map(WaveInfo::wave).toList();
+    }
+
     /** The waves the given wave is compared against under the dataset's rule (empty for the first wave). */
     public static List<String> baselineWaves(DatasetConfig d, List<String> order, String wave, String override) {
         int i = order.indexOf(wave);
@@ -120,31 +152,45 @@ public final class WaveJudge {
         Instant started = clock.instant();
         WardenConfig cfg = session.config();
         WaveSource source = WaveSource.of(d, "dataset");
-        List<String> order = waves(d).stream().map(WaveInfo::wave).toList();
-        List<String> against = baselineWaves(d, order, wave, againstOverride);
+        List<WaveInfo> listed = waves(d);
+        List<String> order = listed.stream().map(WaveInfo::wave).toList();
+        List<String> against = baselinesWithRows(d, listed, wave, againstOverride);
         String againstLabel = against.isEmpty() ? null : against.size() == 1 ? against.get(0)
                 : "pooled " + against.get(0) + " .. " + against.get(against.size() - 1);
 
         WaveProfile current = session.source().withHandle(h -> profile(h, d, source, wave, progress));
         List<WaveProfile> baselines = new ArrayList<>();
+        List<String> notes = new ArrayList<>();
+        List<String> passedOver = passedOver(d, listed, wave, againstOverride, against);
+        if (!passedOver.isEmpty()) {
+            notes.add("Wave" + (passedOver.size() == 1 ? " " : "s ") + String.join(", ", passedOver)
+                    + (passedOver.size() == 1 ? " has" : " have") + " no rows and " + (passedOver.size() == 1 ? "is"
+                    : "are") + " never a baseline: wave " + wave + " is compared against " + (against.isEmpty()
+                    ? "nothing" : String.join(", ", against)) + ", the last wave" + (against.size() > 1 ? "s" : "")
+                    + " with rows.");
+        }
         for (String b : against) {
-            baselines.add(baselineProfile(d, source, b, current.columnNames()));
+            baselines.add(baselineProfile(d, source, b, current.columnNames(), notes));
         }
         WaveProfile baseline = baselines.isEmpty() ? null
                 : baselines.size() == 1 ? baselines.get(0) : WaveProfile.pooled(againstLabel, baselines);
 
         Profiled judged = findings(cfg, d, current, baseline, panel(d, source, against, baseline, current));
-        List<String> inference = judged.inference();
+        List<String> inference = new ArrayList<>(notes);
+        inference.addAll(judged.inference());
         List<Finding> findings = judged.findings();
         List<Finding> alerts = Alerts.select(findings);
         Instant finished = clock.instant();
         FindingsReport report = new FindingsReport(d.name(), wave, againstLabel, finished, cfg.alpha(),
                 cfg.fdr().name(), inference, findings);
         FaultPoints.hit(FaultPoints.BEFORE_WRITE);
+        String checksum = current.checksum();
         long runId = session.store().writeRun(new ResultsStore.RunWrite(d.name(), wave,
-                        againstLabel == null ? "" : againstLabel, current.checksum(), started, finished, cfg.alpha(),
+                        againstLabel == null ? "" : againstLabel, checksum, started, finished, cfg.alpha(),
                         cfg.fdr().name()),
                 current, findings, alerts);
+        // The summary the run stored becomes the baseline of later waves under this configuration.
+        session.store().keySummary(d.name(), wave, checksum, SummaryKey.of(d, current.schema()).value());
         if (outDir != null) {
             FindingsFiles.write(outDir, report);
         }
@@ -191,6 +237,11 @@ public final class WaveJudge {
                 relations));
         findings.addAll(relationNotes);
         findings.addAll(schemaFindings(d, baseline, current));
+        if (current.rows() == 0) {
+            findings.add(Finding.dataQuality(EMPTY_WAVE_SUBJECT, FindingKind.EMPTY_WAVE, null, 0L, "Wave "
+                    + current.wave() + " of " + d.name() + " has no rows: nothing can be judged in it, and later"
+                    + " waves are compared against the last wave with rows.", null));
+        }
         return new Profiled(FindingsFiles.ordered(findings), inference);
     }
 
@@ -249,8 +300,9 @@ public final class WaveJudge {
                         baselineWeights == null ? null : baselineWeights.get(v.name()), baselineDesign, currentDesign,
                         mine, myPlain);
             } catch (RuntimeException e) {
-                // A value no method foresaw must cost one variable its comparison, never the whole run.
-                LOG.warn("variable {} of {} could not be compared: {}", v.name(), what, e.toString());
+                // A value no method foresaw, in screening, data-quality checks or comparison, must cost one variable
+                // its comparison, never the whole run.
+                LOG.warn("variable {} of {} could not be compared: {}", v.name(), what, e.toString(), e);
                 mine.clear();
                 myPlain.clear();
                 myPlain.add(Finding.dataQuality(v.name(), FindingKind.SKIPPED, null, null, "Not compared: the"
@@ -305,6 +357,7 @@ public final class WaveJudge {
                                       ColumnTally ct, ColumnTally bt, Map<String, double[]> cw,
                                       Map<String, double[]> bw, DesignSummary bd, DesignSummary cd,
                                       List<Comparison> comparisons, List<Finding> plain) {
+        FaultPoints.hit(FaultPoints.JUDGE_VARIABLE + v.name());
         ScreenedVariable sc = VariableScreen.screen(ct, v, cw);
         ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v, bw);
         (sc.weighted() == null ? reference(comparator, v, sc) : WeightedComparisons.reference(weighted, v, sc, ct, cd)
@@ -467,8 +520,19 @@ public final class WaveJudge {
 
     /** The configured relationships whose two columns this wave has as monitored numbers. */
     static List<PairSpec> pairs(DatasetConfig d, List<SourceColumn> monitored) {
+        Map<String, ColumnType> types = new LinkedHashMap<>();
+        monitored.forEach(c -> types.put(c.name(), c.type()));
+        return pairs(d, types);
+    }
+
+    /** The same from a column layout: the relationships whose two columns are monitored numbers there. */
+    static List<PairSpec> pairs(DatasetConfig d, Map<String, ColumnType> schema) {
         java.util.Set<String> numbers = new java.util.HashSet<>();
-        monitored.stream().filter(c -> c.type().isNumeric()).forEach(c -> numbers.add(c.name()));
+        schema.forEach((name, type) -> {
+            if (type.isNumeric() && !d.isBookkeeping(name)) {
+                numbers.add(name);
+            }
+        });
         return d.relationships().stream().filter(r -> numbers.contains(r.x()) && numbers.contains(r.y()))
                 .map(r -> new PairSpec(r.x(), r.y())).toList();
     }
@@ -495,22 +559,32 @@ public final class WaveJudge {
     }
 
     /**
-     * The stored summary of an earlier wave, read from the source once if it was never stored or lacks columns or
-     * the pairs of a configured relationship (a summary stored before the relationship was configured).
+     * The stored summary of an earlier wave, read from the source once if it was never stored, lacks columns or
+     * the pairs of a configured relationship, or was made under another configuration (its {@link SummaryKey}
+     * differs: weights, design, codebook codes, kinds, ranges or the columns read changed since). A summary read
+     * again for that reason is named in {@code notes}.
      */
-
-    private WaveProfile baselineProfile(DatasetConfig d, WaveSource source, String wave, List<String> needed) {
+    private WaveProfile baselineProfile(DatasetConfig d, WaveSource source, String wave, List<String> needed,
+                                        List<String> notes) {
         Optional<ResultsStore.StoredSummary> stored = session.store().latestSummary(d.name(), wave);
         if (stored.isPresent()) {
             WaveProfile p = stored.get().profile();
+            boolean sameConfig = SummaryKey.of(d, p.schema()).value().equals(stored.get().summaryKey());
             boolean complete = needed.stream().allMatch(c -> p.columns().containsKey(c) || !p.schema().containsKey(c))
                     && !lacksPairs(d, p);
-            if (complete) {
+            if (complete && sameConfig) {
                 return p;
+            }
+            if (!sameConfig) {
+                String note = "The stored summary of baseline wave " + wave + " was made under another configuration"
+                        + " (columns read, weights, design, codebook codes, kinds, ranges or relationships differ), so"
+                        + " the baseline summary was recomputed from the source.";
+                LOG.info("dataset {}: {}", d.name(), note);
+                notes.add(note);
             }
         }
         WaveProfile p = session.source().withHandle(h -> profile(h, d, source, wave, null));
-        session.store().saveSummary(d.name(), p, p.checksum());
+        session.store().saveSummary(d.name(), p, p.checksum(), SummaryKey.of(d, p.schema()).value());
         return p;
     }
 
@@ -524,9 +598,17 @@ public final class WaveJudge {
         List<VariableConfig> out = new ArrayList<>(d.variables());
         for (ColumnTally t : tallies) {
             if (d.variables().stream().noneMatch(v -> v.name().equals(t.column()))) {
-                VariableInference.Inferred i = VariableInference.infer(t);
-                inference.add(VariableInference.describe(i));
-                out.add(i.variable());
+                try {
+                    VariableInference.Inferred i = VariableInference.infer(t);
+                    inference.add(VariableInference.describe(i));
+                    out.add(i.variable());
+                } catch (RuntimeException e) {
+                    // Screened as text (for disguised missing values only) rather than lost with the run.
+                    LOG.warn("the kind of column {} could not be inferred: {}", t.column(), e.toString(), e);
+                    inference.add(t.column() + ": kind could not be inferred (" + e.getClass().getSimpleName()
+                            + "); screened as text");
+                    out.add(VariableConfig.inferred(t.column(), VariableKind.TEXT));
+                }
             }
         }
         return out;

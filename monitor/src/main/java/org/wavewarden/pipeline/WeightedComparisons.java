@@ -178,7 +178,7 @@ final class WeightedComparisons {
 
     /** The 0/1 view of a binary variable: 1 for the success answer. */
     private static WeightedTally indicator(ScreenedVariable s, String success) {
-        int position = s.categories().categories().indexOf(success);
+        int position = s.categories().indexOf(success);
         return s.weighted().indicator(position);
     }
 }

@@ -2,23 +2,35 @@ package org.wavewarden.profile;
 
 import java.util.ArrayList;
 import java.util.Arrays;
+import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 
-/** The valid answers of one categorical or binary variable in one wave, each category with its count. */
-public record CategoryCounts(List<String> categories, long[] counts) {
+/**
+ * The valid answers of one categorical or binary variable in one wave, each category with its count. A category's
+ * position is looked up by hash, so that work over a variable of a hundred thousand categories stays linear.
+ */
+public final class CategoryCounts {
 
-    public CategoryCounts {
+    private final List<String> categories;
+    private final long[] counts;
+    private final Map<String, Integer> position;
+
+    public CategoryCounts(List<String> categories, long[] counts) {
         if (categories.size() != counts.length) {
             throw new IllegalArgumentException("categories has " + categories.size() + " entries but counts has "
                     + counts.length);
         }
-        if (categories.stream().distinct().count() != categories.size()) {
-            throw new IllegalArgumentException("categories must be distinct: " + categories);
+        this.categories = List.copyOf(categories);
+        this.position = new HashMap<>(Math.max(16, categories.size() * 2));
+        for (int i = 0; i < this.categories.size(); i++) {
+            if (position.put(this.categories.get(i), i) != null) {
+                throw new IllegalArgumentException("categories must be distinct, '" + this.categories.get(i)
+                        + "' repeats");
+            }
         }
-        categories = List.copyOf(categories);
-        counts = counts.clone();
+        this.counts = counts.clone();
         for (int i = 0; i < counts.length; i++) {
             if (counts[i] < 0) {
                 throw new IllegalArgumentException("counts[" + i + "] must not be negative, was " + counts[i]);
@@ -35,6 +47,15 @@ public record CategoryCounts(List<String> categories, long[] counts) {
         return new CategoryCounts(cats, c);
     }
 
+    public List<String> categories() {
+        return categories;
+    }
+
+    /** The counts, in the order of {@link #categories()}; the array itself, as a record's accessor gives it. */
+    public long[] counts() {
+        return counts;
+    }
+
     public long n() {
         return Arrays.stream(counts).sum();
     }
@@ -44,8 +65,14 @@ public record CategoryCounts(List<String> categories, long[] counts) {
     }
 
     public long count(String category) {
-        int i = categories.indexOf(category);
-        return i < 0 ? 0 : counts[i];
+        Integer i = position.get(category);
+        return i == null ? 0 : counts[i];
+    }
+
+    /** The position of a category in {@link #categories()}, or -1 when it has none here. */
+    public int indexOf(String category) {
+        Integer i = position.get(category);
+        return i == null ? -1 : i;
     }
 
     /** This table's counts laid out along the given category order, zero where a category is absent here. */
@@ -73,5 +100,10 @@ public record CategoryCounts(List<String> categories, long[] counts) {
     @Override
     public int hashCode() {
         return 31 * categories.hashCode() + Arrays.hashCode(counts);
+    }
+
+    @Override
+    public String toString() {
+        return "CategoryCounts[categories=" + categories + ", counts=" + Arrays.toString(counts) + "]";
     }
 }

@@ -949,7 +949,8 @@ public final class BinaryWaveScanner {
         }
 
         String text(Decode d, int e) {
-            return d == Decode.NUMERIC ? keep(numericText(arena, offset[e], length[e]))
+            // A numeric keeps its full text however long (-1e-300 takes 303 characters): a stand-in is no number.
+            return d == Decode.NUMERIC ? numericText(arena, offset[e], length[e])
                     : new String(arena, offset[e], length[e], StandardCharsets.UTF_8);
         }
 

@@ -204,12 +204,13 @@ public final class WaveScanner {
                         bins[i].add(number(columns.get(i), v), w);
                         continue;
                     }
-                    if (v.length() > MAX_VALUE_CHARS) {
+                    boolean numeric = columns.get(i).type().isNumeric();
+                    // A number keeps its full text however long (-1e-300 takes 303 characters): a stand-in is no number.
+                    if (v.length() > MAX_VALUE_CHARS && !numeric) {
                         v = shortened(v);
                     }
                     Map<String, long[]> t = tallies.get(i);
                     long[] cell = t.get(v);
-                    boolean numeric = columns.get(i).type().isNumeric();
                     if (cell != null) {
                         cell[0]++;
                     } else if (t.size() < (numeric ? exactNumbers : maxDistinct)) {

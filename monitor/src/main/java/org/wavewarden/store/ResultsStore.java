@@ -56,18 +56,44 @@ public final class ResultsStore {
                 .execute();
     }
 
+    /**
+     * Stores a summary read under the configuration whose key is given; a summary of the same content already
+     * stored takes the key and counts as the latest.
+     */
+    public void saveSummary(String dataset, WaveProfile profile, String checksum, String summaryKey) {
+        jdbi.useHandle(h -> h.createUpdate("INSERT INTO " + s + ".wave_summary (dataset, wave, checksum, row_count,"
+                        + " summary, summary_key) VALUES (:dataset, :wave, :checksum, :rows, CAST(:summary AS jsonb),"
+                        + " :key) ON CONFLICT (dataset, wave, checksum) DO UPDATE SET summary_key = EXCLUDED.summary_key,"
+                        + " created_at = now()")
+                .bind("dataset", dataset).bind("wave", profile.wave()).bind("checksum", checksum)
+                .bind("rows", profile.rows()).bind("summary", Json.write(profile)).bind("key", summaryKey)
+                .execute());
+    }
+
+    /** Records the configuration key of a stored summary (one a run wrote), which then counts as the latest. */
+    public void keySummary(String dataset, String wave, String checksum, String summaryKey) {
+        jdbi.useHandle(h -> h.createUpdate("UPDATE " + s + ".wave_summary SET summary_key = :key, created_at = now()"
+                        + " WHERE dataset = :dataset AND wave = :wave AND checksum = :checksum")
+                .bind("dataset", dataset).bind("wave", wave).bind("checksum", checksum).bind("key", summaryKey)
+                .execute());
+    }
+
     /** The most recently stored summary of a wave. */
     public Optional<StoredSummary> latestSummary(String dataset, String wave) {
-        return jdbi.withHandle(h -> h.createQuery("SELECT checksum, summary::text AS summary FROM " + s
+        return jdbi.withHandle(h -> h.createQuery("SELECT checksum, summary_key, summary::text AS summary FROM " + s
                         + ".wave_summary WHERE dataset = :dataset AND wave = :wave ORDER BY created_at DESC, checksum"
                         + " LIMIT 1")
                 .bind("dataset", dataset).bind("wave", wave)
                 .map((rs, ctx) -> new StoredSummary(rs.getString("checksum"),
-                        Json.read(rs.getString("summary"), WaveProfile.class)))
+                        Json.read(rs.getString("summary"), WaveProfile.class), rs.getString("summary_key")))
                 .findOne());
     }
 
-    public record StoredSummary(String checksum, WaveProfile profile) {
+    /**
+     * @param summaryKey the configuration key it was read under (see {@code pipeline.SummaryKey}), or null for a
+     *                   summary stored before summaries were keyed
+     */
+    public record StoredSummary(String checksum, WaveProfile profile, String summaryKey) {
     }
 
     /** The current (not superseded) judged run of a wave, if any. */

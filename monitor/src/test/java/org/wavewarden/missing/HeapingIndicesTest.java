@@ -204,4 +204,16 @@ class HeapingIndicesTest {
         TerminalDigitPreference r = TerminalDigitPreference.test(NumericDistribution.ofSample(rounded));
         assertTrue(r.pValue() < 1e-6 && r.dissimilarity() > 0.2, "p " + r.pValue() + ", dissimilarity " + r.dissimilarity());
     }
+
+    @Test
+    void theLastDigitOfTheLargestDoublesIsCountedWithoutOverflow() {
+        TreeMap<Double, Long> t = new TreeMap<>();
+        for (int i = 0; i < 60; i++) {
+            t.merge(20.0 + i, 1L, Long::sum);
+        }
+        t.put(1e308, 1L);
+        t.put(-1e308, 1L);
+        TerminalDigitPreference r = TerminalDigitPreference.test(NumericDistribution.ofTally(t));
+        assertEquals(62, java.util.Arrays.stream(r.digitCounts()).sum(), "every answer has a last digit in 0..9");
+    }
 }

@@ -12,6 +12,9 @@ import org.wavewarden.profile.NumericDistribution;
  *
  * <p>The rule, applied in this order:
  * <ol>
+ *   <li>If a value is so large that the sums of squares behind a variance, a t statistic or a normality test would
+ *       pass the largest double (|x| above sqrt(1.8e308 / n)): {@link LocationTest#MANN_WHITNEY}, which needs only
+ *       the order of the values. A value of that size dominates every moment anyway.</li>
  *   <li>If either wave has fewer than {@value #MIN_N} observations or fewer than {@value #MIN_DISTINCT} distinct
  *       values: {@link LocationTest#MANN_WHITNEY}. So coarse a variable is an ordinal scale, not a normal one, and
  *       Mann-Whitney handles its ties exactly.</li>
@@ -69,6 +72,11 @@ public final class LocationTestChoice {
         }
         long nb = baseline.n();
         long nc = current.n();
+        if (momentsOverflow(baseline) || momentsOverflow(current)) {
+            return new Choice(LocationTest.MANN_WHITNEY, String.format(Locale.ROOT, "values as large as %.3g are"
+                    + " beyond what sums of squares can hold in double precision, so only their order is compared",
+                    Math.max(largest(baseline), largest(current))));
+        }
         if (nb < MIN_N || nc < MIN_N || baseline.size() < MIN_DISTINCT || current.size() < MIN_DISTINCT) {
             return new Choice(LocationTest.MANN_WHITNEY, String.format(Locale.ROOT,
                     "too few distinct values for a normal model (baseline %d observations, %d distinct; "
@@ -104,6 +112,15 @@ public final class LocationTestChoice {
         String which = !okB && !okC ? "both waves are" : !okB ? "the baseline wave is" : "the current wave is";
         return new Choice(LocationTest.MANN_WHITNEY, which + " too skewed or heavy-tailed for the mean to summarise "
                 + "them (" + detail + ")");
+    }
+
+    /** True when n x^2 of the largest |x| passes the largest double, so a variance cannot be formed. */
+    static boolean momentsOverflow(NumericDistribution d) {
+        return largest(d) > Math.sqrt(Double.MAX_VALUE / Math.max(1, d.n()));
+    }
+
+    private static double largest(NumericDistribution d) {
+        return d.size() == 0 ? 0 : Math.max(Math.abs(d.value(0)), Math.abs(d.value(d.size() - 1)));
     }
 
     private static boolean nearNormalShape(Moments m) {

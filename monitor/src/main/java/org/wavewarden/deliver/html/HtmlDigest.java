@@ -32,6 +32,8 @@ import static org.wavewarden.deliver.html.Html.esc;
  */
 public final class HtmlDigest {
 
+    private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(HtmlDigest.class);
+
     private static final DateTimeFormatter STAMP =
             DateTimeFormatter.ofPattern("yyyy-MM-dd HH:mm 'UTC'", Locale.ROOT).withZone(ZoneOffset.UTC);
 
@@ -105,6 +107,13 @@ public final class HtmlDigest {
         h.append("<section class=\"wave\" id=\"wave-").append(index).append("\" data-wave=\"").append(esc(r.wave()))
                 .append("\">\n<h2>").append(esc(capitalised(waveTitle(r)))).append("</h2>\n");
         h.append("<p class=\"summary\">").append(summary(r, s.alerts().size())).append("</p>\n");
+        if (!r.inference().isEmpty()) {
+            // How the run read its data: kinds it inferred, baselines it read again, waves it passed over.
+            h.append("<details class=\"notes\"><summary>Notes on this run (").append(r.inference().size())
+                    .append(")</summary><ul>");
+            r.inference().forEach(n -> h.append("<li>").append(esc(n)).append("</li>"));
+            h.append("</ul></details>\n");
+        }
         if (s.alerts().isEmpty()) {
             h.append("<p class=\"none\">No alerts for this wave: nothing needs attention.</p>\n");
         }
@@ -186,17 +195,37 @@ public final class HtmlDigest {
         if (a.plot() != null || a.trend() != null) {
             h.append("<div class=\"charts\">");
             if (a.plot() != null) {
-                h.append(plot(f.variable(), a.plot(), baselineWave, currentWave));
+                h.append(contained(f, "plot", () -> plot(f.variable(), a.plot(), baselineWave, currentWave)));
             }
             if (a.trend() != null) {
-                h.append(SvgChart.sparkline(f.variable(), a.trend(), currentWave));
+                h.append(contained(f, "trend", () -> SvgChart.sparkline(f.variable(), a.trend(), currentWave)));
             }
             h.append("</div>\n");
         }
         h.append("</article>\n");
     }
 
+    /**
+     * A chart of one alert, or a note in its place when drawing it fails: one chart must never cost the digest
+     * (the alert's sentence and numbers are already written above it).
+     */
+    static String contained(Finding f, String what, java.util.function.Supplier<String> chart) {
+        try {
+            return chart.get();
+        } catch (RuntimeException e) {
+            LOG.warn("the {} of {} ({}) could not be drawn: {}", what, f.variable(), f.kind(), e.toString(), e);
+            return notDrawn(what, e.getClass().getSimpleName());
+        }
+    }
+
+    private static String notDrawn(String what, String error) {
+        return "<p class=\"note\">The " + what + " of this alert could not be drawn (" + esc(error) + ").</p>";
+    }
+
     static String plot(String variable, VariablePlot p, String baselineWave, String currentWave) {
+        if (p instanceof VariablePlot.Unavailable u) {
+            return notDrawn("plot", u.error());
+        }
         if (p instanceof VariablePlot.NumericPlot n) {
             return SvgChart.numeric(variable, n, baselineWave, currentWave);
         }

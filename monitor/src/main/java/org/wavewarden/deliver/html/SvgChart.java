@@ -288,10 +288,12 @@ public final class SvgChart {
      */
     public static String numeric(String variable, VariablePlot.NumericPlot p, String baselineWave,
                                  String currentWave) {
-        NumericDistribution b = p.baseline();
-        NumericDistribution c = p.current();
+        int decade = drawingDecade(p.baseline().merge(p.current()));
+        NumericDistribution b = inDecades(p.baseline(), decade);
+        NumericDistribution c = inDecades(p.current(), decade);
         NumericDistribution pooled = b.merge(c);
-        String unit = p.unit() == null || p.unit().isBlank() ? null : p.unit();
+        String given = p.unit() == null || p.unit().isBlank() ? null : p.unit();
+        String unit = decade == 0 ? given : "\u00d7 1e" + decade + (given == null ? "" : " " + given);
         String title = "Distribution of " + variable + (unit == null ? "" : " (" + unit + ")") + ": "
                 + baselineWave + " (n = " + b.n() + ") against " + currentWave + " (n = " + c.n() + ")";
         Frame f = new Frame(WIDTH, 270, 58, 18, 40, 50);
@@ -351,6 +353,42 @@ public final class SvgChart {
                     f.width() - f.right(), f.top() - 6, esc(number(bins.width())), unit == null ? "" : " " + esc(unit)));
         }
         return s.append("</svg>").toString();
+    }
+
+    /** Largest and smallest magnitudes drawn as they are; beyond them spans, ticks and bin widths would overflow. */
+    static final double LARGEST_DRAWN = 1e300;
+    static final double SMALLEST_DRAWN = 1e-300;
+
+    /**
+     * The power of ten the values are drawn in units of: 0 for ordinary values; for magnitudes near the ends of
+     * double precision (1e308, 5e-324) the decade of the largest one, so that every span, tick and bin width of the
+     * drawing is an ordinary finite number.
+     */
+    static int drawingDecade(NumericDistribution pooled) {
+        if (pooled.size() == 0) {
+            return 0;
+        }
+        double largest = Math.max(Math.abs(pooled.value(0)), Math.abs(pooled.value(pooled.size() - 1)));
+        if (largest <= LARGEST_DRAWN && (largest >= SMALLEST_DRAWN || largest == 0)) {
+            return 0;
+        }
+        return (int) Math.floor(Math.log10(largest));
+    }
+
+    /** The values divided by 10^decade, in two steps so that neither power of ten leaves the doubles. */
+    static NumericDistribution inDecades(NumericDistribution d, int decade) {
+        if (decade == 0) {
+            return d;
+        }
+        double first = Math.pow(10, decade / 2);
+        double second = Math.pow(10, decade - decade / 2);
+        java.util.Map<Double, Long> tally = new java.util.HashMap<>();
+        for (int i = 0; i < d.size(); i++) {
+            double x = d.value(i) / first / second;
+            // Values far below the largest underflow to zero and are drawn there.
+            tally.merge(x == 0 ? 0.0 : x, d.count(i), Long::sum);
+        }
+        return NumericDistribution.ofTally(tally);
     }
 
     /**

@@ -10,7 +10,18 @@ import java.util.Objects;
  * Baseline comes first everywhere, as in the comparison stage.
  */
 public sealed interface VariablePlot permits VariablePlot.NumericPlot, VariablePlot.SharesPlot,
-        VariablePlot.MissingPlot, VariablePlot.CorrelationPlot {
+        VariablePlot.MissingPlot, VariablePlot.CorrelationPlot, VariablePlot.Unavailable {
+
+    /**
+     * No chart: preparing its data failed. The alert is shown with a note in the chart's place.
+     *
+     * @param error the simple name of the error's class, for the note
+     */
+    record Unavailable(String error) implements VariablePlot {
+        public Unavailable {
+            Objects.requireNonNull(error, "error");
+        }
+    }
 
     /**
      * A relationship of two variables: each wave's correlation (Spearman's rho, and Pearson's r beside it) with its

@@ -134,4 +134,24 @@ class LocationTestChoiceTest {
         }
         return out;
     }
+
+    @Test
+    void valuesWhoseSquaresPassTheLargestDoubleAreComparedByRanks() {
+        double[] b = new double[500];
+        double[] c = new double[500];
+        for (int i = 0; i < 500; i++) {
+            b[i] = 40 + i % 20;
+            c[i] = 41 + i % 20;
+        }
+        b[0] = 1e308;
+        b[1] = -1e308;
+        Choice choice = LocationTestChoice.choose(NumericDistribution.ofSample(b), NumericDistribution.ofSample(c));
+        assertEquals(MANN_WHITNEY, choice.test());
+        assertTrue(choice.reason().contains("beyond what sums of squares can hold"), choice.reason());
+        // Values a little smaller still have finite sums of squares and follow the usual rule.
+        b[0] = 1e150;
+        b[1] = -1e150;
+        assertTrue(!LocationTestChoice.choose(NumericDistribution.ofSample(b), NumericDistribution.ofSample(c))
+                .reason().contains("sums of squares"));
+    }
 }

@@ -138,4 +138,24 @@ class SvgChartTest {
         assertEquals(5, svg.split("<rect class=\"bar b\"", -1).length - 1, "one baseline bar per pooled value");
         assertEquals(5, svg.split("<rect class=\"bar c\"", -1).length - 1, "one current bar per pooled value");
     }
+
+    @Test
+    void valuesAtTheEndsOfTheDoublesAreDrawnInUnitsOfAPowerOfTen() {
+        NumericDistribution b = NumericDistribution.ofSample(-1e308, 5e-324, 1e308, 1e308);
+        NumericDistribution c = NumericDistribution.ofSample(-1e308, 5e-324, 5e-324, 1e308);
+        String svg = SvgChart.numeric("huge", new VariablePlot.NumericPlot(null, b, c), "1", "2");
+        assertFalse(svg.contains("NaN") || svg.contains("Infinity"), svg);
+        assertTrue(svg.contains("(\u00d7 1e308)"), svg);
+
+        NumericDistribution tiny = NumericDistribution.ofSample(0, 5e-324, 1e-320);
+        String small = SvgChart.numeric("tiny", new VariablePlot.NumericPlot("m", tiny, tiny), "1", "2");
+        assertFalse(small.contains("NaN") || small.contains("Infinity"), small);
+        // 1e-320 is a subnormal just below itself, 9.99989e-321: the decade is -321.
+        assertTrue(small.contains("(\u00d7 1e-321 m)"), small);
+
+        double[] many = IntStream.range(0, 200).mapToDouble(i -> (i - 100) * 1e306).toArray();
+        String binned = SvgChart.numeric("spread", new VariablePlot.NumericPlot(null, NumericDistribution.ofSample(many),
+                NumericDistribution.ofSample(many)), "1", "2");
+        assertFalse(binned.contains("NaN") || binned.contains("Infinity"), binned);
+    }
 }
