@@ -9,12 +9,12 @@ import java.io.PrintWriter;
 
 /**
  * The one executable. Exit codes: 0 fine, 1 findings at or above {@code --fail-on}, 2 usage or config error,
- * 3 database unreachable.
+ * 3 database unreachable, 5 a delivery left failing ({@code run --once}, {@code outbox replay}).
  */
 @Command(name = "wavewarden", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
         description = "Judges each new survey wave against earlier waves and flags disguised missing values.",
         subcommands = {DemoCommand.class, InitDbCommand.class, ImportCommand.class, WavesCommand.class,
-                CheckCommand.class, ReleasesCommand.class, RunCommand.class, BenchCommand.class,
+                CheckCommand.class, ReleasesCommand.class, RunCommand.class, OutboxCommand.class, BenchCommand.class,
                 CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
 
@@ -22,6 +22,8 @@ public final class Main implements Runnable {
     public static final int FINDINGS = 1;
     public static final int USAGE = 2;
     public static final int UNREACHABLE = 3;
+    /** Something a committed run owes (a file, an alert) is still pending or dead-lettered. */
+    public static final int DELIVERY_FAILING = 5;
 
     @CommandLine.Spec
     CommandLine.Model.CommandSpec spec;

@@ -6,10 +6,12 @@ import org.wavewarden.deliver.sink.AlertSink;
 import org.wavewarden.deliver.sink.JdbiDeadLetters;
 import org.wavewarden.deliver.sink.RetryPolicy;
 import org.wavewarden.deliver.sink.SinkFactory;
+import org.wavewarden.deliver.sink.WebhookSink;
 import org.wavewarden.pipeline.Session;
 
 import java.net.URI;
 import java.nio.file.Path;
+import java.time.Duration;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -26,6 +28,11 @@ public final class Sinks {
     }
 
     public static Map<String, List<AlertSink>> fromConfig(Session s, RetryPolicy retry) {
+        return fromConfig(s, retry, WebhookSink.REQUEST_TIMEOUT);
+    }
+
+    /** @param webhookTimeout how long one webhook attempt may take, connection included */
+    public static Map<String, List<AlertSink>> fromConfig(Session s, RetryPolicy retry, Duration webhookTimeout) {
         Map<String, List<AlertSink>> out = new LinkedHashMap<>();
         for (DatasetConfig d : s.config().datasets()) {
             List<AlertSink> sinks = new ArrayList<>();
@@ -38,7 +45,7 @@ public final class Sinks {
                 sinks.add(SinkFactory.webhook(URI.create(a.webhook().url()), a.webhook().secretEnv(), s.env()::get,
                         a.webhook().filter().minimumVerdict(), a.webhook().filter().kinds(), retry,
                         new JdbiDeadLetters(s.store().jdbi(), s.config().results().schema()),
-                        SinkFactory.httpClient()));
+                        SinkFactory.httpClient(), webhookTimeout));
             }
             out.put(d.name(), sinks);
         }

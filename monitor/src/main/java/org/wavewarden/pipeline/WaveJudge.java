@@ -29,6 +29,7 @@ import org.wavewarden.read.WaveInfo;
 import org.wavewarden.read.WaveListing;
 import org.wavewarden.read.WaveScanner;
 import org.wavewarden.read.WaveSource;
+import org.wavewarden.store.OutboxStore;
 import org.wavewarden.store.ResultsStore;
 
 import java.time.Clock;
@@ -115,8 +116,24 @@ public final class WaveJudge {
         return i == 0 ? List.of() : List.of(order.get(i - 1));
     }
 
+    /**
+     * Judges a wave and writes its findings files into {@code outDir} (null for none) before returning: the files
+     * are an outbox row of the run, carried out at once from the stored results.
+     */
     public JudgedWave judge(DatasetConfig d, String wave, String againstOverride, java.nio.file.Path outDir,
                             LongConsumer progress) {
+        JudgedWave j = judgeWithOutputs(d, wave, againstOverride, outDir == null ? OutboxStore.Outputs.NONE
+                : OutboxStore.Outputs.files(outDir), progress);
+        if (outDir != null) {
+            session.store().outbox().pendingWaveFiles(j.runId())
+                    .forEach(row -> FindingsFiles.carryOut(session.store(), row));
+        }
+        return j;
+    }
+
+    /** Judges a wave and commits the run with its outputs as outbox rows, which the caller carries out. */
+    public JudgedWave judgeWithOutputs(DatasetConfig d, String wave, String againstOverride,
+                                       OutboxStore.Outputs outputs, LongConsumer progress) {
         Instant started = clock.instant();
         WardenConfig cfg = session.config();
         WaveSource source = WaveSource.of(d, "dataset");
@@ -144,10 +161,7 @@ public final class WaveJudge {
         long runId = session.store().writeRun(new ResultsStore.RunWrite(d.name(), wave,
                         againstLabel == null ? "" : againstLabel, current.checksum(), started, finished, cfg.alpha(),
                         cfg.fdr().name()),
-                current, findings, alerts);
-        if (outDir != null) {
-            FindingsFiles.write(outDir, report);
-        }
+                current, findings, alerts, inference, outputs);
         return new JudgedWave(report, runId, alerts);
     }
 
