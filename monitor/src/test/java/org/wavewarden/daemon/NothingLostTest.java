@@ -6,6 +6,7 @@ import org.wavewarden.config.ConfigLoader;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.deliver.Json;
 import org.wavewarden.deliver.sink.RetryPolicy;
+import org.wavewarden.deliver.sink.WebhookSink;
 import org.wavewarden.pipeline.Session;
 import org.wavewarden.testing.ChildDaemon;
 import org.wavewarden.testing.CliRun;
@@ -140,6 +141,68 @@ class NothingLostTest {
                 assertTrue(d.fireWithRetries(DATASET));
                 assertEachOnce(open, hook.received());
             }
+        }
+    }
+
+    @Test
+    void aSlowReceiverTimesOutOnceAndHoldsUpNeitherTheFiringNorTheOtherSinks() throws Exception {
+        load("outbox_slow");
+        Path jsonl = dir.resolve("alerts.jsonl");
+        try (WebhookReceiver hook = WebhookReceiver.start(SECRET)) {
+            hook.slow(WebhookSink.REQUEST_TIMEOUT.plusSeconds(3));
+            WardenConfig cfg = ConfigLoader.parse(yaml(jsonl, hook.url()));
+            DatasetFiringTest.ManualClock clock = new DatasetFiringTest.ManualClock();
+            try (Session s = Session.open(cfg, null, Map.of("HOOK_SECRET", SECRET));
+                 Daemon d = new Daemon(s, clock, FAST, Sinks.fromConfig(s, QUICK))) {
+                s.migrate();
+                assertTrue(d.fireWithRetries(DATASET));
+                long open = openAlerts();
+                assertEquals(3, count("SELECT count(*) FROM ww_results.run"), "every wave judged and committed");
+                assertEquals(open, keys(jsonl).size(), "the JSON Lines sink got every alert");
+                assertFalse(found(outputDir(), "digest.html").isEmpty(), "the digest is written");
+                assertEquals(1, count("SELECT count(*) FROM ww_results.dead_letter"),
+                        "the webhook stopped at its first timed-out alert instead of waiting on each");
+
+                hook.slow(Duration.ZERO);
+                clock.now = clock.now.plus(Duration.ofHours(2));
+                assertTrue(d.fireWithRetries(DATASET));
+                // The timed-out request may have reached the receiver late: its repeat carries the same key.
+                assertEquals(open, hook.received().size());
+                assertEquals(0, count("SELECT count(*) FROM ww_results.dead_letter"));
+            }
+        }
+    }
+
+    @Test
+    void deadLettersAreListedAndAReplaySendsThemAtOnce() throws Exception {
+        load("outbox_replay");
+        try (WebhookReceiver hook = WebhookReceiver.start(SECRET)) {
+            hook.down();
+            Path config = dir.resolve("c.yaml");
+            Files.writeString(config, yaml(null, hook.url()));
+            WardenConfig cfg = ConfigLoader.parse(Files.readString(config));
+            try (Session s = Session.open(cfg, null, Map.of("HOOK_SECRET", SECRET));
+                 Daemon d = new Daemon(s, java.time.Clock.systemUTC(), FAST, Sinks.fromConfig(s, QUICK))) {
+                s.migrate();
+                d.fireWithRetries(DATASET);
+            }
+            long open = openAlerts();
+            CliRun listed = CliRun.of("outbox", "list", "--config", config.toString());
+            assertEquals(0, listed.exitCode(), listed.err());
+            assertTrue(listed.out().contains("1 dead letter(s)"), listed.out());
+            assertTrue(listed.out().contains("webhook:" + hook.url()), listed.out());
+            assertFalse(listed.out().contains(SECRET));
+
+            hook.up();
+            try (ChildDaemon replay = ChildDaemon.start(dir, "replay", List.of(), Map.of("HOOK_SECRET", SECRET),
+                    "outbox", "replay", "--config", config.toString(), "--dataset", DATASET)) {
+                assertEquals(0, replay.waitFor(Duration.ofSeconds(120)), replay.output());
+                assertTrue(replay.output().contains("1 dead letter(s) due again"), replay.output());
+            }
+            assertEachOnce(open, hook.received());
+            CliRun after = CliRun.of("outbox", "list", "--config", config.toString());
+            assertTrue(after.out().contains("0 dead letter(s)"), after.out());
+            assertEquals(0, count("SELECT count(*) FROM ww_results.dead_letter"));
         }
     }
 

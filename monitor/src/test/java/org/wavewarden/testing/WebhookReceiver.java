@@ -22,6 +22,7 @@ public final class WebhookReceiver implements AutoCloseable {
     private final Map<String, AtomicInteger> byKey = new ConcurrentHashMap<>();
     private final AtomicInteger badRequests = new AtomicInteger();
     private HttpServer server;
+    private volatile java.time.Duration delay = java.time.Duration.ZERO;
 
     private WebhookReceiver(String secret) throws IOException {
         this.secret = secret;
@@ -39,6 +40,11 @@ public final class WebhookReceiver implements AutoCloseable {
         HttpServer s = HttpServer.create(new InetSocketAddress("127.0.0.1", port), 0);
         s.createContext("/hook", ex -> {
             byte[] body = ex.getRequestBody().readAllBytes();
+            try {
+                Thread.sleep(delay.toMillis());
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+            }
             String key = ex.getRequestHeaders().getFirst(WebhookSink.IDEMPOTENCY_HEADER);
             if (key == null || !Signatures.verify(body, secret,
                     ex.getRequestHeaders().getFirst(WebhookSink.SIGNATURE_HEADER))) {
@@ -50,9 +56,15 @@ public final class WebhookReceiver implements AutoCloseable {
             }
             ex.close();
         });
+        s.setExecutor(java.util.concurrent.Executors.newCachedThreadPool());
         s.start();
         server = s;
         port = s.getAddress().getPort();
+    }
+
+    /** Answers each request only after this long, as a receiver that is up but overloaded. */
+    public void slow(java.time.Duration answerAfter) {
+        this.delay = answerAfter;
     }
 
     /** Stops listening: connections to the port are refused until {@link #up}. */
