@@ -3,7 +3,6 @@ package org.wavewarden.cli;
 import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.daemon.Deliveries;
 import org.wavewarden.daemon.Sinks;
-import org.wavewarden.deliver.sink.RetryPolicy;
 import org.wavewarden.pipeline.Session;
 import org.wavewarden.store.OutboxStore;
 import picocli.CommandLine.Command;

@@ -3,7 +3,6 @@ package org.wavewarden.cli;
 import org.wavewarden.daemon.Daemon;
 import org.wavewarden.daemon.Deliveries;
 import org.wavewarden.daemon.Sinks;
-import org.wavewarden.deliver.sink.RetryPolicy;
 import org.wavewarden.pipeline.Session;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -44,7 +43,7 @@ final class RunCommand implements Callable<Integer> {
         }
         Session s = config.open();
         Daemon daemon = new Daemon(s, Clock.systemUTC(), Daemon.Retry.DEFAULT, Sinks.fromConfig(s,
-                RetryPolicy.standard(), Duration.ofSeconds(webhookTimeoutSeconds)));
+                Sinks.DAEMON_RETRY, Duration.ofSeconds(webhookTimeoutSeconds)));
         var out = spec.commandLine().getOut();
         if (once) {
             try (s; daemon) {

@@ -195,6 +195,10 @@ public final class Deliveries {
                 outbox.superseded(row.id());
                 continue;
             }
+            if (!sink.filter().accepts(m.get())) {
+                outbox.filtered(row.id());
+                continue;
+            }
             DeliveryReport r;
             try {
                 r = sink.deliver(List.of(m.get()));

@@ -23,9 +23,16 @@ public final class Sinks {
     private Sinks() {
     }
 
+    /**
+     * The daemon's sinks. A webhook retries an alert three times within a firing (waits of about 1 and 2 s): the
+     * outbox retries across firings, so a longer wait here would only hold up the dataset's firing.
+     */
     public static Map<String, List<AlertSink>> fromConfig(Session s) {
-        return fromConfig(s, RetryPolicy.standard());
+        return fromConfig(s, DAEMON_RETRY);
     }
+
+    /** Retries of one alert within one firing. */
+    public static final RetryPolicy DAEMON_RETRY = RetryPolicy.of(3, Duration.ofSeconds(1), Duration.ofSeconds(4));
 
     public static Map<String, List<AlertSink>> fromConfig(Session s, RetryPolicy retry) {
         return fromConfig(s, retry, WebhookSink.REQUEST_TIMEOUT);
