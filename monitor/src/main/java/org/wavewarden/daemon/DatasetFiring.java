@@ -43,14 +43,15 @@ public final class DatasetFiring {
     private final List<String> alertSinks;
     private final boolean digest;
 
-    /** A firing whose runs owe their wave files only. */
+    /** A firing whose runs owe their wave files only, which it writes before it returns. */
     public DatasetFiring(Session session, Clock clock, Path outputDir) {
         this(session, clock, outputDir, List.of(), false);
     }
 
     /**
      * @param alertSinks the names of the sinks every alert goes to
-     * @param digest     whether the firing's judged waves owe a digest of their own
+     * @param digest     whether the firing's judged waves owe a digest of their own; such a firing is the daemon's,
+     *                   whose delivery step writes every file, so this firing writes none itself
      */
     public DatasetFiring(Session session, Clock clock, Path outputDir, List<String> alertSinks, boolean digest) {
         this.session = session;
@@ -69,8 +70,9 @@ public final class DatasetFiring {
     }
 
     /**
-     * Judges every ready wave, each committed with its outputs as outbox rows, then writes the judged waves'
-     * findings files; a wave whose files cannot be written stays judged and its files stay owed.
+     * Judges every ready wave, each committed with its outputs as outbox rows, then (unless the delivery step does)
+     * writes the judged waves' findings files; a wave whose files cannot be written stays judged and its files
+     * stay owed.
      */
     public Result fire(DatasetConfig d) {
         Path datasetDir = OutputPaths.under(outputDir, d.name());
@@ -103,7 +105,7 @@ public final class DatasetFiring {
                     OutputPaths.under(datasetDir, w.wave()), outputsTemplate.digestFolder(), alertSinks), null));
             store.judgedFingerprint(d.name(), w.wave(), w.fingerprint());
         }
-        for (JudgedWave j : judged) {
+        for (JudgedWave j : digest ? List.<JudgedWave>of() : judged) {
             for (OutboxStore.Row row : store.outbox().pendingWaveFiles(j.runId())) {
                 try {
                     FindingsFiles.carryOut(store, row);
