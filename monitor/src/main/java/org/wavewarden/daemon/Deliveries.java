@@ -102,10 +102,8 @@ public final class Deliveries {
             steps.add(alerts(dataset, sink));
         }
         Map<String, OutboxStore.Backlog> owed = new java.util.HashMap<>();
-        for (OutboxStore.Backlog b : outbox.backlog()) {
-            if (b.dataset().equals(dataset)) {
-                owed.put(b.sink(), b);
-            }
+        for (OutboxStore.Backlog b : outbox.backlog(dataset)) {
+            owed.put(b.sink(), b);
         }
         List<SinkOutcome> out = new ArrayList<>();
         for (Step s : steps) {

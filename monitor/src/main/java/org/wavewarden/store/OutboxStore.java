@@ -244,10 +244,17 @@ public final class OutboxStore {
 
     /** Per dataset and sink, what is owed, in one query. */
     public List<Backlog> backlog() {
+        return backlog(null);
+    }
+
+    /** The same for one dataset (null for every dataset). */
+    public List<Backlog> backlog(String dataset) {
         return jdbi.withHandle(h -> h.createQuery("SELECT dataset, sink, count(*) FILTER (WHERE state = 'pending'),"
                         + " coalesce(extract(epoch FROM now() - min(created_at) FILTER (WHERE state = 'pending')), 0),"
                         + " coalesce(sum(failed_attempts), 0), count(*) FILTER (WHERE state = 'dead') FROM " + s
-                        + ".outbox GROUP BY dataset, sink ORDER BY dataset, sink")
+                        + ".outbox WHERE CAST(:d AS text) IS NULL OR dataset = :d GROUP BY dataset, sink"
+                        + " ORDER BY dataset, sink")
+                .bind("d", dataset)
                 .map((rs, ctx) -> new Backlog(rs.getString(1), rs.getString(2), rs.getLong(3), rs.getDouble(4),
                         rs.getLong(5), rs.getLong(6)))
                 .list());
