@@ -66,20 +66,11 @@ public final class Daemon implements AutoCloseable {
      */
     public Daemon(Session session, Clock clock, Retry retry,
                   Map<String, List<org.wavewarden.deliver.sink.AlertSink>> sinksByDataset) {
-        this(session, clock, retry, sinksByDataset, Deliveries.DEAD_LETTER_BACKOFF);
-    }
-
-    /**
-     * @param deadLetterBackoff how long a dead-lettered alert waits before later firings try it again
-     */
-    public Daemon(Session session, Clock clock, Retry retry,
-                  Map<String, List<org.wavewarden.deliver.sink.AlertSink>> sinksByDataset,
-                  org.wavewarden.deliver.sink.RetryPolicy deadLetterBackoff) {
         this.session = session;
         this.config = session.config();
         this.clock = clock;
         this.retry = retry;
-        this.deliveries = new Deliveries(session, sinksByDataset, clock, deadLetterBackoff);
+        this.deliveries = new Deliveries(session, sinksByDataset, clock, Deliveries.DEAD_LETTER_BACKOFF);
         this.outputDir = Path.of(config.daemon().outputDir());
         this.quartzPool = Databases.open(config.results().connection() == null ? config.source()
                 : config.results().connection(), session.embeddedUrl(), "results", false, session.env(), 4);

@@ -1,9 +1,9 @@
 package org.wavewarden.daemon;
 
-import org.wavewarden.config.DatasetConfig;
-import org.wavewarden.config.Identifiers;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
+import org.wavewarden.config.DatasetConfig;
+import org.wavewarden.config.Identifiers;
 import org.wavewarden.deliver.FindingsFiles;
 import org.wavewarden.deliver.FindingsReport;
 import org.wavewarden.deliver.OutputPaths;
@@ -76,8 +76,7 @@ public final class DatasetFiring {
      */
     public Result fire(DatasetConfig d) {
         Path datasetDir = OutputPaths.under(outputDir, d.name());
-        OutboxStore.Outputs outputsTemplate = new OutboxStore.Outputs(null, digest
-                ? datasetDir.resolve("digest-" + STAMP.format(clock.instant())) : null, alertSinks);
+        Path digestFolder = digest ? datasetDir.resolve("digest-" + STAMP.format(clock.instant())) : null;
         WaveJudge judge = new WaveJudge(session, clock);
         ResultsStore store = session.store();
         List<JudgedWave> judged = new ArrayList<>();
@@ -102,7 +101,7 @@ public final class DatasetFiring {
                 continue;
             }
             judged.add(judge.judgeWithOutputs(d, w.wave(), null, new OutboxStore.Outputs(
-                    OutputPaths.under(datasetDir, w.wave()), outputsTemplate.digestFolder(), alertSinks), null));
+                    OutputPaths.under(datasetDir, w.wave()), digestFolder, alertSinks), null));
             store.judgedFingerprint(d.name(), w.wave(), w.fingerprint());
         }
         for (JudgedWave j : digest ? List.<JudgedWave>of() : judged) {

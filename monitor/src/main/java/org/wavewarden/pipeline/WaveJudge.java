@@ -125,7 +125,8 @@ public final class WaveJudge {
         JudgedWave j = judgeWithOutputs(d, wave, againstOverride, outDir == null ? OutboxStore.Outputs.NONE
                 : OutboxStore.Outputs.files(outDir), progress);
         if (outDir != null) {
-            session.store().outbox().pendingWaveFiles(j.runId())
+            java.nio.file.Path folder = outDir.toAbsolutePath().normalize();
+            session.store().outbox().pendingWaveFiles(j.runId()).stream().filter(row -> row.folder().equals(folder))
                     .forEach(row -> FindingsFiles.carryOut(session.store(), row));
         }
         return j;

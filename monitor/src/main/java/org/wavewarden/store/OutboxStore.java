@@ -7,7 +7,6 @@ import org.wavewarden.config.Identifiers;
 import org.wavewarden.deliver.sink.AlertMessage;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
-import org.wavewarden.judge.Verdict;
 
 import java.nio.file.Path;
 import java.time.Instant;
@@ -270,20 +269,10 @@ public final class OutboxStore {
                         + " AND f.variable = a.variable AND f.kind = a.kind WHERE a.alert_id = :id")
                 .bind("id", alertId)
                 .map((rs, ctx) -> {
-                    String effectName = rs.getString("effect_name");
-                    Finding.Effect effect = effectName == null ? null : new Finding.Effect(effectName,
-                            rs.getDouble("effect_estimate"), rs.getDouble("effect_ci_low"),
-                            rs.getDouble("effect_ci_high"), rs.getDouble("effect_threshold"));
-                    String verdict = rs.getString("verdict");
-                    Finding f = new Finding(rs.getString("variable"), FindingKind.valueOf(rs.getString("kind")),
-                            rs.getString("test"), (Double) rs.getObject("statistic"), (Double) rs.getObject("p_value"),
-                            (Double) rs.getObject("q_value"), effect, verdict == null ? null : Verdict.valueOf(verdict),
-                            (Long) rs.getObject("n_baseline"), (Long) rs.getObject("n_current"),
-                            rs.getString("sentence"), null);
                     String against = rs.getString("against_wave");
                     return AlertMessage.of(rs.getString("dataset"), rs.getString("wave"),
                             against.isEmpty() ? null : against, rs.getLong("run_id"),
-                            rs.getString("summary_checksum"), f);
+                            rs.getString("summary_checksum"), ResultsStore.finding(rs, null));
                 })
                 .findOne());
     }

@@ -222,20 +222,25 @@ public final class ResultsStore {
                         + " effect_ci_low, effect_ci_high, effect_threshold, verdict, n_baseline, n_current, sentence,"
                         + " detail::text AS detail FROM " + s + ".finding WHERE run_id = :run ORDER BY finding_id")
                 .bind("run", runId)
-                .map((rs, ctx) -> {
-                    String effectName = rs.getString("effect_name");
-                    Finding.Effect effect = effectName == null ? null : new Finding.Effect(effectName,
-                            rs.getDouble("effect_estimate"), rs.getDouble("effect_ci_low"),
-                            rs.getDouble("effect_ci_high"), rs.getDouble("effect_threshold"));
-                    String verdict = rs.getString("verdict");
-                    FindingKind kind = FindingKind.valueOf(rs.getString("kind"));
-                    return new Finding(rs.getString("variable"), kind, rs.getString("test"),
-                            (Double) rs.getObject("statistic"), (Double) rs.getObject("p_value"),
-                            (Double) rs.getObject("q_value"), effect, verdict == null ? null : Verdict.valueOf(verdict),
-                            (Long) rs.getObject("n_baseline"), (Long) rs.getObject("n_current"),
-                            rs.getString("sentence"), detail(kind, rs.getString("detail")));
-                })
+                .map((rs, ctx) -> finding(rs, detail(FindingKind.valueOf(rs.getString("kind")),
+                        rs.getString("detail"))))
                 .list();
+    }
+
+    /**
+     * A finding from a result row with the finding table's column names (variable, kind, test, statistic, p_value,
+     * q_value, effect_*, verdict, n_baseline, n_current, sentence).
+     */
+    static Finding finding(java.sql.ResultSet rs, Object detail) throws java.sql.SQLException {
+        String effectName = rs.getString("effect_name");
+        Finding.Effect effect = effectName == null ? null : new Finding.Effect(effectName,
+                rs.getDouble("effect_estimate"), rs.getDouble("effect_ci_low"), rs.getDouble("effect_ci_high"),
+                rs.getDouble("effect_threshold"));
+        String verdict = rs.getString("verdict");
+        return new Finding(rs.getString("variable"), FindingKind.valueOf(rs.getString("kind")), rs.getString("test"),
+                (Double) rs.getObject("statistic"), (Double) rs.getObject("p_value"), (Double) rs.getObject("q_value"),
+                effect, verdict == null ? null : Verdict.valueOf(verdict), (Long) rs.getObject("n_baseline"),
+                (Long) rs.getObject("n_current"), rs.getString("sentence"), detail);
     }
 
     private static Object detail(FindingKind kind, String json) {
