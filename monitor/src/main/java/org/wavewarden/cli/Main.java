@@ -14,7 +14,8 @@ import java.io.PrintWriter;
 @Command(name = "wavewarden", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
         description = "Judges each new survey wave against earlier waves and flags disguised missing values.",
         subcommands = {DemoCommand.class, InitDbCommand.class, ImportCommand.class, WavesCommand.class,
-                CheckCommand.class, ReleasesCommand.class, RunCommand.class, BenchCommand.class, SoakCommand.class,
+                CheckCommand.class, ReleasesCommand.class, RunCommand.class, OutboxCommand.class, BenchCommand.class,
+                SoakCommand.class,
                 CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
 
@@ -31,6 +32,8 @@ public final class Main implements Runnable {
      * retries while both databases answer. The message or the log says why.
      */
     public static final int FAILED = 4;
+    /** Something a committed run owes (a file, an alert) is still pending or dead-lettered. */
+    public static final int DELIVERY_FAILING = 5;
 
     @CommandLine.Spec
     CommandLine.Model.CommandSpec spec;

@@ -16,21 +16,13 @@ import org.wavewarden.config.ConnectionConfig;
 import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.db.Databases;
-import org.wavewarden.deliver.Json;
-import org.wavewarden.deliver.MarkdownDigest;
 import org.wavewarden.pipeline.JudgedWave;
 import org.wavewarden.pipeline.Session;
 
 import java.io.IOException;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
-import java.nio.file.StandardCopyOption;
 import java.time.Clock;
 import java.time.Duration;
-import java.time.Instant;
-import java.time.ZoneOffset;
-import java.time.format.DateTimeFormatter;
 import java.util.List;
 import java.util.Map;
 import java.util.Properties;
@@ -62,12 +54,12 @@ public final class Daemon implements AutoCloseable {
     private final DaemonMetrics metrics = new DaemonMetrics();
     private final String registryKey = UUID.randomUUID().toString();
     private final HikariDataSource quartzPool;
-    private final AlertOutbox outbox;
+    private final Deliveries deliveries;
+    private final Map<String, FiringReport> lastFirings = new java.util.concurrent.ConcurrentHashMap<>();
     private Scheduler scheduler;
     private StatusServer status;
     private DatabaseProbe probe;
     private volatile FiringListener firingListener = FiringListener.NONE;
-    private volatile Path latestDigest;
 
     /**
      * @param sinksByDataset the sinks of each dataset besides the alerts table, which the run itself writes
@@ -78,10 +70,12 @@ public final class Daemon implements AutoCloseable {
         this.config = session.config();
         this.clock = clock;
         this.retry = retry;
-        this.outbox = new AlertOutbox(session.store().jdbi(), config.results().schema(), sinksByDataset);
+        this.deliveries = new Deliveries(session, sinksByDataset, clock, Deliveries.DEAD_LETTER_BACKOFF);
         this.outputDir = Path.of(config.daemon().outputDir());
         this.quartzPool = Databases.open(config.results().connection() == null ? config.source()
                 : config.results().connection(), session.embeddedUrl(), "results", false, session.env(), 4);
+        // Read at each scrape and each /health request, so an operator sees what is owed now, not at the last firing.
+        metrics.backlogSource(this::backlog);
     }
 
     public DaemonMetrics metrics() {
@@ -150,14 +144,39 @@ public final class Daemon implements AutoCloseable {
         return status == null ? -1 : status.port();
     }
 
-    /** One firing of every dataset, in this thread; for {@code run --once}. Returns whether all succeeded. */
-    public boolean runOnce() {
-        session.migrate();
-        boolean ok = true;
-        for (DatasetConfig d : config.datasets()) {
-            ok &= fireWithRetries(d.name());
+    /**
+     * What one firing of a dataset did, for {@code run --once} and the log.
+     *
+     * @param judged     false when a database stayed unreachable through every retry
+     * @param wavesFound the waves the source lists
+     * @param deliveries null when the firing did not get as far as delivering
+     */
+    public record FiringReport(String dataset, boolean judged, int wavesFound, int wavesJudged, int alerts,
+                               Deliveries.Outcome deliveries) {
+        /** Whether anything the dataset's runs owe is left undelivered (pending or dead-lettered). */
+        public boolean deliveryLeftFailing() {
+            return deliveries != null && !deliveries.owesNothing();
         }
-        return ok;
+    }
+
+    /** One firing of every dataset, in this thread; for {@code run --once}. */
+    public List<FiringReport> runOnce() {
+        session.migrate();
+        List<FiringReport> reports = new java.util.ArrayList<>();
+        for (DatasetConfig d : config.datasets()) {
+            fireWithRetries(d.name());
+            reports.add(lastFirings.get(d.name()));
+        }
+        return reports;
+    }
+
+    /**
+     * What each sink of each dataset still owes, from the outbox table in one query; for {@code /health} (degraded
+     * while anything is dead-lettered) and {@code /metrics}.
+     */
+    public List<DeliveryBacklog> backlog() {
+        return session.store().outbox().backlog().stream().map(b -> new DeliveryBacklog(b.dataset(), b.sink(),
+                b.pending(), b.oldestPendingSeconds(), b.failedAttempts(), b.deadLetters())).toList();
     }
 
     /** One firing of one dataset, retried with backoff while a database is unreachable. */
@@ -173,20 +192,31 @@ public final class Daemon implements AutoCloseable {
         }
     }
 
+    /**
+     * Judging commits each wave with everything it owes; delivering is the step after it, in which a failing sink
+     * delays only itself and never fails the firing. Only an unreachable database fails an attempt, which is then
+     * retried.
+     */
     private boolean attempts(String dataset) {
         DatasetConfig d = config.dataset(dataset);
         Duration delay = retry.initial();
         for (int attempt = 1; ; attempt++) {
             long started = System.nanoTime();
             try {
-                DatasetFiring.Result r = new DatasetFiring(session, clock, outputDir).fire(d);
+                DatasetFiring.Result r = new DatasetFiring(session, clock, outputDir,
+                        deliveries.sinkNames(dataset), true).fire(d);
+                long judgedNanos = System.nanoTime() - started;
+                int alerts = 0;
                 for (JudgedWave j : r.judged()) {
                     metrics.waveJudged(dataset, j.alerts());
+                    alerts += j.alerts().size();
                 }
-                outbox.flush(dataset);
-                if (!r.judged().isEmpty()) {
-                    writeDigest(r);
-                }
+                Deliveries.Outcome o = deliveries.deliver(dataset);
+                FiringReport report = new FiringReport(dataset, true, r.found(), r.judged().size(), alerts, o);
+                lastFirings.put(dataset, report);
+                LOG.info("firing of {}: {} wave(s) found, {} judged, {} waiting, {} alert(s); judged in {} ms;"
+                                + " deliveries in {} ms: {}", dataset, r.found(), r.judged().size(), r.waiting().size(),
+                        alerts, judgedNanos / 1_000_000, o.took().toMillis(), describe(o));
                 metrics.firingSucceeded(dataset, clock.instant());
                 metrics.firingDuration(dataset, (System.nanoTime() - started) / 1e9);
                 return true;
@@ -195,6 +225,7 @@ public final class Daemon implements AutoCloseable {
                 if (attempt >= retry.attempts()) {
                     LOG.error("firing of {} failed {} times; giving up until the next firing: {}", dataset, attempt,
                             e.toString());
+                    lastFirings.put(dataset, new FiringReport(dataset, false, 0, 0, 0, null));
                     return false;
                 }
                 LOG.warn("firing of {} failed (attempt {} of {}), retrying in {}: {}", dataset, attempt,
@@ -203,6 +234,7 @@ public final class Daemon implements AutoCloseable {
                     Thread.sleep(delay.toMillis());
                 } catch (InterruptedException ie) {
                     Thread.currentThread().interrupt();
+                    lastFirings.put(dataset, new FiringReport(dataset, false, 0, 0, 0, null));
                     return false;
                 }
                 delay = delay.multipliedBy(2).compareTo(retry.max()) > 0 ? retry.max() : delay.multipliedBy(2);
@@ -210,31 +242,21 @@ public final class Daemon implements AutoCloseable {
         }
     }
 
-    private void writeDigest(DatasetFiring.Result r) {
-        try {
-            String stamp = DateTimeFormatter.ofPattern("yyyyMMdd'T'HHmmss'Z'").withZone(ZoneOffset.UTC)
-                    .format(clock.instant());
-            Path dir = outputDir.resolve(r.dataset()).resolve("digest-" + stamp);
-            Files.createDirectories(dir);
-            var reports = DatasetFiring.reports(r);
-            Files.writeString(dir.resolve("digest.md"), MarkdownDigest.render(reports), StandardCharsets.UTF_8);
-            Files.writeString(dir.resolve("digest.json"), Json.write(Map.of("dataset", r.dataset(), "generatedAt",
-                    Instant.now(clock).toString(), "waves", reports)), StandardCharsets.UTF_8);
-            Files.writeString(dir.resolve("digest.html"), new org.wavewarden.pipeline.DigestAssembler(session)
-                    .html(config.dataset(r.dataset()), reports, clock.instant()), StandardCharsets.UTF_8);
-            Path latest = outputDir.resolve(r.dataset()).resolve("latest");
-            Files.createDirectories(latest);
-            for (String f : List.of("digest.md", "digest.json", "digest.html")) {
-                Files.copy(dir.resolve(f), latest.resolve(f), StandardCopyOption.REPLACE_EXISTING);
+    /** Per sink: delivered and failed in this firing, pending and dead-lettered after it. */
+    static String describe(Deliveries.Outcome o) {
+        StringBuilder sb = new StringBuilder();
+        for (Deliveries.SinkOutcome s : o.sinks()) {
+            if (sb.length() > 0) {
+                sb.append("; ");
             }
-            latestDigest = latest.resolve("digest.md");
-        } catch (IOException e) {
-            LOG.error("could not write the digest of {}: {}", r.dataset(), e.toString());
+            sb.append(s.sink()).append(" delivered ").append(s.delivered()).append(", failed ").append(s.failed())
+                    .append(", pending ").append(s.pending()).append(", dead ").append(s.dead());
         }
+        return sb.toString();
     }
 
     Path latestDigest() {
-        return latestDigest;
+        return deliveries.latestDigest();
     }
 
     /** Stops taking new firings and waits for the one in progress to finish (its run commits or rolls back). */

@@ -1,19 +1,26 @@
 package org.wavewarden.daemon;
 
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
 import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.Identifiers;
+import org.wavewarden.deliver.FindingsFiles;
 import org.wavewarden.deliver.FindingsReport;
+import org.wavewarden.deliver.OutputPaths;
 import org.wavewarden.pipeline.JudgedWave;
 import org.wavewarden.pipeline.Session;
 import org.wavewarden.pipeline.WaveJudge;
 import org.wavewarden.read.WaveInfo;
 import org.wavewarden.read.WaveListing;
 import org.wavewarden.read.WaveSource;
+import org.wavewarden.store.OutboxStore;
 import org.wavewarden.store.ResultsStore;
 
 import java.nio.file.Path;
 import java.time.Clock;
 import java.time.Instant;
+import java.time.ZoneOffset;
+import java.time.format.DateTimeFormatter;
 import java.time.temporal.ChronoUnit;
 import java.util.ArrayList;
 import java.util.List;
@@ -26,21 +33,50 @@ import java.util.List;
  */
 public final class DatasetFiring {
 
+    private static final Logger LOG = LoggerFactory.getLogger(DatasetFiring.class);
+    private static final DateTimeFormatter STAMP = DateTimeFormatter.ofPattern("yyyyMMdd'T'HHmmss'Z'")
+            .withZone(ZoneOffset.UTC);
+
     private final Session session;
     private final Clock clock;
     private final Path outputDir;
+    private final List<String> alertSinks;
+    private final boolean digest;
 
+    /** A firing whose runs owe their wave files only, which it writes before it returns. */
     public DatasetFiring(Session session, Clock clock, Path outputDir) {
+        this(session, clock, outputDir, List.of(), false);
+    }
+
+    /**
+     * @param alertSinks the names of the sinks every alert goes to
+     * @param digest     whether the firing's judged waves owe a digest of their own; such a firing is the daemon's,
+     *                   whose delivery step writes every file, so this firing writes none itself
+     */
+    public DatasetFiring(Session session, Clock clock, Path outputDir, List<String> alertSinks, boolean digest) {
         this.session = session;
         this.clock = clock;
         this.outputDir = outputDir;
+        this.alertSinks = List.copyOf(alertSinks);
+        this.digest = digest;
     }
 
-    /** What one firing did. */
-    public record Result(String dataset, List<JudgedWave> judged, List<String> waiting) {
+    /**
+     * What one firing did.
+     *
+     * @param found the waves the source lists
+     */
+    public record Result(String dataset, int found, List<JudgedWave> judged, List<String> waiting) {
     }
 
+    /**
+     * Judges every ready wave, each committed with its outputs as outbox rows, then (unless the delivery step does)
+     * writes the judged waves' findings files; a wave whose files cannot be written stays judged and its files
+     * stay owed.
+     */
     public Result fire(DatasetConfig d) {
+        Path datasetDir = OutputPaths.under(outputDir, d.name());
+        Path digestFolder = digest ? datasetDir.resolve("digest-" + STAMP.format(clock.instant())) : null;
         WaveJudge judge = new WaveJudge(session, clock);
         ResultsStore store = session.store();
         List<JudgedWave> judged = new ArrayList<>();
@@ -64,10 +100,21 @@ public final class DatasetFiring {
                 blocked = true;
                 continue;
             }
-            judged.add(judge.judge(d, w.wave(), null, outputDir.resolve(d.name()).resolve(w.wave()), null));
+            judged.add(judge.judgeWithOutputs(d, w.wave(), null, new OutboxStore.Outputs(
+                    OutputPaths.under(datasetDir, w.wave()), digestFolder, alertSinks), null));
             store.judgedFingerprint(d.name(), w.wave(), w.fingerprint());
         }
-        return new Result(d.name(), judged, waiting);
+        for (JudgedWave j : digest ? List.<JudgedWave>of() : judged) {
+            for (OutboxStore.Row row : store.outbox().pendingWaveFiles(j.runId())) {
+                try {
+                    FindingsFiles.carryOut(store, row);
+                } catch (RuntimeException e) {
+                    LOG.warn("{} wave {}: the findings files stay owed: {}", d.name(), j.report().wave(),
+                            e.toString());
+                }
+            }
+        }
+        return new Result(d.name(), waves.size(), judged, waiting);
     }
 
     /**

@@ -6,10 +6,12 @@ import org.wavewarden.deliver.sink.AlertSink;
 import org.wavewarden.deliver.sink.JdbiDeadLetters;
 import org.wavewarden.deliver.sink.RetryPolicy;
 import org.wavewarden.deliver.sink.SinkFactory;
+import org.wavewarden.deliver.sink.WebhookSink;
 import org.wavewarden.pipeline.Session;
 
 import java.net.URI;
 import java.nio.file.Path;
+import java.time.Duration;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -21,11 +23,23 @@ public final class Sinks {
     private Sinks() {
     }
 
+    /**
+     * The daemon's sinks. A webhook retries an alert three times within a firing (waits of about 1 and 2 s): the
+     * outbox retries across firings, so a longer wait here would only hold up the dataset's firing.
+     */
     public static Map<String, List<AlertSink>> fromConfig(Session s) {
-        return fromConfig(s, RetryPolicy.standard());
+        return fromConfig(s, DAEMON_RETRY);
     }
 
+    /** Retries of one alert within one firing. */
+    public static final RetryPolicy DAEMON_RETRY = RetryPolicy.of(3, Duration.ofSeconds(1), Duration.ofSeconds(4));
+
     public static Map<String, List<AlertSink>> fromConfig(Session s, RetryPolicy retry) {
+        return fromConfig(s, retry, WebhookSink.REQUEST_TIMEOUT);
+    }
+
+    /** @param webhookTimeout how long one webhook attempt may take, connection included */
+    public static Map<String, List<AlertSink>> fromConfig(Session s, RetryPolicy retry, Duration webhookTimeout) {
         Map<String, List<AlertSink>> out = new LinkedHashMap<>();
         for (DatasetConfig d : s.config().datasets()) {
             List<AlertSink> sinks = new ArrayList<>();
@@ -38,7 +52,7 @@ public final class Sinks {
                 sinks.add(SinkFactory.webhook(URI.create(a.webhook().url()), a.webhook().secretEnv(), s.env()::get,
                         a.webhook().filter().minimumVerdict(), a.webhook().filter().kinds(), retry,
                         new JdbiDeadLetters(s.store().jdbi(), s.config().results().schema()),
-                        SinkFactory.httpClient()));
+                        SinkFactory.httpClient(), webhookTimeout));
             }
             out.put(d.name(), sinks);
         }

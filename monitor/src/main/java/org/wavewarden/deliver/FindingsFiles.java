@@ -2,12 +2,18 @@ package org.wavewarden.deliver;
 
 import com.fasterxml.jackson.databind.SerializationFeature;
 import org.wavewarden.judge.Finding;
+import org.wavewarden.store.OutboxStore;
+import org.wavewarden.store.ResultsStore;
 
 import java.io.IOException;
 import java.io.UncheckedIOException;
+import java.nio.ByteBuffer;
+import java.nio.channels.FileChannel;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.nio.file.StandardCopyOption;
+import java.nio.file.StandardOpenOption;
 import java.util.Comparator;
 import java.util.List;
 
@@ -23,16 +29,60 @@ public final class FindingsFiles {
                 .thenComparing(Finding::variable).thenComparing(f -> f.kind().name())).toList();
     }
 
+    /**
+     * Writes {@code findings.json} and {@code digest.md} into {@code dir}, each atomically: a reader (or a crash)
+     * sees the old file or the new one, never half of one.
+     */
     public static Path write(Path dir, FindingsReport report) {
         try {
             Files.createDirectories(dir);
             Path json = dir.resolve("findings.json");
-            Files.writeString(json, Json.mapper().writer().with(SerializationFeature.INDENT_OUTPUT)
-                    .writeValueAsString(report) + "\n", StandardCharsets.UTF_8);
-            Files.writeString(dir.resolve("digest.md"), MarkdownDigest.render(List.of(report)), StandardCharsets.UTF_8);
+            writeAtomically(json, Json.mapper().writer().with(SerializationFeature.INDENT_OUTPUT)
+                    .writeValueAsString(report) + "\n");
+            writeAtomically(dir.resolve("digest.md"), MarkdownDigest.render(List.of(report)));
             return json;
         } catch (IOException e) {
             throw new UncheckedIOException("cannot write findings to " + dir, e);
+        }
+    }
+
+    /**
+     * Carries out one {@code wave-files} row of the outbox: the files are made again from the results schema (the
+     * stored run and findings), written, and the row marked delivered. A failure is recorded on the row, which stays
+     * pending for the next attempt, and thrown.
+     */
+    public static Path carryOut(ResultsStore store, OutboxStore.Row row) {
+        try {
+            long runId = row.runIds().get(0);
+            FindingsReport report = store.storedReport(runId).orElseThrow(() -> new IllegalStateException(
+                    "run " + runId + " is no longer in the results schema"));
+            Path json = write(row.folder(), report);
+            store.outbox().delivered(row.id());
+            return json;
+        } catch (RuntimeException e) {
+            store.outbox().failed(row.id(), e.getMessage() == null ? e.toString() : e.getMessage());
+            throw e;
+        }
+    }
+
+    /**
+     * Replaces {@code file} with {@code text} in UTF-8 through a temporary file in the same folder, forced to the
+     * disk and renamed over the target in one step, so a half-written file is never seen under the real name.
+     */
+    public static void writeAtomically(Path file, String text) throws IOException {
+        Path dir = file.toAbsolutePath().getParent();
+        Path tmp = Files.createTempFile(dir, "." + file.getFileName(), ".tmp");
+        try {
+            try (FileChannel ch = FileChannel.open(tmp, StandardOpenOption.WRITE, StandardOpenOption.TRUNCATE_EXISTING)) {
+                ByteBuffer buf = ByteBuffer.wrap(text.getBytes(StandardCharsets.UTF_8));
+                while (buf.hasRemaining()) {
+                    ch.write(buf);
+                }
+                ch.force(true);
+            }
+            Files.move(tmp, file, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
+        } finally {
+            Files.deleteIfExists(tmp);
         }
     }
 

@@ -7,6 +7,7 @@ import org.wavewarden.config.WardenConfig;
 import org.wavewarden.db.EmbeddedServer;
 import org.wavewarden.deliver.FindingsReport;
 import org.wavewarden.deliver.MarkdownDigest;
+import org.wavewarden.deliver.OutputPaths;
 import org.wavewarden.deliver.ReleaseDigest;
 import org.wavewarden.deliver.ReleaseReport;
 import org.wavewarden.load.CsvWaveImporter;
@@ -43,7 +44,8 @@ import java.util.Map;
  * <p>Outputs: for the household survey, {@code digest.html} and {@code digest.md} in {@code outDir} and
  * {@code findings.json} + {@code digest.md} per wave in {@code outDir/<wave>/}; for the panel the same under
  * {@code outDir/harrowmere-panel/}, and the release comparison's {@code releases.json} and {@code releases.md} under
- * {@code outDir/harrowmere-panel/releases/<wave>/}.
+ * {@code outDir/harrowmere-panel/releases/<wave>/}; each {@code <wave>} folder is named by
+ * {@link OutputPaths#name}.
  */
 public final class DemoRun {
 
@@ -91,7 +93,7 @@ public final class DemoRun {
                 s.source().useHandle(h -> CatalogCheck.verify(h, config));
                 reports = judgeAll(s, household, outDir, out, outputs);
                 panelReports = judgeAll(s, panel, panelDir, out, outputs);
-                Path releaseDir = panelDir.resolve("releases").resolve(PanelScenarioGenerator.REVISED_WAVE);
+                Path releaseDir = OutputPaths.under(panelDir.resolve("releases"), PanelScenarioGenerator.REVISED_WAVE);
                 release = new ReleaseJudge(s, Clock.systemUTC()).compare(panel, PanelScenarioGenerator.REVISED_WAVE,
                         null, null, releaseDir, null);
                 out.println("compared the releases of " + panel.name() + " wave " + release.wave() + ": "
@@ -133,10 +135,11 @@ public final class DemoRun {
         List<FindingsReport> reports = new ArrayList<>();
         WaveJudge judge = new WaveJudge(s, Clock.systemUTC());
         for (var w : judge.waves(d)) {
-            JudgedWave j = judge.judge(d, w.wave(), null, dir.resolve(w.wave()), null);
+            Path waveDir = OutputPaths.under(dir, w.wave());
+            JudgedWave j = judge.judge(d, w.wave(), null, waveDir, null);
             reports.add(j.report());
-            outputs.add(dir.resolve(w.wave()).resolve("findings.json"));
-            outputs.add(dir.resolve(w.wave()).resolve("digest.md"));
+            outputs.add(waveDir.resolve("findings.json"));
+            outputs.add(waveDir.resolve("digest.md"));
             out.println(d.name() + ": " + summary(j));
         }
         Files.createDirectories(dir);

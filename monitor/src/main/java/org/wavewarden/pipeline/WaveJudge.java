@@ -29,6 +29,7 @@ import org.wavewarden.read.WaveInfo;
 import org.wavewarden.read.WaveListing;
 import org.wavewarden.read.WaveScanner;
 import org.wavewarden.read.WaveSource;
+import org.wavewarden.store.OutboxStore;
 import org.wavewarden.store.ResultsStore;
 
 import java.time.Clock;
@@ -147,8 +148,25 @@ public final class WaveJudge {
         return i == 0 ? List.of() : List.of(order.get(i - 1));
     }
 
+    /**
+     * Judges a wave and writes its findings files into {@code outDir} (null for none) before returning: the files
+     * are an outbox row of the run, carried out at once from the stored results.
+     */
     public JudgedWave judge(DatasetConfig d, String wave, String againstOverride, java.nio.file.Path outDir,
                             LongConsumer progress) {
+        JudgedWave j = judgeWithOutputs(d, wave, againstOverride, outDir == null ? OutboxStore.Outputs.NONE
+                : OutboxStore.Outputs.files(outDir), progress);
+        if (outDir != null) {
+            java.nio.file.Path folder = outDir.toAbsolutePath().normalize();
+            session.store().outbox().pendingWaveFiles(j.runId()).stream().filter(row -> row.folder().equals(folder))
+                    .forEach(row -> FindingsFiles.carryOut(session.store(), row));
+        }
+        return j;
+    }
+
+    /** Judges a wave and commits the run with its outputs as outbox rows, which the caller carries out. */
+    public JudgedWave judgeWithOutputs(DatasetConfig d, String wave, String againstOverride,
+                                       OutboxStore.Outputs outputs, LongConsumer progress) {
         Instant started = clock.instant();
         WardenConfig cfg = session.config();
         WaveSource source = WaveSource.of(d, "dataset");
@@ -188,12 +206,9 @@ public final class WaveJudge {
         long runId = session.store().writeRun(new ResultsStore.RunWrite(d.name(), wave,
                         againstLabel == null ? "" : againstLabel, checksum, started, finished, cfg.alpha(),
                         cfg.fdr().name()),
-                current, findings, alerts);
+                current, findings, alerts, inference, outputs);
         // The summary the run stored becomes the baseline of later waves under this configuration.
         session.store().keySummary(d.name(), wave, checksum, SummaryKey.of(d, current.schema()).value());
-        if (outDir != null) {
-            FindingsFiles.write(outDir, report);
-        }
         return new JudgedWave(report, runId, alerts);
     }
 

@@ -5,7 +5,11 @@ import org.jdbi.v3.core.Jdbi;
 import org.jdbi.v3.core.statement.PreparedBatch;
 import org.wavewarden.config.Identifiers;
 import org.wavewarden.deliver.Json;
+import org.wavewarden.compare.relation.RelationshipDetail;
+import org.wavewarden.deliver.FindingsReport;
 import org.wavewarden.judge.Finding;
+import org.wavewarden.judge.FindingKind;
+import org.wavewarden.judge.Verdict;
 import org.wavewarden.profile.WaveProfile;
 
 import java.time.Instant;
@@ -24,9 +28,17 @@ public final class ResultsStore {
     private final Jdbi jdbi;
     private final String s;
 
+    private final OutboxStore outbox;
+
     public ResultsStore(Jdbi jdbi, String schema) {
         this.jdbi = jdbi;
         this.s = Identifiers.quote(schema);
+        this.outbox = new OutboxStore(jdbi, s);
+    }
+
+    /** What committed runs still owe their folders and sinks. */
+    public OutboxStore outbox() {
+        return outbox;
     }
 
     public Jdbi jdbi() {
@@ -110,11 +122,25 @@ public final class ResultsStore {
     }
 
     /**
-     * Writes one judged wave atomically: the wave's summary, the run row, its findings and its alerts.
+     * Writes one judged wave atomically: the wave's summary, the run row, its findings and its alerts, with no
+     * outputs.
      *
      * @return the run id
      */
     public long writeRun(RunWrite run, WaveProfile currentProfile, List<Finding> findings, List<Finding> alerts) {
+        return writeRun(run, currentProfile, findings, alerts, List.of(), OutboxStore.Outputs.NONE);
+    }
+
+    /**
+     * Writes one judged wave atomically: the wave's summary, the run row, its findings, its alerts and, as outbox
+     * rows, everything the run is to produce, so that nothing a committed run owes can be lost by what happens
+     * after the commit.
+     *
+     * @param inference how unlisted variables were classified (part of {@code findings.json})
+     * @return the run id
+     */
+    public long writeRun(RunWrite run, WaveProfile currentProfile, List<Finding> findings, List<Finding> alerts,
+                         List<String> inference, OutboxStore.Outputs outputs) {
         return jdbi.inTransaction(h -> {
             saveSummary(h, run.dataset(), currentProfile, run.summaryChecksum());
             // Earlier runs of this wave on other data are superseded, with their alerts.
@@ -162,6 +188,9 @@ public final class ResultsStore {
             if (!alerts.isEmpty()) {
                 b.execute();
             }
+            h.createUpdate("UPDATE " + s + ".run SET inference = CAST(:inference AS jsonb) WHERE run_id = :run")
+                    .bind("run", runId).bind("inference", Json.write(inference)).execute();
+            outbox.add(h, run, runId, alerts, outputs);
             return runId;
         });
     }
@@ -190,6 +219,66 @@ public final class ResultsStore {
                     .add();
         }
         b.execute();
+    }
+
+    /**
+     * A run's {@code findings.json} content made again from the results schema: the run row, its findings in the
+     * order they were written (reading order), and its inference notes. A finding's detail comes back as the JSON
+     * object it was stored as, except a relationship's, which the HTML digest draws and which is read back as its
+     * record.
+     */
+    public Optional<FindingsReport> storedReport(long runId) {
+        return jdbi.withHandle(h -> h.createQuery("SELECT dataset, wave, against_wave, finished_at, alpha, fdr_method,"
+                        + " inference::text AS inference FROM " + s + ".run WHERE run_id = :run")
+                .bind("run", runId)
+                .map((rs, ctx) -> {
+                    String against = rs.getString("against_wave");
+                    List<String> inference = List.of(Json.read(rs.getString("inference"), String[].class));
+                    List<Finding> findings = storedFindings(h, runId);
+                    return new FindingsReport(rs.getString("dataset"), rs.getString("wave"),
+                            against.isEmpty() ? null : against,
+                            rs.getObject("finished_at", OffsetDateTime.class).toInstant(), rs.getDouble("alpha"),
+                            rs.getString("fdr_method"), inference, findings);
+                })
+                .findOne());
+    }
+
+    private List<Finding> storedFindings(Handle h, long runId) {
+        return h.createQuery("SELECT variable, kind, test, statistic, p_value, q_value, effect_name, effect_estimate,"
+                        + " effect_ci_low, effect_ci_high, effect_threshold, verdict, n_baseline, n_current, sentence,"
+                        + " detail::text AS detail FROM " + s + ".finding WHERE run_id = :run ORDER BY finding_id")
+                .bind("run", runId)
+                .map((rs, ctx) -> finding(rs, detail(FindingKind.valueOf(rs.getString("kind")),
+                        rs.getString("detail"))))
+                .list();
+    }
+
+    /**
+     * A finding from a result row with the finding table's column names (variable, kind, test, statistic, p_value,
+     * q_value, effect_*, verdict, n_baseline, n_current, sentence).
+     */
+    static Finding finding(java.sql.ResultSet rs, Object detail) throws java.sql.SQLException {
+        String effectName = rs.getString("effect_name");
+        Finding.Effect effect = effectName == null ? null : new Finding.Effect(effectName,
+                rs.getDouble("effect_estimate"), rs.getDouble("effect_ci_low"), rs.getDouble("effect_ci_high"),
+                rs.getDouble("effect_threshold"));
+        String verdict = rs.getString("verdict");
+        return new Finding(rs.getString("variable"), FindingKind.valueOf(rs.getString("kind")), rs.getString("test"),
+                (Double) rs.getObject("statistic"), (Double) rs.getObject("p_value"), (Double) rs.getObject("q_value"),
+                effect, verdict == null ? null : Verdict.valueOf(verdict), (Long) rs.getObject("n_baseline"),
+                (Long) rs.getObject("n_current"), rs.getString("sentence"), detail);
+    }
+
+    private static Object detail(FindingKind kind, String json) {
+        if (kind == FindingKind.RELATIONSHIP_CHANGE) {
+            try {
+                return Json.read(json, RelationshipDetail.class);
+            } catch (IllegalStateException e) {
+                // A relationship note without correlations (a pair that could not be compared) is a plain object.
+            }
+        }
+        Object detail = Json.read(json, Object.class);
+        return detail instanceof java.util.Map<?, ?> m && m.isEmpty() ? null : detail;
     }
 
     /** Rows of the stored summary a run judged, or -1 when it is gone. */

@@ -4,6 +4,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.wavewarden.config.ConfigLoader;
 import org.wavewarden.config.WardenConfig;
+import org.wavewarden.deliver.OutputPaths;
 import org.wavewarden.pipeline.Session;
 import org.wavewarden.testing.CliRun;
 import org.wavewarden.testing.SmallSurvey;
@@ -104,11 +105,11 @@ class DaemonIntegrationTest {
             assertEquals(1, runs(url, "w3"));
             assertEquals(0, count(url, "SELECT count(*) - count(DISTINCT (wave, against_wave, variable, kind))"
                     + " FROM ww_results.alert WHERE superseded_at IS NULL"));
-            Path latest = dir.resolve("digests").resolve("small-survey").resolve("latest");
+            Path latest = OutputPaths.under(dir.resolve("digests"), "small-survey").resolve("latest");
             assertTrue(Files.exists(latest.resolve("digest.md")));
             assertTrue(Files.readString(latest.resolve("digest.html")).contains("class=\"plot"),
                     "the HTML digest has its plots");
-            assertTrue(Files.exists(dir.resolve("digests").resolve("small-survey").resolve("w3")
+            assertTrue(Files.exists(OutputPaths.wave(dir.resolve("digests"), "small-survey", "w3")
                     .resolve("findings.json")));
 
             HttpClient http = HttpClient.newHttpClient();
@@ -130,7 +131,8 @@ class DaemonIntegrationTest {
             await(() -> deliveries.size() == open, "webhook deliveries");
             assertEquals(0, badSignatures.get());
             assertEquals(open, Files.readAllLines(jsonl).size());
-            assertEquals(2 * open, count(url, "SELECT count(*) FROM ww_results.alert_delivery"));
+            assertEquals(2 * open, count(url, "SELECT count(*) FROM ww_results.outbox WHERE product = 'alert'"
+                    + " AND state = 'delivered'"));
         } finally {
             hook.stop(0);
         }

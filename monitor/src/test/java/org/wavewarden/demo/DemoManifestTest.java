@@ -13,6 +13,7 @@ import org.wavewarden.compare.WeightedComparator;
 import org.wavewarden.compare.release.ReleaseRevision;
 import org.wavewarden.deliver.Alerts;
 import org.wavewarden.deliver.FindingsFiles;
+import org.wavewarden.deliver.OutputPaths;
 import org.wavewarden.deliver.FindingsReport;
 import org.wavewarden.deliver.Json;
 import org.wavewarden.deliver.ReleaseReport;
@@ -74,7 +75,7 @@ class DemoManifestTest {
     void everyWaveIsJudgedAndWrittenToTheContract() {
         assertEquals(List.of("2024-Q1", "2024-Q2", "2024-Q3", "2024-Q4", "2025-Q1", "2025-Q2", "2025-Q3"), waves);
         for (String w : waves) {
-            Path json = out.resolve(w).resolve("findings.json");
+            Path json = OutputPaths.under(out, w).resolve("findings.json");
             assertTrue(Files.exists(json), json.toString());
             FindingsReport back = FindingsFiles.read(json);
             assertEquals(manifest.get("dataset").asText(), back.dataset());
@@ -163,7 +164,7 @@ class DemoManifestTest {
         assertEquals(PanelScenarioGenerator.WAVES, List.copyOf(panelByWave.keySet()));
         Path dir = out.resolve(DemoRun.PANEL_FOLDER);
         for (String w : PanelScenarioGenerator.WAVES) {
-            FindingsReport back = FindingsFiles.read(dir.resolve(w).resolve("findings.json"));
+            FindingsReport back = FindingsFiles.read(OutputPaths.under(dir, w).resolve("findings.json"));
             assertEquals(panelManifest.get("dataset").asText(), back.dataset());
             assertEquals(panelByWave.get(w).findings().size(), back.findings().size());
         }
@@ -172,7 +173,7 @@ class DemoManifestTest {
             assertTrue(console.contains(out.relativize(p).toString()), "written but not named: " + p);
         }
         assertTrue(outcome.outputs().contains(dir.resolve("digest.html")));
-        assertTrue(outcome.outputs().contains(dir.resolve("releases").resolve("2025-Q2").resolve("releases.json")));
+        assertTrue(outcome.outputs().contains(OutputPaths.under(dir.resolve("releases"), "2025-Q2").resolve("releases.json")));
     }
 
     @TestFactory
@@ -282,7 +283,7 @@ class DemoManifestTest {
         }
         rev.findings().stream().filter(x -> x.kind() == FindingKind.SHIFT).forEach(x -> assertEquals(
                 planted.get("distributionsElsewhere").asText(), String.valueOf(x.verdict()), x.sentence()));
-        Path dir = out.resolve(DemoRun.PANEL_FOLDER).resolve("releases").resolve(report.wave());
+        Path dir = OutputPaths.under(out.resolve(DemoRun.PANEL_FOLDER).resolve("releases"), report.wave());
         assertTrue(Files.isRegularFile(dir.resolve("releases.json")) && Files.isRegularFile(dir.resolve("releases.md")));
         assertTrue(console.contains(planted.get("added").asText() + " added")
                 && console.contains(planted.get("removed").asText() + " removed"), console);

@@ -20,6 +20,12 @@ public final class ChildDaemon implements AutoCloseable {
 
     /** Starts {@code wavewarden ARGS} with the given system properties (fault points). */
     public static ChildDaemon start(Path dir, String name, List<String> properties, String... args) throws IOException {
+        return start(dir, name, properties, java.util.Map.of(), args);
+    }
+
+    /** The same with variables added to the child's environment (a webhook's secret). */
+    public static ChildDaemon start(Path dir, String name, List<String> properties,
+                                    java.util.Map<String, String> environment, String... args) throws IOException {
         Path log = dir.resolve(name + ".log");
         List<String> cmd = new ArrayList<>();
         cmd.add(Path.of(System.getProperty("java.home"), "bin", "java").toString());
@@ -29,7 +35,9 @@ public final class ChildDaemon implements AutoCloseable {
         cmd.add(System.getProperty("java.class.path"));
         cmd.add("org.wavewarden.cli.Main");
         cmd.addAll(List.of(args));
-        Process p = new ProcessBuilder(cmd).redirectErrorStream(true).redirectOutput(log.toFile()).start();
+        ProcessBuilder pb = new ProcessBuilder(cmd).redirectErrorStream(true).redirectOutput(log.toFile());
+        pb.environment().putAll(environment);
+        Process p = pb.start();
         return new ChildDaemon(p, log);
     }
 

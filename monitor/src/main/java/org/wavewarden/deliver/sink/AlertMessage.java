@@ -37,7 +37,8 @@ public record AlertMessage(String dataset, String wave, String againstWave, long
 
     public AlertMessage {
         requireText(dataset, "dataset");
-        requireText(wave, "wave");
+        // A wave label is data: the empty one is a wave like any other, and the escaping keeps its key apart.
+        Objects.requireNonNull(wave, "wave");
         requireText(variable, "variable");
         Objects.requireNonNull(kind, "kind");
         Objects.requireNonNull(sentence, "sentence");
@@ -70,7 +71,7 @@ public record AlertMessage(String dataset, String wave, String againstWave, long
     public static String idempotencyKey(String dataset, String wave, String againstWave, String variable,
                                         FindingKind kind, String runChecksum) {
         requireText(dataset, "dataset");
-        requireText(wave, "wave");
+        Objects.requireNonNull(wave, "wave");
         requireText(variable, "variable");
         Objects.requireNonNull(kind, "kind");
         requireText(runChecksum, "runChecksum");

@@ -48,6 +48,13 @@ public final class JdbiDeadLetters implements DeadLetters {
                 .list());
     }
 
+    /** Why the last attempt on a dead letter failed, if there is one. */
+    public java.util.Optional<String> lastError(String sink, String idempotencyKey) {
+        return jdbi.withHandle(h -> h.createQuery("SELECT last_error FROM " + s + ".dead_letter WHERE sink = :sink"
+                        + " AND idempotency_key = :key")
+                .bind("sink", sink).bind("key", idempotencyKey).mapTo(String.class).findOne());
+    }
+
     /** Forgets a dead letter once it has been delivered by other means; true when there was one. */
     public boolean remove(String sink, String idempotencyKey) {
         return jdbi.withHandle(h -> h.createUpdate("DELETE FROM " + s + ".dead_letter WHERE sink = :sink"

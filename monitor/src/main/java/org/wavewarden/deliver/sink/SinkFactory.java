@@ -33,8 +33,16 @@ public final class SinkFactory {
     public static WebhookSink webhook(URI url, String secretEnv, Function<String, String> environment,
                                       String minimumVerdict, Collection<String> kinds, RetryPolicy retry,
                                       DeadLetters deadLetters, HttpClient client) {
+        return webhook(url, secretEnv, environment, minimumVerdict, kinds, retry, deadLetters, client,
+                WebhookSink.REQUEST_TIMEOUT);
+    }
+
+    /** @param requestTimeout how long one attempt may take, connection included */
+    public static WebhookSink webhook(URI url, String secretEnv, Function<String, String> environment,
+                                      String minimumVerdict, Collection<String> kinds, RetryPolicy retry,
+                                      DeadLetters deadLetters, HttpClient client, Duration requestTimeout) {
         return new WebhookSink(url, secret(secretEnv, environment), SinkFilter.of(minimumVerdict, kinds), retry,
-                deadLetters, client);
+                deadLetters, client, requestTimeout);
     }
 
     /** The secret from the environment, or an error naming the variable (never its value). */

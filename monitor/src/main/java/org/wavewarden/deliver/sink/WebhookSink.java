@@ -30,8 +30,8 @@ import java.util.Set;
  *
  * <p><b>Headers.</b> {@code Content-Type: application/json}; {@code X-Wavewarden-Signature: sha256=<hex>}, the
  * HMAC-SHA256 (RFC 2104) of the exact body bytes keyed with the shared secret, which the receiver recomputes over
- * the bytes it received before trusting them (see {@link Signatures#verify}); {@code X-Wavewarden-Delivery}, the
- * alert's idempotency key, the same on every retry and every rerun on the same data, so the receiver can drop
+ * the bytes it received before trusting them (see {@link Signatures#verify}); {@code X-Wavewarden-Delivery} and
+ * {@code Idempotency-Key}, both the alert's idempotency key, the same on every retry and every rerun on the same data, so the receiver can drop
  * repeats. The sink itself keeps no record of what it delivered: delivery is at least once.
  *
  * <p><b>Failures.</b> A 2xx answer is success. A connection failure, a timeout, a 5xx or a 429 is retried under
@@ -46,10 +46,15 @@ import java.util.Set;
 public final class WebhookSink implements AlertSink {
 
     private static final Logger LOG = LoggerFactory.getLogger(WebhookSink.class);
-    /** How long one attempt may take, connection included. */
-    public static final Duration REQUEST_TIMEOUT = Duration.ofSeconds(10);
+    /**
+     * How long one attempt may take by default, connection included: a slow receiver costs at most this per
+     * attempt, and the outbox stops a sink for the rest of a firing at its first failure.
+     */
+    public static final Duration REQUEST_TIMEOUT = Duration.ofSeconds(5);
     public static final String SIGNATURE_HEADER = "X-Wavewarden-Signature";
     public static final String DELIVERY_HEADER = "X-Wavewarden-Delivery";
+    /** The alert's idempotency key under the header name receivers commonly deduplicate by. */
+    public static final String IDEMPOTENCY_HEADER = "Idempotency-Key";
     private static final int ERROR_BODY_CHARS = 200;
     private static final String MASK = "[secret]";
 
@@ -62,9 +67,16 @@ public final class WebhookSink implements AlertSink {
     private final HttpClient client;
     private final Random jitter;
     private final String name;
+    private final Duration requestTimeout;
 
     public WebhookSink(URI url, String secret, SinkFilter filter, RetryPolicy retry, DeadLetters deadLetters,
                        HttpClient client) {
+        this(url, secret, filter, retry, deadLetters, client, REQUEST_TIMEOUT);
+    }
+
+    /** @param requestTimeout how long one attempt may take, connection included */
+    public WebhookSink(URI url, String secret, SinkFilter filter, RetryPolicy retry, DeadLetters deadLetters,
+                       HttpClient client, Duration requestTimeout) {
         Objects.requireNonNull(url, "url");
         String scheme = url.getScheme() == null ? "" : url.getScheme().toLowerCase(Locale.ROOT);
         if (!(scheme.equals("http") || scheme.equals("https")) || url.getHost() == null) {
@@ -80,6 +92,11 @@ public final class WebhookSink implements AlertSink {
         this.client = Objects.requireNonNull(client, "client");
         this.jitter = new Random(retry.seed());
         this.name = "webhook:" + shown(url);
+        this.requestTimeout = Objects.requireNonNull(requestTimeout, "requestTimeout");
+        if (requestTimeout.isNegative() || requestTimeout.isZero()) {
+            throw new IllegalArgumentException("requestTimeout: expected a positive duration but got "
+                    + requestTimeout);
+        }
         if (secret.length() < 16) {
             LOG.warn("{}: the shared secret is shorter than 16 characters; a longer random one is harder to guess",
                     name);
@@ -160,11 +177,12 @@ public final class WebhookSink implements AlertSink {
     private Attempts send(AlertMessage m) {
         byte[] body = m.toJson().getBytes(StandardCharsets.UTF_8);
         HttpRequest request = HttpRequest.newBuilder(url)
-                .timeout(REQUEST_TIMEOUT)
+                .timeout(requestTimeout)
                 .header("Content-Type", "application/json")
                 .header("User-Agent", "wavewarden-monitor")
                 .header(SIGNATURE_HEADER, Signatures.SCHEME + Signatures.hmacSha256Hex(body, key))
                 .header(DELIVERY_HEADER, m.idempotencyKey())
+                .header(IDEMPOTENCY_HEADER, m.idempotencyKey())
                 .POST(HttpRequest.BodyPublishers.ofByteArray(body))
                 .build();
         String lastError = "not attempted";

@@ -1,0 +1,293 @@
+package org.wavewarden.store;
+
+import org.jdbi.v3.core.Handle;
+import org.jdbi.v3.core.Jdbi;
+import org.jdbi.v3.core.statement.PreparedBatch;
+import org.wavewarden.config.Identifiers;
+import org.wavewarden.deliver.sink.AlertMessage;
+import org.wavewarden.judge.Finding;
+import org.wavewarden.judge.FindingKind;
+
+import java.nio.file.Path;
+import java.time.Instant;
+import java.time.OffsetDateTime;
+import java.time.ZoneOffset;
+import java.util.Arrays;
+import java.util.List;
+import java.util.Optional;
+
+/**
+ * The outbox table (migration V7): what committed runs still owe their sinks and folders. Rows are added in the
+ * run's transaction ({@link ResultsStore#writeRun}); the steps that carry them out read them here, and record here
+ * what came of each attempt.
+ */
+public final class OutboxStore {
+
+    /** The sink name of findings files and digests. */
+    public static final String FILES = "files";
+    public static final String WAVE_FILES = "wave-files";
+    public static final String FIRING_DIGEST = "firing-digest";
+    public static final String ALERT = "alert";
+
+    private final Jdbi jdbi;
+    private final String s;
+
+    OutboxStore(Jdbi jdbi, String quotedSchema) {
+        this.jdbi = jdbi;
+        this.s = quotedSchema;
+    }
+
+    /**
+     * What a run's outputs are, written as outbox rows with the run.
+     *
+     * @param waveFolder   where the wave's {@code findings.json} and {@code digest.md} go; null for none
+     * @param digestFolder the folder of the digest of the firing the run belongs to; null for none
+     * @param alertSinks   the names of the sinks every alert of the run goes to
+     */
+    public record Outputs(Path waveFolder, Path digestFolder, List<String> alertSinks) {
+        public static final Outputs NONE = new Outputs(null, null, List.of());
+
+        public Outputs {
+            alertSinks = List.copyOf(alertSinks);
+        }
+
+        public static Outputs files(Path waveFolder) {
+            return new Outputs(waveFolder, null, List.of());
+        }
+    }
+
+    /** One row of the outbox. */
+    public record Row(long id, String dataset, String sink, String product, String item, List<Long> runIds,
+                      Long alertId, Path folder, String state, int failedAttempts, int deadCount, String lastError) {
+    }
+
+    /** What one sink of one dataset owes; see {@code DeliveryBacklog} for the meaning of each number. */
+    public record Backlog(String dataset, String sink, long pending, double oldestPendingSeconds,
+                          long failedAttempts, long deadLetters) {
+    }
+
+    /** Adds a committed run's outputs; called inside {@link ResultsStore#writeRun}'s transaction. */
+    void add(Handle h, ResultsStore.RunWrite run, long runId, List<Finding> alerts, Outputs outputs) {
+        if (outputs.waveFolder() != null) {
+            String folder = outputs.waveFolder().toAbsolutePath().normalize().toString();
+            // An older run's files for the same folder would overwrite this run's if carried out later.
+            h.createUpdate("UPDATE " + s + ".outbox SET state = 'superseded' WHERE sink = :files AND product = :p"
+                            + " AND folder = :folder AND state IN ('pending', 'dead') AND NOT (:run = ANY (run_ids))")
+                    .bind("files", FILES).bind("p", WAVE_FILES).bind("folder", folder).bind("run", runId).execute();
+            h.createUpdate("INSERT INTO " + s + ".outbox (dataset, sink, product, item, run_ids, folder)"
+                            + " VALUES (:d, :files, :p, :item, ARRAY[:run]::bigint[], :folder)"
+                            + " ON CONFLICT ON CONSTRAINT outbox_key DO UPDATE SET state = 'pending',"
+                            + " next_attempt_at = now(), delivered_at = NULL")
+                    .bind("d", run.dataset()).bind("files", FILES).bind("p", WAVE_FILES)
+                    .bind("item", WAVE_FILES + " run " + runId + " in " + folder).bind("run", runId)
+                    .bind("folder", folder).execute();
+        }
+        if (outputs.digestFolder() != null) {
+            String folder = outputs.digestFolder().toAbsolutePath().normalize().toString();
+            h.createUpdate("INSERT INTO " + s + ".outbox AS o (dataset, sink, product, item, run_ids, folder)"
+                            + " VALUES (:d, :files, :p, :item, ARRAY[:run]::bigint[], :folder)"
+                            + " ON CONFLICT ON CONSTRAINT outbox_key DO UPDATE SET state = 'pending',"
+                            + " next_attempt_at = now(), delivered_at = NULL, run_ids = (SELECT array_agg(DISTINCT x"
+                            + " ORDER BY x) FROM unnest(o.run_ids || EXCLUDED.run_ids) x)")
+                    .bind("d", run.dataset()).bind("files", FILES).bind("p", FIRING_DIGEST)
+                    .bind("item", FIRING_DIGEST + " in " + folder).bind("run", runId).bind("folder", folder)
+                    .execute();
+        }
+        if (!outputs.alertSinks().isEmpty() && !alerts.isEmpty()) {
+            PreparedBatch b = h.prepareBatch("INSERT INTO " + s + ".outbox (dataset, sink, product, item, run_ids,"
+                    + " alert_id) SELECT :d, :sink, :p, :key, ARRAY[a.run_id], a.alert_id FROM " + s + ".alert a"
+                    + " WHERE a.dataset = :d AND a.wave = :w AND a.against_wave = :against AND a.variable = :v"
+                    + " AND a.kind = :kind AND a.superseded_at IS NULL ON CONFLICT ON CONSTRAINT outbox_key DO NOTHING");
+            String against = run.againstWave().isEmpty() ? null : run.againstWave();
+            for (String sink : outputs.alertSinks()) {
+                for (Finding a : alerts) {
+                    b.bind("d", run.dataset()).bind("sink", sink).bind("p", ALERT)
+                            .bind("key", AlertMessage.idempotencyKey(run.dataset(), run.wave(), against, a.variable(),
+                                    a.kind(), run.summaryChecksum()))
+                            .bind("w", run.wave()).bind("against", run.againstWave()).bind("v", a.variable())
+                            .bind("kind", a.kind().name()).add();
+                }
+            }
+            b.execute();
+        }
+        // Alerts superseded by this run (their data changed) are not sent any more.
+        h.createUpdate("UPDATE " + s + ".outbox SET state = 'superseded' WHERE state IN ('pending', 'dead')"
+                        + " AND alert_id IN (SELECT alert_id FROM " + s + ".alert WHERE dataset = :d AND wave = :w"
+                        + " AND superseded_at IS NOT NULL)")
+                .bind("d", run.dataset()).bind("w", run.wave()).execute();
+    }
+
+    /**
+     * Gives each open alert of the dataset a row for the sink when it has none: alerts of runs made without the
+     * sink (by {@code check}, or before the sink was configured). An alert that the sink took before the outbox
+     * existed (recorded in {@code alert_delivery}) is added as delivered, so it is not sent twice.
+     *
+     * @return rows added
+     */
+    public int enrolAlerts(String dataset, String sink) {
+        return jdbi.inTransaction(h -> {
+            record Open(long alertId, long runId, String wave, String against, String variable, String kind,
+                        String checksum, boolean delivered) {
+            }
+            List<Open> open = h.createQuery("SELECT a.alert_id, a.run_id, a.wave, a.against_wave, a.variable, a.kind,"
+                            + " r.summary_checksum, EXISTS (SELECT 1 FROM " + s + ".alert_delivery x WHERE"
+                            + " x.alert_id = a.alert_id AND x.sink = :sink) AS delivered FROM " + s + ".alert a JOIN "
+                            + s + ".run r ON r.run_id = a.run_id WHERE a.dataset = :d AND a.superseded_at IS NULL"
+                            + " AND NOT EXISTS (SELECT 1 FROM " + s + ".outbox o WHERE o.sink = :sink"
+                            + " AND o.alert_id = a.alert_id)")
+                    .bind("d", dataset).bind("sink", sink)
+                    .map((rs, ctx) -> new Open(rs.getLong(1), rs.getLong(2), rs.getString(3), rs.getString(4),
+                            rs.getString(5), rs.getString(6), rs.getString(7), rs.getBoolean(8)))
+                    .list();
+            if (open.isEmpty()) {
+                return 0;
+            }
+            // The outbox's predecessor marked dead-lettered alerts as delivered too; they are owed again here.
+            java.util.Set<String> deadKeys = new java.util.HashSet<>(h.createQuery("SELECT idempotency_key FROM " + s
+                    + ".dead_letter WHERE sink = :sink").bind("sink", sink).mapTo(String.class).list());
+            PreparedBatch b = h.prepareBatch("INSERT INTO " + s + ".outbox (dataset, sink, product, item, run_ids,"
+                    + " alert_id, state, delivered_at) VALUES (:d, :sink, :p, :key, ARRAY[:run]::bigint[], :alert,"
+                    + " :state, CASE WHEN :state = 'delivered' THEN now() END)"
+                    + " ON CONFLICT ON CONSTRAINT outbox_key DO UPDATE SET alert_id = EXCLUDED.alert_id");
+            for (Open o : open) {
+                String key = AlertMessage.idempotencyKey(dataset, o.wave(), o.against().isEmpty() ? null : o.against(),
+                        o.variable(), FindingKind.valueOf(o.kind()), o.checksum());
+                b.bind("d", dataset).bind("sink", sink).bind("p", ALERT).bind("key", key)
+                        .bind("run", o.runId()).bind("alert", o.alertId())
+                        .bind("state", deadKeys.contains(key) ? "dead" : o.delivered() ? "delivered" : "pending")
+                        .add();
+            }
+            return Arrays.stream(b.execute()).sum();
+        });
+    }
+
+    /**
+     * The rows of a sink that are due, oldest first: pending ones, and dead ones whose backoff has run out.
+     */
+    public List<Row> due(String dataset, String sink, Instant now) {
+        return jdbi.withHandle(h -> h.createQuery(select() + " WHERE dataset = :d AND sink = :sink AND (state = 'pending'"
+                        + " OR (state = 'dead' AND next_attempt_at <= :now)) ORDER BY outbox_id")
+                .bind("d", dataset).bind("sink", sink).bind("now", OffsetDateTime.ofInstant(now, ZoneOffset.UTC))
+                .map((rs, ctx) -> row(rs)).list());
+    }
+
+    /** The pending {@code wave-files} rows of a run. */
+    public List<Row> pendingWaveFiles(long runId) {
+        return jdbi.withHandle(h -> h.createQuery(select() + " WHERE sink = :files AND product = :p AND state = 'pending'"
+                        + " AND :run = ANY (run_ids) ORDER BY outbox_id")
+                .bind("files", FILES).bind("p", WAVE_FILES).bind("run", runId).map((rs, ctx) -> row(rs)).list());
+    }
+
+    /** The sinks of a dataset that have rows, in name order. */
+    public List<String> sinks(String dataset) {
+        return jdbi.withHandle(h -> h.createQuery("SELECT DISTINCT sink FROM " + s + ".outbox WHERE dataset = :d"
+                + " ORDER BY sink").bind("d", dataset).mapTo(String.class).list());
+    }
+
+    public void delivered(long id) {
+        jdbi.useHandle(h -> h.createUpdate("UPDATE " + s + ".outbox SET state = 'delivered', delivered_at = now(),"
+                + " last_error = NULL WHERE outbox_id = :id").bind("id", id).execute());
+    }
+
+    /** An alert whose data changed (or that is gone) before it was delivered: nothing is owed any more. */
+    public void superseded(long id) {
+        state(id, "superseded");
+    }
+
+    /** An alert the sink's filter does not take: nothing is owed. */
+    public void filtered(long id) {
+        state(id, "filtered");
+    }
+
+    private void state(long id, String state) {
+        jdbi.useHandle(h -> h.createUpdate("UPDATE " + s + ".outbox SET state = :state WHERE outbox_id = :id")
+                .bind("id", id).bind("state", state).execute());
+    }
+
+    /** The id of the dataset's newest firing digest, or 0 when it has none. */
+    public long newestDigest(String dataset) {
+        return jdbi.withHandle(h -> h.createQuery("SELECT coalesce(max(outbox_id), 0) FROM " + s + ".outbox WHERE"
+                + " dataset = :d AND sink = :files AND product = :p").bind("d", dataset).bind("files", FILES)
+                .bind("p", FIRING_DIGEST).mapTo(Long.class).one());
+    }
+
+    /** A failed attempt; the row stays pending and is tried again by the next step. */
+    public void failed(long id, String error) {
+        jdbi.useHandle(h -> h.createUpdate("UPDATE " + s + ".outbox SET failed_attempts = failed_attempts + 1,"
+                + " last_error = :e WHERE outbox_id = :id").bind("id", id).bind("e", error).execute());
+    }
+
+    /** Given up on for now: tried again once {@code retryAt} has passed, or at once when replayed. */
+    public void dead(long id, String error, Instant retryAt) {
+        jdbi.useHandle(h -> h.createUpdate("UPDATE " + s + ".outbox SET state = 'dead', failed_attempts ="
+                        + " failed_attempts + 1, dead_count = dead_count + 1, last_error = :e, next_attempt_at = :at"
+                        + " WHERE outbox_id = :id")
+                .bind("id", id).bind("e", error).bind("at", OffsetDateTime.ofInstant(retryAt, ZoneOffset.UTC))
+                .execute());
+    }
+
+    /** Dead rows, optionally of one dataset and one sink, oldest first. */
+    public List<Row> dead(String dataset, String sink) {
+        return jdbi.withHandle(h -> h.createQuery(select() + " WHERE state = 'dead' AND (CAST(:d AS text) IS NULL"
+                        + " OR dataset = :d) AND (CAST(:sink AS text) IS NULL OR sink = :sink) ORDER BY outbox_id")
+                .bind("d", dataset).bind("sink", sink).map((rs, ctx) -> row(rs)).list());
+    }
+
+    /** Makes dead rows due now; returns how many. */
+    public int replay(String dataset, String sink) {
+        return jdbi.withHandle(h -> h.createUpdate("UPDATE " + s + ".outbox SET next_attempt_at = now() WHERE"
+                        + " state = 'dead' AND (CAST(:d AS text) IS NULL OR dataset = :d)"
+                        + " AND (CAST(:sink AS text) IS NULL OR sink = :sink)")
+                .bind("d", dataset).bind("sink", sink).execute());
+    }
+
+    /** Per dataset and sink, what is owed, in one query. */
+    public List<Backlog> backlog() {
+        return backlog(null);
+    }
+
+    /** The same for one dataset (null for every dataset). */
+    public List<Backlog> backlog(String dataset) {
+        return jdbi.withHandle(h -> h.createQuery("SELECT dataset, sink, count(*) FILTER (WHERE state = 'pending'),"
+                        + " coalesce(extract(epoch FROM now() - min(created_at) FILTER (WHERE state = 'pending')), 0),"
+                        + " coalesce(sum(failed_attempts), 0), count(*) FILTER (WHERE state = 'dead') FROM " + s
+                        + ".outbox WHERE CAST(:d AS text) IS NULL OR dataset = :d GROUP BY dataset, sink"
+                        + " ORDER BY dataset, sink")
+                .bind("d", dataset)
+                .map((rs, ctx) -> new Backlog(rs.getString(1), rs.getString(2), rs.getLong(3), rs.getDouble(4),
+                        rs.getLong(5), rs.getLong(6)))
+                .list());
+    }
+
+    /** The message of an alert row, made from the stored alert, its finding and its run. */
+    public Optional<AlertMessage> message(long alertId) {
+        return jdbi.withHandle(h -> h.createQuery("SELECT a.dataset, a.wave, a.against_wave, a.variable, a.kind,"
+                        + " a.verdict, a.sentence, a.run_id, r.summary_checksum, f.test, f.statistic, f.p_value,"
+                        + " f.q_value, f.effect_name, f.effect_estimate, f.effect_ci_low, f.effect_ci_high,"
+                        + " f.effect_threshold, f.n_baseline, f.n_current FROM " + s + ".alert a JOIN " + s
+                        + ".run r ON r.run_id = a.run_id LEFT JOIN " + s + ".finding f ON f.run_id = a.run_id"
+                        + " AND f.variable = a.variable AND f.kind = a.kind WHERE a.alert_id = :id")
+                .bind("id", alertId)
+                .map((rs, ctx) -> {
+                    String against = rs.getString("against_wave");
+                    return AlertMessage.of(rs.getString("dataset"), rs.getString("wave"),
+                            against.isEmpty() ? null : against, rs.getLong("run_id"),
+                            rs.getString("summary_checksum"), ResultsStore.finding(rs, null));
+                })
+                .findOne());
+    }
+
+    private String select() {
+        return "SELECT outbox_id, dataset, sink, product, item, run_ids, alert_id, folder, state, failed_attempts,"
+                + " dead_count, last_error FROM " + s + ".outbox";
+    }
+
+    private static Row row(java.sql.ResultSet rs) throws java.sql.SQLException {
+        Long[] runs = (Long[]) rs.getArray("run_ids").getArray();
+        String folder = rs.getString("folder");
+        return new Row(rs.getLong("outbox_id"), rs.getString("dataset"), rs.getString("sink"),
+                rs.getString("product"), rs.getString("item"), List.of(runs), (Long) rs.getObject("alert_id"),
+                folder == null ? null : Path.of(folder), rs.getString("state"), rs.getInt("failed_attempts"),
+                rs.getInt("dead_count"), rs.getString("last_error"));
+    }
+}
