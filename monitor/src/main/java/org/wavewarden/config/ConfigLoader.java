@@ -117,7 +117,7 @@ public final class ConfigLoader {
             if (node == null) {
                 return DaemonConfig.DEFAULTS;
             }
-            known(node, "daemon", "httpBind", "httpPort", "outputDir", "clusterCheckinMillis");
+            known(node, "daemon", "httpBind", "httpPort", "outputDir", "clusterCheckinMillis", "redeliverSeconds");
             String bind = text(node, "httpBind", "daemon.httpBind", false);
             if (bind != null && !bind.matches("[0-9A-Za-z.:\\-\\[\\]]{1,255}")) {
                 throw new ConfigException("daemon.httpBind", "expected a host name or IP address but got "
@@ -134,8 +134,14 @@ public final class ConfigLoader {
             if (checkin != Math.rint(checkin) || checkin < 100 || checkin > 600_000) {
                 throw new ConfigException("daemon.clusterCheckinMillis", "expected milliseconds from 100 to 600000");
             }
+            double redeliver = number(node, "redeliverSeconds", "daemon.redeliverSeconds",
+                    DaemonConfig.DEFAULTS.redeliverSeconds());
+            if (redeliver != Math.rint(redeliver) || redeliver < 0 || redeliver > 86_400) {
+                throw new ConfigException("daemon.redeliverSeconds", "expected whole seconds from 1 to 86400, or 0"
+                        + " for never, but got " + node.get("redeliverSeconds").asText());
+            }
             return new DaemonConfig(bind == null ? DaemonConfig.DEFAULTS.httpBind() : bind, (int) port,
-                    dir == null ? DaemonConfig.DEFAULTS.outputDir() : dir, (int) checkin);
+                    dir == null ? DaemonConfig.DEFAULTS.outputDir() : dir, (int) checkin, (int) redeliver);
         }
 
         SinkSettings alerts(ObjectNode node, String path) {

@@ -39,6 +39,8 @@ public final class Daemon implements AutoCloseable {
 
     private static final Logger LOG = LoggerFactory.getLogger(Daemon.class);
     static final String GROUP = "wavewarden";
+    /** Group of the triggers that carry out what is owed between firings; named like their dataset's job. */
+    static final String REDELIVER_GROUP = "wavewarden-redeliver";
     static final String DEFAULT_SCHEDULE = "0 15 2 * * ?";
 
     /** Retry policy of one firing when a database is unreachable: delays double from initial up to max. */
@@ -123,7 +125,19 @@ public final class Daemon implements AutoCloseable {
                     .withSchedule(CronScheduleBuilder.cronSchedule(d.schedule() == null ? DEFAULT_SCHEDULE : d.schedule())
                             .withMisfireHandlingInstructionFireAndProceed())
                     .build();
-            scheduler.scheduleJob(job, Set.of(trigger), true);
+            Set<Trigger> triggers = new java.util.LinkedHashSet<>(Set.of(trigger));
+            if (config.daemon().redeliverSeconds() > 0) {
+                // A second trigger on the same job, so Quartz's one-at-a-time rule (cluster-wide on the JDBC store)
+                // keeps a redelivery and the dataset's firing from ever overlapping; a missed one is simply skipped.
+                triggers.add(TriggerBuilder.newTrigger().withIdentity(d.name(), REDELIVER_GROUP).forJob(job)
+                        .usingJobData(JudgeDatasetJob.MODE, JudgeDatasetJob.REDELIVER)
+                        .startAt(java.util.Date.from(clock.instant().plusSeconds(config.daemon().redeliverSeconds())))
+                        .withSchedule(org.quartz.SimpleScheduleBuilder.repeatSecondlyForever(
+                                        config.daemon().redeliverSeconds())
+                                .withMisfireHandlingInstructionNextWithRemainingCount())
+                        .build());
+            }
+            scheduler.scheduleJob(job, triggers, true);
         }
         // Probed twice per check-in interval, so /health turns 503 within about the time after which another
         // cluster member would take over this instance's work.
@@ -239,6 +253,25 @@ public final class Daemon implements AutoCloseable {
                 }
                 delay = delay.multipliedBy(2).compareTo(retry.max()) > 0 ? retry.max() : delay.multipliedBy(2);
             }
+        }
+    }
+
+    /**
+     * Between two firings of a dataset: carries out what its committed runs still owe and is due now (outputs
+     * pending after a failure, dead letters whose backoff has passed), so an alert dead-lettered in an outage
+     * reaches its receiver minutes after it is back, not at the next scheduled firing (nightly, by default).
+     * Does nothing, and logs nothing, when nothing is due; an unreachable database waits for the next time.
+     */
+    void redeliver(String dataset) {
+        try {
+            if (!session.store().outbox().anyDue(dataset, clock.instant())) {
+                return;
+            }
+            Deliveries.Outcome o = deliveries.deliver(dataset);
+            LOG.info("redelivery of {}: deliveries in {} ms: {}", dataset, o.took().toMillis(), describe(o));
+        } catch (RuntimeException e) {
+            LOG.warn("redelivery of {} failed; tried again in {} s: {}", dataset,
+                    config.daemon().redeliverSeconds(), e.toString());
         }
     }
 

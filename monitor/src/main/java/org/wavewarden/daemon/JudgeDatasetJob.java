@@ -14,6 +14,10 @@ import org.quartz.JobExecutionException;
 public final class JudgeDatasetJob implements Job {
 
     static final String DATASET = "dataset";
+    /** Trigger data: what a firing does; absent for the dataset's schedule (judge, then deliver). */
+    static final String MODE = "mode";
+    /** Only carry out what is owed and due ({@link Daemon#redeliver}). */
+    static final String REDELIVER = "redeliver";
 
     private final Daemon daemon;
 
@@ -24,7 +28,12 @@ public final class JudgeDatasetJob implements Job {
     @Override
     public void execute(JobExecutionContext context) throws JobExecutionException {
         String dataset = context.getMergedJobDataMap().getString(DATASET);
-        if (JobStoreReconciler.configured(context, dataset)) {
+        if (!JobStoreReconciler.configured(context, dataset)) {
+            return;
+        }
+        if (REDELIVER.equals(context.getMergedJobDataMap().getString(MODE))) {
+            daemon.redeliver(dataset);
+        } else {
             daemon.fireWithRetries(dataset);
         }
     }

@@ -171,6 +171,14 @@ public final class OutboxStore {
                 .map((rs, ctx) -> row(rs)).list());
     }
 
+    /** Whether any sink of the dataset has a row {@link #due} now; one indexed look-up. */
+    public boolean anyDue(String dataset, Instant now) {
+        return jdbi.withHandle(h -> h.createQuery("SELECT EXISTS (SELECT 1 FROM " + s + ".outbox WHERE dataset = :d"
+                        + " AND (state = 'pending' OR (state = 'dead' AND next_attempt_at <= :now)))")
+                .bind("d", dataset).bind("now", OffsetDateTime.ofInstant(now, ZoneOffset.UTC))
+                .mapTo(Boolean.class).one());
+    }
+
     /** The pending {@code wave-files} rows of a run. */
     public List<Row> pendingWaveFiles(long runId) {
         return jdbi.withHandle(h -> h.createQuery(select() + " WHERE sink = :files AND product = :p AND state = 'pending'"

@@ -145,6 +145,36 @@ class NothingLostTest {
     }
 
     @Test
+    void deadLettersReachTheReceiverBetweenFiringsOnceItIsBackWithoutWaitingForTheNextScheduledFiring()
+            throws Exception {
+        load("outbox_redeliver");
+        try (WebhookReceiver hook = WebhookReceiver.start(SECRET)) {
+            hook.down();
+            // The schedule is the nightly default: no scheduled firing comes during the test; redelivery every 1 s.
+            WardenConfig cfg = ConfigLoader.parse(yaml(null, hook.url()) + "  redeliverSeconds: 1\n");
+            DatasetFiringTest.ManualClock clock = new DatasetFiringTest.ManualClock();
+            try (Session s = Session.open(cfg, null, Map.of("HOOK_SECRET", SECRET));
+                 Daemon d = new Daemon(s, clock, FAST, Sinks.fromConfig(s, QUICK))) {
+                d.start("redeliver-test", 1000);
+                assertTrue(d.fireWithRetries(DATASET));
+                long open = openAlerts();
+                assertTrue(open >= 5, "alerts: " + open);
+                assertTrue(hook.received().isEmpty());
+
+                hook.up();
+                clock.now = clock.now.plus(Duration.ofHours(2)); // past every dead letter's backoff
+                long end = System.nanoTime() + Duration.ofSeconds(60).toNanos();
+                while (hook.received().size() < open && System.nanoTime() < end) {
+                    Thread.sleep(100);
+                }
+                assertEachOnce(open, hook.received());
+                assertEquals(1, d.metrics().firings(DATASET), "delivered by redelivery, not by another firing");
+                assertEquals(0, count("SELECT count(*) FROM ww_results.dead_letter"));
+            }
+        }
+    }
+
+    @Test
     void aSlowReceiverTimesOutOnceAndHoldsUpNeitherTheFiringNorTheOtherSinks() throws Exception {
         load("outbox_slow");
         Path jsonl = dir.resolve("alerts.jsonl");
@@ -235,6 +265,40 @@ class NothingLostTest {
                 for (DeliveryBacklog b : d.backlog()) {
                     assertEquals(0, b.pending() + b.deadLetters(), b.toString());
                 }
+            }
+        }
+    }
+
+    @Test
+    void healthTurnsDegradedNamingTheSinkWhileAlertsAreDeadLetteredAndRecoversOnceTheyAreDelivered() throws Exception {
+        load("outbox_health");
+        try (WebhookReceiver hook = WebhookReceiver.start(SECRET)) {
+            hook.down();
+            WardenConfig cfg = ConfigLoader.parse(yaml(null, hook.url()).replace("httpPort: -1", "httpPort: 0"));
+            DatasetFiringTest.ManualClock clock = new DatasetFiringTest.ManualClock();
+            try (Session s = Session.open(cfg, null, Map.of("HOOK_SECRET", SECRET));
+                 Daemon d = new Daemon(s, clock, FAST, Sinks.fromConfig(s, QUICK))) {
+                d.start("health-test", 1000);
+                d.fireWithRetries(DATASET);
+                java.net.http.HttpClient http = java.net.http.HttpClient.newHttpClient();
+                java.net.URI base = java.net.URI.create("http://127.0.0.1:" + d.statusPort());
+                java.net.http.HttpResponse<String> health = http.send(java.net.http.HttpRequest.newBuilder(
+                        base.resolve("/health")).build(), java.net.http.HttpResponse.BodyHandlers.ofString());
+                assertEquals(503, health.statusCode(), health.body());
+                assertTrue(health.body().contains("webhook:"), "the problem names the sink: " + health.body());
+                assertFalse(health.body().contains(SECRET));
+                String metrics = http.send(java.net.http.HttpRequest.newBuilder(base.resolve("/metrics")).build(),
+                        java.net.http.HttpResponse.BodyHandlers.ofString()).body();
+                assertTrue(metrics.contains("wavewarden_delivery_dead_letters{dataset=\"" + DATASET + "\""),
+                        metrics);
+                assertTrue(metrics.contains("wavewarden_degraded 1"), metrics);
+
+                hook.up();
+                clock.now = clock.now.plus(Duration.ofHours(2));
+                d.fireWithRetries(DATASET);
+                health = http.send(java.net.http.HttpRequest.newBuilder(base.resolve("/health")).build(),
+                        java.net.http.HttpResponse.BodyHandlers.ofString());
+                assertEquals(200, health.statusCode(), health.body());
             }
         }
     }
