@@ -28,6 +28,12 @@ import java.util.Map;
 import java.util.Objects;
 import java.util.TreeMap;
 import java.util.concurrent.ConcurrentHashMap;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Executors;
+import java.util.concurrent.Future;
+import java.util.concurrent.TimeUnit;
+import java.util.concurrent.TimeoutException;
 import java.util.function.Supplier;
 import java.util.function.ToDoubleFunction;
 
@@ -72,6 +78,15 @@ public final class DaemonMetrics {
     private final Map<String, Boolean> failing = new ConcurrentHashMap<>();
     private volatile String unreachableDatabase;
     private volatile Supplier<List<DeliveryBacklog>> backlogSource = List::of;
+    private Future<List<DeliveryBacklog>> backlogRead;
+    /** How long {@code /health} and a scrape wait for the backlog before saying it could not be read. */
+    static final Duration BACKLOG_READ_LIMIT = Duration.ofSeconds(1);
+    /** Reads backlogs off the request threads; its idle threads end after a minute, none keeps the JVM up. */
+    private static final ExecutorService BACKLOG_READER = Executors.newCachedThreadPool(r -> {
+        Thread t = new Thread(r, "wavewarden-backlog-read");
+        t.setDaemon(true);
+        return t;
+    });
 
     public DaemonMetrics() {
         this(BACKLOG_ALARM);
@@ -167,13 +182,22 @@ public final class DaemonMetrics {
             }
         });
         List<DeliveryBacklog> backlog;
-        try {
-            backlog = List.copyOf(backlogSource.get());
-        } catch (RuntimeException e) {
-            // The outbox lives in the results database: when it cannot be read, the probe reports the outage.
-            LOG.debug("delivery backlog not readable: {}", e.toString());
+        if ("results".equals(unreachable)) {
+            // The outbox lives in the results database: asking it now would only wait for the pool's timeout, and
+            // the problem already named says why the backlog is not shown.
             backlog = List.of();
-            problems.add("the delivery backlog could not be read");
+        } else {
+            try {
+                backlog = readBacklog();
+            } catch (TimeoutException | ExecutionException | RuntimeException e) {
+                LOG.debug("delivery backlog not readable: {}", e.toString());
+                backlog = List.of();
+                problems.add("the delivery backlog could not be read");
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+                backlog = List.of();
+                problems.add("the delivery backlog could not be read");
+            }
         }
         for (DeliveryBacklog b : backlog) {
             if (b.deadLetters() > 0) {
@@ -186,6 +210,23 @@ public final class DaemonMetrics {
             }
         }
         return new Health(problems.isEmpty() ? "ok" : "degraded", List.copyOf(problems), backlog);
+    }
+
+    /**
+     * The backlog, waiting at most {@link #BACKLOG_READ_LIMIT}: an outage the probe has not noticed yet would
+     * otherwise hold {@code /health} for the connection pool's whole timeout, and it must answer at once, degraded.
+     * One read at a time: a request that comes while one is still running waits for that one, not a new one.
+     */
+    private List<DeliveryBacklog> readBacklog() throws TimeoutException, ExecutionException, InterruptedException {
+        Future<List<DeliveryBacklog>> read;
+        synchronized (this) {
+            if (backlogRead == null || backlogRead.isDone()) {
+                Supplier<List<DeliveryBacklog>> source = backlogSource;
+                backlogRead = BACKLOG_READER.submit(() -> List.copyOf(source.get()));
+            }
+            read = backlogRead;
+        }
+        return read.get(BACKLOG_READ_LIMIT.toMillis(), TimeUnit.MILLISECONDS);
     }
 
     public boolean degraded() {
