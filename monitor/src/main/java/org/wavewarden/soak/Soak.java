@@ -230,12 +230,13 @@ public final class Soak {
         Audit a = audit(o, main, dir, receiver, produced);
         int lost = a.sinks().stream().mapToInt(SoakAudit.Sink::lost).sum();
         int duplicated = a.sinks().stream().mapToInt(SoakAudit.Sink::duplicated).sum();
+        int repeats = a.sinks().stream().mapToInt(SoakAudit.Sink::repeats).sum();
         int unexpected = a.sinks().stream().mapToInt(SoakAudit.Sink::unexpected).sum();
         boolean clean = a.waves().clean() && lost == 0 && duplicated == 0 && unexpected == 0;
         SoakReport report = new SoakReport(started, Instant.now(), o.minutes(), o.seed(),
                 embedded ? "embedded" : "external", o.resultsSchema(), producer.table(), a.waves(), a.alerts(),
                 a.sinks(), faults.counts(), faults.faults().size(), daemon.starts(), daemon.exits(), caughtUp, catchUpSeconds, lost, duplicated,
-                unexpected, clean, files);
+                repeats, unexpected, clean, files);
         Files.writeString(dir.resolve(SUMMARY_FILE), Json.mapper().writerWithDefaultPrettyPrinter()
                 .writeValueAsString(report), StandardCharsets.UTF_8);
         report.print(out);
@@ -253,7 +254,10 @@ public final class Soak {
         /** Changes whenever the daemon makes progress of any kind the audit can see. */
         List<Integer> progress() {
             List<Integer> p = new ArrayList<>(List.of((int) waves.runs(), waves.judged(), alerts));
-            sinks.forEach(s -> p.add(s.accepted()));
+            sinks.forEach(s -> {
+                p.add(s.accepted());
+                p.add(s.repeats());
+            });
             return p;
         }
     }
