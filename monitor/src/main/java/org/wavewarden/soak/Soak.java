@@ -3,6 +3,7 @@ package org.wavewarden.soak;
 import org.postgresql.Driver;
 import org.wavewarden.config.ConfigException;
 import org.wavewarden.config.Identifiers;
+import org.wavewarden.config.JdbcUrl;
 import org.wavewarden.db.EmbeddedServer;
 import org.wavewarden.deliver.Json;
 import org.wavewarden.deliver.sink.SinkFilter;
@@ -99,6 +100,11 @@ public final class Soak {
             }
             if (jdbcUrl == null && (user != null || passwordEnv != null)) {
                 throw new ConfigException(user != null ? "--user" : "--password-env", "only with --jdbc-url");
+            }
+            if (jdbcUrl != null) {
+                // The daemon is given this URL's parameters and refuses what its config may not carry; refused
+                // here, nothing is created first, and no password is taken from the URL.
+                JdbcUrl.check("--jdbc-url", jdbcUrl);
             }
             Identifiers.require("--source-schema", sourceSchema);
             Identifiers.require("--results-schema", resultsSchema);
@@ -431,15 +437,9 @@ public final class Soak {
             return new Target(null, port, database, query);
         }
 
-        /**
-         * The same database through the forwarder. The URL's parameters are kept (TLS settings, say) except a
-         * user or password, which the config gives its own way.
-         */
+        /** The same database through the forwarder, with the URL's parameters (TLS settings, say). */
         String proxied(int proxyPort) {
-            String params = query.isEmpty() ? "" : Arrays.stream(query.substring(1).split("&"))
-                    .filter(kv -> !kv.isEmpty() && !kv.startsWith("user=") && !kv.startsWith("password="))
-                    .collect(Collectors.joining("&"));
-            return "jdbc:postgresql://127.0.0.1:" + proxyPort + "/" + database + (params.isEmpty() ? "" : "?" + params);
+            return "jdbc:postgresql://127.0.0.1:" + proxyPort + "/" + database + query;
         }
     }
 
