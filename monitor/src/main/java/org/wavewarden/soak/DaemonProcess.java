@@ -23,6 +23,12 @@ final class DaemonProcess implements AutoCloseable {
 
     /** Exit code of a config error: the soak wrote a config the daemon refuses, so restarting cannot help. */
     static final int CONFIG_ERROR = 2;
+    /**
+     * The daemon's webhook timeout ({@code run --webhook-timeout}), inside the receiver's slow answers (1 to 3 s):
+     * some requests then time out at the sender after the receiver has taken them, and come back under the same
+     * idempotency key, the case the key exists for.
+     */
+    static final int WEBHOOK_TIMEOUT_SECONDS = 2;
     private static final Duration RESTART_AFTER_EXIT = Duration.ofSeconds(2);
 
     private final Path config;
@@ -61,6 +67,8 @@ final class DaemonProcess implements AutoCloseable {
         // instead of waiting for the cluster to declare a stranger dead.
         cmd.add("--instance-id");
         cmd.add("soak");
+        cmd.add("--webhook-timeout");
+        cmd.add(Integer.toString(WEBHOOK_TIMEOUT_SECONDS));
         ProcessBuilder pb = new ProcessBuilder(cmd).redirectErrorStream(true)
                 .redirectOutput(ProcessBuilder.Redirect.appendTo(log.toFile()));
         pb.environment().putAll(environment);

@@ -3,6 +3,7 @@ package org.wavewarden.soak;
 import org.postgresql.Driver;
 import org.wavewarden.config.ConfigException;
 import org.wavewarden.config.Identifiers;
+import org.wavewarden.config.JdbcUrl;
 import org.wavewarden.db.EmbeddedServer;
 import org.wavewarden.deliver.Json;
 import org.wavewarden.deliver.sink.SinkFilter;
@@ -99,6 +100,11 @@ public final class Soak {
             }
             if (jdbcUrl == null && (user != null || passwordEnv != null)) {
                 throw new ConfigException(user != null ? "--user" : "--password-env", "only with --jdbc-url");
+            }
+            if (jdbcUrl != null) {
+                // The daemon is given this URL's parameters and refuses what its config may not carry; refused
+                // here, nothing is created first, and no password is taken from the URL.
+                JdbcUrl.check("--jdbc-url", jdbcUrl);
             }
             Identifiers.require("--source-schema", sourceSchema);
             Identifiers.require("--results-schema", resultsSchema);
@@ -230,12 +236,13 @@ public final class Soak {
         Audit a = audit(o, main, dir, receiver, produced);
         int lost = a.sinks().stream().mapToInt(SoakAudit.Sink::lost).sum();
         int duplicated = a.sinks().stream().mapToInt(SoakAudit.Sink::duplicated).sum();
+        int repeats = a.sinks().stream().mapToInt(SoakAudit.Sink::repeats).sum();
         int unexpected = a.sinks().stream().mapToInt(SoakAudit.Sink::unexpected).sum();
         boolean clean = a.waves().clean() && lost == 0 && duplicated == 0 && unexpected == 0;
         SoakReport report = new SoakReport(started, Instant.now(), o.minutes(), o.seed(),
                 embedded ? "embedded" : "external", o.resultsSchema(), producer.table(), a.waves(), a.alerts(),
                 a.sinks(), faults.counts(), faults.faults().size(), daemon.starts(), daemon.exits(), caughtUp, catchUpSeconds, lost, duplicated,
-                unexpected, clean, files);
+                repeats, unexpected, clean, files);
         Files.writeString(dir.resolve(SUMMARY_FILE), Json.mapper().writerWithDefaultPrettyPrinter()
                 .writeValueAsString(report), StandardCharsets.UTF_8);
         report.print(out);
@@ -253,7 +260,10 @@ public final class Soak {
         /** Changes whenever the daemon makes progress of any kind the audit can see. */
         List<Integer> progress() {
             List<Integer> p = new ArrayList<>(List.of((int) waves.runs(), waves.judged(), alerts));
-            sinks.forEach(s -> p.add(s.accepted()));
+            sinks.forEach(s -> {
+                p.add(s.accepted());
+                p.add(s.repeats());
+            });
             return p;
         }
     }
@@ -427,15 +437,9 @@ public final class Soak {
             return new Target(null, port, database, query);
         }
 
-        /**
-         * The same database through the forwarder. The URL's parameters are kept (TLS settings, say) except a
-         * user or password, which the config gives its own way.
-         */
+        /** The same database through the forwarder, with the URL's parameters (TLS settings, say). */
         String proxied(int proxyPort) {
-            String params = query.isEmpty() ? "" : Arrays.stream(query.substring(1).split("&"))
-                    .filter(kv -> !kv.isEmpty() && !kv.startsWith("user=") && !kv.startsWith("password="))
-                    .collect(Collectors.joining("&"));
-            return "jdbc:postgresql://127.0.0.1:" + proxyPort + "/" + database + (params.isEmpty() ? "" : "?" + params);
+            return "jdbc:postgresql://127.0.0.1:" + proxyPort + "/" + database + query;
         }
     }
 

@@ -6,6 +6,7 @@ import org.wavewarden.deliver.Json;
 import org.wavewarden.deliver.sink.SinkFilter;
 import org.wavewarden.judge.FindingKind;
 import org.wavewarden.judge.Verdict;
+import org.wavewarden.soak.WebhookReceiver.Outcome;
 
 import java.io.IOException;
 import java.io.UncheckedIOException;
@@ -30,11 +31,18 @@ import java.util.TreeMap;
  * filter takes reached that sink exactly once.
  *
  * <p>Deliveries are matched to alerts by what identifies an open alert in the results schema (dataset, wave,
- * comparison wave, variable, kind), read from the delivered body. At the webhook only accepted requests count
- * (a 2xx answer reached the sender): a retry after a 500, a refused connection or a timeout is how delivery is
- * meant to work, not a duplicate. An alert with no accepted delivery is <em>lost</em>; every accepted delivery of
- * an alert beyond the first is <em>duplicated</em>, whether it carried the same idempotency key or not; a
- * delivery matching no current alert (or whose body cannot be read) is <em>unexpected</em>.
+ * comparison wave, variable, kind), read from the delivered body. Delivery is at least once, each alert under one
+ * idempotency key on every retry, so that a receiver recognises a retry; the audit counts what the receiver took:
+ * <ul>
+ *   <li>at the webhook, a request the receiver took ({@link Outcome#ACCEPTED}); a retry after a 500, a refused
+ *       connection or a held request is not taken, and a retry under a key already taken (the sender missed the
+ *       answer) is a <em>repeat recognised by key</em>, answered 200 and counted apart, never as a delivery;</li>
+ *   <li>in the JSON Lines file, every complete line: the sink drops repeats of a key itself, so a second line for
+ *       one alert is a second delivery whatever its key.</li>
+ * </ul>
+ * An alert never taken is <em>lost</em>; every delivery of an alert taken beyond the first is <em>duplicated</em>
+ * (at the webhook that needs a second key for one alert); a delivery taken of no current alert (or whose body
+ * cannot be read) is <em>unexpected</em>.
  */
 public final class SoakAudit {
 
@@ -64,11 +72,11 @@ public final class SoakAudit {
     /**
      * One delivery seen at a receiver.
      *
-     * @param ref      the alert the body names, or null when the body could not be read
-     * @param key      the idempotency key it carried
-     * @param accepted the receiver took it (for a file: the line is there)
+     * @param ref     the alert the body names, or null when the body could not be read
+     * @param key     the idempotency key it carried
+     * @param outcome what the receiver made of it (a line in a file is always {@link Outcome#ACCEPTED})
      */
-    public record Delivery(AlertRef ref, String key, boolean accepted) {
+    public record Delivery(AlertRef ref, String key, Outcome outcome) {
     }
 
     /** The judging half of the audit. */
@@ -84,13 +92,14 @@ public final class SoakAudit {
      *
      * @param expected   current alerts the sink's filter takes
      * @param requests   deliveries seen (requests at the webhook, complete lines in the file)
-     * @param accepted   of those, accepted
-     * @param delivered  expected alerts accepted at least once
-     * @param keys       distinct idempotency keys among accepted deliveries
+     * @param accepted   of those, taken by the receiver
+     * @param repeats    of those, answered 200 as repeats of a key already taken (not deliveries)
+     * @param delivered  expected alerts taken at least once
+     * @param keys       distinct idempotency keys among the deliveries taken
      */
-    public record Sink(String sink, int expected, int requests, int accepted, int delivered, int keys, int lost,
-                       int duplicated, int unexpected, List<String> lostAlerts, List<String> duplicatedAlerts,
-                       List<String> unexpectedDeliveries) {
+    public record Sink(String sink, int expected, int requests, int accepted, int repeats, int delivered, int keys,
+                       int lost, int duplicated, int unexpected, List<String> lostAlerts,
+                       List<String> duplicatedAlerts, List<String> unexpectedDeliveries) {
     }
 
     public static Waves waves(List<String> produced, List<RunRow> runs) {
@@ -123,7 +132,9 @@ public final class SoakAudit {
 
     public static Sink sink(String name, List<AlertRow> alerts, SinkFilter filter, List<Delivery> deliveries) {
         Map<AlertRef, Integer> accepted = new LinkedHashMap<>();
+        Map<AlertRef, Set<String>> keysOf = new LinkedHashMap<>();
         Set<String> keys = new LinkedHashSet<>();
+        int repeats = 0;
         List<String> unexpected = new ArrayList<>();
         int acceptedCount = 0;
         Set<AlertRef> expected = new LinkedHashSet<>();
@@ -135,7 +146,11 @@ public final class SoakAudit {
         }
         Map<AlertRef, Integer> refused = new LinkedHashMap<>();
         for (Delivery d : deliveries) {
-            if (!d.accepted()) {
+            if (d.outcome() == Outcome.REPEAT) {
+                repeats++;
+                continue;
+            }
+            if (d.outcome() == Outcome.REFUSED) {
                 if (d.ref() != null) {
                     refused.merge(d.ref(), 1, Integer::sum);
                 }
@@ -150,6 +165,7 @@ public final class SoakAudit {
                 continue;
             }
             accepted.merge(d.ref(), 1, Integer::sum);
+            keysOf.computeIfAbsent(d.ref(), r -> new LinkedHashSet<>()).add(String.valueOf(d.key()));
         }
         List<String> lost = new ArrayList<>();
         List<String> duplicated = new ArrayList<>();
@@ -163,10 +179,11 @@ public final class SoakAudit {
                 name(lost, r + (tries == 0 ? " (never sent)" : " (sent " + tries + " times, never accepted)"));
             } else if (n > 1) {
                 duplicatedCount += n - 1;
-                name(duplicated, r + " (accepted " + n + " times)");
+                int k = keysOf.get(r).size();
+                name(duplicated, r + " (accepted " + n + " times, under " + k + (k == 1 ? " key)" : " keys)"));
             }
         }
-        return new Sink(name, expected.size(), deliveries.size(), acceptedCount, expected.size() - lostCount,
+        return new Sink(name, expected.size(), deliveries.size(), acceptedCount, repeats, expected.size() - lostCount,
                 keys.size(), lostCount, duplicatedCount, unexpected.size(), lost, duplicated,
                 unexpected.subList(0, Math.min(NAMED, unexpected.size())));
     }
@@ -183,7 +200,7 @@ public final class SoakAudit {
         for (WebhookReceiver.Request r : requests) {
             JsonNode body = parse(r.body());
             String key = r.key() != null ? r.key() : text(body, "idempotencyKey");
-            out.add(new Delivery(ref(body), key, r.accepted()));
+            out.add(new Delivery(ref(body), key, r.outcome()));
         }
         return out;
     }
@@ -212,7 +229,7 @@ public final class SoakAudit {
                 continue;
             }
             JsonNode body = parse(line);
-            out.add(new Delivery(ref(body), text(body, "idempotencyKey"), true));
+            out.add(new Delivery(ref(body), text(body, "idempotencyKey"), Outcome.ACCEPTED));
         }
         return out;
     }

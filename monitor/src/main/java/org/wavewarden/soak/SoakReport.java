@@ -20,7 +20,9 @@ import java.util.Map;
  * @param caughtUp       whether, after the faults, every wave was judged and every alert delivered within the wait
  * @param catchUpSeconds how long the daemon was given after the faults
  * @param lost           alerts lost, over all sinks
- * @param duplicated     deliveries beyond the first, over all sinks
+ * @param duplicated     deliveries taken beyond the first, over all sinks (at the webhook: under another key)
+ * @param repeats        requests answered 200 as repeats of a key the receiver had taken, over all sinks: retries
+ *                       of a sender that missed the answer, recognised by key, not deliveries
  * @param unexpected     deliveries of no current alert, over all sinks
  * @param clean          every wave judged exactly once, nothing lost, duplicated or unexpected
  * @param files          every file the soak wrote, by what it holds
@@ -29,7 +31,7 @@ public record SoakReport(Instant startedAt, Instant finishedAt, double minutes, 
                          String resultsSchema, String sourceTable, SoakAudit.Waves waves, int alerts,
                          List<SoakAudit.Sink> sinks, Map<String, Integer> faults, int faultsInjected, int daemonStarts,
                          List<Integer> daemonExits, boolean caughtUp, double catchUpSeconds, int lost, int duplicated,
-                         int unexpected, boolean clean, Map<String, String> files) {
+                         int repeats, int unexpected, boolean clean, Map<String, String> files) {
 
     public void print(PrintWriter out) {
         out.println();
@@ -50,9 +52,10 @@ public record SoakReport(Instant startedAt, Instant finishedAt, double minutes, 
         row(out, "alerts", Integer.toString(alerts));
         for (SoakAudit.Sink s : sinks) {
             row(out, "deliveries " + s.sink(), String.format(Locale.ROOT,
-                    "%d of %d alerts; %d requests, %d accepted, %d keys; lost %d, duplicated %d, unexpected %d",
-                    s.delivered(), s.expected(), s.requests(), s.accepted(), s.keys(), s.lost(), s.duplicated(),
-                    s.unexpected()));
+                    "%d of %d alerts; %d requests, %d accepted, %d keys, %d repeats recognised by key;"
+                            + " lost %d, duplicated %d, unexpected %d",
+                    s.delivered(), s.expected(), s.requests(), s.accepted(), s.keys(), s.repeats(), s.lost(),
+                    s.duplicated(), s.unexpected()));
             s.lostAlerts().forEach(a -> row(out, "  lost", a));
             s.duplicatedAlerts().forEach(a -> row(out, "  duplicated", a));
             s.unexpectedDeliveries().forEach(a -> row(out, "  unexpected", a));
@@ -63,6 +66,7 @@ public record SoakReport(Instant startedAt, Instant finishedAt, double minutes, 
         row(out, "catch-up", fmt(catchUpSeconds) + " s" + (caughtUp ? "" : " (ended with alerts still undelivered)"));
         row(out, "lost", Integer.toString(lost));
         row(out, "duplicated", Integer.toString(duplicated));
+        row(out, "repeats recognised", repeats + " (by idempotency key; not deliveries)");
         row(out, "unexpected", Integer.toString(unexpected));
         row(out, "verdict", clean ? "clean" : "NOT CLEAN");
         out.flush();

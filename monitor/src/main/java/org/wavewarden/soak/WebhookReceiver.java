@@ -18,8 +18,10 @@ import java.nio.file.StandardOpenOption;
 import java.time.Duration;
 import java.time.Instant;
 import java.util.ArrayList;
+import java.util.HashSet;
 import java.util.List;
 import java.util.Objects;
+import java.util.Set;
 import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
@@ -30,10 +32,14 @@ import java.util.concurrent.TimeUnit;
  * (accept, fail with 500, answer slowly, or hold a request while the sender is killed), and records every request
  * it got, in memory for the audit and as one JSON line per request in a file for people.
  *
- * <p>A request counts as <em>accepted</em> only when a 2xx answer was written to the sender without error: the
- * sender can only know of a delivery it was told of, and the audit counts repeats of a key as duplicates only
- * among accepted requests. Going down closes the listening socket (new connections are refused, as for a
- * receiver that is restarting); coming up listens on the same port again.
+ * <p>It is the idempotent receiver the delivery design counts on (at-least-once sending, each alert under one
+ * idempotency key on every retry): a signed request it answers 200 is <em>taken</em>, and its key remembered, before
+ * the answer is written, as a receiver that stores first and answers after does. A later request with a key
+ * already taken is answered 200 again and recorded as a {@link Outcome#REPEAT}, not taken a second time: the
+ * sender missed the first answer (it was killed, or timed out on a slow one) and tried again, as it should. Only
+ * a second key for one alert can make the receiver take it twice. Going down closes the listening socket (new
+ * connections are refused, as for a receiver that is restarting); coming up listens on the same port again, with
+ * the keys it has taken still remembered.
  */
 public final class WebhookReceiver implements AutoCloseable {
 
@@ -42,16 +48,30 @@ public final class WebhookReceiver implements AutoCloseable {
         ACCEPT, FAIL, SLOW
     }
 
+    /** What the receiver made of a request. */
+    public enum Outcome {
+        /** Not taken: unsigned, answered 500 or 503, or not a delivery. */
+        REFUSED,
+        /** Taken: the first request under its key (every request without a key is taken). */
+        ACCEPTED,
+        /** Answered 200 without being taken again: its key was taken before. */
+        REPEAT
+    }
+
     /**
      * One request as the receiver saw it.
      *
-     * @param key      the idempotency key the request carried (the delivery header), or null without one
+     * @param key      the idempotency key the request carried ({@link WebhookSink#IDEMPOTENCY_HEADER}), or null
+     *                 without one
      * @param status   the answer given
-     * @param accepted a 2xx answer reached the sender
+     * @param outcome  taken, recognised as a repeat, or refused
+     * @param answered the status line was written (false when the sender had gone: killed, or timed out on a slow
+     *                 answer); a taken request whose answer the sender missed comes back as a repeat
      * @param signed   the signature matched the body under the shared secret
      * @param body     the body as received (UTF-8)
      */
-    public record Request(Instant at, String key, int status, boolean accepted, boolean signed, String body) {
+    public record Request(Instant at, String key, int status, Outcome outcome, boolean answered, boolean signed,
+                          String body) {
     }
 
     private static final String PATH = "/alerts";
@@ -62,6 +82,8 @@ public final class WebhookReceiver implements AutoCloseable {
     /** 0 until the first listen picks a free port; the same port ever after. */
     private int port;
     private final List<Request> requests = new ArrayList<>();
+    /** The keys taken so far; guarded by this. */
+    private final Set<String> taken = new HashSet<>();
     private final ExecutorService handlers = Executors.newFixedThreadPool(THREADS, r -> {
         Thread t = new Thread(r, "soak-receiver");
         t.setDaemon(true);
@@ -181,7 +203,7 @@ public final class WebhookReceiver implements AutoCloseable {
                 answer(ex, 404);
                 return;
             }
-            String key = ex.getRequestHeaders().getFirst(WebhookSink.DELIVERY_HEADER);
+            String key = ex.getRequestHeaders().getFirst(WebhookSink.IDEMPOTENCY_HEADER);
             boolean signed = Signatures.verify(body, secret,
                     ex.getRequestHeaders().getFirst(WebhookSink.SIGNATURE_HEADER));
             int status;
@@ -200,13 +222,22 @@ public final class WebhookReceiver implements AutoCloseable {
                 }
                 status = 200;
             }
+            Outcome outcome = status == 200 ? take(key) : Outcome.REFUSED;
             // Recorded between the status line and the end of the answer: the sender cannot have its answer before
             // the request is on record, so whoever reads the record after an answer finds it there.
-            boolean written = startAnswer(ex, status);
-            record(new Request(Instant.now(), key, status, written && status / 100 == 2, signed,
+            boolean started = startAnswer(ex, status);
+            record(new Request(Instant.now(), key, status, outcome, started, signed,
                     new String(body, StandardCharsets.UTF_8)));
             finishAnswer(ex);
         }
+    }
+
+    /**
+     * Takes a request under its key, or recognises a repeat. Under the lock, so that two requests with one key at
+     * once (the sender retrying while its first attempt is still being answered) are taken once.
+     */
+    private synchronized Outcome take(String key) {
+        return key == null || taken.add(key) ? Outcome.ACCEPTED : Outcome.REPEAT;
     }
 
     private synchronized boolean takeHold(Hold h) {

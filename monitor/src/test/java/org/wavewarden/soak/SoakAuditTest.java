@@ -16,6 +16,9 @@ import java.util.Set;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
+import static org.wavewarden.soak.WebhookReceiver.Outcome.ACCEPTED;
+import static org.wavewarden.soak.WebhookReceiver.Outcome.REFUSED;
+import static org.wavewarden.soak.WebhookReceiver.Outcome.REPEAT;
 
 class SoakAuditTest {
 
@@ -29,8 +32,8 @@ class SoakAuditTest {
     @Test
     void retriesAfterRefusedAnswersAreNeitherLostNorDuplicated() {
         SoakAudit.Sink s = SoakAudit.sink("webhook", ALERTS, SinkFilter.all(), List.of(
-                new Delivery(INCOME, "k1", false), new Delivery(INCOME, "k1", false), new Delivery(INCOME, "k1", true),
-                new Delivery(HEIGHT, "k2", false), new Delivery(HEIGHT, "k2", true)));
+                new Delivery(INCOME, "k1", REFUSED), new Delivery(INCOME, "k1", REFUSED), new Delivery(INCOME, "k1", ACCEPTED),
+                new Delivery(HEIGHT, "k2", REFUSED), new Delivery(HEIGHT, "k2", ACCEPTED)));
         assertEquals(0, s.lost());
         assertEquals(0, s.duplicated());
         assertEquals(2, s.delivered());
@@ -39,26 +42,42 @@ class SoakAuditTest {
     }
 
     @Test
-    void anAlertAcceptedThreeTimesCountsTwoDuplicates() {
+    void retriesUnderAKeyTheReceiverHadTakenAreRepeatsRecognisedByKeyNeitherDeliveriesNorDuplicates() {
         SoakAudit.Sink s = SoakAudit.sink("webhook", ALERTS, SinkFilter.all(), List.of(
-                new Delivery(INCOME, "k1", true), new Delivery(INCOME, "k1", true), new Delivery(INCOME, "k1", true),
-                new Delivery(HEIGHT, "k2", true)));
-        assertEquals(2, s.duplicated());
-        assertEquals(List.of(INCOME + " (accepted 3 times)"), s.duplicatedAlerts());
+                new Delivery(INCOME, "k1", ACCEPTED), new Delivery(INCOME, "k1", REPEAT),
+                new Delivery(INCOME, "k1", REPEAT), new Delivery(HEIGHT, "k2", ACCEPTED)));
+        assertEquals(0, s.duplicated());
+        assertEquals(2, s.repeats());
+        assertEquals(2, s.accepted());
+        assertEquals(2, s.delivered());
+        assertEquals(4, s.requests());
+        assertEquals(0, s.lost());
     }
 
     @Test
-    void twoAcceptedDeliveriesOfOneAlertUnderDifferentKeysAreADuplicateToo() {
+    void anAlertTakenUnderThreeDifferentKeysCountsTwoDuplicates() {
         SoakAudit.Sink s = SoakAudit.sink("webhook", ALERTS, SinkFilter.all(), List.of(
-                new Delivery(INCOME, "k1", true), new Delivery(INCOME, "k9", true), new Delivery(HEIGHT, "k2", true)));
-        assertEquals(1, s.duplicated());
-        assertEquals(3, s.keys());
+                new Delivery(INCOME, "k1", ACCEPTED), new Delivery(INCOME, "k8", ACCEPTED),
+                new Delivery(INCOME, "k9", ACCEPTED), new Delivery(HEIGHT, "k2", ACCEPTED)));
+        assertEquals(2, s.duplicated());
+        assertEquals(0, s.repeats());
+        assertEquals(4, s.keys());
+        assertEquals(List.of(INCOME + " (accepted 3 times, under 3 keys)"), s.duplicatedAlerts());
+    }
+
+    @Test
+    void aRepeatAloneIsNoDeliveryTheAlertNeverTakenIsLost() {
+        SoakAudit.Sink s = SoakAudit.sink("webhook", ALERTS, SinkFilter.all(), List.of(
+                new Delivery(INCOME, "k1", REPEAT), new Delivery(HEIGHT, "k2", ACCEPTED)));
+        assertEquals(1, s.lost());
+        assertEquals(1, s.repeats());
+        assertEquals(List.of(INCOME + " (never sent)"), s.lostAlerts());
     }
 
     @Test
     void anAlertWhoseEveryDeliveryWasRefusedIsLost() {
         SoakAudit.Sink s = SoakAudit.sink("webhook", ALERTS, SinkFilter.all(), List.of(
-                new Delivery(INCOME, "k1", false), new Delivery(INCOME, "k1", false), new Delivery(HEIGHT, "k2", true)));
+                new Delivery(INCOME, "k1", REFUSED), new Delivery(INCOME, "k1", REFUSED), new Delivery(HEIGHT, "k2", ACCEPTED)));
         assertEquals(1, s.lost());
         assertEquals(List.of(INCOME + " (sent 2 times, never accepted)"), s.lostAlerts());
         assertEquals(1, s.delivered());
@@ -68,8 +87,8 @@ class SoakAuditTest {
     void anAcceptedDeliveryOfNoCurrentAlertIsUnexpected() {
         AlertRef ghost = new AlertRef("harrowmere-soak", "W0009", "W0008", "age", "SHIFT");
         SoakAudit.Sink s = SoakAudit.sink("webhook", ALERTS, SinkFilter.all(), List.of(
-                new Delivery(INCOME, "k1", true), new Delivery(HEIGHT, "k2", true), new Delivery(ghost, "k3", true),
-                new Delivery(null, "k4", true)));
+                new Delivery(INCOME, "k1", ACCEPTED), new Delivery(HEIGHT, "k2", ACCEPTED), new Delivery(ghost, "k3", ACCEPTED),
+                new Delivery(null, "k4", ACCEPTED)));
         assertEquals(2, s.unexpected());
         assertEquals(0, s.lost());
     }
@@ -77,7 +96,7 @@ class SoakAuditTest {
     @Test
     void anAlertTheSinkFilterRefusesIsNotExpectedThere() {
         SinkFilter shiftsOnly = SinkFilter.of("MATERIAL", Set.of("SHIFT"));
-        SoakAudit.Sink s = SoakAudit.sink("webhook", ALERTS, shiftsOnly, List.of(new Delivery(INCOME, "k1", true)));
+        SoakAudit.Sink s = SoakAudit.sink("webhook", ALERTS, shiftsOnly, List.of(new Delivery(INCOME, "k1", ACCEPTED)));
         assertEquals(1, s.expected());
         assertEquals(0, s.lost());
     }
@@ -98,7 +117,7 @@ class SoakAuditTest {
     }
 
     @Test
-    void jsonLinesCountEveryCompleteLineAndLeaveOutAnUnfinishedLastOne() throws Exception {
+    void jsonLinesCountEveryCompleteLineAndLeaveOutAnUnfinishedLastOneAndASecondLineOfOneKeyIsADuplicate() throws Exception {
         Path file = dir.resolve("alerts.jsonl");
         String income = "{\"dataset\":\"harrowmere-soak\",\"wave\":\"W0004\",\"againstWave\":\"W0003\","
                 + "\"variable\":\"income_monthly\",\"kind\":\"SHIFT\",\"idempotencyKey\":\"k1\"}";
@@ -106,9 +125,11 @@ class SoakAuditTest {
                 + "\"variable\":\"height_cm\",\"kind\":\"NUMERIC_SENTINEL\",\"idempotencyKey\":\"k2\"}";
         Files.writeString(file, income + "\n" + income + "\n" + height.substring(0, 40));
         List<Delivery> lines = SoakAudit.fromJsonLines(file);
-        assertEquals(List.of(new Delivery(INCOME, "k1", true), new Delivery(INCOME, "k1", true)), lines);
+        assertEquals(List.of(new Delivery(INCOME, "k1", ACCEPTED), new Delivery(INCOME, "k1", ACCEPTED)), lines);
         SoakAudit.Sink s = SoakAudit.sink("jsonLines", ALERTS, SinkFilter.all(), lines);
         assertEquals(1, s.duplicated());
+        assertEquals(0, s.repeats());
+        assertEquals(List.of(INCOME + " (accepted 2 times, under 1 key)"), s.duplicatedAlerts());
         assertEquals(1, s.lost());
         assertEquals(List.of(HEIGHT + " (never sent)"), s.lostAlerts());
     }
@@ -117,8 +138,20 @@ class SoakAuditTest {
     void aWebhookBodyWithoutComparisonWaveNamesTheFirstWavesAlert() {
         AlertRef first = new AlertRef("harrowmere-soak", "W0001", "", "height_cm", "NUMERIC_SENTINEL");
         List<Delivery> d = SoakAudit.fromWebhook(List.of(new WebhookReceiver.Request(java.time.Instant.EPOCH, "k5",
-                200, true, true, "{\"dataset\":\"harrowmere-soak\",\"wave\":\"W0001\",\"againstWave\":null,"
-                + "\"variable\":\"height_cm\",\"kind\":\"NUMERIC_SENTINEL\"}")));
-        assertEquals(List.of(new Delivery(first, "k5", true)), d);
+                200, ACCEPTED, true, true, "{\"dataset\":\"harrowmere-soak\",\"wave\":\"W0001\","
+                + "\"againstWave\":null,\"variable\":\"height_cm\",\"kind\":\"NUMERIC_SENTINEL\"}")));
+        assertEquals(List.of(new Delivery(first, "k5", ACCEPTED)), d);
+    }
+
+    @Test
+    void theWebhookEvidenceKeepsWhatTheReceiverMadeOfEachRequest() {
+        String body = "{\"dataset\":\"harrowmere-soak\",\"wave\":\"W0004\",\"againstWave\":\"W0003\","
+                + "\"variable\":\"income_monthly\",\"kind\":\"SHIFT\"}";
+        List<Delivery> d = SoakAudit.fromWebhook(List.of(
+                new WebhookReceiver.Request(java.time.Instant.EPOCH, "k1", 500, REFUSED, true, true, body),
+                new WebhookReceiver.Request(java.time.Instant.EPOCH, "k1", 200, ACCEPTED, false, true, body),
+                new WebhookReceiver.Request(java.time.Instant.EPOCH, "k1", 200, REPEAT, true, true, body)));
+        assertEquals(List.of(new Delivery(INCOME, "k1", REFUSED), new Delivery(INCOME, "k1", ACCEPTED),
+                new Delivery(INCOME, "k1", REPEAT)), d);
     }
 }

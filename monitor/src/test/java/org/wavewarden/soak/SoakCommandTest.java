@@ -12,6 +12,7 @@ import java.nio.file.StandardOpenOption;
 import java.sql.Connection;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 /** The soak refuses what it cannot do before it starts anything, naming the flag (exit 2). */
@@ -33,6 +34,19 @@ class SoakCommandTest {
                 "--out", dir.toString());
         assertEquals(2, r.exitCode());
         assertTrue(r.err().contains("--user"), r.err());
+    }
+
+    @Test
+    void aJdbcUrlTheDaemonsConfigWouldRefuseIsRefusedNamingTheFlagBeforeAnythingStarts() {
+        for (String url : new String[] {
+                "jdbc:postgresql://127.0.0.1:1/x?options=-c%20default_transaction_read_only=off",
+                "jdbc:postgresql://127.0.0.1:1/x?password=hunter2"}) {
+            CliRun r = CliRun.of("soak", "--minutes", "1", "--jdbc-url", url, "--user", "postgres",
+                    "--out", dir.toString());
+            assertEquals(2, r.exitCode(), r.err());
+            assertTrue(r.err().contains("--jdbc-url"), r.err());
+            assertFalse(r.out().contains("hunter2") || r.err().contains("hunter2"), r.err());
+        }
     }
 
     @Test

@@ -4,8 +4,16 @@ import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.wavewarden.deliver.sink.AlertMessage;
+import org.wavewarden.deliver.sink.RetryPolicy;
 import org.wavewarden.deliver.sink.Signatures;
+import org.wavewarden.deliver.sink.SinkFilter;
 import org.wavewarden.deliver.sink.WebhookSink;
+import org.wavewarden.judge.FindingKind;
+import org.wavewarden.judge.Verdict;
+import org.wavewarden.soak.SoakAudit.AlertRef;
+import org.wavewarden.soak.SoakAudit.AlertRow;
+import org.wavewarden.soak.WebhookReceiver.Outcome;
 
 import java.io.IOException;
 import java.net.ConnectException;
@@ -24,6 +32,7 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
+import static org.junit.jupiter.api.Assertions.fail;
 
 class WebhookReceiverTest {
 
@@ -48,7 +57,7 @@ class WebhookReceiverTest {
     HttpRequest post(String key, String secret) {
         byte[] body = BODY.getBytes(StandardCharsets.UTF_8);
         return HttpRequest.newBuilder(URI.create(receiver.url())).timeout(Duration.ofSeconds(30))
-                .header(WebhookSink.DELIVERY_HEADER, key)
+                .header(WebhookSink.IDEMPOTENCY_HEADER, key)
                 .header(WebhookSink.SIGNATURE_HEADER, Signatures.SCHEME + Signatures.hmacSha256Hex(body, secret))
                 .POST(HttpRequest.BodyPublishers.ofByteArray(body)).build();
     }
@@ -57,13 +66,18 @@ class WebhookReceiverTest {
         return http.send(r, HttpResponse.BodyHandlers.discarding()).statusCode();
     }
 
+    List<Outcome> outcomes() {
+        return receiver.requests().stream().map(WebhookReceiver.Request::outcome).toList();
+    }
+
     @Test
     void aSignedRequestIsAcceptedAndRecordedWithItsKeyInMemoryAndInTheFile() throws Exception {
         assertEquals(200, send(post("k1", SECRET)));
         List<WebhookReceiver.Request> r = receiver.requests();
         assertEquals(1, r.size());
         assertEquals("k1", r.get(0).key());
-        assertTrue(r.get(0).accepted());
+        assertEquals(Outcome.ACCEPTED, r.get(0).outcome());
+        assertTrue(r.get(0).answered());
         assertTrue(r.get(0).signed());
         assertEquals(BODY, r.get(0).body());
         assertEquals(1, Files.readAllLines(dir.resolve("requests.jsonl")).size());
@@ -72,17 +86,67 @@ class WebhookReceiverTest {
     @Test
     void aRequestSignedWithAnotherSecretIsRefusedWith401AndNotAccepted() throws Exception {
         assertEquals(401, send(post("k1", "another secret altogether")));
-        assertFalse(receiver.requests().get(0).accepted());
+        assertEquals(Outcome.REFUSED, receiver.requests().get(0).outcome());
         assertFalse(receiver.requests().get(0).signed());
     }
 
     @Test
-    void whileFailingEveryRequestIsAnswered500AndNotAcceptedThenAcceptedAgain() throws Exception {
+    void whileFailingEveryRequestIsAnswered500AndNotTakenSoItsRetryIsTakenAfterwards() throws Exception {
         receiver.fail();
         assertEquals(500, send(post("k1", SECRET)));
         receiver.accept();
         assertEquals(200, send(post("k1", SECRET)));
-        assertEquals(List.of(false, true), receiver.requests().stream().map(WebhookReceiver.Request::accepted).toList());
+        assertEquals(List.of(Outcome.REFUSED, Outcome.ACCEPTED), outcomes());
+    }
+
+    @Test
+    void aRequestWithAKeyAlreadyTakenIsAnswered200AndRecordedAsARepeatNotTakenAgain() throws Exception {
+        assertEquals(200, send(post("k1", SECRET)));
+        assertEquals(200, send(post("k1", SECRET)));
+        assertEquals(200, send(post("k2", SECRET)));
+        assertEquals(List.of(Outcome.ACCEPTED, Outcome.REPEAT, Outcome.ACCEPTED), outcomes());
+    }
+
+    @Test
+    void theReceiverRemembersTheKeysItTookAcrossGoingDownAndUp() throws Exception {
+        assertEquals(200, send(post("k1", SECRET)));
+        receiver.down();
+        receiver.up();
+        assertEquals(200, send(post("k1", SECRET)));
+        assertEquals(List.of(Outcome.ACCEPTED, Outcome.REPEAT), outcomes());
+    }
+
+    @Test
+    void theKeyIsTheIdempotencyKeyHeaderNotTheDeliveryHeader() throws Exception {
+        byte[] body = BODY.getBytes(StandardCharsets.UTF_8);
+        HttpRequest r = HttpRequest.newBuilder(URI.create(receiver.url())).timeout(Duration.ofSeconds(30))
+                .header(WebhookSink.IDEMPOTENCY_HEADER, "k1").header(WebhookSink.DELIVERY_HEADER, "other")
+                .header(WebhookSink.SIGNATURE_HEADER, Signatures.SCHEME + Signatures.hmacSha256Hex(body, SECRET))
+                .POST(HttpRequest.BodyPublishers.ofByteArray(body)).build();
+        assertEquals(200, send(r));
+        assertEquals("k1", receiver.requests().get(0).key());
+    }
+
+    @Test
+    void theWebhookSinksSecondSendingOfAnAlertIsRecognisedByItsKeyAndTheAuditCountsItAsARepeat() {
+        String key = "ab".repeat(32);
+        AlertMessage m = new AlertMessage("harrowmere-soak", "W0004", "W0003", 7, "income_monthly",
+                FindingKind.SHIFT, Verdict.MATERIAL, "income moved", null, null, null, key);
+        RetryPolicy once = new RetryPolicy(1, Duration.ofMillis(10), Duration.ofMillis(10), 1L,
+                RetryPolicy.THREAD_SLEEP);
+        WebhookSink sink = new WebhookSink(URI.create(receiver.url()), SECRET, SinkFilter.all(), once,
+                letter -> fail("nothing is dead-lettered: " + letter), http);
+        // Two firings each sending the alert, as after a sender that was killed before it recorded the first.
+        sink.deliver(List.of(m));
+        sink.deliver(List.of(m));
+        assertEquals(List.of(key, key), receiver.requests().stream().map(WebhookReceiver.Request::key).toList());
+        assertEquals(List.of(Outcome.ACCEPTED, Outcome.REPEAT), outcomes());
+        AlertRef income = new AlertRef("harrowmere-soak", "W0004", "W0003", "income_monthly", "SHIFT");
+        SoakAudit.Sink audit = SoakAudit.sink("webhook", List.of(new AlertRow(income, "MATERIAL")),
+                SinkFilter.all(), SoakAudit.fromWebhook(receiver.requests()));
+        assertEquals(1, audit.delivered());
+        assertEquals(0, audit.duplicated());
+        assertEquals(1, audit.repeats());
     }
 
     @Test
@@ -104,7 +168,8 @@ class WebhookReceiverTest {
         assertFalse(answer.isDone());
         hold.release();
         assertEquals(503, answer.get().statusCode());
-        assertFalse(receiver.requests().get(0).accepted());
-        assertEquals(200, send(post("k2", SECRET)));
+        assertEquals(Outcome.REFUSED, receiver.requests().get(0).outcome());
+        assertEquals(200, send(post("k1", SECRET)));
+        assertEquals(Outcome.ACCEPTED, receiver.requests().get(1).outcome());
     }
 }
