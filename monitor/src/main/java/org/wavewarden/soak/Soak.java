@@ -60,12 +60,14 @@ public final class Soak {
     static final Duration MIN_WAVE_GAP = Duration.ofSeconds(3);
     static final Duration MAX_WAVE_GAP = Duration.ofSeconds(7);
     static final Duration FIRST_RUN_WAIT = Duration.ofMinutes(3);
-    static final Duration CATCH_UP_LIMIT = Duration.ofMinutes(5);
+    static final Duration CATCH_UP_LIMIT = Duration.ofMinutes(6);
     /**
-     * The catch-up ends early when every wave is judged and nothing has changed for this long: longer than a
-     * sender's backoff after the longest receiver outage is likely to be.
+     * The catch-up ends early when every wave is judged and nothing has changed for this long: a minute longer than
+     * the longest wait of a dead letter ({@link org.wavewarden.daemon.Deliveries#DEAD_LETTER_BACKOFF}), so an alert
+     * dead-lettered in the last outage gets its next try before the audit calls it lost.
      */
-    static final Duration CATCH_UP_STALL = Duration.ofMinutes(2);
+    static final Duration CATCH_UP_STALL = org.wavewarden.daemon.Deliveries.DEAD_LETTER_BACKOFF.maxDelay()
+            .plusMinutes(1);
     static final Duration STOP_GRACE = Duration.ofSeconds(60);
 
     /** The files a soak writes into its output folder. */
@@ -433,8 +435,12 @@ public final class Soak {
                     q < 0 ? "" : url.substring(q));
         }
 
+        /**
+         * The embedded server on 127.0.0.1, without its URL's parameters: they carry its login, which the daemon's
+         * config takes from {@code user} (and refuses in the URL).
+         */
         Target onLoopback() {
-            return new Target(null, port, database, query);
+            return new Target(null, port, database, "");
         }
 
         /** The same database through the forwarder, with the URL's parameters (TLS settings, say). */
