@@ -24,12 +24,8 @@ import java.util.concurrent.Callable;
                         + " minute per million rows and wave), the measurements a few seconds each per million rows."})
 final class BenchCommand implements Callable<Integer> {
 
-    @Option(names = "--jdbc-url", paramLabel = "URL", description = "PostgreSQL server (default: an embedded one)")
-    String jdbcUrl;
-    @Option(names = "--user", paramLabel = "U", description = "login role for --jdbc-url")
-    String user;
-    @Option(names = "--password-env", paramLabel = "VAR", description = "environment variable holding the password")
-    String passwordEnv;
+    @picocli.CommandLine.Mixin
+    ServerOptions server;
     @Option(names = "--rows", paramLabel = "R", defaultValue = "100000",
             description = "rows in each of the two judged waves (default: ${DEFAULT-VALUE})")
     long rows;
@@ -56,7 +52,7 @@ final class BenchCommand implements Callable<Integer> {
     public Integer call() {
         Bench.Options o;
         try {
-            o = new Bench.Options(jdbcUrl, user, passwordEnv, rows, vars, repeat, historyWaves, historyRows);
+            o = new Bench.Options(server.jdbcUrl, server.user, server.passwordEnv, rows, vars, repeat, historyWaves, historyRows);
         } catch (IllegalArgumentException e) {
             throw new org.wavewarden.config.ConfigException("bench", e.getMessage());
         }

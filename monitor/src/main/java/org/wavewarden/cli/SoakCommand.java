@@ -32,12 +32,8 @@ final class SoakCommand implements Callable<Integer> {
     @Option(names = "--out", paramLabel = "DIR", defaultValue = "soak-output",
             description = "folder for the config, logs, alerts, faults and summary (default: ${DEFAULT-VALUE})")
     Path out;
-    @Option(names = "--jdbc-url", paramLabel = "URL", description = "PostgreSQL server (default: an embedded one)")
-    String jdbcUrl;
-    @Option(names = "--user", paramLabel = "U", description = "login role for --jdbc-url")
-    String user;
-    @Option(names = "--password-env", paramLabel = "VAR", description = "environment variable holding the password")
-    String passwordEnv;
+    @picocli.CommandLine.Mixin
+    ServerOptions server;
     @Option(names = "--source-schema", paramLabel = "S", defaultValue = "wavewarden_soak_source",
             description = "schema of the source table the soak creates (default: ${DEFAULT-VALUE})")
     String sourceSchema;
@@ -52,7 +48,7 @@ final class SoakCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws Exception {
-        SoakReport r = Soak.run(new Soak.Options(minutes, seed, out, jdbcUrl, user, passwordEnv, sourceSchema,
+        SoakReport r = Soak.run(new Soak.Options(minutes, seed, out, server.jdbcUrl, server.user, server.passwordEnv, sourceSchema,
                 resultsSchema, replace), spec.commandLine().getOut());
         return r.clean() ? Main.OK : Main.FINDINGS;
     }
