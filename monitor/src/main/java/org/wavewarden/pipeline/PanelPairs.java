@@ -480,55 +480,23 @@ public final class PanelPairs implements KeyedPairReader.Visitor {
         }
     }
 
-    /** Counts of distinct doubles by open addressing, so the per-pair path neither boxes nor allocates. */
+    /** Counts of distinct doubles (by their bits), so the per-pair path neither boxes nor allocates. */
     static final class DoubleCounts {
-        private double[] keys = new double[64];
-        private long[] counts = new long[64]; // 0 marks an empty slot
-        private int size;
+        private final org.wavewarden.profile.ValueIndex values = org.wavewarden.profile.ValueIndex.ofLongs();
+        private long[] counts = new long[64];
 
         /** Counts x once; false (and nothing counted) when x is new and {@code limit} values are counted already. */
         boolean add(double x, int limit) {
-            int mask = keys.length - 1;
-            int i = slot(x, mask);
-            while (counts[i] != 0) {
-                if (keys[i] == x) {
-                    counts[i]++;
-                    return true;
-                }
-                i = (i + 1) & mask;
-            }
-            if (size >= limit) {
+            int e = values.add(Double.doubleToLongBits(x), 0, limit);
+            if (e < 0) {
                 return false;
             }
-            keys[i] = x;
-            counts[i] = 1;
-            if (++size * 2 > keys.length) {
-                grow();
+            if (e == counts.length) {
+                counts = java.util.Arrays.copyOf(counts,
+                        org.wavewarden.profile.ValueIndex.capacityFor(e, counts.length));
             }
+            counts[e]++;
             return true;
-        }
-
-        private static int slot(double x, int mask) {
-            long h = Double.doubleToLongBits(x) * 0x9E3779B97F4A7C15L;
-            return (int) (h ^ (h >>> 31)) & mask;
-        }
-
-        private void grow() {
-            double[] ok = keys;
-            long[] oc = counts;
-            keys = new double[ok.length * 2];
-            counts = new long[ok.length * 2];
-            int mask = keys.length - 1;
-            for (int j = 0; j < ok.length; j++) {
-                if (oc[j] != 0) {
-                    int i = slot(ok[j], mask);
-                    while (counts[i] != 0) {
-                        i = (i + 1) & mask;
-                    }
-                    keys[i] = ok[j];
-                    counts[i] = oc[j];
-                }
-            }
         }
 
         interface Entry {
@@ -536,27 +504,21 @@ public final class PanelPairs implements KeyedPairReader.Visitor {
         }
 
         void forEach(Entry e) {
-            for (int j = 0; j < keys.length; j++) {
-                if (counts[j] != 0) {
-                    e.accept(keys[j], counts[j]);
-                }
+            for (int j = 0; j < values.size(); j++) {
+                e.accept(Double.longBitsToDouble(values.first(j)), counts[j]);
             }
         }
 
         NumericDistribution distribution() {
+            int size = values.size();
             double[] v = new double[size];
-            int m = 0;
-            for (int j = 0; j < keys.length; j++) {
-                if (counts[j] != 0) {
-                    v[m++] = keys[j];
-                }
+            for (int j = 0; j < size; j++) {
+                v[j] = Double.longBitsToDouble(values.first(j));
             }
             java.util.Arrays.sort(v);
             long[] c = new long[size];
-            for (int j = 0; j < keys.length; j++) {
-                if (counts[j] != 0) {
-                    c[java.util.Arrays.binarySearch(v, keys[j])] = counts[j];
-                }
+            for (int j = 0; j < size; j++) {
+                c[java.util.Arrays.binarySearch(v, Double.longBitsToDouble(values.first(j)))] = counts[j];
             }
             return new NumericDistribution(v, c);
         }

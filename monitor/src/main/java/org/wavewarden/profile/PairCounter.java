@@ -32,10 +32,8 @@ public final class PairCounter {
 
     private final int maxPairs;
     private int level = -1;
-    private long[] xbits = new long[64];
-    private long[] ybits = new long[64];
-    private long[] counts = new long[64]; // 0 marks an empty slot
-    private int size;
+    private ValueIndex pairs = ValueIndex.ofLongs(); // (x bits, y bits) numbered; each pair's count in counts
+    private long[] counts = new long[64];
 
     /** @param maxPairs distinct pairs counted exactly, at least 1 */
     public PairCounter(int maxPairs) {
@@ -71,7 +69,7 @@ public final class PairCounter {
             y = RelativeBins.binnedValue(y, level);
         }
         put(x, y, count);
-        while (size > maxPairs && level < COARSEST_LEVEL) {
+        while (pairs.size() > maxPairs && level < COARSEST_LEVEL) {
             rebuild(Math.max(FIRST_SUMMARY_LEVEL, level + 1));
         }
     }
@@ -92,32 +90,27 @@ public final class PairCounter {
 
     /** Distinct pairs held now. */
     public int size() {
-        return size;
+        return pairs.size();
     }
 
     /** The tally, its entries sorted by x, then y. */
     public JointTally tally(String x, String y) {
-        int[] slots = new int[size];
-        int k = 0;
-        for (int j = 0; j < counts.length; j++) {
-            if (counts[j] != 0) {
-                slots[k++] = j;
-            }
-        }
+        int size = pairs.size();
         Integer[] order = new Integer[size];
         for (int i = 0; i < size; i++) {
-            order[i] = slots[i];
+            order[i] = i;
         }
         Arrays.sort(order, (a, b) -> {
-            int c = Double.compare(Double.longBitsToDouble(xbits[a]), Double.longBitsToDouble(xbits[b]));
-            return c != 0 ? c : Double.compare(Double.longBitsToDouble(ybits[a]), Double.longBitsToDouble(ybits[b]));
+            int c = Double.compare(Double.longBitsToDouble(pairs.first(a)), Double.longBitsToDouble(pairs.first(b)));
+            return c != 0 ? c
+                    : Double.compare(Double.longBitsToDouble(pairs.second(a)), Double.longBitsToDouble(pairs.second(b)));
         });
         double[] xs = new double[size];
         double[] ys = new double[size];
         long[] n = new long[size];
         for (int i = 0; i < size; i++) {
-            xs[i] = Double.longBitsToDouble(xbits[order[i]]);
-            ys[i] = Double.longBitsToDouble(ybits[order[i]]);
+            xs[i] = Double.longBitsToDouble(pairs.first(order[i]));
+            ys[i] = Double.longBitsToDouble(pairs.second(order[i]));
             n[i] = counts[order[i]];
         }
         return new JointTally(x, y, xs, ys, n, binning());
@@ -126,52 +119,24 @@ public final class PairCounter {
     private void put(double x, double y, long count) {
         long kx = Double.doubleToLongBits(x == 0 ? 0.0 : x); // -0 and 0 are one answer
         long ky = Double.doubleToLongBits(y == 0 ? 0.0 : y);
-        int mask = counts.length - 1;
-        int i = Hashes.mix(kx, ky) & mask;
-        while (counts[i] != 0) {
-            if (xbits[i] == kx && ybits[i] == ky) {
-                counts[i] += count;
-                return;
-            }
-            i = (i + 1) & mask;
+        int e = pairs.add(kx, ky);
+        if (e == counts.length) {
+            counts = Arrays.copyOf(counts, ValueIndex.capacityFor(e, counts.length));
         }
-        xbits[i] = kx;
-        ybits[i] = ky;
-        counts[i] = count;
-        if (++size * 2 > counts.length) {
-            grow();
-        }
+        counts[e] += count;
     }
 
     /** Re-bins every entry at {@code newLevel}; entries that meet in one bin merge. */
     private void rebuild(int newLevel) {
         level = newLevel;
-        copyInto(counts.length, true);
-    }
-
-    private void grow() {
-        copyInto(counts.length * 2, false);
-    }
-
-    private void copyInto(int capacity, boolean rebin) {
-        long[] ox = xbits;
-        long[] oy = ybits;
+        ValueIndex old = pairs;
         long[] oc = counts;
-        xbits = new long[capacity];
-        ybits = new long[capacity];
-        counts = new long[capacity];
-        size = 0;
-        for (int j = 0; j < oc.length; j++) {
-            if (oc[j] == 0) {
-                continue;
-            }
-            double x = Double.longBitsToDouble(ox[j]);
-            double y = Double.longBitsToDouble(oy[j]);
-            if (rebin) {
-                x = RelativeBins.binnedValue(x, level);
-                y = RelativeBins.binnedValue(y, level);
-            }
-            put(x, y, oc[j]);
+        pairs = ValueIndex.ofLongs();
+        counts = new long[Math.max(64, old.size())];
+        for (int e = 0; e < old.size(); e++) {
+            double x = RelativeBins.binnedValue(Double.longBitsToDouble(old.first(e)), level);
+            double y = RelativeBins.binnedValue(Double.longBitsToDouble(old.second(e)), level);
+            put(x, y, oc[e]);
         }
     }
 }

@@ -2,6 +2,7 @@ package org.wavewarden.profile;
 
 import java.math.BigDecimal;
 import java.math.MathContext;
+import java.util.Arrays;
 import java.util.HashMap;
 import java.util.Map;
 
@@ -38,13 +39,12 @@ public final class RelativeBins {
     private final int maxBins;
     private final boolean singlePrecision;
     private int level;
-    private long[] keys = new long[256];
-    private long[] counts = new long[256]; // 0 marks an empty slot
+    private ValueIndex bins = ValueIndex.ofLongs(); // bin keys numbered; each bin's sums in the arrays below
+    private long[] counts = new long[256];
     private double[] min = new double[256];
     private double[] max = new double[256];
     private double[] wsum = new double[256];
     private double[] wsq = new double[256];
-    private int size;
     private final Map<Double, double[]> exact = new HashMap<>(); // {count, sum w, sum w^2}
 
     /**
@@ -115,34 +115,37 @@ public final class RelativeBins {
             cell[2] += sumW2;
             return;
         }
-        long key = key(x, level);
-        int mask = keys.length - 1;
-        int i = Hashes.mix(key) & mask;
-        while (counts[i] != 0) {
-            if (keys[i] == key) {
-                counts[i] += count;
-                min[i] = Math.min(min[i], x);
-                max[i] = Math.max(max[i], x);
-                wsum[i] += sumW;
-                wsq[i] += sumW2;
-                return;
-            }
-            i = (i + 1) & mask;
+        put(key(x, level), x, x, count, sumW, sumW2);
+        while (bins.size() > maxBins) {
+            coarsen();
         }
-        keys[i] = key;
-        counts[i] = count;
-        min[i] = x;
-        max[i] = x;
-        wsum[i] = sumW;
-        wsq[i] = sumW2;
-        size++;
-        if (size > maxBins) {
-            while (size > maxBins) {
-                rebuild(keys.length, 1);
+    }
+
+    /** Adds to a bin; a new bin starts from these sums. */
+    private void put(long key, double lo, double hi, long count, double sumW, double sumW2) {
+        int before = bins.size();
+        int e = bins.add(key);
+        if (e == before) {
+            if (e == counts.length) {
+                int n = ValueIndex.capacityFor(e, counts.length);
+                counts = Arrays.copyOf(counts, n);
+                min = Arrays.copyOf(min, n);
+                max = Arrays.copyOf(max, n);
+                wsum = Arrays.copyOf(wsum, n);
+                wsq = Arrays.copyOf(wsq, n);
             }
-        } else if (size * 2 > keys.length) {
-            rebuild(keys.length * 2, 0);
+            counts[e] = count;
+            min[e] = lo;
+            max[e] = hi;
+            wsum[e] = sumW;
+            wsq[e] = sumW2;
+            return;
         }
+        counts[e] += count;
+        min[e] = Math.min(min[e], lo);
+        max[e] = Math.max(max[e], hi);
+        wsum[e] += sumW;
+        wsq[e] += sumW2;
     }
 
     /** The bin of a nonzero finite value at a level: its index on the log scale, doubled, plus 1 when negative. */
@@ -152,48 +155,26 @@ public final class RelativeBins {
         return (i << 1) | (x < 0 ? 1 : 0);
     }
 
-    /** Rehashes into {@code capacity} slots, {@code up} levels coarser. */
-    private void rebuild(int capacity, int up) {
-        long[] ok = keys;
+    /** Moves every bin one level coarser: neighbouring pairs of bins merge. */
+    private void coarsen() {
+        ValueIndex old = bins;
         long[] oc = counts;
         double[] omin = min;
         double[] omax = max;
         double[] ow = wsum;
         double[] ow2 = wsq;
-        keys = new long[capacity];
-        counts = new long[capacity];
-        min = new double[capacity];
-        max = new double[capacity];
-        wsum = new double[capacity];
-        wsq = new double[capacity];
-        level += up;
-        size = 0;
-        int mask = capacity - 1;
-        for (int j = 0; j < ok.length; j++) {
-            if (oc[j] == 0) {
-                continue;
-            }
-            long key = ok[j];
-            if (up > 0) {
-                long idx = key >> 1;
-                key = ((-Math.floorDiv(-idx, 2L)) << 1) | (key & 1);
-            }
-            int i = Hashes.mix(key) & mask;
-            while (counts[i] != 0 && keys[i] != key) {
-                i = (i + 1) & mask;
-            }
-            if (counts[i] == 0) {
-                keys[i] = key;
-                min[i] = omin[j];
-                max[i] = omax[j];
-                size++;
-            } else {
-                min[i] = Math.min(min[i], omin[j]);
-                max[i] = Math.max(max[i], omax[j]);
-            }
-            counts[i] += oc[j];
-            wsum[i] += ow[j];
-            wsq[i] += ow2[j];
+        int n = old.size();
+        bins = ValueIndex.ofLongs();
+        counts = new long[n];
+        min = new double[n];
+        max = new double[n];
+        wsum = new double[n];
+        wsq = new double[n];
+        level++;
+        for (int e = 0; e < n; e++) {
+            long key = old.first(e);
+            long idx = key >> 1;
+            put(((-Math.floorDiv(-idx, 2L)) << 1) | (key & 1), omin[e], omax[e], oc[e], ow[e], ow2[e]);
         }
     }
 
@@ -203,7 +184,7 @@ public final class RelativeBins {
 
     /** Distinct entries the summary yields: bins plus exact values. */
     public int size() {
-        return size + exact.size();
+        return bins.size() + exact.size();
     }
 
     /** Each bin's stand-in (or its one exact value) and each exact value, as text, with its count. */
@@ -231,11 +212,9 @@ public final class RelativeBins {
     }
 
     public void forEach(Entry e) {
-        for (int j = 0; j < keys.length; j++) {
-            if (counts[j] != 0) {
-                String text = min[j] == max[j] ? exactText(min[j]) : standIn(keys[j], level);
-                e.accept(text, counts[j], wsum[j], wsq[j]);
-            }
+        for (int j = 0; j < bins.size(); j++) {
+            String text = min[j] == max[j] ? exactText(min[j]) : standIn(bins.first(j), level);
+            e.accept(text, counts[j], wsum[j], wsq[j]);
         }
         exact.forEach((x, cell) -> e.accept(exactText(x), (long) cell[0], cell[1], cell[2]));
     }

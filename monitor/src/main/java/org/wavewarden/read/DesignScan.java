@@ -1,8 +1,8 @@
 package org.wavewarden.read;
 
 import org.wavewarden.profile.DesignSummary;
-import org.wavewarden.profile.Hashes;
 import org.wavewarden.profile.RelativeBins;
+import org.wavewarden.profile.ValueIndex;
 
 import java.util.ArrayList;
 import java.util.Arrays;
@@ -15,8 +15,8 @@ import java.util.function.LongFunction;
 /**
  * Accumulates, during the one pass of {@link BinaryWaveScanner}, the PSU sums a sampling design needs
  * ({@link DesignSummary}): each row's PSU from its stratum and cluster labels, and per column and PSU the weight of
- * each value, and for numeric columns the sums of w, w y and w y^2. Cells are kept in one primitive table per column
- * keyed by (PSU, value key); beyond {@link #MAX_CELLS} a column keeps only its code-like values per PSU.
+ * each value, and for numeric columns the sums of w, w y and w y^2. Cells are kept per column in a
+ * {@link ValueIndex} keyed by (PSU, value key); beyond {@link #MAX_CELLS} a column keeps only its code-like values per PSU.
  */
 final class DesignScan {
 
@@ -103,20 +103,11 @@ final class DesignScan {
         private double[] weightedSum = new double[16];
         private double[] weightedSquares = new double[16];
         private int psus;
-        // (psu, value key) -> weight; an open-addressing table, a slot used when keysPsu >= 0
-        private int[] keysPsu = filled(256);
-        private long[] keysValue = new long[256];
+        private ValueIndex cells = ValueIndex.ofLongs(); // (psu, value key) numbered; its weight in cellWeight
         private double[] cellWeight = new double[256];
-        private int size;
 
         Column(boolean numeric) {
             this.numeric = numeric;
-        }
-
-        private static int[] filled(int n) {
-            int[] a = new int[n];
-            Arrays.fill(a, -1);
-            return a;
         }
 
         void add(int psu, long valueKey, double x, double w, boolean keepCell) {
@@ -140,69 +131,31 @@ final class DesignScan {
 
         void toBins(java.util.function.LongToDoubleFunction valueOf) {
             exact = false;
-            int[] op = keysPsu;
-            long[] ov = keysValue;
-            double[] ow = cellWeight;
-            keysPsu = filled(256);
-            keysValue = new long[256];
+            ValueIndex before = cells;
+            double[] weights = cellWeight;
+            cells = ValueIndex.ofLongs();
             cellWeight = new double[256];
-            size = 0;
-            for (int j = 0; j < op.length; j++) {
-                if (op[j] < 0) {
-                    continue;
-                }
-                double x = valueOf.applyAsDouble(ov[j]);
+            for (int e = 0; e < before.size(); e++) {
+                double x = valueOf.applyAsDouble(before.second(e));
                 if (RelativeBins.isCodeLike(x)) {
-                    addCell(op[j], Double.doubleToLongBits(x == 0 ? 0.0 : x), ow[j]);
+                    addCell((int) before.first(e), Double.doubleToLongBits(x == 0 ? 0.0 : x), weights[e]);
                 }
             }
         }
 
         private void addCell(int psu, long valueKey, double w) {
-            int mask = keysPsu.length - 1;
-            int i = Hashes.mix(psu, valueKey) & mask;
-            while (keysPsu[i] >= 0) {
-                if (keysPsu[i] == psu && keysValue[i] == valueKey) {
-                    cellWeight[i] += w;
-                    return;
-                }
-                i = (i + 1) & mask;
+            int e = cells.add(psu, valueKey);
+            if (e == cellWeight.length) {
+                cellWeight = Arrays.copyOf(cellWeight, ValueIndex.capacityFor(e, cellWeight.length));
             }
-            keysPsu[i] = psu;
-            keysValue[i] = valueKey;
-            cellWeight[i] = w;
-            if (++size * 2 > keysPsu.length) {
-                grow();
-            }
-        }
-
-        private void grow() {
-            int[] op = keysPsu;
-            long[] ov = keysValue;
-            double[] ow = cellWeight;
-            keysPsu = filled(op.length * 2);
-            keysValue = new long[op.length * 2];
-            cellWeight = new double[op.length * 2];
-            int mask = keysPsu.length - 1;
-            for (int j = 0; j < op.length; j++) {
-                if (op[j] >= 0) {
-                    int i = Hashes.mix(op[j], ov[j]) & mask;
-                    while (keysPsu[i] >= 0) {
-                        i = (i + 1) & mask;
-                    }
-                    keysPsu[i] = op[j];
-                    keysValue[i] = ov[j];
-                    cellWeight[i] = ow[j];
-                }
-            }
+            cellWeight[e] += w;
         }
 
         DesignSummary.ColumnDesign result(int totalPsus, LongFunction<String> text) {
             Map<Long, double[]> byValue = new HashMap<>();
-            for (int j = 0; j < keysPsu.length; j++) {
-                if (keysPsu[j] >= 0) {
-                    byValue.computeIfAbsent(keysValue[j], k -> new double[totalPsus])[keysPsu[j]] += cellWeight[j];
-                }
+            for (int e = 0; e < cells.size(); e++) {
+                byValue.computeIfAbsent(cells.second(e), k -> new double[totalPsus])[(int) cells.first(e)]
+                        += cellWeight[e];
             }
             boolean complete = exact && (long) byValue.size() * totalPsus <= MAX_CELLS;
             Map<String, double[]> cells = new LinkedHashMap<>();

@@ -145,7 +145,7 @@ public final class KeyedPairReader {
 
     /** The form in which a value enters a tally or a report: long values shortened as the wave scanners keep them. */
     public static String tallied(String value) {
-        return value == null || value.length() <= WaveScanner.MAX_VALUE_CHARS ? value : WaveScanner.shortened(value);
+        return ValueText.kept(value);
     }
 
     static String copySql(String keyColumn, List<String> columns, Selection before, Selection after) {

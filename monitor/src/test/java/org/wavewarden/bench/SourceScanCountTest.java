@@ -8,6 +8,7 @@ import org.wavewarden.config.WardenConfig;
 import org.wavewarden.pipeline.Session;
 import org.wavewarden.pipeline.WaveJudge;
 import org.wavewarden.read.BinaryWaveScanner;
+import org.wavewarden.read.TextWaveScanner;
 import org.wavewarden.read.WaveScanner;
 import org.wavewarden.testing.SyntheticDatasets;
 import org.wavewarden.testing.TestDatabase;
@@ -83,7 +84,7 @@ class SourceScanCountTest {
     @Test
     void theBinaryScannerSendsWhatTheTextScannerSends() {
         WaveJudge.Scanner binary = new BinaryWaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)::scan;
-        WaveJudge.Scanner text = new WaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)::scan;
+        WaveJudge.Scanner text = new TextWaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)::scan;
         assertEquals(counted("wide_many", 11, text), counted("wide_many", 11, binary));
     }
 
@@ -95,7 +96,7 @@ class SourceScanCountTest {
                 new StatementCounter(Identifiers.quote("gen") + "." + Identifiers.quote("narrow_few")));
         session.store().jdbi().useHandle(h -> h.execute(
                 "DELETE FROM scan_results.wave_summary WHERE dataset = 'narrow_few' AND wave = '1'"));
-        Bench.check(session, t, new WaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)::scan);
+        Bench.check(session, t, new TextWaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)::scan);
         assertEquals(2, t.counter().snapshot().copies());
     }
 }

@@ -83,7 +83,7 @@ class PairTallyTest {
 
     private static WaveScanner.WaveScan text(String table, String wave) {
         WaveSource s = new WaveSource(TableName.parse("table", table), "wave", null);
-        return new WaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT).scan(h, s, wave, columns(table), null, null, PAIRS,
+        return new TextWaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT).scan(h, s, wave, columns(table), null, null, PAIRS,
                 null);
     }
 

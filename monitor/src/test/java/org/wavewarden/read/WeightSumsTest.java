@@ -36,7 +36,7 @@ class WeightSumsTest {
             WaveSource source = new WaveSource(new Identifiers.TableName("public", "answers"), "wave", null);
             List<SourceColumn> cols = List.of(new SourceColumn("size", ColumnType.INTEGER, "integer"),
                     new SourceColumn("code", ColumnType.TEXT, "text"));
-            WaveScanner.WaveScan scan = new WaveScanner(1000).scan(h, source, "w1", cols, WEIGHT, null);
+            WaveScanner.WaveScan scan = new TextWaveScanner(1000).scan(h, source, "w1", cols, WEIGHT, null);
             assertEquals(scan, new BinaryWaveScanner(1000).scan(h, source, "w1", cols, WEIGHT, null),
                     "the binary scanner reads the same weights");
             assertEquals(60, scan.badWeights(), "rows with a NULL weight");
@@ -52,7 +52,7 @@ class WeightSumsTest {
                 }
             }
             // Counts are unaffected by the weight column, and unweighted scans carry no weights.
-            WaveScanner.WaveScan plain = new WaveScanner(1000).scan(h, source, "w1", cols, null);
+            WaveScanner.WaveScan plain = new TextWaveScanner(1000).scan(h, source, "w1", cols, null);
             assertEquals(plain.columns(), scan.columns());
             assertTrue(plain.weights().isEmpty());
         }
@@ -73,7 +73,7 @@ class WeightSumsTest {
         try (Handle h = jdbi.open()) {
             WaveSource source = new WaveSource(new Identifiers.TableName("public", "answers"), "wave", null);
             List<SourceColumn> cols = List.of(new SourceColumn("amount", ColumnType.DECIMAL, "double precision"));
-            WaveScanner.WaveScan text = new WaveScanner(1000, 1000).scan(h, source, "w1", cols, WEIGHT, null);
+            WaveScanner.WaveScan text = new TextWaveScanner(1000, 1000).scan(h, source, "w1", cols, WEIGHT, null);
             WaveScanner.WaveScan binary = new BinaryWaveScanner(1000, 1000).scan(h, source, "w1", cols, WEIGHT, null);
             assertEquals(text, binary, "both scanners summarise alike");
             assertTrue(!binary.columns().get("amount").binning().isExact(), "5,000 distinct values exceed 1,000");

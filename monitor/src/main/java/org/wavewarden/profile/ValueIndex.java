@@ -1,0 +1,234 @@
+package org.wavewarden.profile;
+
+import java.util.Arrays;
+
+/**
+ * Numbers distinct keys 0, 1, 2, ... in the order they first arrive, so the counting tables of the read and profile
+ * stages keep their counts, weights and sums in plain arrays indexed by that number, with no object per cell.
+ *
+ * <p>A key is either one or two {@code long}s (a value's bits; a pair of values; a PSU and a value) or a byte string
+ * (a text or {@code numeric} cell), fixed when the index is made. Open addressing with linear probing over a slot
+ * table at most half full, which doubles as it fills; a slot holds its entry's number plus one, zero when empty, so
+ * growing rehashes entry numbers from their stored hashes and never moves the caller's arrays. A key new to the index
+ * gets the number {@link #size()} had before the call, which is how a caller tells a new key from one seen before.
+ */
+public final class ValueIndex {
+
+    /** What a key is; an index holds keys of one kind. */
+    private enum Kind { LONGS, BYTES }
+
+    private final Kind kind;
+    private int[] slots = new int[64];
+    private int[] hashes = new int[32];
+    private long[] first = new long[32];
+    private long[] second = new long[32]; // for bytes: the key's length; for longs: the second long (0 when one)
+    private byte[] arena; // for bytes: each key once, back to back; first[] holds its offset
+    private int used;
+    private int size;
+
+    private ValueIndex(Kind kind) {
+        this.kind = kind;
+        if (kind == Kind.BYTES) {
+            arena = new byte[1024];
+        }
+    }
+
+    /** An index keyed by one long or by two longs (one key kind per index: always one, or always two). */
+    public static ValueIndex ofLongs() {
+        return new ValueIndex(Kind.LONGS);
+    }
+
+    /** An index keyed by byte strings. */
+    public static ValueIndex ofBytes() {
+        return new ValueIndex(Kind.BYTES);
+    }
+
+    /** Distinct keys held; the entries are numbered 0 to size() - 1. */
+    public int size() {
+        return size;
+    }
+
+    /** The entry of a key, adding it if it is new. */
+    public int add(long key) {
+        return add(key, 0, Integer.MAX_VALUE);
+    }
+
+    /** The entry of a pair of longs, adding it if it is new. */
+    public int add(long a, long b) {
+        return add(a, b, Integer.MAX_VALUE);
+    }
+
+    /**
+     * The entry of a pair of longs (a single key is {@code (key, 0)}); a new key is added only while fewer than
+     * {@code limit} are held, else the result is -1.
+     */
+    public int add(long a, long b, int limit) {
+        requireKind(Kind.LONGS);
+        int h = mix(a, b);
+        int mask = slots.length - 1;
+        int i = h & mask;
+        int e;
+        while ((e = slots[i]) != 0) {
+            e--;
+            if (first[e] == a && second[e] == b) {
+                return e;
+            }
+            i = (i + 1) & mask;
+        }
+        if (size >= limit) {
+            return -1;
+        }
+        e = claim(i, h);
+        first[e] = a;
+        second[e] = b;
+        return e;
+    }
+
+    /** The entry of a long key, or -1 when it is not held. */
+    public int find(long key) {
+        return find(key, 0);
+    }
+
+    /** The entry of a pair of longs, or -1 when it is not held. */
+    public int find(long a, long b) {
+        requireKind(Kind.LONGS);
+        int mask = slots.length - 1;
+        int i = mix(a, b) & mask;
+        int e;
+        while ((e = slots[i]) != 0) {
+            e--;
+            if (first[e] == a && second[e] == b) {
+                return e;
+            }
+            i = (i + 1) & mask;
+        }
+        return -1;
+    }
+
+    /**
+     * The entry of the byte string {@code b[p .. p+len)}, copied into the index if it is new; a new key is added only
+     * while fewer than {@code limit} are held, else the result is -1.
+     */
+    public int add(byte[] b, int p, int len, int limit) {
+        requireKind(Kind.BYTES);
+        int h = hash(b, p, len);
+        int mask = slots.length - 1;
+        int i = h & mask;
+        int e;
+        while ((e = slots[i]) != 0) {
+            e--;
+            if (hashes[e] == h && second[e] == len
+                    && Arrays.equals(arena, (int) first[e], (int) first[e] + len, b, p, p + len)) {
+                return e;
+            }
+            i = (i + 1) & mask;
+        }
+        if (size >= limit) {
+            return -1;
+        }
+        if (used + len > arena.length) {
+            arena = Arrays.copyOf(arena, Math.max(arena.length * 2, used + len));
+        }
+        System.arraycopy(b, p, arena, used, len);
+        e = claim(i, h);
+        first[e] = used;
+        second[e] = len;
+        used += len;
+        return e;
+    }
+
+    /** The first long of an entry's key (the key itself for an index of single longs). */
+    public long first(int entry) {
+        requireKind(Kind.LONGS);
+        return first[check(entry)];
+    }
+
+    /** The second long of an entry's key. */
+    public long second(int entry) {
+        requireKind(Kind.LONGS);
+        return second[check(entry)];
+    }
+
+    /** The array an entry's bytes sit in, valid until the next {@code add}; see {@link #offset} and {@link #length}. */
+    public byte[] bytes() {
+        requireKind(Kind.BYTES);
+        return arena;
+    }
+
+    public int offset(int entry) {
+        requireKind(Kind.BYTES);
+        return (int) first[check(entry)];
+    }
+
+    public int length(int entry) {
+        requireKind(Kind.BYTES);
+        return (int) second[check(entry)];
+    }
+
+    /**
+     * The length a caller's per-entry array needs to hold {@code entry}: unchanged while it fits, else doubled, so
+     * a caller grows its arrays with {@code Arrays.copyOf(a, ValueIndex.capacityFor(entry, a.length))}.
+     */
+    public static int capacityFor(int entry, int length) {
+        return entry < length ? length : Math.max(entry + 1, length * 2);
+    }
+
+    private int claim(int slot, int h) {
+        int e = size;
+        if (e == hashes.length) {
+            int n = e * 2;
+            hashes = Arrays.copyOf(hashes, n);
+            first = Arrays.copyOf(first, n);
+            second = Arrays.copyOf(second, n);
+        }
+        hashes[e] = h;
+        slots[slot] = ++size;
+        if (size * 2 > slots.length) {
+            rehash();
+        }
+        return e;
+    }
+
+    private void rehash() {
+        slots = new int[slots.length * 2];
+        int mask = slots.length - 1;
+        for (int e = 0; e < size; e++) {
+            int i = hashes[e] & mask;
+            while (slots[i] != 0) {
+                i = (i + 1) & mask;
+            }
+            slots[i] = e + 1;
+        }
+    }
+
+    private int check(int entry) {
+        if (entry < 0 || entry >= size) {
+            throw new IndexOutOfBoundsException("entry " + entry + " of " + size);
+        }
+        return entry;
+    }
+
+    private void requireKind(Kind k) {
+        if (kind != k) {
+            throw new IllegalStateException("this index is keyed by " + kind + ", not " + k);
+        }
+    }
+
+    /**
+     * The slot hash of a pair of longs: a multiply by the golden-ratio constant and xor-shifts, so keys that differ
+     * in low bits (consecutive integers, neighbouring bins) spread over the table.
+     */
+    static int mix(long a, long b) {
+        long h = (a ^ Long.rotateLeft(b * 0xC2B2AE3D27D4EB4FL, 31)) * 0x9E3779B97F4A7C15L;
+        return (int) (h ^ (h >>> 29) ^ (h >>> 47));
+    }
+
+    /** FNV-1a over the bytes and their length, its high half folded in so the low bits that pick a slot vary. */
+    private static int hash(byte[] b, int p, int len) {
+        int h = 0x811C9DC5 ^ len;
+        for (int j = p; j < p + len; j++) {
+            h = (h ^ b[j]) * 0x01000193;
+        }
+        return h ^ (h >>> 16);
+    }
+}
