@@ -15,10 +15,12 @@ import org.wavewarden.deliver.FindingsFiles;
 import org.wavewarden.deliver.FindingsReport;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
+import org.wavewarden.judge.SchemaFindings;
 import org.wavewarden.judge.Judge;
 import org.wavewarden.judge.Verdict;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.ColumnType;
+import org.wavewarden.profile.SchemaChanges;
 import org.wavewarden.profile.DesignSummary;
 import org.wavewarden.profile.WaveProfile;
 import org.wavewarden.read.BinaryWaveScanner;
@@ -65,8 +67,8 @@ public final class WaveJudge {
 
     /**
      * Reads one wave's monitored columns (and the weight column, if any) into tallies in one pass, with the joint
-     * tallies of the configured pairs; {@link BinaryWaveScanner#scan} (the default) and {@link WaveScanner#scan} are
-     * two, with equal results.
+     * tallies of the configured pairs; {@link BinaryWaveScanner#scan} is the one (tests count or check its passes
+     * through this seam).
      */
     @FunctionalInterface
     public interface Scanner {
@@ -251,7 +253,7 @@ public final class WaveJudge {
                 weighted ? current.design() : null, cfg.alpha(), cfg.fdr(), d.name() + " wave " + current.wave(),
                 relations));
         findings.addAll(relationNotes);
-        findings.addAll(schemaFindings(d, baseline, current));
+        findings.addAll(SchemaFindings.of(SchemaChanges.between(baseline, current)));
         if (current.rows() == 0) {
             findings.add(Finding.dataQuality(EMPTY_WAVE_SUBJECT, FindingKind.EMPTY_WAVE, null, 0L, "Wave "
                     + current.wave() + " of " + d.name() + " has no rows: nothing can be judged in it, and later"
@@ -624,30 +626,6 @@ public final class WaveJudge {
                             + "); screened as text");
                     out.add(VariableConfig.inferred(t.column(), VariableKind.TEXT));
                 }
-            }
-        }
-        return out;
-    }
-
-    private static List<Finding> schemaFindings(DatasetConfig d, WaveProfile baseline, WaveProfile current) {
-        List<Finding> out = new ArrayList<>();
-        if (baseline == null) {
-            return out;
-        }
-        for (Map.Entry<String, ColumnType> e : current.schema().entrySet()) {
-            ColumnType before = baseline.schema().get(e.getKey());
-            if (before == null) {
-                out.add(Finding.dataQuality(e.getKey(), FindingKind.COLUMN_ADDED, null, null, "Column " + e.getKey()
-                        + " is new in this wave.", null));
-            } else if (before != e.getValue()) {
-                out.add(Finding.dataQuality(e.getKey(), FindingKind.COLUMN_RETYPED, null, null, "Column " + e.getKey()
-                        + " changed type from " + before + " to " + e.getValue() + ".", null));
-            }
-        }
-        for (String col : baseline.schema().keySet()) {
-            if (!current.schema().containsKey(col)) {
-                out.add(Finding.dataQuality(col, FindingKind.COLUMN_DROPPED, null, null, "Column " + col
-                        + " of the baseline is missing from this wave.", null));
             }
         }
         return out;
