@@ -14,6 +14,8 @@ import org.wavewarden.missing.TerminalDigitPreference;
 import org.wavewarden.missing.WhippleIndex;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.ColumnType;
+import org.wavewarden.missing.VariableScreen;
+import org.wavewarden.missing.ScreenedVariable;
 
 import java.util.ArrayList;
 import java.util.LinkedHashMap;

@@ -5,6 +5,8 @@ import org.wavewarden.compare.design.PsuTotals;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.DesignSummary;
+import org.wavewarden.missing.VariableScreen;
+import org.wavewarden.missing.ScreenedVariable;
 
 import java.util.HashSet;
 import java.util.List;

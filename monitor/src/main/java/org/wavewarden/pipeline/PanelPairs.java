@@ -13,6 +13,8 @@ import org.wavewarden.profile.WaveProfile;
 import org.wavewarden.read.KeyedPairReader;
 import org.wavewarden.read.WaveScanner;
 import org.wavewarden.read.WaveSource;
+import org.wavewarden.missing.VariableScreen;
+import org.wavewarden.missing.ScreenedVariable;
 
 import java.util.ArrayList;
 import java.util.HashMap;

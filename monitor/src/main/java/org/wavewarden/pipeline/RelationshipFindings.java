@@ -13,6 +13,8 @@ import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.JointTally;
 import org.wavewarden.profile.RelativeBins;
 import org.wavewarden.profile.WaveProfile;
+import org.wavewarden.missing.VariableScreen;
+import org.wavewarden.missing.ScreenedVariable;
 
 import java.util.ArrayList;
 import java.util.HashSet;

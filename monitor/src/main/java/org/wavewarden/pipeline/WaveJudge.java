@@ -31,6 +31,8 @@ import org.wavewarden.read.WaveScanner;
 import org.wavewarden.read.WaveSource;
 import org.wavewarden.store.OutboxStore;
 import org.wavewarden.store.ResultsStore;
+import org.wavewarden.missing.VariableScreen;
+import org.wavewarden.missing.ScreenedVariable;
 
 import java.time.Clock;
 import java.time.Instant;
