@@ -26,7 +26,7 @@ import java.util.function.LongConsumer;
 
 /**
  * The respondents of a panel matched across the baseline wave and the judged wave, summarised per variable while
- * their rows stream past: what the paired comparisons ({@link PanelComparisons}) need, and nothing else.
+ * their rows stream past: what the paired comparisons ({@link org.wavewarden.compare.panel.PanelComparisons}) need, and nothing else.
  *
  * <p>This is the one place a check reads an earlier wave's rows (every other comparison works from the earlier
  * wave's stored summary): pairing needs to know who answered what at both waves. Both waves come in one

@@ -4,6 +4,8 @@ import org.jdbi.v3.core.Handle;
 import org.wavewarden.compare.Comparison;
 import org.wavewarden.compare.VariableComparator;
 import org.wavewarden.compare.WeightedComparator;
+import org.wavewarden.compare.WeightedComparisons;
+import org.wavewarden.compare.panel.PanelComparisons;
 import org.wavewarden.config.CompareWith;
 import org.wavewarden.config.ConfigException;
 import org.wavewarden.config.DatasetConfig;
@@ -33,6 +35,7 @@ import org.wavewarden.store.OutboxStore;
 import org.wavewarden.store.ResultsStore;
 import org.wavewarden.missing.VariableScreen;
 import org.wavewarden.missing.ScreenedVariable;
+import org.wavewarden.missing.DataQualityFindings;
 
 import java.time.Clock;
 import java.time.Instant;

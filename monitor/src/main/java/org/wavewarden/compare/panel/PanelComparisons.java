@@ -1,4 +1,4 @@
-package org.wavewarden.pipeline;
+package org.wavewarden.compare.panel;
 
 import org.wavewarden.compare.Change;
 import org.wavewarden.compare.Comparison;
@@ -9,9 +9,6 @@ import org.wavewarden.compare.location.CohensDz;
 import org.wavewarden.compare.location.MeanDifference;
 import org.wavewarden.compare.location.PairedTTest;
 import org.wavewarden.compare.location.PairedTestChoice;
-import org.wavewarden.compare.panel.ChurnTable;
-import org.wavewarden.compare.panel.StuartMaxwellResult;
-import org.wavewarden.compare.panel.StuartMaxwellTest;
 import org.wavewarden.compare.proportion.McNemarTest;
 import org.wavewarden.compare.proportion.PairedProportions;
 import org.wavewarden.compare.rank.MedianInterval;

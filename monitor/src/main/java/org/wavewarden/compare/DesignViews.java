@@ -1,4 +1,4 @@
-package org.wavewarden.pipeline;
+package org.wavewarden.compare;
 
 import org.wavewarden.compare.design.PsuTally;
 import org.wavewarden.compare.design.PsuTotals;
