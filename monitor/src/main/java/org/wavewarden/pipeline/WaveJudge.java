@@ -7,6 +7,7 @@ import org.wavewarden.compare.VariableComparisons;
 import org.wavewarden.compare.WeightedComparator;
 import org.wavewarden.compare.WeightedComparisons;
 import org.wavewarden.compare.panel.PanelComparisons;
+import org.wavewarden.compare.relation.RelationshipFindings;
 import org.wavewarden.config.CompareWith;
 import org.wavewarden.config.ConfigException;
 import org.wavewarden.config.DatasetConfig;
