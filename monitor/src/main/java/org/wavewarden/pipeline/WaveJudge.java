@@ -7,6 +7,7 @@ import org.wavewarden.compare.VariableComparisons;
 import org.wavewarden.compare.WeightedComparator;
 import org.wavewarden.compare.WeightedComparisons;
 import org.wavewarden.compare.panel.PanelComparisons;
+import org.wavewarden.compare.panel.PairedPanel;
 import org.wavewarden.compare.relation.RelationshipFindings;
 import org.wavewarden.config.CompareWith;
 import org.wavewarden.config.ConfigException;
@@ -239,7 +240,7 @@ public final class WaveJudge {
      * compared paired is added to the notes.
      */
     public static Profiled findings(WardenConfig cfg, DatasetConfig d, WaveProfile current, WaveProfile baseline,
-                                    PanelPairs.Panel panel) {
+                                    PairedPanel.Panel panel) {
         List<String> inference = new ArrayList<>();
         List<VariableConfig> variables = variables(d, current, inference);
         boolean weighted = d.weightColumn() != null;
@@ -439,7 +440,7 @@ public final class WaveJudge {
     }
 
     /** The panel's pairs when the dataset has a respondent key and the wave one baseline: one more statement. */
-    private PanelPairs.Panel panel(DatasetConfig d, WaveSource source, List<String> against, WaveProfile baseline,
+    private PairedPanel.Panel panel(DatasetConfig d, WaveSource source, List<String> against, WaveProfile baseline,
                                    WaveProfile current) {
         PanelPairs plan = PanelPairs.plan(d, against, baseline, current);
         if (plan == null) {

@@ -19,11 +19,11 @@ import org.wavewarden.config.Threshold;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.config.VariableKind;
 import org.wavewarden.judge.FindingKind;
-import org.wavewarden.pipeline.PanelPairs.BinaryPairs;
-import org.wavewarden.pipeline.PanelPairs.CategoricalPairs;
-import org.wavewarden.pipeline.PanelPairs.NumericPairs;
-import org.wavewarden.pipeline.PanelPairs.Panel;
-import org.wavewarden.pipeline.PanelPairs.VariablePairs;
+import org.wavewarden.compare.panel.PairedPanel.BinaryPairs;
+import org.wavewarden.compare.panel.PairedPanel.CategoricalPairs;
+import org.wavewarden.compare.panel.PairedPanel.NumericPairs;
+import org.wavewarden.compare.panel.PairedPanel.Panel;
+import org.wavewarden.compare.panel.PairedPanel.VariablePairs;
 
 import java.util.ArrayList;
 import java.util.List;
