@@ -14,7 +14,6 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardCopyOption;
 import java.nio.file.StandardOpenOption;
-import java.util.Comparator;
 import java.util.List;
 
 /** Writes a judged wave's outputs: {@code findings.json} and the Markdown digest, into a folder per wave. */
@@ -25,8 +24,7 @@ public final class FindingsFiles {
 
     /** Findings in reading order: most urgent verdict first, then by size relative to threshold. */
     public static List<Finding> ordered(List<Finding> findings) {
-        return findings.stream().sorted(Comparator.comparingDouble(Finding::urgency)
-                .thenComparing(Finding::variable).thenComparing(f -> f.kind().name())).toList();
+        return org.wavewarden.judge.WaveVerdicts.ordered(findings);
     }
 
     /**

@@ -16,6 +16,8 @@ import org.wavewarden.profile.CategoryCounts;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.WaveProfile;
 import org.wavewarden.read.WaveInfo;
+import org.wavewarden.missing.VariableScreen;
+import org.wavewarden.missing.ScreenedVariable;
 
 import java.time.Instant;
 import java.util.ArrayList;

@@ -3,7 +3,12 @@ package org.wavewarden.pipeline;
 import org.jdbi.v3.core.Handle;
 import org.wavewarden.compare.Comparison;
 import org.wavewarden.compare.VariableComparator;
+import org.wavewarden.compare.VariableComparisons;
 import org.wavewarden.compare.WeightedComparator;
+import org.wavewarden.compare.WeightedComparisons;
+import org.wavewarden.compare.panel.PanelComparisons;
+import org.wavewarden.compare.panel.PairedPanel;
+import org.wavewarden.compare.relation.RelationshipFindings;
 import org.wavewarden.config.CompareWith;
 import org.wavewarden.config.ConfigException;
 import org.wavewarden.config.DatasetConfig;
@@ -16,8 +21,7 @@ import org.wavewarden.deliver.FindingsReport;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
 import org.wavewarden.judge.SchemaFindings;
-import org.wavewarden.judge.Judge;
-import org.wavewarden.judge.Verdict;
+import org.wavewarden.judge.WaveVerdicts;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.ColumnType;
 import org.wavewarden.profile.SchemaChanges;
@@ -33,6 +37,9 @@ import org.wavewarden.read.WaveScanner;
 import org.wavewarden.read.WaveSource;
 import org.wavewarden.store.OutboxStore;
 import org.wavewarden.store.ResultsStore;
+import org.wavewarden.missing.VariableScreen;
+import org.wavewarden.missing.ScreenedVariable;
+import org.wavewarden.missing.DataQualityFindings;
 
 import java.time.Clock;
 import java.time.Instant;
@@ -235,7 +242,7 @@ public final class WaveJudge {
      * compared paired is added to the notes.
      */
     public static Profiled findings(WardenConfig cfg, DatasetConfig d, WaveProfile current, WaveProfile baseline,
-                                    PanelPairs.Panel panel) {
+                                    PairedPanel.Panel panel) {
         List<String> inference = new ArrayList<>();
         List<VariableConfig> variables = variables(d, current, inference);
         boolean weighted = d.weightColumn() != null;
@@ -330,8 +337,7 @@ public final class WaveJudge {
             plain.addAll(myPlain);
         }
         comparisons.addAll(alsoJudged);
-        List<Finding> findings = new ArrayList<>(withSummaryError(shapeOnlyWhereLocationIsQuiet(
-                onePerVariableAndKind(Judge.judge(comparisons, alpha, fdr))), summarised));
+        List<Finding> findings = new ArrayList<>(WaveVerdicts.judge(comparisons, summarised, alpha, fdr));
         findings.addAll(plain);
         return findings;
     }
@@ -348,28 +354,6 @@ public final class WaveJudge {
         RelationshipFindings.of(d.relationships(), byName, current, baseline, 1 - cfg.alpha(), comparisons, plain);
     }
 
-    /**
-     * Says in each comparison of a summarised variable how far its numbers can be from the data: the bound holds
-     * for every value, so for means, quantiles and shifts too (relative to their size).
-     */
-    static List<Finding> withSummaryError(List<Finding> findings, Map<String, Double> relativeError) {
-        List<Finding> out = new ArrayList<>(findings.size());
-        for (Finding f : findings) {
-            Double e = relativeError.get(f.variable());
-            // Paired comparisons read the answers themselves and say so when they bin the differences.
-            if (e == null || f.kind().isDataQuality() || f.kind() == FindingKind.PANEL_SHIFT) {
-                out.add(f);
-                continue;
-            }
-            String note = String.format(java.util.Locale.ROOT, " This variable has more distinct values than are"
-                    + " counted exactly, so its values were summarised in bins: each stands within %.2g%% of its"
-                    + " value, and so do the means, quantiles and shifts above.", 100 * e);
-            out.add(new Finding(f.variable(), f.kind(), f.test(), f.statistic(), f.pValue(), f.qValue(), f.effect(),
-                    f.verdict(), f.nBaseline(), f.nCurrent(), f.sentence() + note, f.detail()));
-        }
-        return out;
-    }
-
     private static void judgeVariable(VariableComparator comparator, WeightedComparator weighted, VariableConfig v,
                                       ColumnTally ct, ColumnTally bt, Map<String, double[]> cw,
                                       Map<String, double[]> bw, DesignSummary bd, DesignSummary cd,
@@ -377,8 +361,8 @@ public final class WaveJudge {
         FaultPoints.hit(FaultPoints.JUDGE_VARIABLE + v.name());
         ScreenedVariable sc = VariableScreen.screen(ct, v, cw);
         ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v, bw);
-        (sc.weighted() == null ? reference(comparator, v, sc) : WeightedComparisons.reference(weighted, v, sc, ct, cd)
-                .or(() -> reference(comparator, v, sc))).ifPresent(comparisons::add);
+        (sc.weighted() == null ? VariableComparisons.reference(comparator, v, sc) : WeightedComparisons.reference(weighted, v, sc, ct, cd)
+                .or(() -> VariableComparisons.reference(comparator, v, sc))).ifPresent(comparisons::add);
         DataQualityFindings.Result dq = DataQualityFindings.of(v, ct, sc, sb, comparator);
         plain.addAll(dq.findings());
         comparisons.addAll(dq.rateComparisons());
@@ -388,126 +372,19 @@ public final class WaveJudge {
         boolean weigh = WeightedComparisons.applies(sb, sc);
         WeightedComparator.Design design = weigh && bd != null && cd != null
                 ? WeightedComparisons.design(v, bt, ct, sb, sc, bd, cd) : null;
-        compare(comparator, v, sb, sc, ct, bt, weigh ? weighted : null, design).ifPresentOrElse(c -> {
+        VariableComparisons.compare(comparator, v, sb, sc, ct, bt, weigh ? weighted : null, design).ifPresentOrElse(c -> {
             comparisons.add(c);
             if (v.kind() == VariableKind.CONTINUOUS) {
                 comparisons.add(weigh ? WeightedComparisons.shape(weighted, v, sb, sc)
                         : comparator.shape(v.name(), sb.numeric(), sc.numeric(), v.unit()));
             }
         }, () -> {
-            String why = skipReason(v, sb, sc, ct, bt);
+            String why = VariableComparisons.skipReason(v, sb, sc, ct, bt);
             if (why != null) {
                 plain.add(Finding.dataQuality(v.name(), FindingKind.SKIPPED, sb.validN(), sc.validN(),
                         "Not compared: " + why + ".", null));
             }
         });
-    }
-
-    /** The missing rate of one reason, as the detail of the variable's MISSING_RATE_CHANGE finding lists it. */
-    record ReasonRate(String reason, double shareBaseline, double shareCurrent, double pValue, double qValue,
-                      String verdict, String sentence) {
-    }
-
-    /**
-     * Every missing reason of a variable is tested (and counted by the false-discovery-rate control), but a reader
-     * gets one MISSING_RATE_CHANGE finding per variable: the most urgent reason, with every reason in its detail.
-     * This keeps the alert key (dataset, wave, against, variable, kind) one row per variable.
-     */
-    static List<Finding> onePerVariableAndKind(List<Finding> judged) {
-        Map<String, List<Finding>> rates = new LinkedHashMap<>();
-        List<Finding> out = new ArrayList<>();
-        for (Finding f : judged) {
-            if (f.kind() == FindingKind.MISSING_RATE_CHANGE) {
-                rates.computeIfAbsent(f.variable(), k -> new ArrayList<>()).add(f);
-            } else {
-                out.add(f);
-            }
-        }
-        rates.forEach((variable, list) -> {
-            List<Finding> ranked = FindingsFiles.ordered(list);
-            Finding top = ranked.get(0);
-            List<ReasonRate> detail = ranked.stream().map(f -> {
-                var d = (VariableComparator.ProportionDetail) f.detail();
-                return new ReasonRate(d.successValue().replaceFirst("^missing \\((.*)\\)$", "$1"), d.shareBaseline(),
-                        d.shareCurrent(), f.pValue(), f.qValue(), f.verdict().name(), f.sentence());
-            }).toList();
-            out.add(new Finding(top.variable(), top.kind(), top.test(), top.statistic(), top.pValue(), top.qValue(),
-                    top.effect(), top.verdict(), top.nBaseline(), top.nCurrent(), top.sentence(), detail));
-        });
-        return out;
-    }
-
-    /**
-     * The KS test of every continuous variable is part of the run's false-discovery-rate family, but its finding is
-     * kept only when it adds something: a MATERIAL change of shape where the location test found no change.
-     */
-    static List<Finding> shapeOnlyWhereLocationIsQuiet(List<Finding> judged) {
-        Map<String, Verdict> location = new LinkedHashMap<>();
-        judged.stream().filter(f -> f.kind() == FindingKind.SHIFT).forEach(f -> location.put(f.variable(), f.verdict()));
-        return judged.stream().filter(f -> f.kind() != FindingKind.SHAPE_CHANGE
-                || (f.verdict() == Verdict.MATERIAL && (location.get(f.variable()) == Verdict.STABLE
-                || location.get(f.variable()) == Verdict.UNCERTAIN))).toList();
-    }
-
-    private static Optional<Comparison> compare(VariableComparator comparator, VariableConfig v,
-                                                ScreenedVariable b, ScreenedVariable c, ColumnTally ct,
-                                                ColumnTally bt, WeightedComparator weighted,
-                                                WeightedComparator.Design design) {
-        if (skipReason(v, b, c, ct, bt) != null) {
-            return Optional.empty();
-        }
-        if (weighted != null) {
-            return WeightedComparisons.compare(weighted, v, b, c, design);
-        }
-        return switch (v.kind()) {
-            case CONTINUOUS, ORDINAL -> Optional.of(comparator.numeric(v.name(), v.kind() == VariableKind.ORDINAL,
-                    b.numeric(), c.numeric(), v.threshold(), v.unit()));
-            case CATEGORICAL -> Optional.of(comparator.categorical(v.name(), b.categories(), c.categories(),
-                    v.threshold()));
-            case BINARY -> {
-                String success = VariableScreen.successValue(v, b.categories(), c.categories());
-                yield Optional.of(comparator.proportion(v.name(), FindingKind.SHIFT, "answering '" + success + "'",
-                        b.categories().count(success), b.categories().n(), c.categories().count(success),
-                        c.categories().n(), v.threshold()));
-            }
-            case TEXT, DATE -> Optional.empty();
-        };
-    }
-
-    /** The wave against the variable's configured reference, when it has one and enough valid answers. */
-    static Optional<Comparison> reference(VariableComparator comparator, VariableConfig v, ScreenedVariable c) {
-        if (v.reference() == null || c.validN() < 2) {
-            return Optional.empty();
-        }
-        if (v.reference().mean() != null && c.numeric() != null && c.numeric().size() > 1) {
-            return Optional.of(comparator.referenceMean(v.name(), c.numeric(), v.reference().mean(), v.threshold(),
-                    v.unit()));
-        }
-        if (!v.reference().shares().isEmpty() && c.categories() != null) {
-            return Optional.of(comparator.referenceShares(v.name(), c.categories(), v.reference().shares(),
-                    v.threshold()));
-        }
-        return Optional.empty();
-    }
-
-    /** Why a variable cannot be compared this time, or null when it can (or is never compared). */
-    static String skipReason(VariableConfig v, ScreenedVariable b, ScreenedVariable c, ColumnTally ct, ColumnTally bt) {
-        if (v.kind() == VariableKind.TEXT || v.kind() == VariableKind.DATE) {
-            return null;
-        }
-        if (ct.truncated() || bt.truncated()) {
-            return "too many distinct values to compare exactly";
-        }
-        if (b.validN() < 2 || c.validN() < 2) {
-            return "fewer than 2 valid answers in a wave (" + b.validN() + " and " + c.validN() + ")";
-        }
-        if (DataQualityFindings.distinctValid(b) <= 1 && DataQualityFindings.distinctValid(c) <= 1) {
-            return "a single value in both waves";
-        }
-        if (v.kind() == VariableKind.CATEGORICAL && b.categories().unionOrder(c.categories()).size() < 2) {
-            return "a single category";
-        }
-        return WeightedComparisons.skipReason(b, c);
     }
 
     private WaveProfile profile(Handle h, DatasetConfig d, WaveSource source, String wave, LongConsumer progress) {
@@ -565,7 +442,7 @@ public final class WaveJudge {
     }
 
     /** The panel's pairs when the dataset has a respondent key and the wave one baseline: one more statement. */
-    private PanelPairs.Panel panel(DatasetConfig d, WaveSource source, List<String> against, WaveProfile baseline,
+    private PairedPanel.Panel panel(DatasetConfig d, WaveSource source, List<String> against, WaveProfile baseline,
                                    WaveProfile current) {
         PanelPairs plan = PanelPairs.plan(d, against, baseline, current);
         if (plan == null) {

@@ -1,7 +1,6 @@
-package org.wavewarden.pipeline;
+package org.wavewarden.missing;
 
 import org.wavewarden.compare.design.WeightedTally;
-import org.wavewarden.missing.MissingCandidate;
 import org.wavewarden.profile.CategoryCounts;
 import org.wavewarden.profile.NumericDistribution;
 

@@ -1,14 +1,8 @@
-package org.wavewarden.pipeline;
+package org.wavewarden.missing;
 
 import org.wavewarden.compare.design.WeightedTally;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.config.VariableKind;
-import org.wavewarden.missing.Codebook;
-import org.wavewarden.missing.CodebookSplit;
-import org.wavewarden.missing.DisguisedMissingDetector;
-import org.wavewarden.missing.MissingCandidate;
-import org.wavewarden.missing.MissingCode;
-import org.wavewarden.missing.ValueRange;
 import org.wavewarden.profile.CategoryCounts;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.NumericDistribution;
@@ -117,7 +111,7 @@ public final class VariableScreen {
      * A weighted categorical view laid out along {@code order} (the union of both waves' categories), as the weighted
      * comparison needs: value j is {@code order.get(j)}, with count and weights 0 where this wave lacks it.
      */
-    static WeightedTally aligned(ScreenedVariable s, List<String> order) {
+    public static WeightedTally aligned(ScreenedVariable s, List<String> order) {
         List<String> own = s.categories().categories();
         double[] w = s.weighted().weights();
         double[] q = s.weighted().squaredWeights();
@@ -144,7 +138,7 @@ public final class VariableScreen {
         return new WeightedTally(values, n, w, q);
     }
 
-    static String reasonOf(MissingCandidate c) {
+    public static String reasonOf(MissingCandidate c) {
         return "disguised: " + c.kind().name().toLowerCase(java.util.Locale.ROOT).replace('_', ' ');
     }
 
@@ -169,7 +163,7 @@ public final class VariableScreen {
         return NumericDistribution.ofTally(tally);
     }
 
-    static Map<String, Integer> levelRanks(VariableConfig v) {
+    public static Map<String, Integer> levelRanks(VariableConfig v) {
         Map<String, Integer> levelRank = new HashMap<>();
         for (int i = 0; i < v.levels().size(); i++) {
             levelRank.put(v.levels().get(i), i + 1);
@@ -178,19 +172,19 @@ public final class VariableScreen {
     }
 
     /** A numeric answer's value: its number, or for an ordinal variable with levels the rank of its level. */
-    static Double valueOf(String text, Map<String, Integer> levelRank) {
+    public static Double valueOf(String text, Map<String, Integer> levelRank) {
         return levelRank.isEmpty() ? parse(text) : levelRank.get(text.strip()) == null ? null
                 : (double) levelRank.get(text.strip());
     }
 
-    static boolean outside(double x, ValueRange range) {
+    public static boolean outside(double x, ValueRange range) {
         return range != null && ((range.min() != null && x < range.min()) || (range.max() != null && x > range.max()));
     }
 
-    static Double parse(String s) {
+    public static Double parse(String s) {
         String t = s.strip();
         // Only plain decimal notation: Java would also accept "NaN", "Infinity", "0x1p3" and "1.5d".
-        if (!org.wavewarden.missing.NumberText.isPlainDecimal(t)) {
+        if (!NumberText.isPlainDecimal(t)) {
             return null;
         }
         try {
@@ -214,7 +208,7 @@ public final class VariableScreen {
         return all.isEmpty() ? "1" : all.get(all.size() - 1);
     }
 
-    static boolean isNumericKind(VariableKind k) {
+    public static boolean isNumericKind(VariableKind k) {
         return k == VariableKind.CONTINUOUS || k == VariableKind.ORDINAL;
     }
 }

@@ -1,10 +1,12 @@
-package org.wavewarden.pipeline;
+package org.wavewarden.compare;
 
 import org.wavewarden.compare.design.PsuTally;
 import org.wavewarden.compare.design.PsuTotals;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.DesignSummary;
+import org.wavewarden.missing.VariableScreen;
+import org.wavewarden.missing.ScreenedVariable;
 
 import java.util.HashSet;
 import java.util.List;

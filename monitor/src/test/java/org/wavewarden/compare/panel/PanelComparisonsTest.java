@@ -1,4 +1,4 @@
-package org.wavewarden.pipeline;
+package org.wavewarden.compare.panel;
 
 import org.junit.jupiter.api.Test;
 import org.wavewarden.compare.Comparison;
@@ -11,15 +11,15 @@ import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
 import org.wavewarden.judge.Judge;
 import org.wavewarden.judge.Verdict;
-import org.wavewarden.pipeline.PanelComparisons.BinaryDetail;
-import org.wavewarden.pipeline.PanelComparisons.CategoricalDetail;
-import org.wavewarden.pipeline.PanelComparisons.NumericDetail;
-import org.wavewarden.pipeline.PanelComparisons.PanelDetail;
-import org.wavewarden.pipeline.PanelPairs.BinaryPairs;
-import org.wavewarden.pipeline.PanelPairs.CategoricalPairs;
-import org.wavewarden.pipeline.PanelPairs.NumericPairs;
-import org.wavewarden.pipeline.PanelPairs.Panel;
-import org.wavewarden.pipeline.PanelPairs.VariablePairs;
+import org.wavewarden.compare.panel.PanelComparisons.BinaryDetail;
+import org.wavewarden.compare.panel.PanelComparisons.CategoricalDetail;
+import org.wavewarden.compare.panel.PanelComparisons.NumericDetail;
+import org.wavewarden.compare.panel.PanelComparisons.PanelDetail;
+import org.wavewarden.compare.panel.PairedPanel.BinaryPairs;
+import org.wavewarden.compare.panel.PairedPanel.CategoricalPairs;
+import org.wavewarden.compare.panel.PairedPanel.NumericPairs;
+import org.wavewarden.compare.panel.PairedPanel.Panel;
+import org.wavewarden.compare.panel.PairedPanel.VariablePairs;
 import org.wavewarden.profile.Binning;
 import org.wavewarden.profile.NumericDistribution;
 

@@ -1,8 +1,7 @@
-package org.wavewarden.pipeline;
+package org.wavewarden.compare.relation;
 
 import org.wavewarden.compare.Comparison;
 import org.wavewarden.compare.Thresholds;
-import org.wavewarden.compare.relation.RelationshipChange;
 import org.wavewarden.config.RelationshipConfig;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.judge.Finding;
@@ -13,6 +12,8 @@ import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.JointTally;
 import org.wavewarden.profile.RelativeBins;
 import org.wavewarden.profile.WaveProfile;
+import org.wavewarden.missing.VariableScreen;
+import org.wavewarden.missing.ScreenedVariable;
 
 import java.util.ArrayList;
 import java.util.HashSet;
@@ -28,7 +29,7 @@ import java.util.Set;
  * waves by {@link RelationshipChange}. The comparisons join the run's false-discovery-rate family; pairs that
  * cannot be compared get a SKIPPED finding saying why.
  */
-final class RelationshipFindings {
+public final class RelationshipFindings {
 
     private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(RelationshipFindings.class);
 
@@ -36,7 +37,7 @@ final class RelationshipFindings {
     }
 
     /** Comparisons and skip notices of every configured relationship; nothing for a first wave. */
-    static void of(List<RelationshipConfig> relationships, Map<String, VariableConfig> variables,
+    public static void of(List<RelationshipConfig> relationships, Map<String, VariableConfig> variables,
                    WaveProfile current, WaveProfile baseline, double confidence, List<Comparison> comparisons,
                    List<Finding> plain) {
         if (baseline == null) {

@@ -1,4 +1,4 @@
-package org.wavewarden.pipeline;
+package org.wavewarden.missing;
 
 import org.wavewarden.compare.Comparison;
 import org.wavewarden.compare.VariableComparator;
@@ -6,12 +6,6 @@ import org.wavewarden.config.VariableConfig;
 import org.wavewarden.config.VariableKind;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
-import org.wavewarden.missing.CandidateKind;
-import org.wavewarden.missing.CodeFrameChange;
-import org.wavewarden.missing.MissingCandidate;
-import org.wavewarden.missing.MyersIndex;
-import org.wavewarden.missing.TerminalDigitPreference;
-import org.wavewarden.missing.WhippleIndex;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.ColumnType;
 
@@ -28,7 +22,7 @@ import java.util.Set;
  * their rates, values of the wrong type or outside the range, changed code frames, heaping and digit preference.
  * Rates that can be tested between waves become comparisons, judged with the same verdict rule as shifts.
  */
-final class DataQualityFindings {
+public final class DataQualityFindings {
 
     /** Candidates reported as findings; below this confidence they stay in the detail only. */
     static final double REPORT_CONFIDENCE = 0.5;
@@ -46,10 +40,10 @@ final class DataQualityFindings {
     private DataQualityFindings() {
     }
 
-    record Result(List<Finding> findings, List<Comparison> rateComparisons) {
+    public record Result(List<Finding> findings, List<Comparison> rateComparisons) {
     }
 
-    static Result of(VariableConfig v, ColumnTally currentTally, ScreenedVariable current, ScreenedVariable baseline,
+    public static Result of(VariableConfig v, ColumnTally currentTally, ScreenedVariable current, ScreenedVariable baseline,
                      VariableComparator comparator) {
         List<Finding> out = new ArrayList<>();
         List<Comparison> rates = new ArrayList<>();
@@ -203,7 +197,7 @@ final class DataQualityFindings {
         return d.size() > 0;
     }
 
-    static int distinctValid(ScreenedVariable s) {
+    public static int distinctValid(ScreenedVariable s) {
         return s.numeric() != null ? s.numeric().size() : s.categories() != null
                 ? (int) java.util.Arrays.stream(s.categories().counts()).filter(c -> c > 0).count() : 2;
     }

@@ -1,13 +1,13 @@
-package org.wavewarden.pipeline;
+package org.wavewarden.compare;
 
-import org.wavewarden.compare.Comparison;
-import org.wavewarden.compare.WeightedComparator;
 import org.wavewarden.compare.design.WeightedTally;
 import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.DesignSummary;
 import org.wavewarden.profile.WaveProfile;
+import org.wavewarden.missing.VariableScreen;
+import org.wavewarden.missing.ScreenedVariable;
 
 import java.util.List;
 import java.util.Map;
@@ -22,17 +22,17 @@ import java.util.Optional;
  * <p>Design: without strata or cluster columns each wave is taken as a weights-only design, each respondent its own
  * PSU, drawn with replacement; see {@link WeightedComparator}.
  */
-final class WeightedComparisons {
+public final class WeightedComparisons {
 
     private WeightedComparisons() {
     }
 
-    static boolean applies(ScreenedVariable baseline, ScreenedVariable current) {
+    public static boolean applies(ScreenedVariable baseline, ScreenedVariable current) {
         return baseline != null && current != null && baseline.weighted() != null && current.weighted() != null;
     }
 
     /** Why a weighted comparison cannot be made although the unweighted one could, or null. */
-    static String skipReason(ScreenedVariable baseline, ScreenedVariable current) {
+    public static String skipReason(ScreenedVariable baseline, ScreenedVariable current) {
         if (!applies(baseline, current)) {
             return null;
         }
@@ -42,7 +42,7 @@ final class WeightedComparisons {
         return null;
     }
 
-    static Optional<Comparison> compare(WeightedComparator comparator, VariableConfig v, ScreenedVariable b,
+    public static Optional<Comparison> compare(WeightedComparator comparator, VariableConfig v, ScreenedVariable b,
                                         ScreenedVariable c, WeightedComparator.Design design) {
         return switch (v.kind()) {
             case CONTINUOUS, ORDINAL -> Optional.of(comparator.numeric(v.name(), b.weighted(), c.weighted(), design,
@@ -68,7 +68,7 @@ final class WeightedComparisons {
      * Both waves' design views of a variable, or null when a wave has none (the comparison then takes its variance
      * from the weights alone, and says so by its test name).
      */
-    static WeightedComparator.Design design(VariableConfig v, ColumnTally bt, ColumnTally ct, ScreenedVariable b,
+    public static WeightedComparator.Design design(VariableConfig v, ColumnTally bt, ColumnTally ct, ScreenedVariable b,
                                             ScreenedVariable c, DesignSummary bd, DesignSummary cd) {
         DesignViews.View vb;
         DesignViews.View vc;
@@ -96,7 +96,7 @@ final class WeightedComparisons {
 
     private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(WeightedComparisons.class);
 
-    static Comparison shape(WeightedComparator comparator, VariableConfig v, ScreenedVariable b, ScreenedVariable c) {
+    public static Comparison shape(WeightedComparator comparator, VariableConfig v, ScreenedVariable b, ScreenedVariable c) {
         return comparator.shape(v.name(), b.weighted(), c.weighted());
     }
 
@@ -104,7 +104,7 @@ final class WeightedComparisons {
      * The weighted reference comparison, when the variable has a reference mean or reference shares; empty
      * otherwise. With the wave's design (null: none), the shares' variance comes from its strata and clusters.
      */
-    static Optional<Comparison> reference(WeightedComparator comparator, VariableConfig v, ScreenedVariable c,
+    public static Optional<Comparison> reference(WeightedComparator comparator, VariableConfig v, ScreenedVariable c,
                                           ColumnTally ct, DesignSummary cd) {
         if (v.reference() == null || c.validN() < 2 || !(c.weighted().totalWeight() > 0)) {
             return Optional.empty();

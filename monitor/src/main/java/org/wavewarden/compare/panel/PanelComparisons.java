@@ -1,4 +1,4 @@
-package org.wavewarden.pipeline;
+package org.wavewarden.compare.panel;
 
 import org.wavewarden.compare.Change;
 import org.wavewarden.compare.Comparison;
@@ -9,9 +9,6 @@ import org.wavewarden.compare.location.CohensDz;
 import org.wavewarden.compare.location.MeanDifference;
 import org.wavewarden.compare.location.PairedTTest;
 import org.wavewarden.compare.location.PairedTestChoice;
-import org.wavewarden.compare.panel.ChurnTable;
-import org.wavewarden.compare.panel.StuartMaxwellResult;
-import org.wavewarden.compare.panel.StuartMaxwellTest;
 import org.wavewarden.compare.proportion.McNemarTest;
 import org.wavewarden.compare.proportion.PairedProportions;
 import org.wavewarden.compare.rank.MedianInterval;
@@ -22,11 +19,11 @@ import org.wavewarden.config.Threshold;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.config.VariableKind;
 import org.wavewarden.judge.FindingKind;
-import org.wavewarden.pipeline.PanelPairs.BinaryPairs;
-import org.wavewarden.pipeline.PanelPairs.CategoricalPairs;
-import org.wavewarden.pipeline.PanelPairs.NumericPairs;
-import org.wavewarden.pipeline.PanelPairs.Panel;
-import org.wavewarden.pipeline.PanelPairs.VariablePairs;
+import org.wavewarden.compare.panel.PairedPanel.BinaryPairs;
+import org.wavewarden.compare.panel.PairedPanel.CategoricalPairs;
+import org.wavewarden.compare.panel.PairedPanel.NumericPairs;
+import org.wavewarden.compare.panel.PairedPanel.Panel;
+import org.wavewarden.compare.panel.PairedPanel.VariablePairs;
 
 import java.util.ArrayList;
 import java.util.List;

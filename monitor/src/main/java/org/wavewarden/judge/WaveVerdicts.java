@@ -1,0 +1,109 @@
+package org.wavewarden.judge;
+
+import org.wavewarden.compare.Comparison;
+import org.wavewarden.compare.VariableComparator;
+import org.wavewarden.config.WardenConfig;
+
+import java.util.ArrayList;
+import java.util.Comparator;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * The rules that turn one run's comparisons into the findings a reader gets: every comparison of the run (the
+ * variables', the relationships', the panel's) is one false-discovery-rate family, judged by {@link Judge}; then
+ * one missing-rate finding per variable, shape findings only where the location test is quiet, and the bound on
+ * the numbers of a summarised variable in its sentence.
+ */
+public final class WaveVerdicts {
+
+    private WaveVerdicts() {
+    }
+
+    /**
+     * The run's findings from its comparisons, all in one false-discovery-rate family.
+     *
+     * @param comparisons  every comparison of the run; each one counts in the family, kept as a finding or not
+     * @param relativeError per summarised variable, the relative error bound of its binned values
+     */
+    public static List<Finding> judge(List<Comparison> comparisons, Map<String, Double> relativeError, double alpha,
+                                      WardenConfig.FdrMethod fdr) {
+        return withSummaryError(shapeOnlyWhereLocationIsQuiet(onePerVariableAndKind(
+                Judge.judge(comparisons, alpha, fdr))), relativeError);
+    }
+
+    /** Findings in reading order: most urgent verdict first, then by size relative to threshold, variable, kind. */
+    public static List<Finding> ordered(List<Finding> findings) {
+        return findings.stream().sorted(Comparator.comparingDouble(Finding::urgency)
+                .thenComparing(Finding::variable).thenComparing(f -> f.kind().name())).toList();
+    }
+
+    /** The missing rate of one reason, as the detail of the variable's MISSING_RATE_CHANGE finding lists it. */
+    public record ReasonRate(String reason, double shareBaseline, double shareCurrent, double pValue, double qValue,
+                      String verdict, String sentence) {
+    }
+
+    /**
+     * Every missing reason of a variable is tested (and counted by the false-discovery-rate control), but a reader
+     * gets one MISSING_RATE_CHANGE finding per variable: the most urgent reason, with every reason in its detail.
+     * This keeps the alert key (dataset, wave, against, variable, kind) one row per variable.
+     */
+    public static List<Finding> onePerVariableAndKind(List<Finding> judged) {
+        Map<String, List<Finding>> rates = new LinkedHashMap<>();
+        List<Finding> out = new ArrayList<>();
+        for (Finding f : judged) {
+            if (f.kind() == FindingKind.MISSING_RATE_CHANGE) {
+                rates.computeIfAbsent(f.variable(), k -> new ArrayList<>()).add(f);
+            } else {
+                out.add(f);
+            }
+        }
+        rates.forEach((variable, list) -> {
+            List<Finding> ranked = ordered(list);
+            Finding top = ranked.get(0);
+            List<ReasonRate> detail = ranked.stream().map(f -> {
+                var d = (VariableComparator.ProportionDetail) f.detail();
+                return new ReasonRate(d.successValue().replaceFirst("^missing \\((.*)\\)$", "$1"), d.shareBaseline(),
+                        d.shareCurrent(), f.pValue(), f.qValue(), f.verdict().name(), f.sentence());
+            }).toList();
+            out.add(new Finding(top.variable(), top.kind(), top.test(), top.statistic(), top.pValue(), top.qValue(),
+                    top.effect(), top.verdict(), top.nBaseline(), top.nCurrent(), top.sentence(), detail));
+        });
+        return out;
+    }
+
+    /**
+     * The KS test of every continuous variable is part of the run's false-discovery-rate family, but its finding is
+     * kept only when it adds something: a MATERIAL change of shape where the location test found no change.
+     */
+    public static List<Finding> shapeOnlyWhereLocationIsQuiet(List<Finding> judged) {
+        Map<String, Verdict> location = new LinkedHashMap<>();
+        judged.stream().filter(f -> f.kind() == FindingKind.SHIFT).forEach(f -> location.put(f.variable(), f.verdict()));
+        return judged.stream().filter(f -> f.kind() != FindingKind.SHAPE_CHANGE
+                || (f.verdict() == Verdict.MATERIAL && (location.get(f.variable()) == Verdict.STABLE
+                || location.get(f.variable()) == Verdict.UNCERTAIN))).toList();
+    }
+
+    /**
+     * Says in each comparison of a summarised variable how far its numbers can be from the data: the bound holds
+     * for every value, so for means, quantiles and shifts too (relative to their size).
+     */
+    public static List<Finding> withSummaryError(List<Finding> findings, Map<String, Double> relativeError) {
+        List<Finding> out = new ArrayList<>(findings.size());
+        for (Finding f : findings) {
+            Double e = relativeError.get(f.variable());
+            // Paired comparisons read the answers themselves and say so when they bin the differences.
+            if (e == null || f.kind().isDataQuality() || f.kind() == FindingKind.PANEL_SHIFT) {
+                out.add(f);
+                continue;
+            }
+            String note = String.format(java.util.Locale.ROOT, " This variable has more distinct values than are"
+                    + " counted exactly, so its values were summarised in bins: each stands within %.2g%% of its"
+                    + " value, and so do the means, quantiles and shifts above.", 100 * e);
+            out.add(new Finding(f.variable(), f.kind(), f.test(), f.statistic(), f.pValue(), f.qValue(), f.effect(),
+                    f.verdict(), f.nBaseline(), f.nCurrent(), f.sentence() + note, f.detail()));
+        }
+        return out;
+    }
+}
