@@ -65,20 +65,14 @@ public final class ValueIndex {
     public int add(long a, long b, int limit) {
         requireKind(Kind.LONGS);
         int h = mix(a, b);
-        int mask = slots.length - 1;
-        int i = h & mask;
-        int e;
-        while ((e = slots[i]) != 0) {
-            e--;
-            if (first[e] == a && second[e] == b) {
-                return e;
-            }
-            i = (i + 1) & mask;
+        int i = probe(a, b, h);
+        if (slots[i] != 0) {
+            return slots[i] - 1;
         }
         if (size >= limit) {
             return -1;
         }
-        e = claim(i, h);
+        int e = claim(i, h);
         first[e] = a;
         second[e] = b;
         return e;
@@ -92,17 +86,18 @@ public final class ValueIndex {
     /** The entry of a pair of longs, or -1 when it is not held. */
     public int find(long a, long b) {
         requireKind(Kind.LONGS);
+        return slots[probe(a, b, mix(a, b))] - 1;
+    }
+
+    /** The slot holding the pair, or the empty slot where it would go. */
+    private int probe(long a, long b, int h) {
         int mask = slots.length - 1;
-        int i = mix(a, b) & mask;
+        int i = h & mask;
         int e;
-        while ((e = slots[i]) != 0) {
-            e--;
-            if (first[e] == a && second[e] == b) {
-                return e;
-            }
+        while ((e = slots[i]) != 0 && (first[e - 1] != a || second[e - 1] != b)) {
             i = (i + 1) & mask;
         }
-        return -1;
+        return i;
     }
 
     /**
