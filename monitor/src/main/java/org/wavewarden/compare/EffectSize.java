@@ -12,9 +12,7 @@ package org.wavewarden.compare;
 public record EffectSize(String name, double estimate, double ciLow, double ciHigh, double confidence) {
 
     public EffectSize {
-        if (!(confidence > 0 && confidence < 1)) {
-            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
-        }
+        Checks.confidence(confidence);
         if (ciLow > ciHigh) {
             throw new IllegalArgumentException("ciLow " + ciLow + " exceeds ciHigh " + ciHigh + " for " + name);
         }

@@ -26,6 +26,7 @@ import org.wavewarden.config.Threshold;
 import org.wavewarden.judge.FindingKind;
 import org.wavewarden.profile.CategoryCounts;
 import org.wavewarden.profile.NumericDistribution;
+import org.wavewarden.profile.Quantiles;
 
 import java.util.ArrayList;
 import java.util.List;
@@ -51,9 +52,7 @@ public final class VariableComparator {
     private final double confidence;
 
     public VariableComparator(double confidence) {
-        if (!(confidence > 0 && confidence < 1)) {
-            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
-        }
+        Checks.confidence(confidence);
         this.confidence = confidence;
     }
 
@@ -90,8 +89,8 @@ public final class VariableComparator {
         double w1 = Wasserstein.distance(baseline, current);
         PsiResult psi = PopulationStabilityIndex.compute(baseline, current);
         double js = JensenShannon.distance(baseline, current);
-        double medB = median(baseline);
-        double medC = median(current);
+        double medB = Quantiles.median(baseline);
+        double medC = Quantiles.median(current);
         String name = variable;
         if (choice.test() == LocationTestChoice.LocationTest.WELCH_T) {
             MeanDifference md = WelchTTest.test(baseline, current, confidence);
@@ -304,28 +303,6 @@ public final class VariableComparator {
         Change change = new Change("share " + successLabel, z.proportionBaseline(), z.proportionCurrent(), true, null,
                 rd.estimate(), rd.ciLow(), rd.ciHigh(), "");
         return new Comparison(variable, kind, primary, t.rawScale() ? rd : h, t.value(), t.source(), nB, nC, change, d);
-    }
-
-    /** The lower median of a frequency table (the middle observation, or the lower of the two middle ones averaged). */
-    static double median(NumericDistribution d) {
-        long n = d.n();
-        if (n == 0) {
-            return Double.NaN;
-        }
-        long lo = (n - 1) / 2;
-        long hi = n / 2;
-        return (valueAtRank(d, lo) + valueAtRank(d, hi)) / 2;
-    }
-
-    private static double valueAtRank(NumericDistribution d, long rank) {
-        long seen = 0;
-        for (int i = 0; i < d.size(); i++) {
-            seen += d.count(i);
-            if (rank < seen) {
-                return d.value(i);
-            }
-        }
-        return d.value(d.size() - 1);
     }
 
     static String signed(double v, int digits) {

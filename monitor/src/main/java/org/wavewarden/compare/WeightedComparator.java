@@ -1,6 +1,5 @@
 package org.wavewarden.compare;
 
-import org.apache.commons.math3.distribution.NormalDistribution;
 import org.apache.commons.math3.distribution.TDistribution;
 import org.apache.commons.math3.random.RandomGenerator;
 import org.wavewarden.compare.categorical.CohensW;
@@ -80,9 +79,7 @@ public final class WeightedComparator {
     }
 
     public WeightedComparator(double confidence) {
-        if (!(confidence > 0 && confidence < 1)) {
-            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
-        }
+        Checks.confidence(confidence);
         this.confidence = confidence;
     }
 
@@ -310,7 +307,7 @@ public final class WeightedComparator {
         Thresholds.Resolved t = Thresholds.resolve(configured, w.name(), Thresholds.CRAMERS_V, null);
         DesignEstimate share = design == null ? TallyEstimates.mean(current.indicator(worst))
                 : design.indicator(worst).totals().mean();
-        double half = new NormalDistribution().inverseCumulativeProbability(0.5 + confidence / 2)
+        double half = StandardNormal.twoSidedQuantile(confidence)
                 * share.standardError();
         double d = share.estimate() - expected[worst];
         Change change = new Change("weighted share answering '" + categories.get(worst) + "' against its reference",
@@ -374,7 +371,7 @@ public final class WeightedComparator {
     private EffectSize cohensH(DesignEstimate b, DesignEstimate c, Weighting wb, Weighting wc) {
         double h = 2 * Math.asin(Math.sqrt(c.estimate())) - 2 * Math.asin(Math.sqrt(b.estimate()));
         double var = arcsineVariance(b, wb) + arcsineVariance(c, wc);
-        double half = new NormalDistribution().inverseCumulativeProbability(0.5 + confidence / 2) * Math.sqrt(var);
+        double half = StandardNormal.twoSidedQuantile(confidence) * Math.sqrt(var);
         return new EffectSize("Cohen's h (weighted shares)", h, h - half, h + half, confidence);
     }
 

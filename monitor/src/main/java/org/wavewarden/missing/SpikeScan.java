@@ -8,6 +8,7 @@ import java.util.Optional;
 import java.util.function.DoublePredicate;
 import java.util.function.DoubleUnaryOperator;
 import org.apache.commons.math3.distribution.PoissonDistribution;
+import org.wavewarden.profile.Quantiles;
 
 /**
  * The spike-and-separation logic shared by numbers and dates: which sentinel-shaped values stand apart from the
@@ -232,8 +233,7 @@ final class SpikeScan {
         if (all.isEmpty()) {
             return 0;
         }
-        long[] c = all.stream().mapToLong(Long::longValue).sorted().toArray();
-        double med = c.length % 2 == 1 ? c[c.length / 2] : (c[c.length / 2 - 1] + c[c.length / 2]) / 2.0;
+        double med = Quantiles.median(all.stream().mapToDouble(Long::doubleValue).sorted().toArray());
         return points.get(i).count() / Math.max(1.0, med);
     }
 
@@ -265,8 +265,7 @@ final class SpikeScan {
     static final double SENTINEL_CHANCE = 1e-5;
 
     private double medianCount(int[] idx) {
-        long[] c = Arrays.stream(idx).mapToLong(j -> points.get(j).count()).sorted().toArray();
-        double med = c.length % 2 == 1 ? c[c.length / 2] : (c[c.length / 2 - 1] + c[c.length / 2]) / 2.0;
+        double med = Quantiles.median(Arrays.stream(idx).mapToDouble(j -> points.get(j).count()).sorted().toArray());
         return Math.max(1.0, med);
     }
 
@@ -279,7 +278,7 @@ final class SpikeScan {
     }
 
     /** The weighted bulk of the ordinary values: quartiles, ends, typical spacing between distinct values. */
-    private final class Bulk {
+    private final class Bulk implements Quantiles.Table {
         final double q1;
         final double q3;
         final double min;
@@ -289,38 +288,37 @@ final class SpikeScan {
 
         Bulk(boolean[] inBase) {
             List<Integer> idx = new ArrayList<>();
-            long n = 0;
             for (int i = 0; i < inBase.length; i++) {
                 if (inBase[i]) {
                     idx.add(i);
-                    n += points.get(i).count();
                 }
             }
             indices = idx.stream().mapToInt(Integer::intValue).toArray();
             min = points.get(indices[0]).x();
             max = points.get(indices[indices.length - 1]).x();
-            q1 = quantile(n, 0.25);
-            q3 = quantile(n, 0.75);
+            q1 = Quantiles.inverse(this, 0.25);
+            q3 = Quantiles.inverse(this, 0.75);
             double[] gaps = new double[Math.max(0, indices.length - 1)];
             for (int k = 1; k < indices.length; k++) {
                 gaps[k - 1] = points.get(indices[k]).x() - points.get(indices[k - 1]).x();
             }
             Arrays.sort(gaps);
-            spacing = gaps.length == 0 ? Double.NaN
-                    : gaps.length % 2 == 1 ? gaps[gaps.length / 2] : (gaps[gaps.length / 2 - 1] + gaps[gaps.length / 2]) / 2;
+            spacing = Quantiles.median(gaps);
         }
 
-        /** The lower-value definition of the weighted quantile (type 1), enough for a fence. */
-        private double quantile(long n, double p) {
-            long target = (long) Math.ceil(p * n);
-            long cum = 0;
-            for (int i : indices) {
-                cum += points.get(i).count();
-                if (cum >= Math.max(1, target)) {
-                    return points.get(i).x();
-                }
-            }
-            return max;
+        @Override
+        public int size() {
+            return indices.length;
+        }
+
+        @Override
+        public double value(int i) {
+            return points.get(indices[i]).x();
+        }
+
+        @Override
+        public long count(int i) {
+            return points.get(indices[i]).count();
         }
 
         int[] nearestIndices(double x) {

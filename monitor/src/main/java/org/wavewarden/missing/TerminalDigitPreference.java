@@ -4,6 +4,7 @@ import java.util.Arrays;
 import org.apache.commons.math3.distribution.ChiSquaredDistribution;
 import org.wavewarden.compare.TestResult;
 import org.wavewarden.profile.NumericDistribution;
+import org.wavewarden.profile.Quantiles;
 
 /**
  * Preference for some last digits in whole-number answers (minutes, hours, amounts): Pearson's chi-square of the
@@ -55,7 +56,7 @@ public record TerminalDigitPreference(boolean applicable, String reason, long[] 
         if (n < MIN_N) {
             return notApplicable("only " + n + " answers; at least " + MIN_N + " are needed", counts);
         }
-        double spread = quantile(values, 0.9) - quantile(values, 0.1);
+        double spread = Quantiles.inverse(values, 0.9) - Quantiles.inverse(values, 0.1);
         if (spread < MIN_SPREAD) {
             return notApplicable("the middle 80% of answers span " + NumberText.plain(spread) + " units; at least "
                     + NumberText.plain(MIN_SPREAD) + " are needed for the last digit to be uniform", counts);
@@ -81,18 +82,6 @@ public record TerminalDigitPreference(boolean applicable, String reason, long[] 
 
     private static TerminalDigitPreference notApplicable(String why, long[] counts) {
         return new TerminalDigitPreference(false, why, counts, Double.NaN, Double.NaN, Double.NaN);
-    }
-
-    private static double quantile(NumericDistribution d, double p) {
-        long target = Math.max(1, (long) Math.ceil(p * d.n()));
-        long cum = 0;
-        for (int i = 0; i < d.size(); i++) {
-            cum += d.count(i);
-            if (cum >= target) {
-                return d.value(i);
-            }
-        }
-        return d.value(d.size() - 1);
     }
 
     @Override

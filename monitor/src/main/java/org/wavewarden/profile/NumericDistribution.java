@@ -11,7 +11,7 @@ import java.util.TreeMap;
  * ties), empirical distribution functions, quantiles, moments and pairwise differences are all exact functions of
  * it. Survey answers are mostly discrete, so the table is far smaller than the wave.
  */
-public record NumericDistribution(double[] values, long[] counts) {
+public record NumericDistribution(double[] values, long[] counts) implements Quantiles.Table {
 
     public NumericDistribution {
         if (values.length != counts.length) {

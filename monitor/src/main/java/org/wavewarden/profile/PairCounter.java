@@ -32,7 +32,7 @@ public final class PairCounter {
 
     private final int maxPairs;
     private int level = -1;
-    private ValueIndex pairs = ValueIndex.ofLongs(); // (x bits, y bits) numbered; each pair's count in counts
+    private ValueIndex pairs = ValueIndex.ofPairs(); // (x bits, y bits) numbered; each pair's count in counts
     private long[] counts = new long[64];
 
     /** @param maxPairs distinct pairs counted exactly, at least 1 */
@@ -131,7 +131,7 @@ public final class PairCounter {
         level = newLevel;
         ValueIndex old = pairs;
         long[] oc = counts;
-        pairs = ValueIndex.ofLongs();
+        pairs = ValueIndex.ofPairs();
         counts = new long[Math.max(64, old.size())];
         for (int e = 0; e < old.size(); e++) {
             double x = RelativeBins.binnedValue(Double.longBitsToDouble(old.first(e)), level);

@@ -8,21 +8,24 @@ import java.util.Arrays;
  *
  * <p>A key is either one or two {@code long}s (a value's bits; a pair of values; a PSU and a value) or a byte string
  * (a text or {@code numeric} cell), fixed when the index is made. Open addressing with linear probing over a slot
- * table at most half full, which doubles as it fills; a slot holds its entry's number plus one, zero when empty, so
- * growing rehashes entry numbers from their stored hashes and never moves the caller's arrays. A key new to the index
- * gets the number {@link #size()} had before the call, which is how a caller tells a new key from one seen before.
+ * table at most half full, which doubles as it fills. A slot holds its entry's number plus one (zero when empty)
+ * beside the key's longs (for a byte string: its hash), so a probe compares keys without leaving the slot table;
+ * the keys are kept per entry as well, for reading them back. A key new to the index gets the number
+ * {@link #size()} had before the call, which is how a caller tells a new key from one seen before; growing never
+ * renumbers entries, so the caller's arrays never move.
  */
 public final class ValueIndex {
 
     /** What a key is; an index holds keys of one kind. */
-    private enum Kind { LONGS, BYTES }
+    private enum Kind { LONG, PAIR, BYTES }
 
     private final Kind kind;
     private int[] slots = new int[64];
-    private int[] hashes = new int[32];
-    private long[] first = new long[32];
+    private long[] slotFirst = new long[64]; // for bytes: the key's hash
+    private long[] slotSecond; // for pairs only
+    private long[] first = new long[32]; // for bytes: the key's offset in the arena
     private long[] second = new long[32]; // for bytes: the key's length; for longs: the second long (0 when one)
-    private byte[] arena; // for bytes: each key once, back to back; first[] holds its offset
+    private byte[] arena; // for bytes: each key once, back to back
     private int used;
     private int size;
 
@@ -31,11 +34,19 @@ public final class ValueIndex {
         if (kind == Kind.BYTES) {
             arena = new byte[1024];
         }
+        if (kind == Kind.PAIR) {
+            slotSecond = new long[slots.length];
+        }
     }
 
-    /** An index keyed by one long or by two longs (one key kind per index: always one, or always two). */
+    /** An index keyed by one long; its keys are {@code (key, 0)} to the methods that take two. */
     public static ValueIndex ofLongs() {
-        return new ValueIndex(Kind.LONGS);
+        return new ValueIndex(Kind.LONG);
+    }
+
+    /** An index keyed by pairs of longs. */
+    public static ValueIndex ofPairs() {
+        return new ValueIndex(Kind.PAIR);
     }
 
     /** An index keyed by byte strings. */
@@ -63,22 +74,15 @@ public final class ValueIndex {
      * {@code limit} are held, else the result is -1.
      */
     public int add(long a, long b, int limit) {
-        requireKind(Kind.LONGS);
-        int h = mix(a, b);
-        int mask = slots.length - 1;
-        int i = h & mask;
-        int e;
-        while ((e = slots[i]) != 0) {
-            e--;
-            if (first[e] == a && second[e] == b) {
-                return e;
-            }
-            i = (i + 1) & mask;
+        requireLongs(b);
+        int i = probe(a, b, mix(a, b));
+        if (slots[i] != 0) {
+            return slots[i] - 1;
         }
         if (size >= limit) {
             return -1;
         }
-        e = claim(i, h);
+        int e = claim(i, a, b);
         first[e] = a;
         second[e] = b;
         return e;
@@ -91,18 +95,18 @@ public final class ValueIndex {
 
     /** The entry of a pair of longs, or -1 when it is not held. */
     public int find(long a, long b) {
-        requireKind(Kind.LONGS);
+        requireLongs(b);
+        return slots[probe(a, b, mix(a, b))] - 1;
+    }
+
+    /** The slot holding the key (a, b), or the empty slot where it would go. */
+    private int probe(long a, long b, int h) {
         int mask = slots.length - 1;
-        int i = mix(a, b) & mask;
-        int e;
-        while ((e = slots[i]) != 0) {
-            e--;
-            if (first[e] == a && second[e] == b) {
-                return e;
-            }
+        int i = h & mask;
+        while (slots[i] != 0 && (slotFirst[i] != a || slotSecond != null && slotSecond[i] != b)) {
             i = (i + 1) & mask;
         }
-        return -1;
+        return i;
     }
 
     /**
@@ -117,7 +121,7 @@ public final class ValueIndex {
         int e;
         while ((e = slots[i]) != 0) {
             e--;
-            if (hashes[e] == h && second[e] == len
+            if (slotFirst[i] == h && second[e] == len
                     && Arrays.equals(arena, (int) first[e], (int) first[e] + len, b, p, p + len)) {
                 return e;
             }
@@ -130,7 +134,7 @@ public final class ValueIndex {
             arena = Arrays.copyOf(arena, Math.max(arena.length * 2, used + len));
         }
         System.arraycopy(b, p, arena, used, len);
-        e = claim(i, h);
+        e = claim(i, h, 0);
         first[e] = used;
         second[e] = len;
         used += len;
@@ -139,13 +143,13 @@ public final class ValueIndex {
 
     /** The first long of an entry's key (the key itself for an index of single longs). */
     public long first(int entry) {
-        requireKind(Kind.LONGS);
+        requireLongs(0);
         return first[check(entry)];
     }
 
     /** The second long of an entry's key. */
     public long second(int entry) {
-        requireKind(Kind.LONGS);
+        requireLongs(0);
         return second[check(entry)];
     }
 
@@ -173,16 +177,17 @@ public final class ValueIndex {
         return entry < length ? length : Math.max(entry + 1, length * 2);
     }
 
-    private int claim(int slot, int h) {
+    private int claim(int slot, long a, long b) {
         int e = size;
-        if (e == hashes.length) {
-            int n = e * 2;
-            hashes = Arrays.copyOf(hashes, n);
-            first = Arrays.copyOf(first, n);
-            second = Arrays.copyOf(second, n);
+        if (e == first.length) {
+            first = Arrays.copyOf(first, e * 2);
+            second = Arrays.copyOf(second, e * 2);
         }
-        hashes[e] = h;
         slots[slot] = ++size;
+        slotFirst[slot] = a;
+        if (slotSecond != null) {
+            slotSecond[slot] = b;
+        }
         if (size * 2 > slots.length) {
             rehash();
         }
@@ -190,14 +195,28 @@ public final class ValueIndex {
     }
 
     private void rehash() {
-        slots = new int[slots.length * 2];
+        int[] oldSlots = slots;
+        long[] oldFirst = slotFirst;
+        long[] oldSecond = slotSecond;
+        slots = new int[oldSlots.length * 2];
+        slotFirst = new long[slots.length];
+        slotSecond = oldSecond == null ? null : new long[slots.length];
         int mask = slots.length - 1;
-        for (int e = 0; e < size; e++) {
-            int i = hashes[e] & mask;
+        for (int j = 0; j < oldSlots.length; j++) {
+            if (oldSlots[j] == 0) {
+                continue;
+            }
+            long b = oldSecond == null ? 0 : oldSecond[j];
+            int h = kind == Kind.BYTES ? (int) oldFirst[j] : mix(oldFirst[j], b);
+            int i = h & mask;
             while (slots[i] != 0) {
                 i = (i + 1) & mask;
             }
-            slots[i] = e + 1;
+            slots[i] = oldSlots[j];
+            slotFirst[i] = oldFirst[j];
+            if (slotSecond != null) {
+                slotSecond[i] = b;
+            }
         }
     }
 
@@ -206,6 +225,13 @@ public final class ValueIndex {
             throw new IndexOutOfBoundsException("entry " + entry + " of " + size);
         }
         return entry;
+    }
+
+    /** Longs are asked of an index of longs or pairs; a second long other than 0 of an index of pairs only. */
+    private void requireLongs(long second) {
+        if (kind == Kind.BYTES || kind == Kind.LONG && second != 0) {
+            throw new IllegalStateException("this index is keyed by " + kind + ", not by pairs of longs");
+        }
     }
 
     private void requireKind(Kind k) {

@@ -35,7 +35,7 @@ import java.util.function.LongFunction;
  * {@code ::text} cast would not do, because some types cast to text differently than they print ({@code boolean}
  * gives {@code true}, {@code inet} adds its netmask).
  */
-public final class BinaryWaveScanner {
+public final class BinaryWaveScanner implements WaveScanner {
 
     private final int maxDistinct;
     private final int exactNumbers;
@@ -58,33 +58,12 @@ public final class BinaryWaveScanner {
         this.exactNumbers = exactNumbers;
     }
 
-    /** The scan without weight, design or pairs. */
-    public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
-                                     LongConsumer progress) {
-        return scan(h, source, wave, columns, null, null, List.of(), progress);
-    }
-
-    /** The scan with a weight column and no sampling design. */
-    public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
-                                     SourceColumn weight, LongConsumer progress) {
-        return scan(h, source, wave, columns, weight, null, List.of(), progress);
-    }
-
-    /** The scan with a weight column and a sampling design, without pairs. */
-    public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
-                                     SourceColumn weight, WaveScanner.Design design, LongConsumer progress) {
-        return scan(h, source, wave, columns, weight, design, List.of(), progress);
-    }
-
     /**
-     * Same contract as {@link WaveScanner#scan}: the wave's row count, one tally per requested column and, with a
-     * weight column, each value's sum of weights and of squared weights; with a design, the PSU sums of
-     * {@link org.wavewarden.profile.DesignSummary} (a weight that is NULL or invalid counts as zero there); with
-     * pairs, one joint tally per pair, its cells decoded to doubles as they pass into one array reused for every row.
-     *
-     * @param design the stratum and cluster columns, or null
-     * @param pairs  pairs of numeric columns among {@code columns} to tally jointly, possibly none
+     * With a design, the PSU sums of {@link DesignSummary} (a weight that is NULL or invalid counts as zero there);
+     * with pairs, one joint tally per pair, its cells decoded to doubles as they pass into one array reused for
+     * every row.
      */
+    @Override
     public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
                                      SourceColumn weight, WaveScanner.Design design, List<PairSpec> pairs,
                                      LongConsumer progress) {

@@ -75,9 +75,9 @@ enum Decode {
         };
     }
 
-    /** A weight cell, or NaN when it is not a finite non-negative number (as {@link WaveScanner#weight}). */
+    /** A weight cell, or NaN when it is not a finite non-negative number (as {@link #weight(String)}). */
     double weight(byte[] b, int p, int len) {
-        double w = isNumber() ? number(b, p, len) : WaveScanner.weight(new String(b, p, len, StandardCharsets.UTF_8));
+        double w = isNumber() ? number(b, p, len) : weight(new String(b, p, len, StandardCharsets.UTF_8));
         return w >= 0 && Double.isFinite(w) ? w : Double.NaN;
     }
 
@@ -122,5 +122,14 @@ enum Decode {
             POW10[i] = v;
             v *= 10;
         }
+    }
+
+    /** A weight as the text form gives it, or NaN when it is NULL, not a number, negative or infinite. */
+    static double weight(String text) {
+        if (text == null || !org.wavewarden.missing.NumberText.isPlainDecimal(text)) {
+            return Double.NaN;
+        }
+        double w = Double.parseDouble(text);
+        return w >= 0 && Double.isFinite(w) ? w : Double.NaN;
     }
 }

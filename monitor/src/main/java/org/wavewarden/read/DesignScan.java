@@ -103,7 +103,7 @@ final class DesignScan {
         private double[] weightedSum = new double[16];
         private double[] weightedSquares = new double[16];
         private int psus;
-        private ValueIndex cells = ValueIndex.ofLongs(); // (psu, value key) numbered; its weight in cellWeight
+        private ValueIndex cells = ValueIndex.ofPairs(); // (psu, value key) numbered; its weight in cellWeight
         private double[] cellWeight = new double[256];
 
         Column(boolean numeric) {
@@ -133,7 +133,7 @@ final class DesignScan {
             exact = false;
             ValueIndex before = cells;
             double[] weights = cellWeight;
-            cells = ValueIndex.ofLongs();
+            cells = ValueIndex.ofPairs();
             cellWeight = new double[256];
             for (int e = 0; e < before.size(); e++) {
                 double x = valueOf.applyAsDouble(before.second(e));

@@ -1,5 +1,6 @@
 package org.wavewarden.read;
 
+import org.jdbi.v3.core.Handle;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.DesignSummary;
 import org.wavewarden.profile.JointTally;
@@ -9,19 +10,50 @@ import java.util.Arrays;
 import java.util.List;
 import java.util.Map;
 import java.util.Objects;
+import java.util.function.LongConsumer;
 
 /**
- * What reading one wave gives ({@link WaveScan}), what it is asked for ({@link Design}), its limits and its one
- * failure ({@link SourceReadException}): the contract {@link BinaryWaveScanner} fulfils in one {@code COPY} pass, so
- * the JVM holds frequency tables, never rows.
+ * Reads one wave's columns into frequency tables in one pass, so the JVM holds tallies, never rows: what a scan is
+ * asked for ({@link Design}, {@link PairSpec}), what it gives ({@link WaveScan}), its limits and its one failure
+ * ({@link SourceReadException}). {@link BinaryWaveScanner} is the scanner.
  */
-public final class WaveScanner {
+public interface WaveScanner {
 
-    private WaveScanner() {
+    /**
+     * Reads the columns of one wave in one pass.
+     *
+     * @param weight   a survey weight column read in the same pass, or null; each value's weight sum and sum of
+     *                 squared weights are kept beside its count (for weighted shares and Kish's effective sample
+     *                 size)
+     * @param design   the stratum and cluster columns, or null
+     * @param pairs    pairs of numeric columns among {@code columns} whose joint values are tallied in the same
+     *                 pass, over the rows where both cells are finite numbers, possibly none
+     * @param progress told the rows read so far now and then, or null
+     * @throws SourceReadException when the source cannot be read
+     */
+    WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, SourceColumn weight,
+                  Design design, List<PairSpec> pairs, LongConsumer progress);
+
+    /** The scan without weight, design or pairs. */
+    default WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
+                          LongConsumer progress) {
+        return scan(h, source, wave, columns, null, null, List.of(), progress);
+    }
+
+    /** The scan with a weight column, without design or pairs. */
+    default WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, SourceColumn weight,
+                          LongConsumer progress) {
+        return scan(h, source, wave, columns, weight, null, List.of(), progress);
+    }
+
+    /** The scan with a weight column and a design, without pairs. */
+    default WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, SourceColumn weight,
+                          Design design, LongConsumer progress) {
+        return scan(h, source, wave, columns, weight, design, List.of(), progress);
     }
 
     /** Default cap on distinct values kept per non-numeric column; beyond it the tally is marked truncated. */
-    public static final int DEFAULT_MAX_DISTINCT = 100_000;
+    int DEFAULT_MAX_DISTINCT = 100_000;
 
     /**
      * Default number of distinct values a numeric column is counted exactly up to; beyond it the column is
@@ -29,10 +61,10 @@ public final class WaveScanner {
      * rounded amount exactly; what has more is a measurement or an amount to the cent, where 0.05% is finer than
      * any shift worth reporting.
      */
-    public static final int DEFAULT_EXACT_NUMBERS = 10_000;
+    int DEFAULT_EXACT_NUMBERS = 10_000;
 
     /** Longer values are kept as a prefix plus length and hash, so a free-text essay cannot bloat a summary. */
-    public static final int MAX_VALUE_CHARS = 256;
+    int MAX_VALUE_CHARS = 256;
 
     /**
      * The result of one scan: the wave's row count, one tally per requested column and, with a weight column, per
@@ -41,7 +73,7 @@ public final class WaveScanner {
      * design, the PSU sums of {@link DesignSummary}; with pairs requested, one joint tally per pair, in the order
      * requested.
      */
-    public record WaveScan(long rows, Map<String, ColumnTally> columns, Map<String, Map<String, double[]>> weights,
+    record WaveScan(long rows, Map<String, ColumnTally> columns, Map<String, Map<String, double[]>> weights,
                            long badWeights, DesignSummary design, List<JointTally> pairs) {
 
         public WaveScan {
@@ -60,7 +92,7 @@ public final class WaveScanner {
         }
     }
 
-    static boolean sameWeights(Map<String, Map<String, double[]>> a, Map<String, Map<String, double[]>> b) {
+    private static boolean sameWeights(Map<String, Map<String, double[]>> a, Map<String, Map<String, double[]>> b) {
         if (!a.keySet().equals(b.keySet())) {
             return false;
         }
@@ -80,20 +112,11 @@ public final class WaveScanner {
     }
 
     /** The stratum column (null for one stratum) and the cluster column of a wave's sampling design. */
-    public record Design(SourceColumn strata, SourceColumn clusters) {
-    }
-
-    /** A weight as the text form gives it, or NaN when it is NULL, not a number, negative or infinite. */
-    static double weight(String text) {
-        if (text == null || !org.wavewarden.missing.NumberText.isPlainDecimal(text)) {
-            return Double.NaN;
-        }
-        double w = Double.parseDouble(text);
-        return w >= 0 && Double.isFinite(w) ? w : Double.NaN;
+    record Design(SourceColumn strata, SourceColumn clusters) {
     }
 
     /** The source could not be read (an outage, a permission problem); the run is retried, not judged. */
-    public static final class SourceReadException extends RuntimeException {
+    final class SourceReadException extends RuntimeException {
         private static final long serialVersionUID = 1L;
 
         public SourceReadException(String message, Throwable cause) {

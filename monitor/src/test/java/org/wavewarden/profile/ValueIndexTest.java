@@ -72,7 +72,7 @@ class ValueIndexTest {
     @Test
     void pairsOfLongsAreKeysInBothTheirParts() {
         Random r = new Random(23);
-        ValueIndex index = ValueIndex.ofLongs();
+        ValueIndex index = ValueIndex.ofPairs();
         Map<List<Long>, Integer> reference = new HashMap<>();
         for (int i = 0; i < 40_000; i++) {
             long a = r.nextInt(200);
@@ -130,6 +130,7 @@ class ValueIndexTest {
     @Test
     void anIndexRefusesKeysOfTheOtherKind() {
         assertThrows(IllegalStateException.class, () -> ValueIndex.ofBytes().add(1L));
+        assertThrows(IllegalStateException.class, () -> ValueIndex.ofLongs().add(1L, 2L));
         assertThrows(IllegalStateException.class, () -> ValueIndex.ofLongs().add(new byte[1], 0, 1, 5));
         assertThrows(IndexOutOfBoundsException.class, () -> ValueIndex.ofLongs().first(0));
     }

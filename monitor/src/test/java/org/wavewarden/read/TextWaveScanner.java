@@ -23,7 +23,7 @@ import java.util.function.LongConsumer;
  * fields are exactly what PostgreSQL's output functions print, and tallies each column's distinct values as they
  * arrive. It reads no sampling design.
  */
-public final class TextWaveScanner {
+public final class TextWaveScanner implements WaveScanner {
 
     private final int maxDistinct;
     private final int exactNumbers;
@@ -32,24 +32,18 @@ public final class TextWaveScanner {
         this(maxDistinct, WaveScanner.DEFAULT_EXACT_NUMBERS);
     }
 
-    /**
-     * @param maxDistinct  distinct values kept per non-numeric column
-     * @param exactNumbers distinct values a numeric column is counted exactly up to
-     */
+    /** The limits as {@link BinaryWaveScanner#BinaryWaveScanner(int, int)} takes them. */
     public TextWaveScanner(int maxDistinct, int exactNumbers) {
-        if (maxDistinct < 1 || exactNumbers < 1) {
-            throw new IllegalArgumentException("maxDistinct and exactNumbers must be positive, were " + maxDistinct
-                    + " and " + exactNumbers);
-        }
         this.maxDistinct = maxDistinct;
         this.exactNumbers = exactNumbers;
     }
 
     /**
-     * The scanner interface's form: this reference scanner reads no sampling design (the binary scanner does).
+     * This reference scanner reads no sampling design (the binary scanner does).
      *
      * @throws IllegalArgumentException when a design is given
      */
+    @Override
     public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
                                      SourceColumn weight, WaveScanner.Design design, List<PairSpec> pairs,
                                      LongConsumer progress) {
@@ -59,32 +53,7 @@ public final class TextWaveScanner {
         return read(h, source, wave, columns, weight, pairs, progress);
     }
 
-    /** The scan without pairs. */
-    public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
-                                     SourceColumn weight, WaveScanner.Design design, LongConsumer progress) {
-        return scan(h, source, wave, columns, weight, design, List.of(), progress);
-    }
-
-    /** {@link #scan(Handle, WaveSource, String, List, SourceColumn, LongConsumer)} without a weight column. */
-    public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
-                                     LongConsumer progress) {
-        return read(h, source, wave, columns, null, List.of(), progress);
-    }
-
-    /** A scan with a weight column, without design or pairs. */
-    public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
-                                     SourceColumn weight, LongConsumer progress) {
-        return read(h, source, wave, columns, weight, List.of(), progress);
-    }
-
-    /**
-     * Reads the columns of one wave in one pass.
-     *
-     * @param weight a survey weight column read in the same pass, or null; each value's weight sum and sum of
-     *               squared weights are kept beside its count (for weighted shares and Kish's effective sample size)
-     * @param pairs  pairs of numeric columns among {@code columns} whose joint values are tallied in the same pass,
-     *               over the rows where both cells are finite numbers ({@link PairCounter})
-     */
+    /** The joint tallies of pairs count rows where both cells are finite numbers ({@link PairCounter}). */
     private WaveScanner.WaveScan read(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
                                       SourceColumn weight, List<PairSpec> pairs, LongConsumer progress) {
         boolean weighted = weight != null;
@@ -128,7 +97,7 @@ public final class TextWaveScanner {
                 }
                 double w = Double.NaN;
                 if (weighted) {
-                    w = WaveScanner.weight(fields[k]);
+                    w = Decode.weight(fields[k]);
                     if (Double.isNaN(w)) {
                         badWeights++;
                     }

@@ -1,5 +1,6 @@
 package org.wavewarden.compare.categorical;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
 
 /**
@@ -21,9 +22,7 @@ public final class CohensW {
     }
 
     public static EffectSize fromStatistic(double x2, double df, double n, double confidence) {
-        if (!(confidence > 0 && confidence < 1)) {
-            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
-        }
+        Checks.confidence(confidence);
         if (n <= 0 || df <= 0) {
             return new EffectSize(NAME, 0, 0, 0, confidence);
         }

@@ -2,6 +2,7 @@ package org.wavewarden.compare.categorical;
 
 import java.util.function.DoubleUnaryOperator;
 import org.apache.commons.math3.analysis.solvers.BrentSolver;
+import org.wavewarden.compare.Checks;
 
 /**
  * A confidence interval for the noncentrality parameter of a chi-square statistic, found by inverting the
@@ -17,9 +18,7 @@ final class NoncentralityInterval {
 
     /** Returns {lower, upper} for the noncentrality of {@code x2} on {@code df} degrees of freedom. */
     static double[] of(double x2, double df, double confidence) {
-        if (!(confidence > 0 && confidence < 1)) {
-            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
-        }
+        Checks.confidence(confidence);
         if (df <= 0 || !(x2 > 0)) {
             return new double[] {0, 0};
         }

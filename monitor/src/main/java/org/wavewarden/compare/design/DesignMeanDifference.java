@@ -2,6 +2,7 @@ package org.wavewarden.compare.design;
 
 import org.apache.commons.math3.distribution.TDistribution;
 import org.apache.commons.math3.random.RandomGenerator;
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
 import org.wavewarden.compare.TestResult;
 
@@ -39,7 +40,7 @@ public final class DesignMeanDifference {
      */
     public static DesignMeanDifferenceResult test(double[] baselineValues, SurveyDesign baseline,
                                                   double[] currentValues, SurveyDesign current, double confidence) {
-        checkConfidence(confidence);
+        Checks.confidence(confidence);
         DesignEstimate a = WeightedEstimates.mean(baselineValues, baseline);
         DesignEstimate b = WeightedEstimates.mean(currentValues, current);
         return combine(a, b, baseline.degreesOfFreedom() + current.degreesOfFreedom(), confidence,
@@ -51,7 +52,7 @@ public final class DesignMeanDifference {
      * freedom (n respondents, each its own PSU, one stratum), so {@code df = n_baseline + n_current - 2}.
      */
     public static DesignMeanDifferenceResult test(WeightedTally baseline, WeightedTally current, double confidence) {
-        checkConfidence(confidence);
+        Checks.confidence(confidence);
         DesignEstimate a = TallyEstimates.mean(baseline);
         DesignEstimate b = TallyEstimates.mean(current);
         return combine(a, b, baseline.n() - 1 + current.n() - 1, confidence, "difference of weighted means");
@@ -63,7 +64,7 @@ public final class DesignMeanDifference {
      */
     public static DesignMeanDifferenceResult testShares(WeightedTally baseline, WeightedTally current,
                                                         double confidence) {
-        checkConfidence(confidence);
+        Checks.confidence(confidence);
         checkBinary(baseline == null ? null : baseline.values(), current == null ? null : current.values());
         DesignEstimate a = TallyEstimates.mean(baseline);
         DesignEstimate b = TallyEstimates.mean(current);
@@ -76,7 +77,7 @@ public final class DesignMeanDifference {
      * answers, which is the design's #PSU - #strata when no answer is missing.
      */
     public static DesignMeanDifferenceResult test(PsuTotals baseline, PsuTotals current, double confidence) {
-        checkConfidence(confidence);
+        Checks.confidence(confidence);
         if (baseline == null || current == null) {
             throw new IllegalArgumentException("baseline and current totals must not be null");
         }
@@ -89,7 +90,7 @@ public final class DesignMeanDifference {
      * designs; the effect is in proportion units and df as in {@link #test(PsuTotals, PsuTotals, double)}.
      */
     public static DesignMeanDifferenceResult testShares(PsuTally baseline, PsuTally current, double confidence) {
-        checkConfidence(confidence);
+        Checks.confidence(confidence);
         if (baseline == null || current == null) {
             throw new IllegalArgumentException("baseline and current tallies must not be null");
         }
@@ -104,7 +105,7 @@ public final class DesignMeanDifference {
     public static DesignMeanDifferenceResult testShares(boolean[] baselineHits, SurveyDesign baseline,
                                                         boolean[] currentHits, SurveyDesign current,
                                                         double confidence) {
-        checkConfidence(confidence);
+        Checks.confidence(confidence);
         DesignEstimate a = WeightedEstimates.share(baselineHits, baseline);
         DesignEstimate b = WeightedEstimates.share(currentHits, current);
         return combine(a, b, baseline.degreesOfFreedom() + current.degreesOfFreedom(), confidence,
@@ -138,12 +139,6 @@ public final class DesignMeanDifference {
                     throw new IllegalArgumentException("share tallies must hold the values 0 and 1 only, found " + v);
                 }
             }
-        }
-    }
-
-    private static void checkConfidence(double confidence) {
-        if (!(confidence > 0 && confidence < 1)) {
-            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
         }
     }
 }

@@ -40,6 +40,45 @@ final class DesignVariance {
     }
 
     /**
+     * The covariance of weighted shares of cells under a weights-only design (each respondent its own PSU, with
+     * replacement), from one wave's per-cell sums alone: with {@code T} the weight the shares are of and a cell's
+     * linearised score {@code z_i[c] = w_i (1[c = cell of i] - p_c) / T}, it is {@code n/(n - 1) (sum_i z_i z_i' -
+     * S S' / n)}, where {@code S[c] = (W_c - W p_c) / T} and {@code sum_i z_i[c] z_i[d] = (1[c = d] Q_c - Q_c p_d -
+     * p_c Q_d + Q p_c p_d) / T^2}, W and Q the wave's totals (Woodruff 1971; Wolter 2007, Chapter 6). A cell of
+     * another wave, stacked beside this one, has {@code W_c = Q_c = 0} here.
+     *
+     * @param n     respondents of the wave
+     * @param total T, the weight the shares are taken of (the wave's, or that of the stacked waves)
+     * @param w     sum of weights per cell in this wave
+     * @param q     sum of squared weights per cell in this wave
+     * @param p     share of T per cell
+     * @return the covariance matrix of the shares, {@code p.length} square
+     */
+    static double[][] weightsOnlyShares(long n, double total, double[] w, double[] q, double[] p) {
+        int m = p.length;
+        double wave = 0;
+        double waveSquares = 0;
+        for (int c = 0; c < m; c++) {
+            wave += w[c];
+            waveSquares += q[c];
+        }
+        double[] s = new double[m];
+        for (int c = 0; c < m; c++) {
+            s[c] = (w[c] - wave * p[c]) / total;
+        }
+        double t2 = total * total;
+        double[][] v = new double[m][m];
+        for (int c = 0; c < m; c++) {
+            for (int d = 0; d <= c; d++) {
+                double zz = ((c == d ? q[c] : 0) - q[c] * p[d] - p[c] * q[d] + waveSquares * p[c] * p[d]) / t2;
+                v[c][d] = n / (n - 1.0) * (zz - s[c] * s[d] / n);
+                v[d][c] = v[c][d];
+            }
+        }
+        return v;
+    }
+
+    /**
      * The same from the PSU totals themselves. The number of PSUs of a stratum is the number of entries of
      * {@code psuStratum} naming it, so a PSU whose totals are all zero (no respondent of a domain) still counts.
      *

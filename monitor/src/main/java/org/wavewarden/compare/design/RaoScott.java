@@ -128,31 +128,15 @@ public final class RaoScott {
         }
         double[][] v = new double[2 * k][2 * k];
         for (int h = 0; h < 2; h++) {
-            long nh = waves[h].n();
-            double wh = 0;
-            double qh = 0;
-            for (int c = h * k; c < (h + 1) * k; c++) {
-                wh += w[c];
-                qh += q[c];
-            }
-            double[] s = new double[2 * k];
+            double[] wh = new double[2 * k];
+            double[] qh = new double[2 * k];
+            System.arraycopy(w, h * k, wh, h * k, k);
+            System.arraycopy(q, h * k, qh, h * k, k);
+            double[][] vh = DesignVariance.weightsOnlyShares(waves[h].n(), total, wh, qh, p);
             for (int c = 0; c < 2 * k; c++) {
-                boolean mine = c / k == h;
-                s[c] = ((mine ? w[c] : 0) - wh * p[c]) / total;
-            }
-            double t2 = total * total;
-            for (int c = 0; c < 2 * k; c++) {
-                double qc = c / k == h ? q[c] : 0;
-                for (int d = 0; d <= c; d++) {
-                    double qd = d / k == h ? q[d] : 0;
-                    double zz = ((c == d ? qc : 0) - qc * p[d] - p[c] * qd + qh * p[c] * p[d]) / t2;
-                    v[c][d] += nh / (nh - 1.0) * (zz - s[c] * s[d] / nh);
+                for (int d = 0; d < 2 * k; d++) {
+                    v[c][d] += vh[c][d];
                 }
-            }
-        }
-        for (int c = 0; c < 2 * k; c++) {
-            for (int d = c + 1; d < 2 * k; d++) {
-                v[c][d] = v[d][c];
             }
         }
         long n = baseline.n() + current.n();

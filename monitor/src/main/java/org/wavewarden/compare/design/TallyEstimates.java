@@ -73,30 +73,19 @@ public final class TallyEstimates {
         long n = t.n();
         double total = t.totalWeight();
         double[] p = new double[kept];
+        double[] w = new double[kept];
+        double[] q = new double[kept];
         for (int c = 0; c < kept; c++) {
-            p[c] = t.weight(index[c]) / total;
+            w[c] = t.weight(index[c]);
+            q[c] = t.squaredWeight(index[c]);
+            p[c] = w[c] / total;
         }
-        double[][] cov = new double[kept][kept];
-        double[] s = new double[kept];
-        double[] ss = new double[kept];
-        for (int i = 0; i < t.size(); i++) {
-            for (int c = 0; c < kept; c++) {
-                double ec = (index[c] == i ? 1 : 0) - p[c];
-                s[c] += t.weight(i) * ec / total;
-                ss[c] += t.weight(i) * ec * ec;
-                for (int d = 0; d <= c; d++) {
-                    double ed = (index[d] == i ? 1 : 0) - p[d];
-                    cov[c][d] += t.squaredWeight(i) * ec * ed / (total * total);
-                }
-            }
-        }
+        double[][] cov = DesignVariance.weightsOnlyShares(n, total, w, q, p);
         DesignEstimate[] estimates = new DesignEstimate[kept];
         for (int c = 0; c < kept; c++) {
-            for (int d = 0; d <= c; d++) {
-                cov[c][d] = n / (n - 1.0) * (cov[c][d] - s[c] * s[d] / n);
-                cov[d][c] = cov[c][d];
-            }
-            estimates[c] = estimate(p[c], cov[c][c], n / (n - 1.0) * ss[c] / total, n, total);
+            // s_w^2 of the indicator: sum_i w_i (1[c] - p_c)^2 = W_c (1 - p_c)^2 + (W - W_c) p_c^2
+            double ss = w[c] * (1 - p[c]) * (1 - p[c]) + (total - w[c]) * p[c] * p[c];
+            estimates[c] = estimate(p[c], cov[c][c], n / (n - 1.0) * ss / total, n, total);
         }
         return new CategoryShares(codes, p, estimates, cov);
     }

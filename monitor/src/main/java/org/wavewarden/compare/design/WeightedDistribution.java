@@ -1,5 +1,7 @@
 package org.wavewarden.compare.design;
 
+import org.wavewarden.compare.Checks;
+
 /**
  * The weighted empirical distribution function {@code F_w(x) = sum of weights of values <= x / W} of a
  * {@link WeightedTally}, its quantiles and the largest gap between two waves' functions.
@@ -20,9 +22,7 @@ public final class WeightedDistribution {
 
     /** {@code min {x : F_w(x) >= p}} for p in (0, 1). */
     public static double quantile(WeightedTally t, double p) {
-        if (!(p > 0 && p < 1)) {
-            throw new IllegalArgumentException("p must lie in (0, 1), was " + p);
-        }
+        Checks.openUnit(p, "p");
         double total = total(t);
         double target = p * total - TIE * total;
         double cum = 0;

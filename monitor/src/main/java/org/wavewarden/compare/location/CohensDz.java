@@ -1,8 +1,8 @@
 package org.wavewarden.compare.location;
 
-import org.apache.commons.math3.distribution.NormalDistribution;
-import org.apache.commons.math3.random.RandomGenerator;
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
+import org.wavewarden.compare.StandardNormal;
 
 /**
  * Cohen's d_z, the standardised mean of paired differences: {@code mean(current - baseline) / sd(current -
@@ -22,9 +22,6 @@ public final class CohensDz {
     public static final String NAME = "Cohen's d_z";
     /** Above this number of pairs the normal interval replaces the noncentral t inversion. */
     public static final long NORMAL_APPROXIMATION_ABOVE = 100_000;
-
-    private static final NormalDistribution STANDARD_NORMAL = new NormalDistribution((RandomGenerator) null, 0, 1,
-            1e-12);
 
     private CohensDz() {
     }
@@ -48,7 +45,7 @@ public final class CohensDz {
         if (!Double.isFinite(meanDifference)) {
             throw new IllegalArgumentException("meanDifference must be finite, was " + meanDifference);
         }
-        TStatistics.checkConfidence(confidence);
+        Checks.confidence(confidence);
         double d = meanDifference / sdDifference;
         double root = Math.sqrt(pairs);
         if (pairs <= NORMAL_APPROXIMATION_ABOVE) {
@@ -61,7 +58,7 @@ public final class CohensDz {
                 return new EffectSize(NAME, d, low / root, high / root, confidence);
             }
         }
-        double z = STANDARD_NORMAL.inverseCumulativeProbability(0.5 + confidence / 2);
+        double z = StandardNormal.twoSidedQuantile(confidence);
         double se = Math.sqrt(1.0 / pairs + d * d / (2.0 * pairs));
         return new EffectSize(NAME, d, d - z * se, d + z * se, confidence);
     }

@@ -1,8 +1,8 @@
 package org.wavewarden.compare.location;
 
-import org.apache.commons.math3.distribution.NormalDistribution;
-import org.apache.commons.math3.random.RandomGenerator;
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
+import org.wavewarden.compare.StandardNormal;
 import org.wavewarden.profile.NumericDistribution;
 
 /**
@@ -34,9 +34,6 @@ public final class HedgesG {
     /** Above this total sample size the Hedges-Olkin normal interval replaces the noncentral t inversion. */
     public static final long NORMAL_APPROXIMATION_ABOVE = 100_000;
 
-    private static final NormalDistribution STANDARD_NORMAL = new NormalDistribution((RandomGenerator) null, 0, 1,
-            1e-12);
-
     private HedgesG() {
     }
 
@@ -54,7 +51,7 @@ public final class HedgesG {
         if (current == null || current.n() < 1) {
             throw new IllegalArgumentException("current needs at least 1 observation");
         }
-        TStatistics.checkConfidence(confidence);
+        Checks.confidence(confidence);
         long n1 = baseline.n();
         long n2 = current.n();
         double df = (double) n1 + n2 - 2;
@@ -121,7 +118,7 @@ public final class HedgesG {
     public static double[] normalInterval(double g, long n1, long n2, double confidence) {
         double n = (double) n1 + n2;
         double se = Math.sqrt(n / ((double) n1 * n2) + g * g / (2 * n));
-        double z = STANDARD_NORMAL.inverseCumulativeProbability(0.5 + confidence / 2);
+        double z = StandardNormal.twoSidedQuantile(confidence);
         return new double[] {g - z * se, g + z * se};
     }
 

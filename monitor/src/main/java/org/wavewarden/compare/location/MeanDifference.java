@@ -1,5 +1,6 @@
 package org.wavewarden.compare.location;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.TestResult;
 
 /**
@@ -24,9 +25,7 @@ public record MeanDifference(TestResult test, double meanBaseline, double meanCu
         if (test == null) {
             throw new IllegalArgumentException("test must not be null");
         }
-        if (!(confidence > 0 && confidence < 1)) {
-            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
-        }
+        Checks.confidence(confidence);
         if (ciLow > ciHigh) {
             throw new IllegalArgumentException("ciLow " + ciLow + " exceeds ciHigh " + ciHigh);
         }

@@ -1,5 +1,6 @@
 package org.wavewarden.compare.location;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.profile.NumericDistribution;
 
 /**
@@ -25,7 +26,7 @@ public final class OneSampleTTest {
         if (!Double.isFinite(mu)) {
             throw new IllegalArgumentException("mu must be finite, was " + mu);
         }
-        TStatistics.checkConfidence(confidence);
+        Checks.confidence(confidence);
         return of(NAME, sample, mu, confidence, mu, sample.mean());
     }
 

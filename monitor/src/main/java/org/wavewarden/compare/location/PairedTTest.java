@@ -1,5 +1,6 @@
 package org.wavewarden.compare.location;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.profile.NumericDistribution;
 
 /**
@@ -34,7 +35,7 @@ public final class PairedTTest {
         if (baseline.length < 2) {
             throw new IllegalArgumentException("baseline and current need at least 2 pairs, have " + baseline.length);
         }
-        TStatistics.checkConfidence(confidence);
+        Checks.confidence(confidence);
         double[] diff = new double[baseline.length];
         double sumB = 0;
         double sumC = 0;
@@ -74,7 +75,7 @@ public final class PairedTTest {
             throw new IllegalArgumentException("meanDifference and sdDifference must be finite, were "
                     + meanDifference + " and " + sdDifference);
         }
-        TStatistics.checkConfidence(confidence);
+        Checks.confidence(confidence);
         return TStatistics.result(NAME, meanDifference, sdDifference / Math.sqrt(pairs), pairs - 1.0, meanBaseline,
                 meanCurrent, confidence);
     }

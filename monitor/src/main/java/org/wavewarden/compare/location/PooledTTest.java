@@ -1,5 +1,6 @@
 package org.wavewarden.compare.location;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.profile.NumericDistribution;
 
 /**
@@ -30,7 +31,7 @@ public final class PooledTTest {
         if (current == null || current.n() < 1) {
             throw new IllegalArgumentException("current needs at least 1 observation");
         }
-        TStatistics.checkConfidence(confidence);
+        Checks.confidence(confidence);
         double n1 = baseline.n();
         double n2 = current.n();
         double df = n1 + n2 - 2;

@@ -11,12 +11,6 @@ final class TStatistics {
     private TStatistics() {
     }
 
-    static void checkConfidence(double confidence) {
-        if (!(confidence > 0 && confidence < 1)) {
-            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
-        }
-    }
-
     static void checkAtLeastTwo(String name, NumericDistribution d) {
         if (d == null) {
             throw new IllegalArgumentException(name + " must not be null");

@@ -1,5 +1,6 @@
 package org.wavewarden.compare.location;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.profile.NumericDistribution;
 
 /**
@@ -27,7 +28,7 @@ public final class WelchTTest {
     public static MeanDifference test(NumericDistribution baseline, NumericDistribution current, double confidence) {
         TStatistics.checkAtLeastTwo("baseline", baseline);
         TStatistics.checkAtLeastTwo("current", current);
-        TStatistics.checkConfidence(confidence);
+        Checks.confidence(confidence);
         double n1 = baseline.n();
         double n2 = current.n();
         double w1 = baseline.variance() / n1;

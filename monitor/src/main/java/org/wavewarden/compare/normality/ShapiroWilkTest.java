@@ -1,7 +1,6 @@
 package org.wavewarden.compare.normality;
 
-import org.apache.commons.math3.distribution.NormalDistribution;
-import org.apache.commons.math3.random.RandomGenerator;
+import org.wavewarden.compare.StandardNormal;
 import org.wavewarden.compare.TestResult;
 import org.wavewarden.profile.NumericDistribution;
 
@@ -24,8 +23,6 @@ public final class ShapiroWilkTest {
     public static final int MIN_N = 3;
     public static final int MAX_N = 5000;
 
-    private static final NormalDistribution STANDARD_NORMAL = new NormalDistribution((RandomGenerator) null, 0, 1,
-            1e-12);
     // Royston (1995), Table 1: polynomials in u = 1/sqrt(n) for the two largest coefficients
     private static final double[] C1 = {0.0, 0.221157, -0.147981, -2.071190, 4.434685, -2.706056};
     private static final double[] C2 = {0.0, 0.042981, -0.293762, -1.752461, 5.682633, -3.582633};
@@ -79,7 +76,7 @@ public final class ShapiroWilkTest {
         double[] m = new double[half];
         double summ2 = 0;
         for (int k = 0; k < half; k++) {
-            m[k] = -STANDARD_NORMAL.inverseCumulativeProbability((k + 1 - 0.375) / (n + 0.25));
+            m[k] = -StandardNormal.quantile((k + 1 - 0.375) / (n + 0.25));
             summ2 += m[k] * m[k];
         }
         summ2 *= 2;
@@ -158,7 +155,7 @@ public final class ShapiroWilkTest {
             mean = poly(MEAN_LARGE, ln);
             sd = Math.exp(poly(LOG_SD_LARGE, ln));
         }
-        return STANDARD_NORMAL.cumulativeProbability(-(y - mean) / sd);
+        return StandardNormal.cdf(-(y - mean) / sd);
     }
 
     private static double poly(double[] c, double x) {

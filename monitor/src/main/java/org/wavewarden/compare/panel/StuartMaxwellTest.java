@@ -1,15 +1,16 @@
 package org.wavewarden.compare.panel;
 
+import org.wavewarden.compare.Checks;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
 import java.util.stream.Collectors;
-import org.apache.commons.math3.distribution.NormalDistribution;
 import org.apache.commons.math3.linear.Array2DRowRealMatrix;
 import org.apache.commons.math3.linear.ArrayRealVector;
 import org.apache.commons.math3.linear.LUDecomposition;
 import org.apache.commons.math3.linear.RealVector;
 import org.wavewarden.compare.EffectSize;
+import org.wavewarden.compare.StandardNormal;
 import org.wavewarden.compare.TestResult;
 
 /**
@@ -58,8 +59,6 @@ public final class StuartMaxwellTest {
     public static final String NAME = "Stuart-Maxwell";
     public static final String EFFECT = "largest marginal share change (points)";
 
-    private static final NormalDistribution STANDARD_NORMAL = new NormalDistribution(null, 0, 1);
-
     private StuartMaxwellTest() {
     }
 
@@ -72,9 +71,7 @@ public final class StuartMaxwellTest {
      */
     public static StuartMaxwellResult test(long[][] table, double confidence) {
         SquareTables.check(table, "table");
-        if (!(confidence > 0 && confidence < 1)) {
-            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
-        }
+        Checks.confidence(confidence);
         int k = table.length;
         long[] before = SquareTables.rowTotals(table);
         long[] after = SquareTables.columnTotals(table);
@@ -113,7 +110,7 @@ public final class StuartMaxwellTest {
         double movedAway = before[largest] + after[largest] - 2.0 * table[largest][largest];
         double net = before[largest] - after[largest];
         double variance = Math.max(0, movedAway / (n * n) - net * net / (n * n * n));
-        double half = STANDARD_NORMAL.inverseCumulativeProbability(0.5 + confidence / 2) * Math.sqrt(variance);
+        double half = StandardNormal.twoSidedQuantile(confidence) * Math.sqrt(variance);
         EffectSize shift = new EffectSize(EFFECT, 100 * diff[largest], 100 * (diff[largest] - half),
                 100 * (diff[largest] + half), confidence);
 

@@ -1,6 +1,8 @@
 package org.wavewarden.compare.proportion;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
+import org.wavewarden.compare.StandardNormal;
 
 /**
  * Cohen's h, the difference of arcsine-transformed proportions h = 2 asin(sqrt(pC)) - 2 asin(sqrt(pB)) (Cohen 1988,
@@ -18,11 +20,11 @@ public final class CohensH {
 
     public static EffectSize estimate(long successesBaseline, long nBaseline, long successesCurrent, long nCurrent,
                                       double confidence) {
-        Proportions.checkCount(successesBaseline, nBaseline, "successesBaseline", "nBaseline");
-        Proportions.checkCount(successesCurrent, nCurrent, "successesCurrent", "nCurrent");
-        Proportions.checkConfidence(confidence);
+        Checks.successes(successesBaseline, nBaseline, "successesBaseline", "nBaseline");
+        Checks.successes(successesCurrent, nCurrent, "successesCurrent", "nCurrent");
+        Checks.confidence(confidence);
         double h = transform((double) successesCurrent / nCurrent) - transform((double) successesBaseline / nBaseline);
-        double half = Proportions.twoSidedQuantile(confidence) * Math.sqrt(1.0 / nBaseline + 1.0 / nCurrent);
+        double half = StandardNormal.twoSidedQuantile(confidence) * Math.sqrt(1.0 / nBaseline + 1.0 / nCurrent);
         return new EffectSize(NAME, h, h - half, h + half, confidence);
     }
 

@@ -1,6 +1,8 @@
 package org.wavewarden.compare.proportion;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
+import org.wavewarden.compare.StandardNormal;
 
 /**
  * Effect sizes for a binary answer given by the same respondents at two waves, from the paired 2 x 2 table
@@ -29,7 +31,7 @@ public final class PairedProportions {
      */
     public static EffectSize riskDifference(long bothYes, long yesNo, long noYes, long bothNo, double confidence) {
         long n = total(bothYes, yesNo, noYes, bothNo);
-        Proportions.checkConfidence(confidence);
+        Checks.confidence(confidence);
         long yesB = bothYes + yesNo;
         long yesC = bothYes + noYes;
         double pB = (double) yesB / n;
@@ -65,7 +67,7 @@ public final class PairedProportions {
      */
     public static EffectSize cohensH(long bothYes, long yesNo, long noYes, long bothNo, double confidence) {
         long n = total(bothYes, yesNo, noYes, bothNo);
-        Proportions.checkConfidence(confidence);
+        Checks.confidence(confidence);
         long yesB = bothYes + yesNo;
         long yesC = bothYes + noYes;
         long noB = noYes + bothNo;
@@ -74,7 +76,7 @@ public final class PairedProportions {
                 ? ((double) bothYes * bothNo - (double) yesNo * noYes) / Math.sqrt((double) yesB * noB * yesC * noC)
                 : 0;
         double h = 2 * Math.asin(Math.sqrt((double) yesC / n)) - 2 * Math.asin(Math.sqrt((double) yesB / n));
-        double half = Proportions.twoSidedQuantile(confidence) * Math.sqrt(Math.max(0, 2 * (1 - phi)) / n);
+        double half = StandardNormal.twoSidedQuantile(confidence) * Math.sqrt(Math.max(0, 2 * (1 - phi)) / n);
         return new EffectSize(CohensH.NAME, h, h - half, h + half, confidence);
     }
 

@@ -1,6 +1,8 @@
 package org.wavewarden.compare.proportion;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
+import org.wavewarden.compare.StandardNormal;
 import org.wavewarden.compare.TestResult;
 
 /**
@@ -22,15 +24,15 @@ public final class TwoProportionZTest {
 
     public static TwoProportionResult test(long successesBaseline, long nBaseline, long successesCurrent,
                                            long nCurrent, double confidence) {
-        Proportions.checkCount(successesBaseline, nBaseline, "successesBaseline", "nBaseline");
-        Proportions.checkCount(successesCurrent, nCurrent, "successesCurrent", "nCurrent");
-        Proportions.checkConfidence(confidence);
+        Checks.successes(successesBaseline, nBaseline, "successesBaseline", "nBaseline");
+        Checks.successes(successesCurrent, nCurrent, "successesCurrent", "nCurrent");
+        Checks.confidence(confidence);
         double pB = (double) successesBaseline / nBaseline;
         double pC = (double) successesCurrent / nCurrent;
         double pooled = (double) (successesBaseline + successesCurrent) / (nBaseline + nCurrent);
         double variance = pooled * (1 - pooled) * (1.0 / nBaseline + 1.0 / nCurrent);
         double z = variance > 0 ? (pC - pB) / Math.sqrt(variance) : 0;
-        TestResult test = TestResult.withoutDf(NAME, z, variance > 0 ? Proportions.twoSidedP(z) : 1);
+        TestResult test = TestResult.withoutDf(NAME, z, variance > 0 ? StandardNormal.twoSidedP(z) : 1);
 
         double d = pC - pB;
         WilsonInterval wB = WilsonInterval.of(successesBaseline, nBaseline, confidence);
@@ -39,7 +41,7 @@ public final class TwoProportionZTest {
         double high = d + Math.hypot(wC.upper() - pC, pB - wB.lower());
         EffectSize newcombe = new EffectSize("risk difference", d, low, high, confidence);
 
-        double zq = Proportions.twoSidedQuantile(confidence);
+        double zq = StandardNormal.twoSidedQuantile(confidence);
         double se = Math.sqrt(pB * (1 - pB) / nBaseline + pC * (1 - pC) / nCurrent);
         EffectSize wald = new EffectSize("risk difference (Wald)", d, d - zq * se, d + zq * se, confidence);
         return new TwoProportionResult(test, pB, pC, newcombe, wald);

@@ -1,5 +1,7 @@
 package org.wavewarden.compare.proportion;
 
+import org.wavewarden.compare.Checks;
+import org.wavewarden.compare.StandardNormal;
 /**
  * The Wilson (1927, JASA 22) score interval for one binomial proportion, without continuity correction: the
  * proportions p whose score statistic (phat - p) / sqrt(p (1 - p) / n) lies within +-z (R's
@@ -11,9 +13,9 @@ package org.wavewarden.compare.proportion;
 public record WilsonInterval(double lower, double upper) {
 
     public static WilsonInterval of(long successes, long n, double confidence) {
-        Proportions.checkCount(successes, n, "successes", "n");
-        Proportions.checkConfidence(confidence);
-        double z = Proportions.twoSidedQuantile(confidence);
+        Checks.successes(successes, n, "successes", "n");
+        Checks.confidence(confidence);
+        double z = StandardNormal.twoSidedQuantile(confidence);
         double p = (double) successes / n;
         double z2 = z * z;
         double centre = p + z2 / (2.0 * n);

@@ -1,7 +1,7 @@
 package org.wavewarden.compare.rank;
 
-import org.apache.commons.math3.distribution.NormalDistribution;
 import org.wavewarden.compare.EffectSize;
+import org.wavewarden.compare.StandardNormal;
 import org.wavewarden.profile.NumericDistribution;
 
 /**
@@ -18,8 +18,6 @@ import org.wavewarden.profile.NumericDistribution;
 public final class HodgesLehmann {
 
     public static final String NAME = "Hodges-Lehmann shift";
-
-    private static final NormalDistribution STANDARD_NORMAL = new NormalDistribution(0, 1);
 
     private HodgesLehmann() {
     }
@@ -43,7 +41,7 @@ public final class HodgesLehmann {
         // are those inside each wave.
         double ties = Tables.tieTerm(baseline) + Tables.tieTerm(current);
         double sigma = Math.sqrt(nb * (double) nc / 12.0 * ((n + 1) - ties / (n * (n - 1))));
-        double zq = STANDARD_NORMAL.inverseCumulativeProbability(0.5 + confidence / 2);
+        double zq = StandardNormal.twoSidedQuantile(confidence);
 
         double low = diffs.kthSmallest(rankOfRoot(pairs, sigma, zq));
         double high = diffs.kthSmallest(rankOfRoot(pairs, sigma, -zq));

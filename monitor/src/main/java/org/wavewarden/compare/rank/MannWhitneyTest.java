@@ -1,6 +1,6 @@
 package org.wavewarden.compare.rank;
 
-import org.apache.commons.math3.distribution.NormalDistribution;
+import org.wavewarden.compare.StandardNormal;
 import org.wavewarden.compare.TestResult;
 import org.wavewarden.profile.NumericDistribution;
 
@@ -19,8 +19,6 @@ public final class MannWhitneyTest {
 
     /** R's bound below which the exact null distribution is used. */
     static final int EXACT_LIMIT = 50;
-
-    private static final NormalDistribution STANDARD_NORMAL = new NormalDistribution(0, 1);
 
     private MannWhitneyTest() {
     }
@@ -72,7 +70,7 @@ public final class MannWhitneyTest {
             p = ExactNullDistributions.twoSided(nullDist, (int) Math.round(w), centre);
         } else {
             // all observations tied: no evidence of a shift at all
-            p = sigma > 0 ? Math.min(1.0, 2 * STANDARD_NORMAL.cumulativeProbability(-Math.abs(z))) : 1.0;
+            p = sigma > 0 ? StandardNormal.twoSidedP(z) : 1.0;
         }
         return new RankSumResult(TestResult.withoutDf("Mann-Whitney U", w, p), w, z, exact);
     }

@@ -1,8 +1,8 @@
 package org.wavewarden.compare.rank;
 
 import org.apache.commons.math3.distribution.BinomialDistribution;
-import org.apache.commons.math3.distribution.NormalDistribution;
 import org.wavewarden.compare.EffectSize;
+import org.wavewarden.compare.StandardNormal;
 import org.wavewarden.profile.NumericDistribution;
 
 /**
@@ -23,8 +23,6 @@ public final class MedianInterval {
     public static final String NAME = "median paired difference";
     static final long NORMAL_QUANTILE_ABOVE = 1_000_000;
 
-    private static final NormalDistribution STANDARD_NORMAL = new NormalDistribution(0, 1);
-
     private MedianInterval() {
     }
 
@@ -40,7 +38,7 @@ public final class MedianInterval {
         double tail = (1 - confidence) / 2;
         long k;
         if (n > NORMAL_QUANTILE_ABOVE) {
-            double z = STANDARD_NORMAL.inverseCumulativeProbability(1 - tail);
+            double z = StandardNormal.quantile(1 - tail);
             k = (long) Math.floor(n / 2.0 - z * Math.sqrt(n) / 2);
         } else {
             k = new BinomialDistribution(null, (int) n, 0.5).inverseCumulativeProbability(tail);

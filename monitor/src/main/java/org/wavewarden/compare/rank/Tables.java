@@ -1,13 +1,12 @@
 package org.wavewarden.compare.rank;
 
-import org.apache.commons.math3.distribution.NormalDistribution;
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
+import org.wavewarden.compare.StandardNormal;
 import org.wavewarden.profile.NumericDistribution;
 
 /** Argument checks shared by the rank methods. */
 final class Tables {
-
-    private static final NormalDistribution STANDARD_NORMAL = new NormalDistribution(0, 1);
 
     private Tables() {
     }
@@ -23,7 +22,7 @@ final class Tables {
         if (oneMinus <= 0) {
             return new EffectSize(name, d, d, d, confidence);
         }
-        double z = STANDARD_NORMAL.inverseCumulativeProbability(0.5 + confidence / 2);
+        double z = StandardNormal.twoSidedQuantile(confidence);
         double zs2 = z * z * var;
         double centre = d - d * d * d;
         double spread = z * Math.sqrt(var) * Math.sqrt(oneMinus * oneMinus + zs2);
@@ -43,9 +42,7 @@ final class Tables {
     }
 
     static void requireConfidence(double confidence) {
-        if (!(confidence > 0 && confidence < 1)) {
-            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
-        }
+        Checks.confidence(confidence);
     }
 
     /** Sum of t^3 - t over the counts of one table: the within-sample tie term of the rank variance. */

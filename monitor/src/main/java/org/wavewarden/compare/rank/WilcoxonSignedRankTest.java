@@ -1,6 +1,6 @@
 package org.wavewarden.compare.rank;
 
-import org.apache.commons.math3.distribution.NormalDistribution;
+import org.wavewarden.compare.StandardNormal;
 import org.wavewarden.compare.TestResult;
 import org.wavewarden.profile.NumericDistribution;
 
@@ -15,8 +15,6 @@ import org.wavewarden.profile.NumericDistribution;
  * positive and the negative side are merged by absolute value in O(k).
  */
 public final class WilcoxonSignedRankTest {
-
-    private static final NormalDistribution STANDARD_NORMAL = new NormalDistribution(0, 1);
 
     private WilcoxonSignedRankTest() {
     }
@@ -86,7 +84,7 @@ public final class WilcoxonSignedRankTest {
         if (exact) {
             p = ExactNullDistributions.twoSided(ExactNullDistributions.signedRank((int) n), (int) Math.round(v), centre);
         } else {
-            p = sigma > 0 ? Math.min(1.0, 2 * STANDARD_NORMAL.cumulativeProbability(-Math.abs(z))) : 1.0;
+            p = sigma > 0 ? StandardNormal.twoSidedP(z) : 1.0;
         }
         return new SignedRankResult(TestResult.withoutDf("Wilcoxon signed rank", v, p), v, z, exact, (long) n);
     }

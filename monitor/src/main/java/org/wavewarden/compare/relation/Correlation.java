@@ -2,8 +2,9 @@ package org.wavewarden.compare.relation;
 
 import java.util.Arrays;
 import java.util.Comparator;
-import org.apache.commons.math3.distribution.NormalDistribution;
 import org.apache.commons.math3.util.FastMath;
+import org.wavewarden.compare.Checks;
+import org.wavewarden.compare.StandardNormal;
 
 /**
  * Pearson's r and Spearman's rho with Fisher-z confidence intervals, from a joint tally of value pairs.
@@ -22,8 +23,6 @@ import org.apache.commons.math3.util.FastMath;
  * interval is the whole range [-1, 1].
  */
 public final class Correlation {
-
-    private static final NormalDistribution STANDARD_NORMAL = new NormalDistribution(null, 0, 1);
 
     private Correlation() {
     }
@@ -64,9 +63,7 @@ public final class Correlation {
             throw new IllegalArgumentException("method must not be null");
         }
         long n = check(xs, ys, counts);
-        if (!(confidence > 0 && confidence < 1)) {
-            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
-        }
+        Checks.confidence(confidence);
         double r = method == CorrelationMethod.SPEARMAN
                 ? pearson(midRanks(xs, counts), midRanks(ys, counts), counts)
                 : pearson(xs, ys, counts);
@@ -74,13 +71,8 @@ public final class Correlation {
             return new CorrelationResult(method, r, n, -1, 1, confidence);
         }
         double z = FastMath.atanh(r);
-        double half = twoSidedQuantile(confidence) * Math.sqrt(method.varianceNumerator() / (n - 3));
+        double half = StandardNormal.twoSidedQuantile(confidence) * Math.sqrt(method.varianceNumerator() / (n - 3));
         return new CorrelationResult(method, r, n, FastMath.tanh(z - half), FastMath.tanh(z + half), confidence);
-    }
-
-    /** The standard normal quantile z with P(|Z| &lt;= z) = confidence, shared with the difference of correlations. */
-    static double twoSidedQuantile(double confidence) {
-        return STANDARD_NORMAL.inverseCumulativeProbability(0.5 + confidence / 2);
     }
 
     private static double pearson(double[] xs, double[] ys, long[] counts) {

@@ -1,7 +1,9 @@
 package org.wavewarden.compare.relation;
 
+import org.wavewarden.compare.Checks;
 import org.apache.commons.math3.special.Erf;
 import org.apache.commons.math3.util.FastMath;
+import org.wavewarden.compare.StandardNormal;
 
 /**
  * Whether a correlation changed between two independently sampled waves.
@@ -63,9 +65,7 @@ public final class CorrelationDifference {
         checkR("r2", r2);
         checkN("n1", n1);
         checkN("n2", n2);
-        if (!(confidence > 0 && confidence < 1)) {
-            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
-        }
+        Checks.confidence(confidence);
         double c = method.varianceNumerator();
         double z1 = FastMath.atanh(r1);
         double z2 = FastMath.atanh(r2);
@@ -74,7 +74,7 @@ public final class CorrelationDifference {
         double z = (z2 - z1) / Math.sqrt(v1 + v2);
         double p = Math.min(1, Erf.erfc(Math.abs(z) / Math.sqrt(2)));
 
-        double q = Correlation.twoSidedQuantile(confidence);
+        double q = StandardNormal.twoSidedQuantile(confidence);
         double l1 = FastMath.tanh(z1 - q * Math.sqrt(v1));
         double u1 = FastMath.tanh(z1 + q * Math.sqrt(v1));
         double l2 = FastMath.tanh(z2 - q * Math.sqrt(v2));

@@ -1,5 +1,7 @@
 package org.wavewarden.compare.relation;
 
+import org.wavewarden.compare.Checks;
+
 /**
  * The comparison of a correlation between two independent waves; every signed value is current minus baseline.
  *
@@ -25,14 +27,10 @@ public record CorrelationDifferenceResult(CorrelationMethod method, double r1, d
         if (method == null || name == null) {
             throw new IllegalArgumentException("method and name must not be null");
         }
-        if (!(pValue >= 0 && pValue <= 1)) {
-            throw new IllegalArgumentException("pValue must lie in [0, 1], was " + pValue);
-        }
+        Checks.closedUnit(pValue, "pValue");
         if (!(ciLow <= ciHigh)) {
             throw new IllegalArgumentException("ciLow " + ciLow + " exceeds ciHigh " + ciHigh);
         }
-        if (!(confidence > 0 && confidence < 1)) {
-            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
-        }
+        Checks.confidence(confidence);
     }
 }

@@ -1,5 +1,7 @@
 package org.wavewarden.compare.relation;
 
+import org.wavewarden.compare.Checks;
+
 /**
  * A correlation with its Fisher-z confidence interval.
  *
@@ -26,8 +28,6 @@ public record CorrelationResult(CorrelationMethod method, double estimate, long 
         if (!(ciLow <= ciHigh)) {
             throw new IllegalArgumentException("ciLow " + ciLow + " exceeds ciHigh " + ciHigh);
         }
-        if (!(confidence > 0 && confidence < 1)) {
-            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
-        }
+        Checks.confidence(confidence);
     }
 }

@@ -1,5 +1,6 @@
 package org.wavewarden.compare.shape;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
 
 /**
@@ -19,9 +20,7 @@ public final class DistanceInterval {
         if (n < 1) {
             throw new IllegalArgumentException("n must be positive, was " + n);
         }
-        if (!(confidence > 0 && confidence < 1)) {
-            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
-        }
+        Checks.confidence(confidence);
         return Math.sqrt(Math.log(4 / (1 - confidence)) / (2.0 * n));
     }
 
@@ -30,9 +29,7 @@ public final class DistanceInterval {
      * the inequality holds for simple random samples, and a weighted wave is treated as one of its effective size).
      */
     public static EffectSize ofEffectiveSizes(double d, double nBaseline, double nCurrent, double confidence) {
-        if (!(d >= 0 && d <= 1)) {
-            throw new IllegalArgumentException("d must lie in [0, 1], was " + d);
-        }
+        Checks.closedUnit(d, "d");
         double e = halfWidth(nBaseline, confidence) + halfWidth(nCurrent, confidence);
         return new EffectSize("KS distance (weighted)", d, Math.max(0, d - e), Math.min(1, d + e), confidence);
     }
@@ -41,16 +38,12 @@ public final class DistanceInterval {
         if (!(n > 0) || Double.isInfinite(n)) {
             throw new IllegalArgumentException("n must be finite and positive, was " + n);
         }
-        if (!(confidence > 0 && confidence < 1)) {
-            throw new IllegalArgumentException("confidence must lie in (0, 1), was " + confidence);
-        }
+        Checks.confidence(confidence);
         return Math.sqrt(Math.log(4 / (1 - confidence)) / (2.0 * n));
     }
 
     public static EffectSize of(double d, long nBaseline, long nCurrent, double confidence) {
-        if (!(d >= 0 && d <= 1)) {
-            throw new IllegalArgumentException("d must lie in [0, 1], was " + d);
-        }
+        Checks.closedUnit(d, "d");
         double e = halfWidth(nBaseline, confidence) + halfWidth(nCurrent, confidence);
         return new EffectSize("KS distance", d, Math.max(0, d - e), Math.min(1, d + e), confidence);
     }

@@ -1,5 +1,6 @@
 package org.wavewarden.compare.shape;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.TestResult;
 import org.wavewarden.profile.NumericDistribution;
 
@@ -54,9 +55,7 @@ public final class KolmogorovSmirnovTest {
      * Wiley, Section 11.7). For whole n1 and n2 with n1 n2 &gt;= 10000 it is the p-value of {@link #test}.
      */
     public static double asymptoticPValue(double d, double nBaseline, double nCurrent) {
-        if (!(d >= 0 && d <= 1)) {
-            throw new IllegalArgumentException("d must lie in [0, 1], was " + d);
-        }
+        Checks.closedUnit(d, "d");
         if (!(nBaseline > 0 && nCurrent > 0) || Double.isInfinite(nBaseline) || Double.isInfinite(nCurrent)) {
             throw new IllegalArgumentException("nBaseline and nCurrent must be finite and positive, were "
                     + nBaseline + " and " + nCurrent);

@@ -1,6 +1,7 @@
 package org.wavewarden.deliver.html;
 
 import org.wavewarden.profile.NumericDistribution;
+import org.wavewarden.profile.Quantiles;
 
 import java.util.ArrayList;
 import java.util.List;
@@ -195,7 +196,7 @@ public final class SvgChart {
     static double freedmanDiaconisWidth(NumericDistribution pooled) {
         long n = pooled.n();
         double range = pooled.value(pooled.size() - 1) - pooled.value(0);
-        double iqr = quantile(pooled, 0.75) - quantile(pooled, 0.25);
+        double iqr = Quantiles.quantile(pooled, 0.75) - Quantiles.quantile(pooled, 0.25);
         return iqr > 0 ? 2 * iqr / Math.cbrt(n) : range / (Math.ceil(Math.log(n) / Math.log(2)) + 1);
     }
 
@@ -221,27 +222,6 @@ public final class SvgChart {
             out[i] /= n;
         }
         return out;
-    }
-
-    /** The type-7 sample quantile (linear interpolation between order statistics; R's default). */
-    static double quantile(NumericDistribution d, double p) {
-        long n = d.n();
-        double h = (n - 1) * p;
-        long lo = (long) Math.floor(h);
-        double xlo = orderStatistic(d, lo);
-        double xhi = orderStatistic(d, Math.min(n - 1, lo + 1));
-        return xlo + (h - lo) * (xhi - xlo);
-    }
-
-    private static double orderStatistic(NumericDistribution d, long k) {
-        long seen = 0;
-        for (int i = 0; i < d.size(); i++) {
-            seen += d.count(i);
-            if (k < seen) {
-                return d.value(i);
-            }
-        }
-        return d.value(d.size() - 1);
     }
 
     private static boolean allWhole(NumericDistribution d) {
