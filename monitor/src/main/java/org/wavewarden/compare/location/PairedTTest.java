@@ -1,5 +1,6 @@
 package org.wavewarden.compare.location;
 
+import org.wavewarden.compare.TestResult;
 import org.wavewarden.profile.NumericDistribution;
 
 /**
@@ -50,7 +51,7 @@ public final class PairedTTest {
             sumC += current[i];
         }
         return OneSampleTTest.of(NAME, NumericDistribution.ofSample(diff), 0.0, confidence,
-                sumB / diff.length, sumC / diff.length);
+                sumB / diff.length, sumC / diff.length, TestResult.DF_PAIRED);
     }
 
     /**
@@ -75,7 +76,8 @@ public final class PairedTTest {
                     + meanDifference + " and " + sdDifference);
         }
         TStatistics.checkConfidence(confidence);
-        return TStatistics.result(NAME, meanDifference, sdDifference / Math.sqrt(pairs), pairs - 1.0, meanBaseline,
+        return TStatistics.result(NAME, meanDifference, sdDifference / Math.sqrt(pairs), pairs - 1.0,
+                TestResult.DF_PAIRED, meanBaseline,
                 meanCurrent, confidence);
     }
 }
