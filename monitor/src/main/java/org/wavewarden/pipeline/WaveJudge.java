@@ -199,13 +199,14 @@ public final class WaveJudge {
         List<Finding> findings = judged.findings();
         List<Finding> alerts = Alerts.select(findings);
         Instant finished = clock.instant();
+        String fingerprint = org.wavewarden.config.ConfigFingerprint.of(cfg, d);
         FindingsReport report = new FindingsReport(d.name(), wave, againstLabel, finished, cfg.alpha(),
-                cfg.fdr().name(), inference, findings);
+                cfg.fdr().name(), inference, findings, org.wavewarden.deliver.ToolVersion.current(), fingerprint);
         FaultPoints.hit(FaultPoints.BEFORE_WRITE);
         String checksum = current.checksum();
         long runId = session.store().writeRun(new ResultsStore.RunWrite(d.name(), wave,
                         againstLabel == null ? "" : againstLabel, checksum, started, finished, cfg.alpha(),
-                        cfg.fdr().name()),
+                        cfg.fdr().name(), report.toolVersion(), fingerprint),
                 current, findings, alerts, inference, outputs);
         // The summary the run stored becomes the baseline of later waves under this configuration.
         session.store().keySummary(d.name(), wave, checksum, SummaryKey.of(d, current.schema()).value());
@@ -362,8 +363,7 @@ public final class WaveJudge {
             String note = String.format(java.util.Locale.ROOT, " This variable has more distinct values than are"
                     + " counted exactly, so its values were summarised in bins: each stands within %.2g%% of its"
                     + " value, and so do the means, quantiles and shifts above.", 100 * e);
-            out.add(new Finding(f.variable(), f.kind(), f.test(), f.statistic(), f.pValue(), f.qValue(), f.effect(),
-                    f.verdict(), f.nBaseline(), f.nCurrent(), f.sentence() + note, f.detail()));
+            out.add(f.withSentence(f.sentence() + note));
         }
         return out;
     }
@@ -429,8 +429,7 @@ public final class WaveJudge {
                 return new ReasonRate(d.successValue().replaceFirst("^missing \\((.*)\\)$", "$1"), d.shareBaseline(),
                         d.shareCurrent(), f.pValue(), f.qValue(), f.verdict().name(), f.sentence());
             }).toList();
-            out.add(new Finding(top.variable(), top.kind(), top.test(), top.statistic(), top.pValue(), top.qValue(),
-                    top.effect(), top.verdict(), top.nBaseline(), top.nCurrent(), top.sentence(), detail));
+            out.add(top.withDetail(detail));
         });
         return out;
     }
