@@ -60,7 +60,25 @@ public final class VariableComparator {
     public record LocationDetail(String testChoice, double meanBaseline, double meanCurrent, double medianBaseline,
                                  double medianCurrent, double sdBaseline, double sdCurrent, EffectSize standardized,
                                  EffectSize rawShift, double ksD, double ksPValue, double wasserstein,
-                                 double psi, String psiBand, double jensenShannon) {
+                                 double psi, String psiBand, double jensenShannon, BothTests bothTests,
+                                 LocationTestChoice.Normality normality) {
+    }
+
+    /**
+     * Both location tests and all four effects of a continuous variable, whichever is primary, so that a reader can
+     * see what the other choice would have said. A method the data do not allow (Welch's t on two constant waves)
+     * is null.
+     *
+     * @param primary        the test the finding reports, "Welch t" or "Mann-Whitney U"
+     * @param welch          Welch's t with its Welch-Satterthwaite df and p
+     * @param mannWhitney    the rank-sum W (Wilcoxon form) and its p
+     * @param hedgesG        Hedges' g with its interval
+     * @param cliffsDelta    Cliff's delta with its interval
+     * @param meanDifference the difference of means with its Welch interval
+     * @param hodgesLehmann  the Hodges-Lehmann shift with its interval
+     */
+    public record BothTests(String primary, TestResult welch, TestResult mannWhitney, EffectSize hedgesG,
+                            EffectSize cliffsDelta, EffectSize meanDifference, EffectSize hodgesLehmann) {
     }
 
     /** One category's row of a categorical comparison. */
@@ -92,26 +110,37 @@ public final class VariableComparator {
         double medB = Quantiles.median(baseline);
         double medC = Quantiles.median(current);
         String name = variable;
-        if (choice.test() == LocationTestChoice.LocationTest.WELCH_T) {
-            MeanDifference md = WelchTTest.test(baseline, current, confidence);
-            EffectSize g = HedgesG.estimate(baseline, current, confidence);
-            EffectSize raw = new EffectSize("mean difference", md.difference(), md.ciLow(), md.ciHigh(), confidence);
+        boolean welchPrimary = choice.test() == LocationTestChoice.LocationTest.WELCH_T;
+        // The primary methods must succeed; the other pair is computed for the detail when the data allow it.
+        MeanDifference md = welchPrimary ? WelchTTest.test(baseline, current, confidence)
+                : ordinal ? null : orNull(() -> WelchTTest.test(baseline, current, confidence));
+        EffectSize g = welchPrimary ? HedgesG.estimate(baseline, current, confidence)
+                : ordinal ? null : orNull(() -> HedgesG.estimate(baseline, current, confidence));
+        RankSumResult mw = welchPrimary ? orNull(() -> MannWhitneyTest.test(baseline, current))
+                : MannWhitneyTest.test(baseline, current);
+        EffectSize delta = welchPrimary ? orNull(() -> CliffsDelta.estimate(baseline, current, confidence))
+                : CliffsDelta.estimate(baseline, current, confidence);
+        EffectSize hl = welchPrimary ? orNull(() -> HodgesLehmann.estimate(baseline, current, confidence))
+                : HodgesLehmann.estimate(baseline, current, confidence);
+        EffectSize meanDiff = md == null ? null
+                : new EffectSize("mean difference", md.difference(), md.ciLow(), md.ciHigh(), confidence);
+        BothTests both = ordinal ? null : new BothTests(welchPrimary ? WelchTTest.NAME : "Mann-Whitney U",
+                md == null ? null : md.test(), mw == null ? null : mw.test(), g, delta, meanDiff, hl);
+        if (welchPrimary) {
+            EffectSize raw = meanDiff;
             Thresholds.Resolved t = Thresholds.resolve(configured, g.name(), Thresholds.HEDGES_G, unit);
             LocationDetail d = new LocationDetail(choice.reason(), md.meanBaseline(), md.meanCurrent(), medB, medC,
                     baseline.standardDeviation(), current.standardDeviation(), g, raw, ks.d(), ks.test().pValue(), w1,
-                    psi.psi(), Magnitude.psi(psi.psi()), js);
+                    psi.psi(), Magnitude.psi(psi.psi()), js, both, choice.normality());
             Change change = new Change("mean " + name, md.meanBaseline(), md.meanCurrent(), false, unit,
                     md.difference(), md.ciLow(), md.ciHigh(), "");
             return new Comparison(variable, FindingKind.SHIFT, md.test(), t.rawScale() ? raw : g, t.value(), t.source(),
                     baseline.n(), current.n(), change, d);
         }
-        RankSumResult mw = MannWhitneyTest.test(baseline, current);
-        EffectSize delta = CliffsDelta.estimate(baseline, current, confidence);
-        EffectSize hl = HodgesLehmann.estimate(baseline, current, confidence);
         Thresholds.Resolved t = Thresholds.resolve(configured, delta.name(), Thresholds.CLIFFS_DELTA, unit);
         LocationDetail d = new LocationDetail(choice.reason(), baseline.mean(), current.mean(), medB, medC,
                 baseline.standardDeviation(), current.standardDeviation(), delta, hl, ks.d(), ks.test().pValue(), w1,
-                psi.psi(), Magnitude.psi(psi.psi()), js);
+                psi.psi(), Magnitude.psi(psi.psi()), js, both, choice.normality());
         Change change = ordinal
                 ? new Change("mean " + name, baseline.mean(), current.mean(), false, unit,
                 current.mean() - baseline.mean(), Double.NaN, Double.NaN, "")
@@ -303,6 +332,15 @@ public final class VariableComparator {
         Change change = new Change("share " + successLabel, z.proportionBaseline(), z.proportionCurrent(), true, null,
                 rd.estimate(), rd.ciLow(), rd.ciHigh(), "");
         return new Comparison(variable, kind, primary, t.rawScale() ? rd : h, t.value(), t.source(), nB, nC, change, d);
+    }
+
+    /** The value, or null when the data do not allow the method (it throws IllegalArgumentException). */
+    private static <T> T orNull(java.util.function.Supplier<T> method) {
+        try {
+            return method.get();
+        } catch (IllegalArgumentException e) {
+            return null;
+        }
     }
 
     static String signed(double v, int digits) {

@@ -61,6 +61,12 @@ public final class WeightedComparator {
     public static final String MEANS_TEST = "design-based t on weighted means";
     public static final String SHARES_TEST = "design-based t on weighted shares";
     public static final String CATEGORIES_TEST = "Rao-Scott F (second order) on weighted shares";
+    /** The df of the Rao-Scott F as a finding reports it; the F's denominator df is in its detail. */
+    public static final String RAO_SCOTT_DF = "numerator df of the Rao-Scott second-order F, tr(Delta)^2 /"
+            + " tr(Delta^2); denominator df in detail (denominatorDf)";
+    /** The df of the design-based one-sample t under the weights-only design. */
+    public static final String DF_ONE_SAMPLE_WEIGHTS_ONLY = "n - 1: each respondent its own PSU, one stratum (R survey"
+            + " degf)";
     public static final String SHAPE_TEST = "Kolmogorov-Smirnov on weighted distributions (Kish effective sizes)";
 
     /** What a test name says when strata and clusters, not the weights alone, give its variance. */
@@ -108,13 +114,31 @@ public final class WeightedComparator {
                                  double meanDesignEffectBaseline, double meanDesignEffectCurrent,
                                  double[] quartilesBaseline, double[] quartilesCurrent, double sdBaseline,
                                  double sdCurrent, EffectSize standardized, EffectSize rawShift, double ksD,
-                                 double ksPValue) {
+                                 double ksPValue, Reproduce reproduce) {
+    }
+
+    /**
+     * What a reader needs to reproduce a weighted location or share test with R's {@code survey}: the design-based
+     * t with its df and their convention, and the p-value R's two-group {@code svyttest} gives for the same t, with
+     * why it differs. There is no weighted rank test here: the weighted comparison is of means and shares only.
+     *
+     * @param designT      the test the finding reports (t, df, p, dfConvention)
+     * @param svyttest     the same t on {@code svyttest}'s df, or null when that leaves no df
+     * @param svyttestNote why the two p-values differ
+     */
+    public record Reproduce(TestResult designT, TestResult svyttest, String svyttestNote) {
+
+        static Reproduce of(TestResult designT, DesignMeanDifferenceResult r) {
+            return new Reproduce(designT, r.svyttest(), r.svyttest() == null ? null
+                    : DesignMeanDifference.SVYTTEST_NOTE);
+        }
     }
 
     /** Detail of a weighted binary comparison. */
     public record ProportionDetail(String successValue, Weighting weightingBaseline, Weighting weightingCurrent,
                                    double shareBaseline, double shareCurrent, double standardErrorBaseline,
-                                   double standardErrorCurrent, EffectSize shareDifference, EffectSize cohensH) {
+                                   double standardErrorCurrent, EffectSize shareDifference, EffectSize cohensH,
+                                   Reproduce reproduce) {
     }
 
     /** One category of a weighted categorical comparison, with the design-based t of its share difference. */
@@ -159,13 +183,14 @@ public final class WeightedComparator {
         Weighting wc = Weighting.of(current);
         double ks = WeightedDistribution.cdfDistance(baseline, current);
         double ksP = KolmogorovSmirnovTest.asymptoticPValue(ks, wb.effectiveSampleSize(), wc.effectiveSampleSize());
+        TestResult test = new TestResult(MEANS_TEST + (design == null ? "" : WITH_DESIGN), md.test().statistic(),
+                md.test().df(), md.test().pValue(), md.test().dfConvention());
         LocationDetail detail = new LocationDetail(wb, wc, md.baseline().estimate(), md.current().estimate(),
                 md.baseline().standardError(), md.current().standardError(), md.baseline().designEffect(),
-                md.current().designEffect(), quartiles(baseline), quartiles(current), sdB, sdC, d, raw, ks, ksP);
+                md.current().designEffect(), quartiles(baseline), quartiles(current), sdB, sdC, d, raw, ks, ksP,
+                Reproduce.of(test, md));
         Change change = new Change("weighted mean " + variable, md.baseline().estimate(), md.current().estimate(),
                 false, unit, diff.estimate(), diff.ciLow(), diff.ciHigh(), weightingNote(wb, wc));
-        TestResult test = new TestResult(MEANS_TEST + (design == null ? "" : WITH_DESIGN), md.test().statistic(),
-                md.test().df(), md.test().pValue());
         return new Comparison(variable, FindingKind.SHIFT, test, t.rawScale() ? raw : d, t.value(), t.source(), nb,
                 nc, change, detail);
     }
@@ -204,12 +229,13 @@ public final class WeightedComparator {
         EffectSize h = cohensH(r.baseline(), r.current(), wb, wc);
         Thresholds.Resolved t = Thresholds.resolve(configured, h.name(), Thresholds.COHENS_H, null);
         EffectSize rd = r.difference();
+        TestResult test = new TestResult(SHARES_TEST + (design == null ? "" : WITH_DESIGN), r.test().statistic(),
+                r.test().df(), r.test().pValue(), r.test().dfConvention());
         ProportionDetail d = new ProportionDetail(successLabel, wb, wc, r.baseline().estimate(),
-                r.current().estimate(), r.baseline().standardError(), r.current().standardError(), rd, h);
+                r.current().estimate(), r.baseline().standardError(), r.current().standardError(), rd, h,
+                Reproduce.of(test, r));
         Change change = new Change("weighted share " + successLabel, r.baseline().estimate(), r.current().estimate(),
                 true, null, rd.estimate(), rd.ciLow(), rd.ciHigh(), weightingNote(wb, wc));
-        TestResult test = new TestResult(SHARES_TEST + (design == null ? "" : WITH_DESIGN), r.test().statistic(),
-                r.test().df(), r.test().pValue());
         return new Comparison(variable, FindingKind.SHIFT, test, t.rawScale() ? rd : h, t.value(), t.source(),
                 baseline.n(), current.n(), change, d);
     }
@@ -270,7 +296,7 @@ public final class WeightedComparator {
                 rs.firstOrder(), rs.denominatorDf());
         TestResult second = rs.secondOrder();
         TestResult test = new TestResult(CATEGORIES_TEST + (design == null ? "" : WITH_DESIGN), second.statistic(),
-                second.df(), second.pValue());
+                second.df(), second.pValue(), RAO_SCOTT_DF);
         return new Comparison(variable, FindingKind.SHIFT, test, effect, t.value(), t.source(), baseline.n(),
                 current.n(), change, d);
     }
@@ -317,7 +343,7 @@ public final class WeightedComparator {
                 wc.effectiveSampleSize()) + ", design effect due to weighting " + String.format(Locale.ROOT, "%.2f",
                 wc.designEffect()));
         TestResult test = new TestResult(DesignGoodnessOfFit.NAME + (design == null ? "" : WITH_DESIGN),
-                r.test().statistic(), r.test().df(), r.test().pValue());
+                r.test().statistic(), r.test().df(), r.test().pValue(), r.test().dfConvention());
         return new Comparison(variable, FindingKind.REFERENCE, test, w, t.value(), t.source(), 0, current.n(), change,
                 wc);
     }
@@ -358,7 +384,8 @@ public final class WeightedComparator {
                 "weighted: Kish effective sample size %.0f, design effect due to weighting %.2f",
                 w.effectiveSampleSize(), w.designEffect()));
         return new Comparison(variable, FindingKind.REFERENCE, new TestResult("design-based one-sample t on the"
-                + " weighted mean", tStat, df, p), raw, threshold, source, 0, current.n(), change, w);
+                + " weighted mean", tStat, df, p, DF_ONE_SAMPLE_WEIGHTS_ONLY), raw, threshold, source, 0, current.n(),
+                change, w);
     }
 
     /** "weighted: Kish effective sample sizes 205 and 244, design effects due to weighting 1.46 and 1.39". */

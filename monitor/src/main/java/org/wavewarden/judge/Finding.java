@@ -5,32 +5,55 @@ import com.fasterxml.jackson.annotation.JsonInclude;
 /**
  * One row of {@code findings.json} and of the results table. Field names are the output contract.
  *
- * @param variable   source column
- * @param kind       SHIFT or a data-quality kind
- * @param test       the primary test, when there is one
- * @param statistic  its statistic
- * @param pValue     its p-value
- * @param qValue     the p-value adjusted for the false discovery rate across the run
- * @param effect     the primary effect with its interval and threshold
- * @param verdict    for SHIFT, PANEL_SHIFT and MISSING_RATE_CHANGE
- * @param nBaseline  valid observations in the baseline wave
- * @param nCurrent   valid observations in the current wave
- * @param sentence   one plain sentence for a reader who is not a statistician
- * @param detail     kind-specific detail (per-category residuals, per-code counts, ...)
+ * @param variable      source column
+ * @param kind          SHIFT or a data-quality kind
+ * @param test          the primary test, when there is one
+ * @param statistic     its statistic
+ * @param pValue        its p-value
+ * @param qValue        the p-value adjusted for the false discovery rate across the run
+ * @param effect        the primary effect with its interval and threshold
+ * @param verdict       for SHIFT, PANEL_SHIFT and MISSING_RATE_CHANGE
+ * @param nBaseline     valid observations in the baseline wave
+ * @param nCurrent      valid observations in the current wave
+ * @param sentence      one plain sentence for a reader who is not a statistician
+ * @param detail        kind-specific detail (per-category residuals, per-code counts, ...)
+ * @param df            the primary test's degrees of freedom, or null where it has none
+ * @param dfConvention  how {@code df} was obtained (e.g. "Welch-Satterthwaite"), so the p-value can be reproduced
+ * @param fdrFamilySize how many p-values the false-discovery-rate control adjusted together to give {@code qValue}
+ * @param fdrMethod     the adjustment that gave {@code qValue}, e.g. BENJAMINI_HOCHBERG
  */
 @JsonInclude(JsonInclude.Include.ALWAYS)
 public record Finding(String variable, FindingKind kind, String test, Double statistic, Double pValue,
                       Double qValue, Effect effect, Verdict verdict, Long nBaseline, Long nCurrent, String sentence,
-                      Object detail) {
+                      Object detail, Double df, String dfConvention, Integer fdrFamilySize, String fdrMethod) {
 
     /** An effect size as reported: estimate, interval and the threshold T it was judged against. */
     public record Effect(String name, double estimate, double ciLow, double ciHigh, double threshold) {
+    }
+
+    /** A finding outside any false-discovery-rate family: no df, q or family of its own. */
+    public Finding(String variable, FindingKind kind, String test, Double statistic, Double pValue, Double qValue,
+                   Effect effect, Verdict verdict, Long nBaseline, Long nCurrent, String sentence, Object detail) {
+        this(variable, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline, nCurrent, sentence, detail,
+                null, null, null, null);
     }
 
     /** A data-quality finding with no test of its own. */
     public static Finding dataQuality(String variable, FindingKind kind, Long nBaseline, Long nCurrent,
                                       String sentence, Object detail) {
         return new Finding(variable, kind, null, null, null, null, null, null, nBaseline, nCurrent, sentence, detail);
+    }
+
+    /** The same finding with another sentence; every other field, the test's df and family included, is kept. */
+    public Finding withSentence(String newSentence) {
+        return new Finding(variable, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline, nCurrent,
+                newSentence, detail, df, dfConvention, fdrFamilySize, fdrMethod);
+    }
+
+    /** The same finding with another detail; every other field is kept. */
+    public Finding withDetail(Object newDetail) {
+        return new Finding(variable, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline, nCurrent,
+                sentence, newDetail, df, dfConvention, fdrFamilySize, fdrMethod);
     }
 
     /** Ranking for digests and alerts: verdict first, then size of the effect relative to its threshold. */

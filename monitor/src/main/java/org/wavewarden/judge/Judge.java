@@ -11,7 +11,8 @@ import java.util.List;
 /**
  * Turns comparisons into findings: adjusts every p-value of the run for the false discovery rate
  * (Benjamini-Hochberg 1995, or Benjamini-Yekutieli 2001 for arbitrary dependence), applies the verdict rule to
- * the q-value and the effect's interval, and writes the sentence.
+ * the q-value and the effect's interval, and writes the sentence. Each finding carries the size of the family its
+ * q-value was adjusted in and the method, since a q-value cannot be checked without them.
  */
 public final class Judge {
 
@@ -28,8 +29,11 @@ public final class Judge {
             Verdict v = VerdictRule.judge(q[i], c.effect(), c.threshold(), alpha);
             Finding.Effect e = new Finding.Effect(c.effect().name(), c.effect().estimate(), c.effect().ciLow(),
                     c.effect().ciHigh(), c.threshold());
+            double df = c.test().df();
             out.add(new Finding(c.variable(), c.kind(), c.test().test(), c.test().statistic(), c.test().pValue(), q[i],
-                    e, v, c.kind() == FindingKind.REFERENCE ? null : c.nBaseline(), c.nCurrent(), Sentences.shift(c, q[i], v, alpha), c.detail()));
+                    e, v, c.kind() == FindingKind.REFERENCE ? null : c.nBaseline(), c.nCurrent(),
+                    Sentences.shift(c, q[i], v, alpha), c.detail(), Double.isNaN(df) ? null : df,
+                    Double.isNaN(df) ? null : c.test().dfConvention(), p.length, method.name()));
         }
         return out;
     }

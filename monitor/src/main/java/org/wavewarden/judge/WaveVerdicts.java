@@ -67,8 +67,7 @@ public final class WaveVerdicts {
                 return new ReasonRate(d.successValue().replaceFirst("^missing \\((.*)\\)$", "$1"), d.shareBaseline(),
                         d.shareCurrent(), f.pValue(), f.qValue(), f.verdict().name(), f.sentence());
             }).toList();
-            out.add(new Finding(top.variable(), top.kind(), top.test(), top.statistic(), top.pValue(), top.qValue(),
-                    top.effect(), top.verdict(), top.nBaseline(), top.nCurrent(), top.sentence(), detail));
+            out.add(top.withDetail(detail));
         });
         return out;
     }
@@ -101,8 +100,7 @@ public final class WaveVerdicts {
             String note = String.format(java.util.Locale.ROOT, " This variable has more distinct values than are"
                     + " counted exactly, so its values were summarised in bins: each stands within %.2g%% of its"
                     + " value, and so do the means, quantiles and shifts above.", 100 * e);
-            out.add(new Finding(f.variable(), f.kind(), f.test(), f.statistic(), f.pValue(), f.qValue(), f.effect(),
-                    f.verdict(), f.nBaseline(), f.nCurrent(), f.sentence() + note, f.detail()));
+            out.add(f.withSentence(f.sentence() + note));
         }
         return out;
     }

@@ -208,13 +208,14 @@ public final class WaveJudge {
         List<Finding> findings = judged.findings();
         List<Finding> alerts = Alerts.select(findings);
         Instant finished = clock.instant();
+        String fingerprint = org.wavewarden.config.ConfigFingerprint.of(cfg, d);
         FindingsReport report = new FindingsReport(d.name(), wave, againstLabel, finished, cfg.alpha(),
-                cfg.fdr().name(), inference, findings);
+                cfg.fdr().name(), inference, findings, org.wavewarden.deliver.ToolVersion.current(), fingerprint);
         FaultPoints.hit(FaultPoints.BEFORE_WRITE);
         String checksum = current.checksum();
         long runId = session.store().writeRun(new ResultsStore.RunWrite(d.name(), wave,
                         againstLabel == null ? "" : againstLabel, checksum, started, finished, cfg.alpha(),
-                        cfg.fdr().name()),
+                        cfg.fdr().name(), report.toolVersion(), fingerprint),
                 current, findings, alerts, inference, outputs);
         // The summary the run stored becomes the baseline of later waves under this configuration.
         session.store().keySummary(d.name(), wave, checksum, SummaryKey.of(d, current.schema()).value());

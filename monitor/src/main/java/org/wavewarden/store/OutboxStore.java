@@ -272,7 +272,8 @@ public final class OutboxStore {
         return jdbi.withHandle(h -> h.createQuery("SELECT a.dataset, a.wave, a.against_wave, a.variable, a.kind,"
                         + " a.verdict, a.sentence, a.run_id, r.summary_checksum, f.test, f.statistic, f.p_value,"
                         + " f.q_value, f.effect_name, f.effect_estimate, f.effect_ci_low, f.effect_ci_high,"
-                        + " f.effect_threshold, f.n_baseline, f.n_current FROM " + s + ".alert a JOIN " + s
+                        + " f.effect_threshold, f.n_baseline, f.n_current, f.df, f.df_convention, f.fdr_family_size,"
+                        + " f.fdr_method FROM " + s + ".alert a JOIN " + s
                         + ".run r ON r.run_id = a.run_id LEFT JOIN " + s + ".finding f ON f.run_id = a.run_id"
                         + " AND f.variable = a.variable AND f.kind = a.kind WHERE a.alert_id = :id")
                 .bind("id", alertId)

@@ -52,7 +52,8 @@ public final class ResultsStore {
 
     /** What a run is about to write. */
     public record RunWrite(String dataset, String wave, String againstWave, String summaryChecksum, Instant startedAt,
-                           Instant finishedAt, double alpha, String fdrMethod) {
+                           Instant finishedAt, double alpha, String fdrMethod, String toolVersion,
+                           String configFingerprint) {
     }
 
     public void saveSummary(String dataset, WaveProfile profile, String checksum) {
@@ -149,10 +150,12 @@ public final class ResultsStore {
                     .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("checksum", run.summaryChecksum())
                     .bind("against", run.againstWave()).execute();
             long runId = h.createQuery("INSERT INTO " + s + ".run (dataset, wave, against_wave, summary_checksum,"
-                            + " started_at, finished_at, alpha, fdr_method, findings_count, alerts_count)"
-                            + " VALUES (:dataset, :wave, :against, :checksum, :started, :finished, :alpha, :fdr, :nf, :na)"
+                            + " started_at, finished_at, alpha, fdr_method, findings_count, alerts_count, tool_version,"
+                            + " config_fingerprint) VALUES (:dataset, :wave, :against, :checksum, :started, :finished,"
+                            + " :alpha, :fdr, :nf, :na, :tool, :fingerprint)"
                             + " ON CONFLICT ON CONSTRAINT run_key DO UPDATE SET finished_at = EXCLUDED.finished_at,"
                             + " started_at = EXCLUDED.started_at, alpha = EXCLUDED.alpha, fdr_method = EXCLUDED.fdr_method,"
+                            + " tool_version = EXCLUDED.tool_version, config_fingerprint = EXCLUDED.config_fingerprint,"
                             + " findings_count = EXCLUDED.findings_count, alerts_count = EXCLUDED.alerts_count,"
                             + " superseded_at = NULL RETURNING run_id")
                     .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("against", run.againstWave())
@@ -160,6 +163,7 @@ public final class ResultsStore {
                     .bind("started", OffsetDateTime.ofInstant(run.startedAt(), ZoneOffset.UTC))
                     .bind("finished", OffsetDateTime.ofInstant(run.finishedAt(), ZoneOffset.UTC))
                     .bind("alpha", run.alpha()).bind("fdr", run.fdrMethod())
+                    .bind("tool", run.toolVersion()).bind("fingerprint", run.configFingerprint())
                     .bind("nf", findings.size()).bind("na", alerts.size())
                     .mapTo(Long.class).one();
             org.wavewarden.pipeline.FaultPoints.hit(org.wavewarden.pipeline.FaultPoints.INSIDE_WRITE);
@@ -201,9 +205,10 @@ public final class ResultsStore {
         }
         PreparedBatch b = h.prepareBatch("INSERT INTO " + s + ".finding (run_id, variable, kind, test, statistic, p_value,"
                 + " q_value, effect_name, effect_estimate, effect_ci_low, effect_ci_high, effect_threshold, verdict,"
-                + " n_baseline, n_current, sentence, detail) VALUES (:run, :variable, :kind, :test, :statistic, :p, :q,"
-                + " :effectName, :estimate, :ciLow, :ciHigh, :threshold, :verdict, :nb, :nc, :sentence,"
-                + " CAST(:detail AS jsonb))");
+                + " n_baseline, n_current, sentence, detail, df, df_convention, fdr_family_size, fdr_method) VALUES"
+                + " (:run, :variable, :kind, :test, :statistic, :p, :q, :effectName, :estimate, :ciLow, :ciHigh,"
+                + " :threshold, :verdict, :nb, :nc, :sentence, CAST(:detail AS jsonb), :df, :dfConvention, :family,"
+                + " :fdrMethod)");
         for (Finding f : findings) {
             Finding.Effect e = f.effect();
             b.bind("run", runId).bind("variable", f.variable()).bind("kind", f.kind().name()).bind("test", f.test())
@@ -216,6 +221,8 @@ public final class ResultsStore {
                     .bind("verdict", f.verdict() == null ? null : f.verdict().name())
                     .bind("nb", f.nBaseline()).bind("nc", f.nCurrent()).bind("sentence", f.sentence())
                     .bind("detail", Json.write(f.detail() == null ? java.util.Map.of() : f.detail()))
+                    .bind("df", f.df()).bind("dfConvention", f.dfConvention())
+                    .bind("family", f.fdrFamilySize()).bind("fdrMethod", f.fdrMethod())
                     .add();
         }
         b.execute();
@@ -229,7 +236,8 @@ public final class ResultsStore {
      */
     public Optional<FindingsReport> storedReport(long runId) {
         return jdbi.withHandle(h -> h.createQuery("SELECT dataset, wave, against_wave, finished_at, alpha, fdr_method,"
-                        + " inference::text AS inference FROM " + s + ".run WHERE run_id = :run")
+                        + " tool_version, config_fingerprint, inference::text AS inference FROM " + s
+                        + ".run WHERE run_id = :run")
                 .bind("run", runId)
                 .map((rs, ctx) -> {
                     String against = rs.getString("against_wave");
@@ -238,7 +246,8 @@ public final class ResultsStore {
                     return new FindingsReport(rs.getString("dataset"), rs.getString("wave"),
                             against.isEmpty() ? null : against,
                             rs.getObject("finished_at", OffsetDateTime.class).toInstant(), rs.getDouble("alpha"),
-                            rs.getString("fdr_method"), inference, findings);
+                            rs.getString("fdr_method"), inference, findings, rs.getString("tool_version"),
+                            rs.getString("config_fingerprint"));
                 })
                 .findOne());
     }
@@ -246,7 +255,7 @@ public final class ResultsStore {
     private List<Finding> storedFindings(Handle h, long runId) {
         return h.createQuery("SELECT variable, kind, test, statistic, p_value, q_value, effect_name, effect_estimate,"
                         + " effect_ci_low, effect_ci_high, effect_threshold, verdict, n_baseline, n_current, sentence,"
-                        + " detail::text AS detail FROM " + s + ".finding WHERE run_id = :run ORDER BY finding_id")
+                        + " df, df_convention, fdr_family_size, fdr_method, detail::text AS detail FROM " + s + ".finding WHERE run_id = :run ORDER BY finding_id")
                 .bind("run", runId)
                 .map((rs, ctx) -> finding(rs, detail(FindingKind.valueOf(rs.getString("kind")),
                         rs.getString("detail"))))
@@ -255,7 +264,7 @@ public final class ResultsStore {
 
     /**
      * A finding from a result row with the finding table's column names (variable, kind, test, statistic, p_value,
-     * q_value, effect_*, verdict, n_baseline, n_current, sentence).
+     * q_value, effect_*, verdict, n_baseline, n_current, sentence, df, df_convention, fdr_family_size, fdr_method).
      */
     static Finding finding(java.sql.ResultSet rs, Object detail) throws java.sql.SQLException {
         String effectName = rs.getString("effect_name");
@@ -266,7 +275,8 @@ public final class ResultsStore {
         return new Finding(rs.getString("variable"), FindingKind.valueOf(rs.getString("kind")), rs.getString("test"),
                 (Double) rs.getObject("statistic"), (Double) rs.getObject("p_value"), (Double) rs.getObject("q_value"),
                 effect, verdict == null ? null : Verdict.valueOf(verdict), (Long) rs.getObject("n_baseline"),
-                (Long) rs.getObject("n_current"), rs.getString("sentence"), detail);
+                (Long) rs.getObject("n_current"), rs.getString("sentence"), detail, (Double) rs.getObject("df"),
+                rs.getString("df_convention"), (Integer) rs.getObject("fdr_family_size"), rs.getString("fdr_method"));
     }
 
     private static Object detail(FindingKind kind, String json) {

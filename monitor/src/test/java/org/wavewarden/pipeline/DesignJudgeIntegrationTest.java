@@ -17,6 +17,7 @@ import java.util.List;
 import java.util.Map;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertNotNull;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 /**
@@ -130,6 +131,18 @@ class DesignJudgeIntegrationTest {
         rel(1.13860010265175, d.standardErrorBaseline(), 1e-9, "svymean SE w1");
         rel(1.13860010265175, d.standardErrorCurrent(), 1e-9, "svymean SE w2");
         rel(2.0, design.effect().estimate(), 1e-12, "difference of weighted means");
+    }
+
+    @Test
+    void theDesignBasedTFindingStatesItsDfAndWhatSvyttestWouldSay() {
+        Finding design = shift(0, "y");
+        assertEquals(40.0, design.df(), "degf 20 a wave, as R survey's degf of the stacked design");
+        assertEquals(org.wavewarden.compare.design.DesignMeanDifference.DF_DESIGN, design.dfConvention());
+        var r = ((WeightedComparator.LocationDetail) design.detail()).reproduce();
+        assertEquals(39.0, r.svyttest().df(), "svyttest's df, degf - 1");
+        // R 4.2.2: 2 * pt(-1.24206344183481, 39), the svyttest p of the same t
+        rel(0.221630633072193, r.svyttest().pValue(), 1e-9, "svyttest p");
+        assertNotNull(shift(1, "y").df(), "the weights-only finding states its df too");
     }
 
     @Test

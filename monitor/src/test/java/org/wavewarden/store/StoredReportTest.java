@@ -66,6 +66,10 @@ class StoredReportTest {
                 assertEquals(said.alpha(), stored.alpha());
                 assertEquals(said.fdrMethod(), stored.fdrMethod());
                 assertEquals(said.inference(), stored.inference());
+                assertEquals(FindingsReport.SCHEMA_VERSION, stored.schemaVersion());
+                assertEquals(said.toolVersion(), stored.toolVersion());
+                assertEquals(said.configFingerprint(), stored.configFingerprint());
+                assertEquals(said.fdrFamilySize(), stored.fdrFamilySize());
                 assertEquals(tree(said.findings()), tree(stored.findings()), wave);
                 for (Finding f : stored.findings()) {
                     if (f.kind() == FindingKind.RELATIONSHIP_CHANGE && f.verdict() != null) {

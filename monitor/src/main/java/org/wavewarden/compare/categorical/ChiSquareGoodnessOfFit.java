@@ -34,7 +34,7 @@ public final class ChiSquareGoodnessOfFit {
             double d = observed[i] - e;
             x2 += d * d / e;
         }
-        return new TestResult(NAME, x2, df, ChiSquareHomogeneity.upperTail(x2, df));
+        return new TestResult(NAME, x2, df, ChiSquareHomogeneity.upperTail(x2, df), "categories - 1");
     }
 
     public static EffectSize cohensW(long[] observed, double[] expectedProportions, double confidence) {

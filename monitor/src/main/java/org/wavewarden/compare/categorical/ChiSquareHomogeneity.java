@@ -78,7 +78,7 @@ public final class ChiSquareHomogeneity {
             test = new TestResult(NAME, 0, 0, 1);
         } else {
             int df = (r - 1) * (c - 1);
-            test = new TestResult(NAME, x2, df, upperTail(x2, df));
+            test = new TestResult(NAME, x2, df, upperTail(x2, df), "(rows - 1)(columns - 1) of the table tested");
         }
         boolean cochran = cells > 0 && below1 == 0 && below5 <= 0.2 * cells;
         String note = cochranNote(cells, below1, below5, cochran);

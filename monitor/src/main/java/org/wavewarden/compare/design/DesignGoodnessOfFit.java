@@ -147,7 +147,9 @@ public final class DesignGoodnessOfFit {
         double scale = s2 / s1;
         double df = s1 * s1 / s2;
         double pValue = org.wavewarden.compare.categorical.ChiSquareHomogeneity.upperTail(x2 / scale, df);
-        return new Result(new TestResult(NAME, x2, df, pValue), shares, desc, scale);
+        return new Result(new TestResult(NAME, x2, df, pValue, "Satterthwaite: (sum of eigenvalues)^2 / sum of"
+                + " squared eigenvalues, X2 referred to scale times chi-square on it (R survey svygofchisq)"), shares,
+                desc, scale);
     }
 
     private static int position(double value, int k) {

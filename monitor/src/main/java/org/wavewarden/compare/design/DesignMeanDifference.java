@@ -26,6 +26,16 @@ import org.wavewarden.compare.TestResult;
 public final class DesignMeanDifference {
 
     public static final String NAME = "design-based t";
+    /** The df of a test under weights-only designs, named so that a reader can reproduce the p-value. */
+    public static final String DF_WEIGHTS_ONLY = "n_baseline + n_current - 2: each respondent its own PSU, one"
+            + " stratum per wave (R survey degf of the two waves stacked with the wave as stratum)";
+    /** The df of a test under stratified cluster designs. */
+    public static final String DF_DESIGN = "sum over the two waves of #PSU - #strata with answers (R survey degf"
+            + " of the two waves stacked with strata wave x stratum)";
+    /** Why R's two-group {@code svyttest} reports another p-value for the same t. */
+    public static final String SVYTTEST_NOTE = "R survey's svyttest(y ~ wave) on the two waves stacked gives the"
+            + " same difference and t but refers t to one degree of freedom fewer (degf - 1, the residual df of its"
+            + " two-coefficient regression)";
 
     private DesignMeanDifference() {
     }
@@ -43,7 +53,7 @@ public final class DesignMeanDifference {
         Checks.confidence(confidence);
         DesignEstimate a = WeightedEstimates.mean(baselineValues, baseline);
         DesignEstimate b = WeightedEstimates.mean(currentValues, current);
-        return combine(a, b, baseline.degreesOfFreedom() + current.degreesOfFreedom(), confidence,
+        return combine(a, b, baseline.degreesOfFreedom() + current.degreesOfFreedom(), DF_DESIGN, confidence,
                 "difference of weighted means");
     }
 
@@ -55,7 +65,8 @@ public final class DesignMeanDifference {
         Checks.confidence(confidence);
         DesignEstimate a = TallyEstimates.mean(baseline);
         DesignEstimate b = TallyEstimates.mean(current);
-        return combine(a, b, baseline.n() - 1 + current.n() - 1, confidence, "difference of weighted means");
+        return combine(a, b, baseline.n() - 1 + current.n() - 1, DF_WEIGHTS_ONLY, confidence,
+                "difference of weighted means");
     }
 
     /**
@@ -68,7 +79,8 @@ public final class DesignMeanDifference {
         checkBinary(baseline == null ? null : baseline.values(), current == null ? null : current.values());
         DesignEstimate a = TallyEstimates.mean(baseline);
         DesignEstimate b = TallyEstimates.mean(current);
-        return combine(a, b, baseline.n() - 1 + current.n() - 1, confidence, "difference of weighted shares");
+        return combine(a, b, baseline.n() - 1 + current.n() - 1, DF_WEIGHTS_ONLY, confidence,
+                "difference of weighted shares");
     }
 
     /**
@@ -82,7 +94,7 @@ public final class DesignMeanDifference {
             throw new IllegalArgumentException("baseline and current totals must not be null");
         }
         return combine(baseline.mean(), current.mean(), baseline.degreesOfFreedom() + current.degreesOfFreedom(),
-                confidence, "difference of weighted means");
+                DF_DESIGN, confidence, "difference of weighted means");
     }
 
     /**
@@ -97,7 +109,7 @@ public final class DesignMeanDifference {
         checkBinary(baseline.values(), current.values());
         PsuTotals a = baseline.totals();
         PsuTotals b = current.totals();
-        return combine(a.mean(), b.mean(), a.degreesOfFreedom() + b.degreesOfFreedom(), confidence,
+        return combine(a.mean(), b.mean(), a.degreesOfFreedom() + b.degreesOfFreedom(), DF_DESIGN, confidence,
                 "difference of weighted shares");
     }
 
@@ -108,12 +120,12 @@ public final class DesignMeanDifference {
         Checks.confidence(confidence);
         DesignEstimate a = WeightedEstimates.share(baselineHits, baseline);
         DesignEstimate b = WeightedEstimates.share(currentHits, current);
-        return combine(a, b, baseline.degreesOfFreedom() + current.degreesOfFreedom(), confidence,
+        return combine(a, b, baseline.degreesOfFreedom() + current.degreesOfFreedom(), DF_DESIGN, confidence,
                 "difference of weighted shares");
     }
 
     private static DesignMeanDifferenceResult combine(DesignEstimate a, DesignEstimate b, double df,
-                                                      double confidence, String effectName) {
+                                                      String dfConvention, double confidence, String effectName) {
         if (!(df > 0)) {
             throw new IllegalArgumentException("the designs have no degrees of freedom (#PSU - #strata = 0 in both)");
         }
@@ -128,8 +140,12 @@ public final class DesignMeanDifference {
         TDistribution student = new TDistribution((RandomGenerator) null, df, 1e-12);
         double p = Math.min(1.0, 2 * student.cumulativeProbability(-Math.abs(t)));
         double half = student.inverseCumulativeProbability(0.5 + confidence / 2) * se;
-        return new DesignMeanDifferenceResult(a, b, se, new TestResult(NAME, t, df, p),
-                new EffectSize(effectName, d, d - half, d + half, confidence));
+        // The same t referred to R's svyttest df, so that a reader checking with it can see where the p differs.
+        TestResult svyttest = df > 1 ? new TestResult("R survey svyttest", t, df - 1,
+                Math.min(1.0, 2 * new TDistribution((RandomGenerator) null, df - 1, 1e-12)
+                        .cumulativeProbability(-Math.abs(t))), "degf - 1") : null;
+        return new DesignMeanDifferenceResult(a, b, se, new TestResult(NAME, t, df, p, dfConvention),
+                new EffectSize(effectName, d, d - half, d + half, confidence), svyttest);
     }
 
     private static void checkBinary(double[]... waves) {

@@ -254,7 +254,7 @@ public final class RaoScott {
         double ddf = d0 * nu;
         double pSecond = Beta.regularizedBeta(ddf / (ddf + d0 * f), ddf / 2, d0 / 2);
         return new RaoScottResult(codes, x2, descending, meanDeff,
-                new TestResult(FIRST_ORDER, first, df, clamp(pFirst)),
+                new TestResult(FIRST_ORDER, first, df, clamp(pFirst), "categories - 1"),
                 new TestResult(SECOND_ORDER, f, d0, clamp(pSecond)), ddf);
     }
 

@@ -48,10 +48,11 @@ public final class LocationTestChoice {
     /**
      * The chosen test and why, in a sentence a reader of the findings can follow.
      *
-     * @param test   the primary test
-     * @param reason plain-language reason for the choice
+     * @param test      the primary test
+     * @param reason    plain-language reason for the choice
+     * @param normality the numbers the choice was made on, or null when no normality check was made
      */
-    public record Choice(LocationTest test, String reason) {
+    public record Choice(LocationTest test, String reason, Normality normality) {
         public Choice {
             if (test == null) {
                 throw new IllegalArgumentException("test must not be null");
@@ -59,6 +60,33 @@ public final class LocationTestChoice {
             if (reason == null || reason.isBlank()) {
                 throw new IllegalArgumentException("reason must not be blank");
             }
+        }
+
+        /** A choice made without a normality check. */
+        public Choice(LocationTest test, String reason) {
+            this(test, reason, null);
+        }
+    }
+
+    /**
+     * The normality evidence behind a choice as numbers, so that a reader can check it with another tool: the
+     * Shapiro-Wilk W and p of each wave with the level they were held to, or, for waves too large for it, each
+     * wave's sample skewness g1 and excess kurtosis g2 with their limits. The fields of the check not made are null.
+     */
+    public record Normality(String method, Double wBaseline, Double pBaseline, Double wCurrent, Double pCurrent,
+                            Double level, Double skewnessBaseline, Double excessKurtosisBaseline,
+                            Double skewnessCurrent, Double excessKurtosisCurrent, Double maxAbsSkewness,
+                            Double maxAbsExcessKurtosis) {
+
+        static Normality shapiroWilk(TestResult baseline, TestResult current, double level) {
+            return new Normality(ShapiroWilkTest.NAME, baseline.statistic(), baseline.pValue(), current.statistic(),
+                    current.pValue(), level, null, null, null, null, null, null);
+        }
+
+        static Normality moments(Moments baseline, Moments current) {
+            return new Normality("sample skewness and excess kurtosis", null, null, null, null, null,
+                    baseline.skewness(), baseline.excessKurtosis(), current.skewness(), current.excessKurtosis(),
+                    MAX_ABS_SKEWNESS, MAX_ABS_EXCESS_KURTOSIS);
         }
     }
 
@@ -89,13 +117,14 @@ public final class LocationTestChoice {
             boolean normalC = swc.pValue() >= SHAPIRO_WILK_LEVEL;
             String detail = String.format(Locale.ROOT, "Shapiro-Wilk p = %.3g (baseline), %.3g (current), level %s",
                     swb.pValue(), swc.pValue(), SHAPIRO_WILK_LEVEL);
+            Normality numbers = Normality.shapiroWilk(swb, swc, SHAPIRO_WILK_LEVEL);
             if (normalB && normalC) {
                 return new Choice(LocationTest.WELCH_T, "both waves are consistent with a normal distribution ("
-                        + detail + ")");
+                        + detail + ")", numbers);
             }
             String which = !normalB && !normalC ? "both waves" : !normalB ? "the baseline wave" : "the current wave";
             return new Choice(LocationTest.MANN_WHITNEY, which + " departs from a normal distribution (" + detail
-                    + ")");
+                    + ")", numbers);
         }
         Moments mb = Moments.of(baseline);
         Moments mc = Moments.of(current);
@@ -105,13 +134,14 @@ public final class LocationTestChoice {
                 "skewness %.2f and excess kurtosis %.2f (baseline), %.2f and %.2f (current); limits %s and %s",
                 mb.skewness(), mb.excessKurtosis(), mc.skewness(), mc.excessKurtosis(), MAX_ABS_SKEWNESS,
                 MAX_ABS_EXCESS_KURTOSIS);
+        Normality numbers = Normality.moments(mb, mc);
         if (okB && okC) {
             return new Choice(LocationTest.WELCH_T, "large waves with a near-symmetric, normal-tailed shape, so "
-                    + "the mean is a fair summary and Welch's t is valid (" + detail + ")");
+                    + "the mean is a fair summary and Welch's t is valid (" + detail + ")", numbers);
         }
         String which = !okB && !okC ? "both waves are" : !okB ? "the baseline wave is" : "the current wave is";
         return new Choice(LocationTest.MANN_WHITNEY, which + " too skewed or heavy-tailed for the mean to summarise "
-                + "them (" + detail + ")");
+                + "them (" + detail + ")", numbers);
     }
 
     /** True when n x^2 of the largest |x| passes the largest double, so a variance cannot be formed. */

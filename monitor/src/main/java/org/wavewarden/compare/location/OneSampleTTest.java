@@ -1,6 +1,7 @@
 package org.wavewarden.compare.location;
 
 import org.wavewarden.compare.Checks;
+import org.wavewarden.compare.TestResult;
 import org.wavewarden.profile.NumericDistribution;
 
 /**
@@ -27,13 +28,14 @@ public final class OneSampleTTest {
             throw new IllegalArgumentException("mu must be finite, was " + mu);
         }
         Checks.confidence(confidence);
-        return of(NAME, sample, mu, confidence, mu, sample.mean());
+        return of(NAME, sample, mu, confidence, mu, sample.mean(), TestResult.DF_ONE_SAMPLE);
     }
 
     static MeanDifference of(String name, NumericDistribution sample, double mu, double confidence,
-                             double meanBaseline, double meanCurrent) {
+                             double meanBaseline, double meanCurrent, String dfConvention) {
         double n = sample.n();
         double se = Math.sqrt(sample.variance() / n);
-        return TStatistics.result(name, sample.mean() - mu, se, n - 1, meanBaseline, meanCurrent, confidence);
+        return TStatistics.result(name, sample.mean() - mu, se, n - 1, dfConvention, meanBaseline, meanCurrent,
+                confidence);
     }
 }

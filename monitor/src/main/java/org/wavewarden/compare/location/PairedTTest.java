@@ -1,6 +1,7 @@
 package org.wavewarden.compare.location;
 
 import org.wavewarden.compare.Checks;
+import org.wavewarden.compare.TestResult;
 import org.wavewarden.profile.NumericDistribution;
 
 /**
@@ -51,7 +52,7 @@ public final class PairedTTest {
             sumC += current[i];
         }
         return OneSampleTTest.of(NAME, NumericDistribution.ofSample(diff), 0.0, confidence,
-                sumB / diff.length, sumC / diff.length);
+                sumB / diff.length, sumC / diff.length, TestResult.DF_PAIRED);
     }
 
     /**
@@ -76,7 +77,8 @@ public final class PairedTTest {
                     + meanDifference + " and " + sdDifference);
         }
         Checks.confidence(confidence);
-        return TStatistics.result(NAME, meanDifference, sdDifference / Math.sqrt(pairs), pairs - 1.0, meanBaseline,
+        return TStatistics.result(NAME, meanDifference, sdDifference / Math.sqrt(pairs), pairs - 1.0,
+                TestResult.DF_PAIRED, meanBaseline,
                 meanCurrent, confidence);
     }
 }

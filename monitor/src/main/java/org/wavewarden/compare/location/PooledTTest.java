@@ -1,6 +1,7 @@
 package org.wavewarden.compare.location;
 
 import org.wavewarden.compare.Checks;
+import org.wavewarden.compare.TestResult;
 import org.wavewarden.profile.NumericDistribution;
 
 /**
@@ -43,7 +44,7 @@ public final class PooledTTest {
         double se = Math.sqrt(pooled * (1 / n1 + 1 / n2));
         double m1 = baseline.mean();
         double m2 = current.mean();
-        return TStatistics.result(NAME, m2 - m1, se, df, m1, m2, confidence);
+        return TStatistics.result(NAME, m2 - m1, se, df, TestResult.DF_POOLED, m1, m2, confidence);
     }
 
     /** Sum of squared deviations from the wave's own mean; zero for a single observation. */

@@ -36,15 +36,15 @@ final class TStatistics {
         return student(df).inverseCumulativeProbability(0.5 + confidence / 2);
     }
 
-    static MeanDifference result(String name, double estimate, double se, double df, double meanBaseline,
-                                 double meanCurrent, double confidence) {
+    static MeanDifference result(String name, double estimate, double se, double df, String dfConvention,
+                                 double meanBaseline, double meanCurrent, double confidence) {
         if (!(se > 0)) {
             throw new IllegalArgumentException("standard error of the difference is " + se
                     + ": the data have no spread, so a t test is undefined");
         }
         double t = estimate / se;
         double half = criticalValue(df, confidence) * se;
-        return new MeanDifference(new TestResult(name, t, df, twoSidedP(t, df)), meanBaseline, meanCurrent,
+        return new MeanDifference(new TestResult(name, t, df, twoSidedP(t, df), dfConvention), meanBaseline, meanCurrent,
                 estimate, estimate - half, estimate + half, confidence);
     }
 }

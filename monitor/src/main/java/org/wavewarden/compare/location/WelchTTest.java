@@ -1,6 +1,7 @@
 package org.wavewarden.compare.location;
 
 import org.wavewarden.compare.Checks;
+import org.wavewarden.compare.TestResult;
 import org.wavewarden.profile.NumericDistribution;
 
 /**
@@ -37,6 +38,6 @@ public final class WelchTTest {
         double df = se2 * se2 / (w1 * w1 / (n1 - 1) + w2 * w2 / (n2 - 1));
         double m1 = baseline.mean();
         double m2 = current.mean();
-        return TStatistics.result(NAME, m2 - m1, Math.sqrt(se2), df, m1, m2, confidence);
+        return TStatistics.result(NAME, m2 - m1, Math.sqrt(se2), df, TestResult.DF_WELCH, m1, m2, confidence);
     }
 }

@@ -99,7 +99,7 @@ public final class StuartMaxwellTest {
         }
         tested.sort(null);
         double p = org.wavewarden.compare.categorical.ChiSquareHomogeneity.upperTail(x2, df);
-        TestResult test = new TestResult(NAME, x2, df, p);
+        TestResult test = new TestResult(NAME, x2, df, p, "categories - 1, summed over the groups tested");
 
         int largest = 0;
         for (int i = 1; i < k; i++) {

@@ -36,7 +36,7 @@ public final class McNemarTest {
         double k = continuityCorrection ? 1 : 0;
         double diff = Math.abs(noYes - yesNo) - k;
         double x2 = diff * diff / discordant;
-        return new TestResult(name, x2, 1, StandardNormal.twoSidedP(Math.sqrt(x2)));
+        return new TestResult(name, x2, 1, StandardNormal.twoSidedP(Math.sqrt(x2)), "1");
     }
 
     /**

@@ -17,8 +17,9 @@ import org.junit.jupiter.api.Test;
  *   # weights only: svydesign(ids = ~1, strata = ~wave, weights = ~w, data = d)
  * t &lt;- svyttest(y ~ wave, st); c(t$estimate, t$statistic, t$parameter, t$p.value); degf(st)
  * </pre>
- * svyttest uses df = degf(st) - 1; this class uses degf(st), so its p-value is checked by formula (commons-math3
- * 3.6.1 t distribution) and the svyttest p-value is reproduced with df - 1.
+ * svyttest uses df = degf(st) - 1 (the residual df of {@code svyglm(y ~ wave, st)}, checked in the same R); this
+ * class uses degf(st), so its p-value is checked by formula (commons-math3 3.6.1 t distribution), and the svyttest
+ * p-value it states beside it ({@code svyttest()}) is held to R's.
  */
 class DesignMeanDifferenceTest {
 
@@ -40,6 +41,11 @@ class DesignMeanDifferenceTest {
         assertEquals(seFormula, m.standardError(), 1e-15);
         // svyttest's p from our t on its df
         assertEquals(r[3], 2 * new TDistribution(r[2]).cumulativeProbability(-Math.abs(t)), 1e-9 * r[3], "p(df-1)");
+        // what the result states for a reader checking with svyttest: R's df and p, beside its own df convention
+        assertEquals(r[2], m.svyttest().df(), 0, "svyttest df as stated");
+        assertEquals(r[3], m.svyttest().pValue(), 1e-9 * r[3], "svyttest p as stated");
+        assertEquals(t, m.svyttest().statistic(), 0, "the same t");
+        assertEquals(DesignMeanDifference.DF_DESIGN, m.test().dfConvention());
         TDistribution ours = new TDistribution(degf);
         assertEquals(2 * ours.cumulativeProbability(-Math.abs(t)), m.test().pValue(), 1e-12, "p");
         double half = ours.inverseCumulativeProbability(0.975) * seFormula;

@@ -17,6 +17,7 @@ class OneSampleTTestTest {
         MeanDifference m = OneSampleTTest.test(NumericDistribution.ofSample(SLEEP_1), 0.5, 0.95);
         assertEquals(0.44190338023794046, m.test().statistic(), 1e-12);
         assertEquals(9, m.test().df(), 0.0);
+        assertEquals("n - 1", m.test().dfConvention());
         assertEquals(0.66898662361467487, m.test().pValue(), 1e-12);
         // R's conf.int is for the mean; ours is for mean - mu
         assertEquals(-0.52978041352623229 - 0.5, m.ciLow(), 1e-10);

@@ -17,6 +17,7 @@ class PairedTTestTest {
         MeanDifference m = PairedTTest.test(SLEEP_2, SLEEP_1, 0.95);
         assertEquals(-4.0621, m.test().statistic(), 5e-5);
         assertEquals(9, m.test().df(), 0.0);
+        assertEquals("pairs - 1", m.test().dfConvention());
         assertEquals(0.002833, m.test().pValue(), 5e-7);
         // R 4.2.2 (Debian r-base-core): t.test(g1, g2, paired = TRUE), full precision
         assertEquals(-4.0621276833820366, m.test().statistic(), 1e-10);
@@ -79,6 +80,7 @@ class PairedTTestTest {
                 0.95);
         assertEquals(pairs.test().statistic(), moments.test().statistic(), 1e-12);
         assertEquals(pairs.test().df(), moments.test().df(), 0.0);
+        assertEquals(pairs.test().dfConvention(), moments.test().dfConvention());
         assertEquals(pairs.test().pValue(), moments.test().pValue(), 1e-15);
         assertEquals(pairs.ciLow(), moments.ciLow(), 1e-12);
         assertEquals(pairs.ciHigh(), moments.ciHigh(), 1e-12);

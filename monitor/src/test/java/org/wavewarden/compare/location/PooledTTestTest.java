@@ -14,6 +14,7 @@ class PooledTTestTest {
     private static void assertMatches(double[] r, MeanDifference m, double tol) {
         assertEquals(r[0], m.test().statistic(), tol * Math.abs(r[0]), "t");
         assertEquals(r[1], m.test().df(), 0.0, "df");
+        assertEquals(org.wavewarden.compare.TestResult.DF_POOLED, m.test().dfConvention(), "the df's convention is named");
         assertEquals(r[2], m.test().pValue(), tol * r[2], "p");
         assertEquals(r[3], m.ciLow(), tol * Math.abs(r[3]), "ciLow");
         assertEquals(r[4], m.ciHigh(), tol * Math.abs(r[4]), "ciHigh");

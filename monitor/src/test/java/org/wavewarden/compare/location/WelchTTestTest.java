@@ -25,6 +25,7 @@ class WelchTTestTest {
     private static void assertMatches(double[] r, MeanDifference m, double tol) {
         assertEquals(r[0], m.test().statistic(), tol * Math.abs(r[0]), "t");
         assertEquals(r[1], m.test().df(), tol * r[1], "df");
+        assertEquals(org.wavewarden.compare.TestResult.DF_WELCH, m.test().dfConvention(), "the df's convention is named");
         assertEquals(r[2], m.test().pValue(), tol * r[2], "p");
         assertEquals(r[3], m.ciLow(), tol * Math.abs(r[3]), "ciLow");
         assertEquals(r[4], m.ciHigh(), tol * Math.abs(r[4]), "ciHigh");

@@ -179,7 +179,8 @@ class StuartMaxwellTestTest {
     @Test
     void nobodyMovingMeansNoEvidenceAndAZeroWidthShift() {
         StuartMaxwellResult r = StuartMaxwellTest.test(new long[][] {{5, 0}, {0, 7}}, 0.95);
-        assertEquals(new TestResult(StuartMaxwellTest.NAME, 0, 0, 1), r.test());
+        assertEquals(new TestResult(StuartMaxwellTest.NAME, 0, 0, 1, "categories - 1, summed over the groups tested"),
+                r.test());
         assertEquals(0, r.largestShift().estimate());
         assertEquals(0, r.largestShift().ciLow());
         assertEquals(0, r.largestShift().ciHigh());
