@@ -29,7 +29,7 @@ public final class Judge {
             Finding.Effect e = new Finding.Effect(c.effect().name(), c.effect().estimate(), c.effect().ciLow(),
                     c.effect().ciHigh(), c.threshold());
             out.add(new Finding(c.variable(), c.kind(), c.test().test(), c.test().statistic(), c.test().pValue(), q[i],
-                    e, v, c.kind() == FindingKind.REFERENCE ? null : c.nBaseline(), c.nCurrent(), Sentences.shift(c, q[i], v, alpha), c.detail()));
+                    e, v, c.kind() == FindingKind.REFERENCE ? null : c.nBaseline(), c.nCurrent(), Sentences.shift(c, q[i], v, alpha, comparisons.size()), c.detail()));
         }
         return out;
     }

@@ -16,6 +16,7 @@ import org.wavewarden.deliver.FindingsReport;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
 import org.wavewarden.judge.Judge;
+import org.wavewarden.judge.MissingRateContext;
 import org.wavewarden.judge.Verdict;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.ColumnType;
@@ -328,8 +329,8 @@ public final class WaveJudge {
             plain.addAll(myPlain);
         }
         comparisons.addAll(alsoJudged);
-        List<Finding> findings = new ArrayList<>(withSummaryError(shapeOnlyWhereLocationIsQuiet(
-                onePerVariableAndKind(Judge.judge(comparisons, alpha, fdr))), summarised));
+        List<Finding> findings = new ArrayList<>(withSummaryError(MissingRateContext.apply(shapeOnlyWhereLocationIsQuiet(
+                onePerVariableAndKind(Judge.judge(comparisons, alpha, fdr)))), summarised));
         findings.addAll(plain);
         return findings;
     }
