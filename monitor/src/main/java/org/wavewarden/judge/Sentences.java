@@ -58,33 +58,39 @@ public final class Sentences {
         } else {
             s.append("went from ").append(before).append(" to ").append(after);
         }
-        s.append(missingRate ? " of rows" + ratio(ch, before, after) : unit);
+        s.append(missingRate ? " of rows" + (printedMove == 0 ? "" : ratio(ch)) : unit);
         if (!plainDifference && printedMove == 0 && shiftSign != 0) {
             s.append(", but the answers as a whole moved");
         }
-        s.append(" (");
-        if (!shiftName.isEmpty()) {
-            s.append(shiftName).append(' ');
-        }
-        s.append(signed(ch, ch.estimate()));
-        if (missingRate) {
-            s.append(" points");
-        }
-        if (!Double.isNaN(ch.ciLow())) {
-            s.append(", ").append(Math.round(c.effect().confidence() * 100)).append("% CI ")
-                    .append(signed(ch, ch.ciLow())).append(" to ").append(signed(ch, ch.ciHigh()));
-        }
-        if (!missingRate) {
-            s.append(ch.percent() ? " points" : unitSuffix(ch));
-        }
-        if (shiftName.equals(HODGES_LEHMANN)) {
-            s.append(", the typical difference between answers of the two waves");
-        }
+        // A plain difference without an interval is the two values' difference and adds nothing to read.
+        boolean estimateShown = !plainDifference || !Double.isNaN(ch.ciLow());
         String note = otherNote(ch.note());
-        if (!note.isEmpty()) {
-            s.append("; ").append(note);
+        if (estimateShown || !note.isEmpty()) {
+            s.append(" (");
         }
-        s.append("); ");
+        if (estimateShown) {
+            if (!shiftName.isEmpty()) {
+                s.append(shiftName).append(' ');
+            }
+            s.append(signed(ch, ch.estimate()));
+            if (missingRate) {
+                s.append(" points");
+            }
+            if (!Double.isNaN(ch.ciLow())) {
+                s.append(", ").append(Math.round(c.effect().confidence() * 100)).append("% CI ")
+                        .append(signed(ch, ch.ciLow())).append(" to ").append(signed(ch, ch.ciHigh()));
+            }
+            if (!missingRate) {
+                s.append(ch.percent() ? " points" : unitSuffix(ch));
+            }
+            if (shiftName.equals(HODGES_LEHMANN)) {
+                s.append(", the typical difference between answers of the two waves");
+            }
+        }
+        if (!note.isEmpty()) {
+            s.append(estimateShown ? "; " : "").append(note);
+        }
+        s.append(estimateShown || !note.isEmpty() ? "); " : "; ");
         s.append(chance(c.test().pValue(), qValue, familySize));
         s.append("; ").append(c.effect().name()).append(' ').append(num(c.effect().estimate(), 3));
         // Cohen's conventions describe differences between groups; for a missing rate the ratio and the points
@@ -118,8 +124,8 @@ public final class Sentences {
         return note.startsWith(SHIFT_NOTE) ? note.contains("; ") ? note.split("; ", 2)[1] : "" : note;
     }
 
-    /** ", 6.6 times as many", computed from the two printed shares so that the three numbers agree. */
-    static String ratio(Change ch, String before, String after) {
+    /** ", 6.6 times as many": the current share over the baseline share, to two significant digits. */
+    static String ratio(Change ch) {
         double b = ch.before();
         double a = ch.after();
         if (b == 0 && a > 0) {

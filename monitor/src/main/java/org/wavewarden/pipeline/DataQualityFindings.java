@@ -80,7 +80,7 @@ final class DataQualityFindings {
                             + " (%,d rows)%s: %s%s.", ofRows(total, current.rows()),
                     kind.name().toLowerCase(Locale.ROOT).replace('_', ' '), quoted(frequent.value()), frequent.count(),
                     frequent == top ? "" : "; the most confident candidate is " + quoted(top.value()), evidence,
-                    list.size() > 1 ? "; " + (list.size() - 1) + " more value(s) of this kind in the detail" : "");
+                    list.size() > 1 ? "; the detail lists the other values of this kind" : "");
             out.add(Finding.dataQuality(name, FindingKind.valueOf(kind.name()), nB, nC, sentence,
                     new CandidatesDetail(list, top.confidence() >= VariableScreen.EXCLUDE_CONFIDENCE, total,
                             current.rows())));

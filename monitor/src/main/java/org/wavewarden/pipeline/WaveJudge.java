@@ -2,6 +2,7 @@ package org.wavewarden.pipeline;
 
 import org.jdbi.v3.core.Handle;
 import org.wavewarden.compare.Comparison;
+import org.wavewarden.compare.EffectSize;
 import org.wavewarden.compare.VariableComparator;
 import org.wavewarden.compare.WeightedComparator;
 import org.wavewarden.config.CompareWith;
@@ -403,8 +404,8 @@ public final class WaveJudge {
     }
 
     /** The missing rate of one reason, as the detail of the variable's MISSING_RATE_CHANGE finding lists it. */
-    record ReasonRate(String reason, double shareBaseline, double shareCurrent, double pValue, double qValue,
-                      String verdict, String sentence) {
+    record ReasonRate(String reason, double shareBaseline, double shareCurrent, EffectSize difference,
+                      double pValue, double qValue, String verdict, String sentence) {
     }
 
     /**
@@ -428,7 +429,7 @@ public final class WaveJudge {
             List<ReasonRate> detail = ranked.stream().map(f -> {
                 var d = (VariableComparator.ProportionDetail) f.detail();
                 return new ReasonRate(d.successValue().replaceFirst("^missing \\((.*)\\)$", "$1"), d.shareBaseline(),
-                        d.shareCurrent(), f.pValue(), f.qValue(), f.verdict().name(), f.sentence());
+                        d.shareCurrent(), d.riskDifference(), f.pValue(), f.qValue(), f.verdict().name(), f.sentence());
             }).toList();
             out.add(new Finding(top.variable(), top.kind(), top.test(), top.statistic(), top.pValue(), top.qValue(),
                     top.effect(), top.verdict(), top.nBaseline(), top.nCurrent(), top.sentence(), detail));
