@@ -38,7 +38,8 @@ public final class Sentences {
         double diff = ch.after() - ch.before();
         // The estimate is the plain difference unless the comparison names another shift (Hodges-Lehmann, the
         // median of paired changes); rounding of after - before must not turn the one into the other.
-        boolean plainDifference = Math.abs(ch.estimate() - diff) <= 1e-9 * Math.max(1, Math.abs(diff));
+        boolean namedShift = ch.note().startsWith(SHIFT_NOTE);
+        boolean plainDifference = !namedShift && Math.abs(ch.estimate() - diff) <= 1e-9 * Math.max(1, Math.abs(diff));
         String shiftName = plainDifference ? "" : shiftName(ch.note());
         int digits = Math.max(decimals(ch.before()), Math.min(3, decimals(ch.estimate())));
         String before = value(ch, ch.before(), digits);

@@ -88,6 +88,16 @@ class SentencesTest {
     }
 
     @Test
+    void equalMediansAndNoShiftStillNameTheShiftTheIntervalBelongsTo() {
+        Change change = new Change("median age", 50, 50, false, "years", 0.0, -1.0, 1.0,
+                "the shift is the Hodges-Lehmann estimate");
+        String s = judgedAlone(comparison("age", 0.8, new EffectSize("Cliff's delta", 0.0, -0.02, 0.02, 0.95), 0.147,
+                change)).sentence();
+        assertTrue(s.startsWith("Median age stayed at 50.000 years (Hodges-Lehmann shift +0.000, 95% CI -1.00 to"
+                + " +1.00 years, the typical difference between answers of the two waves)"), s);
+    }
+
+    @Test
     void aMissingRateLeadsWithTheRatioAndPointsAndCarriesNoMagnitudeWord() {
         Comparison c = new VariableComparator(0.95).proportion("income", FindingKind.MISSING_RATE_CHANGE,
                 "missing (NULL)", 18, 1000, 118, 1000, null);
