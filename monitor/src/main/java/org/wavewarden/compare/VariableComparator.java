@@ -87,7 +87,12 @@ public final class VariableComparator {
     }
 
     public record CategoryDetail(List<CategoryRow> categories, boolean cochranSatisfied, String cochranNote,
-                                 double cramersVBiasCorrected, double jensenShannon, String primaryTestNote) {
+                                 double cramersVBiasCorrected, double jensenShannon, String primaryTestNote,
+                                 EffectSize movedShareDifference) {
+    }
+
+    /** Detail of a comparison with a reference: the reference, the wave's estimate and their difference. */
+    public record ReferenceDetail(double reference, double estimate, EffectSize difference) {
     }
 
     public record ProportionDetail(String successValue, double shareBaseline, double shareCurrent,
@@ -191,7 +196,8 @@ public final class VariableComparator {
         }
         Change change = new Change("mean " + variable + " against its reference", mu, md.meanCurrent(), false, unit,
                 md.difference(), md.ciLow(), md.ciHigh(), "the first value is the reference");
-        return new Comparison(variable, FindingKind.REFERENCE, md.test(), raw, t, source, 0, current.n(), change, null);
+        return new Comparison(variable, FindingKind.REFERENCE, md.test(), raw, t, source, 0, current.n(), change,
+                new ReferenceDetail(mu, md.meanCurrent(), raw));
     }
 
     /**
@@ -229,7 +235,10 @@ public final class VariableComparator {
         Change change = new Change("share answering '" + cats.get(worst) + "' against its reference", expected[worst],
                 share, true, null, share - expected[worst], wilson.lower() - expected[worst],
                 wilson.upper() - expected[worst], "the first value is the reference");
-        return new Comparison(variable, FindingKind.REFERENCE, gof, w, t.value(), t.source(), 0, n, change, null);
+        return new Comparison(variable, FindingKind.REFERENCE, gof, w, t.value(), t.source(), 0, n, change,
+                new ReferenceDetail(expected[worst], share, new EffectSize("difference from the reference share",
+                        share - expected[worst], wilson.lower() - expected[worst], wilson.upper() - expected[worst],
+                        confidence)));
     }
 
     /**
@@ -295,7 +304,7 @@ public final class VariableComparator {
                 moved.shareCurrent(), true, null, share.riskDifference().estimate(), lo, hi, "the category that moved most (adjusted residual "
                 + signed(moved.adjustedResidual(), 1) + ")");
         CategoryDetail d = new CategoryDetail(rows, chi.cochranSatisfied(), chi.cochranNote(),
-                CramersV.biasCorrected(table), JensenShannon.distance(b, c), note);
+                CramersV.biasCorrected(table), JensenShannon.distance(b, c), note, share.riskDifference());
         return new Comparison(variable, FindingKind.SHIFT, primary, effect, t.value(), t.source(), nB, nC, change, d);
     }
 

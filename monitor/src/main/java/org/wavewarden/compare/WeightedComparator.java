@@ -152,7 +152,15 @@ public final class WeightedComparator {
      */
     public record CategoryDetail(Weighting weightingBaseline, Weighting weightingCurrent, List<CategoryRow> categories,
                                  double pearsonChiSquare, double[] generalizedDesignEffects,
-                                 TestResult firstOrder, double denominatorDf) {
+                                 TestResult firstOrder, double denominatorDf, EffectSize movedShareDifference) {
+    }
+
+    /**
+     * Detail of a weighted reference comparison: the wave's weighting, its distance from the reference, and for
+     * reference shares the Satterthwaite scale and df of the goodness-of-fit test (NaN for a reference mean).
+     */
+    public record ReferenceDetail(Weighting weighting, double reference, double estimate, EffectSize difference,
+                                 double satterthwaiteScale, double df) {
     }
 
     /** Continuous and ordinal variables: the design-based t on weighted means. */
@@ -293,7 +301,7 @@ public final class WeightedComparator {
                 null, share.estimate(), share.ciLow(), share.ciHigh(), "the category that moved most (design-based t "
                 + VariableComparator.signed(top.test().statistic(), 1) + "); " + weightingNote(wb, wc));
         CategoryDetail d = new CategoryDetail(wb, wc, rows, rs.pearsonChiSquare(), rs.designEffects(),
-                rs.firstOrder(), rs.denominatorDf());
+                rs.firstOrder(), rs.denominatorDf(), share);
         TestResult second = rs.secondOrder();
         TestResult test = new TestResult(CATEGORIES_TEST + (design == null ? "" : WITH_DESIGN), second.statistic(),
                 second.df(), second.pValue(), RAO_SCOTT_DF);
@@ -345,7 +353,8 @@ public final class WeightedComparator {
         TestResult test = new TestResult(DesignGoodnessOfFit.NAME + (design == null ? "" : WITH_DESIGN),
                 r.test().statistic(), r.test().df(), r.test().pValue(), r.test().dfConvention());
         return new Comparison(variable, FindingKind.REFERENCE, test, w, t.value(), t.source(), 0, current.n(), change,
-                wc);
+                new ReferenceDetail(wc, expected[worst], share.estimate(), new EffectSize("difference from the"
+                        + " reference share", d, d - half, d + half, confidence), r.scale(), r.test().df()));
     }
 
     /**
@@ -385,7 +394,7 @@ public final class WeightedComparator {
                 w.effectiveSampleSize(), w.designEffect()));
         return new Comparison(variable, FindingKind.REFERENCE, new TestResult("design-based one-sample t on the"
                 + " weighted mean", tStat, df, p, DF_ONE_SAMPLE_WEIGHTS_ONLY), raw, threshold, source, 0, current.n(),
-                change, w);
+                change, new ReferenceDetail(w, mu, m.estimate(), raw, Double.NaN, df));
     }
 
     /** "weighted: Kish effective sample sizes 205 and 244, design effects due to weighting 1.46 and 1.39". */

@@ -32,7 +32,7 @@ public final class Judge {
             double df = c.test().df();
             out.add(new Finding(c.variable(), c.kind(), c.test().test(), c.test().statistic(), c.test().pValue(), q[i],
                     e, v, c.kind() == FindingKind.REFERENCE ? null : c.nBaseline(), c.nCurrent(),
-                    Sentences.shift(c, q[i], v, alpha), c.detail(), Double.isNaN(df) ? null : df,
+                    Sentences.shift(c, q[i], v, alpha, comparisons.size()), c.detail(), Double.isNaN(df) ? null : df,
                     Double.isNaN(df) ? null : c.test().dfConvention(), p.length, method.name()));
         }
         return out;

@@ -15,59 +15,182 @@ public final class Sentences {
     private Sentences() {
     }
 
-    public static String shift(Comparison c, double qValue, Verdict verdict, double alpha) {
+    /**
+     * The sentence of a judged comparison.
+     *
+     * @param qValue     the comparison's q-value after false-discovery-rate control
+     * @param familySize how many tests that control ran over (the run's family), so a reader can see why q exceeds p
+     */
+    public static String shift(Comparison c, double qValue, Verdict verdict, double alpha, int familySize) {
         Change ch = c.change();
         if (c.kind() == FindingKind.RELATIONSHIP_CHANGE) {
-            return relationship(c, qValue, verdict);
+            return relationship(c, qValue, verdict, alpha, familySize);
         }
         if (c.kind() == FindingKind.SHAPE_CHANGE) {
             return String.format(Locale.ROOT, "The shape of %s's distribution changed although its typical value did"
-                            + " not: the %s is %.1f points (%d%% CI %.1f to %.1f; %s); %s (q = %s): %s.",
+                            + " not: the %s is %.1f points (%d%% CI %.1f to %.1f; %s); %s: %s.",
                     c.variable(), ch.measure().replace(" of " + c.variable(), ""), ch.after() * 100,
                     Math.round(c.effect().confidence() * 100), ch.ciLow() * 100, ch.ciHigh() * 100, ch.note(),
-                    chance(c.test().pValue()), q(qValue), verdict.name());
+                    chance(c.test().pValue(), qValue, familySize), verdict.name());
         }
         StringBuilder s = new StringBuilder();
         String measure = Character.toUpperCase(ch.measure().charAt(0)) + ch.measure().substring(1);
         double diff = ch.after() - ch.before();
+        // The estimate is the plain difference unless the comparison names another shift (Hodges-Lehmann, the
+        // median of paired changes); rounding of after - before must not turn the one into the other.
+        boolean namedShift = ch.note().startsWith(SHIFT_NOTE);
+        boolean plainDifference = !namedShift && Math.abs(ch.estimate() - diff) <= 1e-9 * Math.max(1, Math.abs(diff));
+        String shiftName = plainDifference ? "" : shiftName(ch.note());
         int digits = Math.max(decimals(ch.before()), Math.min(3, decimals(ch.estimate())));
-        String direction = diff > 0 ? "rose" : diff < 0 ? "fell" : "stayed";
-        s.append(measure).append(' ').append(direction).append(" from ").append(value(ch, ch.before(), digits))
-                .append(" to ").append(value(ch, ch.after(), digits)).append(ch.percent() ? "" : unitSuffix(ch));
-        s.append(" (").append(ch.estimate() == diff ? "" : "shift ").append(signed(ch, ch.estimate()));
-        if (!Double.isNaN(ch.ciLow())) {
-            s.append(", ").append(Math.round(c.effect().confidence() * 100)).append("% CI ")
-                    .append(signed(ch, ch.ciLow())).append(" to ").append(signed(ch, ch.ciHigh()));
+        String before = value(ch, ch.before(), digits);
+        String after = value(ch, ch.after(), digits);
+        String unit = ch.percent() ? "" : unitSuffix(ch);
+        boolean missingRate = c.kind() == FindingKind.MISSING_RATE_CHANGE && ch.percent();
+        // A direction word must agree with every change the sentence prints: with a named shift beside the two
+        // values, it is used only when both point the same way.
+        int printedMove = Double.compare(Double.parseDouble(after.replace("%", "")),
+                Double.parseDouble(before.replace("%", "")));
+        int shiftSign = (int) Math.signum(Double.parseDouble(signed(ch, ch.estimate())));
+        s.append(measure).append(' ');
+        if (printedMove == 0) {
+            s.append("stayed at ").append(after);
+        } else if (plainDifference || printedMove == shiftSign) {
+            s.append(printedMove > 0 ? "rose" : "fell").append(" from ").append(before).append(" to ").append(after);
+        } else {
+            s.append("went from ").append(before).append(" to ").append(after);
         }
-        s.append(ch.percent() ? " points" : unitSuffix(ch));
-        if (!ch.note().isEmpty()) {
-            s.append("; ").append(ch.note());
+        s.append(missingRate ? " of rows" + (printedMove == 0 ? "" : ratio(ch)) : unit);
+        if (!plainDifference && printedMove == 0 && shiftSign != 0) {
+            s.append(", but the answers as a whole moved");
         }
-        s.append("); ");
-        s.append(chance(c.test().pValue())).append(" (").append(q(qValue)).append(")");
+        // A plain difference without an interval is the two values' difference and adds nothing to read.
+        boolean estimateShown = !plainDifference || !Double.isNaN(ch.ciLow());
+        String note = otherNote(ch.note());
+        if (estimateShown || !note.isEmpty()) {
+            s.append(" (");
+        }
+        if (estimateShown) {
+            if (!shiftName.isEmpty()) {
+                s.append(shiftName).append(' ');
+            }
+            s.append(signed(ch, ch.estimate()));
+            if (missingRate) {
+                s.append(" points");
+            }
+            if (!Double.isNaN(ch.ciLow())) {
+                s.append(", ").append(Math.round(c.effect().confidence() * 100)).append("% CI ")
+                        .append(signed(ch, ch.ciLow())).append(" to ").append(signed(ch, ch.ciHigh()));
+            }
+            if (!missingRate) {
+                s.append(ch.percent() ? " points" : unitSuffix(ch));
+            }
+            if (shiftName.equals(HODGES_LEHMANN)) {
+                s.append(", the typical difference between answers of the two waves");
+            }
+        }
+        if (!note.isEmpty()) {
+            s.append(estimateShown ? "; " : "").append(note);
+        }
+        s.append(estimateShown || !note.isEmpty() ? "); " : "; ");
+        s.append(chance(c.test().pValue(), qValue, familySize));
         s.append("; ").append(c.effect().name()).append(' ').append(num(c.effect().estimate(), 3));
-        String word = org.wavewarden.compare.Magnitude.of(c.effect().name(), c.effect().estimate());
+        // Cohen's conventions describe differences between groups; for a missing rate the ratio and the points
+        // above say how large the change is, and "small" would understate a six-fold rise.
+        String word = missingRate ? "" : org.wavewarden.compare.Magnitude.of(c.effect().name(), c.effect().estimate());
         if (!word.isEmpty()) {
-            s.append(" (").append(word).append(')');
+            s.append(" (").append(word).append(", ").append(magnitudeSource(c.effect().name())).append(')');
         }
         boolean beyond = Math.abs(c.effect().estimate()) >= c.threshold();
         s.append(beyond ? ", at or above" : ", below").append(" the ").append(thresholdText(c)).append(" threshold");
-        if (verdict == Verdict.UNCERTAIN) {
-            s.append(", but the interval (").append(num(c.effect().ciLow(), 3)).append(" to ")
-                    .append(num(c.effect().ciHigh(), 3)).append(") still reaches it");
-        } else if (verdict == Verdict.STABLE) {
-            s.append(", and the interval (").append(num(c.effect().ciLow(), 3)).append(" to ")
-                    .append(num(c.effect().ciHigh(), 3)).append(") rules out a change that large");
-        }
+        s.append(intervalClause(c, beyond, verdict, qValue, alpha, true));
         s.append(": ").append(verdict.name()).append('.');
         return s.toString();
+    }
+
+    /** The name Sentences gives the Hodges-Lehmann estimate beside two medians. */
+    static final String HODGES_LEHMANN = "Hodges-Lehmann shift";
+    /** A comparison whose change is a named shift says so in its note: "the shift is the ...". */
+    static final String SHIFT_NOTE = "the shift is the ";
+
+    static String shiftName(String note) {
+        String first = note.split("; ", 2)[0];
+        if (!first.startsWith(SHIFT_NOTE)) {
+            return "shift";
+        }
+        String name = first.substring(SHIFT_NOTE.length());
+        return name.equals("Hodges-Lehmann estimate") ? HODGES_LEHMANN : name;
+    }
+
+    static String otherNote(String note) {
+        return note.startsWith(SHIFT_NOTE) ? note.contains("; ") ? note.split("; ", 2)[1] : "" : note;
+    }
+
+    /** ", 6.6 times as many": the current share over the baseline share, to two significant digits. */
+    static String ratio(Change ch) {
+        double b = ch.before();
+        double a = ch.after();
+        if (b == 0 && a > 0) {
+            return ", where the baseline had none";
+        }
+        if (a == 0 && b > 0) {
+            return ", none this wave";
+        }
+        if (b == 0) {
+            return "";
+        }
+        String r = String.format(Locale.ROOT, "%.2g", a / b);
+        return Double.parseDouble(r) == 1 ? "" : ", " + r + " times as many";
+    }
+
+    /** Where the magnitude words of {@link org.wavewarden.compare.Magnitude} come from, named beside the word. */
+    static String magnitudeSource(String effectName) {
+        return effectName.toLowerCase(Locale.ROOT).startsWith("cliff") ? "Romano et al. 2006" : "Cohen 1988";
+    }
+
+    /**
+     * The clause that reads the interval against the threshold, derived from the interval as printed: the limits
+     * are printed with as many decimals as it takes for the printed numbers to show what the verdict saw.
+     */
+    static String intervalClause(Comparison c, boolean estimateBeyond, Verdict verdict, double qValue, double alpha,
+                                 boolean printInterval) {
+        if (verdict != Verdict.UNCERTAIN && verdict != Verdict.STABLE) {
+            return "";
+        }
+        double t = c.threshold();
+        double lo = c.effect().ciLow();
+        double hi = c.effect().ciHigh();
+        int d = 3;
+        while (d < 8 && (verdict == Verdict.STABLE) != inside(round(lo, d), round(hi, d), t)) {
+            d++;
+        }
+        double l = round(lo, d);
+        double h = round(hi, d);
+        String interval = printInterval ? "the interval (" + num(lo, d) + " to " + num(hi, d) + ")" : "its interval";
+        if (verdict == Verdict.STABLE) {
+            return ", and " + interval + " rules out a change that large";
+        }
+        if (l >= t || h <= -t) {
+            return ", and so does " + (printInterval ? "all of " + interval : "all of its interval")
+                    + ", but the test cannot tell it from chance (" + q(qValue) + ", not below "
+                    + alpha + ")";
+        }
+        return estimateBeyond ? ", but " + interval + " also holds changes smaller than that"
+                : ", but " + interval + " reaches it";
+    }
+
+    private static boolean inside(double lo, double hi, double t) {
+        return lo > -t && hi < t;
+    }
+
+    private static double round(double v, int digits) {
+        return Double.parseDouble(num(v, digits));
     }
 
     /**
      * "The Spearman correlation of hours and income fell from 0.612 to 0.204 (difference -0.408, 95% CI -0.452 to
      * -0.362; Pearson r 0.598 to 0.201); chance alone ...; the difference is at or above the 0.1 threshold: MATERIAL."
      */
-    static String relationship(Comparison c, double qValue, Verdict verdict) {
+    static String relationship(Comparison c, double qValue, Verdict verdict, double alpha, int familySize) {
         Change ch = c.change();
         String pair = ch.measure().replaceFirst("^Spearman rho of ", "");
         double diff = ch.after() - ch.before();
@@ -84,14 +207,10 @@ public final class Sentences {
         if (!ch.note().isEmpty()) {
             s.append("; ").append(ch.note());
         }
-        s.append("); ").append(chance(c.test().pValue())).append(" (").append(q(qValue)).append("); the difference is");
+        s.append("); ").append(chance(c.test().pValue(), qValue, familySize)).append("; the difference is");
         boolean beyond = Math.abs(c.effect().estimate()) >= c.threshold();
         s.append(beyond ? " at or above" : " below").append(" the ").append(thresholdText(c)).append(" threshold");
-        if (verdict == Verdict.UNCERTAIN) {
-            s.append(", but its interval still reaches it");
-        } else if (verdict == Verdict.STABLE) {
-            s.append(", and its interval rules out a change that large");
-        }
+        s.append(intervalClause(c, beyond, verdict, qValue, alpha, false));
         s.append(": ").append(verdict.name()).append('.');
         if (c.detail() instanceof org.wavewarden.compare.relation.RelationshipDetail d && d.relativeError() > 0) {
             s.append(String.format(Locale.ROOT, " The pairs have more distinct values than are counted exactly, so"
@@ -105,7 +224,18 @@ public final class Sentences {
         return (d >= 0 ? "+" : "") + num(d, 3);
     }
 
-    /** "chance alone would give a gap this large in fewer than 1 in 1,000 comparisons". */
+    /**
+     * "p = 0.14: chance alone would give a gap this large in about 1 in 7 comparisons; after false-discovery control
+     * over the 40 tests of this run, q = 0.3055". The "1 in N" is read from p, which is printed beside it; q is the
+     * p-value adjusted over the whole family, whose size is printed so that q above p needs no explaining.
+     */
+    public static String chance(double p, double qValue, int familySize) {
+        return p(p) + ": " + chance(p) + "; after false-discovery control over " + (familySize == 1
+                ? "the single test of this run" : String.format(Locale.ROOT, "the %,d tests of this run", familySize))
+                + ", " + q(qValue);
+    }
+
+    /** "chance alone would give a gap this large in fewer than 1 in 1,000 comparisons", read from p. */
     public static String chance(double p) {
         if (p < 0.001) {
             return "chance alone would give a gap this large in fewer than 1 in 1,000 comparisons";
@@ -116,6 +246,11 @@ public final class Sentences {
         long oneIn = Math.max(2, Math.round(1 / p));
         return "chance alone would give a gap this large in about 1 in " + String.format(Locale.ROOT, "%,d", oneIn)
                 + " comparisons";
+    }
+
+    /** p to two significant digits ("p = 0.14", "p = 0.0021"), or "p < 0.001". */
+    static String p(double p) {
+        return p < 0.001 ? "p < 0.001" : "p = " + String.format(Locale.ROOT, "%.2g", p);
     }
 
     static String thresholdText(Comparison c) {

@@ -29,8 +29,8 @@ public final class WaveVerdicts {
      */
     public static List<Finding> judge(List<Comparison> comparisons, Map<String, Double> relativeError, double alpha,
                                       WardenConfig.FdrMethod fdr) {
-        return withSummaryError(shapeOnlyWhereLocationIsQuiet(onePerVariableAndKind(
-                Judge.judge(comparisons, alpha, fdr))), relativeError);
+        return withSummaryError(MissingRateContext.apply(shapeOnlyWhereLocationIsQuiet(onePerVariableAndKind(
+                Judge.judge(comparisons, alpha, fdr)))), relativeError);
     }
 
     /** Findings in reading order: most urgent verdict first, then by size relative to threshold, variable, kind. */
@@ -40,8 +40,9 @@ public final class WaveVerdicts {
     }
 
     /** The missing rate of one reason, as the detail of the variable's MISSING_RATE_CHANGE finding lists it. */
-    public record ReasonRate(String reason, double shareBaseline, double shareCurrent, double pValue, double qValue,
-                      String verdict, String sentence) {
+    public record ReasonRate(String reason, double shareBaseline, double shareCurrent,
+                             org.wavewarden.compare.EffectSize difference, double pValue, double qValue,
+                             String verdict, String sentence) {
     }
 
     /**
@@ -65,7 +66,8 @@ public final class WaveVerdicts {
             List<ReasonRate> detail = ranked.stream().map(f -> {
                 var d = (VariableComparator.ProportionDetail) f.detail();
                 return new ReasonRate(d.successValue().replaceFirst("^missing \\((.*)\\)$", "$1"), d.shareBaseline(),
-                        d.shareCurrent(), f.pValue(), f.qValue(), f.verdict().name(), f.sentence());
+                        d.shareCurrent(), d.riskDifference(), f.pValue(), f.qValue(), f.verdict().name(),
+                        f.sentence());
             }).toList();
             out.add(top.withDetail(detail));
         });

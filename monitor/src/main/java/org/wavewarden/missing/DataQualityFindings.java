@@ -36,6 +36,8 @@ public final class DataQualityFindings {
     static final double DIGIT_DISSIMILARITY = 0.1;
     /** Start of the age range of Myers' blended index (ages 10 to 99, the usual choice; Shryock & Siegel). */
     static final int MYERS_LOW_AGE = 10;
+    /** Whipple's index without heaping (United Nations 1955 scale, 100 to 500). */
+    static final double WHIPPLE_NO_HEAPING = 100;
 
     private DataQualityFindings() {
     }
@@ -64,14 +66,18 @@ public final class DataQualityFindings {
         }
         byKind.forEach((kind, list) -> {
             long total = list.stream().mapToLong(MissingCandidate::count).sum();
+            // The candidates come most confident first; the most frequent one may be another value.
             MissingCandidate top = list.get(0);
+            MissingCandidate frequent = list.stream().reduce((a, b) -> b.count() > a.count() ? b : a).orElseThrow();
             String evidence = top.evidence().strip().replaceAll("[.]+$", "");
-            String sentence = String.format(Locale.ROOT, "%,d answers (%.1f%% of the wave) look like disguised missing"
-                            + " values (%s), most often %s: %s%s.", total, 100.0 * total / Math.max(1, current.rows()),
-                    kind.name().toLowerCase(Locale.ROOT).replace('_', ' '), quoted(top.value()), evidence,
-                    list.size() > 1 ? "; " + (list.size() - 1) + " more value(s) of this kind in the detail" : "");
+            String sentence = String.format(Locale.ROOT, "%s look like disguised missing values (%s), most often %s"
+                            + " (%,d rows)%s: %s%s.", ofRows(total, current.rows()),
+                    kind.name().toLowerCase(Locale.ROOT).replace('_', ' '), quoted(frequent.value()), frequent.count(),
+                    frequent == top ? "" : "; the most confident candidate is " + quoted(top.value()), evidence,
+                    list.size() > 1 ? "; the detail lists the other values of this kind" : "");
             out.add(Finding.dataQuality(name, FindingKind.valueOf(kind.name()), nB, nC, sentence,
-                    new CandidatesDetail(list, top.confidence() >= VariableScreen.EXCLUDE_CONFIDENCE)));
+                    new CandidatesDetail(list, top.confidence() >= VariableScreen.EXCLUDE_CONFIDENCE, total,
+                            current.rows())));
         });
 
         Map<String, Long> coded = new LinkedHashMap<>();
@@ -82,16 +88,19 @@ public final class DataQualityFindings {
         });
         if (!coded.isEmpty()) {
             long total = coded.values().stream().mapToLong(Long::longValue).sum();
+            String byCode = coded.entrySet().stream().map(e -> String.format(Locale.ROOT, "%s %,d", e.getKey(),
+                    e.getValue())).reduce((a, b) -> a + ", " + b).orElse("");
             out.add(Finding.dataQuality(name, FindingKind.MISSING_CODE, nB, nC, String.format(Locale.ROOT,
-                    "%,d answers (%.1f%%) carry codebook missing codes and were left out of the comparison: %s.",
-                    total, 100.0 * total / Math.max(1, current.rows()), coded), new CountsDetail(coded)));
+                    "%s carry codebook missing codes and were left out of the comparison (%s).",
+                    ofRows(total, current.rows()), byCode), new CountsDetail(coded, total, current.rows())));
         }
         Long outside = current.missingByReason().get("outside the declared range");
         if (outside != null) {
             out.add(Finding.dataQuality(name, FindingKind.OUT_OF_RANGE, nB, nC, String.format(Locale.ROOT,
-                    "%,d answers lie outside the declared range %s to %s and were left out of the comparison.", outside,
-                    v.range().min() == null ? "-inf" : fmt(v.range().min()),
-                    v.range().max() == null ? "+inf" : fmt(v.range().max())), new CountsDetail(Map.of("outside", outside))));
+                    "%s lie outside the declared range %s to %s and were left out of the comparison.",
+                    ofRows(outside, current.rows()), v.range().min() == null ? "-inf" : fmt(v.range().min()),
+                    v.range().max() == null ? "+inf" : fmt(v.range().max())),
+                    new RangeDetail(outside, current.rows(), v.range().min(), v.range().max())));
         }
         Long excludedText = current.missingByReason().get("disguised: text in numeric");
         if (!current.invalid().isEmpty() || excludedText != null) {
@@ -101,12 +110,14 @@ public final class DataQualityFindings {
                             .stream().filter(c -> c.kind() == CandidateKind.TEXT_IN_NUMERIC).map(MissingCandidate::value))
                     .distinct().limit(3).map(DataQualityFindings::quoted).reduce((a, b) -> a + ", " + b).orElse("");
             out.add(Finding.dataQuality(name, FindingKind.TEXT_IN_NUMERIC, nB, nC, String.format(Locale.ROOT,
-                    "%,d answers of this numeric variable are not finite numbers (for example %s) and were left out.",
-                    total, examples), new CountsDetail(limit(current.invalid(), 20))));
+                    "%s of this numeric variable are not finite numbers (for example %s) and were left out.",
+                    ofRows(total, current.rows()), examples),
+                    new CountsDetail(limit(current.invalid(), 20), total, current.rows())));
         }
         if (currentTally.truncated()) {
-            out.add(Finding.dataQuality(name, FindingKind.TOO_MANY_DISTINCT, nB, nC, "More distinct values than the"
-                    + " monitor keeps (" + currentTally.distinctCount() + "); the distribution was not compared.", null));
+            out.add(Finding.dataQuality(name, FindingKind.TOO_MANY_DISTINCT, nB, nC, String.format(Locale.ROOT, "More"
+                    + " distinct values than the monitor keeps (%,d); the distribution was not compared.",
+                    currentTally.distinctCount()), new DistinctDetail(currentTally.distinctCount())));
         }
         if (currentTally.rowCount() > 0 && currentTally.nonNullCount() == 0) {
             out.add(Finding.dataQuality(name, FindingKind.ALL_NULL, nB, nC, "Every answer in this wave is NULL.", null));
@@ -144,12 +155,12 @@ public final class DataQualityFindings {
             if (!appeared.isEmpty()) {
                 out.add(Finding.dataQuality(name, FindingKind.CODE_APPEARED, nB, nC, "New code(s) "
                         + codes(appeared, current) + " appear in this wave and not in the baseline: a changed code"
-                        + " frame?", new CodesDetail(appeared)));
+                        + " frame?", new CodesDetail(appeared, counts(appeared, current))));
             }
             if (!vanished.isEmpty()) {
                 out.add(Finding.dataQuality(name, FindingKind.CODE_VANISHED, nB, nC, "Code(s) "
                         + codes(vanished, baseline) + " of the baseline have no answers in this wave: a changed code"
-                        + " frame?", new CodesDetail(vanished)));
+                        + " frame?", new CodesDetail(vanished, counts(vanished, baseline))));
             }
         }
 
@@ -161,11 +172,11 @@ public final class DataQualityFindings {
                         && wc.index() - wb.index() >= WHIPPLE_RISE) {
                     out.add(Finding.dataQuality(name, FindingKind.HEAPING, nB, nC, String.format(Locale.ROOT,
                             "Ages ending in 0 or 5 are over-reported: Whipple's index rose from %.1f to %.1f (UN band:"
-                                    + " %s; 100 means no heaping).", wb.index(), wc.index(),
-                            wc.qualityBand().name().toLowerCase(Locale.ROOT).replace('_', ' ')),
+                                    + " %s; an index of %.0f means no heaping).", wb.index(), wc.index(),
+                            wc.qualityBand().name().toLowerCase(Locale.ROOT).replace('_', ' '), WHIPPLE_NO_HEAPING),
                             new HeapingDetail(wb.index(), wc.index(), wc.qualityBand().name(),
                                     MyersIndex.compute(baseline.numeric(), MYERS_LOW_AGE).index(),
-                                    MyersIndex.compute(current.numeric(), MYERS_LOW_AGE).index())));
+                                    MyersIndex.compute(current.numeric(), MYERS_LOW_AGE).index(), WHIPPLE_NO_HEAPING)));
                 }
             } else if (isWholeNumbers(currentTally.type(), current)) {
                 TerminalDigitPreference tc = TerminalDigitPreference.test(current.numeric());
@@ -174,9 +185,9 @@ public final class DataQualityFindings {
                         && tc.dissimilarity() - tb.dissimilarity() >= DIGIT_DISSIMILARITY / 2) {
                     out.add(Finding.dataQuality(name, FindingKind.DIGIT_PREFERENCE, nB, nC, String.format(Locale.ROOT,
                             "Some last digits are preferred: the index of dissimilarity of last digits rose from %.2f"
-                                    + " to %.2f (0 means every digit equally common).", tb.dissimilarity(),
-                            tc.dissimilarity()), new HeapingDetail(tb.dissimilarity(), tc.dissimilarity(), "", Double.NaN,
-                            Double.NaN)));
+                                    + " to %.2f (an index of %.0f means every digit equally common).", tb.dissimilarity(),
+                            tc.dissimilarity(), 0.0), new HeapingDetail(tb.dissimilarity(), tc.dissimilarity(), "",
+                            Double.NaN, Double.NaN, 0)));
                 }
             }
         }
@@ -207,6 +218,15 @@ public final class DataQualityFindings {
                 .orElse("");
     }
 
+    /** "12 of 480 rows (2.5%)": every share a data-quality sentence prints names its count and denominator. */
+    static String ofRows(long count, long rows) {
+        return String.format(Locale.ROOT, "%,d of %,d rows (%.1f%%)", count, rows, 100.0 * count / Math.max(1, rows));
+    }
+
+    static List<Long> counts(List<String> codes, ScreenedVariable s) {
+        return codes.stream().map(c -> s.categories().count(c)).toList();
+    }
+
     static String quoted(String v) {
         String shown = v.codePoints().mapToObj(cp -> Character.isWhitespace(cp) || Character.isSpaceChar(cp)
                 || Character.getType(cp) == Character.FORMAT ? String.format("\\u%04X", cp)
@@ -224,17 +244,29 @@ public final class DataQualityFindings {
         return out;
     }
 
-    record CandidatesDetail(List<MissingCandidate> candidates, boolean excludedFromComparison) {
+    /** The candidates, most confident first; {@code count} of them among the wave's {@code rows}. */
+    record CandidatesDetail(List<MissingCandidate> candidates, boolean excludedFromComparison, long count, long rows) {
     }
 
-    record CountsDetail(Map<String, Long> counts) {
+    /** Counts by code or value; {@code total} of them among the wave's {@code rows}. */
+    record CountsDetail(Map<String, Long> counts, long total, long rows) {
     }
 
-    record CodesDetail(List<String> codes) {
+    record RangeDetail(long outside, long rows, Double min, Double max) {
     }
 
-    /** Whipple's (or the digit dissimilarity) index of both waves, and Myers' blended index for ages. */
+    record DistinctDetail(long distinctValues) {
+    }
+
+    /** The codes, with their answers in the wave that has them. */
+    record CodesDetail(List<String> codes, List<Long> counts) {
+    }
+
+    /**
+     * Whipple's (or the digit dissimilarity) index of both waves, Myers' blended index for ages, and the index's
+     * value without any preference, which the sentence names.
+     */
     record HeapingDetail(double baselineIndex, double currentIndex, String band, double myersBaseline,
-                         double myersCurrent) {
+                         double myersCurrent, double noPreference) {
     }
 }

@@ -124,20 +124,22 @@ public final class DisguisedMissingDetector {
             if (TextForms.isBlank(v)) {
                 String what = v.isEmpty() ? "the empty string" : "white space only";
                 out.add(new MissingCandidate(v, CandidateKind.BLANK, c, share, 0.95,
-                        shown + " is " + what + " and occurs " + times(c) + " (" + percent(share) + ")."));
+                        shown + " is " + what + " and occurs " + times(c) + " (" + percent(share)
+                                + " of the non-null answers)."));
             } else if (TextForms.isInvisibleOnly(v)) {
                 out.add(new MissingCandidate(v, CandidateKind.INVISIBLE, c, share, 0.95,
                         shown + " holds only invisible or non-ASCII space characters and occurs " + times(c) + " ("
-                                + percent(share) + ")."));
+                                + percent(share) + " of the non-null answers)."));
             } else if (dateColumn && (v.equals("infinity") || v.equals("-infinity"))) {
                 out.add(new MissingCandidate(v, CandidateKind.SENTINEL_DATE, c, share, 0.8,
-                        shown + " is the unbounded date and occurs " + times(c) + " (" + percent(share) + ")."));
+                        shown + " is the unbounded date and occurs " + times(c) + " (" + percent(share)
+                                + " of the non-null answers)."));
             } else {
                 double strength = TextForms.placeholderStrength(v);
                 if (strength > 0) {
                     out.add(new MissingCandidate(v, CandidateKind.PLACEHOLDER, c, share, strength >= 1 ? 0.9 : 0.6,
                             shown + " reads as a placeholder for no answer ('" + TextForms.normalise(v) + "') and occurs "
-                                    + times(c) + " (" + percent(share) + ")."));
+                                    + times(c) + " (" + percent(share) + " of the non-null answers)."));
                 } else {
                     remaining.put(v, c);
                 }
@@ -184,7 +186,7 @@ public final class DisguisedMissingDetector {
                     out.add(new MissingCandidate(e.getKey(), CandidateKind.TEXT_IN_NUMERIC, e.getValue(), share, 0.75,
                             "'" + visible(e.getKey()) + "' is not a number while " + percent((double) numericRows / rows)
                                     + " of the other answers are; it occurs " + times(e.getValue()) + " ("
-                                    + percent(share) + ")."));
+                                    + percent(share) + " of the non-null answers)."));
                 }
             }
             out.addAll(numeric(numbers, denominator, declaredRange));

@@ -188,7 +188,7 @@ final class SpikeScan {
     private MissingCandidate candidate(Point p, CandidateKind kind, double confidence, String words) {
         double share = denominator == 0 ? 0 : Math.min(1, (double) p.count() / denominator);
         String evidence = p.raw() + " occurs " + p.count() + (p.count() == 1 ? " time" : " times") + " ("
-                + DisguisedMissingDetector.percent(share) + ") and " + words + ".";
+                + DisguisedMissingDetector.percent(share) + " of the non-null answers) and " + words + ".";
         return new MissingCandidate(p.raw(), kind, p.count(), share, Math.min(0.98, confidence), evidence);
     }
 
@@ -332,20 +332,28 @@ final class SpikeScan {
             double scale = iqr > 0 ? iqr : (Double.isNaN(spacing) ? 0 : spacing);
             List<String> why = new ArrayList<>();
             double conf = 0;
+            // Dates are told in time before or after the others; their day numbers' sign (1970) means nothing.
+            boolean dates = sentinelKind == CandidateKind.SENTINEL_DATE;
             if (scale > 0 && (x > q3 + FENCE_IQR * scale || x < q1 - FENCE_IQR * scale)) {
                 double k = x > q3 ? (x - q3) / scale : (q1 - x) / scale;
-                why.add("lies " + DisguisedMissingDetector.oneDecimal(k) + (iqr > 0 ? " IQR " : " value spacings ")
+                why.add(dates ? "lies " + units.distance(x > q3 ? x - q3 : q1 - x) + (x > q3 ? " after the latest"
+                        : " before the earliest") + " quarter of the other dates (" + DisguisedMissingDetector
+                        .oneDecimal(k) + " times the " + (iqr > 0 ? "span of their middle half" : "usual step between"
+                        + " them") + ")"
+                        : "lies " + DisguisedMissingDetector.oneDecimal(k) + (iqr > 0 ? " IQR " : " value spacings ")
                         + (x > q3 ? "above the upper" : "below the lower") + " quartile of the other values");
                 conf = Math.max(conf, 0.85);
             }
-            if (x < 0 && min >= 0) {
+            if (x < 0 && min >= 0 && !dates) {
                 why.add("is negative while every other value is zero or more");
                 conf = Math.max(conf, 0.8);
             }
             double gap = x > max ? x - max : min - x;
             if (gap > 0 && !Double.isNaN(spacing) && spacing > 0 && gap >= GAP_SPACINGS * spacing) {
-                why.add("is " + units.distance(gap) + (x > max ? " above the largest" : " below the smallest")
-                        + " other value, " + Math.round(gap / spacing) + " times the usual step between values");
+                why.add("is " + units.distance(gap) + (dates ? (x > max ? " after the latest other date, "
+                        : " before the earliest other date, ") + Math.round(gap / spacing) + " times the usual step"
+                        + " between dates" : (x > max ? " above the largest" : " below the smallest") + " other value, "
+                        + Math.round(gap / spacing) + " times the usual step between values"));
                 conf = Math.max(conf, 0.6);
             } else if (gap > 0 && Double.isNaN(spacing)) {
                 why.add("is set apart from the single other value");

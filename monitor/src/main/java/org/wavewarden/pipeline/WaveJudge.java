@@ -2,6 +2,7 @@ package org.wavewarden.pipeline;
 
 import org.jdbi.v3.core.Handle;
 import org.wavewarden.compare.Comparison;
+import org.wavewarden.compare.EffectSize;
 import org.wavewarden.compare.VariableComparator;
 import org.wavewarden.compare.VariableComparisons;
 import org.wavewarden.compare.WeightedComparator;

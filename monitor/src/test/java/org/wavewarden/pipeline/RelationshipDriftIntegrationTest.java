@@ -213,9 +213,11 @@ class RelationshipDriftIntegrationTest {
         assertTrue(xy.qValue() < 0.0001);
         assertTrue(xy.sentence().startsWith("The Spearman correlation of x and y fell from 0.610 to 0.196 (difference"
                 + " -0.414, 95% CI "), xy.sentence());
-        assertTrue(xy.sentence().contains("; Pearson r 0.586 to 0.184); chance alone would give a gap this large in"
-                + " fewer than 1 in 1,000 comparisons (q < 0.0001); the difference is at or above the 0.15 threshold:"
-                + " MATERIAL."), xy.sentence());
+        assertTrue(xy.sentence().contains("; Pearson r 0.586 to 0.184); p < 0.001: chance alone would give a gap"
+                + " this large in fewer than 1 in 1,000 comparisons; after false-discovery control over the "),
+                xy.sentence());
+        assertTrue(xy.sentence().endsWith(" tests of this run, q < 0.0001; the difference is at or above the 0.15"
+                + " threshold: MATERIAL."), xy.sentence());
 
         Finding ab = finding(findings, "a ~ b", FindingKind.RELATIONSHIP_CHANGE);
         RelationshipDetail e = (RelationshipDetail) ab.detail();

@@ -269,7 +269,7 @@ class PanelComparisonsTest {
         assertEquals(0.0090906980159250559, f.get(1).qValue(), 1e-12);
         assertTrue(f.get(0).sentence().startsWith("Mean extra_sleep of the respondents in both waves fell from 2.33"
                 + " to 0.75 hours (-1.58, 95% CI -2.46 to -0.700 hours; 10 respondents paired"), f.get(0).sentence());
-        assertTrue(f.get(0).sentence().endsWith("Cohen's d_z -1.285 (large), at or above the 0.200 threshold:"
+        assertTrue(f.get(0).sentence().endsWith("Cohen's d_z -1.285 (large, Cohen 1988), at or above the 0.200 threshold:"
                 + " MATERIAL."), f.get(0).sentence());
     }
 

@@ -1,0 +1,241 @@
+package org.wavewarden.demo;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.DynamicTest;
+import org.junit.jupiter.api.TestFactory;
+import org.junit.jupiter.api.io.TempDir;
+import org.wavewarden.deliver.FindingsReport;
+import org.wavewarden.deliver.Json;
+import org.wavewarden.judge.Finding;
+import org.wavewarden.judge.FindingKind;
+
+import java.io.PrintWriter;
+import java.io.StringWriter;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.Optional;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+import java.util.stream.Stream;
+
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+/**
+ * Every number a reader sees in a finding's sentence is a number of the finding as {@code findings.json} holds it,
+ * to the precision printed: the demo is run end to end on embedded PostgreSQL (both datasets, every wave), and
+ * each sentence's numbers are read back and looked up in its finding.
+ *
+ * <p>Most numbers are looked up among the finding's numeric fields (as they are, or times 100 for shares and
+ * points). A few are checked by the rule that wrote them: "p = 0.14" against the p-value, "about 1 in 7" against
+ * 1 / p, "over the 40 tests of this run" against the family the q-values were adjusted over, "95% CI" against the
+ * run's alpha, "12 of 480 rows (2.5%)" by dividing the two counts, "6.6 times as many" by dividing the two shares,
+ * and the missing-rate note by the rows of the variable's MISSING_RATE_CHANGE finding. Text the detector wrote
+ * (a candidate's {@code evidence}) is held in the JSON as it is printed and is not read again.
+ */
+class SentenceNumbersTest {
+
+    @TempDir
+    static Path out;
+    static DemoRun.Outcome outcome;
+
+    @BeforeAll
+    static void runTheDemo() {
+        outcome = DemoRun.run(out, new PrintWriter(new StringWriter(), true));
+    }
+
+    @TestFactory
+    Stream<DynamicTest> everyNumberInEverySentenceIsANumberOfItsFinding() {
+        List<DynamicTest> tests = new ArrayList<>();
+        List<FindingsReport> all = new ArrayList<>(outcome.reports());
+        all.addAll(outcome.panelReports());
+        for (FindingsReport r : all) {
+            tests.add(DynamicTest.dynamicTest(r.dataset() + " " + r.wave(), () -> {
+                List<String> problems = new ArrayList<>();
+                for (Finding f : r.findings()) {
+                    problems.addAll(check(r, f));
+                }
+                assertTrue(problems.isEmpty(), String.join("\n", problems));
+            }));
+        }
+        return tests.stream();
+    }
+
+    static final Pattern NUMBER = Pattern.compile("(?<![\\w.])[+-]?\\d[\\d,]*(?:\\.\\d+)?");
+    static final Pattern P_VALUE = Pattern.compile("p (<|=) ([0-9.]+)");
+    static final Pattern Q_VALUE = Pattern.compile("q (<|=) ([0-9.]+)");
+    static final Pattern ONE_IN = Pattern.compile("(about|fewer than) 1 in ([\\d,]+) comparisons");
+    static final Pattern FAMILY = Pattern.compile("over the ([\\d,]+) tests of this run");
+    static final Pattern CONFIDENCE = Pattern.compile("(\\d+)% CI");
+    static final Pattern OF_ROWS = Pattern.compile("([\\d,]+) of ([\\d,]+) rows \\(([0-9.]+)%\\)");
+    static final Pattern RATIO = Pattern.compile("from ([0-9.]+)% to ([0-9.]+)% of rows, ([0-9.]+) times as many");
+    static final Pattern MISSING_NOTE = Pattern.compile("; note that ([\\d,]+) of ([\\d,]+) rows \\(([0-9.]+)%\\)"
+            + " have no valid answer this wave against ([\\d,]+) of ([\\d,]+) \\(([0-9.]+)%\\) before, so the shift"
+            + " rests on the ([\\d,]+) rows \\(([0-9.]+)%\\) that answered");
+    /** The sources of magnitude words, named beside them. */
+    static final Pattern CITATION = Pattern.compile("(Cohen|Romano et al\\.) \\d{4}");
+
+    static List<String> check(FindingsReport r, Finding f) {
+        List<String> problems = new ArrayList<>();
+        String where = r.dataset() + " " + r.wave() + " " + f.variable() + " " + f.kind() + ": ";
+        JsonNode json = Json.mapper().valueToTree(f);
+        List<Double> numbers = new ArrayList<>();
+        List<String> verbatim = new ArrayList<>();
+        collect(json, null, numbers, verbatim);
+        numbers.add(r.alpha());
+        String s = f.sentence();
+        for (String v : verbatim) {
+            s = s.replace(v.strip().replaceAll("[.]+$", ""), " ");
+        }
+        s = s.replace(f.variable(), " ");
+        s = s.replaceAll("'[^']*'", " ");
+        s = CITATION.matcher(s).replaceAll(" ");
+        for (String w : Stream.of(r.wave(), r.againstWave()).filter(java.util.Objects::nonNull).toList()) {
+            s = s.replace("wave " + w, " ");
+        }
+
+        Matcher m = MISSING_NOTE.matcher(s);
+        if (m.find()) {
+            Optional<Finding> rate = r.findings().stream().filter(x -> x.variable().equals(f.variable())
+                    && x.kind() == FindingKind.MISSING_RATE_CHANGE).findFirst();
+            if (rate.isEmpty()) {
+                problems.add(where + "a missing-rate note without a MISSING_RATE_CHANGE finding");
+            } else {
+                long rowsC = rate.get().nCurrent();
+                long rowsB = rate.get().nBaseline();
+                expect(problems, where, "rows this wave", rowsC, count(m.group(2)));
+                expect(problems, where, "rows before", rowsB, count(m.group(5)));
+                expect(problems, where, "missing this wave", rowsC - f.nCurrent(), count(m.group(1)));
+                expect(problems, where, "missing before", rowsB - f.nBaseline(), count(m.group(4)));
+                expect(problems, where, "answered", f.nCurrent(), count(m.group(7)));
+                percent(problems, where, count(m.group(1)), count(m.group(2)), m.group(3));
+                percent(problems, where, count(m.group(4)), count(m.group(5)), m.group(6));
+                percent(problems, where, count(m.group(7)), count(m.group(2)), m.group(8));
+            }
+            s = s.substring(0, m.start()) + s.substring(m.end());
+        }
+        m = P_VALUE.matcher(s);
+        while (m.find()) {
+            boolean ok = m.group(1).equals("<") ? f.pValue() < Double.parseDouble(m.group(2))
+                    : matches(f.pValue(), m.group(2), 1);
+            if (!ok) {
+                problems.add(where + "p " + m.group(1) + " " + m.group(2) + " but the finding's p is " + f.pValue());
+            }
+        }
+        s = P_VALUE.matcher(s).replaceAll(" ");
+        m = Q_VALUE.matcher(s);
+        while (m.find()) {
+            boolean ok = m.group(1).equals("<") ? f.qValue() < Double.parseDouble(m.group(2))
+                    : matches(f.qValue(), m.group(2), 1);
+            if (!ok) {
+                problems.add(where + "q " + m.group(1) + " " + m.group(2) + " but the finding's q is " + f.qValue());
+            }
+        }
+        s = Q_VALUE.matcher(s).replaceAll(" ");
+        m = ONE_IN.matcher(s);
+        while (m.find()) {
+            long n = count(m.group(2));
+            boolean ok = m.group(1).equals("fewer than") ? f.pValue() < 1.0 / n
+                    : n == Math.max(2, Math.round(1 / f.pValue()));
+            if (!ok) {
+                problems.add(where + "'" + m.group() + "' does not follow from p = " + f.pValue());
+            }
+        }
+        s = ONE_IN.matcher(s).replaceAll(" ");
+        m = FAMILY.matcher(s);
+        while (m.find()) {
+            long family = count(m.group(1));
+            long withQ = r.findings().stream().filter(x -> x.qValue() != null).count();
+            JsonNode declared = json.get("fdrFamilySize");
+            boolean ok = declared != null && declared.isNumber() ? declared.asLong() == family : family >= withQ;
+            if (!ok) {
+                problems.add(where + "family of " + family + " tests, but the finding says "
+                        + (declared == null ? withQ + " findings carry a q" : declared));
+            }
+        }
+        s = FAMILY.matcher(s).replaceAll(" ");
+        m = CONFIDENCE.matcher(s);
+        while (m.find()) {
+            expect(problems, where, "confidence level", Math.round(100 * (1 - r.alpha())), count(m.group(1)));
+        }
+        s = CONFIDENCE.matcher(s).replaceAll(" CI");
+        m = OF_ROWS.matcher(s);
+        StringBuilder rest = new StringBuilder();
+        while (m.find()) {
+            percent(problems, where, count(m.group(1)), count(m.group(2)), m.group(3));
+            m.appendReplacement(rest, m.group(1) + " of " + m.group(2) + " rows");
+        }
+        m.appendTail(rest);
+        s = rest.toString();
+        m = RATIO.matcher(s);
+        if (m.find()) {
+            String ratio = m.group(3);
+            boolean ok = false;
+            for (double b : numbers) {
+                for (double a : numbers) {
+                    ok |= b > 0 && matches(100 * b, m.group(1), 1) && matches(100 * a, m.group(2), 1)
+                            && String.format(Locale.ROOT, "%.2g", a / b).equals(ratio);
+                }
+            }
+            if (!ok) {
+                problems.add(where + "'" + m.group() + "': no two shares of the finding give that ratio");
+            }
+            s = s.replace(ratio + " times as many", " times as many");
+        }
+
+        m = NUMBER.matcher(s);
+        while (m.find()) {
+            String printed = m.group();
+            boolean ok = false;
+            for (double v : numbers) {
+                ok |= matches(v, printed, 1) || matches(v, printed, 100);
+            }
+            if (!ok) {
+                problems.add(where + printed + " is not a number of the finding (" + f.sentence() + ")");
+            }
+        }
+        return problems;
+    }
+
+    /** Every finite number of the finding, and the text fields printed as they are (the detector's evidence). */
+    static void collect(JsonNode node, String key, List<Double> numbers, List<String> verbatim) {
+        if (node.isNumber() && Double.isFinite(node.asDouble())) {
+            numbers.add(node.asDouble());
+        } else if (node.isTextual() && "evidence".equals(key)) {
+            verbatim.add(node.asText());
+        } else if (node.isObject()) {
+            node.fields().forEachRemaining(e -> collect(e.getValue(), e.getKey(), numbers, verbatim));
+        } else if (node.isArray()) {
+            node.forEach(n -> collect(n, key, numbers, verbatim));
+        }
+    }
+
+    /** Whether {@code value * scale} prints as {@code printed} at the printed number of decimals. */
+    static boolean matches(double value, String printed, double scale) {
+        String plain = printed.replace(",", "");
+        double x = Double.parseDouble(plain);
+        int dot = plain.indexOf('.');
+        int decimals = dot < 0 ? 0 : plain.length() - dot - 1;
+        double half = 0.5 * Math.pow(10, -decimals);
+        double v = value * scale;
+        return Math.abs(v - x) <= half * (1 + 1e-9) + 1e-12 * Math.abs(v);
+    }
+
+    static void percent(List<String> problems, String where, long count, long of, String printed) {
+        if (of <= 0 || !matches(100.0 * count / of, printed, 1)) {
+            problems.add(where + count + " of " + of + " is not " + printed + "%");
+        }
+    }
+
+    static void expect(List<String> problems, String where, String what, long expected, long printed) {
+        if (expected != printed) {
+            problems.add(where + what + ": printed " + printed + ", the findings say " + expected);
+        }
+    }
+
+    static long count(String printed) {
+        return Long.parseLong(printed.replace(",", ""));
+    }
+}
