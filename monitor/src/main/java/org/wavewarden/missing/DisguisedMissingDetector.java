@@ -316,7 +316,8 @@ public final class DisguisedMissingDetector {
         return share > ANSWER_SHARE || distinctValues <= FEW_CODES;
     }
 
-    static boolean isSentinelNumber(double x) {
+    /** Sentinel shape: a repdigit of 7, 8 or 9, a 9-run ending in 8, 7 or 6, the negative of one, or -1 to -6. */
+    public static boolean isSentinelNumber(double x) {
         if (x != Math.rint(x) || Math.abs(x) > 1e8) {
             return false;
         }
