@@ -505,7 +505,8 @@ public final class WaveJudge {
         if (v.kind() == VariableKind.CATEGORICAL && b.categories().unionOrder(c.categories()).size() < 2) {
             return "a single category";
         }
-        return WeightedComparisons.skipReason(b, c);
+        String codeFrame = DataQualityFindings.binaryFrameSkipReason(v, b, c);
+        return codeFrame != null ? codeFrame : WeightedComparisons.skipReason(b, c);
     }
 
     private WaveProfile profile(Handle h, DatasetConfig d, WaveSource source, String wave, LongConsumer progress) {
