@@ -357,7 +357,7 @@ public final class DisguisedMissingDetector {
     }
 
     /** Day number of a PostgreSQL date or timestamp text ('1970-01-01', '1970-01-01 12:00:00+01'), or null. */
-    static Double dayNumber(String raw) {
+    public static Double dayNumber(String raw) {
         LocalDate d = parseDate(raw);
         if (d == null) {
             return null;

@@ -468,7 +468,9 @@ public final class WaveJudge {
                         b.categories().count(success), b.categories().n(), c.categories().count(success),
                         c.categories().n(), v.threshold()));
             }
-            case TEXT, DATE -> Optional.empty();
+            case TEXT -> Optional.empty();
+            case DATE -> org.wavewarden.compare.DateComparison.compare(comparator, v.name(), bt.valueCounts(),
+                    b.excludedValues(), ct.valueCounts(), c.excludedValues());
         };
     }
 
@@ -490,7 +492,7 @@ public final class WaveJudge {
 
     /** Why a variable cannot be compared this time, or null when it can (or is never compared). */
     static String skipReason(VariableConfig v, ScreenedVariable b, ScreenedVariable c, ColumnTally ct, ColumnTally bt) {
-        if (v.kind() == VariableKind.TEXT || v.kind() == VariableKind.DATE) {
+        if (v.kind() == VariableKind.TEXT) {
             return null;
         }
         if (ct.truncated() || bt.truncated()) {
@@ -504,6 +506,10 @@ public final class WaveJudge {
         }
         if (v.kind() == VariableKind.CATEGORICAL && b.categories().unionOrder(c.categories()).size() < 2) {
             return "a single category";
+        }
+        if (v.kind() == VariableKind.DATE) {
+            return org.wavewarden.compare.DateComparison.skipReason(bt.valueCounts(), b.excludedValues(),
+                    ct.valueCounts(), c.excludedValues());
         }
         String codeFrame = DataQualityFindings.binaryFrameSkipReason(v, b, c);
         return codeFrame != null ? codeFrame : WeightedComparisons.skipReason(b, c);
