@@ -41,7 +41,9 @@ public final class VariableComparisons {
                         b.categories().count(success), b.categories().n(), c.categories().count(success),
                         c.categories().n(), v.threshold()));
             }
-            case TEXT, DATE -> Optional.empty();
+            case TEXT -> Optional.empty();
+            case DATE -> DateComparison.compare(comparator, v.name(), bt.valueCounts(), b.excludedValues(),
+                    ct.valueCounts(), c.excludedValues());
         };
     }
 
@@ -63,7 +65,7 @@ public final class VariableComparisons {
 
     /** Why a variable cannot be compared this time, or null when it can (or is never compared). */
     public static String skipReason(VariableConfig v, ScreenedVariable b, ScreenedVariable c, ColumnTally ct, ColumnTally bt) {
-        if (v.kind() == VariableKind.TEXT || v.kind() == VariableKind.DATE) {
+        if (v.kind() == VariableKind.TEXT) {
             return null;
         }
         if (ct.truncated() || bt.truncated()) {
@@ -78,6 +80,11 @@ public final class VariableComparisons {
         if (v.kind() == VariableKind.CATEGORICAL && b.categories().unionOrder(c.categories()).size() < 2) {
             return "a single category";
         }
-        return WeightedComparisons.skipReason(b, c);
+        if (v.kind() == VariableKind.DATE) {
+            return DateComparison.skipReason(bt.valueCounts(), b.excludedValues(), ct.valueCounts(),
+                    c.excludedValues());
+        }
+        String codeFrame = DataQualityFindings.binaryFrameSkipReason(v, b, c);
+        return codeFrame != null ? codeFrame : WeightedComparisons.skipReason(b, c);
     }
 }

@@ -49,6 +49,26 @@ public record CodeFrameChange(List<String> appeared, List<String> vanished, long
         return new CodeFrameChange(appeared, vanished, minCount);
     }
 
+    /**
+     * The codes with at least {@code minCount} answers in either wave, the baseline's first: the code frame the two
+     * waves use together.
+     */
+    public static List<String> codesInUse(CategoryCounts baseline, CategoryCounts current, long minCount) {
+        java.util.LinkedHashSet<String> codes = new java.util.LinkedHashSet<>();
+        baseline.categories().stream().filter(c -> baseline.count(c) >= minCount).forEach(codes::add);
+        current.categories().stream().filter(c -> current.count(c) >= minCount).forEach(codes::add);
+        return List.copyOf(codes);
+    }
+
+    /**
+     * True when two waves of a binary variable use more than two codes between them: its codes were renamed
+     * (1/2 became yes/no) or a third was added. One code vanishing while the other stays is not a new frame but a
+     * share of 0% or 100%, and stays a change of the share.
+     */
+    public static boolean outgrowsTwoCodes(CategoryCounts baseline, CategoryCounts current, long minCount) {
+        return codesInUse(baseline, current, minCount).size() > 2;
+    }
+
     public boolean changed() {
         return !appeared.isEmpty() || !vanished.isEmpty();
     }

@@ -146,7 +146,8 @@ public final class DataQualityFindings {
                     baseline.sqlNulls(), baseline.rows(), current.sqlNulls(), current.rows(), null));
         }
 
-        if (current.categories() != null && baseline.categories() != null && v.kind() == VariableKind.CATEGORICAL) {
+        if (current.categories() != null && baseline.categories() != null && (v.kind() == VariableKind.CATEGORICAL
+                || binaryFrameSkipReason(v, baseline, current) != null)) {
             CodeFrameChange frame = CodeFrameChange.between(baseline.categories(), current.categories(), 1);
             List<String> appeared = frame.appeared().stream()
                     .filter(code -> current.categories().count(code) >= CODE_FRAME_MIN_COUNT).toList();
@@ -192,6 +193,28 @@ public final class DataQualityFindings {
             }
         }
         return new Result(out, rates);
+    }
+
+    /**
+     * Why a binary variable's share is not compared, when its two waves do not share one frame of two codes, or
+     * null. The share is not compared on the codes the waves have in common either: after a renaming there is at
+     * most one, and its share among the answers that kept their code is 100% by construction. Only the user knows
+     * which new code stands for which old one.
+     */
+    static String binaryFrameSkipReason(VariableConfig v, ScreenedVariable baseline, ScreenedVariable current) {
+        if (v.kind() != VariableKind.BINARY || baseline == null || baseline.categories() == null
+                || current.categories() == null
+                || !CodeFrameChange.outgrowsTwoCodes(baseline.categories(), current.categories(),
+                CODE_FRAME_MIN_COUNT)) {
+            return null;
+        }
+        return "the code frame changed, so the share of one code is not compared across the two frames (codes "
+                + codes(codesWithAnswers(baseline), baseline) + " in the baseline, " + codes(codesWithAnswers(current),
+                current) + " in this wave)";
+    }
+
+    private static List<String> codesWithAnswers(ScreenedVariable s) {
+        return s.categories().categories().stream().filter(c -> s.categories().count(c) > 0).toList();
     }
 
     static boolean isAgeLike(VariableConfig v) {

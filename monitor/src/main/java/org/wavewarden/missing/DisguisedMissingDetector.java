@@ -29,7 +29,10 @@ import org.wavewarden.profile.ColumnType;
  *       no-break spaces, zero-width characters (U+200B..U+200D, U+FEFF, U+2060) or other Unicode space separators are
  *       {@link CandidateKind#INVISIBLE}; after normalising case, compatibility forms, apostrophes, dashes, white space
  *       and punctuation, tokens such as "N/A", "n.a.", "null", "none", "-", "?", "don't know", "not stated" are
- *       {@link CandidateKind#PLACEHOLDER}.</li>
+ *       {@link CandidateKind#PLACEHOLDER}. A token that can also be an answer ("x", "none") is not a placeholder
+ *       when it holds more than {@value #ANSWER_SHARE} of the column or the column has at most {@value #FEW_CODES}
+ *       distinct values (it is then one of the column's codes, as 'x' beside 'y'); known no-answer forms ("n/a",
+ *       "don't know", a lone "." or "*") are placeholders whatever their share.</li>
  *   <li><b>Numbers</b> (numeric columns, and text columns where at least {@value #NUMERIC_LOOKING_SHARE} of the
  *       remaining rows are numbers; the other rows there are {@link CandidateKind#TEXT_IN_NUMERIC}). A value is of
  *       <i>sentinel shape</i> when it is a repdigit of 7, 8 or 9 (7, 99, 888, 9999, ...), a 9-run ending in 8, 7 or
@@ -78,6 +81,17 @@ public final class DisguisedMissingDetector {
     static final double MIN_SHARE = 0.002;
     static final long MIN_COUNT = 3;
     static final double RARE_PATTERN_SHARE = 0.02;
+    /**
+     * A token that could be an answer ("x", "none") holding more than this share of a column is an answer, not a
+     * placeholder: a form default is a minority of a column, an option ticked by a fifth of the people is an option.
+     * Common practice, no source.
+     */
+    static final double ANSWER_SHARE = 0.2;
+    /**
+     * A column with at most this many distinct values is a code frame, and each of its values one of its codes
+     * ("x" and "y" of a two-code item). Common practice, no source: about the size of a printed answer list.
+     */
+    static final int FEW_CODES = 10;
 
     private static final Set<LocalDate> SENTINEL_DATES = Set.of(
             LocalDate.of(1900, 1, 1), LocalDate.of(1899, 12, 31), LocalDate.of(1899, 12, 30), LocalDate.of(1970, 1, 1),
@@ -136,7 +150,8 @@ public final class DisguisedMissingDetector {
                                 + " of the non-null answers)."));
             } else {
                 double strength = TextForms.placeholderStrength(v);
-                if (strength > 0) {
+                if (strength > 0 && (TextForms.isKnownNoAnswerForm(v)
+                        || !isOneOfTheColumnsCodes(share, tally.distinctCount()))) {
                     out.add(new MissingCandidate(v, CandidateKind.PLACEHOLDER, c, share, strength >= 1 ? 0.9 : 0.6,
                             shown + " reads as a placeholder for no answer ('" + TextForms.normalise(v) + "') and occurs "
                                     + times(c) + " (" + percent(share) + " of the non-null answers)."));
@@ -295,7 +310,16 @@ public final class DisguisedMissingDetector {
         return out;
     }
 
-    static boolean isSentinelNumber(double x) {
+    /**
+     * A token that can be an answer is one when it is a large share of the column or one of a few codes: the
+     * disguised-missing literature asks for a value that stands apart from the answers, and such a token does not.
+     */
+    static boolean isOneOfTheColumnsCodes(double share, int distinctValues) {
+        return share > ANSWER_SHARE || distinctValues <= FEW_CODES;
+    }
+
+    /** Sentinel shape: a repdigit of 7, 8 or 9, a 9-run ending in 8, 7 or 6, the negative of one, or -1 to -6. */
+    public static boolean isSentinelNumber(double x) {
         if (x != Math.rint(x) || Math.abs(x) > 1e8) {
             return false;
         }
@@ -335,7 +359,7 @@ public final class DisguisedMissingDetector {
     }
 
     /** Day number of a PostgreSQL date or timestamp text ('1970-01-01', '1970-01-01 12:00:00+01'), or null. */
-    static Double dayNumber(String raw) {
+    public static Double dayNumber(String raw) {
         LocalDate d = parseDate(raw);
         if (d == null) {
             return null;

@@ -97,6 +97,16 @@ final class TextForms {
     }
 
     /**
+     * True for a token that means "no answer" wherever it stands: a strong placeholder, or a weak one of punctuation
+     * alone (a lone "." is the system missing value of SAS and Stata exports; an answer list rarely offers bare
+     * punctuation). Weak tokens with letters ("x", "none") can be genuine answers and are not known forms.
+     */
+    static boolean isKnownNoAnswerForm(String raw) {
+        double strength = placeholderStrength(raw);
+        return strength >= 1 || (strength > 0 && letters(normalise(raw)).isEmpty());
+    }
+
+    /**
      * The shape of a value: letters become A, digits 9, white space a single blank, other characters stay; runs of
      * the same class collapse, so "AB-1234" and "X-9" share the shape "A-9".
      */

@@ -2,15 +2,20 @@ package org.wavewarden.pipeline;
 
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.config.VariableKind;
+import org.wavewarden.missing.DisguisedMissingDetector;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.ColumnType;
 
+import java.util.List;
 import java.util.Locale;
+import java.util.regex.Pattern;
 
 /**
  * Guesses the kind of a variable nobody declared, from its storage class and how many distinct values it has.
  * The cut-offs are common practice, no source: a handful of integer codes reads as a scale, a few dozen text
- * values as codes, and anything with a value per respondent as free text or a measurement.
+ * values as codes, and anything with a value per respondent as free text or a measurement. An integer column named
+ * like an age ({@link #AGE_NAME}) whose values lie in 0..{@value #MAX_AGE} is an age in years, checked for heaping
+ * as a declared age is.
  */
 public final class VariableInference {
 
@@ -18,6 +23,15 @@ public final class VariableInference {
     static final int MAX_SCALE_VALUES = 11;
     /** At most this many distinct text values: categorical codes. */
     static final int MAX_CATEGORIES = 50;
+
+    /**
+     * Names read as an age (case-insensitive): {@code age}, {@code age_years}, {@code age_yrs}, {@code age_in_years}
+     * and anything ending in {@code _age} ({@code respondent_age}, {@code hh_head_age}). {@code age_group} is not
+     * one: it names bands.
+     */
+    static final Pattern AGE_NAME = Pattern.compile("age|age_(in_)?(years|yrs)|\\w+_age", Pattern.CASE_INSENSITIVE);
+    /** Plausible ages in years: a person's age is not negative and nobody is older than this. */
+    static final int MAX_AGE = 120;
 
     private VariableInference() {
     }
@@ -38,6 +52,13 @@ public final class VariableInference {
         }
         if (type.isNumeric()) {
             boolean integers = t.valueCounts().keySet().stream().allMatch(v -> v.matches("-?\\d+"));
+            long[] ageRange = integers && distinct > MAX_SCALE_VALUES ? ageRange(t) : null;
+            if (ageRange != null) {
+                // An age gets the heaping indices (Whipple, Myers) a declared unit of years gives it.
+                return new Inferred(new VariableConfig(name, VariableKind.CONTINUOUS, "years", null, List.of(), null,
+                        null, List.of(), null), "inferred as an age in years from its name and integer range "
+                        + ageRange[0] + "-" + ageRange[1]);
+            }
             if (integers && distinct <= MAX_SCALE_VALUES) {
                 return new Inferred(VariableConfig.inferred(name, VariableKind.ORDINAL),
                         distinct + " distinct integers: read as a scale");
@@ -51,6 +72,38 @@ public final class VariableInference {
         }
         return new Inferred(VariableConfig.inferred(name, VariableKind.TEXT),
                 distinct + " distinct text values: read as free text");
+    }
+
+    /**
+     * The range of an integer column named like an age whose values lie in 0..{@value #MAX_AGE}, or null. Values
+     * of sentinel shape outside that range (-9, 999) are codes for no answer, screened later, and do not decide
+     * the range. Up to {@value #MAX_SCALE_VALUES} distinct values stay a scale: a column "age" coded 1..7 holds
+     * age bands, not ages.
+     */
+    static long[] ageRange(ColumnTally t) {
+        if (!AGE_NAME.matcher(t.column()).matches()) {
+            return null;
+        }
+        long min = Long.MAX_VALUE;
+        long max = Long.MIN_VALUE;
+        for (String v : t.valueCounts().keySet()) {
+            long x;
+            try {
+                x = Long.parseLong(v.strip());
+            } catch (NumberFormatException e) {
+                return null;
+            }
+            boolean plausible = x >= 0 && x <= MAX_AGE;
+            if (!plausible && DisguisedMissingDetector.isSentinelNumber(x)) {
+                continue;
+            }
+            if (!plausible) {
+                return null;
+            }
+            min = Math.min(min, x);
+            max = Math.max(max, x);
+        }
+        return min <= max ? new long[] {min, max} : null;
     }
 
     /** One line for the console and the report, e.g. {@code district: categorical (7 distinct text values ...)}. */

@@ -30,6 +30,17 @@ class CodeFrameChangeTest {
     }
 
     @Test
+    void renamedOrAddedCodesOutgrowABinaryFrameButALostAnswerOrAStrayOneDoesNot() {
+        CategoryCounts oneTwo = counts(List.of("1", "2"), 210, 190);
+        assertTrue(CodeFrameChange.outgrowsTwoCodes(oneTwo, counts(List.of("no", "yes"), 180, 220), 5));
+        assertTrue(CodeFrameChange.outgrowsTwoCodes(oneTwo, counts(List.of("1", "2", "3"), 200, 150, 50), 5));
+        assertFalse(CodeFrameChange.outgrowsTwoCodes(oneTwo, counts(List.of("1"), 400), 5));
+        assertFalse(CodeFrameChange.outgrowsTwoCodes(oneTwo, counts(List.of("1", "2", "yes"), 200, 198, 2), 5));
+        assertEquals(List.of("1", "2", "no", "yes"),
+                CodeFrameChange.codesInUse(oneTwo, counts(List.of("no", "yes"), 180, 220), 5));
+    }
+
+    @Test
     void oneStrayAnswerDoesNotMakeACodeAppearWhenMinCountIsAboveOne() {
         CategoryCounts base = counts(List.of("yes", "no"), 500, 400);
         CategoryCounts cur = counts(List.of("yes", "no", "Yes "), 480, 410, 1);

@@ -67,6 +67,54 @@ class DisguisedMissingDetectorTest {
     }
 
     @Test
+    void twoCodesXAndYHalfEachAreAnswersNotPlaceholders() {
+        List<MissingCandidate> got = detect(ColumnType.TEXT, Map.of("x", 50L, "y", 50L));
+        assertEquals(List.of(), got, "'x' is one of the column's two codes");
+    }
+
+    @Test
+    void aWeakTokenHoldingALargeShareOfFreeTextIsAnAnswer() {
+        Map<String, Long> m = freeText(60, 2);
+        m.put("none", 40L); // 40 of 160 answers: a quarter of the column answers 'none'
+        List<MissingCandidate> got = detect(ColumnType.TEXT, m);
+        assertTrue(got.stream().noneMatch(c -> c.kind() == CandidateKind.PLACEHOLDER), got.toString());
+    }
+
+    @Test
+    void aWeakTokenThatIsARareValueOfFreeTextIsStillAPlaceholder() {
+        Map<String, Long> m = freeText(60, 2);
+        m.put("xxx", 6L);
+        List<MissingCandidate> got = detect(ColumnType.TEXT, m);
+        assertEquals(Set.of("xxx"), values(got.stream().filter(c -> c.kind() == CandidateKind.PLACEHOLDER).toList()));
+    }
+
+    @Test
+    void notApplicableAmongManyFreeTextAnswersIsStillAPlaceholder() {
+        Map<String, Long> m = freeText(60, 2);
+        m.put("n/a", 6L);
+        List<MissingCandidate> got = detect(ColumnType.TEXT, m);
+        assertEquals(Set.of("n/a"), values(got.stream().filter(c -> c.kind() == CandidateKind.PLACEHOLDER).toList()));
+    }
+
+    @Test
+    void knownNoAnswerFormsArePlaceholdersEvenAsOneOfFewCodesOrAHalfOfTheColumn() {
+        List<MissingCandidate> got = detect(ColumnType.TEXT, Map.of("yes", 40L, "no", 30L, ".", 20L, "n/a", 10L));
+        assertEquals(Set.of(".", "n/a"), values(got.stream().filter(c -> c.kind() == CandidateKind.PLACEHOLDER)
+                .toList()));
+        List<MissingCandidate> half = detect(ColumnType.TEXT, Map.of("red", 50L, "Don't know", 50L));
+        assertEquals(Set.of("Don't know"), values(half));
+    }
+
+    /** Free-text answers "answer 1" .. "answer n", each given {@code each} times. */
+    static Map<String, Long> freeText(int n, long each) {
+        Map<String, Long> m = new LinkedHashMap<>();
+        for (int i = 1; i <= n; i++) {
+            m.put("answer " + i, each);
+        }
+        return m;
+    }
+
+    @Test
     void aNineAfterAOneToFiveScaleStandsApartEvenWithoutADeclaredRange() {
         Map<String, Long> m = scale(1, 5, 200);
         m.put("9", 12L);
