@@ -72,8 +72,8 @@ public final class DateComparison {
             return Optional.empty();
         }
         Comparison ks = comparator.shape(variable, b, c, "days");
-        double medB = VariableComparator.median(b);
-        double medC = VariableComparator.median(c);
+        double medB = org.wavewarden.profile.Quantiles.median(b);
+        double medC = org.wavewarden.profile.Quantiles.median(c);
         double first = b.value(0);
         double last = b.value(b.size() - 1);
         long outside = 0;

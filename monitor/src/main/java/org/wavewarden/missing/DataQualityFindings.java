@@ -201,7 +201,7 @@ public final class DataQualityFindings {
      * most one, and its share among the answers that kept their code is 100% by construction. Only the user knows
      * which new code stands for which old one.
      */
-    static String binaryFrameSkipReason(VariableConfig v, ScreenedVariable baseline, ScreenedVariable current) {
+    public static String binaryFrameSkipReason(VariableConfig v, ScreenedVariable baseline, ScreenedVariable current) {
         if (v.kind() != VariableKind.BINARY || baseline == null || baseline.categories() == null
                 || current.categories() == null
                 || !CodeFrameChange.outgrowsTwoCodes(baseline.categories(), current.categories(),

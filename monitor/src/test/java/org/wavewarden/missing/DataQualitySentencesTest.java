@@ -1,4 +1,4 @@
-package org.wavewarden.pipeline;
+package org.wavewarden.missing;
 
 import org.junit.jupiter.api.Test;
 import org.wavewarden.compare.VariableComparator;
