@@ -21,21 +21,13 @@ import java.util.function.LongConsumer;
 /**
  * The reference the binary scanner is held to: reads one wave through text {@code COPY (SELECT ...) TO STDOUT}, whose
  * fields are exactly what PostgreSQL's output functions print, and tallies each column's distinct values as they
- * arrive. It reads no sampling design.
+ * arrive. It reads no sampling design. Its limits are those of {@link BinaryWaveScanner#BinaryWaveScanner(int, int)}.
  */
-public final class TextWaveScanner implements WaveScanner {
+public record TextWaveScanner(int maxDistinct, int exactNumbers) implements WaveScanner {
 
-    private final int maxDistinct;
-    private final int exactNumbers;
-
+    /** With the numeric limit the binary scanner defaults to. */
     public TextWaveScanner(int maxDistinct) {
         this(maxDistinct, WaveScanner.DEFAULT_EXACT_NUMBERS);
-    }
-
-    /** The limits as {@link BinaryWaveScanner#BinaryWaveScanner(int, int)} takes them. */
-    public TextWaveScanner(int maxDistinct, int exactNumbers) {
-        this.maxDistinct = maxDistinct;
-        this.exactNumbers = exactNumbers;
     }
 
     /**
