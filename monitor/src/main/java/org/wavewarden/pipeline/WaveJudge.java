@@ -403,7 +403,8 @@ public final class WaveJudge {
 
     /** The missing rate of one reason, as the detail of the variable's MISSING_RATE_CHANGE finding lists it. */
     record ReasonRate(String reason, double shareBaseline, double shareCurrent, double pValue, double qValue,
-                      String verdict, String sentence) {
+                      String verdict, String sentence, org.wavewarden.compare.WaveEstimates.Estimate baseline,
+                      org.wavewarden.compare.WaveEstimates.Estimate current) {
     }
 
     /**
@@ -427,7 +428,8 @@ public final class WaveJudge {
             List<ReasonRate> detail = ranked.stream().map(f -> {
                 var d = (VariableComparator.ProportionDetail) f.detail();
                 return new ReasonRate(d.successValue().replaceFirst("^missing \\((.*)\\)$", "$1"), d.shareBaseline(),
-                        d.shareCurrent(), f.pValue(), f.qValue(), f.verdict().name(), f.sentence());
+                        d.shareCurrent(), f.pValue(), f.qValue(), f.verdict().name(), f.sentence(),
+                        d.plot().baseline().get(0), d.plot().current().get(0));
             }).toList();
             out.add(new Finding(top.variable(), top.kind(), top.test(), top.statistic(), top.pValue(), top.qValue(),
                     top.effect(), top.verdict(), top.nBaseline(), top.nCurrent(), top.sentence(), detail));
