@@ -126,6 +126,14 @@ class DemoPlotsMatchFindingsTest {
                         where + ": the trend's point at the judged wave");
                 assertEquals(number(current.get(0).path("low")), Double.parseDouble(now.getOrDefault("data-low",
                         "NaN")), 1e-12, where + ": the trend's interval at the judged wave");
+                if (!baseline.isEmpty() && against != null) {
+                    // The trend computes each earlier wave with the finding's own estimator: the baseline wave's point
+                    // is the finding's baseline (to rounding, as the trend sums that wave's categories on their own).
+                    double expected = number(baseline.get(0).path("value"));
+                    points.stream().filter(p -> against.equals(p.get("data-wave"))).findFirst().ifPresent(p ->
+                            assertEquals(expected, Double.parseDouble(p.get("data-value")),
+                                    1e-12 * Math.max(1, Math.abs(expected)), where + ": the trend's baseline point"));
+                }
                 if (plot.path("estimator").asText().contains("SHARE")) {
                     assertTrue(trend.contains("(%)"), where + ": a share's trend is drawn in percent");
                 }
