@@ -54,6 +54,16 @@ class DigestAssemblerPlottedTest {
     }
 
     @Test
+    void anEstimateWithoutAnIntervalSurvivesTheStoredJson() {
+        WaveEstimates.Plotted p = new WaveEstimates.Plotted("mean x", WaveEstimates.Estimator.MEAN, "kg",
+                List.of(new WaveEstimates.Estimate(null, 3, Double.NaN, Double.NaN)),
+                List.of(new WaveEstimates.Estimate(null, 4, 3.5, 4.5)), null);
+        Object stored = Json.read(Json.write(java.util.Map.of("plot", p)), Object.class);
+        assertEquals(p, DigestAssembler.plotted(new Finding("x", FindingKind.SHIFT, null, null, null, null, null,
+                null, 1L, 9L, "", stored)));
+    }
+
+    @Test
     void aFindingWithoutEstimatesHasNothingToPlot() {
         assertNull(DigestAssembler.plotted(Finding.dataQuality("x", FindingKind.PLACEHOLDER, 1L, 1L, "s", null)));
     }
