@@ -61,7 +61,7 @@ public final class VariableComparator {
                                  double medianCurrent, double sdBaseline, double sdCurrent, EffectSize standardized,
                                  EffectSize rawShift, double ksD, double ksPValue, double wasserstein,
                                  double psi, String psiBand, double jensenShannon, BothTests bothTests,
-                                 LocationTestChoice.Normality normality) {
+                                 LocationTestChoice.Normality normality, WaveEstimates.Plotted plot) {
     }
 
     /**
@@ -88,15 +88,27 @@ public final class VariableComparator {
 
     public record CategoryDetail(List<CategoryRow> categories, boolean cochranSatisfied, String cochranNote,
                                  double cramersVBiasCorrected, double jensenShannon, String primaryTestNote,
-                                 EffectSize movedShareDifference) {
+                                 EffectSize movedShareDifference, WaveEstimates.Plotted plot) {
     }
 
-    /** Detail of a comparison with a reference: the reference, the wave's estimate and their difference. */
-    public record ReferenceDetail(double reference, double estimate, EffectSize difference) {
+    /**
+     * Detail of a REFERENCE finding: the reference, the wave's estimate and their difference, beside the estimates
+     * as plotted.
+     *
+     * @param plot the wave's estimates and the references, as plotted
+     */
+    public record ReferenceDetail(double reference, double estimate, EffectSize difference,
+                                  WaveEstimates.Plotted plot) {
     }
 
     public record ProportionDetail(String successValue, double shareBaseline, double shareCurrent,
-                                   EffectSize riskDifference, EffectSize cohensH, String primaryTestNote) {
+                                   EffectSize riskDifference, EffectSize cohensH, String primaryTestNote,
+                                   WaveEstimates.Plotted plot) {
+    }
+
+    /** The category a share's label names: 'x' of "answering 'x'", the reason of "missing (reason)". */
+    static String categoryOf(String label) {
+        return label.replaceFirst("^answering '(.*)'$", "$1").replaceFirst("^missing \\((.*)\\)$", "$1");
     }
 
     /**
@@ -134,22 +146,36 @@ public final class VariableComparator {
         if (welchPrimary) {
             EffectSize raw = meanDiff;
             Thresholds.Resolved t = Thresholds.resolve(configured, g.name(), Thresholds.HEDGES_G, unit);
+            WaveEstimates.Plotted plot = new WaveEstimates.Plotted("mean " + name, WaveEstimates.Estimator.MEAN, unit,
+                    List.of(WaveEstimates.mean(baseline, confidence)), List.of(WaveEstimates.mean(current, confidence)),
+                    null);
             LocationDetail d = new LocationDetail(choice.reason(), md.meanBaseline(), md.meanCurrent(), medB, medC,
                     baseline.standardDeviation(), current.standardDeviation(), g, raw, ks.d(), ks.test().pValue(), w1,
-                    psi.psi(), Magnitude.psi(psi.psi()), js, both, choice.normality());
-            Change change = new Change("mean " + name, md.meanBaseline(), md.meanCurrent(), false, unit,
+                    psi.psi(), Magnitude.psi(psi.psi()), js, both, choice.normality(), plot);
+            Change change = new Change("mean " + name, plot.baseline().get(0).value(), plot.current().get(0).value(),
+                    false, unit,
                     md.difference(), md.ciLow(), md.ciHigh(), "");
             return new Comparison(variable, FindingKind.SHIFT, md.test(), t.rawScale() ? raw : g, t.value(), t.source(),
                     baseline.n(), current.n(), change, d);
         }
         Thresholds.Resolved t = Thresholds.resolve(configured, delta.name(), Thresholds.CLIFFS_DELTA, unit);
+        // The sentence of an ordinal variable speaks of its mean, that of a continuous one of its median: the plot
+        // draws the statistic the sentence names.
+        WaveEstimates.Plotted plot = ordinal
+                ? new WaveEstimates.Plotted("mean " + name, WaveEstimates.Estimator.MEAN, unit,
+                List.of(WaveEstimates.mean(baseline, confidence)), List.of(WaveEstimates.mean(current, confidence)),
+                null)
+                : new WaveEstimates.Plotted("median " + name, WaveEstimates.Estimator.MEDIAN, unit,
+                List.of(WaveEstimates.median(baseline, confidence)),
+                List.of(WaveEstimates.median(current, confidence)), null);
+        double before = plot.baseline().get(0).value();
+        double after = plot.current().get(0).value();
         LocationDetail d = new LocationDetail(choice.reason(), baseline.mean(), current.mean(), medB, medC,
                 baseline.standardDeviation(), current.standardDeviation(), delta, hl, ks.d(), ks.test().pValue(), w1,
-                psi.psi(), Magnitude.psi(psi.psi()), js, both, choice.normality());
+                psi.psi(), Magnitude.psi(psi.psi()), js, both, choice.normality(), plot);
         Change change = ordinal
-                ? new Change("mean " + name, baseline.mean(), current.mean(), false, unit,
-                current.mean() - baseline.mean(), Double.NaN, Double.NaN, "")
-                : new Change("median " + name, medB, medC, false, unit, hl.estimate(), hl.ciLow(), hl.ciHigh(),
+                ? new Change("mean " + name, before, after, false, unit, after - before, Double.NaN, Double.NaN, "")
+                : new Change("median " + name, before, after, false, unit, hl.estimate(), hl.ciLow(), hl.ciHigh(),
                 "the shift is the Hodges-Lehmann estimate");
         return new Comparison(variable, FindingKind.SHIFT, mw.test(), t.rawScale() ? hl : delta, t.value(), t.source(),
                 baseline.n(), current.n(), change, d);
@@ -194,10 +220,13 @@ public final class VariableComparator {
                     + " (d " + (configured != null && configured.effect() != null ? configured.effect()
                     : Thresholds.HEDGES_G) + " times the wave's SD)";
         }
-        Change change = new Change("mean " + variable + " against its reference", mu, md.meanCurrent(), false, unit,
+        WaveEstimates.Estimate now = WaveEstimates.mean(current, confidence);
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("mean " + variable, WaveEstimates.Estimator.MEAN, unit,
+                null, List.of(now), List.of(new WaveEstimates.Estimate(null, mu, mu, mu)));
+        Change change = new Change("mean " + variable + " against its reference", mu, now.value(), false, unit,
                 md.difference(), md.ciLow(), md.ciHigh(), "the first value is the reference");
         return new Comparison(variable, FindingKind.REFERENCE, md.test(), raw, t, source, 0, current.n(), change,
-                new ReferenceDetail(mu, md.meanCurrent(), raw));
+                new ReferenceDetail(mu, now.value(), raw, plot));
     }
 
     /**
@@ -230,7 +259,15 @@ public final class VariableComparator {
             }
         }
         var wilson = org.wavewarden.compare.proportion.WilsonInterval.of(observed[worst], n, confidence);
-        double share = (double) observed[worst] / n;
+        List<WaveEstimates.Estimate> now = new ArrayList<>();
+        List<WaveEstimates.Estimate> references = new ArrayList<>();
+        for (int i : namedFirst(worst, cats.size())) {
+            now.add(WaveEstimates.share(cats.get(i), observed[i], n, confidence));
+            references.add(new WaveEstimates.Estimate(cats.get(i), expected[i], expected[i], expected[i]));
+        }
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("share answering '" + cats.get(worst) + "'",
+                WaveEstimates.Estimator.SHARE, null, null, now, references);
+        double share = now.get(0).value();
         Thresholds.Resolved t = Thresholds.resolve(configured, w.name(), Thresholds.CRAMERS_V, null);
         Change change = new Change("share answering '" + cats.get(worst) + "' against its reference", expected[worst],
                 share, true, null, share - expected[worst], wilson.lower() - expected[worst],
@@ -238,7 +275,7 @@ public final class VariableComparator {
         return new Comparison(variable, FindingKind.REFERENCE, gof, w, t.value(), t.source(), 0, n, change,
                 new ReferenceDetail(expected[worst], share, new EffectSize("difference from the reference share",
                         share - expected[worst], wilson.lower() - expected[worst], wilson.upper() - expected[worst],
-                        confidence)));
+                        confidence), plot));
     }
 
     /**
@@ -300,11 +337,19 @@ public final class VariableComparator {
                 ? new EffectSize("share difference of '" + moved.category() + "'", share.riskDifference().estimate(),
                 lo, hi, confidence)
                 : v;
-        Change change = new Change("share answering '" + moved.category() + "'", moved.shareBaseline(),
-                moved.shareCurrent(), true, null, share.riskDifference().estimate(), lo, hi, "the category that moved most (adjusted residual "
+        List<WaveEstimates.Estimate> plotB = new ArrayList<>();
+        List<WaveEstimates.Estimate> plotC = new ArrayList<>();
+        for (int col : namedFirst(order.indexOf(moved.category()), order.size())) {
+            plotB.add(WaveEstimates.share(order.get(col), b[col], nB, confidence));
+            plotC.add(WaveEstimates.share(order.get(col), c[col], nC, confidence));
+        }
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("share answering '" + moved.category() + "'",
+                WaveEstimates.Estimator.SHARE, null, plotB, plotC, null);
+        Change change = new Change("share answering '" + moved.category() + "'", plotB.get(0).value(),
+                plotC.get(0).value(), true, null, share.riskDifference().estimate(), lo, hi, "the category that moved most (adjusted residual "
                 + signed(moved.adjustedResidual(), 1) + ")");
         CategoryDetail d = new CategoryDetail(rows, chi.cochranSatisfied(), chi.cochranNote(),
-                CramersV.biasCorrected(table), JensenShannon.distance(b, c), note, share.riskDifference());
+                CramersV.biasCorrected(table), JensenShannon.distance(b, c), note, share.riskDifference(), plot);
         return new Comparison(variable, FindingKind.SHIFT, primary, effect, t.value(), t.source(), nB, nC, change, d);
     }
 
@@ -336,10 +381,14 @@ public final class VariableComparator {
         }
         Thresholds.Resolved t = Thresholds.resolve(configured, h.name(), Thresholds.COHENS_H, null);
         EffectSize rd = z.riskDifference();
+        String category = categoryOf(successLabel);
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("share " + successLabel, WaveEstimates.Estimator.SHARE,
+                null, List.of(WaveEstimates.share(category, sB, nB, confidence)),
+                List.of(WaveEstimates.share(category, sC, nC, confidence)), null);
         ProportionDetail d = new ProportionDetail(successLabel, z.proportionBaseline(), z.proportionCurrent(), rd, h,
-                note);
-        Change change = new Change("share " + successLabel, z.proportionBaseline(), z.proportionCurrent(), true, null,
-                rd.estimate(), rd.ciLow(), rd.ciHigh(), "");
+                note, plot);
+        Change change = new Change("share " + successLabel, plot.baseline().get(0).value(),
+                plot.current().get(0).value(), true, null, rd.estimate(), rd.ciLow(), rd.ciHigh(), "");
         return new Comparison(variable, kind, primary, t.rawScale() ? rd : h, t.value(), t.source(), nB, nC, change, d);
     }
 
@@ -350,6 +399,18 @@ public final class VariableComparator {
         } catch (IllegalArgumentException e) {
             return null;
         }
+    }
+
+    /** Positions 0 .. size - 1 with {@code first} moved to the front: the category a sentence names is drawn first. */
+    static int[] namedFirst(int first, int size) {
+        int[] out = new int[size];
+        out[0] = first;
+        for (int i = 0, k = 1; i < size; i++) {
+            if (i != first) {
+                out[k++] = i;
+            }
+        }
+        return out;
     }
 
     static String signed(double v, int digits) {

@@ -114,7 +114,7 @@ public final class WeightedComparator {
                                  double meanDesignEffectBaseline, double meanDesignEffectCurrent,
                                  double[] quartilesBaseline, double[] quartilesCurrent, double sdBaseline,
                                  double sdCurrent, EffectSize standardized, EffectSize rawShift, double ksD,
-                                 double ksPValue, Reproduce reproduce) {
+                                 double ksPValue, Reproduce reproduce, WaveEstimates.Plotted plot) {
     }
 
     /**
@@ -138,7 +138,7 @@ public final class WeightedComparator {
     public record ProportionDetail(String successValue, Weighting weightingBaseline, Weighting weightingCurrent,
                                    double shareBaseline, double shareCurrent, double standardErrorBaseline,
                                    double standardErrorCurrent, EffectSize shareDifference, EffectSize cohensH,
-                                   Reproduce reproduce) {
+                                   Reproduce reproduce, WaveEstimates.Plotted plot) {
     }
 
     /** One category of a weighted categorical comparison, with the design-based t of its share difference. */
@@ -152,7 +152,7 @@ public final class WeightedComparator {
      */
     public record CategoryDetail(Weighting weightingBaseline, Weighting weightingCurrent, List<CategoryRow> categories,
                                  double pearsonChiSquare, double[] generalizedDesignEffects,
-                                 TestResult firstOrder, double denominatorDf, EffectSize movedShareDifference) {
+                                 TestResult firstOrder, double denominatorDf, EffectSize movedShareDifference, WaveEstimates.Plotted plot) {
     }
 
     /**
@@ -160,7 +160,7 @@ public final class WeightedComparator {
      * reference shares the Satterthwaite scale and df of the goodness-of-fit test (NaN for a reference mean).
      */
     public record ReferenceDetail(Weighting weighting, double reference, double estimate, EffectSize difference,
-                                 double satterthwaiteScale, double df) {
+                                 double satterthwaiteScale, double df, WaveEstimates.Plotted plot) {
     }
 
     /** Continuous and ordinal variables: the design-based t on weighted means. */
@@ -191,14 +191,21 @@ public final class WeightedComparator {
         Weighting wc = Weighting.of(current);
         double ks = WeightedDistribution.cdfDistance(baseline, current);
         double ksP = KolmogorovSmirnovTest.asymptoticPValue(ks, wb.effectiveSampleSize(), wc.effectiveSampleSize());
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("weighted mean " + variable, design == null
+                ? WaveEstimates.Estimator.WEIGHTED_MEAN : WaveEstimates.Estimator.DESIGN_MEAN, unit,
+                List.of(WaveEstimates.weightedMean(baseline, design == null ? null : design.baselineTotals(),
+                        confidence)),
+                List.of(WaveEstimates.weightedMean(current, design == null ? null : design.currentTotals(),
+                        confidence)), null);
         TestResult test = new TestResult(MEANS_TEST + (design == null ? "" : WITH_DESIGN), md.test().statistic(),
                 md.test().df(), md.test().pValue(), md.test().dfConvention());
         LocationDetail detail = new LocationDetail(wb, wc, md.baseline().estimate(), md.current().estimate(),
                 md.baseline().standardError(), md.current().standardError(), md.baseline().designEffect(),
                 md.current().designEffect(), quartiles(baseline), quartiles(current), sdB, sdC, d, raw, ks, ksP,
-                Reproduce.of(test, md));
-        Change change = new Change("weighted mean " + variable, md.baseline().estimate(), md.current().estimate(),
-                false, unit, diff.estimate(), diff.ciLow(), diff.ciHigh(), weightingNote(wb, wc));
+                Reproduce.of(test, md), plot);
+        Change change = new Change("weighted mean " + variable, plot.baseline().get(0).value(),
+                plot.current().get(0).value(), false, unit, diff.estimate(), diff.ciLow(), diff.ciHigh(),
+                weightingNote(wb, wc));
         return new Comparison(variable, FindingKind.SHIFT, test, t.rawScale() ? raw : d, t.value(), t.source(), nb,
                 nc, change, detail);
     }
@@ -237,13 +244,21 @@ public final class WeightedComparator {
         EffectSize h = cohensH(r.baseline(), r.current(), wb, wc);
         Thresholds.Resolved t = Thresholds.resolve(configured, h.name(), Thresholds.COHENS_H, null);
         EffectSize rd = r.difference();
+        String category = VariableComparator.categoryOf(successLabel);
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("weighted share " + successLabel,
+                design == null ? WaveEstimates.Estimator.WEIGHTED_SHARE : WaveEstimates.Estimator.DESIGN_SHARE, null,
+                List.of(WaveEstimates.weightedShare(category, baseline, design == null ? null
+                        : design.baselineTally(), 1, confidence)),
+                List.of(WaveEstimates.weightedShare(category, current, design == null ? null
+                        : design.currentTally(), 1, confidence)), null);
         TestResult test = new TestResult(SHARES_TEST + (design == null ? "" : WITH_DESIGN), r.test().statistic(),
                 r.test().df(), r.test().pValue(), r.test().dfConvention());
         ProportionDetail d = new ProportionDetail(successLabel, wb, wc, r.baseline().estimate(),
                 r.current().estimate(), r.baseline().standardError(), r.current().standardError(), rd, h,
-                Reproduce.of(test, r));
-        Change change = new Change("weighted share " + successLabel, r.baseline().estimate(), r.current().estimate(),
-                true, null, rd.estimate(), rd.ciLow(), rd.ciHigh(), weightingNote(wb, wc));
+                Reproduce.of(test, r), plot);
+        Change change = new Change("weighted share " + successLabel, plot.baseline().get(0).value(),
+                plot.current().get(0).value(), true, null, rd.estimate(), rd.ciLow(), rd.ciHigh(),
+                weightingNote(wb, wc));
         return new Comparison(variable, FindingKind.SHIFT, test, t.rawScale() ? rd : h, t.value(), t.source(),
                 baseline.n(), current.n(), change, d);
     }
@@ -297,11 +312,25 @@ public final class WeightedComparator {
                 ? new EffectSize("difference of weighted shares of '" + moved + "'", share.estimate(), share.ciLow(),
                 share.ciHigh(), confidence)
                 : v;
-        Change change = new Change("weighted share answering '" + moved + "'", sb[topIndex], sc[topIndex], true,
-                null, share.estimate(), share.ciLow(), share.ciHigh(), "the category that moved most (design-based t "
-                + VariableComparator.signed(top.test().statistic(), 1) + "); " + weightingNote(wb, wc));
+        WaveEstimates.Estimator estimator = design == null ? WaveEstimates.Estimator.WEIGHTED_SHARE
+                : WaveEstimates.Estimator.DESIGN_SHARE;
+        List<WaveEstimates.Estimate> plotB = new ArrayList<>();
+        List<WaveEstimates.Estimate> plotC = new ArrayList<>();
+        for (int j : VariableComparator.namedFirst(topIndex, k)) {
+            String label = categories.get(codes[j]);
+            plotB.add(WaveEstimates.weightedShare(label, baseline, design == null ? null : design.baselineTally(),
+                    codes[j], confidence));
+            plotC.add(WaveEstimates.weightedShare(label, current, design == null ? null : design.currentTally(),
+                    codes[j], confidence));
+        }
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("weighted share answering '" + moved + "'", estimator,
+                null, plotB, plotC, null);
+        Change change = new Change("weighted share answering '" + moved + "'", plotB.get(0).value(),
+                plotC.get(0).value(), true, null, share.estimate(), share.ciLow(), share.ciHigh(), "the category that"
+                + " moved most (design-based t " + VariableComparator.signed(top.test().statistic(), 1) + "); "
+                + weightingNote(wb, wc));
         CategoryDetail d = new CategoryDetail(wb, wc, rows, rs.pearsonChiSquare(), rs.designEffects(),
-                rs.firstOrder(), rs.denominatorDf(), share);
+                rs.firstOrder(), rs.denominatorDf(), share, plot);
         TestResult second = rs.secondOrder();
         TestResult test = new TestResult(CATEGORIES_TEST + (design == null ? "" : WITH_DESIGN), second.statistic(),
                 second.df(), second.pValue(), RAO_SCOTT_DF);
@@ -343,9 +372,18 @@ public final class WeightedComparator {
                 : design.indicator(worst).totals().mean();
         double half = StandardNormal.twoSidedQuantile(confidence)
                 * share.standardError();
-        double d = share.estimate() - expected[worst];
+        List<WaveEstimates.Estimate> now = new ArrayList<>();
+        List<WaveEstimates.Estimate> references = new ArrayList<>();
+        for (int j : VariableComparator.namedFirst(worst, expected.length)) {
+            now.add(WaveEstimates.weightedShare(categories.get(j), current, design, j, confidence));
+            references.add(new WaveEstimates.Estimate(categories.get(j), expected[j], expected[j], expected[j]));
+        }
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("weighted share answering '" + categories.get(worst)
+                + "'", design == null ? WaveEstimates.Estimator.WEIGHTED_SHARE : WaveEstimates.Estimator.DESIGN_SHARE,
+                null, null, now, references);
+        double d = now.get(0).value() - expected[worst];
         Change change = new Change("weighted share answering '" + categories.get(worst) + "' against its reference",
-                expected[worst], share.estimate(), true, null, d, d - half, d + half, "the first value is the"
+                expected[worst], now.get(0).value(), true, null, d, d - half, d + half, "the first value is the"
                 + " reference; " + String.format(Locale.ROOT, "Satterthwaite scale %.3g on %.3g df; ", r.scale(),
                 r.test().df()) + "Kish effective sample size " + String.format(Locale.ROOT, "%.0f",
                 wc.effectiveSampleSize()) + ", design effect due to weighting " + String.format(Locale.ROOT, "%.2f",
@@ -354,7 +392,7 @@ public final class WeightedComparator {
                 r.test().statistic(), r.test().df(), r.test().pValue(), r.test().dfConvention());
         return new Comparison(variable, FindingKind.REFERENCE, test, w, t.value(), t.source(), 0, current.n(), change,
                 new ReferenceDetail(wc, expected[worst], share.estimate(), new EffectSize("difference from the"
-                        + " reference share", d, d - half, d + half, confidence), r.scale(), r.test().df()));
+                        + " reference share", d, d - half, d + half, confidence), r.scale(), r.test().df(), plot));
     }
 
     /**
@@ -388,13 +426,17 @@ public final class WeightedComparator {
                     + " (d " + e + " times the wave's weighted SD)";
         }
         Weighting w = Weighting.of(current);
-        Change change = new Change("weighted mean " + variable + " against its reference", mu, m.estimate(), false,
+        WaveEstimates.Estimate now = WaveEstimates.weightedMean(current, null, confidence);
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("weighted mean " + variable,
+                WaveEstimates.Estimator.WEIGHTED_MEAN, unit, null, List.of(now),
+                List.of(new WaveEstimates.Estimate(null, mu, mu, mu)));
+        Change change = new Change("weighted mean " + variable + " against its reference", mu, now.value(), false,
                 unit, d, d - half, d + half, "the first value is the reference; " + String.format(Locale.ROOT,
                 "weighted: Kish effective sample size %.0f, design effect due to weighting %.2f",
                 w.effectiveSampleSize(), w.designEffect()));
         return new Comparison(variable, FindingKind.REFERENCE, new TestResult("design-based one-sample t on the"
                 + " weighted mean", tStat, df, p, DF_ONE_SAMPLE_WEIGHTS_ONLY), raw, threshold, source, 0, current.n(),
-                change, new ReferenceDetail(w, mu, m.estimate(), raw, Double.NaN, df));
+                change, new ReferenceDetail(w, mu, m.estimate(), raw, Double.NaN, df, plot));
     }
 
     /** "weighted: Kish effective sample sizes 205 and 244, design effects due to weighting 1.46 and 1.39". */

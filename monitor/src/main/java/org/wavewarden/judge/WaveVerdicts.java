@@ -42,7 +42,8 @@ public final class WaveVerdicts {
     /** The missing rate of one reason, as the detail of the variable's MISSING_RATE_CHANGE finding lists it. */
     public record ReasonRate(String reason, double shareBaseline, double shareCurrent,
                              org.wavewarden.compare.EffectSize difference, double pValue, double qValue,
-                             String verdict, String sentence) {
+                             String verdict, String sentence, org.wavewarden.compare.WaveEstimates.Estimate baseline,
+                             org.wavewarden.compare.WaveEstimates.Estimate current) {
     }
 
     /**
@@ -67,7 +68,7 @@ public final class WaveVerdicts {
                 var d = (VariableComparator.ProportionDetail) f.detail();
                 return new ReasonRate(d.successValue().replaceFirst("^missing \\((.*)\\)$", "$1"), d.shareBaseline(),
                         d.shareCurrent(), d.riskDifference(), f.pValue(), f.qValue(), f.verdict().name(),
-                        f.sentence());
+                        f.sentence(), d.plot().baseline().get(0), d.plot().current().get(0));
             }).toList();
             out.add(top.withDetail(detail));
         });

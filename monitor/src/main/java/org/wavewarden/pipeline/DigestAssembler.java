@@ -1,9 +1,11 @@
 package org.wavewarden.pipeline;
 
+import org.wavewarden.compare.WaveEstimates;
+import org.wavewarden.compare.design.PsuTally;
+import org.wavewarden.compare.design.PsuTotals;
 import org.wavewarden.compare.relation.RelationshipDetail;
 import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.VariableConfig;
-import org.wavewarden.config.VariableKind;
 import org.wavewarden.deliver.FindingsReport;
 import org.wavewarden.deliver.html.AlertView;
 import org.wavewarden.deliver.html.HtmlDigest;
@@ -14,6 +16,7 @@ import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
 import org.wavewarden.profile.CategoryCounts;
 import org.wavewarden.profile.ColumnTally;
+import org.wavewarden.profile.DesignSummary;
 import org.wavewarden.profile.WaveProfile;
 import org.wavewarden.read.WaveInfo;
 import org.wavewarden.missing.VariableScreen;
@@ -29,8 +32,11 @@ import java.util.Optional;
 import java.util.Set;
 
 /**
- * Builds the HTML digest of judged waves: for each alert, a plot drawn from both waves' screened answers (the
- * stored summaries, never the source) and a trend of the variable across every wave up to the judged one.
+ * Builds the HTML digest of judged waves: for each alert, a plot of the estimates its finding was judged on, with
+ * their intervals (the finding's own numbers, weighted and design-based where the finding is), and a trend of the
+ * same statistic across every wave up to the judged one, each wave computed from its stored summary (never the
+ * source) by the finding's estimator. Findings without estimates of their own (data quality) are drawn from both
+ * waves' screened answers as counted.
  */
 public final class DigestAssembler {
 
@@ -53,13 +59,23 @@ public final class DigestAssembler {
             List<AlertView> views = new ArrayList<>();
             for (Finding f : org.wavewarden.deliver.Alerts.select(r.findings())) {
                 VariableConfig v = variable(d, current, f.variable());
+                String id = findingId(d.name(), r.wave(), f);
                 VariablePlot plot;
                 Trend trend;
                 try {
                     FaultPoints.hit(FaultPoints.PLOT_VARIABLE + f.variable());
-                    plot = f.detail() instanceof RelationshipDetail rd ? correlations(rd)
-                            : v == null || current == null ? null : plot(v, f, baseline, current);
-                    trend = v == null ? null : trend(d, order, r.wave(), v, f, baseline, current);
+                    WaveEstimates.Plotted plotted = plotted(f);
+                    if (f.detail() instanceof RelationshipDetail rd) {
+                        plot = correlations(rd, id);
+                        trend = null;
+                    } else if (plotted != null) {
+                        plot = new VariablePlot.EstimatePlot(id, plotted);
+                        trend = v == null ? null : trend(d, order, r.wave(), v, f, plotted, 1 - r.alpha(), id);
+                    } else {
+                        plot = v == null || current == null ? null : plot(v, f, baseline, current, id);
+                        trend = v == null || !f.kind().isDataQuality() ? null
+                                : missingTrend(d, order, r.wave(), v, 1 - r.alpha(), id);
+                    }
                 } catch (RuntimeException e) {
                     // One alert's chart must never cost the digest: the alert is shown with a note instead.
                     LOG.warn("the chart of {} ({}) in {} wave {} could not be prepared: {}", f.variable(), f.kind(),
@@ -72,6 +88,47 @@ public final class DigestAssembler {
             sections.add(new WaveSection(r, views));
         }
         return HtmlDigest.render(d.name(), sections, generatedAt);
+    }
+
+    /**
+     * The stable id of a finding in a picture's data attributes: dataset, wave, variable and kind, the key under
+     * which a run stores one alert.
+     */
+    public static String findingId(String dataset, String wave, Finding f) {
+        return dataset + "/" + wave + "/" + f.variable() + "/" + f.kind().name();
+    }
+
+    /**
+     * The estimates a finding was judged on, from its detail (the record of this run, or the JSON object a stored
+     * run reads back): the detail's {@code plot}, or for a missing-rate finding every reason's rate with its
+     * interval, the reason the sentence names first. Null when the finding has none.
+     */
+    static WaveEstimates.Plotted plotted(Finding f) {
+        if (f.detail() == null) {
+            return null;
+        }
+        com.fasterxml.jackson.databind.ObjectMapper json = org.wavewarden.deliver.Json.mapper();
+        com.fasterxml.jackson.databind.JsonNode node = json.valueToTree(f.detail());
+        try {
+            if (f.kind() == FindingKind.MISSING_RATE_CHANGE && node.isArray() && !node.isEmpty()) {
+                List<WaveEstimates.Estimate> before = new ArrayList<>();
+                List<WaveEstimates.Estimate> after = new ArrayList<>();
+                for (com.fasterxml.jackson.databind.JsonNode rate : node) {
+                    if (!rate.hasNonNull("baseline") || !rate.hasNonNull("current")) {
+                        return null;
+                    }
+                    before.add(json.treeToValue(rate.get("baseline"), WaveEstimates.Estimate.class));
+                    after.add(json.treeToValue(rate.get("current"), WaveEstimates.Estimate.class));
+                }
+                return new WaveEstimates.Plotted("share of rows missing (" + after.get(0).category() + ")",
+                        WaveEstimates.Estimator.SHARE, null, before, after, null);
+            }
+            com.fasterxml.jackson.databind.JsonNode p = node.get("plot");
+            return p == null || p.isNull() ? null : json.treeToValue(p, WaveEstimates.Plotted.class);
+        } catch (com.fasterxml.jackson.core.JsonProcessingException | IllegalArgumentException e) {
+            throw new IllegalStateException("the plotted estimates of " + f.variable() + " cannot be read: "
+                    + e.getMessage(), e);
+        }
     }
 
     private Optional<WaveProfile> summary(DatasetConfig d, String wave) {
@@ -103,17 +160,23 @@ public final class DigestAssembler {
     }
 
     /** A relationship alert's plot: both waves' Spearman rho and Pearson r with their intervals. */
-    static VariablePlot correlations(RelationshipDetail d) {
+    static VariablePlot correlations(RelationshipDetail d, String findingId) {
         return new VariablePlot.CorrelationPlot(List.of("Spearman rho", "Pearson r"),
                 new double[][] {row(d.spearmanBaseline()), row(d.pearsonBaseline())},
-                new double[][] {row(d.spearmanCurrent()), row(d.pearsonCurrent())});
+                new double[][] {row(d.spearmanCurrent()), row(d.pearsonCurrent())}, findingId);
     }
 
     private static double[] row(org.wavewarden.compare.relation.CorrelationResult r) {
         return new double[] {r.estimate(), r.ciLow(), r.ciHigh()};
     }
 
-    static VariablePlot plot(VariableConfig v, Finding f, WaveProfile baseline, WaveProfile current) {
+    /**
+     * The chart of a finding that has no estimates of its own (a data-quality finding, a change of shape, a paired
+     * comparison): both waves' screened answers as counted, which is what these findings count. Without a baseline
+     * wave only the current wave is drawn.
+     */
+    static VariablePlot plot(VariableConfig v, Finding f, WaveProfile baseline, WaveProfile current,
+                             String findingId) {
         ColumnTally ct = current.columns().get(v.name());
         if (ct == null) {
             return null;
@@ -127,15 +190,18 @@ public final class DigestAssembler {
                 || f.kind() == FindingKind.CODE_VANISHED;
         if (aboutValues && c.numeric() != null) {
             var empty = org.wavewarden.profile.NumericDistribution.empty();
-            return new VariablePlot.NumericPlot(v.unit(), b == null ? empty : b.numeric(), c.numeric());
+            return new VariablePlot.NumericPlot(v.unit(), b == null ? null : b.numeric() == null ? empty
+                    : b.numeric(), c.numeric(), findingId);
         }
         if (aboutValues && c.categories() != null) {
-            CategoryCounts bc = b == null ? new CategoryCounts(List.of(), new long[0]) : b.categories();
+            CategoryCounts bc = b == null || b.categories() == null ? new CategoryCounts(List.of(), new long[0])
+                    : b.categories();
             List<String> cats = c.categories().unionOrder(bc);
             if (cats.isEmpty()) {
                 return null;
             }
-            return new VariablePlot.SharesPlot(cats, bc.alignedTo(cats), c.categories().alignedTo(cats));
+            return new VariablePlot.SharesPlot(cats, b == null ? null : bc.alignedTo(cats),
+                    c.categories().alignedTo(cats), findingId);
         }
         Set<String> reasons = new LinkedHashSet<>(c.missingByReason().keySet());
         if (b != null) {
@@ -151,66 +217,116 @@ public final class DigestAssembler {
         }
         cb[labels.size() - 1] = b == null ? 0 : b.sqlNulls();
         cc[labels.size() - 1] = c.sqlNulls();
-        return new VariablePlot.MissingPlot(labels, cb, b == null ? 0 : b.rows(), cc, c.rows());
+        return new VariablePlot.MissingPlot(labels, b == null ? null : cb, b == null ? 0 : b.rows(), cc, c.rows(),
+                findingId);
     }
 
+    /**
+     * The finding's statistic across every wave up to the judged one, each wave computed by the finding's own
+     * estimator ({@link WaveEstimates}) from that wave's stored summary, weighted and under the design where the
+     * finding is, for the category the sentence names.
+     */
     private Trend trend(DatasetConfig d, List<String> order, String wave, VariableConfig v, Finding f,
-                        WaveProfile baseline, WaveProfile current) {
+                        WaveEstimates.Plotted plotted, double confidence, String findingId) {
         int end = order.indexOf(wave);
         if (end < 0) {
             return null;
         }
         List<String> waves = order.subList(0, end + 1);
-        String category = f.kind().isShift() && current != null && v.kind() == VariableKind.CATEGORICAL
-                ? movedMost(v, baseline, current) : null;
-        boolean values = (f.kind().isShift() || f.kind() == FindingKind.SHAPE_CHANGE
-                || f.kind() == FindingKind.REFERENCE) && v.kind() != VariableKind.TEXT && v.kind() != VariableKind.DATE;
-        String measure = !values ? "share missing (any reason)" : v.kind().isNumericScale() ? "mean"
-                : category != null ? "share '" + category + "'" : "share";
-        List<Double> points = new ArrayList<>();
+        String category = plotted.category();
+        boolean missing = f.kind() == FindingKind.MISSING_RATE_CHANGE;
+        List<Double> values = new ArrayList<>();
+        List<Double> lows = new ArrayList<>();
+        List<Double> highs = new ArrayList<>();
         for (String w : waves) {
-            Optional<WaveProfile> p = summary(d, w);
-            ColumnTally t = p.map(x -> x.columns().get(v.name())).orElse(null);
-            if (t == null) {
-                points.add(Double.NaN);
-                continue;
+            WaveEstimates.Estimate e;
+            try {
+                e = estimate(d, w, v, plotted.estimator(), category, missing, confidence);
+            } catch (RuntimeException ex) {
+                // A wave whose answers give no estimate (fewer than two, no weight) is a gap in the line.
+                e = null;
             }
-            ScreenedVariable s = VariableScreen.screen(t, v);
-            double x;
-            if (!values) {
-                long missing = s.sqlNulls() + s.missingByReason().values().stream().mapToLong(Long::longValue).sum();
-                x = s.rows() == 0 ? Double.NaN : (double) missing / s.rows();
-            } else if (s.numeric() != null) {
-                x = s.numeric().n() == 0 ? Double.NaN : s.numeric().mean();
-            } else if (s.categories() != null && s.categories().n() > 0) {
-                String c = category != null ? category : v.kind() == VariableKind.BINARY
-                        ? VariableScreen.successValue(v, s.categories(), s.categories()) : null;
-                x = c == null ? Double.NaN : (double) s.categories().count(c) / s.categories().n();
-            } else {
-                x = Double.NaN;
-            }
-            points.add(x);
+            values.add(e == null ? Double.NaN : e.value());
+            lows.add(e == null ? Double.NaN : e.low());
+            highs.add(e == null ? Double.NaN : e.high());
         }
-        return new Trend(measure, values && v.kind().isNumericScale() ? v.unit() : null, waves, points);
+        double reference = plotted.reference().isEmpty() ? Double.NaN : plotted.reference().get(0).value();
+        return new Trend(plotted.statistic(), plotted.unit(), waves, values, lows, highs,
+                plotted.estimator().percent(), category, reference, findingId);
     }
 
-    private static String movedMost(VariableConfig v, WaveProfile baseline, WaveProfile current) {
-        ScreenedVariable c = VariableScreen.screen(current.columns().get(v.name()), v);
-        ColumnTally bt = baseline == null ? null : baseline.columns().get(v.name());
-        if (bt == null || c.categories() == null || c.categories().n() == 0) {
+    /** One wave's estimate of the statistic, or null when the wave has no summary or no such column. */
+    private WaveEstimates.Estimate estimate(DatasetConfig d, String wave, VariableConfig v,
+                                            WaveEstimates.Estimator estimator, String category, boolean missing,
+                                            double confidence) {
+        Optional<WaveProfile> p = summary(d, wave);
+        ColumnTally t = p.map(x -> x.columns().get(v.name())).orElse(null);
+        if (t == null) {
             return null;
         }
-        ScreenedVariable b = VariableScreen.screen(bt, v);
-        String best = null;
-        double bestMove = -1;
-        for (String cat : c.categories().unionOrder(b.categories())) {
-            double move = Math.abs((double) c.categories().count(cat) / c.categories().n()
-                    - (double) b.categories().count(cat) / Math.max(1, b.categories().n()));
-            if (move > bestMove) {
-                bestMove = move;
-                best = cat;
-            }
+        Map<String, double[]> weights = d.weightColumn() == null || p.get().weights() == null ? null
+                : p.get().weights().get(v.name());
+        ScreenedVariable s = VariableScreen.screen(t, v, weights);
+        if (missing) {
+            long count = "NULL".equals(category) ? s.sqlNulls() : s.missingByReason().getOrDefault(category, 0L);
+            return WaveEstimates.share(category, count, s.rows(), confidence);
         }
-        return best;
+        DesignSummary design = p.get().design();
+        return switch (estimator) {
+            case SHARE -> s.categories() == null ? null
+                    : WaveEstimates.share(category, s.categories().count(category), s.categories().n(), confidence);
+            case MEAN -> s.numeric() == null ? null : WaveEstimates.mean(s.numeric(), confidence);
+            case MEDIAN -> s.numeric() == null ? null : WaveEstimates.median(s.numeric(), confidence);
+            case WEIGHTED_SHARE, DESIGN_SHARE -> {
+                if (s.categories() == null || s.weighted() == null) {
+                    yield null;
+                }
+                List<String> own = s.categories().categories();
+                PsuTally psu = null;
+                if (estimator == WaveEstimates.Estimator.DESIGN_SHARE && design != null) {
+                    DesignViews.View view = DesignViews.categories(design, t.column(), s, own);
+                    psu = view.unavailable() == null ? view.tally() : null;
+                }
+                yield WaveEstimates.weightedShare(category, s.weighted(), psu, own.indexOf(category), confidence);
+            }
+            case WEIGHTED_MEAN, DESIGN_MEAN -> {
+                if (s.numeric() == null || s.weighted() == null) {
+                    yield null;
+                }
+                PsuTotals totals = null;
+                if (estimator == WaveEstimates.Estimator.DESIGN_MEAN && design != null) {
+                    DesignViews.View view = DesignViews.numeric(design, t, s, v);
+                    totals = view.unavailable() == null ? view.totals() : null;
+                }
+                yield WaveEstimates.weightedMean(s.weighted(), totals, confidence);
+            }
+        };
+    }
+
+    /** A data-quality finding's trend: the share of rows missing for any reason, with Wilson's interval. */
+    private Trend missingTrend(DatasetConfig d, List<String> order, String wave, VariableConfig v,
+                               double confidence, String findingId) {
+        int end = order.indexOf(wave);
+        if (end < 0) {
+            return null;
+        }
+        List<String> waves = order.subList(0, end + 1);
+        List<Double> values = new ArrayList<>();
+        List<Double> lows = new ArrayList<>();
+        List<Double> highs = new ArrayList<>();
+        for (String w : waves) {
+            ColumnTally t = summary(d, w).map(x -> x.columns().get(v.name())).orElse(null);
+            WaveEstimates.Estimate e = null;
+            if (t != null) {
+                ScreenedVariable s = VariableScreen.screen(t, v);
+                long missing = s.sqlNulls() + s.missingByReason().values().stream().mapToLong(Long::longValue).sum();
+                e = WaveEstimates.share(null, missing, s.rows(), confidence);
+            }
+            values.add(e == null ? Double.NaN : e.value());
+            lows.add(e == null ? Double.NaN : e.low());
+            highs.add(e == null ? Double.NaN : e.high());
+        }
+        return new Trend("share missing (any reason)", null, waves, values, lows, highs, true, null, Double.NaN,
+                findingId);
     }
 }

@@ -235,6 +235,9 @@ public final class HtmlDigest {
         if (p instanceof VariablePlot.CorrelationPlot c) {
             return SvgChart.correlation(variable, c, baselineWave, currentWave);
         }
+        if (p instanceof VariablePlot.EstimatePlot e) {
+            return SvgChart.estimates(variable, e, baselineWave, currentWave);
+        }
         return SvgChart.missing(variable, (VariablePlot.MissingPlot) p, baselineWave, currentWave);
     }
 
@@ -383,6 +386,9 @@ public final class HtmlDigest {
             svg.plot .pt.c{fill:var(--c)}
             svg.plot line.ci.b{stroke:var(--b);stroke-width:2}
             svg.plot line.ci.c{stroke:var(--c);stroke-width:2.5}
+            svg.plot.estimates.shares line.ci{stroke:#222;stroke-width:1.5}
+            svg.plot .band{fill:var(--cf);stroke:none}
+            svg.plot line.ref{stroke:#222;stroke-width:1.5;stroke-dasharray:4 3}
             footer{color:var(--muted);font-size:13px;text-align:center}
             @media print{body{background:#fff}.wave{break-inside:auto;border:none}.alert{break-inside:avoid}}
             """;

@@ -268,17 +268,21 @@ public final class SvgChart {
      */
     public static String numeric(String variable, VariablePlot.NumericPlot p, String baselineWave,
                                  String currentWave) {
-        int decade = drawingDecade(p.baseline().merge(p.current()));
-        NumericDistribution b = inDecades(p.baseline(), decade);
+        boolean hasBaseline = p.baseline() != null;
+        NumericDistribution given0 = hasBaseline ? p.baseline() : NumericDistribution.empty();
+        int decade = drawingDecade(given0.merge(p.current()));
+        NumericDistribution b = inDecades(given0, decade);
         NumericDistribution c = inDecades(p.current(), decade);
         NumericDistribution pooled = b.merge(c);
         String given = p.unit() == null || p.unit().isBlank() ? null : p.unit();
         String unit = decade == 0 ? given : "\u00d7 1e" + decade + (given == null ? "" : " " + given);
         String title = "Distribution of " + variable + (unit == null ? "" : " (" + unit + ")") + ": "
-                + baselineWave + " (n = " + b.n() + ") against " + currentWave + " (n = " + c.n() + ")";
+                + (hasBaseline ? baselineWave + " (n = " + b.n() + ") against " : "") + currentWave + " (n = " + c.n()
+                + ")";
         Frame f = new Frame(WIDTH, 270, 58, 18, 40, 50);
         StringBuilder s = open(f, "numeric", title);
-        legend(s, f, baselineWave + " (baseline, n = " + b.n() + ")", currentWave + " (current, n = " + c.n() + ")");
+        legend(s, f, hasBaseline ? baselineWave + " (baseline, n = " + b.n() + ")" : null,
+                currentWave + " (current, n = " + c.n() + ")");
         boolean perValue = pooled.size() <= MAX_DISTINCT_FOR_VALUE_BARS;
         double lo;
         double hi;
@@ -321,13 +325,19 @@ public final class SvgChart {
             double bw = Math.max(1, Math.min(18, gapPx * 0.4));
             for (int i = 0; i < values.length; i++) {
                 double x = f.sx(values[i], lo, hi);
-                bar(s, "b", x - bw, f.sy(sb[i], 0, ytop), bw, f.y0() - f.sy(sb[i], 0, ytop),
-                        baselineWave + ": " + number(values[i]) + " " + percent(sb[i]));
+                if (hasBaseline) {
+                    bar(s, "b", x - bw, f.sy(sb[i], 0, ytop), bw, f.y0() - f.sy(sb[i], 0, ytop),
+                            baselineWave + ": " + number(values[i]) + " " + percent(sb[i]),
+                            data(sb[i], Double.NaN, Double.NaN, baselineWave, number(values[i]), p.findingId()));
+                }
                 bar(s, "c", x, f.sy(sc[i], 0, ytop), bw, f.y0() - f.sy(sc[i], 0, ytop),
-                        currentWave + ": " + number(values[i]) + " " + percent(sc[i]));
+                        currentWave + ": " + number(values[i]) + " " + percent(sc[i]),
+                        data(sc[i], Double.NaN, Double.NaN, currentWave, number(values[i]), p.findingId()));
             }
         } else {
-            step(s, "b", f, bins, sb, lo, hi, ytop);
+            if (hasBaseline) {
+                step(s, "b", f, bins, sb, lo, hi, ytop);
+            }
             step(s, "c", f, bins, sc, lo, hi, ytop);
             s.append(String.format(Locale.ROOT, "<text class=\"note\" x=\"%d\" y=\"%d\" text-anchor=\"end\">bin width %s%s</text>",
                     f.width() - f.right(), f.top() - 6, esc(number(bins.width())), unit == null ? "" : " " + esc(unit)));
@@ -379,6 +389,21 @@ public final class SvgChart {
      */
     public static String shares(String kindClass, String title, List<String> labels, double[] shareB,
                                 double[] shareC, String baselineWave, String currentWave, String axis) {
+        return shares(kindClass, title, labels, shareB, shareC, baselineWave, baselineWave, currentWave, currentWave,
+                axis, null);
+    }
+
+    /**
+     * The same, with the waves' labels for the data attributes and the finding drawn; {@code shareB} and the
+     * baseline's labels are null when there is no baseline wave.
+     */
+    static String shares(String kindClass, String title, List<String> labels, double[] shareB, double[] shareC,
+                         String baselineLegend, String baselineWave, String currentLegend, String currentWave,
+                         String axis, String findingId) {
+        boolean hasBaseline = shareB != null;
+        if (!hasBaseline) {
+            shareB = new double[shareC.length];
+        }
         if (labels.size() != shareB.length || labels.size() != shareC.length) {
             throw new IllegalArgumentException("labels, shareB and shareC must have one entry each, had "
                     + labels.size() + ", " + shareB.length + " and " + shareC.length);
@@ -388,7 +413,7 @@ public final class SvgChart {
         int labelWidth = 150;
         Frame f = new Frame(WIDTH, 40 + shown * row + 46, labelWidth + 8, 66, 40, 46);
         StringBuilder s = open(f, kindClass, title);
-        legend(s, f, baselineWave + " (baseline)", currentWave + " (current)");
+        legend(s, f, hasBaseline ? baselineLegend + " (baseline)" : null, currentLegend + " (current)");
         double ymax = Math.max(max(shareB), max(shareC));
         double[] xt = niceTicks(0, ymax > 0 ? ymax * 100 : 1, 6);
         double xtop = xt[xt.length - 1];
@@ -413,10 +438,14 @@ public final class SvgChart {
                     labelWidth, y + 15, esc(label), esc(cut.isEmpty() ? "(empty)" : cut)));
             double wb = f.sx(100 * shareB[i], 0, xtop) - f.x0();
             double wc = f.sx(100 * shareC[i], 0, xtop) - f.x0();
-            bar(s, "b", f.x0(), y, wb, 10, baselineWave + ", " + label + ": " + percent(shareB[i]));
-            bar(s, "c", f.x0(), y + 11, wc, 10, currentWave + ", " + label + ": " + percent(shareC[i]));
-            s.append(String.format(Locale.ROOT, "<text class=\"val b\" x=\"%.1f\" y=\"%.1f\">%s</text>",
-                    f.x0() + wb + 4, y + 9, esc(percent(shareB[i]))));
+            if (hasBaseline) {
+                bar(s, "b", f.x0(), y, wb, 10, baselineLegend + ", " + label + ": " + percent(shareB[i]),
+                        data(shareB[i], Double.NaN, Double.NaN, baselineWave, label, findingId));
+                s.append(String.format(Locale.ROOT, "<text class=\"val b\" x=\"%.1f\" y=\"%.1f\">%s</text>",
+                        f.x0() + wb + 4, y + 9, esc(percent(shareB[i]))));
+            }
+            bar(s, "c", f.x0(), y + 11, wc, 10, currentLegend + ", " + label + ": " + percent(shareC[i]),
+                    data(shareC[i], Double.NaN, Double.NaN, currentWave, label, findingId));
             s.append(String.format(Locale.ROOT, "<text class=\"val c\" x=\"%.1f\" y=\"%.1f\">%s</text>",
                     f.x0() + wc + 4, y + 20, esc(percent(shareC[i]))));
         }
@@ -431,11 +460,17 @@ public final class SvgChart {
     public static String shares(String variable, VariablePlot.SharesPlot p, String baselineWave, String currentWave) {
         long[] b = p.baseline();
         long[] c = p.current();
-        long nb = sum(b);
         long nc = sum(c);
+        if (b == null) {
+            return shares("shares", "Shares of " + variable + " by category: " + currentWave + " (n = " + nc + ")",
+                    p.categories(), null, divide(c, nc), null, null, currentWave + " n = " + nc, currentWave,
+                    "% of valid answers", p.findingId());
+        }
+        long nb = sum(b);
         return shares("shares", "Shares of " + variable + " by category: " + baselineWave + " (n = " + nb
                         + ") against " + currentWave + " (n = " + nc + ")", p.categories(), divide(b, nb),
-                divide(c, nc), baselineWave + " n = " + nb, currentWave + " n = " + nc, "% of valid answers");
+                divide(c, nc), baselineWave + " n = " + nb, baselineWave, currentWave + " n = " + nc, currentWave,
+                "% of valid answers", p.findingId());
     }
 
     /** Each wave's correlations with their intervals, points and whiskers on the scale from -1 to 1. */
@@ -463,61 +498,93 @@ public final class SvgChart {
             double y = f.y1() + i * row + 6;
             s.append(String.format(Locale.ROOT, "<text class=\"cat\" x=\"%d\" y=\"%.1f\" text-anchor=\"end\">%s</text>",
                     labelWidth, y + 14, esc(p.labels().get(i))));
-            whisker(s, f, "b", y + 6, p.baseline()[i], baselineWave + ", " + p.labels().get(i));
-            whisker(s, f, "c", y + 19, p.current()[i], currentWave + ", " + p.labels().get(i));
+            whisker(s, f, "b", y + 6, p.baseline()[i], baselineWave + ", " + p.labels().get(i),
+                    data(p.baseline()[i][0], p.baseline()[i][1], p.baseline()[i][2], baselineWave, p.labels().get(i),
+                            p.findingId()));
+            whisker(s, f, "c", y + 19, p.current()[i], currentWave + ", " + p.labels().get(i),
+                    data(p.current()[i][0], p.current()[i][1], p.current()[i][2], currentWave, p.labels().get(i),
+                            p.findingId()));
         }
         return s.append("</svg>").toString();
     }
 
-    private static void whisker(StringBuilder s, Frame f, String cls, double y, double[] e, String what) {
+    private static void whisker(StringBuilder s, Frame f, String cls, double y, double[] e, String what,
+                                String data) {
         double lo = f.sx(Math.max(-1, e[1]), -1, 1);
         double hi = f.sx(Math.min(1, e[2]), -1, 1);
         double x = f.sx(e[0], -1, 1);
         String tip = what + ": " + number(e[0]) + " (" + number(e[1]) + " to " + number(e[2]) + ")";
-        s.append(String.format(Locale.ROOT, "<g class=\"whisker %s\"><title>%s</title><line class=\"ci %s\" x1=\"%.1f\""
+        s.append(String.format(Locale.ROOT, "<g class=\"whisker %s\"%s><title>%s</title><line class=\"ci %s\" x1=\"%.1f\""
                 + " y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/><circle class=\"pt %s\" cx=\"%.1f\" cy=\"%.1f\" r=\"4\"/>"
-                + "<text class=\"val %s\" x=\"%.1f\" y=\"%.1f\">%s</text></g>", cls, esc(tip), cls, lo, y, hi, y, cls,
+                + "<text class=\"val %s\" x=\"%.1f\" y=\"%.1f\">%s</text></g>", cls, data, esc(tip), cls, lo, y, hi, y, cls,
                 x, y, cls, hi + 5, y + 4, esc(number(e[0]))));
     }
 
     /** Missing rate by reason, both waves, as a share of the wave's rows. */
     public static String missing(String variable, VariablePlot.MissingPlot p, String baselineWave,
                                  String currentWave) {
+        if (p.baseline() == null) {
+            // A first wave has no baseline: nothing is drawn or named for it.
+            return shares("missing", "Missing answers of " + variable + " by reason: " + currentWave + " ("
+                            + p.rowsCurrent() + " rows)", p.reasons(), null, divide(p.current(), p.rowsCurrent()),
+                    null, null, currentWave + " " + p.rowsCurrent() + " rows", currentWave, "% of rows in the wave",
+                    p.findingId());
+        }
         return shares("missing", "Missing answers of " + variable + " by reason: " + baselineWave + " ("
                         + p.rowsBaseline() + " rows) against " + currentWave + " (" + p.rowsCurrent() + " rows)",
                 p.reasons(), divide(p.baseline(), p.rowsBaseline()), divide(p.current(), p.rowsCurrent()),
-                baselineWave + " " + p.rowsBaseline() + " rows", currentWave + " " + p.rowsCurrent() + " rows",
-                "% of rows in the wave");
+                baselineWave + " " + p.rowsBaseline() + " rows", baselineWave, currentWave + " " + p.rowsCurrent()
+                        + " rows", currentWave, "% of rows in the wave", p.findingId());
     }
 
     /**
-     * A small line chart of one measure across all waves, wave labels on the x axis. A wave without data (NaN)
-     * breaks the line; the point of {@code currentWave} is marked.
+     * A small line chart of one statistic across all waves, wave labels on the x axis, with its confidence band
+     * (where the waves have intervals) and, for a reference finding, the reference as a dashed line. Shares are
+     * drawn in percent, as the sentence states them. A wave without data (NaN) breaks the line; the point of
+     * {@code currentWave} is marked.
      */
     public static String sparkline(String variable, Trend t, String currentWave) {
-        String unit = t.unit() == null || t.unit().isBlank() ? null : t.unit();
+        List<Double> all = new ArrayList<>(t.values());
+        all.addAll(t.lows());
+        all.addAll(t.highs());
+        all.add(t.reference());
+        int decade = t.percent() ? 0 : decadeOf(all);
+        String given = t.unit() == null || t.unit().isBlank() ? null : t.unit();
+        String unit = t.percent() ? "%" : decade == 0 ? given : "\u00d7 1e" + decade + (given == null ? "" : " " + given);
+        java.util.function.DoubleUnaryOperator scale = t.percent() ? v -> 100 * v : v -> inDecade(v, decade);
         int n = t.waves().size();
-        String title = "Trend of " + t.measure() + (unit == null ? "" : " (" + unit + ")") + " for " + variable
-                + " across " + n + " wave(s)";
+        String measure = t.measure() + (unit == null ? "" : " (" + unit + ")");
+        String title = "Trend of " + measure + " for " + variable + " across " + n + " wave(s)"
+                + (hasInterval(t) ? ", with confidence intervals" : "");
         int maxLabel = t.waves().stream().mapToInt(String::length).max().orElse(1);
         boolean rotate = n > 1 && (SPARK_WIDTH - 70.0) / n < maxLabel * 6.5;
         int bottom = rotate ? (int) Math.min(100, 34 + maxLabel * 4.6) : 40;
         Frame f = new Frame(SPARK_WIDTH, 150 + bottom, 58, 20, 28, bottom);
         StringBuilder s = open(f, "trend", title);
         s.append(String.format(Locale.ROOT, "<text class=\"chart-title\" x=\"%d\" y=\"16\">%s</text>", f.left() - 50,
-                esc(t.measure() + (unit == null ? "" : " (" + unit + ")"))));
+                esc(measure)));
         double lo = Double.POSITIVE_INFINITY;
         double hi = Double.NEGATIVE_INFINITY;
-        for (double v : t.values()) {
-            if (!Double.isNaN(v)) {
-                lo = Math.min(lo, v);
-                hi = Math.max(hi, v);
+        for (int i = 0; i < n; i++) {
+            for (double v : new double[] {t.values().get(i), t.lows().get(i), t.highs().get(i)}) {
+                if (!Double.isNaN(v) && !Double.isNaN(t.values().get(i))) {
+                    lo = Math.min(lo, scale.applyAsDouble(v));
+                    hi = Math.max(hi, scale.applyAsDouble(v));
+                }
             }
+        }
+        if (!Double.isNaN(t.reference())) {
+            lo = Math.min(lo, scale.applyAsDouble(t.reference()));
+            hi = Math.max(hi, scale.applyAsDouble(t.reference()));
         }
         if (lo == Double.POSITIVE_INFINITY) {
             s.append(String.format(Locale.ROOT, "<text class=\"note\" x=\"%.1f\" y=\"%.1f\" text-anchor=\"middle\">no data in any wave</text>",
                     (f.x0() + f.x1()) / 2, (f.y0() + f.y1()) / 2));
             return s.append("</svg>").toString();
+        }
+        if (t.percent()) {
+            lo = Math.max(0, lo);
+            hi = Math.min(100, hi);
         }
         double[] yt = niceTicks(lo, hi, 4);
         double ylo = yt[0];
@@ -526,6 +593,31 @@ public final class SvgChart {
         double slot = (f.x1() - f.x0()) / Math.max(1, n);
         s.append(String.format(Locale.ROOT, "<line class=\"axis\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>",
                 f.x0(), f.y0(), f.x1(), f.y0()));
+        // The band: one polygon per run of waves that all have an interval.
+        StringBuilder upper = new StringBuilder();
+        StringBuilder lower = new StringBuilder();
+        for (int i = 0; i <= n; i++) {
+            boolean in = i < n && !Double.isNaN(t.values().get(i)) && !Double.isNaN(t.lows().get(i))
+                    && !Double.isNaN(t.highs().get(i));
+            if (in) {
+                double x = f.x0() + slot * (i + 0.5);
+                upper.append(String.format(Locale.ROOT, "%.1f,%.1f ", x, f.sy(scale.applyAsDouble(t.highs().get(i)), ylo, yhi)));
+                lower.insert(0, String.format(Locale.ROOT, "%.1f,%.1f ", x, f.sy(scale.applyAsDouble(t.lows().get(i)), ylo, yhi)));
+            } else if (upper.length() > 0) {
+                s.append("<polygon class=\"band\" points=\"").append((upper.toString() + lower).trim())
+                        .append("\"/>");
+                upper.setLength(0);
+                lower.setLength(0);
+            }
+        }
+        if (!Double.isNaN(t.reference())) {
+            double y = f.sy(scale.applyAsDouble(t.reference()), ylo, yhi);
+            s.append(String.format(Locale.ROOT, "<line class=\"ref\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\""
+                            + " data-reference=\"%s\"%s%s><title>%s</title></line>", f.x0(), y, f.x1(), y,
+                    full(t.reference()), t.category() == null ? "" : " data-category=\"" + esc(t.category()) + "\"",
+                    t.findingId() == null ? "" : " data-finding=\"" + esc(t.findingId()) + "\"",
+                    esc("reference: " + number(scale.applyAsDouble(t.reference())) + (unit == null ? "" : " " + unit))));
+        }
         List<StringBuilder> segments = new ArrayList<>();
         StringBuilder seg = null;
         for (int i = 0; i < n; i++) {
@@ -543,7 +635,7 @@ public final class SvgChart {
                 seg = null;
                 continue;
             }
-            double y = f.sy(v, ylo, yhi);
+            double y = f.sy(scale.applyAsDouble(v), ylo, yhi);
             if (seg == null) {
                 seg = new StringBuilder();
                 segments.add(seg);
@@ -559,20 +651,258 @@ public final class SvgChart {
                 continue;
             }
             double x = f.x0() + slot * (i + 0.5);
-            double y = f.sy(v, ylo, yhi);
+            double y = f.sy(scale.applyAsDouble(v), ylo, yhi);
             boolean cur = t.waves().get(i).equals(currentWave);
-            s.append(String.format(Locale.ROOT, "<circle class=\"%s\" cx=\"%.1f\" cy=\"%.1f\" r=\"%s\"><title>%s</title></circle>",
-                    cur ? "pt cur" : "pt", x, y, cur ? "4.5" : "3", esc(t.waves().get(i) + ": " + number(v)
-                            + (unit == null ? "" : " " + unit))));
+            double l = t.lows().get(i);
+            double h = t.highs().get(i);
+            String tip = t.waves().get(i) + ": " + number(scale.applyAsDouble(v)) + (unit == null ? "" : " " + unit)
+                    + (Double.isNaN(l) ? "" : " (" + number(scale.applyAsDouble(l)) + " to " + number(scale.applyAsDouble(h)) + ")");
+            s.append(String.format(Locale.ROOT, "<circle class=\"%s\" cx=\"%.1f\" cy=\"%.1f\" r=\"%s\"%s><title>%s</title></circle>",
+                    cur ? "pt cur" : "pt", x, y, cur ? "4.5" : "3",
+                    data(v, l, h, t.waves().get(i), t.category(), t.findingId()), esc(tip)));
             if (cur) {
                 s.append(String.format(Locale.ROOT, "<text class=\"val c\" x=\"%.1f\" y=\"%.1f\" text-anchor=\"middle\">%s</text>",
-                        x, Math.max(f.y1() + 10, y - 8), esc(number(v))));
+                        x, Math.max(f.y1() + 10, y - 8), esc(number(scale.applyAsDouble(v)))));
             }
         }
         s.append(String.format(Locale.ROOT, "<text class=\"axis-title\" x=\"%.1f\" y=\"%d\" text-anchor=\"middle\">wave</text>",
                 (f.x0() + f.x1()) / 2, f.height() - 6));
         return s.append("</svg>").toString();
     }
+
+    /**
+     * The power of ten finite values are drawn in units of: 0 for ordinary magnitudes, otherwise that of the
+     * largest (as {@link #drawingDecade} for a histogram).
+     */
+    static int decadeOf(List<Double> values) {
+        double largest = 0;
+        for (double v : values) {
+            if (Double.isFinite(v)) {
+                largest = Math.max(largest, Math.abs(v));
+            }
+        }
+        return largest == 0 || largest <= LARGEST_DRAWN && largest >= SMALLEST_DRAWN ? 0
+                : (int) Math.floor(Math.log10(largest));
+    }
+
+    /** {@code v / 10^decade}, in two steps so that neither power of ten leaves the doubles. */
+    static double inDecade(double v, int decade) {
+        if (decade == 0 || Double.isNaN(v)) {
+            return v;
+        }
+        return v / Math.pow(10, decade / 2) / Math.pow(10, decade - decade / 2);
+    }
+
+    private static boolean hasInterval(Trend t) {
+        return t.lows().stream().anyMatch(v -> !Double.isNaN(v));
+    }
+
+    /**
+     * The estimates a finding was judged on, each with its confidence interval: for shares, grouped bars per
+     * category (the category the sentence names first) with error bars, in percent; for a mean or median, one
+     * point with whiskers per wave on the variable's scale. A reference finding's reference is a dashed mark.
+     * Every bar or point carries its numbers as data attributes ({@link #data}).
+     */
+    public static String estimates(String variable, VariablePlot.EstimatePlot p, String baselineWave,
+                                   String currentWave) {
+        var plotted = p.plotted();
+        return plotted.estimator().percent() ? shareEstimates(variable, p, baselineWave, currentWave)
+                : locationEstimates(variable, p, baselineWave, currentWave);
+    }
+
+    private static String shareEstimates(String variable, VariablePlot.EstimatePlot p, String baselineWave,
+                                         String currentWave) {
+        var plotted = p.plotted();
+        boolean hasBaseline = !plotted.baseline().isEmpty();
+        boolean hasReference = !plotted.reference().isEmpty();
+        int shown = Math.min(plotted.current().size(), MAX_BARS);
+        int row = 30;
+        int labelWidth = 150;
+        Frame f = new Frame(WIDTH, 40 + shown * row + 46, labelWidth + 8, 66, 40, 46);
+        String title = capitalised(plotted.statistic()) + " of " + variable + ", each category with its confidence"
+                + " interval: " + (hasBaseline ? baselineWave + " against " : "") + currentWave
+                + (hasReference ? ", with the reference shares" : "");
+        StringBuilder s = open(f, "shares estimates", title);
+        legend(s, f, hasBaseline ? baselineWave + " (baseline)" : null, currentWave + " (current)"
+                + (hasReference ? "; dashed: reference" : ""));
+        double top = 0;
+        for (int i = 0; i < shown; i++) {
+            top = Math.max(top, upperOf(plotted.current().get(i)));
+            if (hasBaseline) {
+                top = Math.max(top, upperOf(plotted.baseline().get(i)));
+            }
+            if (hasReference) {
+                top = Math.max(top, plotted.reference().get(i).value());
+            }
+        }
+        double[] xt = niceTicks(0, top > 0 ? Math.min(100, top * 100) : 1, 6);
+        double xtop = xt[xt.length - 1];
+        for (double t : xt) {
+            double x = f.sx(t, 0, xtop);
+            s.append(String.format(Locale.ROOT, "<line class=\"grid\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>",
+                    x, f.y1(), x, f.y0()));
+            s.append(String.format(Locale.ROOT, "<text class=\"tick\" x=\"%.1f\" y=\"%.1f\" text-anchor=\"middle\">%s</text>",
+                    x, f.y0() + 14, esc(tickLabel(t, xt.length > 1 ? xt[1] - xt[0] : 1))));
+        }
+        s.append(String.format(Locale.ROOT, "<line class=\"axis\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>",
+                f.x0(), f.y1(), f.x0(), f.y0()));
+        s.append(String.format(Locale.ROOT, "<line class=\"axis\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>",
+                f.x0(), f.y0(), f.x1(), f.y0()));
+        s.append(String.format(Locale.ROOT, "<text class=\"axis-title\" x=\"%.1f\" y=\"%d\" text-anchor=\"middle\">%s</text>",
+                (f.x0() + f.x1()) / 2, f.height() - 8, esc(shareAxis(plotted))));
+        for (int i = 0; i < shown; i++) {
+            double y = f.y1() + i * row + 4;
+            var c = plotted.current().get(i);
+            String label = c.category() == null ? "" : c.category();
+            String cut = label.length() > 24 ? label.substring(0, 23) + "\u2026" : label;
+            s.append(String.format(Locale.ROOT, "<text class=\"cat\" x=\"%d\" y=\"%.1f\" text-anchor=\"end\"><title>%s</title>%s</text>",
+                    labelWidth, y + 15, esc(label), esc(cut.isEmpty() ? "(empty)" : cut)));
+            if (hasBaseline) {
+                shareBar(s, f, "b", y, xtop, plotted.baseline().get(i), baselineWave, p.findingId());
+            }
+            shareBar(s, f, "c", y + 11, xtop, c, currentWave, p.findingId());
+            if (hasReference) {
+                double r = plotted.reference().get(i).value();
+                double x = f.sx(100 * r, 0, xtop);
+                s.append(String.format(Locale.ROOT, "<line class=\"ref\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\""
+                                + " data-reference=\"%s\" data-category=\"%s\"%s><title>%s</title></line>", x, y - 2, x,
+                        y + 23, full(r), esc(label), p.findingId() == null ? ""
+                                : " data-finding=\"" + esc(p.findingId()) + "\"",
+                        esc("reference for " + label + ": " + percent(r))));
+            }
+        }
+        if (plotted.current().size() > shown) {
+            s.append(String.format(Locale.ROOT, "<text class=\"note\" x=\"%.1f\" y=\"%d\" text-anchor=\"end\">%d more not drawn</text>",
+                    f.x1(), f.top() - 6, plotted.current().size() - shown));
+        }
+        return s.append("</svg>").toString();
+    }
+
+    private static void shareBar(StringBuilder s, Frame f, String cls, double y, double xtop,
+                                 org.wavewarden.compare.WaveEstimates.Estimate e, String wave, String findingId) {
+        double w = Double.isNaN(e.value()) ? 0 : f.sx(100 * e.value(), 0, xtop) - f.x0();
+        String tip = wave + ", " + e.category() + ": " + percent(e.value()) + (Double.isNaN(e.low()) ? ""
+                : " (" + percent(e.low()) + " to " + percent(e.high()) + ")");
+        s.append("<g class=\"est ").append(cls).append('"')
+                .append(data(e.value(), e.low(), e.high(), wave, e.category(), findingId)).append('>');
+        bar(s, cls, f.x0(), y, w, 10, tip, "");
+        if (!Double.isNaN(e.low())) {
+            double lo = f.sx(100 * e.low(), 0, xtop);
+            double hi = f.sx(100 * e.high(), 0, xtop);
+            s.append(String.format(Locale.ROOT, "<line class=\"ci %s\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>"
+                    + "<line class=\"ci %s\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>"
+                    + "<line class=\"ci %s\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>", cls, lo, y + 5, hi,
+                    y + 5, cls, lo, y + 2, lo, y + 8, cls, hi, y + 2, hi, y + 8));
+        }
+        double end = Double.isNaN(e.high()) ? f.x0() + w : Math.max(f.x0() + w, f.sx(100 * e.high(), 0, xtop));
+        s.append(String.format(Locale.ROOT, "<text class=\"val %s\" x=\"%.1f\" y=\"%.1f\">%s</text></g>", cls, end + 4,
+                y + 9, esc(percent(e.value()))));
+    }
+
+    private static String locationEstimates(String variable, VariablePlot.EstimatePlot p, String baselineWave,
+                                            String currentWave) {
+        var plotted = p.plotted();
+        boolean hasBaseline = !plotted.baseline().isEmpty();
+        boolean hasReference = !plotted.reference().isEmpty();
+        String unit0 = plotted.unit() == null || plotted.unit().isBlank() ? null : plotted.unit();
+        String unit = unit0;
+        List<org.wavewarden.compare.WaveEstimates.Estimate> rows = new ArrayList<>();
+        List<String> waves = new ArrayList<>();
+        if (hasBaseline) {
+            rows.add(plotted.baseline().get(0));
+            waves.add(baselineWave);
+        }
+        rows.add(plotted.current().get(0));
+        waves.add(currentWave);
+        double lo = Double.POSITIVE_INFINITY;
+        double hi = Double.NEGATIVE_INFINITY;
+        for (var e : rows) {
+            for (double v : new double[] {e.value(), e.low(), e.high()}) {
+                if (!Double.isNaN(v)) {
+                    lo = Math.min(lo, v);
+                    hi = Math.max(hi, v);
+                }
+            }
+        }
+        Double reference = hasReference ? plotted.reference().get(0).value() : null;
+        if (reference != null) {
+            lo = Math.min(lo, reference);
+            hi = Math.max(hi, reference);
+        }
+        List<Double> all = new ArrayList<>(List.of(lo, hi));
+        int decade = decadeOf(all);
+        if (decade != 0) {
+            unit = "\u00d7 1e" + decade + (unit == null ? "" : " " + unit);
+            lo = inDecade(lo, decade);
+            hi = inDecade(hi, decade);
+        }
+        int row = 34;
+        int labelWidth = 110;
+        Frame f = new Frame(WIDTH, 40 + rows.size() * row + 46, labelWidth + 8, 30, 40, 46);
+        String axis = capitalised(plotted.statistic()) + (unit == null ? "" : " (" + unit + ")");
+        StringBuilder s = open(f, "location estimates", axis + " with its confidence interval: "
+                + (hasBaseline ? baselineWave + " against " : "") + currentWave
+                + (reference == null ? "" : ", with the reference"));
+        legend(s, f, hasBaseline ? baselineWave + " (baseline)" : null, currentWave + " (current)"
+                + (reference == null ? "" : "; dashed: reference"));
+        double[] xt = niceTicks(lo, hi, 6);
+        double xlo = xt[0];
+        double xhi = xt[xt.length - 1];
+        for (double t : xt) {
+            double x = f.sx(t, xlo, xhi);
+            s.append(String.format(Locale.ROOT, "<line class=\"grid\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>",
+                    x, f.y1(), x, f.y0()));
+            s.append(String.format(Locale.ROOT, "<text class=\"tick\" x=\"%.1f\" y=\"%.1f\" text-anchor=\"middle\">%s</text>",
+                    x, f.y0() + 14, esc(tickLabel(t, xt.length > 1 ? xt[1] - xt[0] : 1))));
+        }
+        s.append(String.format(Locale.ROOT, "<line class=\"axis\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>",
+                f.x0(), f.y0(), f.x1(), f.y0()));
+        s.append(String.format(Locale.ROOT, "<text class=\"axis-title\" x=\"%.1f\" y=\"%d\" text-anchor=\"middle\">%s</text>",
+                (f.x0() + f.x1()) / 2, f.height() - 8, esc(axis)));
+        if (reference != null) {
+            double x = f.sx(inDecade(reference, decade), xlo, xhi);
+            s.append(String.format(Locale.ROOT, "<line class=\"ref\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\""
+                            + " data-reference=\"%s\"%s><title>%s</title></line>", x, f.y1(), x, f.y0(),
+                    full(reference), p.findingId() == null ? "" : " data-finding=\"" + esc(p.findingId()) + "\"",
+                    esc("reference: " + number(inDecade(reference, decade)) + (unit == null ? "" : " " + unit))));
+        }
+        for (int i = 0; i < rows.size(); i++) {
+            var e = rows.get(i);
+            String cls = i == rows.size() - 1 ? "c" : "b";
+            double y = f.y1() + i * row + 12;
+            s.append(String.format(Locale.ROOT, "<text class=\"cat\" x=\"%d\" y=\"%.1f\" text-anchor=\"end\">%s</text>",
+                    labelWidth, y + 4, esc(waves.get(i))));
+            double x = f.sx(inDecade(e.value(), decade), xlo, xhi);
+            boolean interval = !Double.isNaN(e.low());
+            double l = interval ? f.sx(inDecade(e.low(), decade), xlo, xhi) : x;
+            double h = interval ? f.sx(inDecade(e.high(), decade), xlo, xhi) : x;
+            String tip = waves.get(i) + ": " + number(inDecade(e.value(), decade)) + (unit == null ? "" : " " + unit)
+                    + (interval ? " (" + number(inDecade(e.low(), decade)) + " to " + number(inDecade(e.high(),
+                    decade)) + ")" : "");
+            s.append(String.format(Locale.ROOT, "<g class=\"whisker est %s\"%s><title>%s</title><line class=\"ci %s\""
+                            + " x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/><circle class=\"pt %s\" cx=\"%.1f\""
+                            + " cy=\"%.1f\" r=\"4\"/><text class=\"val %s\" x=\"%.1f\" y=\"%.1f\">%s</text></g>", cls,
+                    data(e.value(), e.low(), e.high(), waves.get(i), null, p.findingId()), esc(tip), cls, l, y, h, y,
+                    cls, x, y, cls, h + 5, y + 4, esc(number(inDecade(e.value(), decade)))));
+        }
+        return s.append("</svg>").toString();
+    }
+
+    private static double upperOf(org.wavewarden.compare.WaveEstimates.Estimate e) {
+        return Double.isNaN(e.high()) ? (Double.isNaN(e.value()) ? 0 : e.value()) : e.high();
+    }
+
+    private static String shareAxis(org.wavewarden.compare.WaveEstimates.Plotted p) {
+        return switch (p.estimator()) {
+            case WEIGHTED_SHARE, DESIGN_SHARE -> "weighted share (%)";
+            default -> p.statistic().startsWith("share of rows") ? "% of rows in the wave" : "% of valid answers";
+        };
+    }
+
+    private static String capitalised(String s) {
+        return s.isEmpty() ? s : Character.toUpperCase(s.charAt(0)) + s.substring(1);
+    }
+
 
     // ---------------------------------------------------------------------------------------------- pieces
 
@@ -585,6 +915,11 @@ public final class SvgChart {
 
     private static void legend(StringBuilder s, Frame f, String baseline, String current) {
         int x = f.left();
+        if (baseline == null) {
+            s.append(String.format(Locale.ROOT, "<g class=\"legend\"><rect class=\"c\" x=\"%d\" y=\"8\" width=\"12\""
+                    + " height=\"12\"/><text x=\"%d\" y=\"18\">%s</text></g>", x, x + 17, esc(current)));
+            return;
+        }
         s.append(String.format(Locale.ROOT, "<g class=\"legend\"><rect class=\"b\" x=\"%d\" y=\"8\" width=\"12\" height=\"12\"/>"
                 + "<text x=\"%d\" y=\"18\">%s</text>", x, x + 17, esc(baseline)));
         int x2 = x + 30 + (int) (baseline.length() * 6.4);
@@ -626,9 +961,36 @@ public final class SvgChart {
                 cy, cy, esc(y)));
     }
 
-    private static void bar(StringBuilder s, String cls, double x, double y, double w, double h, String tip) {
-        s.append(String.format(Locale.ROOT, "<rect class=\"bar %s\" x=\"%.1f\" y=\"%.1f\" width=\"%.1f\" height=\"%.1f\"><title>%s</title></rect>",
-                cls, x, y, Math.max(0, w), Math.max(0, h), esc(tip)));
+    private static void bar(StringBuilder s, String cls, double x, double y, double w, double h, String tip,
+                            String data) {
+        s.append(String.format(Locale.ROOT, "<rect class=\"bar %s\" x=\"%.1f\" y=\"%.1f\" width=\"%.1f\" height=\"%.1f\"%s><title>%s</title></rect>",
+                cls, x, y, Math.max(0, w), Math.max(0, h), data, esc(tip)));
+    }
+
+    /**
+     * The data attributes of one plotted number: its value and interval at full precision (the shortest decimal
+     * that reads back as the same double; NaN where there is none), its wave, category and finding, so that every
+     * number in a picture can be held to the finding it belongs to.
+     */
+    static String data(double value, double low, double high, String wave, String category, String findingId) {
+        StringBuilder b = new StringBuilder(" data-value=\"").append(full(value)).append('"');
+        if (!Double.isNaN(low) || !Double.isNaN(high)) {
+            b.append(" data-low=\"").append(full(low)).append("\" data-high=\"").append(full(high)).append('"');
+        }
+        if (wave != null) {
+            b.append(" data-wave=\"").append(esc(wave)).append('"');
+        }
+        if (category != null) {
+            b.append(" data-category=\"").append(esc(category)).append('"');
+        }
+        if (findingId != null) {
+            b.append(" data-finding=\"").append(esc(findingId)).append('"');
+        }
+        return b.toString();
+    }
+
+    static String full(double v) {
+        return Double.isNaN(v) ? "NaN" : Double.toString(v);
     }
 
     /** A histogram as a closed step outline (filled lightly), so two waves stay readable when overlaid. */

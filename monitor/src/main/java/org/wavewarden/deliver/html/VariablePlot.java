@@ -1,5 +1,6 @@
 package org.wavewarden.deliver.html;
 
+import org.wavewarden.compare.WaveEstimates;
 import org.wavewarden.profile.NumericDistribution;
 
 import java.util.List;
@@ -10,7 +11,32 @@ import java.util.Objects;
  * Baseline comes first everywhere, as in the comparison stage.
  */
 public sealed interface VariablePlot permits VariablePlot.NumericPlot, VariablePlot.SharesPlot,
-        VariablePlot.MissingPlot, VariablePlot.CorrelationPlot, VariablePlot.Unavailable {
+        VariablePlot.MissingPlot, VariablePlot.CorrelationPlot, VariablePlot.EstimatePlot, VariablePlot.Unavailable {
+
+    /**
+     * The estimates a finding was judged on, each with its interval, as the finding's detail holds them
+     * ({@link WaveEstimates.Plotted}): shares as grouped bars with error bars, a mean or median as a point with
+     * whiskers per wave, and the reference of a REFERENCE finding as a dashed mark.
+     *
+     * @param findingId the finding the numbers belong to (dataset/wave/variable/kind), written on every element
+     * @param plotted   the finding's plotted estimates; an empty baseline means there is no baseline wave
+     */
+    record EstimatePlot(String findingId, WaveEstimates.Plotted plotted) implements VariablePlot {
+        public EstimatePlot {
+            Objects.requireNonNull(plotted, "plotted");
+            if (plotted.current().isEmpty()) {
+                throw new IllegalArgumentException("nothing to draw: no current estimate");
+            }
+            if (!plotted.baseline().isEmpty() && plotted.baseline().size() != plotted.current().size()) {
+                throw new IllegalArgumentException("baseline has " + plotted.baseline().size()
+                        + " estimates but current has " + plotted.current().size());
+            }
+            if (!plotted.reference().isEmpty() && plotted.reference().size() != plotted.current().size()) {
+                throw new IllegalArgumentException("reference has " + plotted.reference().size()
+                        + " values but current has " + plotted.current().size());
+            }
+        }
+    }
 
     /**
      * No chart: preparing its data failed. The alert is shown with a note in the chart's place.
@@ -31,7 +57,13 @@ public sealed interface VariablePlot permits VariablePlot.NumericPlot, VariableP
      * @param baseline  per measure {estimate, low, high} in the baseline wave
      * @param current   per measure {estimate, low, high} in the current wave
      */
-    record CorrelationPlot(List<String> labels, double[][] baseline, double[][] current) implements VariablePlot {
+    record CorrelationPlot(List<String> labels, double[][] baseline, double[][] current, String findingId)
+            implements VariablePlot {
+
+        public CorrelationPlot(List<String> labels, double[][] baseline, double[][] current) {
+            this(labels, baseline, current, null);
+        }
+
         public CorrelationPlot {
             if (labels.size() != baseline.length || labels.size() != current.length) {
                 throw new IllegalArgumentException("one row of baseline and current per label");
@@ -44,14 +76,20 @@ public sealed interface VariablePlot permits VariablePlot.NumericPlot, VariableP
      * A numeric variable: both waves' valid values, drawn as overlaid histograms.
      *
      * @param unit     the variable's unit for the axis label, or null when it has none
-     * @param baseline the baseline wave's valid values
+     * @param baseline the baseline wave's valid values, or null when there is no baseline wave
      * @param current  the current wave's valid values
+     * @param findingId the finding drawn (dataset/wave/variable/kind), or null
      */
-    record NumericPlot(String unit, NumericDistribution baseline, NumericDistribution current) implements VariablePlot {
+    record NumericPlot(String unit, NumericDistribution baseline, NumericDistribution current, String findingId)
+            implements VariablePlot {
+
+        public NumericPlot(String unit, NumericDistribution baseline, NumericDistribution current) {
+            this(unit, baseline, current, null);
+        }
+
         public NumericPlot {
-            Objects.requireNonNull(baseline, "baseline");
             Objects.requireNonNull(current, "current");
-            if (baseline.n() + current.n() == 0) {
+            if ((baseline == null ? 0 : baseline.n()) + current.n() == 0) {
                 throw new IllegalArgumentException("baseline and current are both empty: nothing to draw");
             }
         }
@@ -62,13 +100,20 @@ public sealed interface VariablePlot permits VariablePlot.NumericPlot, VariableP
      * the share of valid answers.
      *
      * @param categories category labels, in the order the bars are drawn
-     * @param baseline   baseline counts, aligned with {@code categories}
+     * @param baseline   baseline counts, aligned with {@code categories}; null when there is no baseline wave
      * @param current    current counts, aligned with {@code categories}
+     * @param findingId  the finding drawn (dataset/wave/variable/kind), or null
      */
-    record SharesPlot(List<String> categories, long[] baseline, long[] current) implements VariablePlot {
+    record SharesPlot(List<String> categories, long[] baseline, long[] current, String findingId)
+            implements VariablePlot {
+
+        public SharesPlot(List<String> categories, long[] baseline, long[] current) {
+            this(categories, baseline, current, null);
+        }
+
         public SharesPlot {
             categories = List.copyOf(categories);
-            baseline = checkedCounts("baseline", baseline, categories.size(), "categories");
+            baseline = baseline == null ? null : checkedCounts("baseline", baseline, categories.size(), "categories");
             current = checkedCounts("current", current, categories.size(), "categories");
             if (categories.isEmpty()) {
                 throw new IllegalArgumentException("categories must not be empty");
@@ -77,7 +122,7 @@ public sealed interface VariablePlot permits VariablePlot.NumericPlot, VariableP
 
         @Override
         public long[] baseline() {
-            return baseline.clone();
+            return baseline == null ? null : baseline.clone();
         }
 
         @Override
@@ -91,27 +136,36 @@ public sealed interface VariablePlot permits VariablePlot.NumericPlot, VariableP
      * wave's row count, drawn as the share of rows per reason.
      *
      * @param reasons      reason labels, in the order the bars are drawn
-     * @param baseline     baseline rows per reason, aligned with {@code reasons}
-     * @param rowsBaseline rows in the baseline wave (the denominator of its rates)
+     * @param baseline     baseline rows per reason, aligned with {@code reasons}; null when there is no baseline wave
+     * @param rowsBaseline rows in the baseline wave (the denominator of its rates); 0 without a baseline wave
      * @param current      current rows per reason, aligned with {@code reasons}
      * @param rowsCurrent  rows in the current wave
+     * @param findingId    the finding drawn (dataset/wave/variable/kind), or null
      */
-    record MissingPlot(List<String> reasons, long[] baseline, long rowsBaseline, long[] current, long rowsCurrent)
-            implements VariablePlot {
+    record MissingPlot(List<String> reasons, long[] baseline, long rowsBaseline, long[] current, long rowsCurrent,
+                       String findingId) implements VariablePlot {
+
+        public MissingPlot(List<String> reasons, long[] baseline, long rowsBaseline, long[] current,
+                           long rowsCurrent) {
+            this(reasons, baseline, rowsBaseline, current, rowsCurrent, null);
+        }
+
         public MissingPlot {
             reasons = List.copyOf(reasons);
-            baseline = checkedCounts("baseline", baseline, reasons.size(), "reasons");
+            baseline = baseline == null ? null : checkedCounts("baseline", baseline, reasons.size(), "reasons");
             current = checkedCounts("current", current, reasons.size(), "reasons");
             if (reasons.isEmpty()) {
                 throw new IllegalArgumentException("reasons must not be empty");
             }
-            checkRows("rowsBaseline", rowsBaseline, baseline);
+            if (baseline != null) {
+                checkRows("rowsBaseline", rowsBaseline, baseline);
+            }
             checkRows("rowsCurrent", rowsCurrent, current);
         }
 
         @Override
         public long[] baseline() {
-            return baseline.clone();
+            return baseline == null ? null : baseline.clone();
         }
 
         @Override

@@ -1,0 +1,267 @@
+package org.wavewarden.deliver.html;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.wavewarden.deliver.OutputPaths;
+import org.wavewarden.demo.DemoRun;
+
+import java.io.PrintWriter;
+import java.io.StringWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertNotNull;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+import static org.junit.jupiter.api.Assertions.fail;
+
+/**
+ * Every alert's picture in both demo digests holds the numbers of its finding in {@code findings.json}: each plotted
+ * baseline and current value and its interval equal the finding's estimates exactly (the SVG writes them at full
+ * precision), the category drawn first is the one the sentence names, a reference finding draws its reference, the
+ * trend's point at the judged wave is the finding's current estimate, and no legend speaks of a baseline of 0 rows.
+ */
+class DemoPlotsMatchFindingsTest {
+
+    @TempDir
+    static Path dir;
+    static DemoRun.Outcome outcome;
+    static final ObjectMapper JSON = new ObjectMapper();
+
+    @BeforeAll
+    static void runTheDemo() {
+        outcome = DemoRun.run(dir.resolve("demo"), new PrintWriter(new StringWriter()));
+    }
+
+    @Test
+    void everyHouseholdAlertIsDrawnFromItsFindingsNumbers() throws Exception {
+        int held = checkDataset("harrowmere-household", outcome.outDir());
+        assertTrue(held > 5, "alerts held to their estimates: " + held);
+    }
+
+    @Test
+    void everyPanelAlertIsDrawnFromItsFindingsNumbers() throws Exception {
+        int held = checkDataset("harrowmere-panel", outcome.outDir().resolve(DemoRun.PANEL_FOLDER));
+        assertTrue(held > 3, "alerts held to their estimates: " + held);
+    }
+
+    /** Checks every alert of one dataset's digest; returns how many were held to estimates. */
+    private int checkDataset(String dataset, Path folder) throws Exception {
+        String html = Files.readString(folder.resolve("digest.html"));
+        Map<String, String> sections = sections(html);
+        int held = 0;
+        int alerts = 0;
+        for (String wave : sections.keySet()) {
+            JsonNode report = JSON.readTree(Files.readString(OutputPaths.under(folder, wave).resolve("findings.json")));
+            String against = report.path("againstWave").isNull() ? null : report.path("againstWave").asText(null);
+            List<String[]> articles = articles(sections.get(wave));
+            for (String[] a : articles) {
+                alerts++;
+                String variable = a[0];
+                String kind = a[1];
+                String body = a[2];
+                String where = dataset + " wave " + wave + ", " + variable + " (" + kind + ")";
+                assertFalse(Pattern.compile("\\b0 rows").matcher(body).find(), where + ": a legend speaks of 0 rows");
+                JsonNode finding = finding(report, variable, kind);
+                assertNotNull(finding, where + ": no such finding in findings.json");
+                String id = dataset + "/" + wave + "/" + variable + "/" + kind;
+                if (kind.equals("RELATIONSHIP_CHANGE") && finding.path("detail").has("spearmanBaseline")) {
+                    checkCorrelations(where, id, body, finding.path("detail"), against, wave);
+                    held++;
+                    continue;
+                }
+                JsonNode plot = plotted(finding, kind);
+                if (kind.equals("SHIFT") || kind.equals("REFERENCE") || kind.equals("MISSING_RATE_CHANGE")) {
+                    assertNotNull(plot, where + ": the finding carries no plotted estimates");
+                }
+                if (plot == null) {
+                    continue;
+                }
+                held++;
+                String svg = svg(body, "estimates");
+                assertNotNull(svg, where + ": no plot of estimates");
+                List<Map<String, String>> drawn = elements(svg, id, "data-value");
+                JsonNode current = plot.path("current");
+                JsonNode baseline = plot.path("baseline");
+                String named = current.get(0).path("category").isNull() ? null
+                        : current.get(0).path("category").asText();
+                if (named != null) {
+                    assertEquals(named, drawn.get(0).get("data-category"), where + ": the first category drawn");
+                    String sentence = finding.path("sentence").asText();
+                    assertTrue(sentence.contains("'" + named + "'") || sentence.contains("(" + named + ")"),
+                            where + ": the sentence names '" + named + "': " + sentence);
+                }
+                for (int i = 0; i < current.size(); i++) {
+                    holds(where, drawn, current.get(i), wave);
+                    if (!baseline.isEmpty()) {
+                        holds(where, drawn, baseline.get(i), against);
+                    }
+                }
+                JsonNode reference = plot.path("reference");
+                List<Map<String, String>> refs = elements(svg, id, "data-reference");
+                assertEquals(reference.size(), refs.size(), where + ": references drawn");
+                for (int i = 0; i < reference.size(); i++) {
+                    assertEquals(reference.get(i).path("value").asDouble(),
+                            Double.parseDouble(refs.get(i).get("data-reference")), where + ": reference " + i);
+                }
+                if (kind.equals("REFERENCE")) {
+                    assertFalse(reference.isEmpty(), where + ": a reference finding draws its reference");
+                }
+                String trend = svg(body, "trend");
+                assertNotNull(trend, where + ": no trend");
+                List<Map<String, String>> points = elements(trend, id, "data-value");
+                Map<String, String> now = points.stream().filter(p -> wave.equals(p.get("data-wave"))).findFirst()
+                        .orElseThrow(() -> new AssertionError(where + ": the trend has no point at the judged wave"));
+                assertEquals(current.get(0).path("value").asDouble(), Double.parseDouble(now.get("data-value")),
+                        where + ": the trend's point at the judged wave");
+                assertEquals(number(current.get(0).path("low")), Double.parseDouble(now.getOrDefault("data-low",
+                        "NaN")), 1e-12, where + ": the trend's interval at the judged wave");
+                if (!baseline.isEmpty() && against != null) {
+                    // The trend computes each earlier wave with the finding's own estimator: the baseline wave's point
+                    // is the finding's baseline (to rounding, as the trend sums that wave's categories on their own).
+                    double expected = number(baseline.get(0).path("value"));
+                    points.stream().filter(p -> against.equals(p.get("data-wave"))).findFirst().ifPresent(p ->
+                            assertEquals(expected, Double.parseDouble(p.get("data-value")),
+                                    1e-12 * Math.max(1, Math.abs(expected)), where + ": the trend's baseline point"));
+                }
+                if (plot.path("estimator").asText().contains("SHARE")) {
+                    assertTrue(trend.contains("(%)"), where + ": a share's trend is drawn in percent");
+                }
+                if (named != null) {
+                    assertEquals(named, now.get("data-category"), where + ": the trend's category");
+                }
+            }
+        }
+        assertTrue(alerts > 0, dataset + ": no alerts at all");
+        return held;
+    }
+
+    private static void holds(String where, List<Map<String, String>> drawn, JsonNode e, String wave) {
+        String category = e.path("category").isNull() ? null : e.path("category").asText();
+        Map<String, String> el = drawn.stream().filter(d -> wave.equals(d.get("data-wave"))
+                        && java.util.Objects.equals(category, d.get("data-category"))).findFirst()
+                .orElseThrow(() -> new AssertionError(where + ": nothing drawn for " + category + " in " + wave));
+        assertEquals(number(e.path("value")), Double.parseDouble(el.get("data-value")), where + ": value of "
+                + category + " in " + wave);
+        assertEquals(number(e.path("low")), Double.parseDouble(el.getOrDefault("data-low", "NaN")), where
+                + ": low of " + category + " in " + wave);
+        assertEquals(number(e.path("high")), Double.parseDouble(el.getOrDefault("data-high", "NaN")), where
+                + ": high of " + category + " in " + wave);
+    }
+
+    private static void checkCorrelations(String where, String id, String body, JsonNode d, String against,
+                                          String wave) {
+        String svg = svg(body, "correlation");
+        assertNotNull(svg, where + ": no correlation plot");
+        List<Map<String, String>> drawn = elements(svg, id, "data-value");
+        String[][] rows = {{"spearmanBaseline", against, "Spearman rho"}, {"spearmanCurrent", wave, "Spearman rho"},
+                {"pearsonBaseline", against, "Pearson r"}, {"pearsonCurrent", wave, "Pearson r"}};
+        for (String[] r : rows) {
+            JsonNode e = d.path(r[0]);
+            Map<String, String> el = drawn.stream().filter(x -> r[1].equals(x.get("data-wave"))
+                    && r[2].equals(x.get("data-category"))).findFirst().orElseThrow(() -> new AssertionError(where
+                    + ": no " + r[2] + " drawn for " + r[1]));
+            assertEquals(e.path("estimate").asDouble(), Double.parseDouble(el.get("data-value")), where + " " + r[0]);
+            assertEquals(e.path("ciLow").asDouble(), Double.parseDouble(el.get("data-low")), where + " " + r[0]);
+            assertEquals(e.path("ciHigh").asDouble(), Double.parseDouble(el.get("data-high")), where + " " + r[0]);
+        }
+    }
+
+    /** The plotted estimates as findings.json holds them; for a missing rate, assembled from its reasons. */
+    private static JsonNode plotted(JsonNode finding, String kind) {
+        JsonNode detail = finding.path("detail");
+        if (kind.equals("MISSING_RATE_CHANGE") && detail.isArray()) {
+            var node = JSON.createObjectNode();
+            var b = node.putArray("baseline");
+            var c = node.putArray("current");
+            node.putArray("reference");
+            node.put("estimator", "SHARE");
+            for (JsonNode r : detail) {
+                if (r.path("current").isMissingNode() || r.path("current").isNull()) {
+                    return null;
+                }
+                b.add(r.path("baseline"));
+                c.add(r.path("current"));
+            }
+            return node;
+        }
+        JsonNode p = detail.path("plot");
+        return p.isMissingNode() || p.isNull() ? null : p;
+    }
+
+    private static double number(JsonNode n) {
+        return n.isMissingNode() || n.isNull() ? Double.NaN : n.isTextual() ? Double.parseDouble(n.asText())
+                : n.asDouble();
+    }
+
+    private static JsonNode finding(JsonNode report, String variable, String kind) {
+        for (JsonNode f : report.path("findings")) {
+            if (f.path("variable").asText().equals(variable) && f.path("kind").asText().equals(kind)) {
+                return f;
+            }
+        }
+        return null;
+    }
+
+    private static Map<String, String> sections(String html) {
+        Map<String, String> out = new LinkedHashMap<>();
+        Matcher m = Pattern.compile("<section class=\"wave\" id=\"wave-\\d+\" data-wave=\"([^\"]*)\">(.*?)</section>",
+                Pattern.DOTALL).matcher(html);
+        while (m.find()) {
+            out.put(unescape(m.group(1)), m.group(2));
+        }
+        return out;
+    }
+
+    /** {variable, kind, body} of every alert article. */
+    private static List<String[]> articles(String section) {
+        List<String[]> out = new ArrayList<>();
+        Matcher m = Pattern.compile("<article class=\"alert[^\"]*\" data-variable=\"([^\"]*)\" data-kind=\"([^\"]*)\""
+                + "[^>]*>(.*?)</article>", Pattern.DOTALL).matcher(section);
+        while (m.find()) {
+            out.add(new String[] {unescape(m.group(1)), m.group(2), m.group(3)});
+        }
+        return out;
+    }
+
+    private static String svg(String body, String kindClass) {
+        Matcher m = Pattern.compile("<svg class=\"plot [^\"]*\\b" + kindClass + "\\b[^\"]*\".*?</svg>", Pattern.DOTALL)
+                .matcher(body);
+        return m.find() ? m.group() : null;
+    }
+
+    /** The attributes of every element of the finding that carries {@code attribute}, in document order. */
+    static List<Map<String, String>> elements(String svg, String id, String attribute) {
+        List<Map<String, String>> out = new ArrayList<>();
+        Matcher tag = Pattern.compile("<[a-z]+(\\s[^>]*)>").matcher(svg);
+        while (tag.find()) {
+            Map<String, String> attrs = new LinkedHashMap<>();
+            Matcher a = Pattern.compile("([a-z-]+)=\"([^\"]*)\"").matcher(tag.group(1));
+            while (a.find()) {
+                attrs.put(a.group(1), unescape(a.group(2)));
+            }
+            if (attrs.containsKey(attribute) && id.equals(attrs.get("data-finding"))) {
+                out.add(attrs);
+            }
+        }
+        if (out.isEmpty() && attribute.equals("data-value")) {
+            fail("no element of " + id + " carries " + attribute);
+        }
+        return out;
+    }
+
+    static String unescape(String s) {
+        return s.replace("&lt;", "<").replace("&gt;", ">").replace("&quot;", "\"").replace("&#39;", "'")
+                .replace("&amp;", "&");
+    }
+}
