@@ -24,7 +24,7 @@ import java.util.TreeMap;
  * valid totals are then the totals less the excluded values, which works when every excluded value is code-like (as
  * missing codes are). Otherwise there is no design view, and the comparison falls back to the weights alone.
  */
-final class DesignViews {
+public final class DesignViews {
 
     private DesignViews() {
     }
@@ -35,7 +35,7 @@ final class DesignViews {
      * @param tally  the values with their PSU sums, when every value's sums are known; null otherwise
      * @param totals the valid answers' PSU totals (numeric variables)
      */
-    record View(PsuTally tally, PsuTotals totals, String unavailable) {
+    public record View(PsuTally tally, PsuTotals totals, String unavailable) {
 
         static View none(String why) {
             return new View(null, null, why);
@@ -43,7 +43,7 @@ final class DesignViews {
     }
 
     /** A numeric variable's view: values are the numbers (or level ranks) the screen compares. */
-    static View numeric(DesignSummary design, ColumnTally tally, ScreenedVariable s, VariableConfig v) {
+    public static View numeric(DesignSummary design, ColumnTally tally, ScreenedVariable s, VariableConfig v) {
         DesignSummary.ColumnDesign cd = design.columns().get(tally.column());
         if (cd == null) {
             return View.none("the design holds no PSU sums for " + tally.column());
@@ -100,7 +100,7 @@ final class DesignViews {
     }
 
     /** A categorical or binary variable's view along {@code order}: value j is the category {@code order.get(j)}. */
-    static View categories(DesignSummary design, String column, ScreenedVariable s, List<String> order) {
+    public static View categories(DesignSummary design, String column, ScreenedVariable s, List<String> order) {
         DesignSummary.ColumnDesign cd = design.columns().get(column);
         if (cd == null || !cd.complete()) {
             return View.none("the design holds no PSU sums of every answer of " + column);

@@ -1,6 +1,7 @@
 package org.wavewarden.pipeline;
 
 import org.wavewarden.compare.WaveEstimates;
+import org.wavewarden.compare.DesignViews;
 import org.wavewarden.compare.design.PsuTally;
 import org.wavewarden.compare.design.PsuTotals;
 import org.wavewarden.compare.relation.RelationshipDetail;

@@ -42,9 +42,9 @@ class DigestAssemblerPlottedTest {
         var e2 = WaveEstimates.share("NULL", 0, 30, 0.95);
         var f1 = WaveEstimates.share("-9", 1, 31, 0.95);
         var f2 = WaveEstimates.share("-9", 3, 30, 0.95);
-        List<WaveJudge.ReasonRate> rates = List.of(
-                new WaveJudge.ReasonRate("NULL", e1.value(), e2.value(), 0.04, 0.05, "MATERIAL", "s", e1, e2),
-                new WaveJudge.ReasonRate("-9", f1.value(), f2.value(), 0.3, 0.4, "STABLE", "t", f1, f2));
+        List<org.wavewarden.judge.WaveVerdicts.ReasonRate> rates = List.of(
+                new org.wavewarden.judge.WaveVerdicts.ReasonRate("NULL", e1.value(), e2.value(), null, 0.04, 0.05, "MATERIAL", "s", e1, e2),
+                new org.wavewarden.judge.WaveVerdicts.ReasonRate("-9", f1.value(), f2.value(), null, 0.3, 0.4, "STABLE", "t", f1, f2));
         Finding f = new Finding("x", FindingKind.MISSING_RATE_CHANGE, null, null, null, null, null, null, 31L, 30L,
                 "s", Json.read(Json.write(rates), Object.class));
         WaveEstimates.Plotted p = DigestAssembler.plotted(f);
