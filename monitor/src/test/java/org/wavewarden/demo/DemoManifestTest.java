@@ -367,6 +367,27 @@ class DemoManifestTest {
         return out;
     }
 
+    @Test
+    void everyFindingsFileOfBothDemoDatasetsMatchesItsJsonSchema() throws Exception {
+        List<Path> files = new ArrayList<>();
+        waves.forEach(w -> files.add(OutputPaths.under(out, w).resolve("findings.json")));
+        panelByWave.keySet().forEach(w -> files.add(OutputPaths.under(out.resolve(DemoRun.PANEL_FOLDER), w)
+                .resolve("findings.json")));
+        assertEquals(waves.size() + panelByWave.size(), files.size());
+        List<String> problems = new ArrayList<>();
+        int tested = 0;
+        for (Path f : files) {
+            JsonNode doc = Json.mapper().readTree(Files.readString(f));
+            org.wavewarden.deliver.FindingsSchema.problems(doc).forEach(p -> problems.add(f.getParent()
+                    .getFileName() + ": " + p));
+            for (JsonNode finding : doc.get("findings")) {
+                tested += finding.get("qValue").isNumber() ? 1 : 0;
+            }
+        }
+        assertTrue(problems.isEmpty(), String.join("\n", problems));
+        assertTrue(tested > 0, "the demo's files hold tested findings, whose family the schema requires");
+    }
+
     static Optional<Finding> find(FindingsReport r, String variable, FindingKind kind) {
         return r.findings().stream().filter(f -> f.variable().equals(variable) && f.kind() == kind).findFirst();
     }

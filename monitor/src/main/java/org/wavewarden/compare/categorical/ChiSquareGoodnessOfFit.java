@@ -15,6 +15,10 @@ public final class ChiSquareGoodnessOfFit {
 
     static final String NAME = "Pearson chi-square goodness of fit";
 
+    /** How the df of this test are counted. */
+
+    static final String DF_CONVENTION = "categories - 1";
+
     private ChiSquareGoodnessOfFit() {
     }
 
@@ -26,7 +30,7 @@ public final class ChiSquareGoodnessOfFit {
         }
         int df = observed.length - 1;
         if (n == 0 || df == 0) {
-            return new TestResult(NAME, 0, df, 1);
+            return new TestResult(NAME, 0, df, 1, DF_CONVENTION);
         }
         double x2 = 0;
         for (int i = 0; i < observed.length; i++) {
@@ -34,7 +38,7 @@ public final class ChiSquareGoodnessOfFit {
             double d = observed[i] - e;
             x2 += d * d / e;
         }
-        return new TestResult(NAME, x2, df, ChiSquareHomogeneity.upperTail(x2, df), "categories - 1");
+        return new TestResult(NAME, x2, df, ChiSquareHomogeneity.upperTail(x2, df), DF_CONVENTION);
     }
 
     public static EffectSize cohensW(long[] observed, double[] expectedProportions, double confidence) {

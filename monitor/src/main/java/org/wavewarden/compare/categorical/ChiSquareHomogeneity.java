@@ -23,6 +23,10 @@ public final class ChiSquareHomogeneity {
 
     static final String NAME = "Pearson chi-square";
 
+    /** How the df of this test are counted. */
+
+    static final String DF_CONVENTION = "(rows - 1)(columns - 1) of the table tested";
+
     private ChiSquareHomogeneity() {
     }
 
@@ -75,10 +79,10 @@ public final class ChiSquareHomogeneity {
         int cells = r * c;
         TestResult test;
         if (r < 2 || c < 2) {
-            test = new TestResult(NAME, 0, 0, 1);
+            test = new TestResult(NAME, 0, 0, 1, DF_CONVENTION);
         } else {
             int df = (r - 1) * (c - 1);
-            test = new TestResult(NAME, x2, df, upperTail(x2, df), "(rows - 1)(columns - 1) of the table tested");
+            test = new TestResult(NAME, x2, df, upperTail(x2, df), DF_CONVENTION);
         }
         boolean cochran = cells > 0 && below1 == 0 && below5 <= 0.2 * cells;
         String note = cochranNote(cells, below1, below5, cochran);

@@ -255,7 +255,7 @@ public final class RaoScott {
         double pSecond = Beta.regularizedBeta(ddf / (ddf + d0 * f), ddf / 2, d0 / 2);
         return new RaoScottResult(codes, x2, descending, meanDeff,
                 new TestResult(FIRST_ORDER, first, df, clamp(pFirst), "categories - 1"),
-                new TestResult(SECOND_ORDER, f, d0, clamp(pSecond)), ddf);
+                new TestResult(SECOND_ORDER, f, d0, clamp(pSecond), "tr(Delta)^2 / tr(Delta^2)"), ddf);
     }
 
     private static double clamp(double p) {

@@ -31,7 +31,7 @@ public final class McNemarTest {
         String name = continuityCorrection ? NAME_CORRECTED : NAME;
         long discordant = yesNo + noYes;
         if (discordant == 0) {
-            return new TestResult(name, 0, 1, 1);
+            return new TestResult(name, 0, 1, 1, "1");
         }
         double k = continuityCorrection ? 1 : 0;
         double diff = Math.abs(noYes - yesNo) - k;

@@ -95,6 +95,7 @@ class PanelComparisonsTest {
         assertEquals("paired t", c.test().test());
         assertEquals(-4.0621, c.test().statistic(), 5e-5);
         assertEquals(9, c.test().df());
+        assertEquals("pairs - 1", c.test().dfConvention());
         assertEquals(0.002833, c.test().pValue(), 5e-7);
         assertEquals(-4.0621276833820366, c.test().statistic(), 1e-10);
         assertEquals(0.0028328901973842702, c.test().pValue(), 1e-12);
