@@ -25,7 +25,7 @@ public final class Judge {
         List<Finding> out = new ArrayList<>(comparisons.size());
         for (int i = 0; i < comparisons.size(); i++) {
             Comparison c = comparisons.get(i);
-            Verdict v = VerdictRule.judge(q[i], c.effect(), c.threshold(), alpha);
+            Verdict v = VerdictRule.judge(q[i], c, alpha);
             Finding.Effect e = new Finding.Effect(c.effect().name(), c.effect().estimate(), c.effect().ciLow(),
                     c.effect().ciHigh(), c.threshold());
             out.add(new Finding(c.variable(), c.kind(), c.test().test(), c.test().statistic(), c.test().pValue(), q[i],
