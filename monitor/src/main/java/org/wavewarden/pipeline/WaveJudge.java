@@ -2,6 +2,7 @@ package org.wavewarden.pipeline;
 
 import org.jdbi.v3.core.Handle;
 import org.wavewarden.compare.Comparison;
+import org.wavewarden.compare.location.LocationTestChoice;
 import org.wavewarden.compare.VariableComparator;
 import org.wavewarden.compare.WeightedComparator;
 import org.wavewarden.config.CompareWith;
@@ -193,7 +194,8 @@ public final class WaveJudge {
         WaveProfile baseline = baselines.isEmpty() ? null
                 : baselines.size() == 1 ? baselines.get(0) : WaveProfile.pooled(againstLabel, baselines);
 
-        Profiled judged = findings(cfg, d, current, baseline, panel(d, source, against, baseline, current));
+        Profiled judged = findings(cfg, d, current, baseline, panel(d, source, against, baseline, current),
+                history(d, source, listed, wave, against, baselines, againstLabel));
         List<String> inference = new ArrayList<>(notes);
         inference.addAll(judged.inference());
         List<Finding> findings = judged.findings();
@@ -234,6 +236,15 @@ public final class WaveJudge {
      */
     public static Profiled findings(WardenConfig cfg, DatasetConfig d, WaveProfile current, WaveProfile baseline,
                                     PanelPairs.Panel panel) {
+        return findings(cfg, d, current, baseline, panel, null);
+    }
+
+    /**
+     * The same, with the dataset's first waves from which continuous variables' location tests are chosen (null:
+     * each comparison chooses from its two waves).
+     */
+    public static Profiled findings(WardenConfig cfg, DatasetConfig d, WaveProfile current, WaveProfile baseline,
+                                    PanelPairs.Panel panel, LocationHistory history) {
         List<String> inference = new ArrayList<>();
         List<VariableConfig> variables = variables(d, current, inference);
         boolean weighted = d.weightColumn() != null;
@@ -249,7 +260,7 @@ public final class WaveJudge {
                 : baseline.columns(), current.columns(), weighted && baseline != null ? baseline.weights() : null,
                 weighted ? current.weights() : null, weighted && baseline != null ? baseline.design() : null,
                 weighted ? current.design() : null, cfg.alpha(), cfg.fdr(), d.name() + " wave " + current.wave(),
-                relations));
+                relations, history));
         findings.addAll(relationNotes);
         findings.addAll(schemaFindings(d, baseline, current));
         if (current.rows() == 0) {
@@ -292,6 +303,18 @@ public final class WaveJudge {
                                                DesignSummary baselineDesign, DesignSummary currentDesign,
                                                double alpha, WardenConfig.FdrMethod fdr, String what,
                                                List<Comparison> alsoJudged) {
+        return judgeVariables(variables, baseline, current, baselineWeights, currentWeights, baselineDesign,
+                currentDesign, alpha, fdr, what, alsoJudged, null);
+    }
+
+    /** The same, with the first waves of the series that continuous variables' location tests are chosen from. */
+    public static List<Finding> judgeVariables(List<VariableConfig> variables, Map<String, ColumnTally> baseline,
+                                               Map<String, ColumnTally> current,
+                                               Map<String, Map<String, double[]>> baselineWeights,
+                                               Map<String, Map<String, double[]>> currentWeights,
+                                               DesignSummary baselineDesign, DesignSummary currentDesign,
+                                               double alpha, WardenConfig.FdrMethod fdr, String what,
+                                               List<Comparison> alsoJudged, LocationHistory history) {
         VariableComparator comparator = new VariableComparator(1 - alpha);
         WeightedComparator weighted = new WeightedComparator(1 - alpha);
         List<Comparison> comparisons = new ArrayList<>();
@@ -313,7 +336,7 @@ public final class WaveJudge {
                 judgeVariable(comparator, weighted, v, ct, bt,
                         currentWeights == null ? null : currentWeights.get(v.name()),
                         baselineWeights == null ? null : baselineWeights.get(v.name()), baselineDesign, currentDesign,
-                        mine, myPlain);
+                        history, mine, myPlain);
             } catch (RuntimeException e) {
                 // A value no method foresaw, in screening, data-quality checks or comparison, must cost one variable
                 // its comparison, never the whole run.
@@ -332,6 +355,27 @@ public final class WaveJudge {
                 onePerVariableAndKind(Judge.judge(comparisons, alpha, fdr))), summarised));
         findings.addAll(plain);
         return findings;
+    }
+
+    /**
+     * The dataset's first waves with rows before {@code wave}, up to {@link LocationTestChoice#HISTORY_WAVES}, as
+     * stored summaries (a baseline already read is taken as it is); null for the first wave.
+     */
+    private LocationHistory history(DatasetConfig d, WaveSource source, List<WaveInfo> listed, String wave,
+                                    List<String> against, List<WaveProfile> baselines, String againstLabel) {
+        List<WaveProfile> first = new ArrayList<>();
+        for (WaveInfo w : listed) {
+            if (w.wave().equals(wave) || first.size() == LocationTestChoice.HISTORY_WAVES) {
+                break;
+            }
+            if (w.rows() > 0) {
+                int i = against.indexOf(w.wave());
+                // a summary read again for another configuration is noted where it is a baseline, not here
+                first.add(i >= 0 ? baselines.get(i) : baselineProfile(d, source, w.wave(), List.of(),
+                        new ArrayList<>()));
+            }
+        }
+        return againstLabel == null ? null : new LocationHistory(first, againstLabel);
     }
 
     /** Relationship drift of the configured pairs: comparisons for the run's family, skip notices beside them. */
@@ -371,7 +415,7 @@ public final class WaveJudge {
     private static void judgeVariable(VariableComparator comparator, WeightedComparator weighted, VariableConfig v,
                                       ColumnTally ct, ColumnTally bt, Map<String, double[]> cw,
                                       Map<String, double[]> bw, DesignSummary bd, DesignSummary cd,
-                                      List<Comparison> comparisons, List<Finding> plain) {
+                                      LocationHistory history, List<Comparison> comparisons, List<Finding> plain) {
         FaultPoints.hit(FaultPoints.JUDGE_VARIABLE + v.name());
         ScreenedVariable sc = VariableScreen.screen(ct, v, cw);
         ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v, bw);
@@ -386,7 +430,8 @@ public final class WaveJudge {
         boolean weigh = WeightedComparisons.applies(sb, sc);
         WeightedComparator.Design design = weigh && bd != null && cd != null
                 ? WeightedComparisons.design(v, bt, ct, sb, sc, bd, cd) : null;
-        compare(comparator, v, sb, sc, ct, bt, weigh ? weighted : null, design).ifPresentOrElse(c -> {
+        compare(comparator, v, sb, sc, ct, bt, weigh ? weighted : null, design,
+                LocationHistory.choice(v, history, sb)).ifPresentOrElse(c -> {
             comparisons.add(c);
             if (v.kind() == VariableKind.CONTINUOUS) {
                 comparisons.add(weigh ? WeightedComparisons.shape(weighted, v, sb, sc)
@@ -450,7 +495,8 @@ public final class WaveJudge {
     private static Optional<Comparison> compare(VariableComparator comparator, VariableConfig v,
                                                 ScreenedVariable b, ScreenedVariable c, ColumnTally ct,
                                                 ColumnTally bt, WeightedComparator weighted,
-                                                WeightedComparator.Design design) {
+                                                WeightedComparator.Design design,
+                                                LocationTestChoice.Choice choice) {
         if (skipReason(v, b, c, ct, bt) != null) {
             return Optional.empty();
         }
@@ -459,7 +505,7 @@ public final class WaveJudge {
         }
         return switch (v.kind()) {
             case CONTINUOUS, ORDINAL -> Optional.of(comparator.numeric(v.name(), v.kind() == VariableKind.ORDINAL,
-                    b.numeric(), c.numeric(), v.threshold(), v.unit()));
+                    b.numeric(), c.numeric(), v.threshold(), v.unit(), choice));
             case CATEGORICAL -> Optional.of(comparator.categorical(v.name(), b.categories(), c.categories(),
                     v.threshold()));
             case BINARY -> {
