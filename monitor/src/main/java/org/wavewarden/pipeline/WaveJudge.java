@@ -434,7 +434,7 @@ public final class WaveJudge {
                 LocationHistory.choice(v, history, sb)).ifPresentOrElse(c -> {
             comparisons.add(c);
             if (v.kind() == VariableKind.CONTINUOUS) {
-                comparisons.add(weigh ? WeightedComparisons.shape(weighted, v, sb, sc)
+                comparisons.add(weigh ? WeightedComparisons.shape(weighted, v, sb, sc, design)
                         : comparator.shape(v.name(), sb.numeric(), sc.numeric(), v.unit()));
             }
         }, () -> {
