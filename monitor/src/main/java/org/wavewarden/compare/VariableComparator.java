@@ -117,9 +117,19 @@ public final class VariableComparator {
      */
     public Comparison numeric(String variable, boolean ordinal, NumericDistribution baseline,
                               NumericDistribution current, Threshold configured, String unit) {
+        return numeric(variable, ordinal, baseline, current, configured, unit, null);
+    }
+
+    /**
+     * The same with a continuous variable's test already chosen ({@link LocationTestChoice#fromHistory} or
+     * {@link LocationTestChoice#pinned}); null applies {@link LocationTestChoice#choose} to the two waves.
+     */
+    public Comparison numeric(String variable, boolean ordinal, NumericDistribution baseline,
+                              NumericDistribution current, Threshold configured, String unit,
+                              LocationTestChoice.Choice chosen) {
         LocationTestChoice.Choice choice = ordinal
                 ? new LocationTestChoice.Choice(LocationTestChoice.LocationTest.MANN_WHITNEY, "ordinal scale: rank methods")
-                : LocationTestChoice.choose(baseline, current);
+                : chosen != null ? chosen : LocationTestChoice.choose(baseline, current);
         KolmogorovSmirnovResult ks = KolmogorovSmirnovTest.test(baseline, current);
         double w1 = Wasserstein.distance(baseline, current);
         PsiResult psi = PopulationStabilityIndex.compute(baseline, current);

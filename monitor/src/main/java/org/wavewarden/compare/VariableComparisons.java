@@ -1,5 +1,6 @@
 package org.wavewarden.compare;
 
+import org.wavewarden.compare.location.LocationTestChoice;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.config.VariableKind;
 import org.wavewarden.judge.FindingKind;
@@ -23,7 +24,8 @@ public final class VariableComparisons {
     public static Optional<Comparison> compare(VariableComparator comparator, VariableConfig v,
                                                 ScreenedVariable b, ScreenedVariable c, ColumnTally ct,
                                                 ColumnTally bt, WeightedComparator weighted,
-                                                WeightedComparator.Design design) {
+                                                WeightedComparator.Design design,
+                                                LocationTestChoice.Choice choice) {
         if (skipReason(v, b, c, ct, bt) != null) {
             return Optional.empty();
         }
@@ -32,7 +34,7 @@ public final class VariableComparisons {
         }
         return switch (v.kind()) {
             case CONTINUOUS, ORDINAL -> Optional.of(comparator.numeric(v.name(), v.kind() == VariableKind.ORDINAL,
-                    b.numeric(), c.numeric(), v.threshold(), v.unit()));
+                    b.numeric(), c.numeric(), v.threshold(), v.unit(), choice));
             case CATEGORICAL -> Optional.of(comparator.categorical(v.name(), b.categories(), c.categories(),
                     v.threshold()));
             case BINARY -> {

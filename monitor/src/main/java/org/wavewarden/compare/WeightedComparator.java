@@ -4,6 +4,7 @@ import org.apache.commons.math3.distribution.TDistribution;
 import org.apache.commons.math3.random.RandomGenerator;
 import org.wavewarden.compare.categorical.CohensW;
 import org.wavewarden.compare.categorical.CramersV;
+import org.wavewarden.compare.design.BinnedDesignEffect;
 import org.wavewarden.compare.design.DesignEstimate;
 import org.wavewarden.compare.design.DesignGoodnessOfFit;
 import org.wavewarden.compare.design.DesignMeanDifference;
@@ -46,11 +47,14 @@ import java.util.Locale;
  *   the difference of weighted shares with its t interval.</li>
  *   <li>Categorical: the Rao-Scott second-order F ({@link RaoScott}); the first-order corrected chi-square is in the
  *   detail. Effect: Cramér's V of the weighted shares with each wave scaled to its Kish effective sample size
- *   (noncentral chi-square interval on that scale: a Kish approximation); or, with a threshold in points, the
+ *   (noncentral chi-square interval on that scale: a Kish approximation), under strata and clusters with the
+ *   interval at the effective size n / dbar of the Rao-Scott first-order correction ({@link CramersV#atEffectiveSize});
+ *   or, with a threshold in points, the
  *   difference of weighted shares of the category whose design-based t is largest.</li>
  *   <li>Shape of a continuous variable: the largest gap between the weighted distribution functions, with the
- *   limiting Kolmogorov p-value and the DKW interval at Kish's effective sample sizes (an approximation; there is
- *   no design-based KS test in common use).</li>
+ *   limiting Kolmogorov p-value and the DKW interval at Kish's effective sample sizes, under strata and clusters
+ *   at the sizes the largest design effect of the binned distributions leaves (an approximation, conservative;
+ *   there is no design-based KS test in common use).</li>
  * </ul>
  * Every weighted finding names the weighting in its test, and states each wave's Kish effective sample size
  * {@code n_eff = W^2 / sum w^2} and design effect due to weighting {@code deff_w = n sum w^2 / W^2} (Kish, L.
@@ -68,6 +72,8 @@ public final class WeightedComparator {
     public static final String DF_ONE_SAMPLE_WEIGHTS_ONLY = "n - 1: each respondent its own PSU, one stratum (R survey"
             + " degf)";
     public static final String SHAPE_TEST = "Kolmogorov-Smirnov on weighted distributions (Kish effective sizes)";
+    public static final String SHAPE_TEST_DESIGN = "Kolmogorov-Smirnov on weighted distributions (effective sizes"
+            + " from the design effect)";
 
     /** What a test name says when strata and clusters, not the weights alone, give its variance. */
     public static final String WITH_DESIGN = " (stratified cluster design, Taylor linearisation)";
@@ -212,15 +218,38 @@ public final class WeightedComparator {
 
     /** The shape check of a weighted continuous variable. Threshold: KS distance 0.1 (common practice, no source). */
     public Comparison shape(String variable, WeightedTally baseline, WeightedTally current) {
+        return shape(variable, baseline, current, null);
+    }
+
+    /**
+     * The same with the waves' designs (null: weights only). With every value's PSU sums ({@link Design} tallies),
+     * the limiting Kolmogorov p-value and the DKW interval take each wave's answers divided by the largest
+     * generalised design effect of the binned distributions ({@link BinnedDesignEffect}) as its effective size, so
+     * that clustering, which Kish's sizes ignore, cannot make a chance gap look like a changed shape (the test is
+     * conservative); without them, Kish's sizes stand. There is no design-based KS test in R's survey package; a
+     * simulation of clustered waves drawn from one population checks the level (WeightedDesignEffectsTest).
+     */
+    public Comparison shape(String variable, WeightedTally baseline, WeightedTally current, Design design) {
         Weighting wb = Weighting.of(baseline);
         Weighting wc = Weighting.of(current);
         double ks = WeightedDistribution.cdfDistance(baseline, current);
-        double p = KolmogorovSmirnovTest.asymptoticPValue(ks, wb.effectiveSampleSize(), wc.effectiveSampleSize());
-        EffectSize d = DistanceInterval.ofEffectiveSizes(ks, wb.effectiveSampleSize(), wc.effectiveSampleSize(),
-                confidence);
+        double nb = wb.effectiveSampleSize();
+        double nc = wc.effectiveSampleSize();
+        String test = SHAPE_TEST;
+        String note = weightingNote(wb, wc);
+        if (design != null && design.baselineTally() != null && design.currentTally() != null) {
+            double deff = BinnedDesignEffect.largest(design.baselineTally(), design.currentTally());
+            nb = design.baselineTally().n() / deff;
+            nc = design.currentTally().n() / deff;
+            test = SHAPE_TEST_DESIGN;
+            note += String.format(Locale.ROOT, "; under the design, largest design effect %.2f of the binned"
+                    + " distributions, effective sizes %.0f and %.0f", deff, nb, nc);
+        }
+        double p = KolmogorovSmirnovTest.asymptoticPValue(ks, nb, nc);
+        EffectSize d = DistanceInterval.ofEffectiveSizes(ks, nb, nc, confidence);
         Change change = new Change("largest gap between the two waves' weighted cumulative distributions of "
-                + variable, 0, ks, true, null, ks, d.ciLow(), d.ciHigh(), weightingNote(wb, wc));
-        return new Comparison(variable, FindingKind.SHAPE_CHANGE, TestResult.withoutDf(SHAPE_TEST, ks, p), d,
+                + variable, 0, ks, true, null, ks, d.ciLow(), d.ciHigh(), note);
+        return new Comparison(variable, FindingKind.SHAPE_CHANGE, TestResult.withoutDf(test, ks, p), d,
                 Thresholds.KS_DISTANCE, "default " + Thresholds.KS_DISTANCE + " for the KS distance",
                 baseline.n(), current.n(), change, null);
     }
@@ -305,6 +334,11 @@ public final class WeightedComparator {
         double x2 = pearson(sb, sc, wb.effectiveSampleSize(), wc.effectiveSampleSize());
         EffectSize v = CramersV.ofTwoWaveChiSquare("Cramér's V (weighted, Kish effective sizes)", x2, k - 1,
                 wb.effectiveSampleSize() + wc.effectiveSampleSize(), confidence);
+        if (design != null) {
+            // Under strata and clusters the interval takes the design's own effect on the shares, not Kish's.
+            v = CramersV.atEffectiveSize("Cramér's V (weighted, Rao-Scott design effect)", v.estimate(), k - 1,
+                    (design.baselineTally().n() + design.currentTally().n()) / rs.meanDesignEffect(), confidence);
+        }
         Thresholds.Resolved t = Thresholds.resolve(configured, v.name(), Thresholds.CRAMERS_V, null);
         String moved = categories.get(codes[topIndex]);
         EffectSize share = top.difference();

@@ -96,8 +96,9 @@ public final class WeightedComparisons {
 
     private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(WeightedComparisons.class);
 
-    public static Comparison shape(WeightedComparator comparator, VariableConfig v, ScreenedVariable b, ScreenedVariable c) {
-        return comparator.shape(v.name(), b.weighted(), c.weighted());
+    public static Comparison shape(WeightedComparator comparator, VariableConfig v, ScreenedVariable b, ScreenedVariable c,
+                            WeightedComparator.Design design) {
+        return comparator.shape(v.name(), b.weighted(), c.weighted(), design);
     }
 
     /**

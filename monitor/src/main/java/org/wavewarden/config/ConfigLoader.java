@@ -588,7 +588,7 @@ public final class ConfigLoader {
 
         VariableConfig variable(ObjectNode node, String path) {
             known(node, path, "name", "kind", "unit", "range", "missingCodes", "threshold", "successValue", "levels",
-                    "reference");
+                    "reference", "locationTest");
             String name = Identifiers.require(path + ".name", text(node, "name", path + ".name", true));
             String kindText = text(node, "kind", path + ".kind", true);
             VariableKind kind = kind(kindText, path + ".kind");
@@ -609,7 +609,29 @@ public final class ConfigLoader {
             }
             Reference reference = reference(object(node, "reference", path + ".reference", false),
                     path + ".reference", kind);
-            return new VariableConfig(name, kind, unit, range, codes, threshold, success, levels, reference);
+            LocationTestPin locationTest = locationTest(text(node, "locationTest", path + ".locationTest", false),
+                    path + ".locationTest", kind);
+            return new VariableConfig(name, kind, unit, range, codes, threshold, success, levels, reference,
+                    locationTest);
+        }
+
+        LocationTestPin locationTest(String text, String path, VariableKind kind) {
+            if (text == null) {
+                return null;
+            }
+            if (kind != VariableKind.CONTINUOUS) {
+                throw new ConfigException(path, "only continuous variables choose between means and ranks; a "
+                        + kind.configName() + " variable has one test");
+            }
+            List<String> names = java.util.Arrays.stream(LocationTestPin.values()).map(LocationTestPin::configName)
+                    .toList();
+            for (LocationTestPin p : LocationTestPin.values()) {
+                if (p.configName().equals(text)) {
+                    return p;
+                }
+            }
+            throw new ConfigException(path, "expected means or ranks but got " + Identifiers.Text.show(text)
+                    + Suggest.nearest(text, names).map(s -> " (did you mean '" + s + "'?)").orElse(""));
         }
 
         Reference reference(ObjectNode node, String path, VariableKind kind) {

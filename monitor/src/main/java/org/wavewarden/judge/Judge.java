@@ -26,7 +26,7 @@ public final class Judge {
         List<Finding> out = new ArrayList<>(comparisons.size());
         for (int i = 0; i < comparisons.size(); i++) {
             Comparison c = comparisons.get(i);
-            Verdict v = VerdictRule.judge(q[i], c.effect(), c.threshold(), alpha);
+            Verdict v = VerdictRule.judge(q[i], c, alpha);
             Finding.Effect e = new Finding.Effect(c.effect().name(), c.effect().estimate(), c.effect().ciLow(),
                     c.effect().ciHigh(), c.threshold());
             double df = c.test().df();

@@ -5,6 +5,8 @@ import org.wavewarden.compare.Comparison;
 import org.wavewarden.compare.EffectSize;
 import org.wavewarden.compare.VariableComparator;
 import org.wavewarden.compare.VariableComparisons;
+import org.wavewarden.compare.LocationHistory;
+import org.wavewarden.compare.location.LocationTestChoice;
 import org.wavewarden.compare.WeightedComparator;
 import org.wavewarden.compare.WeightedComparisons;
 import org.wavewarden.compare.panel.PanelComparisons;
@@ -203,7 +205,8 @@ public final class WaveJudge {
         WaveProfile baseline = baselines.isEmpty() ? null
                 : baselines.size() == 1 ? baselines.get(0) : WaveProfile.pooled(againstLabel, baselines);
 
-        Profiled judged = findings(cfg, d, current, baseline, panel(d, source, against, baseline, current));
+        Profiled judged = findings(cfg, d, current, baseline, panel(d, source, against, baseline, current),
+                history(d, source, listed, wave, against, baselines, againstLabel));
         List<String> inference = new ArrayList<>(notes);
         inference.addAll(judged.inference());
         List<Finding> findings = judged.findings();
@@ -245,6 +248,15 @@ public final class WaveJudge {
      */
     public static Profiled findings(WardenConfig cfg, DatasetConfig d, WaveProfile current, WaveProfile baseline,
                                     PairedPanel.Panel panel) {
+        return findings(cfg, d, current, baseline, panel, null);
+    }
+
+    /**
+     * The same, with the dataset's first waves from which continuous variables' location tests are chosen (null:
+     * each comparison chooses from its two waves).
+     */
+    public static Profiled findings(WardenConfig cfg, DatasetConfig d, WaveProfile current, WaveProfile baseline,
+                                    PairedPanel.Panel panel, LocationHistory history) {
         List<String> inference = new ArrayList<>();
         List<VariableConfig> variables = variables(d, current, inference);
         boolean weighted = d.weightColumn() != null;
@@ -260,7 +272,7 @@ public final class WaveJudge {
                 : baseline.columns(), current.columns(), weighted && baseline != null ? baseline.weights() : null,
                 weighted ? current.weights() : null, weighted && baseline != null ? baseline.design() : null,
                 weighted ? current.design() : null, cfg.alpha(), cfg.fdr(), d.name() + " wave " + current.wave(),
-                relations));
+                relations, history));
         findings.addAll(relationNotes);
         findings.addAll(SchemaFindings.of(SchemaChanges.between(baseline, current)));
         if (current.rows() == 0) {
@@ -303,6 +315,18 @@ public final class WaveJudge {
                                                DesignSummary baselineDesign, DesignSummary currentDesign,
                                                double alpha, WardenConfig.FdrMethod fdr, String what,
                                                List<Comparison> alsoJudged) {
+        return judgeVariables(variables, baseline, current, baselineWeights, currentWeights, baselineDesign,
+                currentDesign, alpha, fdr, what, alsoJudged, null);
+    }
+
+    /** The same, with the first waves of the series that continuous variables' location tests are chosen from. */
+    public static List<Finding> judgeVariables(List<VariableConfig> variables, Map<String, ColumnTally> baseline,
+                                               Map<String, ColumnTally> current,
+                                               Map<String, Map<String, double[]>> baselineWeights,
+                                               Map<String, Map<String, double[]>> currentWeights,
+                                               DesignSummary baselineDesign, DesignSummary currentDesign,
+                                               double alpha, WardenConfig.FdrMethod fdr, String what,
+                                               List<Comparison> alsoJudged, LocationHistory history) {
         VariableComparator comparator = new VariableComparator(1 - alpha);
         WeightedComparator weighted = new WeightedComparator(1 - alpha);
         List<Comparison> comparisons = new ArrayList<>();
@@ -324,7 +348,7 @@ public final class WaveJudge {
                 judgeVariable(comparator, weighted, v, ct, bt,
                         currentWeights == null ? null : currentWeights.get(v.name()),
                         baselineWeights == null ? null : baselineWeights.get(v.name()), baselineDesign, currentDesign,
-                        mine, myPlain);
+                        history, mine, myPlain);
             } catch (RuntimeException e) {
                 // A value no method foresaw, in screening, data-quality checks or comparison, must cost one variable
                 // its comparison, never the whole run.
@@ -344,6 +368,27 @@ public final class WaveJudge {
         return findings;
     }
 
+    /**
+     * The dataset's first waves with rows before {@code wave}, up to {@link LocationTestChoice#HISTORY_WAVES}, as
+     * stored summaries (a baseline already read is taken as it is); null for the first wave.
+     */
+    private LocationHistory history(DatasetConfig d, WaveSource source, List<WaveInfo> listed, String wave,
+                                    List<String> against, List<WaveProfile> baselines, String againstLabel) {
+        List<WaveProfile> first = new ArrayList<>();
+        for (WaveInfo w : listed) {
+            if (w.wave().equals(wave) || first.size() == LocationTestChoice.HISTORY_WAVES) {
+                break;
+            }
+            if (w.rows() > 0) {
+                int i = against.indexOf(w.wave());
+                // a summary read again for another configuration is noted where it is a baseline, not here
+                first.add(i >= 0 ? baselines.get(i) : baselineProfile(d, source, w.wave(), List.of(),
+                        new ArrayList<>()));
+            }
+        }
+        return againstLabel == null ? null : new LocationHistory(first, againstLabel);
+    }
+
     /** Relationship drift of the configured pairs: comparisons for the run's family, skip notices beside them. */
     private static void relationships(WardenConfig cfg, DatasetConfig d, List<VariableConfig> variables,
                                       WaveProfile current, WaveProfile baseline, List<Comparison> comparisons,
@@ -359,7 +404,7 @@ public final class WaveJudge {
     private static void judgeVariable(VariableComparator comparator, WeightedComparator weighted, VariableConfig v,
                                       ColumnTally ct, ColumnTally bt, Map<String, double[]> cw,
                                       Map<String, double[]> bw, DesignSummary bd, DesignSummary cd,
-                                      List<Comparison> comparisons, List<Finding> plain) {
+                                      LocationHistory history, List<Comparison> comparisons, List<Finding> plain) {
         FaultPoints.hit(FaultPoints.JUDGE_VARIABLE + v.name());
         ScreenedVariable sc = VariableScreen.screen(ct, v, cw);
         ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v, bw);
@@ -374,10 +419,11 @@ public final class WaveJudge {
         boolean weigh = WeightedComparisons.applies(sb, sc);
         WeightedComparator.Design design = weigh && bd != null && cd != null
                 ? WeightedComparisons.design(v, bt, ct, sb, sc, bd, cd) : null;
-        VariableComparisons.compare(comparator, v, sb, sc, ct, bt, weigh ? weighted : null, design).ifPresentOrElse(c -> {
+        VariableComparisons.compare(comparator, v, sb, sc, ct, bt, weigh ? weighted : null, design,
+                LocationHistory.choice(v, history, sb)).ifPresentOrElse(c -> {
             comparisons.add(c);
             if (v.kind() == VariableKind.CONTINUOUS) {
-                comparisons.add(weigh ? WeightedComparisons.shape(weighted, v, sb, sc)
+                comparisons.add(weigh ? WeightedComparisons.shape(weighted, v, sb, sc, design)
                         : comparator.shape(v.name(), sb.numeric(), sc.numeric(), v.unit()));
             }
         }, () -> {

@@ -251,6 +251,13 @@ class ConfigLoaderTest {
                         "datasets[0].variables[1].threshold.points: expected at most 100 percentage points"),
                 Arguments.of("a cron that never fires again", GOOD.replace("0 15 2 * * ?", "0 0 0 1 1 ? 2001"),
                         "datasets[0].schedule: the cron expression '0 0 0 1 1 ? 2001' never fires again"),
+                Arguments.of("a location test that is neither means nor ranks", GOOD.replace("unit: years",
+                        "unit: years\n        locationTest: median"),
+                        "datasets[0].variables[0].locationTest: expected means or ranks but got 'median'"),
+                Arguments.of("a location test pinned on a binary variable", GOOD.replace("successValue: \"yes\"",
+                        "successValue: \"yes\"\n        locationTest: means"),
+                        "datasets[0].variables[1].locationTest: only continuous variables choose between means and"
+                                + " ranks"),
                 Arguments.of("a baseline outside the explicit wave order", GOOD.replace("compareWith: {pooledLast: 3}",
                         "compareWith: {baseline: 2019}\n    waveOrder: [\"2020\", \"2021\"]"),
                         "datasets[0].compareWith.baseline: wave '2019' is not in datasets[0].waveOrder"));
@@ -261,6 +268,13 @@ class ConfigLoaderTest {
     void aConfigThatWouldSayTwoThingsOrNothingExitsTwoNamingTheKey(String what, String yaml, String expected,
                                                                   @TempDir Path dir) throws Exception {
         aBadConfigExitsTwoNamingTheKey(what, yaml, expected, dir);
+    }
+
+    @Test
+    void aContinuousVariablesLocationTestCanBePinned() {
+        assertEquals(LocationTestPin.RANKS, ConfigLoader.parse(GOOD.replace("unit: years", "unit: years\n"
+                + "        locationTest: ranks")).dataset("coastal").variables().get(0).locationTest());
+        assertEquals(null, ConfigLoader.parse(GOOD).dataset("coastal").variables().get(0).locationTest());
     }
 
     @Test

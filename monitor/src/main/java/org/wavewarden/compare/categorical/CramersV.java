@@ -55,6 +55,22 @@ public final class CramersV {
         return new EffectSize(name, w.estimate(), w.ciLow(), w.ciHigh(), confidence);
     }
 
+    /**
+     * The interval of a two-wave V at a given effective sample size: the noncentral chi-square interval of the
+     * statistic {@code n_eff V^2} on {@code df}, mapped back as in {@link #ofTwoWaveChiSquare}; the estimate stays
+     * V. Under a complex survey design {@code n_eff = n / dbar}, dbar the mean generalised design effect of the
+     * Rao-Scott test, so that the statistic is Rao and Scott's (1981, JASA 76, 221-230) first-order corrected
+     * chi-square ({@code X2 / dbar}, R's {@code svychisq(..., statistic = "Chisq")} p-value); a design that makes the
+     * shares less precise than simple random sampling widens the interval by about sqrt(dbar).
+     */
+    public static EffectSize atEffectiveSize(String name, double v, double df, double effectiveN,
+                                             double confidence) {
+        if (!(v >= 0) || Double.isInfinite(v)) {
+            throw new IllegalArgumentException("v must be finite and >= 0, was " + v);
+        }
+        return ofTwoWaveChiSquare(name, v * v * effectiveN, df, effectiveN, confidence);
+    }
+
     /** Bergsma's (2013) bias-corrected V; 0 when the corrected phi-square is not positive. */
     public static double biasCorrected(long[][] table) {
         ChiSquareResult chi = ChiSquareHomogeneity.test(table);

@@ -63,7 +63,8 @@ public final class PairedProportions {
      * correlation of the two answers across respondents (the phi coefficient of the paired table,
      * {@code (ad - bc) / sqrt(m)}), so {@code Var(h) = 2 (1 - phi) / n} and the interval is
      * {@code h +- z sqrt(2 (1 - phi) / n)}. When a share is 0 or 1 phi is undefined and taken as 0, which gives
-     * {@link CohensH}'s interval for two independent samples of n.
+     * the Wald interval {@code h +- z sqrt(2 / n)} of two independent samples of n (the independent samples'
+     * {@link CohensH} takes the score-based MOVER interval instead).
      */
     public static EffectSize cohensH(long bothYes, long yesNo, long noYes, long bothNo, double confidence) {
         long n = total(bothYes, yesNo, noYes, bothNo);
