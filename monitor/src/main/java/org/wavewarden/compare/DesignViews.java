@@ -5,7 +5,7 @@ import org.wavewarden.compare.design.PsuTotals;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.DesignSummary;
-import org.wavewarden.missing.VariableScreen;
+import org.wavewarden.missing.ValidNumber;
 import org.wavewarden.missing.ScreenedVariable;
 
 import java.util.HashSet;
@@ -24,7 +24,7 @@ import java.util.TreeMap;
  * valid totals are then the totals less the excluded values, which works when every excluded value is code-like (as
  * missing codes are). Otherwise there is no design view, and the comparison falls back to the weights alone.
  */
-final class DesignViews {
+public final class DesignViews {
 
     private DesignViews() {
     }
@@ -35,7 +35,7 @@ final class DesignViews {
      * @param tally  the values with their PSU sums, when every value's sums are known; null otherwise
      * @param totals the valid answers' PSU totals (numeric variables)
      */
-    record View(PsuTally tally, PsuTotals totals, String unavailable) {
+    public record View(PsuTally tally, PsuTotals totals, String unavailable) {
 
         static View none(String why) {
             return new View(null, null, why);
@@ -43,7 +43,7 @@ final class DesignViews {
     }
 
     /** A numeric variable's view: values are the numbers (or level ranks) the screen compares. */
-    static View numeric(DesignSummary design, ColumnTally tally, ScreenedVariable s, VariableConfig v) {
+    public static View numeric(DesignSummary design, ColumnTally tally, ScreenedVariable s, VariableConfig v) {
         DesignSummary.ColumnDesign cd = design.columns().get(tally.column());
         if (cd == null) {
             return View.none("the design holds no PSU sums for " + tally.column());
@@ -51,12 +51,12 @@ final class DesignViews {
         int[] strata = design.stratumIndex();
         Set<String> left = new HashSet<>(s.excludedValues());
         left.addAll(s.invalid().keySet());
-        Map<String, Integer> levels = VariableScreen.levelRanks(v);
+        ValidNumber valid = s.validNumber();
         if (cd.complete()) {
             TreeMap<Double, double[]> byValue = new TreeMap<>(); // value -> {count, psu sums...}
             for (Map.Entry<String, Long> e : tally.valueCounts().entrySet()) {
-                Double x = left.contains(e.getKey()) ? null : VariableScreen.valueOf(e.getKey(), levels);
-                if (x == null || !Double.isFinite(x)) {
+                double x = valid.value(e.getKey());
+                if (Double.isNaN(x)) {
                     continue;
                 }
                 double[] cell = byValue.computeIfAbsent(x == 0.0 ? 0.0 : x, k -> new double[1 + strata.length]);
@@ -76,14 +76,9 @@ final class DesignViews {
         double[] wy = cd.weightedSum().clone();
         double[] wyy = cd.weightedSquares().clone();
         for (String t : left) {
-            double x;
-            try {
-                x = Double.parseDouble(t.strip());
-            } catch (NumberFormatException e) {
-                continue; // not a number: never in the numeric totals
-            }
-            if (!Double.isFinite(x)) {
-                continue;
+            Double x = ValidNumber.parse(t);
+            if (x == null) {
+                continue; // not a finite number: never in the numeric totals
             }
             double[] sums = cd.cells().get(t);
             if (sums == null) {
@@ -100,7 +95,7 @@ final class DesignViews {
     }
 
     /** A categorical or binary variable's view along {@code order}: value j is the category {@code order.get(j)}. */
-    static View categories(DesignSummary design, String column, ScreenedVariable s, List<String> order) {
+    public static View categories(DesignSummary design, String column, ScreenedVariable s, List<String> order) {
         DesignSummary.ColumnDesign cd = design.columns().get(column);
         if (cd == null || !cd.complete()) {
             return View.none("the design holds no PSU sums of every answer of " + column);

@@ -13,9 +13,9 @@ import org.wavewarden.deliver.html.WaveSection;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
 import org.wavewarden.profile.CategoryCounts;
-import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.WaveProfile;
 import org.wavewarden.read.WaveInfo;
+import org.wavewarden.missing.ScreenedWave;
 import org.wavewarden.missing.VariableScreen;
 import org.wavewarden.missing.ScreenedVariable;
 
@@ -38,6 +38,8 @@ public final class DigestAssembler {
 
     private final Session session;
     private final Map<String, Optional<WaveProfile>> summaries = new HashMap<>();
+    /** Each wave's summary screened once per digest, keyed by wave and the judged wave's variables. */
+    private final Map<List<Object>, ScreenedWave> screened = new HashMap<>();
 
     public DigestAssembler(Session session) {
         this.session = session;
@@ -49,7 +51,10 @@ public final class DigestAssembler {
         List<WaveSection> sections = new ArrayList<>();
         for (FindingsReport r : reports) {
             WaveProfile current = summary(d, r.wave()).orElse(null);
-            WaveProfile baseline = baseline(d, listed, r);
+            List<VariableConfig> variables = current == null ? d.variables()
+                    : WaveJudge.variables(d, current.columns().values(), new ArrayList<>());
+            ScreenedWave sc = screened(d, current, variables);
+            ScreenedWave sb = screened(d, baseline(d, listed, r), variables);
             List<AlertView> views = new ArrayList<>();
             for (Finding f : org.wavewarden.deliver.Alerts.select(r.findings())) {
                 VariableConfig v = variable(d, current, f.variable());
@@ -58,8 +63,8 @@ public final class DigestAssembler {
                 try {
                     FaultPoints.hit(FaultPoints.PLOT_VARIABLE + f.variable());
                     plot = f.detail() instanceof RelationshipDetail rd ? correlations(rd)
-                            : v == null || current == null ? null : plot(v, f, baseline, current);
-                    trend = v == null ? null : trend(d, order, r.wave(), v, f, baseline, current);
+                            : v == null || sc == null ? null : plot(v, f, sb, sc);
+                    trend = v == null ? null : trend(d, order, r.wave(), v, f, sb, sc, variables);
                 } catch (RuntimeException e) {
                     // One alert's chart must never cost the digest: the alert is shown with a note instead.
                     LOG.warn("the chart of {} ({}) in {} wave {} could not be prepared: {}", f.variable(), f.kind(),
@@ -77,6 +82,11 @@ public final class DigestAssembler {
     private Optional<WaveProfile> summary(DatasetConfig d, String wave) {
         return summaries.computeIfAbsent(wave, w -> session.store().latestSummary(d.name(), w)
                 .map(s -> s.profile()));
+    }
+
+    private ScreenedWave screened(DatasetConfig d, WaveProfile p, List<VariableConfig> variables) {
+        return p == null ? null : screened.computeIfAbsent(List.of(p.wave(), variables),
+                k -> ScreenedWave.screen(p, d.weightColumn() != null, variables, List.of()));
     }
 
     private WaveProfile baseline(DatasetConfig d, List<WaveInfo> listed, FindingsReport r) {
@@ -113,14 +123,12 @@ public final class DigestAssembler {
         return new double[] {r.estimate(), r.ciLow(), r.ciHigh()};
     }
 
-    static VariablePlot plot(VariableConfig v, Finding f, WaveProfile baseline, WaveProfile current) {
-        ColumnTally ct = current.columns().get(v.name());
-        if (ct == null) {
+    static VariablePlot plot(VariableConfig v, Finding f, ScreenedWave baseline, ScreenedWave current) {
+        ScreenedVariable c = current.get(v.name()).orElse(null);
+        if (c == null) {
             return null;
         }
-        ScreenedVariable c = VariableScreen.screen(ct, v);
-        ColumnTally bt = baseline == null ? null : baseline.columns().get(v.name());
-        ScreenedVariable b = bt == null ? null : VariableScreen.screen(bt, v);
+        ScreenedVariable b = baseline == null ? null : baseline.get(v.name()).orElse(null);
         boolean aboutValues = f.kind().isShift() || f.kind() == FindingKind.SHAPE_CHANGE
                 || f.kind() == FindingKind.REFERENCE || f.kind() == FindingKind.HEAPING
                 || f.kind() == FindingKind.DIGIT_PREFERENCE || f.kind() == FindingKind.CODE_APPEARED
@@ -155,7 +163,7 @@ public final class DigestAssembler {
     }
 
     private Trend trend(DatasetConfig d, List<String> order, String wave, VariableConfig v, Finding f,
-                        WaveProfile baseline, WaveProfile current) {
+                        ScreenedWave baseline, ScreenedWave current, List<VariableConfig> variables) {
         int end = order.indexOf(wave);
         if (end < 0) {
             return null;
@@ -169,13 +177,12 @@ public final class DigestAssembler {
                 : category != null ? "share '" + category + "'" : "share";
         List<Double> points = new ArrayList<>();
         for (String w : waves) {
-            Optional<WaveProfile> p = summary(d, w);
-            ColumnTally t = p.map(x -> x.columns().get(v.name())).orElse(null);
-            if (t == null) {
+            ScreenedVariable s = summary(d, w).map(p -> screened(d, p, variables))
+                    .flatMap(x -> x.get(v.name())).orElse(null);
+            if (s == null) {
                 points.add(Double.NaN);
                 continue;
             }
-            ScreenedVariable s = VariableScreen.screen(t, v);
             double x;
             if (!values) {
                 long missing = s.sqlNulls() + s.missingByReason().values().stream().mapToLong(Long::longValue).sum();
@@ -194,13 +201,12 @@ public final class DigestAssembler {
         return new Trend(measure, values && v.kind().isNumericScale() ? v.unit() : null, waves, points);
     }
 
-    private static String movedMost(VariableConfig v, WaveProfile baseline, WaveProfile current) {
-        ScreenedVariable c = VariableScreen.screen(current.columns().get(v.name()), v);
-        ColumnTally bt = baseline == null ? null : baseline.columns().get(v.name());
-        if (bt == null || c.categories() == null || c.categories().n() == 0) {
+    private static String movedMost(VariableConfig v, ScreenedWave baseline, ScreenedWave current) {
+        ScreenedVariable c = current.get(v.name()).orElse(null);
+        ScreenedVariable b = baseline == null ? null : baseline.get(v.name()).orElse(null);
+        if (b == null || c == null || c.categories() == null || c.categories().n() == 0) {
             return null;
         }
-        ScreenedVariable b = VariableScreen.screen(bt, v);
         String best = null;
         double bestMove = -1;
         for (String cat : c.categories().unionOrder(b.categories())) {
