@@ -286,7 +286,7 @@ public final class PanelPairs implements KeyedPairReader.Visitor {
                 binning = Binning.EXACT;
             } else {
                 Map<Double, Long> tally = new HashMap<>();
-                bins.counts().forEach((text, c) -> tally.merge(Double.parseDouble(text), c, Long::sum));
+                bins.counts().forEach((text, c) -> tally.merge(RelativeBins.keyValue(text), c, Long::sum));
                 table = NumericDistribution.ofTally(tally);
                 binning = bins.binning();
             }
