@@ -5,7 +5,7 @@ import org.wavewarden.compare.design.PsuTotals;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.DesignSummary;
-import org.wavewarden.missing.VariableScreen;
+import org.wavewarden.missing.ValidNumber;
 import org.wavewarden.missing.ScreenedVariable;
 
 import java.util.HashSet;
@@ -51,12 +51,12 @@ public final class DesignViews {
         int[] strata = design.stratumIndex();
         Set<String> left = new HashSet<>(s.excludedValues());
         left.addAll(s.invalid().keySet());
-        Map<String, Integer> levels = VariableScreen.levelRanks(v);
+        ValidNumber valid = s.validNumber();
         if (cd.complete()) {
             TreeMap<Double, double[]> byValue = new TreeMap<>(); // value -> {count, psu sums...}
             for (Map.Entry<String, Long> e : tally.valueCounts().entrySet()) {
-                Double x = left.contains(e.getKey()) ? null : VariableScreen.valueOf(e.getKey(), levels);
-                if (x == null || !Double.isFinite(x)) {
+                double x = valid.value(e.getKey());
+                if (Double.isNaN(x)) {
                     continue;
                 }
                 double[] cell = byValue.computeIfAbsent(x == 0.0 ? 0.0 : x, k -> new double[1 + strata.length]);
@@ -76,14 +76,9 @@ public final class DesignViews {
         double[] wy = cd.weightedSum().clone();
         double[] wyy = cd.weightedSquares().clone();
         for (String t : left) {
-            double x;
-            try {
-                x = Double.parseDouble(t.strip());
-            } catch (NumberFormatException e) {
-                continue; // not a number: never in the numeric totals
-            }
-            if (!Double.isFinite(x)) {
-                continue;
+            Double x = ValidNumber.parse(t);
+            if (x == null) {
+                continue; // not a finite number: never in the numeric totals
             }
             double[] sums = cd.cells().get(t);
             if (sums == null) {

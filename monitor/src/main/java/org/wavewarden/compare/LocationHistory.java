@@ -6,10 +6,9 @@ import org.wavewarden.compare.location.LocationTestChoice;
 import org.wavewarden.config.LocationTestPin;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.config.VariableKind;
-import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.WaveProfile;
 import org.wavewarden.missing.ScreenedVariable;
-import org.wavewarden.missing.VariableScreen;
+import org.wavewarden.missing.ScreenedWave;
 
 /**
  * The earliest waves of a dataset before the judged one (at most {@link LocationTestChoice#HISTORY_WAVES}, oldest
@@ -45,8 +44,10 @@ public record LocationHistory(List<WaveProfile> waves, String baselineLabel) {
         List<String> labels = new ArrayList<>();
         List<org.wavewarden.profile.NumericDistribution> answers = new ArrayList<>();
         for (WaveProfile p : history.waves()) {
-            ColumnTally t = p.columns().get(v.name());
-            var numeric = t == null ? null : VariableScreen.screen(t, v).numeric();
+            // Each history wave's answers pass the same screen as the judged waves' (unweighted: the choice is
+            // about the shape of the answers).
+            var numeric = p.columns().get(v.name()) == null ? null : ScreenedWave.screen(p, false, List.of(v),
+                    List.of()).get(v.name()).map(ScreenedVariable::numeric).orElse(null);
             if (numeric != null && numeric.n() > 0) {
                 labels.add(p.wave());
                 answers.add(numeric);

@@ -1,16 +1,13 @@
 package org.wavewarden.compare;
 
 import org.wavewarden.compare.design.WeightedTally;
-import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.DesignSummary;
-import org.wavewarden.profile.WaveProfile;
 import org.wavewarden.missing.VariableScreen;
 import org.wavewarden.missing.ScreenedVariable;
 
 import java.util.List;
-import java.util.Map;
 import java.util.Optional;
 
 /**

@@ -22,11 +22,13 @@ import java.util.Map;
  * @param weighted       with a weight column, the valid answers with their counts and weight sums: for a numeric
  *                       variable the values of {@code numeric}, for a categorical or binary one the positions of
  *                       {@code categories}; null without weights (and for text and dates)
+ * @param validNumber    for a continuous or ordinal variable, the rule for a valid answer as this screen applied it
+ *                       (the raw answers it left out are left out exactly); null otherwise
  */
 public record ScreenedVariable(long rows, long sqlNulls, Map<String, Long> missingByReason,
                                List<MissingCandidate> candidates, List<String> excludedValues,
                                Map<String, Long> invalid, NumericDistribution numeric, CategoryCounts categories,
-                               WeightedTally weighted) {
+                               WeightedTally weighted, ValidNumber validNumber) {
 
     /** Valid answers: those that enter the comparison, or for text and dates every answer not missing. */
     public long validN() {

@@ -19,6 +19,9 @@ import java.util.TreeMap;
  * Separates one variable's answers into missing (by reason) and valid, typed for its kind. Codebook codes are
  * removed first; then the detector looks for disguised missing values among the rest, and candidates it is
  * confident about are removed too, so that a sentinel such as 999 never poisons a mean or a share.
+ *
+ * <p>Only {@link ScreenedWave} screens: the rest of a run takes each wave's screened answers from there, so the
+ * screen runs once per variable and wave.
  */
 public final class VariableScreen {
 
@@ -26,7 +29,15 @@ public final class VariableScreen {
     public static final double EXCLUDE_CONFIDENCE = 0.8;
 
 
+    /** Variables screened in this JVM: a wave is screened once per run, and this lets a test see it. */
+    private static final java.util.concurrent.atomic.LongAdder SCREENS = new java.util.concurrent.atomic.LongAdder();
+
     private VariableScreen() {
+    }
+
+    /** How many variables have been screened in this JVM so far. */
+    public static long screensSoFar() {
+        return SCREENS.sum();
     }
 
     public static Codebook codebook(VariableConfig v) {
@@ -37,7 +48,7 @@ public final class VariableScreen {
         return v.range() == null ? Optional.empty() : Optional.of(new ValueRange(v.range().min(), v.range().max()));
     }
 
-    public static ScreenedVariable screen(ColumnTally tally, VariableConfig v) {
+    static ScreenedVariable screen(ColumnTally tally, VariableConfig v) {
         return screen(tally, v, null);
     }
 
@@ -47,7 +58,8 @@ public final class VariableScreen {
      * values that enter the comparison with their counts and weight sums, missing codes and excluded values removed
      * from the weights as from the counts. Without weights (null) the result is that of the unweighted screen.
      */
-    public static ScreenedVariable screen(ColumnTally tally, VariableConfig v, Map<String, double[]> weights) {
+    static ScreenedVariable screen(ColumnTally tally, VariableConfig v, Map<String, double[]> weights) {
+        SCREENS.increment();
         CodebookSplit split = codebook(v).split(tally);
         Map<String, Long> missing = new LinkedHashMap<>(split.countsByReason());
         List<String> excluded = new ArrayList<>();
@@ -62,33 +74,34 @@ public final class VariableScreen {
             }
         }
         Map<String, Long> invalid = new TreeMap<>();
+        ValidNumber rule = ValidNumber.of(v);
         NumericDistribution numeric = null;
         CategoryCounts categories = null;
         switch (v.kind()) {
-            case CONTINUOUS, ORDINAL -> numeric = numeric(rest, v, invalid, excluded, missing);
+            case CONTINUOUS, ORDINAL -> numeric = numeric(rest, rule, invalid, excluded, missing);
             case CATEGORICAL, BINARY -> categories = CategoryCounts.ofTally(new TreeMap<>(rest));
             case TEXT, DATE -> {
                 // Screened for disguised missing values only; no distribution comparison.
             }
         }
         WeightedTally weighted = weights == null ? null : switch (v.kind()) {
-            case CONTINUOUS, ORDINAL -> weightedNumbers(rest, v, weights);
+            case CONTINUOUS, ORDINAL -> weightedNumbers(rest, rule, weights);
             case CATEGORICAL, BINARY -> weightedCategories(categories, weights);
             case TEXT, DATE -> null;
         };
+        List<String> leftOut = new ArrayList<>(excluded);
+        leftOut.addAll(invalid.keySet());
         return new ScreenedVariable(tally.rowCount(), tally.nullCount(), missing, candidates, excluded, invalid,
-                numeric, categories, weighted);
+                numeric, categories, weighted, numeric == null ? null : ValidNumber.ofScreen(v, leftOut));
     }
 
     /** The valid numbers with their weights: the same values as {@link #numeric}'s distribution, in the same order. */
-    private static WeightedTally weightedNumbers(Map<String, Long> values, VariableConfig v,
+    private static WeightedTally weightedNumbers(Map<String, Long> values, ValidNumber rule,
                                                  Map<String, double[]> weights) {
-        Map<String, Integer> levelRank = levelRanks(v);
-        ValueRange range = range(v).orElse(null);
         Map<Double, double[]> cells = new HashMap<>();
         for (Map.Entry<String, Long> e : values.entrySet()) {
-            Double x = valueOf(e.getKey(), levelRank);
-            if (x == null || !Double.isFinite(x) || outside(x, range)) {
+            Double x = rule.number(e.getKey());
+            if (x == null || rule.outside(x)) {
                 continue;
             }
             double[] cell = cells.computeIfAbsent(x == 0.0 ? 0.0 : x, k -> new double[3]);
@@ -142,18 +155,20 @@ public final class VariableScreen {
         return "disguised: " + c.kind().name().toLowerCase(java.util.Locale.ROOT).replace('_', ' ');
     }
 
-    private static NumericDistribution numeric(Map<String, Long> values, VariableConfig v, Map<String, Long> invalid,
+    /**
+     * The valid numbers of the answers left after codes and confident candidates: the codebook's codes were matched
+     * as the column's type matches them, so only the parsing and the range of {@link ValidNumber} apply here.
+     */
+    private static NumericDistribution numeric(Map<String, Long> values, ValidNumber rule, Map<String, Long> invalid,
                                                List<String> excluded, Map<String, Long> missing) {
         Map<Double, Long> tally = new HashMap<>();
-        Map<String, Integer> levelRank = levelRanks(v);
-        ValueRange range = range(v).orElse(null);
         for (Map.Entry<String, Long> e : values.entrySet()) {
-            Double x = valueOf(e.getKey(), levelRank);
-            if (x == null || !Double.isFinite(x)) {
+            Double x = rule.number(e.getKey());
+            if (x == null) {
                 invalid.merge(e.getKey(), e.getValue(), Long::sum);
                 continue;
             }
-            if (outside(x, range)) {
+            if (rule.outside(x)) {
                 excluded.add(e.getKey());
                 missing.merge("outside the declared range", e.getValue(), Long::sum);
                 continue;
@@ -161,37 +176,6 @@ public final class VariableScreen {
             tally.merge(x == 0.0 ? 0.0 : x, e.getValue(), Long::sum);
         }
         return NumericDistribution.ofTally(tally);
-    }
-
-    public static Map<String, Integer> levelRanks(VariableConfig v) {
-        Map<String, Integer> levelRank = new HashMap<>();
-        for (int i = 0; i < v.levels().size(); i++) {
-            levelRank.put(v.levels().get(i), i + 1);
-        }
-        return levelRank;
-    }
-
-    /** A numeric answer's value: its number, or for an ordinal variable with levels the rank of its level. */
-    public static Double valueOf(String text, Map<String, Integer> levelRank) {
-        return levelRank.isEmpty() ? parse(text) : levelRank.get(text.strip()) == null ? null
-                : (double) levelRank.get(text.strip());
-    }
-
-    public static boolean outside(double x, ValueRange range) {
-        return range != null && ((range.min() != null && x < range.min()) || (range.max() != null && x > range.max()));
-    }
-
-    public static Double parse(String s) {
-        String t = s.strip();
-        // Only plain decimal notation: Java would also accept "NaN", "Infinity", "0x1p3" and "1.5d".
-        if (!NumberText.isPlainDecimal(t)) {
-            return null;
-        }
-        try {
-            return Double.parseDouble(t);
-        } catch (NumberFormatException e) {
-            return null;
-        }
     }
 
     /** The answer whose share a binary variable tracks: configured, else 1 / true / yes, else the last in order. */

@@ -20,7 +20,7 @@ import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.DesignSummary;
 import org.wavewarden.profile.WaveProfile;
 import org.wavewarden.read.WaveInfo;
-import org.wavewarden.missing.VariableScreen;
+import org.wavewarden.missing.ScreenedWave;
 import org.wavewarden.missing.ScreenedVariable;
 
 import java.time.Instant;
@@ -45,6 +45,8 @@ public final class DigestAssembler {
 
     private final Session session;
     private final Map<String, Optional<WaveProfile>> summaries = new HashMap<>();
+    /** Each wave's answers of a variable screened once per digest, keyed by wave and variable. */
+    private final Map<List<Object>, ScreenedWave> screened = new HashMap<>();
 
     public DigestAssembler(Session session) {
         this.session = session;
@@ -73,7 +75,8 @@ public final class DigestAssembler {
                         plot = new VariablePlot.EstimatePlot(id, plotted);
                         trend = v == null ? null : trend(d, order, r.wave(), v, f, plotted, 1 - r.alpha(), id);
                     } else {
-                        plot = v == null || current == null ? null : plot(v, f, baseline, current, id);
+                        plot = v == null || current == null ? null : plot(v, f, screened(d, baseline, v).orElse(null),
+                                screened(d, current, v).orElse(null), id);
                         trend = v == null || !f.kind().isDataQuality() ? null
                                 : missingTrend(d, order, r.wave(), v, 1 - r.alpha(), id);
                     }
@@ -132,6 +135,12 @@ public final class DigestAssembler {
         }
     }
 
+    /** A wave's (or pooled baseline's) answers of one variable, screened once per digest; empty without them. */
+    private Optional<ScreenedVariable> screened(DatasetConfig d, WaveProfile p, VariableConfig v) {
+        return p == null ? Optional.empty() : screened.computeIfAbsent(List.of(p.wave(), v),
+                k -> ScreenedWave.screen(p, d.weightColumn() != null, List.of(v), List.of())).get(v.name());
+    }
+
     private Optional<WaveProfile> summary(DatasetConfig d, String wave) {
         return summaries.computeIfAbsent(wave, w -> session.store().latestSummary(d.name(), w)
                 .map(s -> s.profile()));
@@ -176,15 +185,11 @@ public final class DigestAssembler {
      * comparison): both waves' screened answers as counted, which is what these findings count. Without a baseline
      * wave only the current wave is drawn.
      */
-    static VariablePlot plot(VariableConfig v, Finding f, WaveProfile baseline, WaveProfile current,
+    static VariablePlot plot(VariableConfig v, Finding f, ScreenedVariable b, ScreenedVariable c,
                              String findingId) {
-        ColumnTally ct = current.columns().get(v.name());
-        if (ct == null) {
+        if (c == null) {
             return null;
         }
-        ScreenedVariable c = VariableScreen.screen(ct, v);
-        ColumnTally bt = baseline == null ? null : baseline.columns().get(v.name());
-        ScreenedVariable b = bt == null ? null : VariableScreen.screen(bt, v);
         boolean aboutValues = f.kind().isShift() || f.kind() == FindingKind.SHAPE_CHANGE
                 || f.kind() == FindingKind.REFERENCE || f.kind() == FindingKind.HEAPING
                 || f.kind() == FindingKind.DIGIT_PREFERENCE || f.kind() == FindingKind.CODE_APPEARED
@@ -265,9 +270,10 @@ public final class DigestAssembler {
         if (t == null) {
             return null;
         }
-        Map<String, double[]> weights = d.weightColumn() == null || p.get().weights() == null ? null
-                : p.get().weights().get(v.name());
-        ScreenedVariable s = VariableScreen.screen(t, v, weights);
+        ScreenedVariable s = screened(d, p.get(), v).orElse(null);
+        if (s == null) {
+            return null;
+        }
         if (missing) {
             long count = "NULL".equals(category) ? s.sqlNulls() : s.missingByReason().getOrDefault(category, 0L);
             return WaveEstimates.share(category, count, s.rows(), confidence);
@@ -316,10 +322,9 @@ public final class DigestAssembler {
         List<Double> lows = new ArrayList<>();
         List<Double> highs = new ArrayList<>();
         for (String w : waves) {
-            ColumnTally t = summary(d, w).map(x -> x.columns().get(v.name())).orElse(null);
+            ScreenedVariable s = summary(d, w).flatMap(p -> screened(d, p, v)).orElse(null);
             WaveEstimates.Estimate e = null;
-            if (t != null) {
-                ScreenedVariable s = VariableScreen.screen(t, v);
+            if (s != null) {
                 long missing = s.sqlNulls() + s.missingByReason().values().stream().mapToLong(Long::longValue).sum();
                 e = WaveEstimates.share(null, missing, s.rows(), confidence);
             }

@@ -4,7 +4,6 @@ import org.jdbi.v3.core.Handle;
 import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.config.VariableKind;
-import org.wavewarden.missing.ValueRange;
 import org.wavewarden.profile.Binning;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.NumericDistribution;
@@ -18,6 +17,7 @@ import org.wavewarden.compare.panel.PairedPanel.VariablePairs;
 import org.wavewarden.read.KeyedPairReader;
 import org.wavewarden.read.WaveScanner;
 import org.wavewarden.read.WaveSource;
+import org.wavewarden.missing.ValidNumber;
 import org.wavewarden.missing.VariableScreen;
 import org.wavewarden.missing.ScreenedVariable;
 
@@ -45,7 +45,7 @@ import java.util.function.LongConsumer;
  *   <li>categorical: the k x k table of the answers at the two waves, k at most {@value #MAX_CATEGORIES}.</li>
  * </ul>
  * A pair enters a variable's summary only when both answers are valid by that wave's own screen of the variable
- * ({@link VariableScreen}, computed from the same tallies the two-sample comparison uses): a NULL, a codebook
+ * (the run's {@link org.wavewarden.missing.ScreenedWave}, the same screens the two-sample comparison uses): a NULL, a codebook
  * missing code, a confidently detected disguised missing value, a value outside the declared range or text in a
  * number leaves the pair out of that variable, and it is counted as left out. Ordinal answers with {@code levels}
  * are their ranks, as in the screen.
@@ -93,6 +93,12 @@ public final class PanelPairs implements KeyedPairReader.Visitor {
      * screens taken from the two waves' summaries.
      */
     public static PanelPairs plan(DatasetConfig d, List<String> against, WaveProfile baseline, WaveProfile current) {
+        return plan(d, against, baseline, current, baseline == null ? null : WaveJudge.screen(d, current, baseline));
+    }
+
+    /** The same with the run's screened waves, whose screens decide which answers of a pair are valid. */
+    public static PanelPairs plan(DatasetConfig d, List<String> against, WaveProfile baseline, WaveProfile current,
+                                  WaveJudge.Screened screened) {
         if (d.respondentKey() == null || baseline == null || against.isEmpty()) {
             return null;
         }
@@ -110,7 +116,7 @@ public final class PanelPairs implements KeyedPairReader.Visitor {
             }
         }
         PanelPairs plan = new PanelPairs(d, b, wave, null);
-        for (VariableConfig v : WaveJudge.variables(d, current.columns().values(), new ArrayList<>())) {
+        for (VariableConfig v : screened.current().variables()) {
             ColumnTally ct = current.columns().get(v.name());
             ColumnTally bt = baseline.columns().get(v.name());
             if (ct == null || bt == null || !pairable(v.kind())) {
@@ -120,7 +126,13 @@ public final class PanelPairs implements KeyedPairReader.Visitor {
                 plan.notes.add(v.name() + ": not compared paired: too many distinct values to compare exactly");
                 continue;
             }
-            plan.add(v, VariableScreen.screen(bt, v), VariableScreen.screen(ct, v));
+            try {
+                plan.add(v, screened.baseline().get(v.name()).orElseThrow(),
+                        screened.current().get(v.name()).orElseThrow());
+            } catch (RuntimeException e) {
+                // The two-sample comparison reports the failed screen; the other variables are still paired.
+                plan.notes.add(v.name() + ": not compared paired: the answers could not be screened");
+            }
         }
         return plan;
     }
@@ -224,10 +236,8 @@ public final class PanelPairs implements KeyedPairReader.Visitor {
     }
 
     private static final class Numbers extends Accumulator {
-        private final Map<String, Integer> levels;
-        private final ValueRange range;
-        private final Set<String> excludedB;
-        private final Set<String> excludedC;
+        private final ValidNumber validB;
+        private final ValidNumber validC;
         private final DoubleCounts exact = new DoubleCounts();
         private RelativeBins bins;
         private long n;
@@ -238,16 +248,14 @@ public final class PanelPairs implements KeyedPairReader.Visitor {
 
         Numbers(VariableConfig v, ScreenedVariable b, ScreenedVariable c) {
             super(v.name());
-            levels = VariableScreen.levelRanks(v);
-            range = VariableScreen.range(v).orElse(null);
-            excludedB = new HashSet<>(b.excludedValues());
-            excludedC = new HashSet<>(c.excludedValues());
+            validB = b.validNumber();
+            validC = c.validNumber();
         }
 
         @Override
         void add(String baseline, String current) {
-            double xb = valid(baseline, excludedB);
-            double xc = valid(current, excludedC);
+            double xb = baseline == null ? Double.NaN : validB.value(KeyedPairReader.tallied(baseline));
+            double xc = current == null ? Double.NaN : validC.value(KeyedPairReader.tallied(current));
             if (Double.isNaN(xb) || Double.isNaN(xc)) {
                 leftOut++;
                 return;
@@ -269,19 +277,6 @@ public final class PanelPairs implements KeyedPairReader.Visitor {
             }
         }
 
-        /** The answer's value, or NaN when it does not enter the comparison. */
-        private double valid(String text, Set<String> excluded) {
-            if (text == null) {
-                return Double.NaN;
-            }
-            String t = KeyedPairReader.tallied(text);
-            if (excluded.contains(t)) {
-                return Double.NaN;
-            }
-            Double x = VariableScreen.valueOf(t, levels);
-            return x == null || !Double.isFinite(x) || VariableScreen.outside(x, range) ? Double.NaN : x;
-        }
-
         @Override
         VariablePairs result() {
             NumericDistribution table;
@@ -291,7 +286,7 @@ public final class PanelPairs implements KeyedPairReader.Visitor {
                 binning = Binning.EXACT;
             } else {
                 Map<Double, Long> tally = new HashMap<>();
-                bins.counts().forEach((text, c) -> tally.merge(Double.parseDouble(text), c, Long::sum));
+                bins.counts().forEach((text, c) -> tally.merge(RelativeBins.keyValue(text), c, Long::sum));
                 table = NumericDistribution.ofTally(tally);
                 binning = bins.binning();
             }

@@ -12,6 +12,7 @@ import org.wavewarden.deliver.Cautions;
 import org.wavewarden.deliver.FindingsFiles;
 import org.wavewarden.deliver.ReleaseDigest;
 import org.wavewarden.deliver.ReleaseReport;
+import org.wavewarden.missing.ScreenedWave;
 import org.wavewarden.read.KeyedPairReader;
 import org.wavewarden.read.ReleaseListing;
 import org.wavewarden.read.SourceCatalog;
@@ -120,8 +121,11 @@ public final class ReleaseJudge {
         ReleaseRevision revision = comparison.finish(scan.before(), scan.after(), (b, a) -> {
             List<String> inference = new ArrayList<>();
             List<VariableConfig> variables = WaveJudge.variables(d, a.values(), inference);
+            // Releases are compared unweighted: a reweighted release is a revision of its weight cells.
+            ScreenedWave later = ScreenedWave.screen(sides.afterSelection().label(), a, null, variables, inference);
+            ScreenedWave earlier = ScreenedWave.screen(sides.beforeSelection().label(), b, null, variables, List.of());
             return new ReleaseRevision.Distributions(inference, FindingsFiles.ordered(
-                    WaveJudge.judgeVariables(variables, b, a, null, null, cfg.alpha(), cfg.fdr(), what)));
+                    WaveJudge.judgeVariables(earlier, later, cfg.alpha(), cfg.fdr(), what)));
         });
         return new ReleaseReport(d.name(), wave, sides.layout(), sides.beforeSelection().label(),
                 sides.afterSelection().label(), d.respondentKey(), clock.instant(), cfg.alpha(), cfg.fdr().name(),

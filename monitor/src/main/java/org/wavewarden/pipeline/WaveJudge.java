@@ -40,7 +40,7 @@ import org.wavewarden.read.WaveScanner;
 import org.wavewarden.read.WaveSource;
 import org.wavewarden.store.OutboxStore;
 import org.wavewarden.store.ResultsStore;
-import org.wavewarden.missing.VariableScreen;
+import org.wavewarden.missing.ScreenedWave;
 import org.wavewarden.missing.ScreenedVariable;
 import org.wavewarden.missing.DataQualityFindings;
 
@@ -205,7 +205,9 @@ public final class WaveJudge {
         WaveProfile baseline = baselines.isEmpty() ? null
                 : baselines.size() == 1 ? baselines.get(0) : WaveProfile.pooled(againstLabel, baselines);
 
-        Profiled judged = findings(cfg, d, current, baseline, panel(d, source, against, baseline, current),
+        Screened screened = screen(d, current, baseline);
+        Profiled judged = findings(cfg, d, current, baseline, screened,
+                panel(d, source, against, baseline, current, screened),
                 history(d, source, listed, wave, against, baselines, againstLabel));
         List<String> inference = new ArrayList<>(notes);
         inference.addAll(judged.inference());
@@ -234,21 +236,40 @@ public final class WaveJudge {
     }
 
     /**
+     * Both waves of a check screened once for the whole run: the judged wave's variables (declared and inferred),
+     * and the baseline screened as the same variables; {@code baseline} is null for a first wave.
+     */
+    public record Screened(ScreenedWave current, ScreenedWave baseline) {
+    }
+
+    /**
+     * The missing-values stage of a check: each wave's summary screened once, weighted when the dataset has a weight
+     * column. Every later stage of the run takes its answers from the result.
+     */
+    public static Screened screen(DatasetConfig d, WaveProfile current, WaveProfile baseline) {
+        List<String> inference = new ArrayList<>();
+        List<VariableConfig> variables = variables(d, current, inference);
+        boolean weighted = d.weightColumn() != null;
+        return new Screened(ScreenedWave.screen(current, weighted, variables, inference),
+                baseline == null ? null : ScreenedWave.screen(baseline, weighted, variables, List.of()));
+    }
+
+    /**
      * Everything a check concludes from two wave summaries, without the database: screening, comparisons, the
      * false-discovery-rate control and the verdicts. {@code baseline} is null for a first wave.
      */
     public static Profiled findings(WardenConfig cfg, DatasetConfig d, WaveProfile current, WaveProfile baseline) {
-        return findings(cfg, d, current, baseline, null);
+        return findings(cfg, d, current, baseline, screen(d, current, baseline), null);
     }
 
     /**
-     * The same, with the paired comparisons of a panel ({@link PanelComparisons}) in the same false-discovery-rate
-     * family; {@code panel} is null when the wave is not compared paired. Why a variable or the whole panel was not
-     * compared paired is added to the notes.
+     * The same from the run's screened waves, with the paired comparisons of a panel ({@link PanelComparisons}) in
+     * the same false-discovery-rate family; {@code panel} is null when the wave is not compared paired. Why a
+     * variable or the whole panel was not compared paired is added to the notes.
      */
     public static Profiled findings(WardenConfig cfg, DatasetConfig d, WaveProfile current, WaveProfile baseline,
-                                    PairedPanel.Panel panel) {
-        return findings(cfg, d, current, baseline, panel, null);
+                                    Screened screened, PairedPanel.Panel panel) {
+        return findings(cfg, d, current, baseline, screened, panel, null);
     }
 
     /**
@@ -256,23 +277,22 @@ public final class WaveJudge {
      * each comparison chooses from its two waves).
      */
     public static Profiled findings(WardenConfig cfg, DatasetConfig d, WaveProfile current, WaveProfile baseline,
-                                    PairedPanel.Panel panel, LocationHistory history) {
-        List<String> inference = new ArrayList<>();
-        List<VariableConfig> variables = variables(d, current, inference);
+                                    Screened screened, PairedPanel.Panel panel, LocationHistory history) {
+        List<String> inference = new ArrayList<>(screened.current().inference());
+        List<VariableConfig> variables = screened.current().variables();
         boolean weighted = d.weightColumn() != null;
         List<Comparison> relations = new ArrayList<>();
         List<Finding> relationNotes = new ArrayList<>();
-        relationships(cfg, d, variables, current, baseline, relations, relationNotes);
+        relationships(cfg, d, screened, current, baseline, relations, relationNotes);
         if (panel != null) {
             PanelComparisons.Result r = PanelComparisons.compare(panel, variables, 1 - cfg.alpha());
             relations.addAll(r.comparisons());
             inference.addAll(r.notes());
         }
-        List<Finding> findings = new ArrayList<>(judgeVariables(variables, baseline == null ? null
-                : baseline.columns(), current.columns(), weighted && baseline != null ? baseline.weights() : null,
-                weighted ? current.weights() : null, weighted && baseline != null ? baseline.design() : null,
-                weighted ? current.design() : null, cfg.alpha(), cfg.fdr(), d.name() + " wave " + current.wave(),
-                relations, history));
+        List<Finding> findings = new ArrayList<>(judgeVariables(screened.baseline(), screened.current(),
+                weighted && baseline != null ? baseline.design() : null, weighted ? current.design() : null,
+                cfg.alpha(), cfg.fdr(), d.name() + " wave " + current.wave(), relations,
+                history));
         findings.addAll(relationNotes);
         findings.addAll(SchemaFindings.of(SchemaChanges.between(baseline, current)));
         if (current.rows() == 0) {
@@ -284,23 +304,18 @@ public final class WaveJudge {
     }
 
     /**
-     * Every variable's comparisons and data-quality findings between two sets of tallies, judged together: one
+     * Every variable's comparisons and data-quality findings between two screened sides, judged together: one
      * false-discovery-rate family, the verdict rule, one missing-rate finding per variable, shape findings only
-     * where they add something. A variable that cannot be analysed gets a SKIPPED finding instead. Public so that
-     * two sides that are not two waves' summaries (two releases of one wave) are judged exactly as waves are.
+     * where they add something ({@link WaveVerdicts}). A variable that cannot be analysed gets a SKIPPED finding
+     * instead. Public so that two sides that are not two waves' summaries (two releases of one wave) are judged
+     * exactly as waves are.
      *
-     * @param baseline        the baseline's tallies by column, or null when there is nothing to compare with
-     * @param baselineWeights per column and value the baseline's weight sums, or null to compare unweighted
-     * @param currentWeights  the same for the current side
-     * @param what            names the comparison in the log, e.g. {@code labour wave 2025-Q1}
+     * @param baseline the baseline side, or null when there is nothing to compare with
+     * @param what     names the comparison in the log, e.g. {@code labour wave 2025-Q1}
      */
-    public static List<Finding> judgeVariables(List<VariableConfig> variables, Map<String, ColumnTally> baseline,
-                                               Map<String, ColumnTally> current,
-                                               Map<String, Map<String, double[]>> baselineWeights,
-                                               Map<String, Map<String, double[]>> currentWeights, double alpha,
+    public static List<Finding> judgeVariables(ScreenedWave baseline, ScreenedWave current, double alpha,
                                                WardenConfig.FdrMethod fdr, String what) {
-        return judgeVariables(variables, baseline, current, baselineWeights, currentWeights, null, null, alpha, fdr,
-                what, List.of());
+        return judgeVariables(baseline, current, null, null, alpha, fdr, what, List.of());
     }
 
     /**
@@ -308,22 +323,15 @@ public final class WaveJudge {
      * their variances from the strata and clusters, and with comparisons made elsewhere (the relationships of
      * configured pairs, a panel's paired comparisons) judged in the same false-discovery-rate family.
      */
-    public static List<Finding> judgeVariables(List<VariableConfig> variables, Map<String, ColumnTally> baseline,
-                                               Map<String, ColumnTally> current,
-                                               Map<String, Map<String, double[]>> baselineWeights,
-                                               Map<String, Map<String, double[]>> currentWeights,
+    public static List<Finding> judgeVariables(ScreenedWave baseline, ScreenedWave current,
                                                DesignSummary baselineDesign, DesignSummary currentDesign,
                                                double alpha, WardenConfig.FdrMethod fdr, String what,
                                                List<Comparison> alsoJudged) {
-        return judgeVariables(variables, baseline, current, baselineWeights, currentWeights, baselineDesign,
-                currentDesign, alpha, fdr, what, alsoJudged, null);
+        return judgeVariables(baseline, current, baselineDesign, currentDesign, alpha, fdr, what, alsoJudged, null);
     }
 
     /** The same, with the first waves of the series that continuous variables' location tests are chosen from. */
-    public static List<Finding> judgeVariables(List<VariableConfig> variables, Map<String, ColumnTally> baseline,
-                                               Map<String, ColumnTally> current,
-                                               Map<String, Map<String, double[]>> baselineWeights,
-                                               Map<String, Map<String, double[]>> currentWeights,
+    public static List<Finding> judgeVariables(ScreenedWave baseline, ScreenedWave current,
                                                DesignSummary baselineDesign, DesignSummary currentDesign,
                                                double alpha, WardenConfig.FdrMethod fdr, String what,
                                                List<Comparison> alsoJudged, LocationHistory history) {
@@ -332,12 +340,12 @@ public final class WaveJudge {
         List<Comparison> comparisons = new ArrayList<>();
         List<Finding> plain = new ArrayList<>();
         Map<String, Double> summarised = new LinkedHashMap<>();
-        for (VariableConfig v : variables) {
-            ColumnTally ct = current.get(v.name());
+        for (VariableConfig v : current.variables()) {
+            ColumnTally ct = current.tally(v.name());
             if (ct == null) {
                 continue;
             }
-            ColumnTally bt = baseline == null ? null : baseline.get(v.name());
+            ColumnTally bt = baseline == null ? null : baseline.tally(v.name());
             double error = Math.max(ct.binning().relativeError(), bt == null ? 0 : bt.binning().relativeError());
             if (error > 0) {
                 summarised.put(v.name(), error);
@@ -345,9 +353,7 @@ public final class WaveJudge {
             List<Comparison> mine = new ArrayList<>();
             List<Finding> myPlain = new ArrayList<>();
             try {
-                judgeVariable(comparator, weighted, v, ct, bt,
-                        currentWeights == null ? null : currentWeights.get(v.name()),
-                        baselineWeights == null ? null : baselineWeights.get(v.name()), baselineDesign, currentDesign,
+                judgeVariable(comparator, weighted, v, ct, bt, current, baseline, baselineDesign, currentDesign,
                         history, mine, myPlain);
             } catch (RuntimeException e) {
                 // A value no method foresaw, in screening, data-quality checks or comparison, must cost one variable
@@ -390,24 +396,23 @@ public final class WaveJudge {
     }
 
     /** Relationship drift of the configured pairs: comparisons for the run's family, skip notices beside them. */
-    private static void relationships(WardenConfig cfg, DatasetConfig d, List<VariableConfig> variables,
-                                      WaveProfile current, WaveProfile baseline, List<Comparison> comparisons,
-                                      List<Finding> plain) {
+    private static void relationships(WardenConfig cfg, DatasetConfig d, Screened screened, WaveProfile current,
+                                      WaveProfile baseline, List<Comparison> comparisons, List<Finding> plain) {
         if (d.relationships().isEmpty()) {
             return;
         }
-        Map<String, VariableConfig> byName = new LinkedHashMap<>();
-        variables.forEach(v -> byName.put(v.name(), v));
-        RelationshipFindings.of(d.relationships(), byName, current, baseline, 1 - cfg.alpha(), comparisons, plain);
+        RelationshipFindings.of(d.relationships(), current, baseline, screened.current(), screened.baseline(),
+                1 - cfg.alpha(), comparisons, plain);
     }
 
     private static void judgeVariable(VariableComparator comparator, WeightedComparator weighted, VariableConfig v,
-                                      ColumnTally ct, ColumnTally bt, Map<String, double[]> cw,
-                                      Map<String, double[]> bw, DesignSummary bd, DesignSummary cd,
-                                      LocationHistory history, List<Comparison> comparisons, List<Finding> plain) {
+                                      ColumnTally ct, ColumnTally bt, ScreenedWave current, ScreenedWave baseline,
+                                      DesignSummary bd, DesignSummary cd, LocationHistory history,
+                                      List<Comparison> comparisons,
+                                      List<Finding> plain) {
         FaultPoints.hit(FaultPoints.JUDGE_VARIABLE + v.name());
-        ScreenedVariable sc = VariableScreen.screen(ct, v, cw);
-        ScreenedVariable sb = bt == null ? null : VariableScreen.screen(bt, v, bw);
+        ScreenedVariable sc = current.get(v.name()).orElseThrow();
+        ScreenedVariable sb = bt == null ? null : baseline.get(v.name()).orElseThrow();
         (sc.weighted() == null ? VariableComparisons.reference(comparator, v, sc) : WeightedComparisons.reference(weighted, v, sc, ct, cd)
                 .or(() -> VariableComparisons.reference(comparator, v, sc))).ifPresent(comparisons::add);
         DataQualityFindings.Result dq = DataQualityFindings.of(v, ct, sc, sb, comparator);
@@ -491,8 +496,8 @@ public final class WaveJudge {
 
     /** The panel's pairs when the dataset has a respondent key and the wave one baseline: one more statement. */
     private PairedPanel.Panel panel(DatasetConfig d, WaveSource source, List<String> against, WaveProfile baseline,
-                                   WaveProfile current) {
-        PanelPairs plan = PanelPairs.plan(d, against, baseline, current);
+                                    WaveProfile current, Screened screened) {
+        PanelPairs plan = PanelPairs.plan(d, against, baseline, current, screened);
         if (plan == null) {
             return null;
         }

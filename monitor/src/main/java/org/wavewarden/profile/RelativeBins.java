@@ -266,6 +266,16 @@ public final class RelativeBins {
     }
 
     /**
+     * The number a tally key stands for: the keys are what the scanner and the bins print, plain decimals and, for
+     * the non-finite values a float column may hold, {@code NaN}, {@code Infinity} and {@code -Infinity}, each kept in
+     * its own cell. This reads keys back, it does not judge answers: whether an answer is a valid number is the
+     * screen's rule ({@code missing.ValidNumber}), applied later, and re-summarising keeps every key it counted.
+     */
+    public static double keyValue(String key) {
+        return Double.parseDouble(key.strip());
+    }
+
+    /**
      * Re-summarises tallies at a common level, for pooling waves: each entry's text is read back as a number (a
      * stand-in falls in its own bin again) and added with its count and weights.
      */
@@ -274,7 +284,7 @@ public final class RelativeBins {
         RelativeBins bins = new RelativeBins(DEFAULT_MAX_BINS, level, singlePrecision);
         counts.forEach((text, c) -> {
             double[] w = weights == null ? null : weights.get(text);
-            bins.add(Double.parseDouble(text.strip()), c, w == null ? 0 : w[0], w == null ? 0 : w[1]);
+            bins.add(keyValue(text), c, w == null ? 0 : w[0], w == null ? 0 : w[1]);
         });
         return bins;
     }

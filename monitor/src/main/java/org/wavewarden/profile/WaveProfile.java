@@ -209,7 +209,7 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
             RelativeBins bins = RelativeBins.of(binning.level(), false, a.valueCounts(), weighted ? aw : null);
             b.valueCounts().forEach((v, c) -> {
                 double[] w = weighted ? bw.get(v) : null;
-                bins.add(Double.parseDouble(v.strip()), c, w == null ? 0 : w[0], w == null ? 0 : w[1]);
+                bins.add(RelativeBins.keyValue(v), c, w == null ? 0 : w[0], w == null ? 0 : w[1]);
             });
             merged = bins.counts();
             binning = bins.binning();

@@ -182,7 +182,7 @@ final class DesignScan {
     /** Whether a value's text is a code-like number, the values a column without complete cells still keeps. */
     static boolean isCodeLikeText(String t) {
         try {
-            return RelativeBins.isCodeLike(Double.parseDouble(t.strip()));
+            return RelativeBins.isCodeLike(RelativeBins.keyValue(t));
         } catch (NumberFormatException e) {
             return false;
         }

@@ -41,7 +41,7 @@ class DataQualitySentencesTest {
         List<MissingCandidate> candidates = List.of(
                 new MissingCandidate("99", CandidateKind.NUMERIC_SENTINEL, 10, 10 / 460.0, 0.95, "99 stands apart."),
                 new MissingCandidate("-9", CandidateKind.NUMERIC_SENTINEL, 50, 50 / 460.0, 0.8, "-9 is negative."));
-        ScreenedVariable s = new ScreenedVariable(460, 0, Map.of(), candidates, List.of(), Map.of(), null, null, null);
+        ScreenedVariable s = new ScreenedVariable(460, 0, Map.of(), candidates, List.of(), Map.of(), null, null, null, null);
         String sentence = only(DataQualityFindings.of(v, tally, s, null, COMPARATOR).findings(),
                 FindingKind.NUMERIC_SENTINEL).sentence();
         assertTrue(sentence.contains("most often '-9' (50 rows); the most confident candidate is '99': 99 stands"

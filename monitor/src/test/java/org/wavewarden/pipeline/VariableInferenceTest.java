@@ -78,8 +78,11 @@ class VariableInferenceTest {
         ColumnTally before = tally("respondent_age", ColumnType.INTEGER, ages(16, 94, 20, 1));
         ColumnTally after = tally("respondent_age", ColumnType.INTEGER, ages(16, 94, 20, 3));
         VariableConfig v = VariableInference.infer(after).variable();
-        List<Finding> findings = WaveJudge.judgeVariables(List.of(v), Map.of(v.name(), before),
-                Map.of(v.name(), after), null, null, 0.05, WardenConfig.FdrMethod.BENJAMINI_HOCHBERG, "inference test");
+        List<Finding> findings = WaveJudge.judgeVariables(
+                org.wavewarden.missing.ScreenedWave.screen("before", Map.of(v.name(), before), null, List.of(v),
+                        List.of()),
+                org.wavewarden.missing.ScreenedWave.screen("after", Map.of(v.name(), after), null, List.of(v),
+                        List.of()), 0.05, WardenConfig.FdrMethod.BENJAMINI_HOCHBERG, "inference test");
         Finding heaping = findings.stream().filter(f -> f.kind() == FindingKind.HEAPING).findFirst().orElseThrow(
                 () -> new AssertionError("no heaping finding in " + findings));
         // Whipple's index over ages 23-62: 8 of 40 ages end in 0 or 5 and carry 3 times the answers, so the index

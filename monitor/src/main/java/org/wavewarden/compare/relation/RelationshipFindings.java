@@ -6,25 +6,24 @@ import org.wavewarden.config.RelationshipConfig;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
-import org.wavewarden.missing.ValueRange;
 import org.wavewarden.profile.Binning;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.JointTally;
 import org.wavewarden.profile.RelativeBins;
 import org.wavewarden.profile.WaveProfile;
-import org.wavewarden.missing.VariableScreen;
+import org.wavewarden.missing.ScreenedWave;
+import org.wavewarden.missing.ValidNumber;
 import org.wavewarden.missing.ScreenedVariable;
 
 import java.util.ArrayList;
 import java.util.HashSet;
 import java.util.List;
-import java.util.Map;
 import java.util.Optional;
 import java.util.Set;
 
 /**
  * Relationship drift for a dataset's configured pairs: each wave's joint tally, rid of the pairs where either
- * answer is missing as the variable's own screen decides ({@link VariableScreen}: codebook codes, confident
+ * answer is missing as the variable's own screen decides ({@link ScreenedWave}: codebook codes, confident
  * disguised missing values, values outside the declared range, values that are not numbers), compared between the
  * waves by {@link RelationshipChange}. The comparisons join the run's false-discovery-rate family; pairs that
  * cannot be compared get a SKIPPED finding saying why.
@@ -37,15 +36,15 @@ public final class RelationshipFindings {
     }
 
     /** Comparisons and skip notices of every configured relationship; nothing for a first wave. */
-    public static void of(List<RelationshipConfig> relationships, Map<String, VariableConfig> variables,
-                   WaveProfile current, WaveProfile baseline, double confidence, List<Comparison> comparisons,
-                   List<Finding> plain) {
+    public static void of(List<RelationshipConfig> relationships, WaveProfile current, WaveProfile baseline,
+                          ScreenedWave screenedCurrent, ScreenedWave screenedBaseline, double confidence,
+                          List<Comparison> comparisons, List<Finding> plain) {
         if (baseline == null) {
             return;
         }
         for (RelationshipConfig r : relationships) {
             try {
-                String why = compare(r, variables, current, baseline, confidence, comparisons);
+                String why = compare(r, current, baseline, screenedCurrent, screenedBaseline, confidence, comparisons);
                 if (why != null) {
                     plain.add(Finding.dataQuality(r.label(), FindingKind.SKIPPED, null, null,
                             "Not compared: " + why + ".", null));
@@ -62,10 +61,11 @@ public final class RelationshipFindings {
     }
 
     /** Adds the relationship's comparison, or returns why there is none. */
-    private static String compare(RelationshipConfig r, Map<String, VariableConfig> variables, WaveProfile current,
-                                  WaveProfile baseline, double confidence, List<Comparison> comparisons) {
-        VariableConfig vx = variables.get(r.x());
-        VariableConfig vy = variables.get(r.y());
+    private static String compare(RelationshipConfig r, WaveProfile current, WaveProfile baseline,
+                                  ScreenedWave screenedCurrent, ScreenedWave screenedBaseline, double confidence,
+                                  List<Comparison> comparisons) {
+        VariableConfig vx = screenedCurrent.variable(r.x()).orElse(null);
+        VariableConfig vy = screenedCurrent.variable(r.y()).orElse(null);
         Optional<JointTally> c = current.pair(r.x(), r.y());
         if (vx == null || vy == null || c.isEmpty()) {
             return (vx == null ? r.x() : r.y()) + " is not a monitored number in this wave";
@@ -74,8 +74,8 @@ public final class RelationshipFindings {
         if (b.isEmpty()) {
             return "the baseline's summary holds no pairs of " + r.x() + " and " + r.y();
         }
-        JointTally cs = screened(c.get(), vx, vy, current);
-        JointTally bs = screened(b.get(), vx, vy, baseline);
+        JointTally cs = screened(c.get(), screenedCurrent);
+        JointTally bs = screened(b.get(), screenedBaseline);
         double threshold = r.threshold() != null ? r.threshold() : Thresholds.CORRELATION_DIFFERENCE;
         String source = r.threshold() != null ? "configured " + r.threshold() + " on the difference of Spearman rho"
                 : "default " + Thresholds.CORRELATION_DIFFERENCE + " for the difference of Spearman rho (common"
@@ -90,9 +90,9 @@ public final class RelationshipFindings {
     }
 
     /** The pairs of one wave whose two answers the variables' screens, on that wave's column tallies, both keep. */
-    static JointTally screened(JointTally t, VariableConfig vx, VariableConfig vy, WaveProfile wave) {
-        Exclusion ex = Exclusion.of(wave.columns().get(t.x()), vx, t.binning());
-        Exclusion ey = Exclusion.of(wave.columns().get(t.y()), vy, t.binning());
+    public static JointTally screened(JointTally t, ScreenedWave wave) {
+        Exclusion ex = Exclusion.of(wave, t.x(), t.binning());
+        Exclusion ey = Exclusion.of(wave, t.y(), t.binning());
         double[] xs = t.xs();
         double[] ys = t.ys();
         long[] n = t.counts();
@@ -114,33 +114,29 @@ public final class RelationshipFindings {
      * left out when it shares a bin with an excluded value at the coarser of the two levels: the summary cannot tell
      * them apart (code-like values such as -9 or 999 are never binned, so they match exactly).
      */
-    record Exclusion(Set<Double> values, int level, ValueRange range) {
+    record Exclusion(Set<Double> values, int level, ValidNumber rule) {
 
-        static Exclusion of(ColumnTally column, VariableConfig v, Binning pairs) {
+        static Exclusion of(ScreenedWave wave, String column, Binning pairs) {
             int level = -1;
             Set<Double> values = new HashSet<>();
-            ValueRange range = VariableScreen.range(v).orElse(null);
-            if (column != null) {
-                level = pairs.coarser(column.binning()).level();
-                ScreenedVariable s = VariableScreen.screen(column, v);
+            ColumnTally tally = wave.tally(column);
+            ScreenedVariable s = tally == null ? null : wave.get(column).orElse(null);
+            if (s != null) {
+                level = pairs.coarser(tally.binning()).level();
                 List<String> out = new ArrayList<>(s.excludedValues());
                 out.addAll(s.invalid().keySet());
                 for (String text : out) {
-                    Double d = VariableScreen.parse(text);
+                    Double d = ValidNumber.parse(text);
                     if (d != null) {
                         values.add(bin(d, level));
                     }
                 }
             }
-            return new Exclusion(values, level, range);
+            return new Exclusion(values, level, wave.variable(column).map(ValidNumber::of).orElse(null));
         }
 
         boolean excludes(double x) {
-            if (range != null && ((range.min() != null && x < range.min()) || (range.max() != null
-                    && x > range.max()))) {
-                return true;
-            }
-            return values.contains(bin(x, level));
+            return (rule != null && rule.outside(x)) || values.contains(bin(x, level));
         }
 
         private static double bin(double x, int level) {
