@@ -63,6 +63,32 @@ class SentenceNumbersTest {
         return tests.stream();
     }
 
+    @org.junit.jupiter.api.Test
+    void everyShiftOfAVariableWhoseMissingRateChangedMateriallySaysHowManyRowsItRestsOn() {
+        List<String> problems = new ArrayList<>();
+        int seen = 0;
+        List<FindingsReport> all = new ArrayList<>(outcome.reports());
+        all.addAll(outcome.panelReports());
+        for (FindingsReport r : all) {
+            for (Finding rate : r.findings()) {
+                if (rate.kind() != FindingKind.MISSING_RATE_CHANGE
+                        || rate.verdict() != org.wavewarden.judge.Verdict.MATERIAL) {
+                    continue;
+                }
+                for (Finding f : r.findings()) {
+                    if (f.kind() == FindingKind.SHIFT && f.variable().equals(rate.variable())) {
+                        seen++;
+                        if (!MISSING_NOTE.matcher(f.sentence()).find()) {
+                            problems.add(r.wave() + " " + f.variable() + ": " + f.sentence());
+                        }
+                    }
+                }
+            }
+        }
+        assertTrue(seen > 0, "the demo has no shift beside a MATERIAL missing-rate change");
+        assertTrue(problems.isEmpty(), String.join("\n", problems));
+    }
+
     static final Pattern NUMBER = Pattern.compile("(?<![\\w.])[+-]?\\d[\\d,]*(?:\\.\\d+)?");
     static final Pattern P_VALUE = Pattern.compile("p (<|=) ([0-9.]+)");
     static final Pattern Q_VALUE = Pattern.compile("q (<|=) ([0-9.]+)");
