@@ -157,7 +157,7 @@ public final class DemoRun {
                 + (r.againstWave() == null ? " (first wave, screened alone)" : " against " + r.againstWave()) + ": "
                 + j.alerts().size() + " alert(s)");
         j.alerts().forEach(a -> sb.append("\n    ").append(a.verdict() == null ? a.kind().name() : a.verdict().name())
-                .append("  ").append(a.variable()).append(": ").append(a.sentence()));
+                .append("  ").append(a.variable()).append(": ").append(a.lead().sentence()));
         return sb.toString();
     }
 

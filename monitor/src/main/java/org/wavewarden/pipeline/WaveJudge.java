@@ -10,6 +10,7 @@ import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.config.VariableKind;
 import org.wavewarden.config.WardenConfig;
+import org.wavewarden.deliver.Alert;
 import org.wavewarden.deliver.Alerts;
 import org.wavewarden.deliver.FindingsFiles;
 import org.wavewarden.deliver.FindingsReport;
@@ -197,7 +198,7 @@ public final class WaveJudge {
         List<String> inference = new ArrayList<>(notes);
         inference.addAll(judged.inference());
         List<Finding> findings = judged.findings();
-        List<Finding> alerts = Alerts.select(findings);
+        List<Alert> alerts = Alerts.group(findings);
         Instant finished = clock.instant();
         FindingsReport report = new FindingsReport(d.name(), wave, againstLabel, finished, cfg.alpha(),
                 cfg.fdr().name(), inference, findings);
