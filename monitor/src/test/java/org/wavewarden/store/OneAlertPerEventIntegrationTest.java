@@ -198,4 +198,31 @@ class OneAlertPerEventIntegrationTest {
         Finding other = alertOf("score").facets().get(1);
         assertTrue(scoreRow.contains("Also " + other.verdict() + " " + other.kind() + ": "), scoreRow);
     }
+
+    @Test
+    @Order(7)
+    void aRerunOverAlertsStoredOneFindingEachSupersedesTheFacetsOwnAlertAndWhatItStillOwed() throws Exception {
+        Alert score = alertOf("score");
+        String other = score.otherKinds().get(0).name();
+        long run = judged.runId();
+        try (Connection c = TestDatabase.connect(url); var st = c.createStatement()) {
+            // The event as a run before grouping stored it: two alerts, the second one still owed to the sink.
+            st.execute("UPDATE ev_results.alert SET facet_kinds = '{}' WHERE run_id = " + run
+                    + " AND variable = 'score' AND superseded_at IS NULL");
+            st.execute("INSERT INTO ev_results.alert (run_id, dataset, wave, against_wave, variable, kind, verdict,"
+                    + " sentence) VALUES (" + run + ", 'ev', 'w2', 'w1', 'score', '" + other + "', 'MATERIAL', 'x')");
+            st.execute("INSERT INTO ev_results.outbox (dataset, sink, product, item, run_ids, alert_id) SELECT 'ev', '"
+                    + SINK + "', 'alert', 'stored before grouping', ARRAY[" + run + "]::bigint[], alert_id FROM"
+                    + " ev_results.alert WHERE variable = 'score' AND kind = '" + other + "'");
+        }
+        new WaveJudge(session, Clock.systemUTC()).judgeWithOutputs(config.dataset("ev"), "w2", null,
+                new OutboxStore.Outputs(null, null, List.of(SINK)), null);
+        assertEquals(1, count("SELECT count(*) FROM ev_results.alert WHERE variable = 'score' AND kind = '" + other
+                + "' AND superseded_at IS NOT NULL"));
+        assertEquals("superseded", session.store().jdbi().withHandle(h -> h.createQuery("SELECT state FROM"
+                + " ev_results.outbox WHERE item = 'stored before grouping'").mapTo(String.class).one()));
+        assertEquals(List.of(other), session.store().openAlerts("ev").stream()
+                .filter(a -> a.wave().equals("w2") && a.variable().equals("score")).findFirst().orElseThrow()
+                .otherKinds(), "the lead's alert takes its facets again");
+    }
 }
