@@ -76,10 +76,5 @@ public record Alert(List<Finding> facets) {
                 default -> DATA_QUALITY;
             };
         }
-
-        /** The facet in running text: {@code missing rate}. */
-        public String label() {
-            return name().toLowerCase(java.util.Locale.ROOT).replace('_', ' ');
-        }
     }
 }

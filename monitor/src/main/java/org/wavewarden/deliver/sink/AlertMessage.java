@@ -55,6 +55,7 @@ public record AlertMessage(String dataset, String wave, String againstWave, long
         public Part {
             Objects.requireNonNull(kind, "kind");
             Objects.requireNonNull(sentence, "sentence");
+            // Derived from the kind, so a message read back can never name a facet its kind does not show.
             facet = Alert.Facet.of(kind);
         }
 
