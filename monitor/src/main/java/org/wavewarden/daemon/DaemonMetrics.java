@@ -14,7 +14,6 @@ import io.prometheus.metrics.model.snapshots.MetricSnapshot;
 import io.prometheus.metrics.model.snapshots.MetricSnapshots;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
-import org.wavewarden.judge.Finding;
 
 import java.io.ByteArrayOutputStream;
 import java.io.IOException;
@@ -112,9 +111,9 @@ public final class DaemonMetrics {
         registry.register(new StatusCollector());
     }
 
-    void waveJudged(String dataset, List<Finding> alertList) {
+    void waveJudged(String dataset, List<org.wavewarden.deliver.Alert> alertList) {
         wavesJudged.labelValues(dataset).inc();
-        for (Finding a : alertList) {
+        for (org.wavewarden.deliver.Alert a : alertList) {
             String verdict = a.verdict() == null ? a.kind().name() : a.verdict().name();
             alerts.labelValues(dataset, verdict).inc();
         }

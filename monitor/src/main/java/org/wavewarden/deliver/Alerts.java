@@ -4,11 +4,15 @@ import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
 import org.wavewarden.judge.Verdict;
 
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
 import java.util.List;
+import java.util.Map;
 
 /**
  * Which findings become alerts: shifts judged MATERIAL or UNCERTAIN, and data-quality findings. MINOR and STABLE
- * verdicts stay in the findings (a reader can audit them) but do not ask for anyone's time.
+ * verdicts stay in the findings (a reader can audit them) but do not ask for anyone's time. The findings that do
+ * are grouped into events ({@link #group}), one alert each.
  */
 public final class Alerts {
 
@@ -25,7 +29,34 @@ public final class Alerts {
         return f.kind().isDataQuality() && f.kind() != FindingKind.MISSING_CODE;
     }
 
+    /** The findings worth a person, most urgent first, one by one. */
     public static List<Finding> select(List<Finding> findings) {
         return FindingsFiles.ordered(findings).stream().filter(Alerts::worthAPerson).toList();
+    }
+
+    /**
+     * The alerts of one judged wave: the findings worth a person grouped by the variable they are about, each group
+     * led by its most urgent finding and the groups in the order of their leads. A relationship (about two
+     * variables) and a finding on the whole wave are alerts of their own.
+     */
+    public static List<Alert> group(List<Finding> findings) {
+        Map<Event, List<Finding>> byEvent = new LinkedHashMap<>();
+        for (Finding f : select(findings)) {
+            byEvent.computeIfAbsent(event(f), k -> new ArrayList<>()).add(f);
+        }
+        return byEvent.values().stream().map(Alert::new).toList();
+    }
+
+    /**
+     * What makes two findings of one wave the same event: the variable, or for a finding that is an event of its own
+     * also its kind (so a relationship named like a column never joins that column's alert).
+     */
+    private record Event(String variable, FindingKind ownKind) {
+    }
+
+    private static Event event(Finding f) {
+        Alert.Facet facet = Alert.Facet.of(f.kind());
+        boolean own = facet == Alert.Facet.RELATIONSHIP || facet == Alert.Facet.WAVE;
+        return new Event(f.variable(), own ? f.kind() : null);
     }
 }

@@ -28,23 +28,34 @@ public final class MarkdownDigest {
                     .append("\n\n");
             md.append(verdictCounts(r.findings())).append(" False discovery rate ")
                     .append(r.alpha()).append(" (").append(r.fdrMethod()).append(").\n\n");
-            List<Finding> worth = FindingsFiles.ordered(r.findings()).stream().filter(Alerts::worthAPerson).toList();
-            if (worth.isEmpty()) {
+            List<Alert> alerts = Alerts.group(r.findings());
+            if (alerts.isEmpty()) {
                 md.append("Nothing needs attention.\n\n");
                 continue;
             }
+            // One row per event: the lead's verdict and sentence, then what else was seen of the same variable.
             md.append("| verdict / kind | variable | what happened |\n|---|---|---|\n");
-            for (Finding f : worth) {
-                md.append("| ").append(f.verdict() != null ? "**" + f.verdict() + "** " : "")
-                        .append(f.kind() == org.wavewarden.judge.FindingKind.SHIFT ? "" : f.kind().name())
-                        .append(" | ").append(escape(f.variable())).append(" | ").append(escape(f.sentence()))
-                        .append(" |\n");
+            for (Alert a : alerts) {
+                md.append("| ").append(label(a.lead())).append(" | ").append(escape(a.variable())).append(" | ")
+                        .append(escape(a.lead().sentence()));
+                // Plain text, so the lead's verdict stays the only bold word of the row.
+                for (Finding o : a.facets().subList(1, a.facets().size())) {
+                    md.append(" Also ").append(o.verdict() == null ? "" : o.verdict().name() + " ")
+                            .append(o.kind().name()).append(": ").append(escape(o.sentence()));
+                }
+                md.append(" |\n");
             }
             md.append('\n');
         }
         md.append("## Cautions\n\n");
         Cautions.LINES.forEach(l -> md.append("- ").append(l).append('\n'));
         return md.toString();
+    }
+
+    /** {@code **MATERIAL** PANEL_SHIFT}; a distribution shift with a verdict is named by the verdict alone. */
+    private static String label(Finding f) {
+        String kind = f.kind() == org.wavewarden.judge.FindingKind.SHIFT ? "" : f.kind().name();
+        return f.verdict() == null ? kind : ("**" + f.verdict() + "** " + kind).strip();
     }
 
     /**

@@ -157,7 +157,10 @@ public final class DemoRun {
                 + (r.againstWave() == null ? " (first wave, screened alone)" : " against " + r.againstWave()) + ": "
                 + j.alerts().size() + " alert(s)");
         j.alerts().forEach(a -> sb.append("\n    ").append(a.verdict() == null ? a.kind().name() : a.verdict().name())
-                .append("  ").append(a.variable()).append(": ").append(a.sentence()));
+                .append("  ").append(a.variable()).append(": ").append(a.lead().sentence())
+                .append(a.facets().size() == 1 ? "" : " Also seen: " + a.facets().subList(1, a.facets().size())
+                        .stream().map(o -> o.verdict() == null ? o.kind().name() : o.verdict() + " " + o.kind())
+                        .collect(java.util.stream.Collectors.joining(", ")) + "."));
         return sb.toString();
     }
 

@@ -60,7 +60,8 @@ public final class DigestAssembler {
             WaveProfile current = summary(d, r.wave()).orElse(null);
             WaveProfile baseline = baseline(d, listed, r);
             List<AlertView> views = new ArrayList<>();
-            for (Finding f : org.wavewarden.deliver.Alerts.select(r.findings())) {
+            for (org.wavewarden.deliver.Alert alert : org.wavewarden.deliver.Alerts.group(r.findings())) {
+                Finding f = alert.lead();
                 VariableConfig v = variable(d, current, f.variable());
                 String id = findingId(d.name(), r.wave(), f);
                 VariablePlot plot;
@@ -87,7 +88,7 @@ public final class DigestAssembler {
                     plot = new VariablePlot.Unavailable(e.getClass().getSimpleName());
                     trend = null;
                 }
-                views.add(new AlertView(f, plot, trend));
+                views.add(new AlertView(alert, plot, trend));
             }
             sections.add(new WaveSection(r, views));
         }

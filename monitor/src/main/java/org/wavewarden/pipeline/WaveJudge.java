@@ -18,6 +18,7 @@ import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.config.VariableKind;
 import org.wavewarden.config.WardenConfig;
+import org.wavewarden.deliver.Alert;
 import org.wavewarden.deliver.Alerts;
 import org.wavewarden.deliver.FindingsFiles;
 import org.wavewarden.deliver.FindingsReport;
@@ -212,7 +213,7 @@ public final class WaveJudge {
         List<String> inference = new ArrayList<>(notes);
         inference.addAll(judged.inference());
         List<Finding> findings = judged.findings();
-        List<Finding> alerts = Alerts.select(findings);
+        List<Alert> alerts = Alerts.group(findings);
         Instant finished = clock.instant();
         String fingerprint = org.wavewarden.config.ConfigFingerprint.of(cfg, d);
         FindingsReport report = new FindingsReport(d.name(), wave, againstLabel, finished, cfg.alpha(),

@@ -31,7 +31,8 @@ import java.util.TreeMap;
  * filter takes reached that sink exactly once.
  *
  * <p>Deliveries are matched to alerts by what identifies an open alert in the results schema (dataset, wave,
- * comparison wave, variable, kind), read from the delivered body. Delivery is at least once, each alert under one
+ * comparison wave, variable, kind of its lead finding), read from the delivered body. An alert is one event; a
+ * sink's filter takes it when it takes any of the event's findings. Delivery is at least once, each alert under one
  * idempotency key on every retry, so that a receiver recognises a retry; the audit counts what the receiver took:
  * <ul>
  *   <li>at the webhook, a request the receiver took ({@link Outcome#ACCEPTED}); a retry after a 500, a refused
@@ -61,8 +62,29 @@ public final class SoakAudit {
         }
     }
 
-    /** A current alert of the results schema, with what a sink filter decides on. */
-    public record AlertRow(AlertRef ref, String verdict) {
+    /**
+     * A current alert of the results schema, with what a sink filter decides on.
+     *
+     * @param verdict the lead finding's verdict, or null
+     * @param others  the event's other findings
+     */
+    public record AlertRow(AlertRef ref, String verdict, List<SinkFilter.Judged> others) {
+        public AlertRow {
+            others = List.copyOf(others);
+        }
+
+        /** An alert whose event has only its lead. */
+        public AlertRow(AlertRef ref, String verdict) {
+            this(ref, verdict, List.of());
+        }
+
+        List<SinkFilter.Judged> findings() {
+            List<SinkFilter.Judged> all = new ArrayList<>();
+            all.add(new SinkFilter.Judged(FindingKind.valueOf(ref.kind()), verdict == null ? null
+                    : Verdict.valueOf(verdict)));
+            all.addAll(others);
+            return all;
+        }
     }
 
     /** A run row: its wave and whether it is current. */
@@ -139,8 +161,7 @@ public final class SoakAudit {
         int acceptedCount = 0;
         Set<AlertRef> expected = new LinkedHashSet<>();
         for (AlertRow a : alerts) {
-            if (filter.accepts(FindingKind.valueOf(a.ref().kind()), a.verdict() == null ? null
-                    : Verdict.valueOf(a.verdict()))) {
+            if (filter.acceptsAny(a.findings())) {
                 expected.add(a.ref());
             }
         }
@@ -279,17 +300,28 @@ public final class SoakAudit {
         return out;
     }
 
-    /** The current (not superseded) alerts of a dataset in a results schema. */
+    /**
+     * The current (not superseded) alerts of a dataset in a results schema, each with the verdicts of its event's
+     * other findings (read from the run's findings, as the message sent for it is).
+     */
     public static List<AlertRow> alerts(Connection c, String schema, String dataset) throws SQLException {
         List<AlertRow> out = new ArrayList<>();
-        try (PreparedStatement ps = c.prepareStatement("SELECT dataset, wave, against_wave, variable, kind, verdict"
-                + " FROM " + Identifiers.quote(schema) + ".alert WHERE dataset = ? AND superseded_at IS NULL"
-                + " ORDER BY alert_id")) {
+        String s = Identifiers.quote(schema);
+        try (PreparedStatement ps = c.prepareStatement("SELECT a.dataset, a.wave, a.against_wave, a.variable, a.kind,"
+                + " a.verdict, (SELECT coalesce(array_agg(f.kind || ':' || coalesce(f.verdict, '')), '{}') FROM " + s
+                + ".finding f WHERE f.run_id = a.run_id AND f.variable = a.variable AND f.kind = ANY (a.facet_kinds))"
+                + " FROM " + s + ".alert a WHERE a.dataset = ? AND a.superseded_at IS NULL ORDER BY a.alert_id")) {
             ps.setString(1, dataset);
             try (ResultSet rs = ps.executeQuery()) {
                 while (rs.next()) {
+                    List<SinkFilter.Judged> others = new ArrayList<>();
+                    for (String kv : (String[]) rs.getArray(7).getArray()) {
+                        String[] p = kv.split(":", 2);
+                        others.add(new SinkFilter.Judged(FindingKind.valueOf(p[0]), p[1].isEmpty() ? null
+                                : Verdict.valueOf(p[1])));
+                    }
                     out.add(new AlertRow(new AlertRef(rs.getString(1), rs.getString(2), rs.getString(3),
-                            rs.getString(4), rs.getString(5)), rs.getString(6)));
+                            rs.getString(4), rs.getString(5)), rs.getString(6), others));
                 }
             }
         }

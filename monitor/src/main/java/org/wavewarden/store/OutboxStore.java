@@ -4,6 +4,7 @@ import org.jdbi.v3.core.Handle;
 import org.jdbi.v3.core.Jdbi;
 import org.jdbi.v3.core.statement.PreparedBatch;
 import org.wavewarden.config.Identifiers;
+import org.wavewarden.deliver.Alert;
 import org.wavewarden.deliver.sink.AlertMessage;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
@@ -67,7 +68,7 @@ public final class OutboxStore {
     }
 
     /** Adds a committed run's outputs; called inside {@link ResultsStore#writeRun}'s transaction. */
-    void add(Handle h, ResultsStore.RunWrite run, long runId, List<Finding> alerts, Outputs outputs) {
+    void add(Handle h, ResultsStore.RunWrite run, long runId, List<Alert> alerts, Outputs outputs) {
         if (outputs.waveFolder() != null) {
             String folder = outputs.waveFolder().toAbsolutePath().normalize().toString();
             // An older run's files for the same folder would overwrite this run's if carried out later.
@@ -100,7 +101,7 @@ public final class OutboxStore {
                     + " AND a.kind = :kind AND a.superseded_at IS NULL ON CONFLICT ON CONSTRAINT outbox_key DO NOTHING");
             String against = run.againstWave().isEmpty() ? null : run.againstWave();
             for (String sink : outputs.alertSinks()) {
-                for (Finding a : alerts) {
+                for (Alert a : alerts) {
                     b.bind("d", run.dataset()).bind("sink", sink).bind("p", ALERT)
                             .bind("key", AlertMessage.idempotencyKey(run.dataset(), run.wave(), against, a.variable(),
                                     a.kind(), run.summaryChecksum()))
@@ -267,23 +268,36 @@ public final class OutboxStore {
                 .list());
     }
 
-    /** The message of an alert row, made from the stored alert, its finding and its run. */
+    /**
+     * The message of an alert row, made from the stored alert, its run and the run's findings of the event: the
+     * lead (named by the alert row itself, so it is sent even without its finding row) and then the findings of the
+     * alert's other kinds, in the order stored.
+     */
     public Optional<AlertMessage> message(long alertId) {
-        return jdbi.withHandle(h -> h.createQuery("SELECT a.dataset, a.wave, a.against_wave, a.variable, a.kind,"
-                        + " a.verdict, a.sentence, a.run_id, r.summary_checksum, f.test, f.statistic, f.p_value,"
-                        + " f.q_value, f.effect_name, f.effect_estimate, f.effect_ci_low, f.effect_ci_high,"
-                        + " f.effect_threshold, f.n_baseline, f.n_current, f.df, f.df_convention, f.fdr_family_size,"
-                        + " f.fdr_method FROM " + s + ".alert a JOIN " + s
-                        + ".run r ON r.run_id = a.run_id LEFT JOIN " + s + ".finding f ON f.run_id = a.run_id"
-                        + " AND f.variable = a.variable AND f.kind = a.kind WHERE a.alert_id = :id")
+        record Facet(String dataset, String wave, String against, long runId, String checksum, Finding finding) {
+        }
+        List<Facet> facets = jdbi.withHandle(h -> h.createQuery("SELECT a.dataset, a.wave, a.against_wave, a.run_id,"
+                        + " r.summary_checksum, a.variable, k.kind, CASE WHEN k.ord = 1 THEN a.verdict ELSE f.verdict"
+                        + " END AS verdict, CASE WHEN k.ord = 1 THEN a.sentence ELSE f.sentence END AS sentence, f.test,"
+                        + " f.statistic, f.p_value, f.q_value, f.effect_name, f.effect_estimate, f.effect_ci_low,"
+                        + " f.effect_ci_high, f.effect_threshold, f.n_baseline, f.n_current, f.df, f.df_convention,"
+                        + " f.fdr_family_size, f.fdr_method FROM " + s + ".alert a"
+                        + " JOIN " + s + ".run r ON r.run_id = a.run_id CROSS JOIN LATERAL unnest(ARRAY[a.kind]"
+                        + " || a.facet_kinds) WITH ORDINALITY AS k(kind, ord) LEFT JOIN " + s + ".finding f"
+                        + " ON f.run_id = a.run_id AND f.variable = a.variable AND f.kind = k.kind"
+                        + " WHERE a.alert_id = :id AND (k.ord = 1 OR f.finding_id IS NOT NULL) ORDER BY k.ord")
                 .bind("id", alertId)
-                .map((rs, ctx) -> {
-                    String against = rs.getString("against_wave");
-                    return AlertMessage.of(rs.getString("dataset"), rs.getString("wave"),
-                            against.isEmpty() ? null : against, rs.getLong("run_id"),
-                            rs.getString("summary_checksum"), ResultsStore.finding(rs, null));
-                })
-                .findOne());
+                .map((rs, ctx) -> new Facet(rs.getString("dataset"), rs.getString("wave"),
+                        rs.getString("against_wave"), rs.getLong("run_id"), rs.getString("summary_checksum"),
+                        ResultsStore.finding(rs, null)))
+                .list());
+        if (facets.isEmpty()) {
+            return Optional.empty();
+        }
+        Facet lead = facets.get(0);
+        return Optional.of(AlertMessage.of(lead.dataset(), lead.wave(), lead.against().isEmpty() ? null
+                : lead.against(), lead.runId(), lead.checksum(), new Alert(facets.stream().map(Facet::finding)
+                .toList())));
     }
 
     private String select() {

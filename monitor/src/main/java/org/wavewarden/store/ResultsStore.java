@@ -6,6 +6,7 @@ import org.jdbi.v3.core.statement.PreparedBatch;
 import org.wavewarden.config.Identifiers;
 import org.wavewarden.deliver.Json;
 import org.wavewarden.compare.relation.RelationshipDetail;
+import org.wavewarden.deliver.Alert;
 import org.wavewarden.deliver.FindingsReport;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
@@ -21,7 +22,8 @@ import java.util.Optional;
 /**
  * Reads and writes the results schema. A judged wave is written in one transaction (run, findings, alerts), keyed
  * so that a rerun on the same data replaces its findings and adds no alert twice, and a rerun on changed data
- * supersedes the older run and its alerts.
+ * supersedes the older run and its alerts. An alert row is one event ({@link Alert}): it is keyed and named by its
+ * lead finding and lists the kinds of the event's other findings.
  */
 public final class ResultsStore {
 
@@ -128,7 +130,7 @@ public final class ResultsStore {
      *
      * @return the run id
      */
-    public long writeRun(RunWrite run, WaveProfile currentProfile, List<Finding> findings, List<Finding> alerts) {
+    public long writeRun(RunWrite run, WaveProfile currentProfile, List<Finding> findings, List<Alert> alerts) {
         return writeRun(run, currentProfile, findings, alerts, List.of(), OutboxStore.Outputs.NONE);
     }
 
@@ -140,7 +142,7 @@ public final class ResultsStore {
      * @param inference how unlisted variables were classified (part of {@code findings.json})
      * @return the run id
      */
-    public long writeRun(RunWrite run, WaveProfile currentProfile, List<Finding> findings, List<Finding> alerts,
+    public long writeRun(RunWrite run, WaveProfile currentProfile, List<Finding> findings, List<Alert> alerts,
                          List<String> inference, OutboxStore.Outputs outputs) {
         return jdbi.inTransaction(h -> {
             saveSummary(h, run.dataset(), currentProfile, run.summaryChecksum());
@@ -176,17 +178,21 @@ public final class ResultsStore {
                             + " AND NOT ((variable, kind) IN (SELECT * FROM unnest(CAST(:vars AS text[]),"
                             + " CAST(:kinds AS text[]))))")
                     .bind("run", runId)
-                    .bind("vars", alerts.stream().map(Finding::variable).toArray(String[]::new))
-                    .bind("kinds", alerts.stream().map(f -> f.kind().name()).toArray(String[]::new))
+                    .bind("vars", alerts.stream().map(Alert::variable).toArray(String[]::new))
+                    .bind("kinds", alerts.stream().map(a -> a.kind().name()).toArray(String[]::new))
                     .execute();
+            // A rerun on the same data keeps the open alert (and so its deliveries) and takes the event's facets as
+            // now judged, which a rerun from before alerts were grouped did not record.
             PreparedBatch b = h.prepareBatch("INSERT INTO " + s + ".alert (run_id, dataset, wave, against_wave, variable,"
-                    + " kind, verdict, sentence) VALUES (:run, :dataset, :wave, :against, :variable, :kind, :verdict,"
-                    + " :sentence) ON CONFLICT (dataset, wave, against_wave, variable, kind) WHERE superseded_at IS NULL"
-                    + " DO NOTHING");
-            for (Finding a : alerts) {
+                    + " kind, verdict, sentence, facet_kinds) VALUES (:run, :dataset, :wave, :against, :variable, :kind,"
+                    + " :verdict, :sentence, CAST(:facets AS text[])) ON CONFLICT (dataset, wave, against_wave,"
+                    + " variable, kind) WHERE superseded_at IS NULL DO UPDATE SET facet_kinds = EXCLUDED.facet_kinds");
+            for (Alert a : alerts) {
                 b.bind("run", runId).bind("dataset", run.dataset()).bind("wave", run.wave())
                         .bind("against", run.againstWave()).bind("variable", a.variable()).bind("kind", a.kind().name())
-                        .bind("verdict", a.verdict() == null ? null : a.verdict().name()).bind("sentence", a.sentence())
+                        .bind("verdict", a.verdict() == null ? null : a.verdict().name())
+                        .bind("sentence", a.lead().sentence())
+                        .bind("facets", a.otherKinds().stream().map(Enum::name).toArray(String[]::new))
                         .add();
             }
             if (!alerts.isEmpty()) {
@@ -326,17 +332,27 @@ public final class ResultsStore {
                 .bind("d", dataset).bind("w", wave).mapTo(Long.class).findOne());
     }
 
-    /** Open alerts of a dataset, newest first. */
+    /** Open alerts of a dataset, oldest first. */
     public List<AlertRow> openAlerts(String dataset) {
-        return jdbi.withHandle(h -> h.createQuery("SELECT alert_id, wave, against_wave, variable, kind, verdict, sentence"
-                        + " FROM " + s + ".alert WHERE dataset = :dataset AND superseded_at IS NULL ORDER BY alert_id")
+        return jdbi.withHandle(h -> h.createQuery("SELECT alert_id, wave, against_wave, variable, kind, verdict, sentence,"
+                        + " facet_kinds FROM " + s + ".alert WHERE dataset = :dataset AND superseded_at IS NULL"
+                        + " ORDER BY alert_id")
                 .bind("dataset", dataset)
                 .map((rs, ctx) -> new AlertRow(rs.getLong(1), rs.getString(2), rs.getString(3), rs.getString(4),
-                        rs.getString(5), rs.getString(6), rs.getString(7)))
+                        rs.getString(5), rs.getString(6), rs.getString(7),
+                        List.of((String[]) rs.getArray(8).getArray())))
                 .list());
     }
 
+    /**
+     * An alert as stored: named by its lead finding.
+     *
+     * @param otherKinds the kinds of the event's other findings, in order of urgency
+     */
     public record AlertRow(long alertId, String wave, String againstWave, String variable, String kind, String verdict,
-                           String sentence) {
+                           String sentence, List<String> otherKinds) {
+        public AlertRow {
+            otherKinds = List.copyOf(otherKinds);
+        }
     }
 }

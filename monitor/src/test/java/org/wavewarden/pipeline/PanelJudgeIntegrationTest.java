@@ -206,15 +206,17 @@ class PanelJudgeIntegrationTest {
         assertTrue(commute.sentence().contains("largest flow: 90 moved from 'car' to 'bus' (11.8% of 'car'); 1,600"
                 + " respondents paired; 3 only in wave w1, 2 only in wave w2"), commute.sentence());
 
-        // Paired findings are alerted like shifts, written with the run and in findings.json.
-        assertTrue(judged.alerts().stream().anyMatch(a -> a.kind() == FindingKind.PANEL_SHIFT
-                && a.variable().equals("commute")));
-        assertTrue(judged.alerts().stream().noneMatch(a -> a.kind() == FindingKind.PANEL_SHIFT
-                && a.variable().equals("approves")), "MINOR is not alerted");
+        // Paired findings are alerted like shifts (a facet of their variable's alert), written with the run and in
+        // findings.json.
+        assertTrue(judged.alerts().stream().anyMatch(a -> a.variable().equals("commute")
+                && a.facets().stream().anyMatch(x -> x.kind() == FindingKind.PANEL_SHIFT)));
+        assertTrue(judged.alerts().stream().noneMatch(a -> a.variable().equals("approves")
+                && a.facets().stream().anyMatch(x -> x.kind() == FindingKind.PANEL_SHIFT)), "MINOR is not alerted");
         assertEquals(5, count("SELECT count(*) FROM panel_results.finding WHERE run_id = " + judged.runId()
                 + " AND kind = 'PANEL_SHIFT'"));
-        assertEquals(4, count("SELECT count(*) FROM panel_results.alert WHERE kind = 'PANEL_SHIFT'"
-                + " AND dataset = 'panel' AND superseded_at IS NULL"));
+        // Four variables' alerts have a paired facet, as lead or beside their variable's two-sample shift.
+        assertEquals(4, count("SELECT count(*) FROM panel_results.alert WHERE 'PANEL_SHIFT' = ANY (ARRAY[kind]"
+                + " || facet_kinds) AND dataset = 'panel' AND superseded_at IS NULL"));
         JsonNode json = Json.mapper().readTree(Files.readString(dir.resolve("w2").resolve("findings.json")));
         JsonNode flows = null;
         for (JsonNode x : json.get("findings")) {

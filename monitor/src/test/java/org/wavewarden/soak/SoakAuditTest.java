@@ -102,6 +102,17 @@ class SoakAuditTest {
     }
 
     @Test
+    void anEventIsExpectedAtASinkThatTakesAnyOfItsFindingsNotOnlyItsLead() {
+        AlertRef height = new AlertRef("harrowmere-soak", "W0005", "W0004", "height_cm", "MISSING_RATE_CHANGE");
+        AlertRow event = new AlertRow(height, "UNCERTAIN", List.of(new SinkFilter.Judged(
+                org.wavewarden.judge.FindingKind.NUMERIC_SENTINEL, null)));
+        SinkFilter sentinels = SinkFilter.of("MATERIAL", Set.of("NUMERIC_SENTINEL"));
+        assertEquals(1, SoakAudit.sink("webhook", List.of(event), sentinels, List.of()).lost());
+        assertEquals(0, SoakAudit.sink("webhook", List.of(new AlertRow(height, "UNCERTAIN")), sentinels, List.of())
+                .expected(), "the lead alone is refused");
+    }
+
+    @Test
     void everyWaveWithExactlyOneCurrentRunIsJudgedAndSupersededRunsDoNotCount() {
         SoakAudit.Waves w = SoakAudit.waves(List.of("W0001", "W0002", "W0003", "W0004"), List.of(
                 new RunRow("W0001", true), new RunRow("W0002", false), new RunRow("W0002", true),

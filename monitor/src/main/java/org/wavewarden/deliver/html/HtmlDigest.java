@@ -1,5 +1,6 @@
 package org.wavewarden.deliver.html;
 
+import org.wavewarden.deliver.Alert;
 import org.wavewarden.deliver.Cautions;
 import org.wavewarden.deliver.FindingsFiles;
 import org.wavewarden.deliver.FindingsReport;
@@ -192,6 +193,7 @@ public final class HtmlDigest {
         if (!stats.isEmpty()) {
             h.append("<p class=\"stats\">").append(stats).append("</p>\n");
         }
+        facets(h, a.alert(), alpha, baselineWave, currentWave);
         if (a.plot() != null || a.trend() != null) {
             h.append("<div class=\"charts\">");
             if (a.plot() != null) {
@@ -203,6 +205,32 @@ public final class HtmlDigest {
             h.append("</div>\n");
         }
         h.append("</article>\n");
+    }
+
+    /**
+     * The event's other findings under its lead, each with its verdict or kind, its sentence and its numbers; the
+     * card's charts stay the lead's.
+     */
+    private static void facets(StringBuilder h, Alert alert, double alpha, String baselineWave, String currentWave) {
+        List<Finding> others = alert.facets().subList(1, alert.facets().size());
+        if (others.isEmpty()) {
+            return;
+        }
+        h.append("<ul class=\"facets\" aria-label=\"Also seen in this event\">");
+        for (Finding o : others) {
+            h.append("<li class=\"facet\" data-kind=\"").append(esc(o.kind().name())).append("\" data-facet=\"")
+                    .append(esc(Alert.Facet.of(o.kind()).name())).append("\"")
+                    .append(o.verdict() == null ? "" : " data-verdict=\"" + o.verdict().name() + "\"").append(">")
+                    .append("<span class=\"facet-name\">").append(esc(o.verdict() == null ? "" : o.verdict().name()
+                            + " ")).append(esc(kindLabel(o.kind()))).append("</span> ")
+                    .append("<span class=\"sentence\">").append(esc(o.sentence())).append("</span>");
+            String stats = stats(o, alpha, baselineWave, currentWave);
+            if (!stats.isEmpty()) {
+                h.append("<span class=\"stats\">").append(stats).append("</span>");
+            }
+            h.append("</li>");
+        }
+        h.append("</ul>\n");
     }
 
     /**
@@ -366,6 +394,8 @@ public final class HtmlDigest {
             .kind{color:var(--muted)}
             .sentence{margin:6px 0 4px;max-width:76ch}
             .stats{font-size:13px;color:var(--muted);margin:0 0 8px;display:flex;flex-wrap:wrap;gap:4px 14px}
+            .facets{margin:4px 0 8px;padding-left:18px}.facet{margin:2px 0}.facet .sentence{margin:0 0 0 4px}
+            .facet-name{font-weight:600;font-size:13px}
             .charts{display:flex;flex-wrap:wrap;gap:14px;align-items:flex-start}
             svg.plot{background:#fff;border:1px solid var(--line);border-radius:4px;max-width:100%;height:auto}
             svg.plot text{font-size:11px;fill:#39424e;font-family:inherit}

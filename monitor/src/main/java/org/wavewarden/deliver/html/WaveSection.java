@@ -10,7 +10,7 @@ import java.util.Objects;
  * The digest shows the alerts in the project's reading order whatever order they are given in.
  *
  * @param report the wave's findings report
- * @param alerts the alerts to show, usually those {@link org.wavewarden.deliver.Alerts#select} picks
+ * @param alerts the alerts to show, one per event, usually those {@link org.wavewarden.deliver.Alerts#group} makes
  */
 public record WaveSection(FindingsReport report, List<AlertView> alerts) {
 

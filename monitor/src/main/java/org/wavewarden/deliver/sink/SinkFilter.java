@@ -22,6 +22,10 @@ import java.util.stream.Collectors;
  * for every data-quality kind ({@link FindingKind#isDataQuality()}), so SHAPE_CHANGE and SKIPPED pass only when
  * listed by name.
  *
+ * <p>An alert is one event with one or more findings ({@link AlertMessage#facets()}): it passes when any of them
+ * passes, so a sink that takes a kind or a verdict hears of every event that shows it, with the event's other
+ * findings beside it.
+ *
  * @param minimumVerdict the least urgent verdict delivered, or null for all
  * @param kinds          the kinds without a verdict that are delivered; empty for every data-quality kind
  */
@@ -57,7 +61,16 @@ public record SinkFilter(Verdict minimumVerdict, Set<FindingKind> kinds) {
     }
 
     public boolean accepts(AlertMessage message) {
-        return accepts(message.kind(), message.verdict());
+        return message.facets().stream().anyMatch(p -> accepts(p.kind(), p.verdict()));
+    }
+
+    /** A finding's kind and its verdict (null when it has none), as the filter decides on them. */
+    public record Judged(FindingKind kind, Verdict verdict) {
+    }
+
+    /** Whether an alert with these findings passes: when any of them does. */
+    public boolean acceptsAny(Collection<Judged> findings) {
+        return findings.stream().anyMatch(j -> accepts(j.kind(), j.verdict()));
     }
 
     /** The rule above on a kind and its verdict (null when the finding has none). */

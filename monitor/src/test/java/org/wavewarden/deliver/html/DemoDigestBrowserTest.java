@@ -35,7 +35,7 @@ class DemoDigestBrowserTest {
     }
 
     private void checkPage(Path page, List<FindingsReport> reports) throws Exception {
-        long alerts = reports.stream().map(FindingsReport::findings).mapToLong(f -> Alerts.select(f).size()).sum();
+        long alerts = reports.stream().map(FindingsReport::findings).mapToLong(f -> Alerts.group(f).size()).sum();
         HtmlDigestBrowserTest.Run run = HtmlDigestBrowserTest.browse(page, dir, "--dump-dom");
         assertEquals(0, run.exit(), run.stderr());
         assertTrue(HtmlDigestBrowserTest.pageErrors(run.stderr()).isEmpty(), "page errors: "

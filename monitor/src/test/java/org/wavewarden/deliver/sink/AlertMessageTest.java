@@ -87,7 +87,7 @@ class AlertMessageTest {
             names.add(it.next());
         }
         assertEquals(List.of("dataset", "wave", "againstWave", "runId", "variable", "kind", "verdict", "sentence",
-                "effect", "pValue", "qValue", "idempotencyKey"), names);
+                "effect", "pValue", "qValue", "facets", "idempotencyKey"), names);
         assertEquals("MATERIAL", node.get("verdict").asText());
         assertEquals(0.147, node.get("effect").get("threshold").asDouble());
         assertEquals(m, AlertMessage.fromJson(m.toJson()));
@@ -112,5 +112,49 @@ class AlertMessageTest {
         IllegalArgumentException e2 = assertThrows(IllegalArgumentException.class,
                 () -> AlertMessage.idempotencyKey("s", "w", null, "v", FindingKind.SHIFT, ""));
         assertTrue(e2.getMessage().startsWith("runChecksum:"), e2.getMessage());
+    }
+
+    @Test
+    void anEventsMessageIsNamedByItsLeadListsEveryFacetAndKeepsTheLeadsKey() {
+        Finding paired = new Finding("age", FindingKind.PANEL_SHIFT, "paired t", 4.0, 1e-4, 2e-4,
+                new Finding.Effect("mean difference", 2.0, 1.0, 3.0, 1.0), Verdict.MATERIAL, 500L, 500L,
+                "The same respondents report higher ages.", null);
+        Finding weighted = Messages.shift("age", Verdict.UNCERTAIN);
+        AlertMessage m = AlertMessage.of("survey", "w2", "w1", 7L, "abc123",
+                new org.wavewarden.deliver.Alert(List.of(paired, weighted)));
+        assertEquals(FindingKind.PANEL_SHIFT, m.kind());
+        assertEquals(paired.sentence(), m.sentence());
+        assertEquals(AlertMessage.idempotencyKey("survey", "w2", "w1", "age", FindingKind.PANEL_SHIFT, "abc123"),
+                m.idempotencyKey(), "the key the lead had as an alert of its own");
+        assertEquals(List.of(org.wavewarden.deliver.Alert.Facet.PAIRED, org.wavewarden.deliver.Alert.Facet.DISTRIBUTION),
+                m.facets().stream().map(AlertMessage.Part::facet).toList());
+        assertEquals(List.of(Verdict.MATERIAL, Verdict.UNCERTAIN),
+                m.facets().stream().map(AlertMessage.Part::verdict).toList());
+        assertEquals(weighted.qValue(), m.facets().get(1).qValue());
+        assertEquals(m, AlertMessage.fromJson(m.toJson()));
+        JsonNode facet = Json.read(m.toJson(), JsonNode.class).get("facets").get(1);
+        assertEquals("DISTRIBUTION", facet.get("facet").asText());
+        assertEquals("SHIFT", facet.get("kind").asText());
+    }
+
+    @Test
+    void aMessageWrittenBeforeAlertsWereGroupedReadsWithItsLeadAsItsOneFacet() {
+        AlertMessage m = Messages.message(Messages.quality("region", FindingKind.PLACEHOLDER));
+        com.fasterxml.jackson.databind.node.ObjectNode old = Json.read(m.toJson(),
+                com.fasterxml.jackson.databind.node.ObjectNode.class);
+        old.remove("facets");
+        AlertMessage read = AlertMessage.fromJson(old.toString());
+        assertEquals(m, read);
+        assertEquals(List.of(new AlertMessage.Part(org.wavewarden.deliver.Alert.Facet.DATA_QUALITY,
+                FindingKind.PLACEHOLDER, null, m.sentence(), null, null, null)), read.facets());
+    }
+
+    @Test
+    void facetsThatDoNotStartWithTheLeadAreRefused() {
+        AlertMessage m = Messages.message(Messages.shift("age", Verdict.MATERIAL));
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class, () -> new AlertMessage(
+                m.dataset(), m.wave(), m.againstWave(), m.runId(), m.variable(), FindingKind.PANEL_SHIFT, m.verdict(),
+                m.sentence(), m.effect(), m.pValue(), m.qValue(), m.facets(), m.idempotencyKey()));
+        assertTrue(e.getMessage().startsWith("facets:"), e.getMessage());
     }
 }

@@ -85,4 +85,20 @@ class SinkFilterTest {
                 () -> SinkFilter.of(null, List.of("BLANK", "blurry")));
         assertTrue(k.getMessage().startsWith("kinds:") && k.getMessage().contains("'blurry'"), k.getMessage());
     }
+
+    @Test
+    void anEventPassesWhenAnyOfItsFindingsPasses() {
+        SinkFilter materialOnly = new SinkFilter(Verdict.MATERIAL, Set.of(FindingKind.NUMERIC_SENTINEL));
+        AlertMessage uncertainWithSentinel = AlertMessage.of("survey", "w2", "w1", 7L, "abc123",
+                new org.wavewarden.deliver.Alert(List.of(Messages.shift("height", Verdict.UNCERTAIN),
+                        Messages.quality("height", FindingKind.NUMERIC_SENTINEL))));
+        AlertMessage uncertainWithBlank = AlertMessage.of("survey", "w2", "w1", 7L, "abc123",
+                new org.wavewarden.deliver.Alert(List.of(Messages.shift("height", Verdict.UNCERTAIN),
+                        Messages.quality("height", FindingKind.BLANK))));
+        assertTrue(materialOnly.accepts(uncertainWithSentinel));
+        assertFalse(materialOnly.accepts(uncertainWithBlank));
+        assertTrue(materialOnly.acceptsAny(List.of(new SinkFilter.Judged(FindingKind.SHIFT, Verdict.STABLE),
+                new SinkFilter.Judged(FindingKind.PANEL_SHIFT, Verdict.MATERIAL))));
+        assertFalse(materialOnly.acceptsAny(List.of()));
+    }
 }
