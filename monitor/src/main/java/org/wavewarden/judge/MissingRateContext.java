@@ -36,8 +36,7 @@ public final class MissingRateContext {
         for (Finding f : findings) {
             Finding rate = f.kind() == FindingKind.SHIFT ? rates.get(f.variable()) : null;
             String clause = rate == null ? null : clause(f, rate);
-            out.add(clause == null ? f : new Finding(f.variable(), f.kind(), f.test(), f.statistic(), f.pValue(),
-                    f.qValue(), f.effect(), f.verdict(), f.nBaseline(), f.nCurrent(), insert(f, clause), f.detail()));
+            out.add(clause == null ? f : f.withSentence(insert(f, clause)));
         }
         return out;
     }
