@@ -21,6 +21,7 @@ import org.wavewarden.profile.DesignSummary;
 import org.wavewarden.profile.WaveProfile;
 import org.wavewarden.read.WaveInfo;
 import org.wavewarden.missing.ScreenedWave;
+import org.wavewarden.missing.VariableInference;
 import org.wavewarden.missing.ScreenedVariable;
 
 import java.time.Instant;

@@ -42,6 +42,7 @@ import org.wavewarden.read.WaveSource;
 import org.wavewarden.store.OutboxStore;
 import org.wavewarden.store.ResultsStore;
 import org.wavewarden.missing.ScreenedWave;
+import org.wavewarden.missing.VariableInference;
 import org.wavewarden.missing.ScreenedVariable;
 import org.wavewarden.missing.DataQualityFindings;
 

@@ -1,8 +1,7 @@
-package org.wavewarden.pipeline;
+package org.wavewarden.missing;
 
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.config.VariableKind;
-import org.wavewarden.missing.DisguisedMissingDetector;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.ColumnType;
 

@@ -1,4 +1,4 @@
-package org.wavewarden.pipeline;
+package org.wavewarden.missing;
 
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
@@ -8,6 +8,7 @@ import org.wavewarden.config.VariableKind;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
+import org.wavewarden.pipeline.WaveJudge;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.ColumnType;
 
@@ -79,9 +80,9 @@ class VariableInferenceTest {
         ColumnTally after = tally("respondent_age", ColumnType.INTEGER, ages(16, 94, 20, 3));
         VariableConfig v = VariableInference.infer(after).variable();
         List<Finding> findings = WaveJudge.judgeVariables(
-                org.wavewarden.missing.ScreenedWave.screen("before", Map.of(v.name(), before), null, List.of(v),
+                ScreenedWave.screen("before", Map.of(v.name(), before), null, List.of(v),
                         List.of()),
-                org.wavewarden.missing.ScreenedWave.screen("after", Map.of(v.name(), after), null, List.of(v),
+                ScreenedWave.screen("after", Map.of(v.name(), after), null, List.of(v),
                         List.of()), 0.05, WardenConfig.FdrMethod.BENJAMINI_HOCHBERG, "inference test");
         Finding heaping = findings.stream().filter(f -> f.kind() == FindingKind.HEAPING).findFirst().orElseThrow(
                 () -> new AssertionError("no heaping finding in " + findings));
