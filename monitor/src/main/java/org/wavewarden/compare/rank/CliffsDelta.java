@@ -1,5 +1,6 @@
 package org.wavewarden.compare.rank;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
 import org.wavewarden.profile.NumericDistribution;
 
@@ -35,7 +36,7 @@ public final class CliffsDelta {
     public static EffectSize estimate(NumericDistribution baseline, NumericDistribution current, double confidence) {
         Tables.requireNonEmpty(baseline, "baseline");
         Tables.requireNonEmpty(current, "current");
-        Tables.requireConfidence(confidence);
+        Checks.confidence(confidence);
         double nb = baseline.n();
         double nc = current.n();
         int kb = baseline.size();

@@ -1,5 +1,6 @@
 package org.wavewarden.compare.rank;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
 import org.wavewarden.compare.StandardNormal;
 import org.wavewarden.profile.NumericDistribution;
@@ -26,7 +27,7 @@ public final class HodgesLehmann {
     public static EffectSize estimate(NumericDistribution baseline, NumericDistribution current, double confidence) {
         Tables.requireNonEmpty(baseline, "baseline");
         Tables.requireNonEmpty(current, "current");
-        Tables.requireConfidence(confidence);
+        Checks.confidence(confidence);
         PairwiseDifferences diffs = new PairwiseDifferences(baseline, current);
         long pairs = diffs.pairs();
 

@@ -1,6 +1,7 @@
 package org.wavewarden.compare.rank;
 
 import org.apache.commons.math3.distribution.BinomialDistribution;
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
 import org.wavewarden.compare.StandardNormal;
 import org.wavewarden.profile.NumericDistribution;
@@ -32,7 +33,7 @@ public final class MedianInterval {
      */
     public static EffectSize of(NumericDistribution sample, double confidence) {
         Tables.requireNonEmpty(sample, "sample");
-        Tables.requireConfidence(confidence);
+        Checks.confidence(confidence);
         long n = sample.n();
         double median = (orderStatistic(sample, (n - 1) / 2) + orderStatistic(sample, n / 2)) / 2;
         double tail = (1 - confidence) / 2;

@@ -1,5 +1,6 @@
 package org.wavewarden.compare.rank;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
 import org.wavewarden.profile.NumericDistribution;
 
@@ -39,7 +40,7 @@ public final class RankBiserial {
      */
     public static EffectSize estimate(NumericDistribution differences, double confidence) {
         Tables.requireNonEmpty(differences, "differences");
-        Tables.requireConfidence(confidence);
+        Checks.confidence(confidence);
         int k = differences.size();
         double[] x = new double[k];
         long[] c = new long[k];

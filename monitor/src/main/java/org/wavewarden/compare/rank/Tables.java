@@ -1,11 +1,10 @@
 package org.wavewarden.compare.rank;
 
-import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
 import org.wavewarden.compare.StandardNormal;
 import org.wavewarden.profile.NumericDistribution;
 
-/** Argument checks shared by the rank methods. */
+/** What the rank methods share: the check that a table has observations, the tie term, the Feng-Cliff interval. */
 final class Tables {
 
     private Tables() {
@@ -39,10 +38,6 @@ final class Tables {
         if (d.size() == 0) {
             throw new IllegalArgumentException(name + " has no observations");
         }
-    }
-
-    static void requireConfidence(double confidence) {
-        Checks.confidence(confidence);
     }
 
     /** Sum of t^3 - t over the counts of one table: the within-sample tie term of the rank variance. */
