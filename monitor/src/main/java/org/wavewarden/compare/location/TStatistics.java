@@ -2,21 +2,11 @@ package org.wavewarden.compare.location;
 
 import org.wavewarden.compare.StudentT;
 import org.wavewarden.compare.TestResult;
-import org.wavewarden.profile.NumericDistribution;
 
 /** Shared arithmetic of the t tests: argument checks and the result, with Student t from {@link StudentT}. */
 final class TStatistics {
 
     private TStatistics() {
-    }
-
-    static void checkAtLeastTwo(String name, NumericDistribution d) {
-        if (d == null) {
-            throw new IllegalArgumentException(name + " must not be null");
-        }
-        if (d.n() < 2) {
-            throw new IllegalArgumentException(name + " needs at least 2 observations, has " + d.n());
-        }
     }
 
     static double twoSidedP(double t, double df) {

@@ -34,8 +34,8 @@ public final class CliffsDelta {
     }
 
     public static EffectSize estimate(NumericDistribution baseline, NumericDistribution current, double confidence) {
-        Tables.requireNonEmpty(baseline, "baseline");
-        Tables.requireNonEmpty(current, "current");
+        Checks.observations(baseline, 1, "baseline");
+        Checks.observations(current, 1, "current");
         Checks.confidence(confidence);
         double nb = baseline.n();
         double nc = current.n();

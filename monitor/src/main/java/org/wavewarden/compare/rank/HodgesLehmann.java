@@ -25,8 +25,8 @@ public final class HodgesLehmann {
 
     /** Shift of {@code current} relative to {@code baseline} with a {@code confidence} interval. */
     public static EffectSize estimate(NumericDistribution baseline, NumericDistribution current, double confidence) {
-        Tables.requireNonEmpty(baseline, "baseline");
-        Tables.requireNonEmpty(current, "current");
+        Checks.observations(baseline, 1, "baseline");
+        Checks.observations(current, 1, "current");
         Checks.confidence(confidence);
         PairwiseDifferences diffs = new PairwiseDifferences(baseline, current);
         long pairs = diffs.pairs();

@@ -32,7 +32,7 @@ public final class MedianInterval {
      * @param confidence level of the interval, in (0, 1)
      */
     public static EffectSize of(NumericDistribution sample, double confidence) {
-        Tables.requireNonEmpty(sample, "sample");
+        Checks.observations(sample, 1, "sample");
         Checks.confidence(confidence);
         long n = sample.n();
         double median = (orderStatistic(sample, (n - 1) / 2) + orderStatistic(sample, n / 2)) / 2;

@@ -39,7 +39,7 @@ public final class RankBiserial {
      * @param confidence  level of the interval, in (0, 1)
      */
     public static EffectSize estimate(NumericDistribution differences, double confidence) {
-        Tables.requireNonEmpty(differences, "differences");
+        Checks.observations(differences, 1, "differences");
         Checks.confidence(confidence);
         int k = differences.size();
         double[] x = new double[k];
