@@ -1,5 +1,7 @@
 package org.wavewarden.compare;
 
+import org.wavewarden.profile.NumericDistribution;
+
 /**
  * The argument checks the statistics share: a wrong argument is a programming error, reported with the argument's
  * name and value as an {@link IllegalArgumentException}.
@@ -45,5 +47,17 @@ public final class Checks {
             throw new IllegalArgumentException(successesName + " must lie in [0, " + nName + " = " + n + "], was "
                     + successes);
         }
+    }
+
+    /** A table given and holding at least {@code min} observations. */
+    public static NumericDistribution observations(NumericDistribution d, long min, String name) {
+        if (d == null) {
+            throw new IllegalArgumentException(name + " must not be null");
+        }
+        if (d.n() < min) {
+            throw new IllegalArgumentException(name + " needs at least " + min
+                    + (min == 1 ? " observation" : " observations") + ", has " + d.n());
+        }
+        return d;
     }
 }

@@ -1,8 +1,5 @@
 package org.wavewarden.compare;
 
-import org.apache.commons.math3.distribution.NormalDistribution;
-import org.apache.commons.math3.distribution.TDistribution;
-import org.apache.commons.math3.random.RandomGenerator;
 import org.wavewarden.compare.design.DesignEstimate;
 import org.wavewarden.compare.design.PsuTally;
 import org.wavewarden.compare.design.PsuTotals;
@@ -117,18 +114,14 @@ public final class WaveEstimates {
         double p = e.estimate();
         double se = e.standardError();
         if (p > 0 && p < 1 && se > 0 && df > 0) {
-            double half = tQuantile(df, confidence) * se / (p * (1 - p));
+            double half = StudentT.twoSidedQuantile(df, confidence) * se / (p * (1 - p));
             double logit = Math.log(p / (1 - p));
             return new Estimate(category, p, expit(logit - half), expit(logit + half));
         }
-        double z = new NormalDistribution().inverseCumulativeProbability(0.5 + confidence / 2);
-        double n = Math.max(1, effectiveN);
-        double z2 = z * z;
-        double centre = p + z2 / (2 * n);
-        double half = z * Math.sqrt(p * (1 - p) / n + z2 / (4 * n * n));
-        double low = p <= 0 ? 0 : (centre - half) / (1 + z2 / n);
-        double high = p >= 1 ? 1 : (centre + half) / (1 + z2 / n);
-        return new Estimate(category, p, Math.max(0, low), Math.min(1, high));
+        // A ratio of sums may round a hair past 0 or 1; the interval is of the share as it stands.
+        WilsonInterval w = WilsonInterval.ofShare(Math.min(1, Math.max(0, p)), Math.max(1, effectiveN),
+                confidence);
+        return new Estimate(category, p, w.lower(), w.upper());
     }
 
     /** The weighted share of the answers coded {@code code} under the weights-only design ({@code design} null) or the PSUs. */
@@ -154,7 +147,7 @@ public final class WaveEstimates {
         if (n < 2) {
             return new Estimate(null, m, Double.NaN, Double.NaN);
         }
-        double half = tQuantile(n - 1, confidence) * d.standardDeviation() / Math.sqrt(n);
+        double half = StudentT.twoSidedQuantile(n - 1, confidence) * d.standardDeviation() / Math.sqrt(n);
         return new Estimate(null, m, m - half, m + half);
     }
 
@@ -163,7 +156,7 @@ public final class WaveEstimates {
         if (!(df > 0)) {
             return new Estimate(null, e.estimate(), Double.NaN, Double.NaN);
         }
-        double half = tQuantile(df, confidence) * e.standardError();
+        double half = StudentT.twoSidedQuantile(df, confidence) * e.standardError();
         return new Estimate(null, e.estimate(), e.estimate() - half, e.estimate() + half);
     }
 
@@ -182,9 +175,6 @@ public final class WaveEstimates {
         return new Estimate(null, m.estimate(), m.ciLow(), m.ciHigh());
     }
 
-    private static double tQuantile(double df, double confidence) {
-        return new TDistribution((RandomGenerator) null, df, 1e-12).inverseCumulativeProbability(0.5 + confidence / 2);
-    }
 
     private static double expit(double x) {
         return 1 / (1 + Math.exp(-x));

@@ -1,7 +1,5 @@
 package org.wavewarden.compare;
 
-import org.apache.commons.math3.distribution.TDistribution;
-import org.apache.commons.math3.random.RandomGenerator;
 import org.wavewarden.compare.categorical.CohensW;
 import org.wavewarden.compare.categorical.CramersV;
 import org.wavewarden.compare.design.BinnedDesignEffect;
@@ -441,11 +439,10 @@ public final class WeightedComparator {
             throw new IllegalArgumentException("the weighted mean has standard error 0: the wave does not vary");
         }
         double df = current.n() - 1;
-        TDistribution student = new TDistribution((RandomGenerator) null, df, 1e-12);
         double d = m.estimate() - mu;
         double tStat = d / m.standardError();
-        double p = Math.min(1.0, 2 * student.cumulativeProbability(-Math.abs(tStat)));
-        double half = student.inverseCumulativeProbability(0.5 + confidence / 2) * m.standardError();
+        double p = StudentT.twoSidedP(tStat, df);
+        double half = StudentT.twoSidedQuantile(df, confidence) * m.standardError();
         EffectSize raw = new EffectSize("difference of the weighted mean from the reference", d, d - half, d + half,
                 confidence);
         double threshold;

@@ -21,6 +21,7 @@ import org.wavewarden.profile.DesignSummary;
 import org.wavewarden.profile.WaveProfile;
 import org.wavewarden.read.WaveInfo;
 import org.wavewarden.missing.ScreenedWave;
+import org.wavewarden.missing.VariableInference;
 import org.wavewarden.missing.ScreenedVariable;
 
 import java.time.Instant;
@@ -62,7 +63,8 @@ public final class DigestAssembler {
             List<AlertView> views = new ArrayList<>();
             for (org.wavewarden.deliver.Alert alert : org.wavewarden.deliver.Alerts.group(r.findings())) {
                 Finding f = alert.lead();
-                VariableConfig v = variable(d, current, f.variable());
+                VariableConfig v = VariableInference.variable(d, f.variable(),
+                        current == null ? null : current.columns().get(f.variable()));
                 String id = findingId(d.name(), r.wave(), f);
                 VariablePlot plot;
                 Trend trend;
@@ -157,17 +159,6 @@ public final class DigestAssembler {
         List<WaveProfile> profiles = waves.stream().map(w -> summary(d, w)).flatMap(Optional::stream).toList();
         return profiles.isEmpty() ? null : profiles.size() == 1 ? profiles.get(0)
                 : WaveProfile.pooled(r.againstWave(), profiles);
-    }
-
-    private static VariableConfig variable(DatasetConfig d, WaveProfile current, String name) {
-        Optional<VariableConfig> declared = d.variables().stream().filter(v -> v.name().equals(name)).findFirst();
-        if (declared.isPresent()) {
-            return declared.get();
-        }
-        if (current == null || !current.columns().containsKey(name)) {
-            return null;
-        }
-        return VariableInference.infer(current.columns().get(name)).variable();
     }
 
     /** A relationship alert's plot: both waves' Spearman rho and Pearson r with their intervals. */

@@ -13,6 +13,7 @@ import org.wavewarden.deliver.FindingsFiles;
 import org.wavewarden.deliver.ReleaseDigest;
 import org.wavewarden.deliver.ReleaseReport;
 import org.wavewarden.missing.ScreenedWave;
+import org.wavewarden.missing.VariableInference;
 import org.wavewarden.read.KeyedPairReader;
 import org.wavewarden.read.ReleaseListing;
 import org.wavewarden.read.SourceCatalog;
@@ -120,7 +121,7 @@ public final class ReleaseJudge {
                 + sides.beforeSelection().label();
         ReleaseRevision revision = comparison.finish(scan.before(), scan.after(), (b, a) -> {
             List<String> inference = new ArrayList<>();
-            List<VariableConfig> variables = WaveJudge.variables(d, a.values(), inference);
+            List<VariableConfig> variables = VariableInference.variables(d, a.values(), inference);
             // Releases are compared unweighted: a reweighted release is a revision of its weight cells.
             ScreenedWave later = ScreenedWave.screen(sides.afterSelection().label(), a, null, variables, inference);
             ScreenedWave earlier = ScreenedWave.screen(sides.beforeSelection().label(), b, null, variables, List.of());

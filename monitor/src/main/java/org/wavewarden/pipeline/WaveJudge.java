@@ -42,6 +42,7 @@ import org.wavewarden.read.WaveSource;
 import org.wavewarden.store.OutboxStore;
 import org.wavewarden.store.ResultsStore;
 import org.wavewarden.missing.ScreenedWave;
+import org.wavewarden.missing.VariableInference;
 import org.wavewarden.missing.ScreenedVariable;
 import org.wavewarden.missing.DataQualityFindings;
 
@@ -249,7 +250,7 @@ public final class WaveJudge {
      */
     public static Screened screen(DatasetConfig d, WaveProfile current, WaveProfile baseline) {
         List<String> inference = new ArrayList<>();
-        List<VariableConfig> variables = variables(d, current, inference);
+        List<VariableConfig> variables = VariableInference.variables(d, current.columns().values(), inference);
         boolean weighted = d.weightColumn() != null;
         return new Screened(ScreenedWave.screen(current, weighted, variables, inference),
                 baseline == null ? null : ScreenedWave.screen(baseline, weighted, variables, List.of()));
@@ -534,31 +535,5 @@ public final class WaveJudge {
         WaveProfile p = session.source().withHandle(h -> profile(h, d, source, wave, null));
         session.store().saveSummary(d.name(), p, p.checksum(), SummaryKey.of(d, p.schema()).value());
         return p;
-    }
-
-    private static List<VariableConfig> variables(DatasetConfig d, WaveProfile current, List<String> inference) {
-        return variables(d, current.columns().values(), inference);
-    }
-
-    /** The declared variables, and for every other tallied column the inferred one, described in {@code inference}. */
-    public static List<VariableConfig> variables(DatasetConfig d, java.util.Collection<ColumnTally> tallies,
-                                                 List<String> inference) {
-        List<VariableConfig> out = new ArrayList<>(d.variables());
-        for (ColumnTally t : tallies) {
-            if (d.variables().stream().noneMatch(v -> v.name().equals(t.column()))) {
-                try {
-                    VariableInference.Inferred i = VariableInference.infer(t);
-                    inference.add(VariableInference.describe(i));
-                    out.add(i.variable());
-                } catch (RuntimeException e) {
-                    // Screened as text (for disguised missing values only) rather than lost with the run.
-                    LOG.warn("the kind of column {} could not be inferred: {}", t.column(), e.toString(), e);
-                    inference.add(t.column() + ": kind could not be inferred (" + e.getClass().getSimpleName()
-                            + "); screened as text");
-                    out.add(VariableConfig.inferred(t.column(), VariableKind.TEXT));
-                }
-            }
-        }
-        return out;
     }
 }

@@ -1,6 +1,7 @@
 package org.wavewarden.compare;
 
 import org.junit.jupiter.api.Test;
+import org.wavewarden.profile.NumericDistribution;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
@@ -36,5 +37,15 @@ class ChecksTest {
                 assertThrows(IllegalArgumentException.class, () -> Checks.successes(6, 5, "x", "n")).getMessage());
         assertEquals("n must be positive, was 0",
                 assertThrows(IllegalArgumentException.class, () -> Checks.successes(0, 0, "x", "n")).getMessage());
+    }
+
+    @Test
+    void aTableMustBeGivenAndHoldEnoughObservations() {
+        NumericDistribution one = NumericDistribution.ofSample(4.0);
+        assertEquals(one, Checks.observations(one, 1, "sample"));
+        assertEquals("baseline must not be null", assertThrows(IllegalArgumentException.class,
+                () -> Checks.observations(null, 1, "baseline")).getMessage());
+        assertEquals("current needs at least 2 observations, has 1", assertThrows(IllegalArgumentException.class,
+                () -> Checks.observations(one, 2, "current")).getMessage());
     }
 }

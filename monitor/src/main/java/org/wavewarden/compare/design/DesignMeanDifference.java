@@ -1,9 +1,8 @@
 package org.wavewarden.compare.design;
 
-import org.apache.commons.math3.distribution.TDistribution;
-import org.apache.commons.math3.random.RandomGenerator;
 import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
+import org.wavewarden.compare.StudentT;
 import org.wavewarden.compare.TestResult;
 
 /**
@@ -136,14 +135,11 @@ public final class DesignMeanDifference {
         }
         double d = b.estimate() - a.estimate();
         double t = d / se;
-        // The generator is only used for sampling, which never happens here.
-        TDistribution student = new TDistribution((RandomGenerator) null, df, 1e-12);
-        double p = Math.min(1.0, 2 * student.cumulativeProbability(-Math.abs(t)));
-        double half = student.inverseCumulativeProbability(0.5 + confidence / 2) * se;
+        double p = StudentT.twoSidedP(t, df);
+        double half = StudentT.twoSidedQuantile(df, confidence) * se;
         // The same t referred to R's svyttest df, so that a reader checking with it can see where the p differs.
         TestResult svyttest = df > 1 ? new TestResult("R survey svyttest", t, df - 1,
-                Math.min(1.0, 2 * new TDistribution((RandomGenerator) null, df - 1, 1e-12)
-                        .cumulativeProbability(-Math.abs(t))), "degf - 1") : null;
+                StudentT.twoSidedP(t, df - 1), "degf - 1") : null;
         return new DesignMeanDifferenceResult(a, b, se, new TestResult(NAME, t, df, p, dfConvention),
                 new EffectSize(effectName, d, d - half, d + half, confidence), svyttest);
     }

@@ -20,6 +20,7 @@
  * weights of each value of a variable with few values ({@link org.wavewarden.compare.design.PsuTally}), with the
  * stratum of each PSU, give the same estimates, design effects, two-wave t tests and Rao-Scott tests as the rows.
  * Missing answers follow the domain rule described at {@code PsuTotals}: every PSU of the design stays in the
- * variance, as R's {@code subset} of a survey design keeps it. The read stage does not collect PSU sums yet.
+ * variance, as R's {@code subset} of a survey design keeps it.
+ * The read stage collects these sums in the wave's one scan ({@code read.DesignScan}).
  */
 package org.wavewarden.compare.design;

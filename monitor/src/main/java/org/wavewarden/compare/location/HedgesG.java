@@ -45,12 +45,8 @@ public final class HedgesG {
      *                                  standard deviation is zero
      */
     public static EffectSize estimate(NumericDistribution baseline, NumericDistribution current, double confidence) {
-        if (baseline == null || baseline.n() < 1) {
-            throw new IllegalArgumentException("baseline needs at least 1 observation");
-        }
-        if (current == null || current.n() < 1) {
-            throw new IllegalArgumentException("current needs at least 1 observation");
-        }
+        Checks.observations(baseline, 1, "baseline");
+        Checks.observations(current, 1, "current");
         Checks.confidence(confidence);
         long n1 = baseline.n();
         long n2 = current.n();

@@ -1,7 +1,7 @@
 package org.wavewarden.compare.location;
 
 import org.apache.commons.math3.special.Beta;
-import org.apache.commons.math3.special.Erf;
+import org.wavewarden.compare.StandardNormal;
 import org.apache.commons.math3.special.Gamma;
 
 /**
@@ -62,10 +62,10 @@ public final class NoncentralT {
         if (df > DF_LIMIT || del * del > NCP_SQUARED_LIMIT) {
             double s = 1 / (4 * df);
             double z = (tt * (1 - s) - del) / Math.sqrt(1 + tt * tt * 2 * s);
-            return reflected ? normalCdf(-z) : normalCdf(z);
+            return reflected ? StandardNormal.cdf(-z) : StandardNormal.cdf(z);
         }
         // P(T' <= tt) for T' with noncentrality del: the series covers (0, tt], Phi(-del) the mass below 0
-        double below = Math.min(1.0, series(tt, df, del) + normalCdf(-del));
+        double below = Math.min(1.0, series(tt, df, del) + StandardNormal.cdf(-del));
         return reflected ? Math.max(0.0, 1 - below) : below;
     }
 
@@ -121,7 +121,4 @@ public final class NoncentralT {
         return sum;
     }
 
-    static double normalCdf(double z) {
-        return 0.5 * Erf.erfc(-z / Math.sqrt(2));
-    }
 }

@@ -23,7 +23,7 @@ public final class OneSampleTTest {
      * @param confidence level of the interval, in (0, 1)
      */
     public static MeanDifference test(NumericDistribution sample, double mu, double confidence) {
-        TStatistics.checkAtLeastTwo("sample", sample);
+        Checks.observations(sample, 2, "sample");
         if (!Double.isFinite(mu)) {
             throw new IllegalArgumentException("mu must be finite, was " + mu);
         }

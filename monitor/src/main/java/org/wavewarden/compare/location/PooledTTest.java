@@ -26,12 +26,8 @@ public final class PooledTTest {
      * @throws IllegalArgumentException if the pooled variance is undefined or zero
      */
     public static MeanDifference test(NumericDistribution baseline, NumericDistribution current, double confidence) {
-        if (baseline == null || baseline.n() < 1) {
-            throw new IllegalArgumentException("baseline needs at least 1 observation");
-        }
-        if (current == null || current.n() < 1) {
-            throw new IllegalArgumentException("current needs at least 1 observation");
-        }
+        Checks.observations(baseline, 1, "baseline");
+        Checks.observations(current, 1, "current");
         Checks.confidence(confidence);
         double n1 = baseline.n();
         double n2 = current.n();

@@ -1,39 +1,20 @@
 package org.wavewarden.compare.location;
 
-import org.apache.commons.math3.distribution.TDistribution;
-import org.apache.commons.math3.random.RandomGenerator;
+import org.wavewarden.compare.StudentT;
 import org.wavewarden.compare.TestResult;
-import org.wavewarden.profile.NumericDistribution;
 
-/** Shared arithmetic of the t tests: argument checks, Student t tail areas and quantiles. */
+/** Shared arithmetic of the t tests: argument checks and the result, with Student t from {@link StudentT}. */
 final class TStatistics {
 
     private TStatistics() {
     }
 
-    static void checkAtLeastTwo(String name, NumericDistribution d) {
-        if (d == null) {
-            throw new IllegalArgumentException(name + " must not be null");
-        }
-        if (d.n() < 2) {
-            throw new IllegalArgumentException(name + " needs at least 2 observations, has " + d.n());
-        }
-    }
-
-    static TDistribution student(double df) {
-        // The generator is only used for sampling, which we never do; null avoids seeding one per call.
-        return new TDistribution((RandomGenerator) null, df, 1e-12);
-    }
-
-    /** Two-sided p-value of t on df degrees of freedom, computed from the smaller tail to avoid 1 - (1 - p). */
     static double twoSidedP(double t, double df) {
-        double p = 2 * student(df).cumulativeProbability(-Math.abs(t));
-        return Math.min(1.0, p);
+        return StudentT.twoSidedP(t, df);
     }
 
-    /** Upper (1 + confidence) / 2 quantile, the multiplier of the standard error in a two-sided interval. */
     static double criticalValue(double df, double confidence) {
-        return student(df).inverseCumulativeProbability(0.5 + confidence / 2);
+        return StudentT.twoSidedQuantile(df, confidence);
     }
 
     static MeanDifference result(String name, double estimate, double se, double df, String dfConvention,

@@ -27,8 +27,8 @@ public final class WelchTTest {
      * @throws IllegalArgumentException if a wave has fewer than 2 observations or both waves are constant
      */
     public static MeanDifference test(NumericDistribution baseline, NumericDistribution current, double confidence) {
-        TStatistics.checkAtLeastTwo("baseline", baseline);
-        TStatistics.checkAtLeastTwo("current", current);
+        Checks.observations(baseline, 2, "baseline");
+        Checks.observations(current, 2, "current");
         Checks.confidence(confidence);
         double n1 = baseline.n();
         double n2 = current.n();

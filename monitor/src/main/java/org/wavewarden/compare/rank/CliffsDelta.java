@@ -1,5 +1,6 @@
 package org.wavewarden.compare.rank;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
 import org.wavewarden.profile.NumericDistribution;
 
@@ -33,9 +34,9 @@ public final class CliffsDelta {
     }
 
     public static EffectSize estimate(NumericDistribution baseline, NumericDistribution current, double confidence) {
-        Tables.requireNonEmpty(baseline, "baseline");
-        Tables.requireNonEmpty(current, "current");
-        Tables.requireConfidence(confidence);
+        Checks.observations(baseline, 1, "baseline");
+        Checks.observations(current, 1, "current");
+        Checks.confidence(confidence);
         double nb = baseline.n();
         double nc = current.n();
         int kb = baseline.size();

@@ -1,5 +1,6 @@
 package org.wavewarden.compare.rank;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
 import org.wavewarden.compare.StandardNormal;
 import org.wavewarden.profile.NumericDistribution;
@@ -24,9 +25,9 @@ public final class HodgesLehmann {
 
     /** Shift of {@code current} relative to {@code baseline} with a {@code confidence} interval. */
     public static EffectSize estimate(NumericDistribution baseline, NumericDistribution current, double confidence) {
-        Tables.requireNonEmpty(baseline, "baseline");
-        Tables.requireNonEmpty(current, "current");
-        Tables.requireConfidence(confidence);
+        Checks.observations(baseline, 1, "baseline");
+        Checks.observations(current, 1, "current");
+        Checks.confidence(confidence);
         PairwiseDifferences diffs = new PairwiseDifferences(baseline, current);
         long pairs = diffs.pairs();
 

@@ -1,5 +1,6 @@
 package org.wavewarden.compare.rank;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.StandardNormal;
 import org.wavewarden.compare.TestResult;
 import org.wavewarden.profile.NumericDistribution;
@@ -25,8 +26,8 @@ public final class MannWhitneyTest {
 
     /** Two-sided rank-sum test; W is the U of {@code current}. */
     public static RankSumResult test(NumericDistribution baseline, NumericDistribution current) {
-        Tables.requireNonEmpty(baseline, "baseline");
-        Tables.requireNonEmpty(current, "current");
+        Checks.observations(baseline, 1, "baseline");
+        Checks.observations(current, 1, "current");
         long nb = baseline.n();
         long nc = current.n();
         double n = nb + nc;

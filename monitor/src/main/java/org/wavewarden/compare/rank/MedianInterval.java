@@ -1,6 +1,7 @@
 package org.wavewarden.compare.rank;
 
 import org.apache.commons.math3.distribution.BinomialDistribution;
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
 import org.wavewarden.compare.StandardNormal;
 import org.wavewarden.profile.NumericDistribution;
@@ -31,8 +32,8 @@ public final class MedianInterval {
      * @param confidence level of the interval, in (0, 1)
      */
     public static EffectSize of(NumericDistribution sample, double confidence) {
-        Tables.requireNonEmpty(sample, "sample");
-        Tables.requireConfidence(confidence);
+        Checks.observations(sample, 1, "sample");
+        Checks.confidence(confidence);
         long n = sample.n();
         double median = (orderStatistic(sample, (n - 1) / 2) + orderStatistic(sample, n / 2)) / 2;
         double tail = (1 - confidence) / 2;

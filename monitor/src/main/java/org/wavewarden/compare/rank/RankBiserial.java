@@ -1,5 +1,6 @@
 package org.wavewarden.compare.rank;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
 import org.wavewarden.profile.NumericDistribution;
 
@@ -38,8 +39,8 @@ public final class RankBiserial {
      * @param confidence  level of the interval, in (0, 1)
      */
     public static EffectSize estimate(NumericDistribution differences, double confidence) {
-        Tables.requireNonEmpty(differences, "differences");
-        Tables.requireConfidence(confidence);
+        Checks.observations(differences, 1, "differences");
+        Checks.confidence(confidence);
         int k = differences.size();
         double[] x = new double[k];
         long[] c = new long[k];

@@ -1,11 +1,10 @@
 package org.wavewarden.compare.rank;
 
-import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
 import org.wavewarden.compare.StandardNormal;
 import org.wavewarden.profile.NumericDistribution;
 
-/** Argument checks shared by the rank methods. */
+/** What the rank methods share: the tie term and the Feng-Cliff interval. */
 final class Tables {
 
     private Tables() {
@@ -30,19 +29,6 @@ final class Tables {
         double low = Math.max(-1.0, (centre - spread) / denom);
         double high = Math.min(1.0, (centre + spread) / denom);
         return new EffectSize(name, d, low, high, confidence);
-    }
-
-    static void requireNonEmpty(NumericDistribution d, String name) {
-        if (d == null) {
-            throw new IllegalArgumentException(name + " must not be null");
-        }
-        if (d.size() == 0) {
-            throw new IllegalArgumentException(name + " has no observations");
-        }
-    }
-
-    static void requireConfidence(double confidence) {
-        Checks.confidence(confidence);
     }
 
     /** Sum of t^3 - t over the counts of one table: the within-sample tie term of the rank variance. */

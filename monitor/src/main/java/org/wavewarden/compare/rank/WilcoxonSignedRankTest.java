@@ -1,5 +1,6 @@
 package org.wavewarden.compare.rank;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.StandardNormal;
 import org.wavewarden.compare.TestResult;
 import org.wavewarden.profile.NumericDistribution;
@@ -21,7 +22,7 @@ public final class WilcoxonSignedRankTest {
 
     /** Two-sided test that the distribution of {@code sample} is symmetric about {@code mu}. */
     public static SignedRankResult oneSample(NumericDistribution sample, double mu) {
-        Tables.requireNonEmpty(sample, "sample");
+        Checks.observations(sample, 1, "sample");
         if (!Double.isFinite(mu)) {
             throw new IllegalArgumentException("mu must be finite, was " + mu);
         }

@@ -1,7 +1,6 @@
 package org.wavewarden.compare.relation;
 
 import org.wavewarden.compare.Checks;
-import org.apache.commons.math3.special.Erf;
 import org.apache.commons.math3.util.FastMath;
 import org.wavewarden.compare.StandardNormal;
 
@@ -72,7 +71,7 @@ public final class CorrelationDifference {
         double v1 = c / (n1 - 3);
         double v2 = c / (n2 - 3);
         double z = (z2 - z1) / Math.sqrt(v1 + v2);
-        double p = Math.min(1, Erf.erfc(Math.abs(z) / Math.sqrt(2)));
+        double p = StandardNormal.twoSidedP(z);
 
         double q = StandardNormal.twoSidedQuantile(confidence);
         double l1 = FastMath.tanh(z1 - q * Math.sqrt(v1));

@@ -1,5 +1,6 @@
 package org.wavewarden.compare.shape;
 
+import org.wavewarden.compare.Checks;
 import java.util.ArrayList;
 import java.util.List;
 import org.wavewarden.profile.NumericDistribution;
@@ -31,8 +32,8 @@ public final class PopulationStabilityIndex {
     }
 
     public static PsiResult compute(NumericDistribution baseline, NumericDistribution current) {
-        Union.requireNonEmpty(baseline, "baseline");
-        Union.requireNonEmpty(current, "current");
+        Checks.observations(baseline, 1, "baseline");
+        Checks.observations(current, 1, "current");
         List<Double> cuts = decileCuts(baseline);
 
         int bins = cuts.size() + 1;

@@ -1,5 +1,6 @@
 package org.wavewarden.compare.shape;
 
+import org.wavewarden.compare.Checks;
 import org.wavewarden.profile.NumericDistribution;
 
 /** Two waves' frequency tables laid over the sorted union of their distinct values (one merge, O(k1 + k2)). */
@@ -20,8 +21,8 @@ final class Union {
     }
 
     static Union of(NumericDistribution b, NumericDistribution c) {
-        requireNonEmpty(b, "baseline");
-        requireNonEmpty(c, "current");
+        Checks.observations(b, 1, "baseline");
+        Checks.observations(c, 1, "current");
         int cap = b.size() + c.size();
         double[] v = new double[cap];
         long[] cb = new long[cap];
@@ -49,14 +50,5 @@ final class Union {
 
     int size() {
         return values.length;
-    }
-
-    static void requireNonEmpty(NumericDistribution d, String name) {
-        if (d == null) {
-            throw new IllegalArgumentException(name + " must not be null");
-        }
-        if (d.size() == 0) {
-            throw new IllegalArgumentException(name + " has no observations");
-        }
     }
 }

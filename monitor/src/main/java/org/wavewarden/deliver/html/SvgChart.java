@@ -417,19 +417,7 @@ public final class SvgChart {
         double ymax = Math.max(max(shareB), max(shareC));
         double[] xt = niceTicks(0, ymax > 0 ? ymax * 100 : 1, 6);
         double xtop = xt[xt.length - 1];
-        for (double t : xt) {
-            double x = f.sx(t, 0, xtop);
-            s.append(String.format(Locale.ROOT, "<line class=\"grid\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>",
-                    x, f.y1(), x, f.y0()));
-            s.append(String.format(Locale.ROOT, "<text class=\"tick\" x=\"%.1f\" y=\"%.1f\" text-anchor=\"middle\">%s</text>",
-                    x, f.y0() + 14, esc(tickLabel(t, xt.length > 1 ? xt[1] - xt[0] : 1))));
-        }
-        s.append(String.format(Locale.ROOT, "<line class=\"axis\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>",
-                f.x0(), f.y1(), f.x0(), f.y0()));
-        s.append(String.format(Locale.ROOT, "<line class=\"axis\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>",
-                f.x0(), f.y0(), f.x1(), f.y0()));
-        s.append(String.format(Locale.ROOT, "<text class=\"axis-title\" x=\"%.1f\" y=\"%d\" text-anchor=\"middle\">%s</text>",
-                (f.x0() + f.x1()) / 2, f.height() - 8, esc(axis)));
+        percentAxis(s, f, xt, axis);
         for (int i = 0; i < shown; i++) {
             double y = f.y1() + i * row + 4;
             String label = labels.get(i);
@@ -737,19 +725,7 @@ public final class SvgChart {
         }
         double[] xt = niceTicks(0, top > 0 ? Math.min(100, top * 100) : 1, 6);
         double xtop = xt[xt.length - 1];
-        for (double t : xt) {
-            double x = f.sx(t, 0, xtop);
-            s.append(String.format(Locale.ROOT, "<line class=\"grid\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>",
-                    x, f.y1(), x, f.y0()));
-            s.append(String.format(Locale.ROOT, "<text class=\"tick\" x=\"%.1f\" y=\"%.1f\" text-anchor=\"middle\">%s</text>",
-                    x, f.y0() + 14, esc(tickLabel(t, xt.length > 1 ? xt[1] - xt[0] : 1))));
-        }
-        s.append(String.format(Locale.ROOT, "<line class=\"axis\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>",
-                f.x0(), f.y1(), f.x0(), f.y0()));
-        s.append(String.format(Locale.ROOT, "<line class=\"axis\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>",
-                f.x0(), f.y0(), f.x1(), f.y0()));
-        s.append(String.format(Locale.ROOT, "<text class=\"axis-title\" x=\"%.1f\" y=\"%d\" text-anchor=\"middle\">%s</text>",
-                (f.x0() + f.x1()) / 2, f.height() - 8, esc(shareAxis(plotted))));
+        percentAxis(s, f, xt, shareAxis(plotted));
         for (int i = 0; i < shown; i++) {
             double y = f.y1() + i * row + 4;
             var c = plotted.current().get(i);
@@ -1056,5 +1032,23 @@ public final class SvgChart {
             out[i] = by == 0 ? 0 : (double) a[i] / by;
         }
         return out;
+    }
+
+    /** The horizontal percent axis of a bar chart: grid and tick at each of {@code xt}, both axis lines, the title. */
+    private static void percentAxis(StringBuilder s, Frame f, double[] xt, String title) {
+        double xtop = xt[xt.length - 1];
+        for (double t : xt) {
+            double x = f.sx(t, 0, xtop);
+            s.append(String.format(Locale.ROOT, "<line class=\"grid\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>",
+                    x, f.y1(), x, f.y0()));
+            s.append(String.format(Locale.ROOT, "<text class=\"tick\" x=\"%.1f\" y=\"%.1f\" text-anchor=\"middle\">%s</text>",
+                    x, f.y0() + 14, esc(tickLabel(t, xt.length > 1 ? xt[1] - xt[0] : 1))));
+        }
+        s.append(String.format(Locale.ROOT, "<line class=\"axis\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>",
+                f.x0(), f.y1(), f.x0(), f.y0()));
+        s.append(String.format(Locale.ROOT, "<line class=\"axis\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>",
+                f.x0(), f.y0(), f.x1(), f.y0()));
+        s.append(String.format(Locale.ROOT, "<text class=\"axis-title\" x=\"%.1f\" y=\"%d\" text-anchor=\"middle\">%s</text>",
+                (f.x0() + f.x1()) / 2, f.height() - 8, esc(title)));
     }
 }

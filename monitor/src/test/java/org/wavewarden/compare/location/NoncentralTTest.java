@@ -118,7 +118,7 @@ class NoncentralTTest {
         for (int i = 0; i <= steps; i++) {
             double u = lo + i * h;
             double w = i == 0 || i == steps ? 1 : (i % 2 == 1 ? 4 : 2);
-            sum += w * NoncentralT.normalCdf(t * u - ncp) * densityOfU(u, df);
+            sum += w * org.wavewarden.compare.StandardNormal.cdf(t * u - ncp) * densityOfU(u, df);
         }
         return sum * h / 3;
     }

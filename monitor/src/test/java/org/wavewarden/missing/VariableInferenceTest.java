@@ -1,16 +1,20 @@
-package org.wavewarden.pipeline;
+package org.wavewarden.missing;
 
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
+import org.wavewarden.config.CompareWith;
+import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.config.VariableKind;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
+import org.wavewarden.pipeline.WaveJudge;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.ColumnType;
 
+import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
@@ -79,14 +83,34 @@ class VariableInferenceTest {
         ColumnTally after = tally("respondent_age", ColumnType.INTEGER, ages(16, 94, 20, 3));
         VariableConfig v = VariableInference.infer(after).variable();
         List<Finding> findings = WaveJudge.judgeVariables(
-                org.wavewarden.missing.ScreenedWave.screen("before", Map.of(v.name(), before), null, List.of(v),
+                ScreenedWave.screen("before", Map.of(v.name(), before), null, List.of(v),
                         List.of()),
-                org.wavewarden.missing.ScreenedWave.screen("after", Map.of(v.name(), after), null, List.of(v),
+                ScreenedWave.screen("after", Map.of(v.name(), after), null, List.of(v),
                         List.of()), 0.05, WardenConfig.FdrMethod.BENJAMINI_HOCHBERG, "inference test");
         Finding heaping = findings.stream().filter(f -> f.kind() == FindingKind.HEAPING).findFirst().orElseThrow(
                 () -> new AssertionError("no heaping finding in " + findings));
         // Whipple's index over ages 23-62: 8 of 40 ages end in 0 or 5 and carry 3 times the answers, so the index
         // is 5 * 8 * 60 / (8 * 60 + 32 * 20) * 100 = 214.3 (the definition, United Nations 1955, Manual II).
         assertTrue(heaping.sentence().contains("from 100.0 to 214.3"), heaping.sentence());
+    }
+
+    @Test
+    void aWavesVariablesAreTheDeclaredOnesThenEveryOtherColumnInferredAndDescribed() {
+        VariableConfig declared = VariableConfig.inferred("region", VariableKind.CATEGORICAL);
+        DatasetConfig d = new DatasetConfig("layout", "s.t", "wave", null, null, CompareWith.PREVIOUS, null,
+                List.of(), List.of(declared), null, null, null, null, null, null, null, null, List.of());
+        ColumnTally region = tally("region", ColumnType.INTEGER, Map.of("1", 5L, "2", 5L, "3", 5L));
+        ColumnTally age = tally("age", ColumnType.INTEGER, ages(16, 94, 10, 1));
+        List<String> inference = new ArrayList<>();
+
+        List<VariableConfig> variables = VariableInference.variables(d, List.of(region, age), inference);
+
+        assertEquals(List.of("region", "age"), variables.stream().map(VariableConfig::name).toList());
+        assertEquals(VariableKind.CATEGORICAL, variables.get(0).kind(), "a declaration is not second-guessed");
+        assertEquals(List.of("age: continuous (inferred as an age in years from its name and integer range 16-94)"),
+                inference);
+        assertEquals(variables.get(0), VariableInference.variable(d, "region", region));
+        assertEquals(variables.get(1), VariableInference.variable(d, "age", age), "the digest takes the run's kind");
+        assertNull(VariableInference.variable(d, "gone", null));
     }
 }

@@ -1,11 +1,13 @@
-package org.wavewarden.pipeline;
+package org.wavewarden.missing;
 
+import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.config.VariableKind;
-import org.wavewarden.missing.DisguisedMissingDetector;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.ColumnType;
 
+import java.util.ArrayList;
+import java.util.Collection;
 import java.util.List;
 import java.util.Locale;
 import java.util.regex.Pattern;
@@ -18,6 +20,8 @@ import java.util.regex.Pattern;
  * as a declared age is.
  */
 public final class VariableInference {
+
+    private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(VariableInference.class);
 
     /** At most this many distinct integers: an ordinal scale (0..10 has 11). */
     static final int MAX_SCALE_VALUES = 11;
@@ -37,6 +41,48 @@ public final class VariableInference {
     }
 
     public record Inferred(VariableConfig variable, String reason) {
+    }
+
+    /**
+     * The variables of a wave: the declared ones, and for every other tallied column the inferred one, described in
+     * {@code inference}. A column whose kind cannot be inferred is screened as text (for disguised missing values
+     * only) rather than lost with the run.
+     */
+    public static List<VariableConfig> variables(DatasetConfig d, Collection<ColumnTally> tallies,
+                                                 List<String> inference) {
+        List<VariableConfig> out = new ArrayList<>(d.variables());
+        for (ColumnTally t : tallies) {
+            if (declared(d, t.column()) == null) {
+                out.add(inferOrText(t, inference));
+            }
+        }
+        return out;
+    }
+
+    /**
+     * One column's variable as {@link #variables} makes it: declared, else inferred from its tally (null without
+     * one), so that a later reader of a stored wave takes the column for what the run took it for.
+     */
+    public static VariableConfig variable(DatasetConfig d, String column, ColumnTally tally) {
+        VariableConfig declared = declared(d, column);
+        return declared != null || tally == null ? declared : inferOrText(tally, new ArrayList<>());
+    }
+
+    private static VariableConfig declared(DatasetConfig d, String column) {
+        return d.variables().stream().filter(v -> v.name().equals(column)).findFirst().orElse(null);
+    }
+
+    private static VariableConfig inferOrText(ColumnTally t, List<String> inference) {
+        try {
+            Inferred i = infer(t);
+            inference.add(describe(i));
+            return i.variable();
+        } catch (RuntimeException e) {
+            LOG.warn("the kind of column {} could not be inferred: {}", t.column(), e.toString(), e);
+            inference.add(t.column() + ": kind could not be inferred (" + e.getClass().getSimpleName()
+                    + "); screened as text");
+            return VariableConfig.inferred(t.column(), VariableKind.TEXT);
+        }
     }
 
     public static Inferred infer(ColumnTally t) {
