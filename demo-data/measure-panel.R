@@ -115,14 +115,38 @@ paired_numeric <- function(b, c, v) {
   say("    signed rank: rank-biserial r %s, p %s (wilcox.test paired, normal approximation)", f4(rank_biserial(d)),
       f4(wilcox.test(m[[3]], m[[2]], paired = TRUE, exact = FALSE, correct = FALSE)$p.value))
 }
+# Cohen's h of paired shares with Newcombe's (1998, method 10) interval of the difference carried onto the h scale at
+# the observed mean share (shifted as little as keeps both shares in [0, 1]), as test/resources/proportion/
+# paired-cohens-h.R in the monitor's tests
+paired_h <- function(a, b, c, d, level = 0.95) {
+  g <- function(p) 2 * asin(sqrt(p))
+  wilson <- function(x, n) {
+    ci <- prop.test(x, n, correct = FALSE, conf.level = level)$conf.int
+    c(if (x == 0) 0 else ci[1], if (x == n) 1 else ci[2])
+  }
+  a <- as.numeric(a); b <- as.numeric(b); c <- as.numeric(c); d <- as.numeric(d) # counts past 2^31 in m
+  n <- a + b + c + d; pb <- (a + b) / n; pc <- (a + c) / n
+  wb <- wilson(a + b, n); wc <- wilson(a + c, n)
+  m <- (a + b) * (c + d) * (a + c) * (b + d); A <- a * d - b * c
+  psi <- if (m == 0) 0 else if (A > n / 2) (A - n / 2) / sqrt(m) else if (A >= 0) 0 else A / sqrt(m)
+  D <- pc - pb; dl <- pc - wc[1]; du <- wb[2] - pb; el <- wc[2] - pc; eu <- pb - wb[1]
+  lim <- c(max(-1, D - sqrt(dl^2 - 2 * psi * dl * du + du^2)), min(1, D + sqrt(el^2 - 2 * psi * el * eu + eu^2)))
+  mean <- (pb + pc) / 2
+  hAt <- function(x) {
+    lo <- min(mean + x / 2, mean - x / 2); hi <- max(mean + x / 2, mean - x / 2)
+    s <- if (lo < 0) -lo else if (hi > 1) 1 - hi else 0
+    g(mean + x / 2 + s) - g(mean - x / 2 + s)
+  }
+  c(g(pc) - g(pb), hAt(lim[1]), hAt(lim[2]))
+}
 paired_binary <- function(b, c, v, success) {
   m <- pairs_of(b, c, v); x0 <- m[[2]] == success; x1 <- m[[3]] == success
   n01 <- sum(!x0 & x1); n10 <- sum(x0 & !x1); n <- nrow(m)
-  p0 <- mean(x0); p1 <- mean(x1); phi <- cor(as.numeric(x0), as.numeric(x1))
-  h <- 2 * asin(sqrt(p1)) - 2 * asin(sqrt(p0)); se <- sqrt(2 * (1 - phi) / n)
+  p0 <- mean(x0); p1 <- mean(x1)
+  h <- suppressWarnings(paired_h(sum(x0 & x1), n10, n01, sum(!x0 & !x1)))
   say("%s paired: %d pairs; %s -> %s; %d turned '%s', %d turned away; McNemar X2 %s, p %s; Cohen's h %s (95%% CI %s to %s)",
       v, n, f4(p0), f4(p1), n01, success, n10, f4((n01 - n10)^2 / (n01 + n10)),
-      f4(mcnemar.test(table(x0, x1), correct = FALSE)$p.value), f4(h), f4(h - 1.96 * se), f4(h + 1.96 * se))
+      f4(mcnemar.test(table(x0, x1), correct = FALSE)$p.value), f4(h[1]), f4(h[2]), f4(h[3]))
 }
 stuart_maxwell <- function(b, c, v) {
   m <- pairs_of(b, c, v); lv <- sort(unique(c(m[[2]], m[[3]])))

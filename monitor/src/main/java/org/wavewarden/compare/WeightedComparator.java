@@ -111,14 +111,15 @@ public final class WeightedComparator {
     /**
      * Detail of a weighted continuous or ordinal comparison. The design effects are those of the weighted means
      * (R's {@code deff(svymean(..., deff = "replace"))}), which depend on the variable; the Kish figures in
-     * {@code weighting*} depend on the weights only.
+     * {@code weighting*} depend on the weights only. {@code ksD}, {@code ksPValue} and {@code ksTest} are those of
+     * the variable's shape finding ({@link #shape}), effective sizes and all, so the two never disagree.
      */
     public record LocationDetail(Weighting weightingBaseline, Weighting weightingCurrent, double meanBaseline,
                                  double meanCurrent, double standardErrorBaseline, double standardErrorCurrent,
                                  double meanDesignEffectBaseline, double meanDesignEffectCurrent,
                                  double[] quartilesBaseline, double[] quartilesCurrent, double sdBaseline,
                                  double sdCurrent, EffectSize standardized, EffectSize rawShift, double ksD,
-                                 double ksPValue, Reproduce reproduce, WaveEstimates.Plotted plot) {
+                                 double ksPValue, String ksTest, Reproduce reproduce, WaveEstimates.Plotted plot) {
     }
 
     /**
@@ -193,8 +194,7 @@ public final class WeightedComparator {
         Thresholds.Resolved t = Thresholds.resolve(configured, d.name(), Thresholds.HEDGES_G, unit);
         Weighting wb = Weighting.of(baseline);
         Weighting wc = Weighting.of(current);
-        double ks = WeightedDistribution.cdfDistance(baseline, current);
-        double ksP = KolmogorovSmirnovTest.asymptoticPValue(ks, wb.effectiveSampleSize(), wc.effectiveSampleSize());
+        ShapeTest ks = shapeTest(baseline, current, design, wb, wc);
         WaveEstimates.Plotted plot = new WaveEstimates.Plotted("weighted mean " + variable, design == null
                 ? WaveEstimates.Estimator.WEIGHTED_MEAN : WaveEstimates.Estimator.DESIGN_MEAN, unit,
                 List.of(WaveEstimates.weightedMean(baseline, design == null ? null : design.baselineTotals(),
@@ -205,8 +205,8 @@ public final class WeightedComparator {
                 md.test().df(), md.test().pValue(), md.test().dfConvention());
         LocationDetail detail = new LocationDetail(wb, wc, md.baseline().estimate(), md.current().estimate(),
                 md.baseline().standardError(), md.current().standardError(), md.baseline().designEffect(),
-                md.current().designEffect(), quartiles(baseline), quartiles(current), sdB, sdC, d, raw, ks, ksP,
-                Reproduce.of(test, md), plot);
+                md.current().designEffect(), quartiles(baseline), quartiles(current), sdB, sdC, d, raw, ks.distance(),
+                ks.pValue(), ks.test(), Reproduce.of(test, md), plot);
         Change change = new Change("weighted mean " + variable, plot.baseline().get(0).value(),
                 plot.current().get(0).value(), false, unit, diff.estimate(), diff.ciLow(), diff.ciHigh(),
                 weightingNote(wb, wc));
@@ -230,6 +230,29 @@ public final class WeightedComparator {
     public Comparison shape(String variable, WeightedTally baseline, WeightedTally current, Design design) {
         Weighting wb = Weighting.of(baseline);
         Weighting wc = Weighting.of(current);
+        ShapeTest ks = shapeTest(baseline, current, design, wb, wc);
+        EffectSize d = DistanceInterval.ofEffectiveSizes(ks.distance(), ks.baselineSize(), ks.currentSize(),
+                confidence);
+        Change change = new Change("largest gap between the two waves' weighted cumulative distributions of "
+                + variable, 0, ks.distance(), true, null, ks.distance(), d.ciLow(), d.ciHigh(), ks.note());
+        return new Comparison(variable, FindingKind.SHAPE_CHANGE, TestResult.withoutDf(ks.test(), ks.distance(),
+                ks.pValue()), d, Thresholds.KS_DISTANCE, "default " + Thresholds.KS_DISTANCE + " for the KS distance",
+                baseline.n(), current.n(), change, null);
+    }
+
+    /**
+     * The weighted KS test of one variable, which the shape finding states and the location finding's detail
+     * repeats.
+     *
+     * @param baselineSize the baseline's effective size the p-value and interval take (Kish's, or the design's)
+     * @param note         the weighting note, with the design effect when the design set the sizes
+     */
+    private record ShapeTest(double distance, double baselineSize, double currentSize, double pValue, String test,
+                             String note) {
+    }
+
+    private static ShapeTest shapeTest(WeightedTally baseline, WeightedTally current, Design design, Weighting wb,
+                                       Weighting wc) {
         double ks = WeightedDistribution.cdfDistance(baseline, current);
         double nb = wb.effectiveSampleSize();
         double nc = wc.effectiveSampleSize();
@@ -243,13 +266,7 @@ public final class WeightedComparator {
             note += String.format(Locale.ROOT, "; under the design, largest design effect %.2f of the binned"
                     + " distributions, effective sizes %.0f and %.0f", deff, nb, nc);
         }
-        double p = KolmogorovSmirnovTest.asymptoticPValue(ks, nb, nc);
-        EffectSize d = DistanceInterval.ofEffectiveSizes(ks, nb, nc, confidence);
-        Change change = new Change("largest gap between the two waves' weighted cumulative distributions of "
-                + variable, 0, ks, true, null, ks, d.ciLow(), d.ciHigh(), note);
-        return new Comparison(variable, FindingKind.SHAPE_CHANGE, TestResult.withoutDf(test, ks, p), d,
-                Thresholds.KS_DISTANCE, "default " + Thresholds.KS_DISTANCE + " for the KS distance",
-                baseline.n(), current.n(), change, null);
+        return new ShapeTest(ks, nb, nc, KolmogorovSmirnovTest.asymptoticPValue(ks, nb, nc), test, note);
     }
 
     /**

@@ -2,6 +2,7 @@ package org.wavewarden.judge;
 
 import org.wavewarden.compare.Change;
 import org.wavewarden.compare.Comparison;
+import org.wavewarden.compare.EffectSize;
 
 import java.util.Locale;
 
@@ -156,6 +157,9 @@ public final class Sentences {
         if (verdict != Verdict.UNCERTAIN && verdict != Verdict.STABLE) {
             return "";
         }
+        if (verdict == Verdict.UNCERTAIN && VerdictRule.overruledByShownInterval(qValue, c, alpha)) {
+            return disagreementClause(c, printInterval);
+        }
         double t = c.threshold();
         double lo = c.effect().ciLow();
         double hi = c.effect().ciHigh();
@@ -176,6 +180,33 @@ public final class Sentences {
         }
         return estimateBeyond ? ", but " + interval + " also holds changes smaller than that"
                 : ", but " + interval + " reaches it";
+    }
+
+    /**
+     * Why a share whose test and threshold would have settled it is UNCERTAIN: its effect's interval and the
+     * interval of the difference in points disagree on whether it changed at all ({@link VerdictRule}). Both
+     * intervals are printed with as many decimals as it takes for each to show on which side of zero it ends.
+     */
+    static String disagreementClause(Comparison c, boolean printInterval) {
+        EffectSize effect = c.effect();
+        EffectSize shown = VerdictRule.shownShareDifference(c);
+        boolean effectIncludes = VerdictRule.includesZero(effect);
+        String own = printInterval ? "its interval (" + zeroFaithful(effect.ciLow(), 3, "") + " to "
+                + zeroFaithful(effect.ciHigh(), 3, "") + ")" : "its interval";
+        return ", but " + own + (effectIncludes ? " includes" : " excludes") + " no change while the interval of"
+                + " the difference in points (" + zeroFaithful(shown.ciLow() * 100, 1, "+") + " to "
+                + zeroFaithful(shown.ciHigh() * 100, 1, "+") + ")" + (effectIncludes ? " excludes" : " includes")
+                + " it; the two intervals disagree on whether the share changed at all, so the change is called"
+                + " neither MATERIAL nor STABLE";
+    }
+
+    /** v with at least {@code digits} decimals, more where fewer would print a non-zero limit as 0 or -0. */
+    private static String zeroFaithful(double v, int digits, String plus) {
+        int d = digits;
+        while (d < 8 && v != 0 && Double.parseDouble(num(v, d)) == 0) {
+            d++;
+        }
+        return (v >= 0 ? plus : "") + num(v, d);
     }
 
     private static boolean inside(double lo, double hi, double t) {

@@ -49,19 +49,28 @@ public final class VerdictRule {
         } else {
             v = effect.intervalWithin(threshold) ? Verdict.STABLE : Verdict.UNCERTAIN;
         }
-        if (shown != null && (v == Verdict.MATERIAL || v == Verdict.STABLE)
-                && includesZero(effect) != includesZero(shown)) {
-            return Verdict.UNCERTAIN;
-        }
-        return v;
+        return overruled(v, effect, shown) ? Verdict.UNCERTAIN : v;
     }
 
-    private static boolean includesZero(EffectSize e) {
+    /**
+     * Whether the comparison is UNCERTAIN only because its effect's interval and the interval of the share
+     * difference its sentence shows disagree on whether there was any change, so that the sentence can say so.
+     */
+    public static boolean overruledByShownInterval(double qValue, Comparison c, double alpha) {
+        return overruled(judge(qValue, c.effect(), c.threshold(), alpha, null), c.effect(), shownShareDifference(c));
+    }
+
+    private static boolean overruled(Verdict v, EffectSize effect, EffectSize shown) {
+        return shown != null && (v == Verdict.MATERIAL || v == Verdict.STABLE)
+                && includesZero(effect) != includesZero(shown);
+    }
+
+    static boolean includesZero(EffectSize e) {
         return e.ciLow() <= 0 && e.ciHigh() >= 0;
     }
 
     /** The difference of shares a share's finding shows, when its verdict is judged on another scale. */
-    private static EffectSize shownShareDifference(Comparison c) {
+    static EffectSize shownShareDifference(Comparison c) {
         EffectSize shown = c.detail() instanceof VariableComparator.ProportionDetail d ? d.riskDifference()
                 : c.detail() instanceof WeightedComparator.ProportionDetail w ? w.shareDifference() : null;
         return shown == null || shown.equals(c.effect()) ? null : shown;

@@ -208,4 +208,50 @@ class SentencesTest {
             assertTrue(x.sentence().contains("over the 200 tests of this run, "), x.sentence());
         }
     }
+
+    @Test
+    void aShareMadeUncertainBecauseItsTwoIntervalsDisagreeAboutNoChangeSaysSoWithBothIntervals() {
+        // 2/14 -> 17/39 (VerdictRuleTest): p = 0.0498 below alpha, h 0.63 beyond 0.2, but Newcombe's interval of
+        // the difference, -0.06 to +47.8 points, includes no change while h's interval does not.
+        Comparison c = new VariableComparator(0.95).proportion("v", FindingKind.SHIFT, "answering 'yes'", 2, 14, 17,
+                39, null);
+        Finding f = judgedAlone(c);
+        String s = f.sentence();
+        assertEquals(Verdict.UNCERTAIN, f.verdict());
+        assertTrue(f.qValue() < ALPHA);
+        Matcher m = Pattern.compile("but its interval \\((-?[0-9.]+) to (-?[0-9.]+)\\) excludes no change while the"
+                + " interval of the difference in points \\(([-+][0-9.]+) to ([-+][0-9.]+)\\) includes it; the two"
+                + " intervals disagree on whether the share changed at all, so the change is called neither MATERIAL"
+                + " nor STABLE: UNCERTAIN\\.$").matcher(s);
+        assertTrue(m.find(), s);
+        double hLow = Double.parseDouble(m.group(1));
+        double hHigh = Double.parseDouble(m.group(2));
+        double dLow = Double.parseDouble(m.group(3));
+        double dHigh = Double.parseDouble(m.group(4));
+        assertTrue(hLow > 0 && hHigh > hLow, "the printed h interval excludes 0: " + s);
+        assertTrue(dLow < 0 && dHigh > 0, "the printed difference interval includes 0: " + s);
+        assertEquals(c.effect().ciLow(), hLow, 0.0005);
+        assertEquals(c.change().ciLow() * 100, dLow, 0.05);
+        assertEquals(c.change().ciHigh() * 100, dHigh, 0.05);
+        assertFalse(s.contains("cannot tell it from chance"), s);
+        assertFalse(s.contains("also holds changes smaller"), s);
+    }
+
+    @Test
+    void aShareWhoseHIntervalIsQuietButWhoseDifferenceExcludesNoChangeSaysWhyItIsNotStable() {
+        // Constructed case (the numbers need no outside reference: only the wording is under test): h's interval
+        // lies inside 0.2 and includes 0, the difference's interval, +0.04 to +5.0 points, excludes it.
+        EffectSize h = new EffectSize("Cohen's h", 0.05, -0.01, 0.15, 0.95);
+        EffectSize rd = new EffectSize("risk difference", 0.02, 0.0004, 0.05, 0.95);
+        Comparison c = new Comparison("v", FindingKind.SHIFT, new TestResult("two-proportion z", 1.2, Double.NaN, 0.2),
+                h, 0.2, "default", 300, 300, new Change("share answering 'yes'", 0.30, 0.32, true, null, 0.02, 0.0004,
+                0.05, ""), new VariableComparator.ProportionDetail("yes", 0.30, 0.32, rd, h, "", null));
+        Finding f = judgedAlone(c);
+        assertEquals(Verdict.UNCERTAIN, f.verdict());
+        assertTrue(f.sentence().endsWith(", but its interval (-0.010 to 0.150) includes no change while the interval"
+                + " of the difference in points (+0.04 to +5.0) excludes it; the two intervals disagree on whether the"
+                + " share changed at all, so the change is called neither MATERIAL nor STABLE: UNCERTAIN."),
+                f.sentence());
+        assertFalse(f.sentence().contains("rules out"), f.sentence());
+    }
 }

@@ -46,7 +46,7 @@ public final class CohensH {
         return new EffectSize(NAME, h, low, high, confidence);
     }
 
-    private static double transform(double p) {
+    static double transform(double p) {
         return 2 * Math.asin(Math.sqrt(p));
     }
 }

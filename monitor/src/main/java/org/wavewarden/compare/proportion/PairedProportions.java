@@ -2,7 +2,6 @@ package org.wavewarden.compare.proportion;
 
 import org.wavewarden.compare.Checks;
 import org.wavewarden.compare.EffectSize;
-import org.wavewarden.compare.StandardNormal;
 
 /**
  * Effect sizes for a binary answer given by the same respondents at two waves, from the paired 2 x 2 table
@@ -57,28 +56,44 @@ public final class PairedProportions {
     }
 
     /**
-     * Cohen's h of the two shares, {@code 2 asin(sqrt(pC)) - 2 asin(sqrt(pB))} (Cohen 1988, chapter 6), with an
-     * interval whose variance accounts for the pairing. By the delta method each transformed share has variance
-     * close to 1/n whatever its value (Cohen 1988, section 6.2), and their covariance is {@code phi / n}, phi the
-     * correlation of the two answers across respondents (the phi coefficient of the paired table,
-     * {@code (ad - bc) / sqrt(m)}), so {@code Var(h) = 2 (1 - phi) / n} and the interval is
-     * {@code h +- z sqrt(2 (1 - phi) / n)}. When a share is 0 or 1 phi is undefined and taken as 0, which gives
-     * the Wald interval {@code h +- z sqrt(2 / n)} of two independent samples of n (the independent samples'
-     * {@link CohensH} takes the score-based MOVER interval instead).
+     * Cohen's h of the two shares, {@code g(pC) - g(pB)} with {@code g(p) = 2 asin(sqrt(p))} (Cohen 1988, chapter 6),
+     * with Newcombe's interval of the difference ({@link #riskDifference}) carried onto the h scale: with the mean
+     * share {@code m = (pB + pC) / 2} held at its estimate, {@code h(D) = g(m + D/2 + s) - g(m - D/2 + s)}, s the
+     * least shift that keeps both shares in [0, 1] (so that their difference stays D). h(D) is increasing in D,
+     * equals h at the observed D and 0 at D = 0, so its limits are h(L) and h(U), and h's interval includes no
+     * change exactly when the difference's interval, which the sentence prints beside h, does. To first order
+     * h = g'(m) D; the error of m enters only at the order of D times that error. Measured by simulation (R 4.2.2,
+     * 2,000 tables per case from a multinomial, n = 30 and 100, six cell-probability settings including a share
+     * of exactly 0 and heavy correlation; the test resource proportion/paired-cohens-h-coverage.R) the 95% interval
+     * covered the true h in 95.3% to 100% of tables, each time at least as often as Newcombe's covered the true
+     * difference, within 0.5 points.
+     *
+     * <p>The Wald interval {@code h +- z sqrt(2 (1 - phi) / n)} excluded 0 at 4 pairs moving away and none towards
+     * (4/31 to 0/31) while Newcombe's interval included it; a MOVER interval of the Wilson limits on the arcsine
+     * scale (what {@link CohensH} uses for independent waves) still did there (upper limit -0.003).
      */
     public static EffectSize cohensH(long bothYes, long yesNo, long noYes, long bothNo, double confidence) {
-        long n = total(bothYes, yesNo, noYes, bothNo);
-        Checks.confidence(confidence);
-        long yesB = bothYes + yesNo;
-        long yesC = bothYes + noYes;
-        long noB = noYes + bothNo;
-        long noC = yesNo + bothNo;
-        double phi = yesB > 0 && noB > 0 && yesC > 0 && noC > 0
-                ? ((double) bothYes * bothNo - (double) yesNo * noYes) / Math.sqrt((double) yesB * noB * yesC * noC)
-                : 0;
-        double h = 2 * Math.asin(Math.sqrt((double) yesC / n)) - 2 * Math.asin(Math.sqrt((double) yesB / n));
-        double half = StandardNormal.twoSidedQuantile(confidence) * Math.sqrt(Math.max(0, 2 * (1 - phi)) / n);
-        return new EffectSize(CohensH.NAME, h, h - half, h + half, confidence);
+        EffectSize d = riskDifference(bothYes, yesNo, noYes, bothNo, confidence);
+        long n = bothYes + yesNo + noYes + bothNo;
+        double pB = (double) (bothYes + yesNo) / n;
+        double pC = (double) (bothYes + noYes) / n;
+        double m = (pB + pC) / 2;
+        double h = CohensH.transform(pC) - CohensH.transform(pB);
+        return new EffectSize(CohensH.NAME, h, hAt(m, d.ciLow()), hAt(m, d.ciHigh()), confidence);
+    }
+
+    private static double hAt(double meanShare, double difference) {
+        double current = meanShare + difference / 2;
+        double baseline = meanShare - difference / 2;
+        double low = Math.min(current, baseline);
+        double high = Math.max(current, baseline);
+        double shift = low < 0 ? -low : high > 1 ? 1 - high : 0;
+        // rounding of m +- D/2 must not take a share a hair outside [0, 1], where asin(sqrt(p)) is NaN
+        return CohensH.transform(clamp(current + shift)) - CohensH.transform(clamp(baseline + shift));
+    }
+
+    private static double clamp(double p) {
+        return Math.min(1, Math.max(0, p));
     }
 
     private static long total(long bothYes, long yesNo, long noYes, long bothNo) {

@@ -118,4 +118,27 @@ class WeightedDesignEffectsTest {
                 + kishRate);
         assertTrue(kishRate > 0.25, "design " + designRate + ", Kish " + kishRate);
     }
+
+    @Test
+    void theLocationFindingsDetailReportsTheShapeFindingsKsTestUnderTheDesign() {
+        Random r = new Random(7);
+        DesignData.Wave a = clusteredWave(r);
+        DesignData.Wave b = clusteredWave(r);
+        WeightedTally ta = WeightedTally.ofSample(a.y(), a.w());
+        WeightedTally tb = WeightedTally.ofSample(b.y(), b.w());
+        PsuTally pa = PsuTally.ofSample(a.y(), a.design());
+        PsuTally pb = PsuTally.ofSample(b.y(), b.design());
+        WeightedComparator.Design design = new WeightedComparator.Design(pa, pb, pa.totals(), pb.totals());
+        Comparison shape = WEIGHTED.shape("y", ta, tb, design);
+        var detail = (WeightedComparator.LocationDetail) WEIGHTED.numeric("y", ta, tb, design, null, null).detail();
+        assertEquals(WeightedComparator.SHAPE_TEST_DESIGN, detail.ksTest());
+        assertEquals(shape.test().statistic(), detail.ksD(), 0);
+        assertEquals(shape.test().pValue(), detail.ksPValue(), 0);
+        // the weights alone would give another p for the same distance: the detail must not fall back to it
+        double kish = WEIGHTED.shape("y", ta, tb).test().pValue();
+        assertTrue(Math.abs(kish - detail.ksPValue()) > 0.01, "Kish " + kish + ", design " + detail.ksPValue());
+        var weightsOnly = (WeightedComparator.LocationDetail) WEIGHTED.numeric("y", ta, tb, null, null).detail();
+        assertEquals(WeightedComparator.SHAPE_TEST, weightsOnly.ksTest());
+        assertEquals(kish, weightsOnly.ksPValue(), 0);
+    }
 }

@@ -186,14 +186,12 @@ class PanelComparisonsTest {
         // the corrected form, reported beside it: X2 = 16.82, p = 4.11e-05 (CHECK-SOURCES; R correct = TRUE)
         assertEquals(16.82, b.continuityCorrectedStatistic(), 0.005);
         assertEquals(4.1145622813459436e-05, b.continuityCorrectedPValue(), 1e-14);
-        // Cohen's h of 880/1600 against 944/1600 with the paired interval h +- z sqrt(2 (1 - phi) / n); R 4.2.2 on
-        // the 1,600 raw answer pairs xb, xc: phi <- cor(xb, xc) = 0.70192580690593021,
-        //   h <- 2 * asin(sqrt(mean(xc))) - 2 * asin(sqrt(mean(xb)))
-        //   h + c(-1, 1) * qnorm(0.975) * sqrt(2 * (1 - phi) / 1600)
+        // Cohen's h of 880/1600 against 944/1600 with Newcombe's paired interval of the difference carried onto
+        // the h scale: R 4.2.2, the script test/resources/proportion/paired-cohens-h.R (its first row)
         assertEquals("Cohen's h", c.effect().name());
         assertEquals(-0.080819030084987808, c.effect().estimate(), 1e-12);
-        assertEquals(-0.11865155145025136, c.effect().ciLow(), 1e-10);
-        assertEquals(-0.042986508719724266, c.effect().ciHigh(), 1e-10);
+        assertEquals(-0.1186493017913528, c.effect().ciLow(), 1e-10);
+        assertEquals(-0.04288666659554341, c.effect().ciHigh(), 1e-10);
         assertEquals(0.2, c.threshold());
         assertEquals(0.59, c.change().before(), 1e-12);
         assertEquals(0.55, c.change().after(), 1e-12);
