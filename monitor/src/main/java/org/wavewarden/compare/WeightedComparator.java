@@ -251,7 +251,8 @@ public final class WeightedComparator {
                 + variable, 0, ks, true, null, ks, d.ciLow(), d.ciHigh(), note);
         return new Comparison(variable, FindingKind.SHAPE_CHANGE, TestResult.withoutDf(test, ks, p), d,
                 Thresholds.KS_DISTANCE, "default " + Thresholds.KS_DISTANCE + " for the KS distance",
-                baseline.n(), current.n(), change, null);
+                baseline.n(), current.n(), change,
+                org.wavewarden.compare.shape.CumulativeGap.of(baseline, current, d, null));
     }
 
     /**

@@ -100,6 +100,8 @@ class SentenceNumbersTest {
     static final Pattern MISSING_NOTE = Pattern.compile("; note that ([\\d,]+) of ([\\d,]+) rows \\(([0-9.]+)%\\)"
             + " have no valid answer this wave against ([\\d,]+) of ([\\d,]+) \\(([0-9.]+)%\\) before, so the shift"
             + " rests on the ([\\d,]+) rows \\(([0-9.]+)%\\) that answered");
+    /** An ISO date, which a date finding's detail holds as text. */
+    static final Pattern DATE = Pattern.compile("\\b\\d{4}-\\d{2}-\\d{2}\\b");
     /** The sources of magnitude words, named beside them. */
     static final Pattern CITATION = Pattern.compile("(Cohen|Romano et al\\.) \\d{4}");
 
@@ -122,7 +124,14 @@ class SentenceNumbersTest {
             s = s.replace("wave " + w, " ");
         }
 
-        Matcher m = MISSING_NOTE.matcher(s);
+        Matcher m = DATE.matcher(s);
+        while (m.find()) {
+            if (!texts(json.path("detail")).contains(m.group())) {
+                problems.add(where + "the date " + m.group() + " is not a date of the finding (" + f.sentence() + ")");
+            }
+        }
+        s = DATE.matcher(s).replaceAll(" ");
+        m = MISSING_NOTE.matcher(s);
         if (m.find()) {
             Optional<Finding> rate = r.findings().stream().filter(x -> x.variable().equals(f.variable())
                     && x.kind() == FindingKind.MISSING_RATE_CHANGE).findFirst();
@@ -236,6 +245,27 @@ class SentenceNumbersTest {
         } else if (node.isArray()) {
             node.forEach(n -> collect(n, key, numbers, verbatim));
         }
+    }
+
+    /** Every text value in a finding's detail, and each day number in it as the ISO date it falls on. */
+    static List<String> texts(JsonNode node) {
+        List<String> out = new ArrayList<>();
+        if (node.isTextual()) {
+            out.add(node.asText());
+        } else if (node.isContainerNode()) {
+            node.forEach(n -> out.addAll(texts(n)));
+        }
+        if (node.isObject()) {
+            for (String interval : List.of("medianBaselineInterval", "medianCurrentInterval")) {
+                for (String limit : List.of("ciLow", "ciHigh")) {
+                    JsonNode day = node.path(interval).path(limit);
+                    if (day.isNumber()) {
+                        out.add(java.time.LocalDate.ofEpochDay((long) Math.floor(day.asDouble())).toString());
+                    }
+                }
+            }
+        }
+        return out;
     }
 
     /** Whether {@code value * scale} prints as {@code printed} at the printed number of decimals. */

@@ -266,6 +266,12 @@ public final class HtmlDigest {
         if (p instanceof VariablePlot.EstimatePlot e) {
             return SvgChart.estimates(variable, e, baselineWave, currentWave);
         }
+        if (p instanceof VariablePlot.CumulativePlot c) {
+            return SvgChart.cumulative(variable, c, baselineWave, currentWave);
+        }
+        if (p instanceof VariablePlot.DatePlot d) {
+            return SvgChart.dates(variable, d, baselineWave, currentWave);
+        }
         return SvgChart.missing(variable, (VariablePlot.MissingPlot) p, baselineWave, currentWave);
     }
 
