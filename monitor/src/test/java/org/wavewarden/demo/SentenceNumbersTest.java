@@ -32,7 +32,8 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
  * points). A few are checked by the rule that wrote them: "p = 0.14" against the p-value, "about 1 in 7" against
  * 1 / p, "over the 40 tests of this run" against the family the q-values were adjusted over, "95% CI" against the
  * run's alpha, "12 of 480 rows (2.5%)" by dividing the two counts, "6.6 times as many" by dividing the two shares,
- * and the missing-rate note by the rows of the variable's MISSING_RATE_CHANGE finding. Text the detector wrote
+ * the missing-rate note by the rows of the variable's MISSING_RATE_CHANGE finding, and an ISO date (a date
+ * comparison's medians, spans and the medians' interval limits) against the dates of the finding's detail. Text the detector wrote
  * (a candidate's {@code evidence}) is held in the JSON as it is printed and is not read again.
  */
 class SentenceNumbersTest {
