@@ -2,6 +2,7 @@ package org.wavewarden.compare;
 
 import org.wavewarden.judge.FindingKind;
 import org.wavewarden.missing.DisguisedMissingDetector;
+import org.wavewarden.compare.rank.MedianInterval;
 import org.wavewarden.profile.NumericDistribution;
 
 import java.time.LocalDate;
@@ -49,10 +50,19 @@ public final class DateComparison {
      * @param shareOutsideBaselineSpan share of the current wave's dates before the baseline's earliest or after its
      *                                latest date
      * @param medianShiftDays         current median minus baseline median, in days
+     * @param medianBaselineInterval  the baseline's median day number (days since 1970-01-01) with its
+     *                                distribution-free order-statistic interval ({@link MedianInterval})
+     * @param medianCurrentInterval   the same for the current wave
      */
     public record DateDetail(String medianBaseline, String medianCurrent, String earliestBaseline,
                              String latestBaseline, String earliestCurrent, String latestCurrent,
-                             double shareOutsideBaselineSpan, double medianShiftDays) {
+                             double shareOutsideBaselineSpan, double medianShiftDays,
+                             EffectSize medianBaselineInterval, EffectSize medianCurrentInterval) {
+
+        /** A day number as the ISO date it falls on; null for none. */
+        public static String date(double day) {
+            return Double.isNaN(day) ? null : DateComparison.date(day);
+        }
     }
 
     /**
@@ -81,8 +91,10 @@ public final class DateComparison {
             outside += c.value(i) < first || c.value(i) > last ? c.count(i) : 0;
         }
         double outsideShare = (double) outside / c.n();
+        double confidence = ks.effect().confidence();
         DateDetail detail = new DateDetail(date(medB), date(medC), date(first), date(last), date(c.value(0)),
-                date(c.value(c.size() - 1)), outsideShare, medC - medB);
+                date(c.value(c.size() - 1)), outsideShare, medC - medB, MedianInterval.of(b, confidence),
+                MedianInterval.of(c, confidence));
         String note = String.format(Locale.ROOT, "median date %s in the baseline and %s in this wave; %.1f%% of this"
                         + " wave's dates lie outside the baseline's span %s to %s; the verdict is on the KS distance"
                         + " between the two waves' distributions of dates", detail.medianBaseline(),

@@ -204,7 +204,8 @@ public final class VariableComparator {
                 ks.d(), true, null, ks.d(), d.ciLow(), d.ciHigh(), "Wasserstein distance " + String.format(java.util.Locale.ROOT,
                 "%.3g", w1) + (unit == null ? "" : " " + unit));
         return new Comparison(variable, FindingKind.SHAPE_CHANGE, ks.test(), d, Thresholds.KS_DISTANCE,
-                "default " + Thresholds.KS_DISTANCE + " for the KS distance", baseline.n(), current.n(), change, null);
+                "default " + Thresholds.KS_DISTANCE + " for the KS distance", baseline.n(), current.n(), change,
+                org.wavewarden.compare.shape.CumulativeGap.of(baseline, current, d, unit));
     }
 
     /**

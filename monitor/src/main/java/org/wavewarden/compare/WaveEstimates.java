@@ -139,16 +139,20 @@ public final class WaveEstimates {
 
     /** A mean with Student's t interval. */
     public static Estimate mean(NumericDistribution d, double confidence) {
-        long n = d.n();
+        return d.n() == 0 ? mean(0, Double.NaN, Double.NaN, confidence)
+                : mean(d.n(), d.mean(), d.n() < 2 ? Double.NaN : d.standardDeviation(), confidence);
+    }
+
+    /** A mean of {@code n} answers with sample standard deviation {@code sd}: Student's t interval on n - 1 df. */
+    public static Estimate mean(long n, double mean, double sd, double confidence) {
         if (n == 0) {
             return new Estimate(null, Double.NaN, Double.NaN, Double.NaN);
         }
-        double m = d.mean();
-        if (n < 2) {
-            return new Estimate(null, m, Double.NaN, Double.NaN);
+        if (n < 2 || Double.isNaN(sd)) {
+            return new Estimate(null, mean, Double.NaN, Double.NaN);
         }
-        double half = StudentT.twoSidedQuantile(n - 1, confidence) * d.standardDeviation() / Math.sqrt(n);
-        return new Estimate(null, m, m - half, m + half);
+        double half = StudentT.twoSidedQuantile(n - 1, confidence) * sd / Math.sqrt(n);
+        return new Estimate(null, mean, mean - half, mean + half);
     }
 
     /** A weighted mean from its design-based estimate, t on {@code df} degrees of freedom. */

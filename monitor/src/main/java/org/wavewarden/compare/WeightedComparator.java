@@ -237,7 +237,8 @@ public final class WeightedComparator {
                 + variable, 0, ks.distance(), true, null, ks.distance(), d.ciLow(), d.ciHigh(), ks.note());
         return new Comparison(variable, FindingKind.SHAPE_CHANGE, TestResult.withoutDf(ks.test(), ks.distance(),
                 ks.pValue()), d, Thresholds.KS_DISTANCE, "default " + Thresholds.KS_DISTANCE + " for the KS distance",
-                baseline.n(), current.n(), change, null);
+                baseline.n(), current.n(), change,
+                org.wavewarden.compare.shape.CumulativeGap.of(baseline, current, d, null));
     }
 
     /**

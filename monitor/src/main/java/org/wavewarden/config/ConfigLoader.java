@@ -766,7 +766,9 @@ public final class ConfigLoader {
                     EffectScale tightest = EffectScale.tightest(kind);
                     if (tightest == null) {
                         throw new ConfigException(path + ".effect", "effect-scale thresholds apply to compared"
-                                + " variables; a " + kind.configName() + " variable is screened, not compared");
+                                + " variables; a " + kind.configName() + (kind == VariableKind.DATE
+                                ? " variable is judged on the KS distance against its fixed 0.1"
+                                : " variable is screened, not compared"));
                     }
                     if (value > tightest.max()) {
                         throw new ConfigException(path + ".effect", "effect-scale thresholds of " + kind.configName()

@@ -14,7 +14,7 @@ public enum VariableKind {
     BINARY,
     /** Free text: screened for disguised missing values, not compared as a distribution. */
     TEXT,
-    /** Calendar dates: screened for sentinel dates, not compared as a distribution. */
+    /** Calendar dates: screened for sentinel dates, then compared as distributions of dates (KS distance). */
     DATE;
 
     public String configName() {

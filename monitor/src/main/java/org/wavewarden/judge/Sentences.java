@@ -27,6 +27,9 @@ public final class Sentences {
         if (c.kind() == FindingKind.RELATIONSHIP_CHANGE) {
             return relationship(c, qValue, verdict, alpha, familySize);
         }
+        if (c.detail() instanceof org.wavewarden.compare.DateComparison.DateDetail d) {
+            return dates(c, d, qValue, verdict, alpha, familySize);
+        }
         if (c.kind() == FindingKind.SHAPE_CHANGE) {
             return String.format(Locale.ROOT, "The shape of %s's distribution changed although its typical value did"
                             + " not: the %s is %.1f points (%d%% CI %.1f to %.1f; %s); %s: %s.",
@@ -248,6 +251,49 @@ public final class Sentences {
                     + " they were summarised in bins: each value stands within %.2g%% of the one it replaces, and"
                     + " values sharing a bin count as ties.", 100 * d.relativeError()));
         }
+        return s.toString();
+    }
+
+    /**
+     * "The median date of visit_date moved from 2024-03-02 to 2024-05-10 (+69 days; 95% CI 2024-02-20 to 2024-03-15
+     * and 2024-05-01 to 2024-05-20); 22.1% of this wave's dates lie outside the baseline's span 2023-01-01 to
+     * 2023-12-31; p = ...; KS distance 0.277 (95% CI 0.210 to 0.344), at or above the 0.1 threshold: MATERIAL." Every
+     * date and number is a field of the finding's {@code DateDetail} or its effect; a date has no mean, and the
+     * verdict is on the distance between the two waves' distributions of dates, which the sentence names last.
+     */
+    static String dates(Comparison c, org.wavewarden.compare.DateComparison.DateDetail d, double qValue,
+                        Verdict verdict, double alpha, int familySize) {
+        StringBuilder s = new StringBuilder("The median date of ").append(c.variable()).append(' ');
+        long level = Math.round(c.effect().confidence() * 100);
+        if (d.medianBaseline().equals(d.medianCurrent())) {
+            s.append("stayed at ").append(d.medianCurrent()).append(" (");
+        } else {
+            double days = d.medianShiftDays();
+            s.append("moved from ").append(d.medianBaseline()).append(" to ").append(d.medianCurrent()).append(" (")
+                    .append(days == Math.rint(days) ? String.format(Locale.ROOT, "%+d", (long) days)
+                            : String.format(Locale.ROOT, "%+.2f", days))
+                    .append(Math.abs(days) == 1 ? " day" : " days").append("; ");
+        }
+        String lowB = org.wavewarden.compare.DateComparison.DateDetail.date(d.medianBaselineInterval().ciLow());
+        String lowC = org.wavewarden.compare.DateComparison.DateDetail.date(d.medianCurrentInterval().ciLow());
+        if (lowB != null && lowC != null) {
+            s.append(level).append("% CI of the medians ").append(lowB).append(" to ")
+                    .append(org.wavewarden.compare.DateComparison.DateDetail.date(d.medianBaselineInterval().ciHigh()))
+                    .append(" and ").append(lowC).append(" to ")
+                    .append(org.wavewarden.compare.DateComparison.DateDetail.date(d.medianCurrentInterval().ciHigh()));
+        } else {
+            s.append("too few dates for an interval of the medians");
+        }
+        s.append(String.format(Locale.ROOT, "); %.1f%% of this wave's dates lie outside the baseline's span %s to %s;"
+                        + " ", 100 * d.shareOutsideBaselineSpan(), d.earliestBaseline(), d.latestBaseline()));
+        s.append(chance(c.test().pValue(), qValue, familySize));
+        s.append("; ").append(c.effect().name()).append(' ').append(num(c.effect().estimate(), 3)).append(" (")
+                .append(level).append("% CI ").append(num(c.effect().ciLow(), 3)).append(" to ")
+                .append(num(c.effect().ciHigh(), 3)).append(')');
+        boolean beyond = Math.abs(c.effect().estimate()) >= c.threshold();
+        s.append(beyond ? ", at or above" : ", below").append(" the ").append(thresholdText(c)).append(" threshold");
+        s.append(intervalClause(c, beyond, verdict, qValue, alpha, false));
+        s.append(": ").append(verdict.name()).append('.');
         return s.toString();
     }
 

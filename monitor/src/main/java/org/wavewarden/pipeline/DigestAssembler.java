@@ -1,6 +1,8 @@
 package org.wavewarden.pipeline;
 
+import org.wavewarden.compare.DateComparison;
 import org.wavewarden.compare.WaveEstimates;
+import org.wavewarden.compare.shape.CumulativeGap;
 import org.wavewarden.compare.DesignViews;
 import org.wavewarden.compare.design.PsuTally;
 import org.wavewarden.compare.design.PsuTotals;
@@ -48,6 +50,8 @@ public final class DigestAssembler {
     private final Map<String, Optional<WaveProfile>> summaries = new HashMap<>();
     /** Each wave's answers of a variable screened once per digest, keyed by wave and variable. */
     private final Map<List<Object>, ScreenedWave> screened = new HashMap<>();
+    /** Each wave's report, from the digest's own or the store's latest run; empty when the wave was never judged. */
+    private final Map<String, Optional<FindingsReport>> judged = new HashMap<>();
 
     public DigestAssembler(Session session) {
         this.session = session;
@@ -57,6 +61,9 @@ public final class DigestAssembler {
         List<WaveInfo> listed = new WaveJudge(session, java.time.Clock.systemUTC()).waves(d);
         List<String> order = listed.stream().map(WaveInfo::wave).toList();
         List<WaveSection> sections = new ArrayList<>();
+        for (FindingsReport r : reports) {
+            judged.put(r.wave(), Optional.of(r));
+        }
         for (FindingsReport r : reports) {
             WaveProfile current = summary(d, r.wave()).orElse(null);
             WaveProfile baseline = baseline(d, listed, r);
@@ -71,11 +78,32 @@ public final class DigestAssembler {
                 try {
                     FaultPoints.hit(FaultPoints.PLOT_VARIABLE + f.variable());
                     WaveEstimates.Plotted plotted = plotted(f);
-                    if (f.detail() instanceof RelationshipDetail rd) {
-                        plot = correlations(rd, id);
+                    VariablePlot own = findingPlot(f, id);
+                    if (own instanceof VariablePlot.CorrelationPlot) {
+                        plot = own;
                         trend = null;
+                    } else if (own instanceof VariablePlot.CumulativePlot cp) {
+                        plot = own;
+                        trend = findingTrend(d, order, r, f, cp.shape().weighted() ? "weighted KS distance"
+                                : "KS distance", null, false, null, g -> {
+                            CumulativeGap.ShapeDetail x = detail(g, CumulativeGap.ShapeDetail.class, "cdfBaseline");
+                            return x == null ? null : new WaveEstimates.Estimate(null, x.distance(),
+                                    x.interval().ciLow(), x.interval().ciHigh());
+                        }, null, id);
+                    } else if (own instanceof VariablePlot.DatePlot) {
+                        plot = own;
+                        trend = null;
+                    } else if (plotted != null && f.kind() == FindingKind.PANEL_SHIFT) {
+                        plot = own;
+                        String category = plotted.category();
+                        trend = findingTrend(d, order, r, f, plotted.statistic() + ", each wave paired with the one"
+                                + " before", plotted.unit(), plotted.estimator().percent(), category, g -> {
+                            WaveEstimates.Plotted x = plotted(g);
+                            return x == null ? null : x.current().stream().filter(e -> java.util.Objects.equals(
+                                    category, e.category())).findFirst().orElse(null);
+                        }, plotted.baseline().isEmpty() ? null : plotted.baseline().get(0), id);
                     } else if (plotted != null) {
-                        plot = new VariablePlot.EstimatePlot(id, plotted);
+                        plot = own;
                         trend = v == null ? null : trend(d, order, r.wave(), v, f, plotted, 1 - r.alpha(), id);
                     } else {
                         plot = v == null || current == null ? null : plot(v, f, screened(d, baseline, v).orElse(null),
@@ -138,6 +166,95 @@ public final class DigestAssembler {
         }
     }
 
+    /**
+     * The picture a finding's own numbers give, or null when it has none (a data-quality finding, drawn from the
+     * screened answers instead): a relationship's correlations, a change of shape's cumulative distributions, a
+     * date comparison's medians and spans, or the estimates of its {@code plot}.
+     */
+    public static VariablePlot findingPlot(Finding f, String findingId) {
+        if (f.detail() instanceof RelationshipDetail rd) {
+            return correlations(rd, findingId);
+        }
+        CumulativeGap.ShapeDetail shape = detail(f, CumulativeGap.ShapeDetail.class, "cdfBaseline");
+        if (shape != null) {
+            return new VariablePlot.CumulativePlot(findingId, shape);
+        }
+        DateComparison.DateDetail dates = detail(f, DateComparison.DateDetail.class, "medianShiftDays");
+        if (dates != null) {
+            return new VariablePlot.DatePlot(findingId, dates);
+        }
+        WaveEstimates.Plotted plotted = plotted(f);
+        return plotted == null ? null : new VariablePlot.EstimatePlot(findingId, plotted);
+    }
+
+    /**
+     * A finding's detail as the record {@code type}, whether it is that record (this run) or the JSON object a stored
+     * run reads back, recognised by its field {@code marker}; null when it is neither.
+     */
+    static <T> T detail(Finding f, Class<T> type, String marker) {
+        if (type.isInstance(f.detail())) {
+            return type.cast(f.detail());
+        }
+        if (f.detail() == null || f.detail() instanceof org.wavewarden.compare.Comparison) {
+            return null;
+        }
+        com.fasterxml.jackson.databind.JsonNode node = org.wavewarden.deliver.Json.mapper().valueToTree(f.detail());
+        if (!node.isObject() || !node.has(marker)) {
+            return null;
+        }
+        try {
+            return org.wavewarden.deliver.Json.mapper().treeToValue(node, type);
+        } catch (com.fasterxml.jackson.core.JsonProcessingException | IllegalArgumentException e) {
+            throw new IllegalStateException("the detail of " + f.variable() + " cannot be read: " + e.getMessage(), e);
+        }
+    }
+
+    /**
+     * A statistic that only the findings hold (a paired estimate, a KS distance) across every wave up to the judged
+     * one: each wave's value from the same variable's finding of the same kind in that wave's report (the digest's
+     * own, or the store's latest run), a gap where there is none; {@code againstValue} stands at the baseline wave
+     * when that wave has no such finding of its own (the first wave of a panel).
+     */
+    private Trend findingTrend(DatasetConfig d, List<String> order, FindingsReport r, Finding f, String measure,
+                               String unit, boolean percent, String category,
+                               java.util.function.Function<Finding, WaveEstimates.Estimate> value,
+                               WaveEstimates.Estimate againstValue, String findingId) {
+        int end = order.indexOf(r.wave());
+        if (end < 0) {
+            return null;
+        }
+        List<String> waves = order.subList(0, end + 1);
+        List<Double> values = new ArrayList<>();
+        List<Double> lows = new ArrayList<>();
+        List<Double> highs = new ArrayList<>();
+        for (String w : waves) {
+            WaveEstimates.Estimate e = null;
+            Optional<FindingsReport> report = w.equals(r.wave()) ? Optional.of(r) : judged(d, w);
+            Optional<Finding> same = report.flatMap(x -> x.findings().stream().filter(g -> g.kind() == f.kind()
+                    && g.variable().equals(f.variable())).findFirst());
+            if (same.isPresent()) {
+                try {
+                    e = value.apply(same.get());
+                } catch (RuntimeException ex) {
+                    // A stored finding whose detail cannot be read is a gap in the line, not a lost chart.
+                    e = null;
+                }
+            }
+            if (e == null && w.equals(r.againstWave())) {
+                e = againstValue;
+            }
+            values.add(e == null ? Double.NaN : e.value());
+            lows.add(e == null ? Double.NaN : e.low());
+            highs.add(e == null ? Double.NaN : e.high());
+        }
+        return new Trend(measure, unit, waves, values, lows, highs, percent, category, Double.NaN, findingId);
+    }
+
+    private Optional<FindingsReport> judged(DatasetConfig d, String wave) {
+        return judged.computeIfAbsent(wave, w -> session.store().currentRun(d.name(), w)
+                .flatMap(run -> session.store().storedReport(run.runId())));
+    }
+
     /** A wave's (or pooled baseline's) answers of one variable, screened once per digest; empty without them. */
     private Optional<ScreenedVariable> screened(DatasetConfig d, WaveProfile p, VariableConfig v) {
         return p == null ? Optional.empty() : screened.computeIfAbsent(List.of(p.wave(), v),
@@ -173,9 +290,9 @@ public final class DigestAssembler {
     }
 
     /**
-     * The chart of a finding that has no estimates of its own (a data-quality finding, a change of shape, a paired
-     * comparison): both waves' screened answers as counted, which is what these findings count. Without a baseline
-     * wave only the current wave is drawn.
+     * The chart of a finding that has no estimates of its own (a data-quality finding, or a stored finding of an
+     * earlier release whose detail has none): both waves' screened answers as counted, which is what data-quality
+     * findings count. Without a baseline wave only the current wave is drawn.
      */
     static VariablePlot plot(VariableConfig v, Finding f, ScreenedVariable b, ScreenedVariable c,
                              String findingId) {

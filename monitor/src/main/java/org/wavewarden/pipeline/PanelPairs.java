@@ -245,6 +245,10 @@ public final class PanelPairs implements KeyedPairReader.Visitor {
         private double m2;
         private double sumB;
         private double sumC;
+        private double meanB;
+        private double m2B;
+        private double meanC;
+        private double m2C;
 
         Numbers(VariableConfig v, ScreenedVariable b, ScreenedVariable c) {
             super(v.name());
@@ -268,6 +272,12 @@ public final class PanelPairs implements KeyedPairReader.Visitor {
             m2 += delta * (d - mean);
             sumB += xb;
             sumC += xc;
+            double deltaB = xb - meanB;
+            meanB += deltaB / n;
+            m2B += deltaB * (xb - meanB);
+            double deltaC = xc - meanC;
+            meanC += deltaC / n;
+            m2C += deltaC * (xc - meanC);
             if (bins != null) {
                 bins.add(d, Double.NaN);
             } else if (!exact.add(d, MAX_EXACT_DIFFERENCES)) {
@@ -292,7 +302,8 @@ public final class PanelPairs implements KeyedPairReader.Visitor {
             }
             double sd = n > 1 ? Math.sqrt(m2 / (n - 1)) : Double.NaN;
             return new NumericPairs(variable, n, leftOut, n == 0 ? Double.NaN : sumB / n,
-                    n == 0 ? Double.NaN : sumC / n, n == 0 ? Double.NaN : mean, sd, table, binning);
+                    n == 0 ? Double.NaN : sumC / n, n == 0 ? Double.NaN : mean, sd, table, binning,
+                    n > 1 ? Math.sqrt(m2B / (n - 1)) : Double.NaN, n > 1 ? Math.sqrt(m2C / (n - 1)) : Double.NaN);
         }
     }
 

@@ -32,7 +32,8 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
  * points). A few are checked by the rule that wrote them: "p = 0.14" against the p-value, "about 1 in 7" against
  * 1 / p, "over the 40 tests of this run" against the family the q-values were adjusted over, "95% CI" against the
  * run's alpha, "12 of 480 rows (2.5%)" by dividing the two counts, "6.6 times as many" by dividing the two shares,
- * and the missing-rate note by the rows of the variable's MISSING_RATE_CHANGE finding. Text the detector wrote
+ * the missing-rate note by the rows of the variable's MISSING_RATE_CHANGE finding, and an ISO date (a date
+ * comparison's medians, spans and the medians' interval limits) against the dates of the finding's detail. Text the detector wrote
  * (a candidate's {@code evidence}) is held in the JSON as it is printed and is not read again.
  */
 class SentenceNumbersTest {
@@ -111,6 +112,8 @@ class SentenceNumbersTest {
     static final Pattern MISSING_NOTE = Pattern.compile("; note that ([\\d,]+) of ([\\d,]+) rows \\(([0-9.]+)%\\)"
             + " have no valid answer this wave against ([\\d,]+) of ([\\d,]+) \\(([0-9.]+)%\\) before, so the shift"
             + " rests on the ([\\d,]+) rows \\(([0-9.]+)%\\) that answered");
+    /** An ISO date, which a date finding's detail holds as text. */
+    static final Pattern DATE = Pattern.compile("\\b\\d{4}-\\d{2}-\\d{2}\\b");
     /** The sources of magnitude words, named beside them. */
     static final Pattern CITATION = Pattern.compile("(Cohen|Romano et al\\.) \\d{4}");
 
@@ -133,7 +136,14 @@ class SentenceNumbersTest {
             s = s.replace("wave " + w, " ");
         }
 
-        Matcher m = MISSING_NOTE.matcher(s);
+        Matcher m = DATE.matcher(s);
+        while (m.find()) {
+            if (!texts(json.path("detail")).contains(m.group())) {
+                problems.add(where + "the date " + m.group() + " is not a date of the finding (" + f.sentence() + ")");
+            }
+        }
+        s = DATE.matcher(s).replaceAll(" ");
+        m = MISSING_NOTE.matcher(s);
         if (m.find()) {
             Optional<Finding> rate = r.findings().stream().filter(x -> x.variable().equals(f.variable())
                     && x.kind() == FindingKind.MISSING_RATE_CHANGE).findFirst();
@@ -244,6 +254,27 @@ class SentenceNumbersTest {
         } else if (node.isArray()) {
             node.forEach(n -> collect(n, key, numbers, verbatim));
         }
+    }
+
+    /** Every text value in a finding's detail, and each day number in it as the ISO date it falls on. */
+    static List<String> texts(JsonNode node) {
+        List<String> out = new ArrayList<>();
+        if (node.isTextual()) {
+            out.add(node.asText());
+        } else if (node.isContainerNode()) {
+            node.forEach(n -> out.addAll(texts(n)));
+        }
+        if (node.isObject()) {
+            for (String interval : List.of("medianBaselineInterval", "medianCurrentInterval")) {
+                for (String limit : List.of("ciLow", "ciHigh")) {
+                    JsonNode day = node.path(interval).path(limit);
+                    if (day.isNumber()) {
+                        out.add(java.time.LocalDate.ofEpochDay((long) Math.floor(day.asDouble())).toString());
+                    }
+                }
+            }
+        }
+        return out;
     }
 
     /** Whether {@code value * scale} prints as {@code printed} at the printed number of decimals. */

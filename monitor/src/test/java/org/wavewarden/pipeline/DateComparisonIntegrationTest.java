@@ -102,8 +102,10 @@ class DateComparisonIntegrationTest {
         // outside it, mean(w3 > max(w2) | w3 < min(w2)), is 0.22133.
         JsonNode shift = finding("3", "move_in", "SHIFT");
         String sentence = shift.get("sentence").asText();
-        assertTrue(sentence.contains("median date 2009-01-16 in the baseline and 2014-01-16 in this wave; 22.1% of"
-                + " this wave's dates lie outside the baseline's span 2000-01-08 to 2019-12-31"), sentence);
+        assertTrue(sentence.startsWith("The median date of move_in moved from 2009-01-16 to 2014-01-16 (+1826 days;"),
+                sentence);
+        assertTrue(sentence.contains("; 22.1% of this wave's dates lie outside the baseline's span 2000-01-08 to"
+                + " 2019-12-31;"), sentence);
         assertEquals(0.22133333333333333, shift.get("detail").get("shareOutsideBaselineSpan").asDouble(), 1e-12);
         assertEquals(1826, shift.get("detail").get("medianShiftDays").asDouble(), 1e-9);
     }

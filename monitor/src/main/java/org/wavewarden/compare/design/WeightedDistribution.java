@@ -46,25 +46,10 @@ public final class WeightedDistribution {
      * weighted distribution functions).
      */
     public static double cdfDistance(WeightedTally baseline, WeightedTally current) {
-        double wb = total(baseline);
-        double wc = total(current);
-        int i = 0;
-        int j = 0;
-        double cb = 0;
-        double cc = 0;
-        double best = 0;
-        while (i < baseline.size() || j < current.size()) {
-            double x = Math.min(i < baseline.size() ? baseline.value(i) : Double.POSITIVE_INFINITY,
-                    j < current.size() ? current.value(j) : Double.POSITIVE_INFINITY);
-            if (i < baseline.size() && baseline.value(i) == x) {
-                cb += baseline.weight(i++);
-            }
-            if (j < current.size() && current.value(j) == x) {
-                cc += current.weight(j++);
-            }
-            best = Math.max(best, Math.abs(cc / wc - cb / wb));
-        }
-        return Math.min(1, best);
+        total(baseline);
+        total(current);
+        return org.wavewarden.compare.shape.CumulativeGap.largestGap(baseline.values(), baseline.weights(),
+                current.values(), current.weights());
     }
 
     private static double total(WeightedTally t) {

@@ -66,10 +66,21 @@ public final class PairedPanel {
      * @param meanDifference mean of {@code current - baseline}, exact
      * @param sdDifference   sample standard deviation of the differences (divisor n - 1), exact; NaN for one pair
      * @param differences    the differences as a frequency table, exact or summarised as {@code binning} says
+     * @param sdBaseline     sample standard deviation of the paired respondents' baseline answers, for the interval
+     *                       of the plotted baseline mean; NaN when unknown
+     * @param sdCurrent      the same for the judged wave's answers
      */
     public record NumericPairs(String variable, long pairs, long leftOut, double meanBaseline, double meanCurrent,
                                double meanDifference, double sdDifference, NumericDistribution differences,
-                               Binning binning) implements VariablePairs {
+                               Binning binning, double sdBaseline, double sdCurrent) implements VariablePairs {
+
+        /** Pairs whose waves' own spreads are not known: the plotted means have no interval. */
+        public NumericPairs(String variable, long pairs, long leftOut, double meanBaseline, double meanCurrent,
+                            double meanDifference, double sdDifference, NumericDistribution differences,
+                            Binning binning) {
+            this(variable, pairs, leftOut, meanBaseline, meanCurrent, meanDifference, sdDifference, differences,
+                    binning, Double.NaN, Double.NaN);
+        }
     }
 
     /**

@@ -5,6 +5,7 @@ import org.wavewarden.compare.Comparison;
 import org.wavewarden.compare.EffectSize;
 import org.wavewarden.compare.TestResult;
 import org.wavewarden.compare.Thresholds;
+import org.wavewarden.compare.WaveEstimates;
 import org.wavewarden.compare.location.CohensDz;
 import org.wavewarden.compare.location.MeanDifference;
 import org.wavewarden.compare.location.PairedTTest;
@@ -92,9 +93,11 @@ public final class PanelComparisons {
      * @param unmatchedRows rows of either wave whose respondent key is NULL or repeated, matched to no one
      * @param weighting     how respondents are counted
      * @param paired        the kind-specific detail
+     * @param plot          what the finding's picture draws: the paired respondents' answers in each wave on their
+     *                      own (the margins the sentence states), each with its interval
      */
     public record PanelDetail(String method, long pairs, long pairsLeftOut, long onlyBaseline, long onlyCurrent,
-                              long unmatchedRows, String weighting, Object paired) {
+                              long unmatchedRows, String weighting, Object paired, WaveEstimates.Plotted plot) {
     }
 
     /** The paired differences of a number. */
@@ -208,8 +211,13 @@ public final class PanelComparisons {
         }
         NumericDetail nd = new NumericDetail(p.meanBaseline(), p.meanCurrent(), p.meanDifference(), p.sdDifference(),
                 meanDiff, dz, median, rb, sr == null ? null : sr.z(), sr == null ? null : sr.exact(), error);
+        // Each wave's mean of the same respondents with its own t interval: the margins the sentence states. The
+        // interval of their difference, which uses the pairing, is the sentence's; these two ignore it.
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted(measure, WaveEstimates.Estimator.MEAN, v.unit(),
+                List.of(WaveEstimates.mean(n, p.meanBaseline(), p.sdBaseline(), confidence)),
+                List.of(WaveEstimates.mean(n, p.meanCurrent(), p.sdCurrent(), confidence)), null);
         out.add(new Comparison(v.name(), FindingKind.PANEL_SHIFT, test, effect, t.value(), t.source(), n, n, change,
-                detail(panel, p, test.test() + ": " + choice.reason(), nd)));
+                detail(panel, p, test.test() + ": " + choice.reason(), nd, plot)));
         return null;
     }
 
@@ -231,8 +239,12 @@ public final class PanelComparisons {
                 "%,d moved to it, %,d away from it; ", p.noYes(), p.yesNo()) + pairing(panel, p));
         BinaryDetail bd = new BinaryDetail(p.successValue(), p.bothYes(), p.yesNo(), p.noYes(), p.bothNo(), pB, pC,
                 rd, h, corrected.statistic(), corrected.pValue());
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted(change.measure(), WaveEstimates.Estimator.SHARE, null,
+                List.of(WaveEstimates.share(p.successValue(), p.bothYes() + p.yesNo(), n, confidence)),
+                List.of(WaveEstimates.share(p.successValue(), p.bothYes() + p.noYes(), n, confidence)), null);
         out.add(new Comparison(v.name(), FindingKind.PANEL_SHIFT, test, t.rawScale() ? rd : h, t.value(),
-                t.source(), n, n, change, detail(panel, p, "McNemar test without continuity correction", bd)));
+                t.source(), n, n, change, detail(panel, p, "McNemar test without continuity correction", bd,
+                plot)));
         return null;
     }
 
@@ -278,14 +290,34 @@ public final class PanelComparisons {
                 "the category whose share moved most; " + flow + "; " + pairing(panel, p));
         CategoricalDetail cd = new CategoricalDetail(rows, table, flows, churn.stayers(), churn.movers(),
                 churn.stayerShare(), sm.droppedNote());
+        // The category the sentence names first, then the others in table order; margins of the paired table.
+        List<WaveEstimates.Estimate> shareB = new ArrayList<>();
+        List<WaveEstimates.Estimate> shareC = new ArrayList<>();
+        for (int k = -1; k < table.length; k++) {
+            int i = k < 0 ? top : k;
+            if (k >= 0 && i == top) {
+                continue;
+            }
+            long row = 0;
+            long col = 0;
+            for (int j = 0; j < table.length; j++) {
+                row += table[i][j];
+                col += table[j][i];
+            }
+            shareB.add(WaveEstimates.share(p.labels().get(i), row, n, confidence));
+            shareC.add(WaveEstimates.share(p.labels().get(i), col, n, confidence));
+        }
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("share answering each category among the respondents"
+                + " in both waves", WaveEstimates.Estimator.SHARE, null, shareB, shareC, null);
         out.add(new Comparison(v.name(), FindingKind.PANEL_SHIFT, sm.test(), effect, t.value(), t.source(), n, n,
-                change, detail(panel, p, "Stuart-Maxwell test of marginal homogeneity", cd)));
+                change, detail(panel, p, "Stuart-Maxwell test of marginal homogeneity", cd, plot)));
         return null;
     }
 
-    private static PanelDetail detail(Panel panel, VariablePairs p, String method, Object paired) {
+    private static PanelDetail detail(Panel panel, VariablePairs p, String method, Object paired,
+                                      WaveEstimates.Plotted plot) {
         return new PanelDetail(method, p.pairs(), p.leftOut(), panel.onlyBaseline(), panel.onlyCurrent(),
-                panel.unmatchedRows(true) + panel.unmatchedRows(false), METHOD_NOTE, paired);
+                panel.unmatchedRows(true) + panel.unmatchedRows(false), METHOD_NOTE, paired, plot);
     }
 
     /** "10 respondents paired, 1 more in both waves left out ...; 3 only in wave w1, 2 only in wave w2". */

@@ -266,6 +266,12 @@ public final class HtmlDigest {
         if (p instanceof VariablePlot.EstimatePlot e) {
             return SvgChart.estimates(variable, e, baselineWave, currentWave);
         }
+        if (p instanceof VariablePlot.CumulativePlot c) {
+            return SvgChart.cumulative(variable, c, baselineWave, currentWave);
+        }
+        if (p instanceof VariablePlot.DatePlot d) {
+            return SvgChart.dates(variable, d, baselineWave, currentWave);
+        }
         return SvgChart.missing(variable, (VariablePlot.MissingPlot) p, baselineWave, currentWave);
     }
 
@@ -419,6 +425,12 @@ public final class HtmlDigest {
             svg.plot.estimates.shares line.ci{stroke:#222;stroke-width:1.5}
             svg.plot .band{fill:var(--cf);stroke:none}
             svg.plot line.ref{stroke:#222;stroke-width:1.5;stroke-dasharray:4 3}
+            svg.plot .cdf.b{fill:none;stroke:var(--b);stroke-width:1.5}
+            svg.plot .cdf.c{fill:none;stroke:var(--c);stroke-width:2}
+            svg.plot circle.step{fill:none;stroke:none}
+            svg.plot line.gap{stroke:#222;stroke-width:3}
+            svg.plot line.span.b{stroke:var(--bf);stroke-width:6}
+            svg.plot line.span.c{stroke:var(--cf);stroke-width:6}
             footer{color:var(--muted);font-size:13px;text-align:center}
             @media print{body{background:#fff}.wave{break-inside:auto;border:none}.alert{break-inside:avoid}}
             """;

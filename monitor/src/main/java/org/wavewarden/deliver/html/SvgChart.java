@@ -864,6 +864,143 @@ public final class SvgChart {
         return s.append("</svg>").toString();
     }
 
+    /**
+     * A change of shape: both waves' cumulative distributions as step curves (the share of each wave, weighted
+     * where the finding is, at or below each value) and the largest gap between them as a vertical bar, whose length
+     * is the finding's KS distance. Every step carries its value and cumulative share, and the gap its distance,
+     * interval and the two shares it joins, as data attributes.
+     */
+    public static String cumulative(String variable, VariablePlot.CumulativePlot p, String baselineWave,
+                                    String currentWave) {
+        var d = p.shape();
+        String id = p.findingId();
+        List<Double> xs = new ArrayList<>();
+        for (var st : d.current()) {
+            xs.add(st.value());
+        }
+        int decade = decadeOf(xs);
+        String given = d.unit() == null || d.unit().isBlank() ? null : d.unit();
+        String unit = decade == 0 ? given : "\u00d7 1e" + decade + (given == null ? "" : " " + given);
+        double lo = inDecade(xs.get(0), decade);
+        double hi = inDecade(xs.get(xs.size() - 1), decade);
+        if (hi <= lo) {
+            hi = lo + 1;
+        }
+        Frame f = new Frame(WIDTH, 300, 58, 20, 40, 46);
+        String share = d.weighted() ? "weighted share at or below (%)" : "share of answers at or below (%)";
+        String title = "Cumulative distributions of " + variable + (d.weighted() ? " (weighted)" : "") + ": "
+                + baselineWave + " against " + currentWave + "; the bar marks the largest gap, KS distance "
+                + number(d.distance());
+        StringBuilder s = open(f, "cumulative", title);
+        legend(s, f, baselineWave + " (baseline)", currentWave + " (current)");
+        double[] xt = niceTicks(lo, hi, 6);
+        double xlo = Math.min(lo, xt[0]);
+        double xhi = Math.max(hi, xt[xt.length - 1]);
+        xAxis(s, f, ticksInside(xlo, xhi, 6), xlo, xhi, 0);
+        yAxis(s, f, new double[] {0, 25, 50, 75, 100}, 0, 1, true);
+        axisTitles(s, f, variable + (unit == null ? "" : " (" + unit + ")"), share);
+        String[] cls = {"b", "c"};
+        String[] waves = {baselineWave, currentWave};
+        List<List<org.wavewarden.compare.shape.CumulativeGap.Step>> curves = List.of(d.baseline(), d.current());
+        for (int k = 0; k < 2; k++) {
+            StringBuilder pts = new StringBuilder();
+            StringBuilder marks = new StringBuilder();
+            double prev = 0;
+            for (var st : curves.get(k)) {
+                double x = f.sx(inDecade(st.value(), decade), xlo, xhi);
+                pts.append(String.format(Locale.ROOT, "%.1f,%.1f %.1f,%.1f ", x, f.sy(prev, 0, 1), x,
+                        f.sy(st.cumulative(), 0, 1)));
+                prev = st.cumulative();
+                marks.append(String.format(Locale.ROOT, "<circle class=\"step %s\" cx=\"%.1f\" cy=\"%.1f\" r=\"1.5\""
+                                + " data-at=\"%s\"%s/>", cls[k], x, f.sy(st.cumulative(), 0, 1), full(st.value()),
+                        data(st.cumulative(), Double.NaN, Double.NaN, waves[k], null, id)));
+            }
+            pts.append(String.format(Locale.ROOT, "%.1f,%.1f", f.x1(), f.sy(prev, 0, 1)));
+            s.append("<polyline class=\"cdf ").append(cls[k]).append("\" fill=\"none\" points=\"")
+                    .append(pts.toString().trim()).append("\"/>").append(marks);
+        }
+        double gx = f.sx(inDecade(d.at(), decade), xlo, xhi);
+        var ci = d.interval();
+        String tip = "largest gap at " + number(d.at()) + (given == null ? "" : " " + given) + ": "
+                + percent(d.cdfBaseline()) + " of " + baselineWave + " and " + percent(d.cdfCurrent()) + " of "
+                + currentWave + " at or below it; KS distance " + number(d.distance()) + " ("
+                + Math.round(100 * ci.confidence()) + "% CI " + number(ci.ciLow()) + " to " + number(ci.ciHigh()) + ")";
+        s.append(String.format(Locale.ROOT, "<line class=\"gap\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\""
+                        + " data-at=\"%s\" data-baseline=\"%s\" data-current=\"%s\"%s><title>%s</title></line>", gx,
+                f.sy(d.cdfBaseline(), 0, 1), gx, f.sy(d.cdfCurrent(), 0, 1), full(d.at()), full(d.cdfBaseline()),
+                full(d.cdfCurrent()), data(d.distance(), ci.ciLow(), ci.ciHigh(), null, "KS distance", id), esc(tip)));
+        s.append(String.format(Locale.ROOT, "<text class=\"val\" x=\"%.1f\" y=\"%.1f\">%s</text>", gx + 5,
+                f.sy((d.cdfBaseline() + d.cdfCurrent()) / 2, 0, 1) + 4, esc("D = " + number(d.distance()))));
+        return s.append("</svg>").toString();
+    }
+
+    /**
+     * Dates compared: per wave the span from its earliest to its latest date as a line and its median date as a
+     * point with whiskers for the median's interval, on an axis of dates. Every median carries its day number
+     * (days since 1970-01-01), interval and ISO date, and every span its two ends, as data attributes.
+     */
+    public static String dates(String variable, VariablePlot.DatePlot p, String baselineWave, String currentWave) {
+        var d = p.dates();
+        String id = p.findingId();
+        double[][] spans = {{day(d.earliestBaseline()), day(d.latestBaseline())},
+                {day(d.earliestCurrent()), day(d.latestCurrent())}};
+        org.wavewarden.compare.EffectSize[] medians = {d.medianBaselineInterval(), d.medianCurrentInterval()};
+        String[] iso = {d.medianBaseline(), d.medianCurrent()};
+        String[][] ends = {{d.earliestBaseline(), d.latestBaseline()}, {d.earliestCurrent(), d.latestCurrent()}};
+        double lo = Math.min(spans[0][0], spans[1][0]);
+        double hi = Math.max(spans[0][1], spans[1][1]);
+        if (hi <= lo) {
+            hi = lo + 1;
+        }
+        int row = 40;
+        int labelWidth = 110;
+        Frame f = new Frame(WIDTH, 40 + 2 * row + 46, labelWidth + 8, 40, 40, 46);
+        StringBuilder s = open(f, "dates estimates", "Median date of " + variable + " with its confidence interval,"
+                + " and the span of the dates: " + baselineWave + " against " + currentWave);
+        legend(s, f, baselineWave + " (baseline)", currentWave + " (current)");
+        s.append(String.format(Locale.ROOT, "<line class=\"axis\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>",
+                f.x0(), f.y0(), f.x1(), f.y0()));
+        for (int k = 0; k <= 4; k++) {
+            double t = lo + k * (hi - lo) / 4;
+            double x = f.sx(t, lo, hi);
+            s.append(String.format(Locale.ROOT, "<line class=\"grid\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>"
+                            + "<text class=\"tick\" x=\"%.1f\" y=\"%.1f\" text-anchor=\"middle\">%s</text>", x, f.y1(), x,
+                    f.y0(), x, f.y0() + 14, esc(org.wavewarden.compare.DateComparison.DateDetail.date(t))));
+        }
+        s.append(String.format(Locale.ROOT, "<text class=\"axis-title\" x=\"%.1f\" y=\"%d\" text-anchor=\"middle\">%s</text>",
+                (f.x0() + f.x1()) / 2, f.height() - 8, esc("date")));
+        String[] cls = {"b", "c"};
+        String[] waves = {baselineWave, currentWave};
+        for (int i = 0; i < 2; i++) {
+            double y = f.y1() + i * row + 14;
+            s.append(String.format(Locale.ROOT, "<text class=\"cat\" x=\"%d\" y=\"%.1f\" text-anchor=\"end\">%s</text>",
+                    labelWidth, y + 4, esc(waves[i])));
+            s.append(String.format(Locale.ROOT, "<line class=\"span %s\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\""
+                            + " data-from=\"%s\" data-to=\"%s\"%s><title>%s</title></line>", cls[i],
+                    f.sx(spans[i][0], lo, hi), y + 10, f.sx(spans[i][1], lo, hi), y + 10, esc(ends[i][0]),
+                    esc(ends[i][1]), data(Double.NaN, spans[i][0], spans[i][1], waves[i], "span", id),
+                    esc(waves[i] + ": dates from " + ends[i][0] + " to " + ends[i][1])));
+            var m = medians[i];
+            double x = f.sx(m.estimate(), lo, hi);
+            boolean interval = !Double.isNaN(m.ciLow());
+            double l = interval ? f.sx(m.ciLow(), lo, hi) : x;
+            double h = interval ? f.sx(m.ciHigh(), lo, hi) : x;
+            String tip = waves[i] + ": median date " + iso[i] + (interval ? " (" + Math.round(100 * m.confidence())
+                    + "% CI " + org.wavewarden.compare.DateComparison.DateDetail.date(m.ciLow()) + " to "
+                    + org.wavewarden.compare.DateComparison.DateDetail.date(m.ciHigh()) + ")" : "");
+            s.append(String.format(Locale.ROOT, "<g class=\"whisker est %s\" data-date=\"%s\"%s><title>%s</title>"
+                            + "<line class=\"ci %s\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/><circle class=\"pt %s\""
+                            + " cx=\"%.1f\" cy=\"%.1f\" r=\"4\"/><text class=\"val %s\" x=\"%.1f\" y=\"%.1f\">%s</text></g>",
+                    cls[i], esc(iso[i]), data(m.estimate(), m.ciLow(), m.ciHigh(), waves[i], "median date", id),
+                    esc(tip), cls[i], l, y, h, y, cls[i], x, y, cls[i], h + 5, y + 4, esc(iso[i])));
+        }
+        return s.append("</svg>").toString();
+    }
+
+    private static double day(String iso) {
+        return java.time.LocalDate.parse(iso).toEpochDay();
+    }
+
     private static double upperOf(org.wavewarden.compare.WaveEstimates.Estimate e) {
         return Double.isNaN(e.high()) ? (Double.isNaN(e.value()) ? 0 : e.value()) : e.high();
     }

@@ -11,7 +11,38 @@ import java.util.Objects;
  * Baseline comes first everywhere, as in the comparison stage.
  */
 public sealed interface VariablePlot permits VariablePlot.NumericPlot, VariablePlot.SharesPlot,
-        VariablePlot.MissingPlot, VariablePlot.CorrelationPlot, VariablePlot.EstimatePlot, VariablePlot.Unavailable {
+        VariablePlot.MissingPlot, VariablePlot.CorrelationPlot, VariablePlot.EstimatePlot, VariablePlot.Unavailable,
+        VariablePlot.CumulativePlot, VariablePlot.DatePlot {
+
+    /**
+     * A change of shape: both waves' cumulative distributions as the finding measured them (weighted where it is),
+     * with the largest gap, whose length is the finding's KS distance, marked with its interval.
+     *
+     * @param findingId the finding the numbers belong to, written on every element
+     * @param shape     the finding's curves and gap
+     */
+    record CumulativePlot(String findingId, org.wavewarden.compare.shape.CumulativeGap.ShapeDetail shape)
+            implements VariablePlot {
+        public CumulativePlot {
+            Objects.requireNonNull(shape, "shape");
+            if (shape.current().isEmpty() || shape.baseline().size() != shape.current().size()) {
+                throw new IllegalArgumentException("both curves must have the same, non-zero number of steps");
+            }
+        }
+    }
+
+    /**
+     * A comparison of dates: each wave's median date with its interval and the span from its earliest to its latest
+     * date, as the finding's detail holds them.
+     *
+     * @param findingId the finding the numbers belong to, written on every element
+     * @param dates     the finding's dates
+     */
+    record DatePlot(String findingId, org.wavewarden.compare.DateComparison.DateDetail dates) implements VariablePlot {
+        public DatePlot {
+            Objects.requireNonNull(dates, "dates");
+        }
+    }
 
     /**
      * The estimates a finding was judged on, each with its interval, as the finding's detail holds them
