@@ -219,15 +219,7 @@ public final class DigestAssembler {
                                String unit, boolean percent, String category,
                                java.util.function.Function<Finding, WaveEstimates.Estimate> value,
                                WaveEstimates.Estimate againstValue, String findingId) {
-        int end = order.indexOf(r.wave());
-        if (end < 0) {
-            return null;
-        }
-        List<String> waves = order.subList(0, end + 1);
-        List<Double> values = new ArrayList<>();
-        List<Double> lows = new ArrayList<>();
-        List<Double> highs = new ArrayList<>();
-        for (String w : waves) {
+        return overWaves(order, r.wave(), w -> {
             WaveEstimates.Estimate e = null;
             Optional<FindingsReport> report = w.equals(r.wave()) ? Optional.of(r) : judged(d, w);
             Optional<Finding> same = report.flatMap(x -> x.findings().stream().filter(g -> g.kind() == f.kind()
@@ -240,14 +232,33 @@ public final class DigestAssembler {
                     e = null;
                 }
             }
-            if (e == null && w.equals(r.againstWave())) {
-                e = againstValue;
-            }
+            return e == null && w.equals(r.againstWave()) ? againstValue : e;
+        }, measure, unit, percent, category, Double.NaN, findingId);
+    }
+
+    /**
+     * A trend over every wave up to {@code wave}, each wave's estimate from {@code perWave} (null for a gap in the
+     * line); null when {@code wave} is not listed.
+     */
+    private static Trend overWaves(List<String> order, String wave,
+                                   java.util.function.Function<String, WaveEstimates.Estimate> perWave, String measure,
+                                   String unit, boolean percent, String category, double reference,
+                                   String findingId) {
+        int end = order.indexOf(wave);
+        if (end < 0) {
+            return null;
+        }
+        List<String> waves = order.subList(0, end + 1);
+        List<Double> values = new ArrayList<>();
+        List<Double> lows = new ArrayList<>();
+        List<Double> highs = new ArrayList<>();
+        for (String w : waves) {
+            WaveEstimates.Estimate e = perWave.apply(w);
             values.add(e == null ? Double.NaN : e.value());
             lows.add(e == null ? Double.NaN : e.low());
             highs.add(e == null ? Double.NaN : e.high());
         }
-        return new Trend(measure, unit, waves, values, lows, highs, percent, category, Double.NaN, findingId);
+        return new Trend(measure, unit, waves, values, lows, highs, percent, category, reference, findingId);
     }
 
     private Optional<FindingsReport> judged(DatasetConfig d, String wave) {
@@ -343,31 +354,17 @@ public final class DigestAssembler {
      */
     private Trend trend(DatasetConfig d, List<String> order, String wave, VariableConfig v, Finding f,
                         WaveEstimates.Plotted plotted, double confidence, String findingId) {
-        int end = order.indexOf(wave);
-        if (end < 0) {
-            return null;
-        }
-        List<String> waves = order.subList(0, end + 1);
         String category = plotted.category();
         boolean missing = f.kind() == FindingKind.MISSING_RATE_CHANGE;
-        List<Double> values = new ArrayList<>();
-        List<Double> lows = new ArrayList<>();
-        List<Double> highs = new ArrayList<>();
-        for (String w : waves) {
-            WaveEstimates.Estimate e;
+        double reference = plotted.reference().isEmpty() ? Double.NaN : plotted.reference().get(0).value();
+        return overWaves(order, wave, w -> {
             try {
-                e = estimate(d, w, v, plotted.estimator(), category, missing, confidence);
+                return estimate(d, w, v, plotted.estimator(), category, missing, confidence);
             } catch (RuntimeException ex) {
                 // A wave whose answers give no estimate (fewer than two, no weight) is a gap in the line.
-                e = null;
+                return null;
             }
-            values.add(e == null ? Double.NaN : e.value());
-            lows.add(e == null ? Double.NaN : e.low());
-            highs.add(e == null ? Double.NaN : e.high());
-        }
-        double reference = plotted.reference().isEmpty() ? Double.NaN : plotted.reference().get(0).value();
-        return new Trend(plotted.statistic(), plotted.unit(), waves, values, lows, highs,
-                plotted.estimator().percent(), category, reference, findingId);
+        }, plotted.statistic(), plotted.unit(), plotted.estimator().percent(), category, reference, findingId);
     }
 
     /** One wave's estimate of the statistic, or null when the wave has no summary or no such column. */
@@ -422,26 +419,13 @@ public final class DigestAssembler {
     /** A data-quality finding's trend: the share of rows missing for any reason, with Wilson's interval. */
     private Trend missingTrend(DatasetConfig d, List<String> order, String wave, VariableConfig v,
                                double confidence, String findingId) {
-        int end = order.indexOf(wave);
-        if (end < 0) {
-            return null;
-        }
-        List<String> waves = order.subList(0, end + 1);
-        List<Double> values = new ArrayList<>();
-        List<Double> lows = new ArrayList<>();
-        List<Double> highs = new ArrayList<>();
-        for (String w : waves) {
+        return overWaves(order, wave, w -> {
             ScreenedVariable s = summary(d, w).flatMap(p -> screened(d, p, v)).orElse(null);
-            WaveEstimates.Estimate e = null;
-            if (s != null) {
-                long missing = s.sqlNulls() + s.missingByReason().values().stream().mapToLong(Long::longValue).sum();
-                e = WaveEstimates.share(null, missing, s.rows(), confidence);
+            if (s == null) {
+                return null;
             }
-            values.add(e == null ? Double.NaN : e.value());
-            lows.add(e == null ? Double.NaN : e.low());
-            highs.add(e == null ? Double.NaN : e.high());
-        }
-        return new Trend("share missing (any reason)", null, waves, values, lows, highs, true, null, Double.NaN,
-                findingId);
+            long missing = s.sqlNulls() + s.missingByReason().values().stream().mapToLong(Long::longValue).sum();
+            return WaveEstimates.share(null, missing, s.rows(), confidence);
+        }, "share missing (any reason)", null, true, null, Double.NaN, findingId);
     }
 }
