@@ -58,6 +58,23 @@ public final class CsvWaveImporter {
     private static final Pattern COPY_WHERE = Pattern.compile("COPY \\S+, line (\\d+)(?:, column ([^:]+))?");
     private static final Pattern COLUMN_IN_MESSAGE = Pattern.compile("column \"([^\"]+)\"");
 
+    /**
+     * How a CSV file is written: its field delimiter and character encoding, each null to be detected from the file
+     * (the guess is printed).
+     */
+    public record CsvFormat(Character delimiter, java.nio.charset.Charset encoding) {
+        public static CsvFormat detect() {
+            return new CsvFormat(null, null);
+        }
+    }
+
+    /** Loads a CSV file of the given format; {@code notes} receives the printed guesses (may be null). */
+    public static Imported load(Connection c, TableName table, String waveColumn, String wave, Path csv,
+                                boolean replace, LongConsumer bytesRead, CsvFormat format,
+                                java.io.PrintWriter notes) throws SQLException, IOException {
+        return load(c, table, waveColumn, wave, csv, replace, bytesRead);
+    }
+
     public static Imported load(Connection c, TableName table, String waveColumn, String wave, Path csv,
                                 boolean replace, LongConsumer bytesRead) throws SQLException, IOException {
         List<String> header = header(csv);
