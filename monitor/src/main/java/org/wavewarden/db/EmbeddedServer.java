@@ -22,8 +22,16 @@ public final class EmbeddedServer implements AutoCloseable {
         return start(null);
     }
 
-    /** Starts a server; with a data directory it is kept there (for {@code demo --serve}), else a temporary one. */
+    /** Starts a server; with a data directory it is kept there (for the {@code server} command), else a temporary one. */
     public static EmbeddedServer start(Path dataDirectory) {
+        return start(dataDirectory, 0);
+    }
+
+    /**
+     * Starts a server keeping its data in {@code dataDirectory} (created on first use, reused after), listening on
+     * {@code port} of 127.0.0.1, or on a free port when {@code port} is 0.
+     */
+    public static EmbeddedServer start(Path dataDirectory, int port) {
         try {
             EmbeddedPostgres.Builder b = EmbeddedPostgres.builder()
                     .setServerConfig("listen_addresses", "127.0.0.1")
@@ -33,6 +41,9 @@ public final class EmbeddedServer implements AutoCloseable {
                     .setServerConfig("full_page_writes", "off");
             if (dataDirectory != null) {
                 b.setDataDirectory(dataDirectory).setCleanDataDirectory(false);
+            }
+            if (port != 0) {
+                b.setPort(port);
             }
             return new EmbeddedServer(b.start());
         } catch (IOException e) {
