@@ -8,11 +8,24 @@ import java.io.IOException;
  */
 public final class SavFormatException extends IOException {
 
+    private final String file;
+    private final String record;
     private final long offset;
+    private final String problem;
 
     SavFormatException(String file, String record, long offset, String problem) {
         super(file + ": " + problem + " (" + record + ", byte offset " + offset + ")");
+        this.file = file;
+        this.record = record;
         this.offset = offset;
+        this.problem = problem;
+    }
+
+    /** The same failure, said to have happened while reading the given case. */
+    SavFormatException inCase(long caseNumber) {
+        SavFormatException e = new SavFormatException(file, "case " + caseNumber + ", " + record, offset, problem);
+        e.initCause(getCause());
+        return e;
     }
 
     SavFormatException(String file, String record, long offset, String problem, Throwable cause) {

@@ -117,12 +117,14 @@ public final class SavReader implements CaseSource {
                     }
                     throw slots.input().error(s == 0
                             ? "the data end after " + casesRead + " of " + dictionary.caseCount + " cases"
-                            : "the data end inside case " + (casesRead + 1));
+                            : "the data end inside the case");
                 }
             }
             for (int i = 0; i < variables.size(); i++) {
                 values[i] = value(variables.get(i));
             }
+        } catch (SavFormatException e) {
+            throw e.inCase(casesRead + 1);
         } catch (RuntimeException e) {
             throw new SavFormatException(raw.file(), "case " + (casesRead + 1), raw.offset(),
                     "the case cannot be read: " + e, e);
@@ -504,6 +506,9 @@ public final class SavReader implements CaseSource {
             }
             in.require(count, Math.max(size, 1), "an element count");
             long bytes = (long) size * count;
+            if (bytes > Integer.MAX_VALUE - 16) {
+                throw in.error("an extension record of " + bytes + " bytes");
+            }
             long payloadAt = in.offset();
             switch (subtype) {
                 case 3 -> {
@@ -756,20 +761,29 @@ public final class SavReader implements CaseSource {
 
         SlotReader slotReader() throws IOException {
             return switch (compression) {
-                case 0 -> new PlainSlots(in);
-                case 1 -> new BytecodeSlots(in, bias, sysmis, null);
+                case 0 -> {
+                    in.record("uncompressed case data");
+                    yield new PlainSlots(in);
+                }
+                case 1 -> {
+                    in.record("bytecode-compressed case data");
+                    yield new BytecodeSlots(in, bias, sysmis, null);
+                }
                 default -> {
                     in.record("zlib data header");
                     long headerAt = in.offset();
                     long zheader = in.int64();
                     long ztrailer = in.int64();
-                    in.int64();
-                    if (zheader != headerAt || ztrailer < headerAt + 24 || ztrailer - headerAt - 24 > in.remaining()) {
-                        throw in.error("the zlib data header (at " + zheader + ", trailer at " + ztrailer
-                                + ") does not fit the file");
+                    long ztrailerLength = in.int64();
+                    // The trailer closes the file: a file cut anywhere, even after the last case, is caught here.
+                    if (zheader != headerAt || ztrailer < headerAt + 24 || ztrailerLength < 24
+                            || ztrailer - in.offset() > in.remaining()
+                            || ztrailerLength > in.remaining() - (ztrailer - in.offset())) {
+                        throw in.error("the zlib data header (at " + zheader + ", trailer at " + ztrailer + " of "
+                                + ztrailerLength + " bytes) does not fit the file");
                     }
                     in.record("zlib-compressed case data");
-                    ZlibBlocks blocks = new ZlibBlocks(in, ztrailer - headerAt - 24);
+                    ZlibBlocks blocks = new ZlibBlocks(in, ztrailer - in.offset());
                     SavInput inflated = new SavInput(blocks, in.file(), Long.MAX_VALUE);
                     inflated.littleEndian(in.littleEndian());
                     inflated.record("case data inflated from the zlib blocks (offset counts inflated bytes)");
