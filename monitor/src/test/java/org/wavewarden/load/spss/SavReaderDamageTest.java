@@ -55,7 +55,7 @@ class SavReaderDamageTest {
         Path cut = dir.resolve("cut-" + fixture);
         int failed = 0;
         int tried = 0;
-        // Every cut in the header and dictionary, every 13th after the first 800 bytes (the whole file would take minutes).
+        // Every cut in the first 800 bytes (header, variable records), every 13th after (all would take minutes).
         for (int length = 0; length < whole.length; length += length < 800 ? 1 : 13) {
             tried++;
             Files.write(cut, Arrays.copyOf(whole, length));
