@@ -64,14 +64,16 @@ public final class SavReader implements CaseSource {
     static SavReader open(Path file) throws IOException {
         long size = Files.size(file);
         InputStream in = new BufferedInputStream(Files.newInputStream(file), 64 * 1024);
+        SavInput raw = new SavInput(in, file.toString(), size);
         try {
-            return new SavReader(file, in, new SavInput(in, file.toString(), size));
+            return new SavReader(file, in, raw);
         } catch (IOException e) {
             in.close();
             throw e;
         } catch (RuntimeException e) {
             in.close();
-            throw new SavFormatException(file.toString(), "dictionary", -1, "the dictionary cannot be read: " + e, e);
+            throw new SavFormatException(file.toString(), raw.record(), raw.offset(),
+                    "the dictionary cannot be read: " + e, e);
         }
     }
 
@@ -609,7 +611,7 @@ public final class SavReader implements CaseSource {
             if (longNames != null) {
                 for (String pair : new String(longNames, charset).split("\t")) {
                     int eq = pair.indexOf('=');
-                    if (eq > 0) {
+                    if (eq > 0 && !pair.substring(eq + 1).isBlank()) {
                         longName.put(pair.substring(0, eq).trim().toUpperCase(Locale.ROOT), pair.substring(eq + 1).trim());
                     }
                 }
@@ -633,6 +635,10 @@ public final class SavReader implements CaseSource {
             for (int i = 0; i < segments.size(); i++) {
                 Segment first = segments.get(i);
                 String shortName = text(first.shortName);
+                if (shortName.isBlank()) {
+                    throw new SavFormatException(in.file(), "variable record " + (i + 1), in.offset(),
+                            "a variable has no name");
+                }
                 String name = longName.getOrDefault(shortName.toUpperCase(Locale.ROOT), shortName);
                 Integer width = veryLong.get(shortName.toUpperCase(Locale.ROOT));
                 List<Segment> parts = new ArrayList<>();
