@@ -1,7 +1,5 @@
 package org.wavewarden.load.spss;
 
-import org.wavewarden.load.CaseSource;
-
 import java.io.IOException;
 import java.nio.file.Path;
 
@@ -11,8 +9,11 @@ public final class SavFiles {
     private SavFiles() {
     }
 
-    /** The file's dictionary and cases; the caller closes it. */
-    public static CaseSource open(Path file) throws IOException {
-        throw new UnsupportedOperationException("not written yet");
+    /**
+     * The file's dictionary and cases; the caller closes it. A damaged or truncated file fails with a
+     * {@link SavFormatException} naming the file, the record and the byte offset.
+     */
+    public static SavReader open(Path file) throws IOException {
+        return SavReader.open(file);
     }
 }
