@@ -9,6 +9,7 @@ import org.wavewarden.codebook.DdiCodebook;
 import org.wavewarden.codebook.VariableMeta;
 import org.wavewarden.config.MissingCodeSpec;
 import org.wavewarden.config.MissingRangeSpec;
+import org.wavewarden.deliver.Json;
 import org.wavewarden.load.TableShape;
 import org.wavewarden.load.spss.SavFiles;
 import org.wavewarden.store.ResultsSchema;
@@ -87,6 +88,13 @@ class ImportCommandTest {
         }
     }
 
+    double number(String sql) throws SQLException {
+        try (Connection c = TestDatabase.connect(url); ResultSet rs = c.createStatement().executeQuery(sql)) {
+            rs.next();
+            return rs.getDouble(1);
+        }
+    }
+
     void execute(String sql) throws SQLException {
         try (Connection c = TestDatabase.connect(url); var st = c.createStatement()) {
             st.execute(sql);
@@ -145,6 +153,89 @@ class ImportCommandTest {
         assertEquals(List.of(new MissingRangeSpec(-99.0, -91.0, "No answer")),
                 saved.variable("age").orElseThrow().missingRanges());
         assertEquals("Council tenant", saved.variable("tenure").orElseThrow().valueLabels().get("COUN"));
+    }
+
+    @Test
+    void aPsppFileWithDiscreteMissingCodesARangeAndALongStringIsCreatedAndLoaded() throws Exception {
+        // Written by GNU PSPP 1.6.2 from household-pspp.sps; what haven::read_sav(user_na = TRUE) reads back (R 4.2.2,
+        // haven 2.5.1): hhid 101..105, satisf 1 5 8 9 2 (8 and 9 user-missing), income 1200.5 NA -1 2400 -7
+        // (LO THRU -1 user-missing), remark of 360 or 361 characters, visited 2025-01-03 to 2025-01-07.
+        Path sav = fixture("household-pspp.sav");
+        assumeSavReader(sav);
+        CliRun r = importWave(config, "2025-Q1", sav, "--create");
+        assertEquals(0, r.exitCode(), r.err());
+        assertTrue(r.out().contains("hhid bigint (SPSS format F5.0, every value an integer)"), r.out());
+        assertTrue(r.out().contains("satisf bigint (SPSS format F1.0, every value an integer)"), r.out());
+        assertTrue(r.out().contains("remark text"), r.out());
+        assertTrue(r.out().contains("visited date"), r.out());
+        assertTrue(r.out().contains("saved the codebook of wave 2025-Q1: 7 variables, 2 with value labels, 2 with"
+                + " missing values"), r.out());
+        assertEquals(101 + 102 + 103 + 104 + 105, count("SELECT sum(hhid) FROM survey.household"));
+        assertEquals(1 + 5 + 8 + 9 + 2, count("SELECT sum(satisf) FROM survey.household"));
+        assertEquals(1200.5 - 1 + 2400 - 7, number("SELECT sum(income) FROM survey.household"), 1e-9);
+        assertEquals(360 + 361 + 361 + 360 + 361, count("SELECT sum(length(remark)) FROM survey.household"));
+        assertEquals(1, count("SELECT count(*) FROM survey.household WHERE visited = '2025-01-05' AND tenure = 'COUN'"
+                + " AND weight = 1"));
+        DatasetCodebook saved = codebooks().load("household", "2025-Q1").orElseThrow();
+        assertEquals(List.of("8", "9"), saved.variable("satisf").orElseThrow().missingCodes().stream()
+                .map(MissingCodeSpec::value).toList());
+        assertEquals("Don't know", saved.variable("satisf").orElseThrow().valueLabels().get("8"));
+        MissingRangeSpec below = saved.variable("income").orElseThrow().missingRanges().get(0);
+        assertEquals(null, below.low());
+        assertEquals(-1.0, below.high());
+    }
+
+    /** Whether a program runs here (CI installs R with haven and PSPP; a developer's machine may lack them). */
+    static boolean runs(String... command) {
+        try {
+            Process p = new ProcessBuilder(command).redirectErrorStream(true).redirectOutput(
+                    ProcessBuilder.Redirect.DISCARD).start();
+            return p.waitFor() == 0;
+        } catch (java.io.IOException e) {
+            return false;
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            return false;
+        }
+    }
+
+    static void run(Path folder, String... command) throws Exception {
+        Process p = new ProcessBuilder(command).directory(folder.toFile()).redirectErrorStream(true).start();
+        String output = new String(p.getInputStream().readAllBytes(), java.nio.charset.StandardCharsets.UTF_8);
+        assertEquals(0, p.waitFor(), String.join(" ", command) + ": " + output);
+    }
+
+    @Test
+    void filesWrittenNowByHavenAndPsppLoadTheSameRowsAsTheCommittedOnes() throws Exception {
+        assumeTrue(runs("Rscript", "-e", "stopifnot(packageVersion('haven') == '2.5.1')"), "R with haven 2.5.1");
+        assumeTrue(runs("pspp", "--version"), "GNU PSPP");
+        Path committed = Files.createDirectory(dir.resolve("committed"));
+        Path fresh = Files.createDirectory(dir.resolve("fresh"));
+        for (String name : List.of("household-q1.sav", "household-pspp.sav")) {
+            Files.move(fixture(name), committed.resolve(name));
+        }
+        assumeSavReader(committed.resolve("household-q1.sav"));
+        for (String script : List.of("household-waves.R", "household-pspp.sps")) {
+            Files.move(fixture(script), fresh.resolve(script));
+        }
+        run(fresh, "Rscript", "household-waves.R");
+        run(fresh, "pspp", "household-pspp.sps");
+        for (String name : List.of("household-q1.sav", "household-pspp.sav")) {
+            Path cfg = dir.resolve(name + ".yaml");
+            String table = name.startsWith("household-q1") ? "survey.haven" : "survey.pspp";
+            Files.writeString(cfg, Files.readString(config).replace("survey.household", table));
+            CliRun a = importWave(cfg, "committed", committed.resolve(name), "--create");
+            assertEquals(0, a.exitCode(), a.err());
+            CliRun b = importWave(cfg, "fresh", fresh.resolve(name));
+            assertEquals(0, b.exitCode(), b.err());
+            String rows = "SELECT to_jsonb(t) - 'wave' FROM " + table + " t WHERE wave = ";
+            assertEquals(count("SELECT count(*) FROM " + table + " WHERE wave = 'committed'"),
+                    count("SELECT count(*) FROM " + table + " WHERE wave = 'fresh'"), name);
+            assertEquals(0, count("SELECT count(*) FROM (" + rows + "'committed' EXCEPT ALL " + rows + "'fresh') d"),
+                    name);
+            assertEquals(Json.write(codebooks().load("household", "committed").orElseThrow().variables()),
+                    Json.write(codebooks().load("household", "fresh").orElseThrow().variables()), name);
+        }
     }
 
     @Test
