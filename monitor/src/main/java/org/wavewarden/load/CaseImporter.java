@@ -90,6 +90,9 @@ public final class CaseImporter {
                 // Another import may have created it while this one waited for the lock.
                 have.putAll(TableShape.existing(c, table));
             }
+            if (!have.isEmpty() && !have.containsKey(waveColumn)) {
+                throw new ConfigException("waveColumn", "table " + table + " has no column " + waveColumn);
+            }
             long existing = have.isEmpty() ? 0 : WaveLoad.existingRows(c, table, waveColumn, wave, replace);
             List<String> names = columnNames(dictionary, have, waveColumn, file, printed);
             if (names.stream().allMatch(n -> n == null)) {

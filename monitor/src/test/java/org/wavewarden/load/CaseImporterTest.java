@@ -352,6 +352,15 @@ class CaseImporterTest {
     }
 
     @Test
+    void anExistingTableWithoutTheWaveColumnIsRefusedNamingTheKey() throws Exception {
+        execute("CREATE SCHEMA survey; CREATE TABLE survey.household (round text, id bigint)");
+        ConfigException e = assertThrows(ConfigException.class, () -> load("2025-Q1", household(), q1(), false,
+                true));
+        assertEquals("waveColumn", e.key());
+        assertEquals(0, count("SELECT count(*) FROM survey.household"));
+    }
+
+    @Test
     void aLargeWaveIsStreamedInBlocksWithTextLongerThanABlock() throws Exception {
         List<Object[]> rows = new ArrayList<>();
         for (int i = 0; i < 20_000; i++) {
