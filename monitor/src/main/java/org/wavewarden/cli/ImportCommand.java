@@ -1,24 +1,43 @@
 package org.wavewarden.cli;
 
+import com.zaxxer.hikari.HikariDataSource;
+import org.jdbi.v3.core.Jdbi;
+import org.wavewarden.codebook.CsvCodebook;
+import org.wavewarden.codebook.DatasetCodebook;
+import org.wavewarden.codebook.DdiCodebook;
 import org.wavewarden.config.ConfigException;
 import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.Identifiers;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.db.Databases;
 import org.wavewarden.deliver.DataText;
+import org.wavewarden.load.CaseImporter;
+import org.wavewarden.load.CaseSource;
 import org.wavewarden.load.CsvWaveImporter;
+import org.wavewarden.load.spss.SavFiles;
+import org.wavewarden.store.ResultsSchema;
+import org.wavewarden.store.WaveCodebooks;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.nio.file.Files;
+import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.sql.Connection;
+import java.sql.SQLException;
+import java.time.Instant;
+import java.util.Locale;
 import java.util.concurrent.Callable;
 
 @Command(name = "import", mixinStandardHelpOptions = true,
-        description = "Load a CSV file (header row; .csv or .csv.gz) into the dataset's table as one wave, with COPY."
-                + " This is the one command that writes to the source database, so it opens its own writable session.")
+        description = "Load one wave into the dataset's table: an SPSS system file (.sav, .zsav) with its dictionary,"
+                + " or a CSV file (header row; .csv or .csv.gz), with COPY in one transaction. The codebook the wave"
+                + " came with (the .sav dictionary, or --codebook) is saved in the results schema. This is the one"
+                + " command that writes to the source database, so it opens its own writable session.")
 final class ImportCommand implements Callable<Integer> {
 
     @Mixin
@@ -27,13 +46,35 @@ final class ImportCommand implements Callable<Integer> {
     DatasetOption dataset;
     @Option(names = "--wave", required = true, paramLabel = "WAVE", description = "wave label for every row")
     String wave;
-    @Option(names = "--replace", description = "replace the wave's rows if it already has some")
+    @Option(names = "--replace", description = "replace the wave's rows (and its saved codebook) if it already has"
+            + " some")
     boolean replace;
-    @Parameters(paramLabel = "CSV", description = "the file to load")
-    Path csv;
+    @Option(names = "--create", description = "create the dataset's table from the file when it does not exist"
+            + " (types from the file's dictionary, or inferred; printed)")
+    boolean create;
+    @Option(names = "--codebook", paramLabel = "FILE", description = "the codebook of a CSV file: DDI-Codebook 2.5"
+            + " (.xml) or a CSV codebook (.csv); saved with the wave")
+    Path codebookFile;
+    @Parameters(paramLabel = "FILE", description = "the file to load: .sav, .zsav, .csv or .csv.gz")
+    Path file;
 
     @picocli.CommandLine.Spec
     picocli.CommandLine.Model.CommandSpec spec;
+
+    /** What kind of file is being loaded, from its name. */
+    enum FileKind { SPSS, CSV }
+
+    static FileKind kindOf(Path file) {
+        String name = file.getFileName().toString().toLowerCase(Locale.ROOT);
+        if (name.endsWith(".sav") || name.endsWith(".zsav")) {
+            return FileKind.SPSS;
+        }
+        if (name.endsWith(".csv") || name.endsWith(".csv.gz")) {
+            return FileKind.CSV;
+        }
+        throw new ConfigException("FILE", "cannot tell what " + DataText.visible(file.getFileName().toString())
+                + " is from its name: expected .sav or .zsav (SPSS system file), .csv or .csv.gz");
+    }
 
     @Override
     public Integer call() throws Exception {
@@ -44,18 +85,113 @@ final class ImportCommand implements Callable<Integer> {
                     + " one table per wave");
         }
         var table = Identifiers.TableName.parse("table", d.table());
-        try (var ds = Databases.open(c.source(), null, "source", false, System.getenv(), 1)) {
+        FileKind kind = kindOf(file);
+        if (!Files.isRegularFile(file)) {
+            throw new ConfigException("FILE", "no file " + file);
+        }
+        if (kind == FileKind.SPSS && codebookFile != null) {
+            throw new ConfigException("--codebook", "an SPSS system file carries its own dictionary; --codebook is"
+                    + " for CSV files");
+        }
+        // Read before anything is written, so a codebook that cannot be read stops the import, not the save.
+        DatasetCodebook given = codebookFile == null ? null : readCodebook(codebookFile);
+        PrintWriter out = spec.commandLine().getOut();
+        PrintWriter err = spec.commandLine().getErr();
+        boolean ownResults = c.results().connection() != null;
+        // Two connections: Flyway holds one for its lock while it migrates with the other.
+        try (HikariDataSource ds = Databases.open(c.source(), null, "source", false, System.getenv(), 2);
+             HikariDataSource rs = ownResults
+                     ? Databases.open(c.results().connection(), null, "results", false, System.getenv(), 2) : null) {
             // A wrong password is reported at once rather than after the pool's connection timeout.
             Databases.firstContact(ds, "source");
+            HikariDataSource results = ownResults ? rs : ds;
+            if (ownResults) {
+                Databases.firstContact(rs, "results");
+            }
+            // The results schema is brought up to date first, so an unreachable or outdated results store stops
+            // the import before its rows are committed.
+            ResultsSchema.migrate(results, c.results().schema());
+            DatasetCodebook saved;
+            long rows;
             try (Connection conn = ds.getConnection()) {
-                var err = spec.commandLine().getErr();
-                var r = CsvWaveImporter.load(conn, table, d.waveColumn(), wave, csv, replace,
-                        Progress.rows("importing " + csv.getFileName() + " (bytes)", err));
+                if (kind == FileKind.SPSS) {
+                    try (CaseSource cases = SavFiles.open(file)) {
+                        var loaded = CaseImporter.loadWithCodebook(conn, table, d.waveColumn(), wave, cases, replace,
+                                create, out, Progress.rows("importing " + file.getFileName(), err));
+                        rows = loaded.imported().rows();
+                        saved = loaded.codebook();
+                    }
+                } else {
+                    var r = CsvWaveImporter.load(conn, table, d.waveColumn(), wave, file, replace,
+                            Progress.rows("importing " + file.getFileName() + " (bytes)", err), csvFormat(), out);
+                    rows = r.rows();
+                    saved = given;
+                }
                 Progress.done(err);
-                spec.commandLine().getOut().println("imported " + r.rows() + " rows into " + table + " as wave "
-                        + DataText.visible(r.wave()));
+            }
+            out.println("imported " + rows + " rows into " + table + " as wave " + DataText.visible(wave));
+            return saveCodebook(new WaveCodebooks(Jdbi.create(results), c.results().schema()), d.name(), saved, out,
+                    err);
+        }
+    }
+
+    /** The CSV file's delimiter and encoding: detected from the file. */
+    CsvWaveImporter.CsvFormat csvFormat() {
+        return CsvWaveImporter.CsvFormat.detect();
+    }
+
+    static DatasetCodebook readCodebook(Path codebook) {
+        String name = codebook.getFileName().toString().toLowerCase(Locale.ROOT);
+        try {
+            if (name.endsWith(".xml")) {
+                return DdiCodebook.read(codebook);
+            }
+            if (name.endsWith(".csv")) {
+                return CsvCodebook.read(codebook);
+            }
+        } catch (NoSuchFileException e) {
+            throw new ConfigException("--codebook", "no file " + codebook);
+        } catch (IOException e) {
+            throw new ConfigException("--codebook", "cannot read " + codebook + ": " + e.getMessage());
+        }
+        throw new ConfigException("--codebook", "expected a DDI-Codebook file (.xml) or a CSV codebook (.csv) but got "
+                + DataText.visible(codebook.getFileName().toString()));
+    }
+
+    /**
+     * Saves the wave's codebook once its rows are committed (or forgets one saved with rows this import replaced).
+     * The rows stay when this fails: the exit code and message say so, and the same import with --replace does both.
+     */
+    int saveCodebook(WaveCodebooks codebooks, String datasetName, DatasetCodebook codebook, PrintWriter out,
+                     PrintWriter err) {
+        try {
+            if (codebook == null) {
+                if (replace && codebooks.delete(datasetName, wave)) {
+                    out.println("removed the codebook saved with the earlier rows of wave " + DataText.visible(wave));
+                }
+                return Main.OK;
+            }
+            codebooks.save(datasetName, wave, codebook, Instant.now());
+        } catch (RuntimeException e) {
+            err.println("the rows of wave " + DataText.visible(wave) + " are committed, but saving its codebook"
+                    + " failed: " + reason(e) + "; run the same import again with --replace to load both");
+            return Main.FAILED;
+        }
+        long labelled = codebook.variables().stream().filter(v -> !v.valueLabels().isEmpty()).count();
+        long missing = codebook.variables().stream()
+                .filter(v -> !v.missingCodes().isEmpty() || !v.missingRanges().isEmpty()).count();
+        out.println("saved the codebook of wave " + DataText.visible(wave) + ": " + codebook.variables().size()
+                + " variables, " + labelled + " with value labels, " + missing + " with missing values");
+        return Main.OK;
+    }
+
+    /** The server's own words, without the statement and its bound values (a whole codebook) around them. */
+    private static String reason(RuntimeException e) {
+        for (Throwable t = e; t != null; t = t.getCause()) {
+            if (t instanceof SQLException s) {
+                return DataText.visible(String.valueOf(s.getMessage()));
             }
         }
-        return Main.OK;
+        return e.getClass().getSimpleName();
     }
 }

@@ -34,6 +34,17 @@ public final class WaveCodebooks {
                 .bind("cb", Json.write(codebook)).execute());
     }
 
+    /**
+     * Forgets the codebook of a wave loaded again without one, so the new rows are never read with the labels of
+     * the file they replaced.
+     *
+     * @return whether there was one
+     */
+    public boolean delete(String dataset, String wave) {
+        return jdbi.withHandle(h -> h.createUpdate("DELETE FROM " + s + ".wave_codebook WHERE dataset = :d AND"
+                + " wave = :w").bind("d", dataset).bind("w", wave).execute()) > 0;
+    }
+
     /** The codebook the wave was imported with, or empty when it was imported without one. */
     public Optional<DatasetCodebook> load(String dataset, String wave) {
         return jdbi.withHandle(h -> h.createQuery("SELECT codebook::text FROM " + s + ".wave_codebook WHERE dataset = :d"
