@@ -90,8 +90,8 @@ final class ScaffoldCommand implements Callable<Integer> {
         String yaml;
         try (Session s = Session.open(config, null, System.getenv())) {
             s.migrate();
-            WaveSource source = WaveSource.of(d, dataset == null ? "--table" : "datasets[" + d.name() + "]");
-            Scan scan = s.source().withHandle(h -> scan(h, d, source));
+            WaveSource source = WaveSource.of(d, key(config, d));
+            Scan scan = s.source().withHandle(h -> scan(h, d, source, key(config, d)));
             DatasetCodebook codebook = file;
             if (codebook == null) {
                 codebook = new WaveCodebooks(s.store().jdbi(), config.results().schema()).load(d.name(), scan.wave())
@@ -117,16 +117,21 @@ final class ScaffoldCommand implements Callable<Integer> {
     }
 
     /** The newest wave with rows, read as a run reads it. */
-    private Scan scan(Handle h, DatasetConfig d, WaveSource source) {
+    /** The key errors about the dataset name: its place in the config, or the command line's options. */
+    private String key(WardenConfig config, DatasetConfig d) {
+        return dataset == null ? "--table" : "datasets[" + config.datasets().indexOf(d) + "]";
+    }
+
+    private Scan scan(Handle h, DatasetConfig d, WaveSource source, String key) {
         if (!source.onePerWave()) {
-            String tableKey = dataset == null ? "--table" : "datasets[" + d.name() + "].table";
+            String tableKey = dataset == null ? "--table" : key + ".table";
             if (!SourceCatalog.tableExists(h, source.table())) {
                 throw new ConfigException(tableKey, "table " + source.table() + " does not exist in the source"
                         + " database (or this role cannot see it)");
             }
             List<SourceColumn> all = SourceCatalog.columns(h, source.table());
             if (all.stream().noneMatch(c -> c.name().equals(d.waveColumn()))) {
-                throw new ConfigException(dataset == null ? "--wave-column" : "datasets[" + d.name() + "].waveColumn",
+                throw new ConfigException(dataset == null ? "--wave-column" : key + ".waveColumn",
                         "column " + d.waveColumn() + " does not exist in " + source.table() + "; it has "
                                 + all.stream().map(SourceColumn::name).toList());
             }
@@ -139,7 +144,7 @@ final class ScaffoldCommand implements Callable<Integer> {
             }
         }
         if (newest == null) {
-            throw new ConfigException(d.table() != null ? "--table" : "--dataset", "the table has no rows to scaffold"
+            throw new ConfigException(dataset == null ? "--table" : "--dataset", "the table has no rows to scaffold"
                     + " from; import a wave first");
         }
         List<SourceColumn> columns = SourceCatalog.columns(h, source.tableFor(newest.wave()));

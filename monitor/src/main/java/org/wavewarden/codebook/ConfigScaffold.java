@@ -215,9 +215,15 @@ public final class ConfigScaffold {
                     origin = "codebook: " + m.storage().name().toLowerCase(Locale.ROOT) + " values";
                 }
             } else {
-                List<MissingRangeSpec> declaredRanges = ranges;
+                org.wavewarden.missing.Codebook declared = VariableScreen.codebook(new VariableConfig(c.name(),
+                        VariableKind.CATEGORICAL, null, null, codes, null, null, List.of(), null, null, null, null,
+                        numeric ? ranges : List.of()));
+                ColumnType asType = numeric ? ColumnType.DECIMAL : ColumnType.TEXT;
                 List<String> valid = new ArrayList<>(labels.keySet());
-                valid.removeIf(code -> isMissing(code, codes, declaredRanges, numeric));
+                valid.removeIf(code -> declared.reasonOf(code, asType).isPresent());
+                // Two labelled answers make a binary variable only if the wave uses no other answer.
+                boolean two = valid.size() == 2 && (tally == null || tally.valueCounts().keySet().stream()
+                        .filter(x -> declared.reasonOf(x, type).isEmpty()).count() <= 2);
                 switch (m.measure()) {
                     case SCALE -> {
                         if (numeric) {
@@ -236,8 +242,8 @@ public final class ConfigScaffold {
                         }
                     }
                     case NOMINAL -> {
-                        kind = valid.size() == 2 ? VariableKind.BINARY : VariableKind.CATEGORICAL;
-                        origin = valid.size() == 2 ? "codebook: nominal with 2 labelled answers" : "codebook: nominal";
+                        kind = two ? VariableKind.BINARY : VariableKind.CATEGORICAL;
+                        origin = two ? "codebook: nominal with 2 labelled answers" : "codebook: nominal";
                     }
                     case UNKNOWN -> {
                     }
@@ -295,14 +301,6 @@ public final class ConfigScaffold {
             }
         }
         return min == null ? null : new RangeSpec(min, max);
-    }
-
-    private static boolean isMissing(String code, List<MissingCodeSpec> codes, List<MissingRangeSpec> ranges,
-                                     boolean numeric) {
-        VariableConfig probe = new VariableConfig("probe", VariableKind.CATEGORICAL, null, null, codes, null, null,
-                List.of(), null, null, null, null, numeric ? ranges : List.of());
-        return VariableScreen.codebook(probe).reasonOf(code, numeric ? ColumnType.DECIMAL : ColumnType.TEXT)
-                .isPresent();
     }
 
     /**

@@ -165,6 +165,17 @@ class ConfigScaffoldTest {
     }
 
     @Test
+    void twoLabelledAnswersStayCategoricalWhenTheWaveUsesAThirdOne() {
+        DatasetCodebook codebook = new DatasetCodebook("household.xml", null, List.of(
+                meta("owns_car", null, Measure.NOMINAL, Map.of("1", "Yes", "2", "No"), List.of(), List.of(), null)));
+        String yaml = ConfigScaffold.yaml(input(List.of(new SourceColumn("wave", ColumnType.TEXT, "text"),
+                        new SourceColumn("owns_car", ColumnType.INTEGER, "integer")),
+                Map.of("owns_car", tally("owns_car", ColumnType.INTEGER, Map.of("1", 40L, "2", 50L, "3", 10L))),
+                codebook));
+        assertEquals(VariableKind.CATEGORICAL, variable(load(yaml), "owns_car").kind(), yaml);
+    }
+
+    @Test
     void aCodebookKindThatDoesNotFitTheColumnGivesWayToInferenceWithANote() {
         DatasetCodebook codebook = new DatasetCodebook("household.csv", null, List.of(
                 meta("remark", "Remarks", Measure.SCALE, Map.of(), List.of(), List.of(new MissingRangeSpec(null, -1.0,
