@@ -60,7 +60,8 @@ public final class ConfigScaffold {
      * @param source       the source connection as configured (the password stays where it lives)
      * @param results      the results schema and connection as configured
      * @param dataset      the dataset's name
-     * @param table        the table ({@code schema.table})
+     * @param table        the table ({@code schema.table}), or the pattern of a table per wave
+     *                     ({@code pulse.wave_{wave}})
      * @param waveColumn   the wave column
      * @param columns      every column of the table, in table order
      * @param wave         the newest wave with rows, whose tallies are given
@@ -102,8 +103,12 @@ public final class ConfigScaffold {
         y.append("  schema: ").append(quote(in.results().schema())).append('\n');
         y.append("datasets:\n");
         y.append("  - name: ").append(quote(in.dataset())).append('\n');
-        y.append("    table: ").append(quote(in.table())).append('\n');
-        y.append("    waveColumn: ").append(quote(in.waveColumn())).append('\n');
+        // A table per wave is named by its pattern, which holds the wave's place as {wave}.
+        y.append(in.table().contains("{wave}") ? "    tablePattern: " : "    table: ").append(quote(in.table()))
+                .append('\n');
+        if (in.waveColumn() != null) {
+            y.append("    waveColumn: ").append(quote(in.waveColumn())).append('\n');
+        }
 
         String weight = in.weightColumn();
         String weightWhy = weight == null ? null : "as configured";

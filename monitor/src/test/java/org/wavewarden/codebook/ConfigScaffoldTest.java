@@ -165,6 +165,18 @@ class ConfigScaffoldTest {
     }
 
     @Test
+    void aTablePerWaveIsWrittenAsItsPatternWithoutAWaveColumn() {
+        String yaml = ConfigScaffold.yaml(new ConfigScaffold.Input(SOURCE, new WardenConfig.ResultsConfig(null,
+                "ww_results"), "household", "pulse.wave_{wave}", null, List.of(new SourceColumn("age",
+                ColumnType.INTEGER, "integer")), "7", Map.of("age", tally("age", ColumnType.INTEGER,
+                integers(16, 90, 2))), null, null, null, List.of()));
+        DatasetConfig d = load(yaml);
+        assertEquals("pulse.wave_{wave}", d.tablePattern());
+        assertNull(d.table());
+        assertEquals(List.of("age"), d.variables().stream().map(VariableConfig::name).toList());
+    }
+
+    @Test
     void twoLabelledAnswersStayCategoricalWhenTheWaveUsesAThirdOne() {
         DatasetCodebook codebook = new DatasetCodebook("household.xml", null, List.of(
                 meta("owns_car", null, Measure.NOMINAL, Map.of("1", "Yes", "2", "No"), List.of(), List.of(), null)));
