@@ -13,6 +13,7 @@ import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.Identifiers;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.config.WaveOrder;
+import org.wavewarden.deliver.DataText;
 import org.wavewarden.pipeline.Session;
 import org.wavewarden.pipeline.WaveJudge;
 import org.wavewarden.profile.WaveProfile;
@@ -96,8 +97,9 @@ final class ScaffoldCommand implements Callable<Integer> {
             if (codebook == null) {
                 codebook = new WaveCodebooks(s.store().jdbi(), config.results().schema()).load(d.name(), scan.wave())
                         .orElse(null);
-                err.println(codebook == null ? "no codebook given and none saved with wave " + scan.wave()
-                        + ": every kind is inferred" : "codebook: the one saved with wave " + scan.wave());
+                String wave = DataText.visible(scan.wave());
+                err.println(codebook == null ? "no codebook given and none saved with wave " + wave
+                        + ": every kind is inferred" : "codebook: the one saved with wave " + wave);
             }
             yaml = ConfigScaffold.yaml(new ConfigScaffold.Input(config.source(), config.results(), d.name(),
                     d.table() != null ? d.table() : d.tablePattern(), d.waveColumn(), scan.columns(), scan.wave(),
