@@ -15,7 +15,7 @@ import java.io.PrintWriter;
         description = "Judges each new survey wave against earlier waves and flags disguised missing values.",
         subcommands = {DemoCommand.class, InitDbCommand.class, ImportCommand.class, WavesCommand.class,
                 CheckCommand.class, ReleasesCommand.class, RunCommand.class, OutboxCommand.class, BenchCommand.class,
-                SoakCommand.class, ServerCommand.class,
+                SoakCommand.class, ScaffoldCommand.class, ServerCommand.class,
                 CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
 

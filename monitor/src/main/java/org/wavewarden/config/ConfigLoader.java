@@ -588,7 +588,7 @@ public final class ConfigLoader {
 
         VariableConfig variable(ObjectNode node, String path) {
             known(node, path, "name", "kind", "unit", "range", "missingCodes", "threshold", "successValue", "levels",
-                    "reference", "locationTest");
+                    "reference", "locationTest", "label", "valueLabels", "missingRanges");
             String name = Identifiers.require(path + ".name", text(node, "name", path + ".name", true));
             String kindText = text(node, "kind", path + ".kind", true);
             VariableKind kind = kind(kindText, path + ".kind");
@@ -611,8 +611,63 @@ public final class ConfigLoader {
                     path + ".reference", kind);
             LocationTestPin locationTest = locationTest(text(node, "locationTest", path + ".locationTest", false),
                     path + ".locationTest", kind);
+            String label = text(node, "label", path + ".label", false);
+            java.util.Map<String, String> valueLabels = valueLabels(node.get("valueLabels"), path + ".valueLabels");
+            List<MissingRangeSpec> missingRanges = missingRanges(node.get("missingRanges"), path + ".missingRanges",
+                    kind);
             return new VariableConfig(name, kind, unit, range, codes, threshold, success, levels, reference,
-                    locationTest);
+                    locationTest, label, valueLabels, missingRanges);
+        }
+
+        java.util.Map<String, String> valueLabels(JsonNode node, String path) {
+            if (node == null || node.isNull()) {
+                return java.util.Map.of();
+            }
+            ObjectNode o = asObject(node, path);
+            java.util.Map<String, String> out = new java.util.LinkedHashMap<>();
+            var it = o.fieldNames();
+            while (it.hasNext()) {
+                String code = it.next();
+                out.put(code, text(o, code, path + "." + code, true));
+            }
+            return out;
+        }
+
+        /**
+         * A variable's ranges of "no answer" values: {@code [{min: -99, max: -90, reason: "not asked"}, {max: -1}]},
+         * either end open. Numbers only: a text or date variable has no numeric ranges.
+         */
+        List<MissingRangeSpec> missingRanges(JsonNode node, String path, VariableKind kind) {
+            if (node == null || node.isNull()) {
+                return List.of();
+            }
+            if (!node.isArray()) {
+                throw new ConfigException(path, "expected a list of {min, max, reason} but got " + describe(node));
+            }
+            if (node.size() > 0 && (kind == VariableKind.TEXT || kind == VariableKind.DATE)) {
+                throw new ConfigException(path, "missing ranges are ranges of numbers; a " + kind.configName()
+                        + " variable has none (list its codes under missingCodes)");
+            }
+            List<MissingRangeSpec> out = new ArrayList<>();
+            for (int i = 0; i < node.size(); i++) {
+                String p = path + "[" + i + "]";
+                ObjectNode o = asObject(node.get(i), p);
+                known(o, p, "min", "max", "reason");
+                Double min = o.hasNonNull("min") ? number(o, "min", p + ".min", Double.NaN) : null;
+                Double max = o.hasNonNull("max") ? number(o, "max", p + ".max", Double.NaN) : null;
+                if (min == null && max == null) {
+                    throw new ConfigException(p, "expected min, max or both (leave one out for an open end)");
+                }
+                if ((min != null && !Double.isFinite(min)) || (max != null && !Double.isFinite(max))) {
+                    throw new ConfigException(p, "expected finite numbers as min and max");
+                }
+                if (min != null && max != null && min > max) {
+                    throw new ConfigException(p, "min " + min + " is above max " + max);
+                }
+                String reason = text(o, "reason", p + ".reason", false);
+                out.add(new MissingRangeSpec(min, max, reason == null ? "missing range" : reason));
+            }
+            return out;
         }
 
         LocationTestPin locationTest(String text, String path, VariableKind kind) {

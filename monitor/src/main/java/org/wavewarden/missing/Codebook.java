@@ -20,11 +20,21 @@ import org.wavewarden.profile.ColumnType;
  * applied to text columns, where leading zeros and decimals are part of the answer ({@code "007"} is not {@code 7}).
  * Code values are common practice in survey codebooks (7/77/777 refused, 9/99/999 don't know); there is no single
  * published source for them.
+ *
+ * <p>Ranges ({@link MissingRange}, an SPSS user-missing range or a DDI invalid range) are matched in numeric columns
+ * only, after the discrete codes: a value that is both a code and in a range is counted once, under the code's
+ * reason.
  */
-public record Codebook(List<MissingCode> codes) {
+public record Codebook(List<MissingCode> codes, List<MissingRange> ranges) {
+
+    /** Discrete codes only. */
+    public Codebook(List<MissingCode> codes) {
+        this(codes, List.of());
+    }
 
     public Codebook {
         codes = List.copyOf(codes);
+        ranges = ranges == null ? List.of() : List.copyOf(ranges);
         Map<String, String> seenText = new HashMap<>();
         Map<BigDecimal, String> seenNumber = new HashMap<>();
         for (MissingCode c : codes) {
@@ -82,17 +92,27 @@ public record Codebook(List<MissingCode> codes) {
                         return Optional.of(c.reason());
                     }
                 }
+                for (MissingRange r : ranges) {
+                    if (r.contains(raw)) {
+                        return Optional.of(r.reason());
+                    }
+                }
             }
         }
         return Optional.empty();
     }
 
-    /** The distinct reasons in codebook order. */
+    /** The distinct reasons in codebook order: the codes' first, then the ranges'. */
     public List<String> reasons() {
         List<String> out = new ArrayList<>();
         for (MissingCode c : codes) {
             if (!out.contains(c.reason())) {
                 out.add(c.reason());
+            }
+        }
+        for (MissingRange r : ranges) {
+            if (!out.contains(r.reason())) {
+                out.add(r.reason());
             }
         }
         return List.copyOf(out);

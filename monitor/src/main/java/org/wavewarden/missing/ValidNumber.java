@@ -15,8 +15,9 @@ import java.util.Set;
  *       for an ordinal variable with {@code levels}, one of the levels, whose value is its rank;</li>
  *   <li>finite (a decimal too large for a double is not);</li>
  *   <li>inside the declared range, bounds included;</li>
- *   <li>not left out by the screen: a codebook missing code (matched numerically, so {@code 999.0} is the code
- *       {@code 999}), or a value the screen excluded as a confident disguised missing value.</li>
+ *   <li>not left out by the screen: a codebook missing code or a value in a declared missing range (matched
+ *       numerically, so {@code 999.0} is the code {@code 999}), or a value the screen excluded as a confident
+ *       disguised missing value.</li>
  * </ul>
  * The screen ({@link VariableScreen}), the panel's pairs, the design views and the relationships' pairs all ask this
  * class, so that an answer is valid in one comparison exactly when it is valid in the others.

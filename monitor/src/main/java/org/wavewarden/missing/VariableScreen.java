@@ -16,8 +16,8 @@ import java.util.Optional;
 import java.util.TreeMap;
 
 /**
- * Separates one variable's answers into missing (by reason) and valid, typed for its kind. Codebook codes are
- * removed first; then the detector looks for disguised missing values among the rest, and candidates it is
+ * Separates one variable's answers into missing (by reason) and valid, typed for its kind. Codebook codes and
+ * missing ranges are removed first; then the detector looks for disguised missing values among the rest, and candidates it is
  * confident about are removed too, so that a sentinel such as 999 never poisons a mean or a share.
  *
  * <p>Only {@link ScreenedWave} screens: the rest of a run takes each wave's screened answers from there, so the
@@ -40,8 +40,10 @@ public final class VariableScreen {
         return SCREENS.sum();
     }
 
+    /** The variable's declared missing values, discrete codes and ranges alike, as the one matcher of them. */
     public static Codebook codebook(VariableConfig v) {
-        return new Codebook(v.missingCodes().stream().map(c -> new MissingCode(c.value(), c.reason())).toList());
+        return new Codebook(v.missingCodes().stream().map(c -> new MissingCode(c.value(), c.reason())).toList(),
+                v.missingRanges().stream().map(r -> new MissingRange(r.low(), r.high(), r.reason())).toList());
     }
 
     public static Optional<ValueRange> range(VariableConfig v) {

@@ -73,6 +73,10 @@ public final class CatalogCheck {
                         + " is " + column.postgresType() + "; declare it as text (screened for disguised missing"
                         + " values) or " + (column.type().isNumeric() ? "continuous" : "categorical") + " instead");
             }
+            if (!v.missingRanges().isEmpty() && !column.type().isNumeric()) {
+                throw new ConfigException(at + ".missingRanges", "missing ranges are ranges of numbers, but "
+                        + v.name() + " is " + column.postgresType() + "; list its codes under missingCodes instead");
+            }
             if (v.successValue() != null) {
                 successValueOccurs(h, tables, v, column, at + ".successValue");
             }

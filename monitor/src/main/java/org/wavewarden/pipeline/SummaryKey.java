@@ -2,6 +2,7 @@ package org.wavewarden.pipeline;
 
 import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.MissingCodeSpec;
+import org.wavewarden.config.MissingRangeSpec;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.profile.ColumnType;
 import org.wavewarden.read.PairSpec;
@@ -18,7 +19,7 @@ import java.util.TreeMap;
 
 /**
  * What a stored wave summary depends on besides the wave's rows: the columns read and their types, the weight and
- * design columns, every declared variable's kind, codebook codes, range and levels, the tallied pairs, and the
+ * design columns, every declared variable's kind, codebook codes and missing ranges, range and levels, the tallied pairs, and the
  * summary format. Two reads of the same rows under equal keys give equal summaries; a stored summary under another
  * key (weights added since, a code declared, a kind changed) is not reused but read again.
  *
@@ -54,6 +55,10 @@ public record SummaryKey(String value) {
             }
             for (MissingCodeSpec c : v.missingCodes()) {
                 s.append(" code ").append(text(c.value())).append(' ').append(text(c.reason()));
+            }
+            for (MissingRangeSpec r : v.missingRanges()) {
+                s.append(" missing-range ").append(r.low()).append(' ').append(r.high()).append(' ')
+                        .append(text(r.reason()));
             }
             v.levels().forEach(l -> s.append(" level ").append(text(l)));
             lines.add(s.toString());
