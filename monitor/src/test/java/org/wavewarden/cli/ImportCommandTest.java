@@ -150,7 +150,7 @@ class ImportCommandTest {
         assertEquals("Region of the home", region.label());
         assertEquals(List.of("1", "2", "3", "9"), List.copyOf(region.valueLabels().keySet()));
         assertEquals(List.of(new MissingCodeSpec("9", "Refused")), region.missingCodes());
-        assertEquals(List.of(new MissingRangeSpec(-99.0, -91.0, "No answer")),
+        assertEquals(List.of(new MissingRangeSpec(-99.0, -91.0, org.wavewarden.load.spss.SavReader.DECLARED_MISSING)),
                 saved.variable("age").orElseThrow().missingRanges());
         assertEquals("Council tenant", saved.variable("tenure").orElseThrow().valueLabels().get("COUN"));
     }
