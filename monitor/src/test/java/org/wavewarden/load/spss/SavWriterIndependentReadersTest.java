@@ -7,6 +7,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.MethodSource;
+import org.wavewarden.codebook.DatasetCodebook;
 
 import java.io.IOException;
 import java.io.InputStream;
@@ -98,6 +99,33 @@ class SavWriterIndependentReadersTest {
             assertEquals(SavWriterSamples.LONG_TEXT, listed.get(1).get(column),
                     "the very long non-ASCII string comes back whole");
         }
+    }
+
+    /** 40,000 cases of text bytecode cannot shorten: the zlib data spans three blocks of 4 MB. */
+    @Test
+    void bothReadersReadAZsavOfSeveralZlibBlocksToTheLastCase() throws Exception {
+        DatasetCodebook cb = new DatasetCodebook("blocks", null, List.of(SavWriterTest.number("n"),
+                SavWriterTest.text("t", 255)));
+        List<Object[]> cases = new ArrayList<>();
+        for (int i = 1; i <= 40_000; i++) {
+            cases.add(new Object[]{(double) i, ("case " + i + " ").repeat(40).substring(0, 255).strip()});
+        }
+        Path file = dir.resolve("blocks.zsav");
+        SavWriter.write(file, cb, cases, SavWriter.Compression.ZLIB, SavWriterSamples.CREATED);
+        Object[] last = cases.get(cases.size() - 1);
+
+        String rscript = SavWriterReadBack.tool("Rscript", "r-cran-haven");
+        SavWriterReadBack.Run r = SavWriterReadBack.run(dir, List.of(rscript, "-e",
+                "d <- haven::read_sav('blocks.zsav'); cat(nrow(d), sum(d$n), d$t[nrow(d)], sep = '\\n')"));
+        assertEquals(0, r.exit(), r.output());
+        assertEquals(List.of("40000", "800020000", (String) last[1]), r.output().lines().toList(),
+                "R 4.2.2 haven 2.5.1: cases, the sum of 1..40000, the last case's text");
+
+        SavWriterReadBack.Pspp p = SavWriterReadBack.pspp(dir, file, "LIST /CASES=FROM 40000 TO 40000.");
+        assertEquals(0, p.exit(), p.console());
+        assertFalse(p.console().toLowerCase(Locale.ROOT).contains("warning"), p.console());
+        assertEquals(List.of(List.of("n", "t"), List.of("40000", (String) last[1])), p.tables().get("Data List"),
+                "PSPP 1.6.2 lists the last case");
     }
 
     /**

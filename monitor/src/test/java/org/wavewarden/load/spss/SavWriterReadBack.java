@@ -214,11 +214,15 @@ final class SavWriterReadBack {
     }
 
     static Pspp pspp(Path dir, Path file) throws IOException, InterruptedException {
+        return pspp(dir, file, "LIST.");
+    }
+
+    static Pspp pspp(Path dir, Path file, String list) throws IOException, InterruptedException {
         String pspp = tool("pspp", "pspp");
         String stem = file.getFileName().toString().replace('.', '-');
         Path syntax = dir.resolve(stem + ".sps");
         Path csv = dir.resolve(stem + ".csv");
-        Files.writeString(syntax, "GET FILE='" + file.getFileName() + "'.\nDISPLAY DICTIONARY.\nLIST.\n");
+        Files.writeString(syntax, "GET FILE='" + file.getFileName() + "'.\nDISPLAY DICTIONARY.\n" + list + "\n");
         Run r = run(dir, List.of(pspp, "-o", csv.getFileName().toString(), syntax.getFileName().toString()));
         String text = Files.exists(csv) ? Files.readString(csv) : "";
         return new Pspp(r.exit(), tables(text), r.output() + text);
