@@ -101,6 +101,28 @@ class SavWriterIndependentReadersTest {
         }
     }
 
+    static List<Long> seeds() {
+        return SavRoundTripPropertyTest.seeds().toList();
+    }
+
+    /** The random codebooks of {@link SavRoundTripPropertyTest}: both readers take every one without complaint. */
+    @ParameterizedTest(name = "seed {0}")
+    @MethodSource("seeds")
+    void bothReadersTakeRandomCodebooksAndCasesWithoutComplaint(long seed) throws Exception {
+        SavRoundTripPropertyTest.Drawn drawn = SavRoundTripPropertyTest.draw(seed);
+        Path file = drawn.write(dir, "random-" + seed);
+        SavWriterReadBack.Pspp p = SavWriterReadBack.pspp(dir, file);
+        assertEquals(0, p.exit(), p.console());
+        String said = p.console().toLowerCase(Locale.ROOT);
+        assertFalse(said.contains("warning") || said.contains("error"), "PSPP 1.6.2 complained:\n" + p.console());
+        String rscript = SavWriterReadBack.tool("Rscript", "r-cran-haven");
+        SavWriterReadBack.Run r = SavWriterReadBack.run(dir, List.of(rscript, "-e",
+                "d <- haven::read_sav('" + file.getFileName() + "', user_na = TRUE); cat(nrow(d), ncol(d))"));
+        assertEquals(0, r.exit(), r.output());
+        assertEquals(drawn.cases().size() + " " + drawn.codebook().variables().size(), r.output().strip(),
+                "R 4.2.2 haven 2.5.1: cases and variables");
+    }
+
     /** 40,000 cases of text bytecode cannot shorten: the zlib data spans three blocks of 4 MB. */
     @Test
     void bothReadersReadAZsavOfSeveralZlibBlocksToTheLastCase() throws Exception {
