@@ -24,12 +24,18 @@ final class ConfigOption {
     WardenConfig load() {
         if (loaded == null || !file.equals(loadedFrom)) {
             Codebooks.Resolved r = Codebooks.resolve(ConfigLoader.load(file), file.toAbsolutePath().getParent());
-            r.report().forEach(System.err::println);
+            java.io.PrintWriter err = mixee == null ? new java.io.PrintWriter(System.err, true)
+                    : mixee.commandLine().getErr();
+            r.report().forEach(err::println);
+            err.flush();
             loaded = r.config();
             loadedFrom = file;
         }
         return loaded;
     }
+
+    @picocli.CommandLine.Spec(picocli.CommandLine.Spec.Target.MIXEE)
+    picocli.CommandLine.Model.CommandSpec mixee;
 
     private WardenConfig loaded;
     private Path loadedFrom;
