@@ -1,6 +1,7 @@
 package org.wavewarden.cli;
 
 import org.jdbi.v3.core.Handle;
+import org.wavewarden.codebook.Codebooks;
 import org.wavewarden.config.ConfigLoader;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.pipeline.CatalogCheck;
@@ -16,9 +17,28 @@ final class ConfigOption {
             description = "YAML configuration (see config/example-external.yaml)")
     Path file;
 
+    /**
+     * The config with each dataset's codebook merged into its variables; the merge report goes to standard error
+     * once, on the first load.
+     */
     WardenConfig load() {
-        return ConfigLoader.load(file);
+        if (loaded == null || !file.equals(loadedFrom)) {
+            Codebooks.Resolved r = Codebooks.resolve(ConfigLoader.load(file), file.toAbsolutePath().getParent());
+            java.io.PrintWriter err = mixee == null ? new java.io.PrintWriter(System.err, true)
+                    : mixee.commandLine().getErr();
+            r.report().forEach(err::println);
+            err.flush();
+            loaded = r.config();
+            loadedFrom = file;
+        }
+        return loaded;
     }
+
+    @picocli.CommandLine.Spec(picocli.CommandLine.Spec.Target.MIXEE)
+    picocli.CommandLine.Model.CommandSpec mixee;
+
+    private WardenConfig loaded;
+    private Path loadedFrom;
 
     /** Loads the config, connects, and checks every configured table and column against the catalog. */
     Session open() {

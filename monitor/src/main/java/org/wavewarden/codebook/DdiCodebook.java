@@ -10,8 +10,13 @@ public final class DdiCodebook {
     private DdiCodebook() {
     }
 
+    /**
+     * Reads a DDI-Codebook 2.5 document (older ones without a namespace too) as described in {@link DdiReader}.
+     *
+     * @throws CodebookFormatException when the file is not such a document, naming the line and element at fault
+     */
     public static DatasetCodebook read(Path file) throws IOException {
-        throw new UnsupportedOperationException("not written yet");
+        return DdiReader.read(file);
     }
 
     /** Writes a DDI-Codebook 2.5 document (one file description, one {@code var} per variable). */

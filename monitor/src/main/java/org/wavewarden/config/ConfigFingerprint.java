@@ -16,11 +16,11 @@ import java.util.HexFormat;
 /**
  * A SHA-256 over the part of the configuration that decides what a run of one dataset finds: the run's alpha and
  * false-discovery-rate method and the dataset as configured (tables, wave order, comparison rule, exclusions,
- * weights, design, respondent key, releases, relationships and every declared variable with its kind, unit, range,
- * codes, threshold and reference). Left out, because they change when a wave is judged or where its alerts go but
- * not what it says: the schedule, the quiet period, the ready table and the alert sinks (which may also name
- * secrets). Two runs with equal fingerprints judged their waves under the same rules; variables left to inference
- * are described by the run's inference notes.
+ * weights, design, respondent key, releases, relationships, every declared variable with its kind, unit, range,
+ * codes, threshold and reference, and the content digest of its codebook file). Left out, because they change when
+ * a wave is judged or where its alerts go but not what it says: the schedule, the quiet period, the ready table and
+ * the alert sinks (which may also name secrets). Two runs with equal fingerprints judged their waves under the same
+ * rules; variables left to inference are described by the run's inference notes.
  *
  * <p>Canonical form: the configuration records as JSON with properties and map keys in alphabetical order and the
  * comparison rule named by its type, in UTF-8, prefixed by {@link #FORMAT}.
@@ -56,6 +56,9 @@ public final class ConfigFingerprint {
     public static String of(double alpha, WardenConfig.FdrMethod fdr, DatasetConfig dataset) {
         ObjectNode d = CANONICAL.valueToTree(dataset);
         d.remove(java.util.List.of("schedule", "quietPeriod", "readyTable", "readyColumn", "alerts"));
+        if (d.path("codebook").isNull()) {
+            d.remove("codebook"); // a dataset without a codebook keeps the fingerprint it had before codebooks existed
+        }
         ObjectNode root = CANONICAL.createObjectNode();
         root.put("alpha", alpha);
         root.put("fdr", fdr.name());

@@ -281,7 +281,7 @@ public final class ConfigLoader {
         DatasetConfig dataset(ObjectNode node, String path) {
             known(node, path, "name", "table", "waveColumn", "tablePattern", "waveOrder", "compareWith", "schedule",
                     "exclude", "variables", "quietPeriod", "alerts", "readyTable", "readyColumn", "weightColumn",
-                    "respondentKey", "releases", "design", "relationships");
+                    "respondentKey", "releases", "design", "relationships", "codebook");
             String name = text(node, "name", path + ".name", true);
             if (!name.matches("[A-Za-z0-9][A-Za-z0-9_.-]{0,99}")) {
                 throw new ConfigException(path + ".name", "expected letters, digits, '-', '_' or '.' (at most 100)"
@@ -355,7 +355,8 @@ public final class ConfigLoader {
                     readyTable(node, path), readyColumn(node, path), weightColumn(node, path), key, releases,
                     design(object(node, "design", path + ".design", false), path, waveColumn, key,
                             weightColumn(node, path)),
-                    relationships(node.get("relationships"), path + ".relationships"));
+                    relationships(node.get("relationships"), path + ".relationships"),
+                    codebook(object(node, "codebook", path + ".codebook", false), path + ".codebook"));
             notBookkeeping(d, path);
             return d;
         }
@@ -380,6 +381,23 @@ public final class ConfigLoader {
                             + " two");
                 }
             }
+        }
+
+        /**
+         * {@code codebook: {ddi: path}} or {@code {csv: path}}: the file is read, and its variables merged, by
+         * {@code codebook.Codebooks.resolve}, which knows the config file's folder.
+         */
+        CodebookSource codebook(ObjectNode node, String path) {
+            if (node == null) {
+                return null;
+            }
+            known(node, path, "ddi", "csv");
+            if (node.size() != 1) {
+                throw new ConfigException(path, "expected exactly one of ddi (a DDI-Codebook XML file) or csv (a CSV"
+                        + " codebook, see docs/codebook-csv.md)");
+            }
+            String format = node.fieldNames().next();
+            return new CodebookSource(format, text(node, format, path + "." + format, true), null);
         }
 
         /** Quartz accepts a cron whose every time is past (a year in the past); such a trigger never fires. */

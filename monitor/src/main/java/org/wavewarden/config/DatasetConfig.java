@@ -26,12 +26,14 @@ import java.util.List;
  * @param releases     optional: where earlier publications of a wave are kept (needs {@code respondentKey})
  * @param design       optional strata and cluster columns of the sampling design (needs {@code weightColumn})
  * @param relationships pairs of numeric variables whose correlation is compared between waves
+ * @param codebook     optional codebook file whose variables are merged with {@code variables} (the YAML wins)
  */
 public record DatasetConfig(String name, String table, String waveColumn, String tablePattern, WaveOrder waveOrder,
                             CompareWith compareWith, String schedule, List<String> exclude,
                             List<VariableConfig> variables, java.time.Duration quietPeriod, SinkSettings alerts,
                             String readyTable, String readyColumn, String weightColumn, String respondentKey,
-                            ReleasesConfig releases, DesignColumns design, List<RelationshipConfig> relationships) {
+                            ReleasesConfig releases, DesignColumns design, List<RelationshipConfig> relationships,
+                            CodebookSource codebook) {
 
     public DatasetConfig {
         waveOrder = waveOrder == null ? WaveOrder.NATURAL : waveOrder;
@@ -41,6 +43,23 @@ public record DatasetConfig(String name, String table, String waveColumn, String
         quietPeriod = quietPeriod == null ? java.time.Duration.ZERO : quietPeriod;
         alerts = alerts == null ? SinkSettings.NONE : alerts;
         relationships = relationships == null ? List.of() : List.copyOf(relationships);
+    }
+
+    /** A dataset without a codebook. */
+    public DatasetConfig(String name, String table, String waveColumn, String tablePattern, WaveOrder waveOrder,
+                         CompareWith compareWith, String schedule, List<String> exclude,
+                         List<VariableConfig> variables, java.time.Duration quietPeriod, SinkSettings alerts,
+                         String readyTable, String readyColumn, String weightColumn, String respondentKey,
+                         ReleasesConfig releases, DesignColumns design, List<RelationshipConfig> relationships) {
+        this(name, table, waveColumn, tablePattern, waveOrder, compareWith, schedule, exclude, variables, quietPeriod,
+                alerts, readyTable, readyColumn, weightColumn, respondentKey, releases, design, relationships, null);
+    }
+
+    /** The same dataset with other variables and codebook: what a codebook merge gives. */
+    public DatasetConfig withVariables(List<VariableConfig> merged, CodebookSource source) {
+        return new DatasetConfig(name, table, waveColumn, tablePattern, waveOrder, compareWith, schedule, exclude,
+                merged, quietPeriod, alerts, readyTable, readyColumn, weightColumn, respondentKey, releases, design,
+                relationships, source);
     }
 
     /** A dataset without relationships. */

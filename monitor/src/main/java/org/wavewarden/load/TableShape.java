@@ -12,7 +12,6 @@ import java.sql.Statement;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
-import java.util.Locale;
 import java.util.Map;
 import java.util.Set;
 
@@ -66,11 +65,7 @@ public final class TableShape {
      * underscore replaced by an underscore, a leading digit prefixed with {@code v_}, cut to 63 characters.
      */
     public static String columnName(String fileName) {
-        String s = fileName.strip().toLowerCase(Locale.ROOT).replaceAll("[^a-z0-9_]", "_");
-        if (s.isEmpty() || Character.isDigit(s.charAt(0))) {
-            s = "v_" + s;
-        }
-        return s.length() > 63 ? s.substring(0, 63) : s;
+        return org.wavewarden.codebook.ColumnNames.of(fileName);
     }
 
     /** The table's columns and their types ({@code format_type}), in order; empty when the table does not exist. */

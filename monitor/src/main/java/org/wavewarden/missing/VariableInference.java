@@ -50,7 +50,11 @@ public final class VariableInference {
      */
     public static List<VariableConfig> variables(DatasetConfig d, Collection<ColumnTally> tallies,
                                                  List<String> inference) {
-        List<VariableConfig> out = new ArrayList<>(d.variables());
+        List<VariableConfig> out = new ArrayList<>();
+        for (VariableConfig v : d.variables()) {
+            out.add(v.kind() != null ? v : completed(v, tallies.stream().filter(t -> t.column().equals(v.name()))
+                    .findFirst().orElse(null), inference));
+        }
         for (ColumnTally t : tallies) {
             if (declared(d, t.column()) == null) {
                 out.add(inferOrText(t, inference));
@@ -60,11 +64,43 @@ public final class VariableInference {
     }
 
     /**
+     * A variable declared without a kind (a codebook that gave its labels and missing values but no measurement
+     * level): the kind inferred from its answers, the declared missing values left out of the count so that a
+     * "don't know" code does not turn two answers into three; everything declared is kept.
+     */
+    private static VariableConfig completed(VariableConfig v, ColumnTally t, List<String> inference) {
+        VariableConfig kind;
+        if (t == null) {
+            inference.add(v.name() + ": text (no kind declared and the column is not in this wave)");
+            kind = VariableConfig.inferred(v.name(), VariableKind.TEXT);
+        } else {
+            Codebook declared = VariableScreen.codebook(v);
+            java.util.Map<String, Long> answers = new java.util.LinkedHashMap<>();
+            t.valueCounts().forEach((value, n) -> {
+                if (declared.reasonOf(value).isEmpty()) {
+                    answers.put(value, n);
+                }
+            });
+            ColumnTally withoutMissing = new ColumnTally(t.column(), t.type(), t.rowCount(), t.nullCount(), answers,
+                    t.truncated(), t.binning());
+            kind = inferOrText(withoutMissing, new ArrayList<>());
+            inference.add(v.name() + ": " + kind.kind().configName() + " (inferred from the data: the codebook"
+                    + " declares no measurement level)");
+        }
+        return new VariableConfig(v.name(), kind.kind(), v.unit() != null ? v.unit() : kind.unit(), v.range(),
+                v.missingCodes(), v.threshold(), v.successValue(), v.levels(), v.reference(), v.locationTest(),
+                v.label(), v.valueLabels(), v.missingRanges());
+    }
+
+    /**
      * One column's variable as {@link #variables} makes it: declared, else inferred from its tally (null without
      * one), so that a later reader of a stored wave takes the column for what the run took it for.
      */
     public static VariableConfig variable(DatasetConfig d, String column, ColumnTally tally) {
         VariableConfig declared = declared(d, column);
+        if (declared != null && declared.kind() == null) {
+            return completed(declared, tally, new ArrayList<>());
+        }
         return declared != null || tally == null ? declared : inferOrText(tally, new ArrayList<>());
     }
 
