@@ -29,6 +29,13 @@ final class ImportCommand implements Callable<Integer> {
     String wave;
     @Option(names = "--replace", description = "replace the wave's rows if it already has some")
     boolean replace;
+    @Option(names = "--delimiter", paramLabel = "D", description = "the CSV field delimiter: ',' ';' '|' or tab"
+            + " (\"tab\" or \\t); guessed from the header and first rows when not given")
+    String delimiter;
+    @Option(names = "--encoding", paramLabel = "CHARSET", description = "the file's character encoding (UTF-8,"
+            + " windows-1252, ISO-8859-1, UTF-16, ...); when not given: a byte order mark, else UTF-8 when the first"
+            + " 4 MB are valid UTF-8, else windows-1252")
+    String encoding;
     @Parameters(paramLabel = "CSV", description = "the file to load")
     Path csv;
 
@@ -44,13 +51,15 @@ final class ImportCommand implements Callable<Integer> {
                     + " one table per wave");
         }
         var table = Identifiers.TableName.parse("table", d.table());
+        var format = CsvWaveImporter.CsvFormat.parse(delimiter, encoding);
         try (var ds = Databases.open(c.source(), null, "source", false, System.getenv(), 1)) {
             // A wrong password is reported at once rather than after the pool's connection timeout.
             Databases.firstContact(ds, "source");
             try (Connection conn = ds.getConnection()) {
                 var err = spec.commandLine().getErr();
                 var r = CsvWaveImporter.load(conn, table, d.waveColumn(), wave, csv, replace,
-                        Progress.rows("importing " + csv.getFileName() + " (bytes)", err));
+                        Progress.rows("importing " + csv.getFileName() + " (bytes)", err), format,
+                        spec.commandLine().getOut());
                 Progress.done(err);
                 spec.commandLine().getOut().println("imported " + r.rows() + " rows into " + table + " as wave "
                         + DataText.visible(r.wave()));

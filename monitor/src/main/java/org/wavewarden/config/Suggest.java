@@ -5,12 +5,12 @@ import java.util.Locale;
 import java.util.Optional;
 
 /** Finds the known key closest to a misspelt one, for "did you mean" hints. */
-final class Suggest {
+public final class Suggest {
 
     private Suggest() {
     }
 
-    static Optional<String> nearest(String typed, Collection<String> known) {
+    public static Optional<String> nearest(String typed, Collection<String> known) {
         String best = null;
         int bestDistance = Integer.MAX_VALUE;
         for (String k : known) {
