@@ -525,7 +525,10 @@ public final class CsvWaveImporter {
         final List<String> header;
         final CsvParser parser;
         final CsvSniffer.Sniffed sniffed;
-        /** COPY numbers the records it reads; where a record does not start on line (number + 1), the offset. */
+        /**
+         * COPY's line number at the end of a record, mapped to the file's line where the record starts: from each
+         * key on, the difference to add (stored only where it changes).
+         */
         final TreeMap<Long, Long> lineOffsets = new TreeMap<>();
 
         Rows(Path csv, List<String> header, CsvParser parser, CsvSniffer.Sniffed sniffed) {
@@ -548,9 +551,10 @@ public final class CsvWaveImporter {
             return s.toString();
         }
 
-        long lineOf(long record) {
-            Map.Entry<Long, Long> e = lineOffsets.floorEntry(record);
-            return record + (e == null ? 1 : e.getValue());
+        /** The file's line for the line number COPY gives in an error. */
+        long lineOf(long copyLine) {
+            Map.Entry<Long, Long> e = lineOffsets.floorEntry(copyLine);
+            return copyLine + (e == null ? 1 : e.getValue());
         }
 
         /**
@@ -564,7 +568,8 @@ public final class CsvWaveImporter {
                 Writer w = new BufferedWriter(new OutputStreamWriter(out, StandardCharsets.UTF_8), 1 << 16);
                 List<String> fields = new ArrayList<>(header.size());
                 long blank = 0;
-                long lastOffset = 1;
+                long lastOffset = Long.MIN_VALUE;
+                long copyLine = 0;
                 while (parser.next(fields)) {
                     if (header.size() > 1 && fields.size() == 1 && fields.get(0) == null) {
                         // Blank lines at the end of a file are common and harmless; one between rows is not.
@@ -578,9 +583,10 @@ public final class CsvWaveImporter {
                         throw fieldCount(fields);
                     }
                     records++;
-                    long offset = parser.recordLine() - records;
+                    copyLine += 1 + copyCountedBreaks(fields, records == 1 ? '\r' : '\n');
+                    long offset = parser.recordLine() - copyLine;
                     if (offset != lastOffset) {
-                        lineOffsets.put(records, offset);
+                        lineOffsets.put(copyLine, offset);
                         lastOffset = offset;
                     }
                     w.write(Long.toString(parser.recordLine()));
@@ -617,6 +623,23 @@ public final class CsvWaveImporter {
                     }
                 }
             }
+        }
+
+        /**
+         * The line breaks inside quoted values that COPY adds to its line count, which it reports at the end of the
+         * record: once it has seen the first record end with LF it counts each LF inside quotes; before that, each
+         * CR (PostgreSQL's CopyReadLineText).
+         */
+        private static long copyCountedBreaks(List<String> fields, char counted) {
+            long n = 0;
+            for (String f : fields) {
+                if (f != null) {
+                    for (int i = f.indexOf(counted); i >= 0; i = f.indexOf(counted, i + 1)) {
+                        n++;
+                    }
+                }
+            }
+            return n;
         }
 
         private CsvParser.BadRowException fieldCount(List<String> fields) {

@@ -209,6 +209,15 @@ class CsvFormatImportTest {
     }
 
     @Test
+    void aBadValueAfterSeveralRowsWithQuotedLineBreaksIsRefusedAtTheLineAnEditorShows() throws Exception {
+        CliRun r = importWave(write("notes.csv", HEADER + "1,50.5,north,2,true,\"a\r\nb\",50\n"
+                + "2,51.5,south,3,false,\"x\ny\nz\",49\n3,52.5,east,1,true,ok,48\n4,abc,west,1,true,ok,47\n"));
+        assertEquals(2, r.exitCode(), r.err());
+        assertTrue(r.err().contains("notes.csv line 8, column 2 (score): invalid input syntax for type double"
+                + " precision"), r.err());
+    }
+
+    @Test
     void aRaggedRowAfterQuotedLineBreaksInAWindowsFileIsRefusedAtItsLine() throws Exception {
         CliRun r = importWave(write("crlf.csv", (HEADER + "1,50.5,north,2,true,\"a\r\nb\r\nc\",50\r\n"
                 + "2,51.5,south\r\n").replace("\n", "\r\n").replace("\r\r\n", "\r\n")));
@@ -229,7 +238,8 @@ class CsvFormatImportTest {
 
     @Test
     void aNulByteIsRefusedNamingLineAndColumn() throws Exception {
-        CliRun r = importWave(write("nul.csv", HEADER + "1,50.5,north,2,true,fine,50\n2,51.5,south,3,false,a\u0000b,49\n"));
+        CliRun r = importWave(write("nul.csv", HEADER + "1,50.5,north,2,true,fine,50\n"
+                + "2,51.5,south,3,false,a\u0000b,49\n"));
         assertEquals(2, r.exitCode(), r.err());
         assertTrue(r.err().contains("nul.csv line 3, column 6 (remark): a NUL byte (0x00) is in the value"), r.err());
     }
