@@ -44,6 +44,9 @@ final class CsvSniffer {
     }
 
     static Sniffed sniff(Path csv, CsvFormat given) throws IOException {
+        if (given.delimiter() != null && given.encoding() != null) {
+            return new Sniffed(given.delimiter(), given.encoding(), null, List.of());
+        }
         byte[] prefix;
         try (InputStream in = CsvWaveImporter.open(csv)) {
             prefix = in.readNBytes(PREFIX_BYTES);

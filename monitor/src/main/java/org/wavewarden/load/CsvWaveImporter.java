@@ -35,6 +35,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
+import java.util.function.IntPredicate;
 import java.util.function.LongConsumer;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
@@ -284,7 +285,7 @@ public final class CsvWaveImporter {
         } catch (SQLException e) {
             if (isBadInput(e)) {
                 c.rollback(before);
-                throw rowsDoNotFit(c, rows, table, columns, columns, Identifiers.quote(line), e);
+                throw rowsDoNotFit(c, rows, table, columns, columns, Identifiers.quote(line), i -> true, e);
             }
             throw e;
         }
@@ -372,7 +373,9 @@ public final class CsvWaveImporter {
                 if (badWaveLabel(c, wave, target.get(waveColumn))) {
                     throw badWave(wave, waveColumn, e);
                 }
-                throw rowsDoNotFit(c, rows, table, staged, names, "wavewarden_line", e);
+                // Only a column cast from text can hold the value the server names.
+                throw rowsDoNotFit(c, rows, table, staged, names, "wavewarden_line",
+                        i -> !cast(staged.get(i), target.get(names.get(i))).equals(staged.get(i)), e);
             }
             throw e;
         }
@@ -479,7 +482,7 @@ public final class CsvWaveImporter {
      */
     private static ImportRefusedException rowsDoNotFit(Connection c, Rows rows, TableName table,
                                                         List<String> staged, List<String> tableNames,
-                                                        String lineColumn, SQLException e)
+                                                        String lineColumn, IntPredicate typed, SQLException e)
             throws SQLException {
         String column = e instanceof PSQLException p && p.getServerErrorMessage() != null
                 ? p.getServerErrorMessage().getColumn() : null;
@@ -495,6 +498,9 @@ public final class CsvWaveImporter {
                     ? String.valueOf(p.getServerErrorMessage().getMessage()) : "");
             if (v.find()) {
                 for (int i = 0; i < staged.size() && where == null; i++) {
+                    if (!typed.test(i)) {
+                        continue;
+                    }
                     where = firstLine(c, "SELECT min(" + lineColumn + ") FROM " + STAGING + " WHERE btrim("
                             + Identifiers.quote(staged.get(i)) + "::text) = ?", v.group(1).strip(), i, rows);
                 }
