@@ -31,6 +31,10 @@ final class CsvColumnTypes {
     /** Five aggregates per column; PostgreSQL allows 1,664 entries in a select list. */
     private static final int COLUMNS_PER_SCAN = 200;
 
+    /** European spreadsheets write 2,5 for 2.5; such a column stays text, and the reason says why. */
+    private static final java.util.regex.Pattern DECIMAL_COMMA =
+            java.util.regex.Pattern.compile("\\s*[+-]?[0-9]*,[0-9]+\\s*");
+
     private CsvColumnTypes() {
     }
 
@@ -206,9 +210,12 @@ final class CsvColumnTypes {
             } else {
                 // A column that starts with dates fails the number test first: its odd value is the non-date.
                 boolean dateLike = e.firstNotNumber() < e.firstNotDateTime();
+                String odd = at.get(col + ":" + e.firstNotNumber());
+                String comma = odd != null && DECIMAL_COMMA.matcher(odd).matches()
+                        ? " (numbers are read with a decimal point only)" : "";
                 out.add(new TableShape.Column(name, "text", dateLike
                         ? shown.apply(e.firstNotDateTime()) + " is not a date"
-                        : shown.apply(e.firstNotNumber()) + " is not a number"));
+                        : shown.apply(e.firstNotNumber()) + " is not a number" + comma));
             }
         }
         return out;

@@ -135,6 +135,16 @@ class CsvCreateTableTest {
     }
 
     @Test
+    void numbersWithADecimalCommaStayTextAndTheReasonSaysWhy() throws Exception {
+        Path csv = write("shares.csv", "id;share\n1;0,5\n2;1,25\n");
+        load("src.shares", csv, null);
+        assertEquals("text", types("src.shares").get("share"));
+        assertTrue(notes.toString().contains("share text (value '0,5' at line 2 is not a number (numbers are read"
+                + " with a decimal point only))"), notes.toString());
+        assertEquals("1,25", text("SELECT share FROM src.shares WHERE id = 2"));
+    }
+
+    @Test
     void aCodebooksStorageTypesWinOverTheValues() throws Exception {
         Path csv = write("coded.csv", "id,Code,income,visit\n1,1,100,2024-01-01\n2,2,200,2024-01-02\n");
         DatasetCodebook codebook = new DatasetCodebook("coded.xml", null, List.of(declared("code", StorageType.TEXT),
