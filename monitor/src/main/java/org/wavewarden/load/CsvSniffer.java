@@ -14,7 +14,6 @@ import java.nio.charset.CodingErrorAction;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
 
@@ -181,6 +180,4 @@ final class CsvSniffer {
     static String show(char d) {
         return d == '\t' ? "tab" : "'" + d + "'";
     }
-
-    static final List<Character> ACCEPTED = Arrays.asList(',', ';', '\t', '|');
 }

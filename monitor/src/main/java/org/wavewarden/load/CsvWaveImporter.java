@@ -99,7 +99,7 @@ public final class CsvWaveImporter {
             Character d = null;
             if (delimiter != null) {
                 String t = delimiter.equalsIgnoreCase("tab") || delimiter.equals("\\t") ? "\t" : delimiter;
-                if (t.length() != 1 || !CsvSniffer.ACCEPTED.contains(t.charAt(0))) {
+                if (t.length() != 1 || new String(CsvSniffer.DELIMITERS).indexOf(t.charAt(0)) < 0) {
                     throw new ConfigException("--delimiter", "expected one of ',' ';' '|' or tab (\"tab\" or \\t)"
                             + " but got '" + DataText.visible(delimiter) + "'");
                 }
