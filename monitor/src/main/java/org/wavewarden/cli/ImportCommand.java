@@ -57,6 +57,13 @@ final class ImportCommand implements Callable<Integer> {
     Path codebookFile;
     @Parameters(paramLabel = "FILE", description = "the file to load: .sav, .zsav, .csv or .csv.gz")
     Path file;
+    @Option(names = "--delimiter", paramLabel = "D", description = "the CSV field delimiter: ',' ';' '|' or tab"
+            + " (\"tab\" or \\t); guessed from the header and first rows when not given")
+    String delimiter;
+    @Option(names = "--encoding", paramLabel = "CHARSET", description = "the file's character encoding (UTF-8,"
+            + " windows-1252, ISO-8859-1, UTF-16, ...); when not given: a byte order mark, else UTF-8 when the first"
+            + " 4 MB are valid UTF-8, else windows-1252")
+    String encoding;
 
     @picocli.CommandLine.Spec
     picocli.CommandLine.Model.CommandSpec spec;
@@ -86,6 +93,11 @@ final class ImportCommand implements Callable<Integer> {
         }
         var table = Identifiers.TableName.parse("table", d.table());
         FileKind kind = kindOf(file);
+        var format = CsvWaveImporter.CsvFormat.parse(delimiter, encoding);
+        if (kind == FileKind.SPSS && (delimiter != null || encoding != null)) {
+            throw new ConfigException(delimiter != null ? "--delimiter" : "--encoding", "an SPSS system file says its"
+                    + " own encoding and has no delimiter; these options are for CSV files");
+        }
         if (!Files.isRegularFile(file)) {
             throw new ConfigException("FILE", "no file " + file);
         }
@@ -123,7 +135,8 @@ final class ImportCommand implements Callable<Integer> {
                     }
                 } else {
                     var r = CsvWaveImporter.load(conn, table, d.waveColumn(), wave, file, replace,
-                            Progress.rows("importing " + file.getFileName() + " (bytes)", err), csvFormat(), out);
+                            Progress.rows("importing " + file.getFileName() + " (bytes)", err), format, create, given,
+                            out);
                     rows = r.rows();
                     saved = given;
                 }
@@ -133,11 +146,6 @@ final class ImportCommand implements Callable<Integer> {
             return saveCodebook(new WaveCodebooks(Jdbi.create(results), c.results().schema()), d.name(), saved, out,
                     err);
         }
-    }
-
-    /** The CSV file's delimiter and encoding: detected from the file. */
-    CsvWaveImporter.CsvFormat csvFormat() {
-        return CsvWaveImporter.CsvFormat.detect();
     }
 
     static DatasetCodebook readCodebook(Path codebook) {

@@ -14,6 +14,7 @@ import java.sql.Connection;
 import java.sql.SQLException;
 import java.util.ArrayList;
 import java.util.List;
+import java.util.Locale;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
 import java.util.concurrent.Future;
@@ -103,16 +104,19 @@ class CsvImportTest {
     }
 
     @Test
-    void latin1BytesInTheFileAreRefusedNamingFileAndLine() throws Exception {
+    void latin1BytesInAFileDeclaredUtf8AreRefusedNamingFileLineAndColumn() throws Exception {
         byte[] head = (HEADER + "1,50.5,north,2,true,fine,50\n").getBytes(StandardCharsets.UTF_8);
         byte[] bad = "2,51.5,south,3,false,caf\u00e9,49\n".getBytes(StandardCharsets.ISO_8859_1);
         byte[] file = new byte[head.length + bad.length];
         System.arraycopy(head, 0, file, 0, head.length);
         System.arraycopy(bad, 0, file, head.length, bad.length);
-        CliRun r = importWave("w1", write("latin1.csv", file));
+        CliRun r = CliRun.of("import", "--config", config.toString(), "--wave", "w1", "--encoding", "UTF-8",
+                write("latin1.csv", file).toString());
         assertEquals(2, r.exitCode(), r.err());
-        assertTrue(r.err().contains("latin1.csv line 3"), r.err());
-        assertTrue(r.err().contains("UTF-8"), r.err());
+        assertTrue(r.err().contains("latin1.csv line 3, column 6 (remark): bytes 0xE9 at byte offset "
+                + String.format(Locale.ROOT, "%,d", head.length + 24)
+                + " are not valid UTF-8 (the encoding given)"), r.err());
+        assertTrue(r.err().contains("--encoding windows-1252"), r.err());
         assertFalse(r.err().contains("PSQLException"), r.err());
         assertEquals(0, count("SELECT count(*) FROM src.answers"));
     }
@@ -122,11 +126,12 @@ class CsvImportTest {
         CliRun r = importWave("w1", write("ragged.csv", HEADER + "1,50.5,north,2,true,fine,50\n"
                 + "2,51.5,south,3,false,ok,49\n3,52.5,east,1,true,ok,48,one too many\n"));
         assertEquals(2, r.exitCode(), r.err());
-        assertTrue(r.err().contains("ragged.csv line 4"), r.err());
-        assertTrue(r.err().contains("extra data after last expected column"), r.err());
+        assertTrue(r.err().contains("ragged.csv line 4, column 8: the row has 8 fields but the header has 7"),
+                r.err());
         CliRun shortRow = importWave("w1", write("short.csv", HEADER + "1,50.5,north\n"));
         assertEquals(2, shortRow.exitCode(), shortRow.err());
-        assertTrue(shortRow.err().contains("short.csv line 2, column 4 (satisfied)"), shortRow.err());
+        assertTrue(shortRow.err().contains("short.csv line 2, column 4 (satisfied): the row ends after 3 fields"),
+                shortRow.err());
         assertEquals(0, count("SELECT count(*) FROM src.answers"));
     }
 
