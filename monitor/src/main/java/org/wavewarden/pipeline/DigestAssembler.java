@@ -313,7 +313,8 @@ public final class DigestAssembler {
         boolean aboutValues = f.kind().isShift() || f.kind() == FindingKind.SHAPE_CHANGE
                 || f.kind() == FindingKind.REFERENCE || f.kind() == FindingKind.HEAPING
                 || f.kind() == FindingKind.DIGIT_PREFERENCE || f.kind() == FindingKind.CODE_APPEARED
-                || f.kind() == FindingKind.CODE_VANISHED;
+                || f.kind() == FindingKind.CODE_VANISHED || f.kind() == FindingKind.CODE_UNLABELLED
+                || f.kind() == FindingKind.LABEL_CHANGED;
         if (aboutValues && c.numeric() != null) {
             var empty = org.wavewarden.profile.NumericDistribution.empty();
             return new VariablePlot.NumericPlot(v.unit(), b == null ? null : b.numeric() == null ? empty
