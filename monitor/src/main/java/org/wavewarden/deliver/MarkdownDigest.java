@@ -37,7 +37,7 @@ public final class MarkdownDigest {
             md.append("| verdict / kind | variable | what happened |\n|---|---|---|\n");
             for (Alert a : alerts) {
                 md.append("| ").append(label(a.lead())).append(" | ").append(escape(a.variable()))
-                        .append(a.lead().label() == null ? "" : " (" + escape(a.lead().label()) + ")").append(" | ")
+                        .append(a.lead().label() == null ? "" : " (" + escape(org.wavewarden.codebook.CodeLabels.shown(a.lead().label())) + ")").append(" | ")
                         .append(escape(a.lead().sentence()));
                 // Plain text, so the lead's verdict stays the only bold word of the row.
                 for (Finding o : a.facets().subList(1, a.facets().size())) {
