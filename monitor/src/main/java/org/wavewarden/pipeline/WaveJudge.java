@@ -242,22 +242,24 @@ public final class WaveJudge {
     }
 
     /**
-     * The findings of a wave and the notes on variables whose kind was inferred and on paired comparisons not made,
-     * in report order.
-     */
-    /**
      * The dataset as the wave is judged: the YAML's variables (already merged with the dataset's codebook) first,
-     * the wave's own codebook under them, giving labels, declared missing values and kinds to columns the YAML does
-     * not list. Without a codebook of the wave's own the dataset is as configured.
+     * the wave's own codebook, read from the results schema, under them, giving labels, declared missing values and
+     * kinds to columns the YAML does not list. Without a codebook of the wave's own the dataset is as configured.
+     * Readers after the run (the HTML digest) call this to see the wave as the run saw it.
      */
+    public static DatasetConfig withWaveCodebook(Session session, DatasetConfig d, String wave) {
+        return withWaveCodebook(d, new WaveCodebooks(session.store().jdbi(), session.config().results().schema())
+                .load(d.name(), wave), new ArrayList<>());
+    }
+
+    /** The same with the wave's codebook already read (empty: none); the merge is noted in {@code notes}. */
     static DatasetConfig withWaveCodebook(DatasetConfig d, Optional<DatasetCodebook> codebook, List<String> notes) {
         if (codebook.isEmpty()) {
             return d;
         }
         CodebookMerge.Merged merged = CodebookMerge.merge(d.variables(), codebook.get());
         merged.report().forEach(line -> LOG.info("dataset {}: {}", d.name(), line));
-        notes.add("The wave's own codebook (" + codebook.get().source() + ") was merged under the configured"
-                + " variables: " + merged.variables().size() + " variables with their labels and declared missing"
+        notes.add("The codebook the wave was imported with was merged under the configured variables: " + merged.variables().size() + " variables with their labels and declared missing"
                 + " values; the configuration wins where both say something.");
         return new DatasetConfig(d.name(), d.table(), d.waveColumn(), d.tablePattern(), d.waveOrder(),
                 d.compareWith(), d.schedule(), d.exclude(), merged.variables(), d.quietPeriod(), d.alerts(),
@@ -305,6 +307,10 @@ public final class WaveJudge {
                 : f).toList();
     }
 
+    /**
+     * The findings of a wave and the notes on variables whose kind was inferred and on paired comparisons not made,
+     * in report order.
+     */
     public record Profiled(List<Finding> findings, List<String> inference) {
     }
 
