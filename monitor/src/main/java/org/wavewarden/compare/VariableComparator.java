@@ -22,6 +22,7 @@ import org.wavewarden.compare.shape.PopulationStabilityIndex;
 import org.wavewarden.compare.shape.PsiResult;
 import org.wavewarden.compare.shape.KolmogorovSmirnovTest;
 import org.wavewarden.compare.shape.Wasserstein;
+import org.wavewarden.codebook.CodeLabels;
 import org.wavewarden.config.Threshold;
 import org.wavewarden.judge.FindingKind;
 import org.wavewarden.profile.CategoryCounts;
@@ -50,10 +51,26 @@ public final class VariableComparator {
     static final int MONTE_CARLO_MIN_REPLICATES = 1_000;
 
     private final double confidence;
+    private final CodeLabels labels;
 
     public VariableComparator(double confidence) {
+        this(confidence, CodeLabels.NONE);
+    }
+
+    private VariableComparator(double confidence, CodeLabels labels) {
         Checks.confidence(confidence);
         this.confidence = confidence;
+        this.labels = labels;
+    }
+
+    /** The same comparator naming one variable's codes by their labels in what it writes. */
+    public VariableComparator labelled(CodeLabels variableLabels) {
+        return new VariableComparator(confidence, variableLabels == null ? CodeLabels.NONE : variableLabels);
+    }
+
+    /** The labels this comparator names codes with. */
+    public CodeLabels labels() {
+        return labels;
     }
 
     /** Location detail of a continuous or ordinal comparison. */
@@ -81,9 +98,13 @@ public final class VariableComparator {
                             EffectSize cliffsDelta, EffectSize meanDifference, EffectSize hodgesLehmann) {
     }
 
-    /** One category's row of a categorical comparison. */
-    public record CategoryRow(String category, long countBaseline, long countCurrent, double shareBaseline,
-                              double shareCurrent, double adjustedResidual) {
+    /**
+     * One category's row of a categorical comparison.
+     *
+     * @param label the category's value label, or null when it has none
+     */
+    public record CategoryRow(String category, String label, long countBaseline, long countCurrent,
+                              double shareBaseline, double shareCurrent, double adjustedResidual) {
     }
 
     public record CategoryDetail(List<CategoryRow> categories, boolean cochranSatisfied, String cochranNote,
@@ -111,6 +132,12 @@ public final class VariableComparator {
         return label.replaceFirst("^answering '(.*)'$", "$1").replaceFirst("^missing \\((.*)\\)$", "$1");
     }
 
+    /** "answering 'x'" with the code named by its label ("answering 'Council tenant' (COUN)"); others as given. */
+    static String shownSuccess(String successLabel, CodeLabels labels) {
+        return successLabel.matches("^answering '.*'$") ? "answering " + labels.quoted(categoryOf(successLabel))
+                : successLabel;
+    }
+
     /**
      * Continuous variables: Welch t with Hedges' g, or Mann-Whitney with Cliff's delta, as
      * {@link LocationTestChoice} decides. Ordinal variables: always the rank methods.
@@ -136,7 +163,7 @@ public final class VariableComparator {
         double js = JensenShannon.distance(baseline, current);
         double medB = Quantiles.median(baseline);
         double medC = Quantiles.median(current);
-        String name = variable;
+        String shownName = labels.named(variable);
         boolean welchPrimary = choice.test() == LocationTestChoice.LocationTest.WELCH_T;
         // The primary methods must succeed; the other pair is computed for the detail when the data allow it.
         MeanDifference md = welchPrimary ? WelchTTest.test(baseline, current, confidence)
@@ -156,13 +183,13 @@ public final class VariableComparator {
         if (welchPrimary) {
             EffectSize raw = meanDiff;
             Thresholds.Resolved t = Thresholds.resolve(configured, g.name(), Thresholds.HEDGES_G, unit);
-            WaveEstimates.Plotted plot = new WaveEstimates.Plotted("mean " + name, WaveEstimates.Estimator.MEAN, unit,
+            WaveEstimates.Plotted plot = new WaveEstimates.Plotted("mean " + shownName, WaveEstimates.Estimator.MEAN, unit,
                     List.of(WaveEstimates.mean(baseline, confidence)), List.of(WaveEstimates.mean(current, confidence)),
                     null);
             LocationDetail d = new LocationDetail(choice.reason(), md.meanBaseline(), md.meanCurrent(), medB, medC,
                     baseline.standardDeviation(), current.standardDeviation(), g, raw, ks.d(), ks.test().pValue(), w1,
                     psi.psi(), Magnitude.psi(psi.psi()), js, both, choice.normality(), plot);
-            Change change = new Change("mean " + name, plot.baseline().get(0).value(), plot.current().get(0).value(),
+            Change change = new Change("mean " + shownName, plot.baseline().get(0).value(), plot.current().get(0).value(),
                     false, unit,
                     md.difference(), md.ciLow(), md.ciHigh(), "");
             return new Comparison(variable, FindingKind.SHIFT, md.test(), t.rawScale() ? raw : g, t.value(), t.source(),
@@ -172,10 +199,10 @@ public final class VariableComparator {
         // The sentence of an ordinal variable speaks of its mean, that of a continuous one of its median: the plot
         // draws the statistic the sentence names.
         WaveEstimates.Plotted plot = ordinal
-                ? new WaveEstimates.Plotted("mean " + name, WaveEstimates.Estimator.MEAN, unit,
+                ? new WaveEstimates.Plotted("mean " + shownName, WaveEstimates.Estimator.MEAN, unit,
                 List.of(WaveEstimates.mean(baseline, confidence)), List.of(WaveEstimates.mean(current, confidence)),
                 null)
-                : new WaveEstimates.Plotted("median " + name, WaveEstimates.Estimator.MEDIAN, unit,
+                : new WaveEstimates.Plotted("median " + shownName, WaveEstimates.Estimator.MEDIAN, unit,
                 List.of(WaveEstimates.median(baseline, confidence)),
                 List.of(WaveEstimates.median(current, confidence)), null);
         double before = plot.baseline().get(0).value();
@@ -184,8 +211,8 @@ public final class VariableComparator {
                 baseline.standardDeviation(), current.standardDeviation(), delta, hl, ks.d(), ks.test().pValue(), w1,
                 psi.psi(), Magnitude.psi(psi.psi()), js, both, choice.normality(), plot);
         Change change = ordinal
-                ? new Change("mean " + name, before, after, false, unit, after - before, Double.NaN, Double.NaN, "")
-                : new Change("median " + name, before, after, false, unit, hl.estimate(), hl.ciLow(), hl.ciHigh(),
+                ? new Change("mean " + shownName, before, after, false, unit, after - before, Double.NaN, Double.NaN, "")
+                : new Change("median " + shownName, before, after, false, unit, hl.estimate(), hl.ciLow(), hl.ciHigh(),
                 "the shift is the Hodges-Lehmann estimate");
         return new Comparison(variable, FindingKind.SHIFT, mw.test(), t.rawScale() ? hl : delta, t.value(), t.source(),
                 baseline.n(), current.n(), change, d);
@@ -232,9 +259,9 @@ public final class VariableComparator {
                     : Thresholds.HEDGES_G) + " times the wave's SD)";
         }
         WaveEstimates.Estimate now = WaveEstimates.mean(current, confidence);
-        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("mean " + variable, WaveEstimates.Estimator.MEAN, unit,
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("mean " + labels.named(variable), WaveEstimates.Estimator.MEAN, unit,
                 null, List.of(now), List.of(new WaveEstimates.Estimate(null, mu, mu, mu)));
-        Change change = new Change("mean " + variable + " against its reference", mu, now.value(), false, unit,
+        Change change = new Change("mean " + labels.named(variable) + " against its reference", mu, now.value(), false, unit,
                 md.difference(), md.ciLow(), md.ciHigh(), "the first value is the reference");
         return new Comparison(variable, FindingKind.REFERENCE, md.test(), raw, t, source, 0, current.n(), change,
                 new ReferenceDetail(mu, now.value(), raw, plot));
@@ -273,14 +300,16 @@ public final class VariableComparator {
         List<WaveEstimates.Estimate> now = new ArrayList<>();
         List<WaveEstimates.Estimate> references = new ArrayList<>();
         for (int i : namedFirst(worst, cats.size())) {
-            now.add(WaveEstimates.share(cats.get(i), observed[i], n, confidence));
-            references.add(new WaveEstimates.Estimate(cats.get(i), expected[i], expected[i], expected[i]));
+            now.add(WaveEstimates.share(cats.get(i), observed[i], n, confidence).labelled(labels));
+            references.add(new WaveEstimates.Estimate(cats.get(i), labels.label(cats.get(i)), expected[i],
+                    expected[i], expected[i]));
         }
-        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("share answering '" + cats.get(worst) + "'",
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("share answering " + labels.quoted(cats.get(worst)),
                 WaveEstimates.Estimator.SHARE, null, null, now, references);
         double share = now.get(0).value();
         Thresholds.Resolved t = Thresholds.resolve(configured, w.name(), Thresholds.CRAMERS_V, null);
-        Change change = new Change("share answering '" + cats.get(worst) + "' against its reference", expected[worst],
+        Change change = new Change("share answering " + labels.quoted(cats.get(worst)) + " against its reference",
+                expected[worst],
                 share, true, null, share - expected[worst], wilson.lower() - expected[worst],
                 wilson.upper() - expected[worst], "the first value is the reference");
         return new Comparison(variable, FindingKind.REFERENCE, gof, w, t.value(), t.source(), 0, n, change,
@@ -331,7 +360,8 @@ public final class VariableComparator {
         for (int k = 0; k < kept.length; k++) {
             int col = kept[k];
             double r = res[1][k];
-            rows.add(new CategoryRow(order.get(col), b[col], c[col], (double) b[col] / nB, (double) c[col] / nC, r));
+            rows.add(new CategoryRow(order.get(col), labels.label(order.get(col)), b[col], c[col], (double) b[col] / nB,
+                    (double) c[col] / nC, r));
             if (top < 0 || Math.abs(r) > Math.abs(rows.get(top).adjustedResidual())) {
                 top = rows.size() - 1;
             }
@@ -351,12 +381,12 @@ public final class VariableComparator {
         List<WaveEstimates.Estimate> plotB = new ArrayList<>();
         List<WaveEstimates.Estimate> plotC = new ArrayList<>();
         for (int col : namedFirst(order.indexOf(moved.category()), order.size())) {
-            plotB.add(WaveEstimates.share(order.get(col), b[col], nB, confidence));
-            plotC.add(WaveEstimates.share(order.get(col), c[col], nC, confidence));
+            plotB.add(WaveEstimates.share(order.get(col), b[col], nB, confidence).labelled(labels));
+            plotC.add(WaveEstimates.share(order.get(col), c[col], nC, confidence).labelled(labels));
         }
-        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("share answering '" + moved.category() + "'",
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("share answering " + labels.quoted(moved.category()),
                 WaveEstimates.Estimator.SHARE, null, plotB, plotC, null);
-        Change change = new Change("share answering '" + moved.category() + "'", plotB.get(0).value(),
+        Change change = new Change("share answering " + labels.quoted(moved.category()), plotB.get(0).value(),
                 plotC.get(0).value(), true, null, share.riskDifference().estimate(), lo, hi, "the category that moved most (adjusted residual "
                 + signed(moved.adjustedResidual(), 1) + ")");
         CategoryDetail d = new CategoryDetail(rows, chi.cochranSatisfied(), chi.cochranNote(),
@@ -393,12 +423,13 @@ public final class VariableComparator {
         Thresholds.Resolved t = Thresholds.resolve(configured, h.name(), Thresholds.COHENS_H, null);
         EffectSize rd = z.riskDifference();
         String category = categoryOf(successLabel);
-        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("share " + successLabel, WaveEstimates.Estimator.SHARE,
-                null, List.of(WaveEstimates.share(category, sB, nB, confidence)),
-                List.of(WaveEstimates.share(category, sC, nC, confidence)), null);
+        String shown = shownSuccess(successLabel, labels);
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("share " + shown, WaveEstimates.Estimator.SHARE,
+                null, List.of(WaveEstimates.share(category, sB, nB, confidence).labelled(labels)),
+                List.of(WaveEstimates.share(category, sC, nC, confidence).labelled(labels)), null);
         ProportionDetail d = new ProportionDetail(successLabel, z.proportionBaseline(), z.proportionCurrent(), rd, h,
                 note, plot);
-        Change change = new Change("share " + successLabel, plot.baseline().get(0).value(),
+        Change change = new Change("share " + shown, plot.baseline().get(0).value(),
                 plot.current().get(0).value(), true, null, rd.estimate(), rd.ciLow(), rd.ciHigh(), "");
         return new Comparison(variable, kind, primary, t.rawScale() ? rd : h, t.value(), t.source(), nB, nC, change, d);
     }

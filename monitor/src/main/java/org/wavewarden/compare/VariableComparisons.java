@@ -1,5 +1,6 @@
 package org.wavewarden.compare;
 
+import org.wavewarden.codebook.CodeLabels;
 import org.wavewarden.compare.location.LocationTestChoice;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.config.VariableKind;
@@ -29,9 +30,16 @@ public final class VariableComparisons {
         if (skipReason(v, b, c, ct, bt) != null) {
             return Optional.empty();
         }
+        CodeLabels labels = CodeLabels.of(v);
         if (weighted != null) {
-            return WeightedComparisons.compare(weighted, v, b, c, design);
+            return WeightedComparisons.compare(weighted.labelled(labels), v, b, c, design);
         }
+        return compareUnweighted(comparator.labelled(labels), v, b, c, ct, bt, choice);
+    }
+
+    private static Optional<Comparison> compareUnweighted(VariableComparator comparator, VariableConfig v,
+                                                          ScreenedVariable b, ScreenedVariable c, ColumnTally ct,
+                                                          ColumnTally bt, LocationTestChoice.Choice choice) {
         return switch (v.kind()) {
             case CONTINUOUS, ORDINAL -> Optional.of(comparator.numeric(v.name(), v.kind() == VariableKind.ORDINAL,
                     b.numeric(), c.numeric(), v.threshold(), v.unit(), choice));
@@ -50,10 +58,11 @@ public final class VariableComparisons {
     }
 
     /** The wave against the variable's configured reference, when it has one and enough valid answers. */
-    public static Optional<Comparison> reference(VariableComparator comparator, VariableConfig v, ScreenedVariable c) {
+    public static Optional<Comparison> reference(VariableComparator unlabelled, VariableConfig v, ScreenedVariable c) {
         if (v.reference() == null || c.validN() < 2) {
             return Optional.empty();
         }
+        VariableComparator comparator = unlabelled.labelled(CodeLabels.of(v));
         if (v.reference().mean() != null && c.numeric() != null && c.numeric().size() > 1) {
             return Optional.of(comparator.referenceMean(v.name(), c.numeric(), v.reference().mean(), v.threshold(),
                     v.unit()));

@@ -65,8 +65,19 @@ public final class WaveEstimates {
      * @param value    the estimate (a share as a proportion from 0 to 1)
      * @param low      lower confidence limit, or NaN when there is none (fewer than 2 answers)
      * @param high     upper confidence limit, or NaN
+     * @param label    the category's value label, or null when it has none (or is not a category)
      */
-    public record Estimate(String category, double value, double low, double high) {
+    public record Estimate(String category, String label, double value, double low, double high) {
+
+        /** An estimate without a label. */
+        public Estimate(String category, double value, double low, double high) {
+            this(category, null, value, low, high);
+        }
+
+        /** The same estimate with its category's label from the variable's labels. */
+        public Estimate labelled(org.wavewarden.codebook.CodeLabels labels) {
+            return category == null ? this : new Estimate(category, labels.label(category), value, low, high);
+        }
     }
 
     /**

@@ -16,6 +16,7 @@ import org.wavewarden.compare.design.WeightedDistribution;
 import org.wavewarden.compare.design.WeightedTally;
 import org.wavewarden.compare.shape.DistanceInterval;
 import org.wavewarden.compare.shape.KolmogorovSmirnovTest;
+import org.wavewarden.codebook.CodeLabels;
 import org.wavewarden.config.Threshold;
 import org.wavewarden.judge.FindingKind;
 
@@ -88,9 +89,21 @@ public final class WeightedComparator {
                          PsuTotals currentTotals) {
     }
 
+    private final CodeLabels labels;
+
     public WeightedComparator(double confidence) {
+        this(confidence, CodeLabels.NONE);
+    }
+
+    private WeightedComparator(double confidence, CodeLabels labels) {
         Checks.confidence(confidence);
         this.confidence = confidence;
+        this.labels = labels;
+    }
+
+    /** The same comparator naming one variable's codes by their labels in what it writes. */
+    public WeightedComparator labelled(CodeLabels variableLabels) {
+        return new WeightedComparator(confidence, variableLabels == null ? CodeLabels.NONE : variableLabels);
     }
 
     /**
@@ -146,8 +159,12 @@ public final class WeightedComparator {
                                    Reproduce reproduce, WaveEstimates.Plotted plot) {
     }
 
-    /** One category of a weighted categorical comparison, with the design-based t of its share difference. */
-    public record CategoryRow(String category, long countBaseline, long countCurrent, double shareBaseline,
+    /**
+     * One category of a weighted categorical comparison, with the design-based t of its share difference.
+     *
+     * @param label the category's value label, or null when it has none
+     */
+    public record CategoryRow(String category, String label, long countBaseline, long countCurrent, double shareBaseline,
                               double shareCurrent, double designT) {
     }
 
@@ -195,7 +212,7 @@ public final class WeightedComparator {
         Weighting wb = Weighting.of(baseline);
         Weighting wc = Weighting.of(current);
         ShapeTest ks = shapeTest(baseline, current, design, wb, wc);
-        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("weighted mean " + variable, design == null
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("weighted mean " + labels.named(variable), design == null
                 ? WaveEstimates.Estimator.WEIGHTED_MEAN : WaveEstimates.Estimator.DESIGN_MEAN, unit,
                 List.of(WaveEstimates.weightedMean(baseline, design == null ? null : design.baselineTotals(),
                         confidence)),
@@ -207,7 +224,7 @@ public final class WeightedComparator {
                 md.baseline().standardError(), md.current().standardError(), md.baseline().designEffect(),
                 md.current().designEffect(), quartiles(baseline), quartiles(current), sdB, sdC, d, raw, ks.distance(),
                 ks.pValue(), ks.test(), Reproduce.of(test, md), plot);
-        Change change = new Change("weighted mean " + variable, plot.baseline().get(0).value(),
+        Change change = new Change("weighted mean " + labels.named(variable), plot.baseline().get(0).value(),
                 plot.current().get(0).value(), false, unit, diff.estimate(), diff.ciLow(), diff.ciHigh(),
                 weightingNote(wb, wc));
         return new Comparison(variable, FindingKind.SHIFT, test, t.rawScale() ? raw : d, t.value(), t.source(), nb,
@@ -290,18 +307,19 @@ public final class WeightedComparator {
         Thresholds.Resolved t = Thresholds.resolve(configured, h.name(), Thresholds.COHENS_H, null);
         EffectSize rd = r.difference();
         String category = VariableComparator.categoryOf(successLabel);
-        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("weighted share " + successLabel,
+        String shown = VariableComparator.shownSuccess(successLabel, labels);
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("weighted share " + shown,
                 design == null ? WaveEstimates.Estimator.WEIGHTED_SHARE : WaveEstimates.Estimator.DESIGN_SHARE, null,
                 List.of(WaveEstimates.weightedShare(category, baseline, design == null ? null
-                        : design.baselineTally(), 1, confidence)),
+                        : design.baselineTally(), 1, confidence).labelled(labels)),
                 List.of(WaveEstimates.weightedShare(category, current, design == null ? null
-                        : design.currentTally(), 1, confidence)), null);
+                        : design.currentTally(), 1, confidence).labelled(labels)), null);
         TestResult test = new TestResult(SHARES_TEST + (design == null ? "" : WITH_DESIGN), r.test().statistic(),
                 r.test().df(), r.test().pValue(), r.test().dfConvention());
         ProportionDetail d = new ProportionDetail(successLabel, wb, wc, r.baseline().estimate(),
                 r.current().estimate(), r.baseline().standardError(), r.current().standardError(), rd, h,
                 Reproduce.of(test, r), plot);
-        Change change = new Change("weighted share " + successLabel, plot.baseline().get(0).value(),
+        Change change = new Change("weighted share " + shown, plot.baseline().get(0).value(),
                 plot.current().get(0).value(), true, null, rd.estimate(), rd.ciLow(), rd.ciHigh(),
                 weightingNote(wb, wc));
         return new Comparison(variable, FindingKind.SHIFT, test, t.rawScale() ? rd : h, t.value(), t.source(),
@@ -338,7 +356,7 @@ public final class WeightedComparator {
         for (int j = 0; j < k; j++) {
             DesignMeanDifferenceResult m = shareDifference(baseline, current, design, codes[j]);
             double tj = m == null ? 0 : m.test().statistic();
-            rows.add(new CategoryRow(categories.get(codes[j]), nb[j], nc[j], sb[j], sc[j], tj));
+            rows.add(new CategoryRow(categories.get(codes[j]), labels.label(categories.get(codes[j])), nb[j], nc[j], sb[j], sc[j], tj));
             if (m != null && (top == null || Math.abs(tj) > Math.abs(top.test().statistic()))) {
                 top = m;
                 topIndex = j;
@@ -369,13 +387,13 @@ public final class WeightedComparator {
         for (int j : VariableComparator.namedFirst(topIndex, k)) {
             String label = categories.get(codes[j]);
             plotB.add(WaveEstimates.weightedShare(label, baseline, design == null ? null : design.baselineTally(),
-                    codes[j], confidence));
+                    codes[j], confidence).labelled(labels));
             plotC.add(WaveEstimates.weightedShare(label, current, design == null ? null : design.currentTally(),
-                    codes[j], confidence));
+                    codes[j], confidence).labelled(labels));
         }
-        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("weighted share answering '" + moved + "'", estimator,
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("weighted share answering " + labels.quoted(moved), estimator,
                 null, plotB, plotC, null);
-        Change change = new Change("weighted share answering '" + moved + "'", plotB.get(0).value(),
+        Change change = new Change("weighted share answering " + labels.quoted(moved), plotB.get(0).value(),
                 plotC.get(0).value(), true, null, share.estimate(), share.ciLow(), share.ciHigh(), "the category that"
                 + " moved most (design-based t " + VariableComparator.signed(top.test().statistic(), 1) + "); "
                 + weightingNote(wb, wc));
@@ -425,14 +443,14 @@ public final class WeightedComparator {
         List<WaveEstimates.Estimate> now = new ArrayList<>();
         List<WaveEstimates.Estimate> references = new ArrayList<>();
         for (int j : VariableComparator.namedFirst(worst, expected.length)) {
-            now.add(WaveEstimates.weightedShare(categories.get(j), current, design, j, confidence));
-            references.add(new WaveEstimates.Estimate(categories.get(j), expected[j], expected[j], expected[j]));
+            now.add(WaveEstimates.weightedShare(categories.get(j), current, design, j, confidence).labelled(labels));
+            references.add(new WaveEstimates.Estimate(categories.get(j), labels.label(categories.get(j)), expected[j],
+                    expected[j], expected[j]));
         }
-        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("weighted share answering '" + categories.get(worst)
-                + "'", design == null ? WaveEstimates.Estimator.WEIGHTED_SHARE : WaveEstimates.Estimator.DESIGN_SHARE,
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("weighted share answering " + labels.quoted(categories.get(worst)), design == null ? WaveEstimates.Estimator.WEIGHTED_SHARE : WaveEstimates.Estimator.DESIGN_SHARE,
                 null, null, now, references);
         double d = now.get(0).value() - expected[worst];
-        Change change = new Change("weighted share answering '" + categories.get(worst) + "' against its reference",
+        Change change = new Change("weighted share answering " + labels.quoted(categories.get(worst)) + " against its reference",
                 expected[worst], now.get(0).value(), true, null, d, d - half, d + half, "the first value is the"
                 + " reference; " + String.format(Locale.ROOT, "Satterthwaite scale %.3g on %.3g df; ", r.scale(),
                 r.test().df()) + "Kish effective sample size " + String.format(Locale.ROOT, "%.0f",
@@ -476,10 +494,10 @@ public final class WeightedComparator {
         }
         Weighting w = Weighting.of(current);
         WaveEstimates.Estimate now = WaveEstimates.weightedMean(current, null, confidence);
-        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("weighted mean " + variable,
+        WaveEstimates.Plotted plot = new WaveEstimates.Plotted("weighted mean " + labels.named(variable),
                 WaveEstimates.Estimator.WEIGHTED_MEAN, unit, null, List.of(now),
                 List.of(new WaveEstimates.Estimate(null, mu, mu, mu)));
-        Change change = new Change("weighted mean " + variable + " against its reference", mu, now.value(), false,
+        Change change = new Change("weighted mean " + labels.named(variable) + " against its reference", mu, now.value(), false,
                 unit, d, d - half, d + half, "the first value is the reference; " + String.format(Locale.ROOT,
                 "weighted: Kish effective sample size %.0f, design effect due to weighting %.2f",
                 w.effectiveSampleSize(), w.designEffect()));

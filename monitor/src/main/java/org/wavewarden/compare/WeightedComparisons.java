@@ -102,11 +102,12 @@ public final class WeightedComparisons {
      * The weighted reference comparison, when the variable has a reference mean or reference shares; empty
      * otherwise. With the wave's design (null: none), the shares' variance comes from its strata and clusters.
      */
-    public static Optional<Comparison> reference(WeightedComparator comparator, VariableConfig v, ScreenedVariable c,
+    public static Optional<Comparison> reference(WeightedComparator unlabelled, VariableConfig v, ScreenedVariable c,
                                           ColumnTally ct, DesignSummary cd) {
         if (v.reference() == null || c.validN() < 2 || !(c.weighted().totalWeight() > 0)) {
             return Optional.empty();
         }
+        WeightedComparator comparator = unlabelled.labelled(org.wavewarden.codebook.CodeLabels.of(v));
         if (v.reference().mean() != null && c.numeric() != null && c.numeric().size() > 1) {
             return Optional.of(comparator.referenceMean(v.name(), c.weighted(), v.reference().mean(), v.threshold(),
                     v.unit()));

@@ -13,10 +13,13 @@ import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.HashMap;
 import java.util.HashSet;
 import java.util.Iterator;
+import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
+import java.util.Map;
 import java.util.Set;
 
 /**
@@ -637,16 +640,38 @@ public final class ConfigLoader {
                     locationTest, label, valueLabels, missingRanges);
         }
 
-        java.util.Map<String, String> valueLabels(JsonNode node, String path) {
+        /**
+         * Code -> label in the order written. A code is text as YAML gives it (1 and "1" are the same key); two keys
+         * naming the same number (1 and 1.0) would give one answer two labels, so they are refused.
+         */
+        Map<String, String> valueLabels(JsonNode node, String path) {
             if (node == null || node.isNull()) {
-                return java.util.Map.of();
+                return Map.of();
             }
-            ObjectNode o = asObject(node, path);
-            java.util.Map<String, String> out = new java.util.LinkedHashMap<>();
-            var it = o.fieldNames();
-            while (it.hasNext()) {
-                String code = it.next();
-                out.put(code, text(o, code, path + "." + code, true));
+            if (!node.isObject()) {
+                throw new ConfigException(path, "expected a map of code to label, such as {\"1\": \"Yes\"}, but got "
+                        + describe(node));
+            }
+            Map<String, String> out = new LinkedHashMap<>();
+            Map<String, String> numeric = new HashMap<>();
+            var fields = node.fields();
+            while (fields.hasNext()) {
+                var e = fields.next();
+                String code = e.getKey();
+                String p = path + "." + code;
+                if (code.isEmpty()) {
+                    throw new ConfigException(path, "a code must not be empty");
+                }
+                if (!e.getValue().isTextual() && !e.getValue().isNumber()) {
+                    throw new ConfigException(p, "expected the label as text but got " + describe(e.getValue()));
+                }
+                String number = org.wavewarden.codebook.CodeLabels.numericKey(code);
+                String same = number == null ? null : numeric.put(number, code);
+                if (same != null) {
+                    throw new ConfigException(p, "the code " + Identifiers.Text.show(same) + " names the same number"
+                            + " and already has a label");
+                }
+                out.put(code, e.getValue().asText());
             }
             return out;
         }

@@ -21,6 +21,7 @@ public final class ConsoleTable {
                 .append('\n');
         sb.append(String.format(Locale.ROOT, "  %-10s %-22s %-20s %-28s %9s %9s%n", "verdict", "variable", "kind",
                 "effect [CI]", "p", "q"));
+        java.util.Set<String> labelShown = new java.util.HashSet<>();
         for (Finding f : FindingsFiles.ordered(r.findings())) {
             if (!all && !Alerts.worthAPerson(f) && f.verdict() != org.wavewarden.judge.Verdict.MINOR) {
                 continue;
@@ -31,6 +32,10 @@ public final class ConsoleTable {
                     f.verdict() == null ? (f.kind() == FindingKind.SKIPPED ? "skipped" : "quality") : f.verdict().name(),
                     cut(DataText.visible(f.variable()), 22), cut(f.kind().name(), 20), effect, p(f.pValue()),
                     p(f.qValue())));
+            // The variable's label on a line of its own under its first row: the column is too narrow to hold both.
+            if (f.label() != null && labelShown.add(f.variable())) {
+                sb.append(String.format(Locale.ROOT, "  %-10s %s%n", "", cut(DataText.visible(f.label()), 80)));
+            }
         }
         return sb.toString();
     }

@@ -36,7 +36,8 @@ public final class MarkdownDigest {
             // One row per event: the lead's verdict and sentence, then what else was seen of the same variable.
             md.append("| verdict / kind | variable | what happened |\n|---|---|---|\n");
             for (Alert a : alerts) {
-                md.append("| ").append(label(a.lead())).append(" | ").append(escape(a.variable())).append(" | ")
+                md.append("| ").append(label(a.lead())).append(" | ").append(escape(a.variable()))
+                        .append(a.lead().label() == null ? "" : " (" + escape(org.wavewarden.codebook.CodeLabels.shown(a.lead().label())) + ")").append(" | ")
                         .append(escape(a.lead().sentence()));
                 // Plain text, so the lead's verdict stays the only bold word of the row.
                 for (Finding o : a.facets().subList(1, a.facets().size())) {

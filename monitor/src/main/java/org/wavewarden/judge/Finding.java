@@ -6,6 +6,7 @@ import com.fasterxml.jackson.annotation.JsonInclude;
  * One row of {@code findings.json} and of the results table. Field names are the output contract.
  *
  * @param variable      source column
+ * @param label         the variable's label ("Tenure of the home") from its YAML or codebook, or null when it has none
  * @param kind          SHIFT or a data-quality kind
  * @param test          the primary test, when there is one
  * @param statistic     its statistic
@@ -23,12 +24,20 @@ import com.fasterxml.jackson.annotation.JsonInclude;
  * @param fdrMethod     the adjustment that gave {@code qValue}, e.g. BENJAMINI_HOCHBERG
  */
 @JsonInclude(JsonInclude.Include.ALWAYS)
-public record Finding(String variable, FindingKind kind, String test, Double statistic, Double pValue,
+public record Finding(String variable, String label, FindingKind kind, String test, Double statistic, Double pValue,
                       Double qValue, Effect effect, Verdict verdict, Long nBaseline, Long nCurrent, String sentence,
                       Object detail, Double df, String dfConvention, Integer fdrFamilySize, String fdrMethod) {
 
     /** An effect size as reported: estimate, interval and the threshold T it was judged against. */
     public record Effect(String name, double estimate, double ciLow, double ciHigh, double threshold) {
+    }
+
+    /** A finding without a variable label. */
+    public Finding(String variable, FindingKind kind, String test, Double statistic, Double pValue, Double qValue,
+                   Effect effect, Verdict verdict, Long nBaseline, Long nCurrent, String sentence, Object detail,
+                   Double df, String dfConvention, Integer fdrFamilySize, String fdrMethod) {
+        this(variable, null, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline, nCurrent, sentence,
+                detail, df, dfConvention, fdrFamilySize, fdrMethod);
     }
 
     /** A finding outside any false-discovery-rate family: no df, q or family of its own. */
@@ -46,14 +55,20 @@ public record Finding(String variable, FindingKind kind, String test, Double sta
 
     /** The same finding with another sentence; every other field, the test's df and family included, is kept. */
     public Finding withSentence(String newSentence) {
-        return new Finding(variable, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline, nCurrent,
-                newSentence, detail, df, dfConvention, fdrFamilySize, fdrMethod);
+        return new Finding(variable, label, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline,
+                nCurrent, newSentence, detail, df, dfConvention, fdrFamilySize, fdrMethod);
     }
 
     /** The same finding with another detail; every other field is kept. */
     public Finding withDetail(Object newDetail) {
-        return new Finding(variable, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline, nCurrent,
-                sentence, newDetail, df, dfConvention, fdrFamilySize, fdrMethod);
+        return new Finding(variable, label, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline,
+                nCurrent, sentence, newDetail, df, dfConvention, fdrFamilySize, fdrMethod);
+    }
+
+    /** The same finding with the variable's label (null: none); every other field is kept. */
+    public Finding withLabel(String variableLabel) {
+        return new Finding(variable, variableLabel, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline,
+                nCurrent, sentence, detail, df, dfConvention, fdrFamilySize, fdrMethod);
     }
 
     /** Ranking for digests and alerts: verdict first, then size of the effect relative to its threshold. */

@@ -37,6 +37,10 @@ public enum FindingKind {
     CODE_APPEARED,
     /** A category present in the baseline but not the current wave. */
     CODE_VANISHED,
+    /** A code answered in this wave that has no value label, while the variable's other codes have labels. */
+    CODE_UNLABELLED,
+    /** The same code has another label in this wave's codebook than in the baseline wave's. */
+    LABEL_CHANGED,
     /** Digit preference on ages (Whipple's or Myers' index). */
     HEAPING,
     /** Terminal-digit preference on other numeric answers. */

@@ -2,6 +2,8 @@ package org.wavewarden.missing;
 
 import java.util.ArrayList;
 import java.util.List;
+import java.util.Map;
+import org.wavewarden.codebook.CodeLabels;
 import org.wavewarden.profile.CategoryCounts;
 
 /**
@@ -71,5 +73,48 @@ public record CodeFrameChange(List<String> appeared, List<String> vanished, long
 
     public boolean changed() {
         return !appeared.isEmpty() || !vanished.isEmpty();
+    }
+
+    /**
+     * The codes answered at least {@code minCount} times that have no value label, in the order of {@code answers},
+     * when the variable has value labels at all: a code outside the codebook's frame. A variable without labels has
+     * no frame to be outside of, and gives none.
+     *
+     * @param answers each answered code with its count, codes in the text form the wave's tally holds
+     */
+    public static List<String> unlabelled(Map<String, Long> answers, CodeLabels labels, long minCount) {
+        if (!labels.hasValueLabels()) {
+            return List.of();
+        }
+        return answers.entrySet().stream().filter(e -> e.getValue() >= minCount && labels.label(e.getKey()) == null)
+                .map(Map.Entry::getKey).toList();
+    }
+
+    /**
+     * One code whose label differs between two waves' codebooks.
+     *
+     * @param code     the code as the current wave's codebook writes it
+     * @param before   its label in the baseline wave's codebook
+     * @param after    its label in the current wave's codebook
+     */
+    public record Relabel(String code, String before, String after) {
+    }
+
+    /**
+     * The codes labelled in both codebooks whose labels differ, in the current codebook's order: the same code now
+     * means something else, so its shares are not comparable as they stand. A code labelled in one codebook only is
+     * no relabelling (it is a code added to or dropped from the frame, which the answers show as appeared or
+     * vanished). Labels are compared as written: a changed spelling counts, since only a person can tell a typo fixed
+     * from a meaning changed.
+     */
+    public static List<Relabel> relabelled(CodeLabels baseline, Map<String, String> current) {
+        List<Relabel> out = new ArrayList<>();
+        current.forEach((code, after) -> {
+            String before = baseline.label(code);
+            if (before != null && after != null && !before.equals(after)) {
+                out.add(new Relabel(code, before, after));
+            }
+        });
+        return out;
     }
 }

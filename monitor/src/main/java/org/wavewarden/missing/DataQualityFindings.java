@@ -1,5 +1,6 @@
 package org.wavewarden.missing;
 
+import org.wavewarden.codebook.CodeLabels;
 import org.wavewarden.compare.Comparison;
 import org.wavewarden.compare.VariableComparator;
 import org.wavewarden.config.VariableConfig;
@@ -50,6 +51,7 @@ public final class DataQualityFindings {
         List<Finding> out = new ArrayList<>();
         List<Comparison> rates = new ArrayList<>();
         String name = v.name();
+        CodeLabels labels = CodeLabels.of(v);
         Long nB = baseline == null ? null : baseline.validN();
         long nC = current.validN();
 
@@ -125,6 +127,10 @@ public final class DataQualityFindings {
             out.add(Finding.dataQuality(name, FindingKind.CONSTANT, nB, nC, "Every valid answer in this wave is the"
                     + " same value.", null));
         }
+        Finding unlabelled = unlabelledCodes(v, current, labels, nB);
+        if (unlabelled != null) {
+            out.add(unlabelled);
+        }
         if (baseline == null) {
             return new Result(out, rates);
         }
@@ -155,13 +161,13 @@ public final class DataQualityFindings {
                     .filter(code -> baseline.categories().count(code) >= CODE_FRAME_MIN_COUNT).toList();
             if (!appeared.isEmpty()) {
                 out.add(Finding.dataQuality(name, FindingKind.CODE_APPEARED, nB, nC, "New code(s) "
-                        + codes(appeared, current) + " appear in this wave and not in the baseline: a changed code"
-                        + " frame?", new CodesDetail(appeared, counts(appeared, current))));
+                        + codes(appeared, current, labels) + " appear in this wave and not in the baseline: a changed"
+                        + " code frame?", CodesDetail.of(appeared, counts(appeared, current), labels)));
             }
             if (!vanished.isEmpty()) {
                 out.add(Finding.dataQuality(name, FindingKind.CODE_VANISHED, nB, nC, "Code(s) "
-                        + codes(vanished, baseline) + " of the baseline have no answers in this wave: a changed code"
-                        + " frame?", new CodesDetail(vanished, counts(vanished, baseline))));
+                        + codes(vanished, baseline, labels) + " of the baseline have no answers in this wave: a"
+                        + " changed code frame?", CodesDetail.of(vanished, counts(vanished, baseline), labels)));
             }
         }
 
@@ -237,8 +243,100 @@ public final class DataQualityFindings {
     }
 
     static String codes(List<String> codes, ScreenedVariable s) {
-        return codes.stream().map(c -> quoted(c) + " (" + s.categories().count(c) + ")").reduce((a, b) -> a + ", " + b)
-                .orElse("");
+        return codes(codes, s, CodeLabels.NONE);
+    }
+
+    /** "'North' (12), 'Council tenant' (COUN: 41)": each code with its answers, named by its label where it has one. */
+    static String codes(List<String> codes, ScreenedVariable s, CodeLabels labels) {
+        return codes.stream().map(c -> {
+            String label = labels.label(c);
+            long n = s.categories().count(c);
+            return label == null ? quoted(c) + " (" + n + ")"
+                    : "'" + CodeLabels.shown(label) + "' (" + c + ": " + n + ")";
+        }).reduce((a, b) -> a + ", " + b).orElse("");
+    }
+
+    /**
+     * A code answered in this wave that has no value label while the variable's other codes have one: a code
+     * outside the frame the codebook (or the YAML) declares. Only variables whose answers are codes (categorical,
+     * binary, ordinal) are checked; a code needs {@link #CODE_FRAME_MIN_COUNT} answers, as for a code that appeared.
+     */
+    static Finding unlabelledCodes(VariableConfig v, ScreenedVariable current, CodeLabels labels, Long nB) {
+        if (!labels.hasValueLabels() || (v.kind() != VariableKind.CATEGORICAL && v.kind() != VariableKind.BINARY
+                && v.kind() != VariableKind.ORDINAL)) {
+            return null;
+        }
+        Map<String, Long> answers = answeredCodes(current);
+        List<String> codes = CodeFrameChange.unlabelled(answers, labels, CODE_FRAME_MIN_COUNT);
+        if (codes.isEmpty()) {
+            return null;
+        }
+        List<Long> counts = codes.stream().map(answers::get).toList();
+        String listed = codes.size() == 1
+                ? "Code " + quoted(codes.get(0)) + String.format(Locale.ROOT, " has %,d answers", counts.get(0))
+                + " and no value label"
+                : "Codes " + java.util.stream.IntStream.range(0, codes.size()).mapToObj(i -> quoted(codes.get(i))
+                + String.format(Locale.ROOT, " (%,d answers)", counts.get(i))).reduce((a, b) -> a + ", " + b)
+                .orElse("") + " have no value label";
+        return Finding.dataQuality(v.name(), FindingKind.CODE_UNLABELLED, nB, current.validN(), listed
+                        + " in this wave, though the variable's other codes have labels: a code outside the codebook?",
+                CodesDetail.of(codes, counts, labels));
+    }
+
+    /**
+     * A label that changed for the same code between the baseline wave's codebook and the current wave's: the code
+     * is the same, what it stands for may not be. Only the codebooks each wave was imported with can show this; the
+     * YAML and the dataset's codebook give one label per code for every wave.
+     *
+     * @param baselineWave   the baseline wave's own value labels (empty: it has no codebook of its own)
+     * @param currentWave    the current wave's own value labels
+     * @param baselineName   the baseline wave, as the sentence names it
+     * @param currentName    the current wave
+     */
+    public static Finding relabelledCodes(VariableConfig v, ScreenedVariable baseline, ScreenedVariable current,
+                                          Map<String, String> baselineWave, Map<String, String> currentWave,
+                                          String baselineName, String currentName) {
+        List<CodeFrameChange.Relabel> changed = CodeFrameChange.relabelled(new CodeLabels(null, baselineWave),
+                currentWave);
+        if (changed.isEmpty()) {
+            return null;
+        }
+        Map<String, Long> before = baseline == null ? Map.of() : answeredCodes(baseline);
+        Map<String, Long> after = answeredCodes(current);
+        List<RelabelledCode> codes = changed.stream().map(r -> new RelabelledCode(r.code(), r.before(), r.after(),
+                count(before, r.code()), count(after, r.code()))).toList();
+        String sentence = codes.stream().map(c -> String.format(Locale.ROOT, "code %s was '%s' in wave %s and is '%s'"
+                        + " in wave %s (%,d answers now)", quoted(c.code()), CodeLabels.shown(c.baselineLabel()),
+                baselineName, CodeLabels.shown(c.label()), currentName, c.countCurrent()))
+                .reduce((a, b) -> a + "; " + b).orElse("");
+        return Finding.dataQuality(v.name(), FindingKind.LABEL_CHANGED, baseline == null ? null : baseline.validN(),
+                current.validN(), Character.toUpperCase(sentence.charAt(0)) + sentence.substring(1)
+                        + ": the same code may not mean the same answer in the two waves.",
+                new RelabelledDetail(codes, baselineName, currentName));
+    }
+
+    /** The answers a code has, matched as {@link CodeLabels} matches labels: as written, then as a number. */
+    private static long count(Map<String, Long> answers, String code) {
+        Long exact = answers.get(code);
+        if (exact != null) {
+            return exact;
+        }
+        String n = CodeLabels.numericKey(code);
+        return n == null ? 0 : answers.entrySet().stream().filter(e -> n.equals(CodeLabels.numericKey(e.getKey())))
+                .mapToLong(Map.Entry::getValue).sum();
+    }
+
+    /** Each valid answer's code with its count: the categories as tallied, or a numeric code in the form of Codes. */
+    static Map<String, Long> answeredCodes(ScreenedVariable s) {
+        Map<String, Long> out = new LinkedHashMap<>();
+        if (s.categories() != null) {
+            s.categories().categories().forEach(c -> out.put(c, s.categories().count(c)));
+        } else if (s.numeric() != null) {
+            for (int i = 0; i < s.numeric().size(); i++) {
+                out.merge(org.wavewarden.codebook.Codes.of(s.numeric().value(i)), s.numeric().count(i), Long::sum);
+            }
+        }
+        return out;
     }
 
     /** "12 of 480 rows (2.5%)": every share a data-quality sentence prints names its count and denominator. */
@@ -281,8 +379,30 @@ public final class DataQualityFindings {
     record DistinctDetail(long distinctValues) {
     }
 
-    /** The codes, with their answers in the wave that has them. */
-    record CodesDetail(List<String> codes, List<Long> counts) {
+    /**
+     * The codes, with their answers in the wave that has them and their value labels (null where a code has none).
+     */
+    record CodesDetail(List<String> codes, List<Long> counts, List<String> labels) {
+
+        static CodesDetail of(List<String> codes, List<Long> counts, CodeLabels labels) {
+            return new CodesDetail(codes, counts, codes.stream().map(labels::label).toList());
+        }
+    }
+
+    /**
+     * A code whose label changed between the two waves' codebooks.
+     *
+     * @param label          its label in the current wave's codebook
+     * @param baselineLabel  its label in the baseline wave's codebook
+     * @param countBaseline  its answers in the baseline wave
+     * @param countCurrent   its answers in this wave
+     */
+    public record RelabelledCode(String code, String baselineLabel, String label, long countBaseline,
+                                 long countCurrent) {
+    }
+
+    /** The codes whose labels changed, and the two waves whose codebooks say so. */
+    public record RelabelledDetail(List<RelabelledCode> codes, String baselineWave, String currentWave) {
     }
 
     /**

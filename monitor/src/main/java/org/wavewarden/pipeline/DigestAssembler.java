@@ -52,6 +52,8 @@ public final class DigestAssembler {
     private final Map<List<Object>, ScreenedWave> screened = new HashMap<>();
     /** Each wave's report, from the digest's own or the store's latest run; empty when the wave was never judged. */
     private final Map<String, Optional<FindingsReport>> judged = new HashMap<>();
+    /** Each wave's dataset as it was judged, with the wave's own codebook merged under the configured variables. */
+    private final Map<String, DatasetConfig> judgedAs = new HashMap<>();
 
     public DigestAssembler(Session session) {
         this.session = session;
@@ -70,7 +72,9 @@ public final class DigestAssembler {
             List<AlertView> views = new ArrayList<>();
             for (org.wavewarden.deliver.Alert alert : org.wavewarden.deliver.Alerts.group(r.findings())) {
                 Finding f = alert.lead();
-                VariableConfig v = VariableInference.variable(d, f.variable(),
+                // As the wave was judged: its own codebook merged under the configured variables.
+                VariableConfig v = VariableInference.variable(judgedAs.computeIfAbsent(r.wave(),
+                                w -> WaveJudge.withWaveCodebook(session, d, w)), f.variable(),
                         current == null ? null : current.columns().get(f.variable()));
                 String id = findingId(d.name(), r.wave(), f);
                 VariablePlot plot;
@@ -313,7 +317,8 @@ public final class DigestAssembler {
         boolean aboutValues = f.kind().isShift() || f.kind() == FindingKind.SHAPE_CHANGE
                 || f.kind() == FindingKind.REFERENCE || f.kind() == FindingKind.HEAPING
                 || f.kind() == FindingKind.DIGIT_PREFERENCE || f.kind() == FindingKind.CODE_APPEARED
-                || f.kind() == FindingKind.CODE_VANISHED;
+                || f.kind() == FindingKind.CODE_VANISHED || f.kind() == FindingKind.CODE_UNLABELLED
+                || f.kind() == FindingKind.LABEL_CHANGED;
         if (aboutValues && c.numeric() != null) {
             var empty = org.wavewarden.profile.NumericDistribution.empty();
             return new VariablePlot.NumericPlot(v.unit(), b == null ? null : b.numeric() == null ? empty

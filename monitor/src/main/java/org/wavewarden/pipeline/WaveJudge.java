@@ -41,6 +41,9 @@ import org.wavewarden.read.WaveScanner;
 import org.wavewarden.read.WaveSource;
 import org.wavewarden.store.OutboxStore;
 import org.wavewarden.store.ResultsStore;
+import org.wavewarden.store.WaveCodebooks;
+import org.wavewarden.codebook.CodebookMerge;
+import org.wavewarden.codebook.DatasetCodebook;
 import org.wavewarden.missing.ScreenedWave;
 import org.wavewarden.missing.VariableInference;
 import org.wavewarden.missing.ScreenedVariable;
@@ -207,13 +210,21 @@ public final class WaveJudge {
         WaveProfile baseline = baselines.isEmpty() ? null
                 : baselines.size() == 1 ? baselines.get(0) : WaveProfile.pooled(againstLabel, baselines);
 
-        Screened screened = screen(d, current, baseline);
-        Profiled judged = findings(cfg, d, current, baseline, screened,
-                panel(d, source, against, baseline, current, screened),
+        WaveCodebooks codebooks = new WaveCodebooks(session.store().jdbi(), cfg.results().schema());
+        Optional<DatasetCodebook> currentCodebook = codebooks.load(d.name(), wave);
+        // A pooled baseline is read against the codebook of its latest wave, the one nearest the judged wave.
+        String codebookBaseline = against.isEmpty() ? null : against.get(against.size() - 1);
+        Optional<DatasetCodebook> baselineCodebook = codebookBaseline == null ? Optional.empty()
+                : codebooks.load(d.name(), codebookBaseline);
+        DatasetConfig judgedAs = withWaveCodebook(d, currentCodebook, notes);
+        Screened screened = screen(judgedAs, current, baseline);
+        Profiled judged = findings(cfg, judgedAs, current, baseline, screened,
+                panel(judgedAs, source, against, baseline, current, screened),
                 history(d, source, listed, wave, against, baselines, againstLabel));
         List<String> inference = new ArrayList<>(notes);
         inference.addAll(judged.inference());
-        List<Finding> findings = judged.findings();
+        List<Finding> findings = labelled(screened, FindingsFiles.ordered(withRelabelledCodes(judged.findings(),
+                screened, baselineCodebook, currentCodebook, codebookBaseline, wave)));
         List<Alert> alerts = Alerts.group(findings);
         Instant finished = clock.instant();
         String fingerprint = org.wavewarden.config.ConfigFingerprint.of(cfg, d);
@@ -228,6 +239,72 @@ public final class WaveJudge {
         // The summary the run stored becomes the baseline of later waves under this configuration.
         session.store().keySummary(d.name(), wave, checksum, SummaryKey.of(d, current.schema()).value());
         return new JudgedWave(report, runId, alerts);
+    }
+
+    /**
+     * The dataset as the wave is judged: the YAML's variables (already merged with the dataset's codebook) first,
+     * the wave's own codebook, read from the results schema, under them, giving labels, declared missing values and
+     * kinds to columns the YAML does not list. Without a codebook of the wave's own the dataset is as configured.
+     * Readers after the run (the HTML digest) call this to see the wave as the run saw it.
+     */
+    public static DatasetConfig withWaveCodebook(Session session, DatasetConfig d, String wave) {
+        return withWaveCodebook(d, new WaveCodebooks(session.store().jdbi(), session.config().results().schema())
+                .load(d.name(), wave), new ArrayList<>());
+    }
+
+    /** The same with the wave's codebook already read (empty: none); the merge is noted in {@code notes}. */
+    static DatasetConfig withWaveCodebook(DatasetConfig d, Optional<DatasetCodebook> codebook, List<String> notes) {
+        if (codebook.isEmpty()) {
+            return d;
+        }
+        CodebookMerge.Merged merged = CodebookMerge.merge(d.variables(), codebook.get());
+        merged.report().forEach(line -> LOG.info("dataset {}: {}", d.name(), line));
+        notes.add("The codebook the wave was imported with was merged under the configured variables: " + merged.variables().size() + " variables with their labels and declared missing"
+                + " values; the configuration wins where both say something.");
+        return new DatasetConfig(d.name(), d.table(), d.waveColumn(), d.tablePattern(), d.waveOrder(),
+                d.compareWith(), d.schedule(), d.exclude(), merged.variables(), d.quietPeriod(), d.alerts(),
+                d.readyTable(), d.readyColumn(), d.weightColumn(), d.respondentKey(), d.releases(), d.design(),
+                d.relationships());
+    }
+
+    /**
+     * The findings with a LABEL_CHANGED finding for every variable whose codes are labelled otherwise in the current
+     * wave's codebook than in the baseline wave's; only two codebooks of the waves' own can show this.
+     */
+    static List<Finding> withRelabelledCodes(List<Finding> findings, Screened screened,
+                                             Optional<DatasetCodebook> baseline, Optional<DatasetCodebook> current,
+                                             String baselineWave, String currentWave) {
+        if (baseline.isEmpty() || current.isEmpty()) {
+            return findings;
+        }
+        List<Finding> out = new ArrayList<>(findings);
+        for (VariableConfig v : screened.current().variables()) {
+            Optional<org.wavewarden.codebook.VariableMeta> before = baseline.get().variable(v.name());
+            Optional<org.wavewarden.codebook.VariableMeta> after = current.get().variable(v.name());
+            Optional<ScreenedVariable> sc = screened.current().get(v.name());
+            if (before.isEmpty() || after.isEmpty() || sc.isEmpty()) {
+                continue;
+            }
+            ScreenedVariable sb = screened.baseline() == null ? null : screened.baseline().get(v.name()).orElse(null);
+            Finding f = DataQualityFindings.relabelledCodes(v, sb, sc.get(), before.get().valueLabels(),
+                    after.get().valueLabels(), baselineWave, currentWave);
+            if (f != null) {
+                out.add(f);
+            }
+        }
+        return out;
+    }
+
+    /** Every finding with the label of the variable it is about, as the wave was judged with it. */
+    static List<Finding> labelled(Screened screened, List<Finding> findings) {
+        Map<String, String> labels = new java.util.HashMap<>();
+        screened.current().variables().forEach(v -> {
+            if (v.label() != null && !v.label().isBlank()) {
+                labels.put(v.name(), v.label());
+            }
+        });
+        return findings.stream().map(f -> labels.containsKey(f.variable()) ? f.withLabel(labels.get(f.variable()))
+                : f).toList();
     }
 
     /**
@@ -302,7 +379,7 @@ public final class WaveJudge {
                     + current.wave() + " of " + d.name() + " has no rows: nothing can be judged in it, and later"
                     + " waves are compared against the last wave with rows.", null));
         }
-        return new Profiled(FindingsFiles.ordered(findings), inference);
+        return new Profiled(labelled(screened, FindingsFiles.ordered(findings)), inference);
     }
 
     /**

@@ -281,7 +281,7 @@ public final class OutboxStore {
                         + " END AS verdict, CASE WHEN k.ord = 1 THEN a.sentence ELSE f.sentence END AS sentence, f.test,"
                         + " f.statistic, f.p_value, f.q_value, f.effect_name, f.effect_estimate, f.effect_ci_low,"
                         + " f.effect_ci_high, f.effect_threshold, f.n_baseline, f.n_current, f.df, f.df_convention,"
-                        + " f.fdr_family_size, f.fdr_method FROM " + s + ".alert a"
+                        + " f.fdr_family_size, f.fdr_method, f.label FROM " + s + ".alert a"
                         + " JOIN " + s + ".run r ON r.run_id = a.run_id CROSS JOIN LATERAL unnest(ARRAY[a.kind]"
                         + " || a.facet_kinds) WITH ORDINALITY AS k(kind, ord) LEFT JOIN " + s + ".finding f"
                         + " ON f.run_id = a.run_id AND f.variable = a.variable AND f.kind = k.kind"

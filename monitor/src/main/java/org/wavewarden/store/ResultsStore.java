@@ -209,15 +209,15 @@ public final class ResultsStore {
         if (findings.isEmpty()) {
             return;
         }
-        PreparedBatch b = h.prepareBatch("INSERT INTO " + s + ".finding (run_id, variable, kind, test, statistic, p_value,"
+        PreparedBatch b = h.prepareBatch("INSERT INTO " + s + ".finding (run_id, variable, label, kind, test, statistic, p_value,"
                 + " q_value, effect_name, effect_estimate, effect_ci_low, effect_ci_high, effect_threshold, verdict,"
                 + " n_baseline, n_current, sentence, detail, df, df_convention, fdr_family_size, fdr_method) VALUES"
-                + " (:run, :variable, :kind, :test, :statistic, :p, :q, :effectName, :estimate, :ciLow, :ciHigh,"
+                + " (:run, :variable, :label, :kind, :test, :statistic, :p, :q, :effectName, :estimate, :ciLow, :ciHigh,"
                 + " :threshold, :verdict, :nb, :nc, :sentence, CAST(:detail AS jsonb), :df, :dfConvention, :family,"
                 + " :fdrMethod)");
         for (Finding f : findings) {
             Finding.Effect e = f.effect();
-            b.bind("run", runId).bind("variable", f.variable()).bind("kind", f.kind().name()).bind("test", f.test())
+            b.bind("run", runId).bind("variable", f.variable()).bind("label", f.label()).bind("kind", f.kind().name()).bind("test", f.test())
                     .bind("statistic", f.statistic()).bind("p", f.pValue()).bind("q", f.qValue())
                     .bind("effectName", e == null ? null : e.name())
                     .bind("estimate", e == null ? null : e.estimate())
@@ -259,7 +259,7 @@ public final class ResultsStore {
     }
 
     private List<Finding> storedFindings(Handle h, long runId) {
-        return h.createQuery("SELECT variable, kind, test, statistic, p_value, q_value, effect_name, effect_estimate,"
+        return h.createQuery("SELECT variable, label, kind, test, statistic, p_value, q_value, effect_name, effect_estimate,"
                         + " effect_ci_low, effect_ci_high, effect_threshold, verdict, n_baseline, n_current, sentence,"
                         + " df, df_convention, fdr_family_size, fdr_method, detail::text AS detail FROM " + s + ".finding WHERE run_id = :run ORDER BY finding_id")
                 .bind("run", runId)
@@ -269,7 +269,7 @@ public final class ResultsStore {
     }
 
     /**
-     * A finding from a result row with the finding table's column names (variable, kind, test, statistic, p_value,
+     * A finding from a result row with the finding table's column names (variable, label, kind, test, statistic, p_value,
      * q_value, effect_*, verdict, n_baseline, n_current, sentence, df, df_convention, fdr_family_size, fdr_method).
      */
     static Finding finding(java.sql.ResultSet rs, Object detail) throws java.sql.SQLException {
@@ -278,7 +278,8 @@ public final class ResultsStore {
                 rs.getDouble("effect_estimate"), rs.getDouble("effect_ci_low"), rs.getDouble("effect_ci_high"),
                 rs.getDouble("effect_threshold"));
         String verdict = rs.getString("verdict");
-        return new Finding(rs.getString("variable"), FindingKind.valueOf(rs.getString("kind")), rs.getString("test"),
+        return new Finding(rs.getString("variable"), rs.getString("label"), FindingKind.valueOf(rs.getString("kind")),
+                rs.getString("test"),
                 (Double) rs.getObject("statistic"), (Double) rs.getObject("p_value"), (Double) rs.getObject("q_value"),
                 effect, verdict == null ? null : Verdict.valueOf(verdict), (Long) rs.getObject("n_baseline"),
                 (Long) rs.getObject("n_current"), rs.getString("sentence"), detail, (Double) rs.getObject("df"),

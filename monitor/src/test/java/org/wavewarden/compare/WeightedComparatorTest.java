@@ -78,6 +78,27 @@ class WeightedComparatorTest {
     }
 
     @Test
+    void aLabelledWeightedComparisonNamesTheCategoryByItsLabelAndKeepsEveryNumber() {
+        double[] b = {0, 0, 0, 1, 1, 1, 2, 2, 2, 3, 3, 3, 0, 1, 2, 3};
+        double[] c = {0, 0, 0, 0, 0, 0, 0, 1, 1, 2, 2, 3, 0, 0, 0, 3};
+        List<String> codes = List.of("OWN", "COUN", "HA", "PRIV");
+        WeightedComparator plain = new WeightedComparator(0.95);
+        WeightedComparator labelled = plain.labelled(new org.wavewarden.codebook.CodeLabels("Tenure",
+                java.util.Map.of("OWN", "Owner occupier", "HA", "Housing association")));
+        Comparison p = plain.categorical("tenure", codes, tally(b, ones(b.length, 1.3)), tally(c, ones(c.length, 1.3)),
+                null);
+        Comparison l = labelled.categorical("tenure", codes, tally(b, ones(b.length, 1.3)),
+                tally(c, ones(c.length, 1.3)), null);
+        assertEquals("weighted share answering 'OWN'", p.change().measure());
+        assertEquals("weighted share answering 'Owner occupier' (OWN)", l.change().measure());
+        assertEquals(p.test(), l.test());
+        assertEquals(p.effect(), l.effect());
+        var rows = ((WeightedComparator.CategoryDetail) l.detail()).categories();
+        assertEquals(java.util.Arrays.asList("Owner occupier", null, "Housing association", null),
+                rows.stream().map(WeightedComparator.CategoryRow::label).toList());
+    }
+
+    @Test
     void signedEffectsFlipWhenTheWavesSwap() {
         Random r = new Random(29);
         double[] y = new double[300];

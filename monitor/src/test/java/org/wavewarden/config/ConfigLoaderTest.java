@@ -47,6 +47,16 @@ class ConfigLoaderTest {
             """;
 
     @Test
+    void aVariableLabelAndValueLabelsAreReadInTheOrderWritten() {
+        VariableConfig v = ConfigLoader.parse(GOOD.replace("successValue: \"yes\"", "successValue: \"yes\"\n"
+                + "        label: Broadband at home\n        valueLabels: {\"yes\": Has broadband, 2: \"No\", -9: Refused}"))
+                .dataset("coastal").variables().get(1);
+        assertEquals("Broadband at home", v.label());
+        assertEquals(java.util.List.of("yes=Has broadband", "2=No", "-9=Refused"), v.valueLabels().entrySet().stream()
+                .map(e -> e.getKey() + "=" + e.getValue()).toList());
+    }
+
+    @Test
     void aGoodConfigParsesIntoRecords() {
         WardenConfig c = ConfigLoader.parse(GOOD);
         assertEquals(0.05, c.alpha());
@@ -69,6 +79,18 @@ class ConfigLoaderTest {
                         "alfa: unknown key; did you mean 'alpha'?"),
                 Arguments.of("misspelt variable key", GOOD.replace("unit: years", "units: years"),
                         "datasets[0].variables[0].units: unknown key; did you mean 'unit'?"),
+                Arguments.of("value labels not a map", GOOD.replace("successValue: \"yes\"",
+                                "successValue: \"yes\"\n        valueLabels: [yes, no]"),
+                        "datasets[0].variables[1].valueLabels: expected a map of code to label"),
+                Arguments.of("a value label that is not text", GOOD.replace("successValue: \"yes\"",
+                                "successValue: \"yes\"\n        valueLabels: {\"yes\": [a, b]}"),
+                        "datasets[0].variables[1].valueLabels.yes: expected the label as text"),
+                Arguments.of("two keys naming one number", GOOD.replace("unit: years",
+                                "unit: years\n        valueLabels: {1: one, 1.0: also one}"),
+                        "datasets[0].variables[0].valueLabels.1.0: the code '1' names the same number"),
+                Arguments.of("a variable label that is a map", GOOD.replace("unit: years",
+                                "unit: years\n        label: {text: Age}"),
+                        "datasets[0].variables[0].label: expected text"),
                 Arguments.of("unknown kind", GOOD.replace("kind: continuous", "kind: contnuous"),
                         "datasets[0].variables[0].kind: expected one of continuous, ordinal, categorical, binary,"
                                 + " text, date but got 'contnuous' (did you mean 'continuous'?)"),

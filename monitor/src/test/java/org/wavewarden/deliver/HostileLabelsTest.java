@@ -20,6 +20,7 @@ import org.commonmark.node.Text;
 import org.commonmark.parser.Parser;
 import org.commonmark.renderer.html.HtmlRenderer;
 import org.junit.jupiter.api.Test;
+import org.wavewarden.codebook.CodeLabels;
 import org.wavewarden.compare.release.ReleaseRevision;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
@@ -148,6 +149,90 @@ class HostileLabelsTest {
         }
         String table = ConsoleTable.render(hostileReport("w1\nw2"), true);
         assertTrue(table.startsWith("w1\\nw2 wave w1\\nw2 against w1\\nw2\n"), table);
+    }
+
+    /** Hostile strings with a very long one, as variable labels and value labels. */
+    static final List<String> HOSTILE_LABELS = java.util.stream.Stream.concat(HOSTILE.stream(),
+            java.util.stream.Stream.of("\u202E" + "x".repeat(5_000) + "\n</td><script>")).toList();
+
+    /**
+     * A report whose findings each carry a hostile variable label and a sentence naming a code by a hostile value
+     * label, as the comparators write it ({@link CodeLabels#quoted}).
+     */
+    static FindingsReport labelledReport() {
+        List<Finding> findings = new ArrayList<>();
+        int i = 0;
+        for (String h : HOSTILE_LABELS) {
+            CodeLabels labels = new CodeLabels(h, java.util.Map.of("C" + i, h));
+            findings.add(shift("v" + i, "Share answering " + labels.quoted("C" + i) + " rose from 7.8% to 78.5%.")
+                    .withLabel(h));
+            i++;
+        }
+        return new FindingsReport("d", "w2", "w1", Instant.parse("2025-07-01T06:15:00Z"), 0.05,
+                "BENJAMINI_HOCHBERG", List.of(), findings);
+    }
+
+    @Test
+    void aSentenceShowsAHostileValueLabelOnOneLineWithoutControlsAndCut() {
+        for (Finding f : labelledReport().findings()) {
+            String s = f.sentence();
+            assertFalse(s.chars().anyMatch(c -> Character.isISOControl(c) || Character.getType(c) == Character.FORMAT
+                    || Character.getType(c) == Character.LINE_SEPARATOR), s);
+            assertTrue(s.length() < 200, "a long label is cut in the sentence: " + s.length());
+        }
+    }
+
+    @Test
+    void hostileVariableAndValueLabelsStayTextInTheMarkdownDigest() {
+        FindingsReport r = labelledReport();
+        Node doc = PARSER.parse(MarkdownDigest.render(List.of(r)));
+        Census census = new Census();
+        doc.accept(census);
+        assertEquals(List.of(), census.live, "live markup from labels");
+        assertEquals(1, census.tables);
+        for (TableRow row : census.rows) {
+            assertEquals(3, count(row, TableCell.class), "a row of three cells: " + text(row));
+        }
+        for (Finding f : r.findings()) {
+            String shown = DataText.visible(CodeLabels.shown(f.label()));
+            assertTrue(census.cellTexts.contains(f.variable() + " (" + shown + ")"),
+                    "the variable label shows beside the name as a sentence shows it: " + shown);
+        }
+    }
+
+    @Test
+    void hostileVariableLabelsTakeOneConsoleLineEachWithoutControls() {
+        FindingsReport r = labelledReport();
+        String table = ConsoleTable.render(r, true);
+        // A header line, the column titles, per finding its line and its variable's label under it.
+        assertEquals(2 + 2L * r.findings().size(), table.lines().count(), table);
+        assertFalse(table.chars().anyMatch(c -> c != '\n' && (Character.isISOControl(c)
+                || Character.getType(c) == Character.FORMAT || Character.getType(c) == Character.LINE_SEPARATOR)),
+                table);
+        assertTrue(table.lines().allMatch(l -> l.length() <= 120), table);
+    }
+
+    @Test
+    void hostileLabelsAreEscapedInTheHtmlDigestAndItsCharts() {
+        FindingsReport r = labelledReport();
+        List<org.wavewarden.deliver.html.AlertView> views = new ArrayList<>();
+        int i = 0;
+        for (Finding f : r.findings()) {
+            String h = HOSTILE_LABELS.get(i++);
+            var estimate = new org.wavewarden.compare.WaveEstimates.Estimate("C", h, 0.5, 0.4, 0.6);
+            var plotted = new org.wavewarden.compare.WaveEstimates.Plotted("share answering 'C'",
+                    org.wavewarden.compare.WaveEstimates.Estimator.SHARE, null, List.of(estimate), List.of(estimate),
+                    null);
+            views.add(new org.wavewarden.deliver.html.AlertView(f,
+                    new org.wavewarden.deliver.html.VariablePlot.EstimatePlot("id" + i, plotted), null));
+        }
+        String html = org.wavewarden.deliver.html.HtmlDigest.render("d", List.of(
+                new org.wavewarden.deliver.html.WaveSection(r, views)), Instant.parse("2025-07-01T06:15:00Z"));
+        String lower = html.toLowerCase(Locale.ROOT);
+        assertFalse(lower.contains("<script") || lower.contains("<img") || lower.contains("</td><"), html);
+        assertTrue(html.contains("<span class=\"vlabel\">&lt;script&gt;alert(1)&lt;/script&gt;</span>"), html);
+        assertTrue(html.contains("&lt;script&gt;alert(1)&lt;/script&gt; (C)"), "the chart names the category by its"
+                + " label, escaped");
     }
 
     /** Every node the parser made, sorted into ours and live markup that only data could have produced. */

@@ -5,6 +5,7 @@ import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.DynamicTest;
 import org.junit.jupiter.api.TestFactory;
 import org.junit.jupiter.api.io.TempDir;
+import org.wavewarden.codebook.CodeLabels;
 import org.wavewarden.deliver.FindingsReport;
 import org.wavewarden.deliver.Json;
 import org.wavewarden.judge.Finding;
@@ -75,6 +76,24 @@ class SentenceNumbersTest {
         assertTrue(agrees == problems.stream().noneMatch(x -> x.contains("family of 40")), String.join("\n", problems));
     }
 
+    @org.junit.jupiter.params.ParameterizedTest
+    @org.junit.jupiter.params.provider.CsvSource(value = {"20.0, true", "30.0, false"})
+    void numbersInsideValueAndVariableLabelsAreTextNotNumbersOfTheFinding(String printed, boolean agrees) {
+        java.util.Map<String, Object> row = new java.util.LinkedHashMap<>();
+        row.put("category", "7");
+        row.put("label", "Aged 65 or more, 2 adults");
+        row.put("shareBaseline", 0.1);
+        row.put("shareCurrent", 0.2);
+        Finding f = new Finding("hh_type", "Household type in 2025 (12 groups)", FindingKind.CODE_APPEARED, null,
+                null, null, null, null, null, null, null, "In hh_type (Household type in 2025 (12 groups)) the share"
+                + " answering 'Aged 65 or more, 2 adults' (7) rose from 10.0% to " + printed + "%.",
+                java.util.Map.of("categories", List.of(row)), null, null, null, null);
+        FindingsReport r = new FindingsReport("d", "w2", "w1", java.time.Instant.EPOCH, 0.05, "BENJAMINI_HOCHBERG",
+                List.of(), List.of(f));
+        List<String> problems = check(r, f);
+        assertTrue(agrees == problems.isEmpty(), String.join("\n", problems));
+    }
+
     @org.junit.jupiter.api.Test
     void everyShiftOfAVariableWhoseMissingRateChangedMateriallySaysHowManyRowsItRestsOn() {
         List<String> problems = new ArrayList<>();
@@ -114,6 +133,10 @@ class SentenceNumbersTest {
             + " rests on the ([\\d,]+) rows \\(([0-9.]+)%\\) that answered");
     /** An ISO date, which a date finding's detail holds as text. */
     static final Pattern DATE = Pattern.compile("\\b\\d{4}-\\d{2}-\\d{2}\\b");
+    /** Fields holding labels: the finding's variable label and the value labels beside codes in its detail. */
+    static final java.util.Set<String> LABEL_KEYS = java.util.Set.of("label", "labels", "baselineLabel");
+    /** The code in brackets after a value label whose text was taken out: "'' (7)" or "'' (7: 41)". */
+    static final Pattern CODE_AFTER_LABEL = Pattern.compile("'' \\([^):]*(?=[):])");
     /** The sources of magnitude words, named beside them. */
     static final Pattern CITATION = Pattern.compile("(Cohen|Romano et al\\.) \\d{4}");
 
@@ -129,6 +152,16 @@ class SentenceNumbersTest {
         for (String v : verbatim) {
             s = s.replace(v.strip().replaceAll("[.]+$", ""), " ");
         }
+        // Labels are data, not numbers of the finding: a quoted value label and the code in brackets after it, and
+        // the variable label in brackets after the name, as codebook.CodeLabels shows them.
+        List<String> labels = new ArrayList<>();
+        labelTexts(json, null, labels);
+        labels.sort(java.util.Comparator.comparingInt(String::length).reversed());
+        for (String l : labels) {
+            String shown = CodeLabels.shown(l);
+            s = s.replace("'" + shown + "'", "''").replace("(" + shown + ")", "()");
+        }
+        s = CODE_AFTER_LABEL.matcher(s).replaceAll("'' (");
         s = s.replace(f.variable(), " ");
         s = s.replaceAll("'[^']*'", " ");
         s = CITATION.matcher(s).replaceAll(" ");
@@ -253,6 +286,17 @@ class SentenceNumbersTest {
             node.fields().forEachRemaining(e -> collect(e.getValue(), e.getKey(), numbers, verbatim));
         } else if (node.isArray()) {
             node.forEach(n -> collect(n, key, numbers, verbatim));
+        }
+    }
+
+    /** The labels a finding holds: its variable label, and every value label of its detail. */
+    static void labelTexts(JsonNode node, String key, List<String> out) {
+        if (node.isTextual() && LABEL_KEYS.contains(key)) {
+            out.add(node.asText());
+        } else if (node.isObject()) {
+            node.fields().forEachRemaining(e -> labelTexts(e.getValue(), e.getKey(), out));
+        } else if (node.isArray()) {
+            node.forEach(n -> labelTexts(n, key, out));
         }
     }
 

@@ -114,8 +114,8 @@ public final class PanelComparisons {
                                double continuityCorrectedPValue) {
     }
 
-    /** A category's share among the paired respondents at both waves. */
-    public record ShareRow(String category, double shareBaseline, double shareCurrent) {
+    /** A category's share among the paired respondents at both waves, with its value label (null: none). */
+    public record ShareRow(String category, String label, double shareBaseline, double shareCurrent) {
     }
 
     /**
@@ -234,14 +234,18 @@ public final class PanelComparisons {
         Thresholds.Resolved t = Thresholds.resolve(v.threshold(), h.name(), Thresholds.COHENS_H, null);
         double pB = (double) (p.bothYes() + p.yesNo()) / n;
         double pC = (double) (p.bothYes() + p.noYes()) / n;
-        Change change = new Change("share answering '" + p.successValue() + "' among the respondents in both waves",
+        org.wavewarden.codebook.CodeLabels labels = org.wavewarden.codebook.CodeLabels.of(v);
+        Change change = new Change("share answering " + labels.quoted(p.successValue())
+                + " among the respondents in both waves",
                 pB, pC, true, null, pC - pB, rd.ciLow(), rd.ciHigh(), String.format(Locale.ROOT,
                 "%,d moved to it, %,d away from it; ", p.noYes(), p.yesNo()) + pairing(panel, p));
         BinaryDetail bd = new BinaryDetail(p.successValue(), p.bothYes(), p.yesNo(), p.noYes(), p.bothNo(), pB, pC,
                 rd, h, corrected.statistic(), corrected.pValue());
         WaveEstimates.Plotted plot = new WaveEstimates.Plotted(change.measure(), WaveEstimates.Estimator.SHARE, null,
-                List.of(WaveEstimates.share(p.successValue(), p.bothYes() + p.yesNo(), n, confidence)),
-                List.of(WaveEstimates.share(p.successValue(), p.bothYes() + p.noYes(), n, confidence)), null);
+                List.of(WaveEstimates.share(p.successValue(), p.bothYes() + p.yesNo(), n, confidence)
+                        .labelled(labels)),
+                List.of(WaveEstimates.share(p.successValue(), p.bothYes() + p.noYes(), n, confidence)
+                        .labelled(labels)), null);
         out.add(new Comparison(v.name(), FindingKind.PANEL_SHIFT, test, t.rawScale() ? rd : h, t.value(),
                 t.source(), n, n, change, detail(panel, p, "McNemar test without continuity correction", bd,
                 plot)));
@@ -258,6 +262,7 @@ public final class PanelComparisons {
             return "a single category";
         }
         long[][] table = p.counts();
+        org.wavewarden.codebook.CodeLabels labels = org.wavewarden.codebook.CodeLabels.of(v);
         StuartMaxwellResult sm = StuartMaxwellTest.test(table, confidence);
         ChurnTable churn = new ChurnTable(p.labels(), table);
         int top = sm.largestShiftCategory();
@@ -279,13 +284,13 @@ public final class PanelComparisons {
         double[] after = sm.sharesAfter();
         List<ShareRow> rows = new ArrayList<>();
         for (int i = 0; i < before.length; i++) {
-            rows.add(new ShareRow(p.labels().get(i), before[i], after[i]));
+            rows.add(new ShareRow(p.labels().get(i), labels.label(p.labels().get(i)), before[i], after[i]));
         }
         List<ChurnTable.Flow> flows = churn.largestFlows(FLOWS_SHOWN);
         String flow = flows.isEmpty() ? "nobody changed answer" : String.format(Locale.ROOT, "largest flow: %,d"
-                        + " moved from '%s' to '%s' (%.1f%% of '%s')", flows.get(0).count(), flows.get(0).from(),
-                flows.get(0).to(), 100 * flows.get(0).shareOfFrom(), flows.get(0).from());
-        Change change = new Change("share answering '" + category + "' among the respondents in both waves",
+                        + " moved from %s to %s (%.1f%% of %s)", flows.get(0).count(), labels.quoted(flows.get(0).from()),
+                labels.quoted(flows.get(0).to()), 100 * flows.get(0).shareOfFrom(), labels.quoted(flows.get(0).from()));
+        Change change = new Change("share answering " + labels.quoted(category) + " among the respondents in both waves",
                 before[top], after[top], true, null, after[top] - before[top], effect.ciLow(), effect.ciHigh(),
                 "the category whose share moved most; " + flow + "; " + pairing(panel, p));
         CategoricalDetail cd = new CategoricalDetail(rows, table, flows, churn.stayers(), churn.movers(),
@@ -304,8 +309,8 @@ public final class PanelComparisons {
                 row += table[i][j];
                 col += table[j][i];
             }
-            shareB.add(WaveEstimates.share(p.labels().get(i), row, n, confidence));
-            shareC.add(WaveEstimates.share(p.labels().get(i), col, n, confidence));
+            shareB.add(WaveEstimates.share(p.labels().get(i), row, n, confidence).labelled(labels));
+            shareC.add(WaveEstimates.share(p.labels().get(i), col, n, confidence).labelled(labels));
         }
         WaveEstimates.Plotted plot = new WaveEstimates.Plotted("share answering each category among the respondents"
                 + " in both waves", WaveEstimates.Estimator.SHARE, null, shareB, shareC, null);

@@ -187,7 +187,11 @@ public final class HtmlDigest {
             h.append(" title=\"").append(esc(f.verdict().meaning())).append("\"");
         }
         h.append(">").append(esc(badge)).append("</span> <code class=\"variable\">").append(esc(f.variable()))
-                .append("</code> <span class=\"kind\">").append(esc(kindLabel(f.kind()))).append("</span></header>\n");
+                .append("</code> <span class=\"kind\">").append(esc(kindLabel(f.kind()))).append("</span>");
+        if (f.label() != null) {
+            h.append("<br><span class=\"vlabel\">").append(esc(f.label())).append("</span>");
+        }
+        h.append("</header>\n");
         h.append("<p class=\"sentence\">").append(esc(f.sentence())).append("</p>\n");
         String stats = stats(f, alpha, baselineWave, currentWave);
         if (!stats.isEmpty()) {

@@ -729,7 +729,7 @@ public final class SvgChart {
         for (int i = 0; i < shown; i++) {
             double y = f.y1() + i * row + 4;
             var c = plotted.current().get(i);
-            String label = c.category() == null ? "" : c.category();
+            String label = categoryName(c);
             String cut = label.length() > 24 ? label.substring(0, 23) + "\u2026" : label;
             s.append(String.format(Locale.ROOT, "<text class=\"cat\" x=\"%d\" y=\"%.1f\" text-anchor=\"end\"><title>%s</title>%s</text>",
                     labelWidth, y + 15, esc(label), esc(cut.isEmpty() ? "(empty)" : cut)));
@@ -754,10 +754,16 @@ public final class SvgChart {
         return s.append("</svg>").toString();
     }
 
+    /** "Council tenant (COUN)": a category by its value label with its code, or the code alone. */
+    static String categoryName(org.wavewarden.compare.WaveEstimates.Estimate e) {
+        String code = e.category() == null ? "" : e.category();
+        return e.label() == null ? code : e.label() + " (" + code + ")";
+    }
+
     private static void shareBar(StringBuilder s, Frame f, String cls, double y, double xtop,
                                  org.wavewarden.compare.WaveEstimates.Estimate e, String wave, String findingId) {
         double w = Double.isNaN(e.value()) ? 0 : f.sx(100 * e.value(), 0, xtop) - f.x0();
-        String tip = wave + ", " + e.category() + ": " + percent(e.value()) + (Double.isNaN(e.low()) ? ""
+        String tip = wave + ", " + categoryName(e) + ": " + percent(e.value()) + (Double.isNaN(e.low()) ? ""
                 : " (" + percent(e.low()) + " to " + percent(e.high()) + ")");
         s.append("<g class=\"est ").append(cls).append('"')
                 .append(data(e.value(), e.low(), e.high(), wave, e.category(), findingId)).append('>');

@@ -215,6 +215,21 @@ class PanelComparisonsTest {
     }
 
     @Test
+    void labelledCategoriesAreNamedByTheirLabelsInTheChangeTheFlowAndTheDetail() {
+        CategoricalPairs commute = new CategoricalPairs("commute_mode", MODES, COMMUTE, 0);
+        VariableConfig v = new VariableConfig("commute_mode", VariableKind.CATEGORICAL, null, null, List.of(), null,
+                null, List.of(), null, null, "Usual way to work", java.util.Map.of("car", "Car or van", "bus",
+                "Bus or coach"), null);
+        Comparison c = only(PanelComparisons.compare(panel(commute), List.of(v), CONFIDENCE));
+        assertEquals("share answering 'Car or van' (car) among the respondents in both waves", c.change().measure());
+        assertTrue(c.change().note().contains("largest flow: 90 moved from 'Car or van' (car) to 'Bus or coach' (bus)"
+                + " (11.8% of 'Car or van' (car))"), c.change().note());
+        CategoricalDetail d = (CategoricalDetail) ((PanelDetail) c.detail()).paired();
+        assertEquals(java.util.Arrays.asList("Car or van", "Bus or coach", null),
+                d.categories().stream().map(PanelComparisons.ShareRow::label).toList());
+    }
+
+    @Test
     void categoricalPairsGetStuartMaxwellAndTheChurnTable() {
         CategoricalPairs commute = new CategoricalPairs("commute_mode", MODES, COMMUTE, 0);
         Comparison c = only(PanelComparisons.compare(panel(commute),
