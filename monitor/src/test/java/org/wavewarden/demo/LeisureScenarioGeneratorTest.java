@@ -245,6 +245,23 @@ class LeisureScenarioGeneratorTest {
     }
 
     @Test
+    void theDemoStagesItsConfigFromTheJarBesideTheCodebookItNames() throws IOException {
+        Path staging = Files.createTempDirectory("staged");
+        Path config = DemoRun.stageConfig(staging);
+        assertArrayEquals(Files.readAllBytes(root.resolve("config/demo.yaml")), Files.readAllBytes(config));
+        String relative = null;
+        for (JsonNode d : yaml(config).path("datasets")) {
+            if (d.has("codebook")) {
+                relative = d.path("codebook").path("ddi").asText();
+            }
+        }
+        Path ddi = config.getParent().resolve(relative).normalize();
+        assertTrue(ddi.startsWith(staging), "the codebook resolves inside the staging folder: " + ddi);
+        assertArrayEquals(Files.readAllBytes(folder.resolve(LeisureScenarioGenerator.CODEBOOK_FILE)),
+                Files.readAllBytes(ddi));
+    }
+
+    @Test
     void manifestNamesOnlyRealWavesVariablesAndKinds() {
         List<String> labels = LeisureScenarioGenerator.WAVES.stream().map(Wave::label).toList();
         Set<String> kinds = new HashSet<>(Arrays.stream(org.wavewarden.judge.FindingKind.values()).map(Enum::name)
