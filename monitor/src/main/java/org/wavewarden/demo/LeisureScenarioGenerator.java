@@ -18,6 +18,7 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.LocalDate;
+import java.time.LocalDateTime;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -75,6 +76,12 @@ public final class LeisureScenarioGenerator {
             new Wave("2024-Q4", 1, 2530, Compression.NONE),
             new Wave("2025-Q1", 2, 2460, Compression.ZLIB),
             new Wave("2025-Q2", 3, 2510, Compression.BYTECODE));
+
+    /**
+     * The creation time each committed SPSS file records in its header: fixed, so that regenerating the files gives
+     * the same bytes (SavWriter's overload with a creation time takes it).
+     */
+    static final LocalDateTime FILES_CREATED = LocalDateTime.of(2025, 7, 7, 9, 0);
 
     /** The variables in file order. */
     public static final List<String> VARIABLES = List.of(
