@@ -1,5 +1,6 @@
 package org.wavewarden.demo;
 
+import org.wavewarden.codebook.DatasetCodebook;
 import org.wavewarden.config.ConfigLoader;
 import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.Identifiers;
@@ -10,7 +11,6 @@ import org.wavewarden.deliver.MarkdownDigest;
 import org.wavewarden.deliver.OutputPaths;
 import org.wavewarden.deliver.ReleaseDigest;
 import org.wavewarden.deliver.ReleaseReport;
-import org.wavewarden.codebook.DatasetCodebook;
 import org.wavewarden.load.CaseImporter;
 import org.wavewarden.load.CaseSource;
 import org.wavewarden.load.CsvWaveImporter;
@@ -144,12 +144,7 @@ public final class DemoRun {
                                     PrintWriter out) throws IOException, SQLException {
         for (String file : files) {
             Path csv = staging.resolve(d.name() + "-" + file);
-            try (InputStream in = DemoRun.class.getResourceAsStream(folder + file)) {
-                if (in == null) {
-                    throw new IllegalStateException("the build is missing " + folder + file);
-                }
-                Files.copy(in, csv, StandardCopyOption.REPLACE_EXISTING);
-            }
+            copyResource(folder + file, csv);
             String wave = file.replaceFirst("\\.csv(\\.gz)?$", "");
             var r = CsvWaveImporter.load(c, Identifiers.TableName.parse("table", d.table()), d.waveColumn(), wave,
                     csv, false, null);
