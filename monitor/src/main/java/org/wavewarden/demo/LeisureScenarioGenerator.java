@@ -160,7 +160,8 @@ public final class LeisureScenarioGenerator {
 
     /**
      * The study's codebook as the department documents it: the latest wave's dictionary (so code 7 of main_activity
-     * has no label here either), with what an SPSS dictionary cannot hold: units and a valid range.
+     * has no label here either), with what an SPSS dictionary cannot hold: units, a valid range, and no measurement
+     * level for the free-text comments.
      */
     public DatasetCodebook studyCodebook() {
         List<VariableMeta> out = new ArrayList<>();
@@ -173,7 +174,9 @@ public final class LeisureScenarioGenerator {
                 default -> null;
             };
             RangeSpec valid = v.name().equals("travel_minutes") ? new RangeSpec(0.0, 180.0) : v.validRange();
-            out.add(new VariableMeta(v.name(), v.label(), v.storage(), v.width(), v.decimals(), v.format(), v.measure(),
+            // SPSS gives every string a level (nominal); free text has none, and the codebook says so by giving none
+            Measure measure = v.name().equals("comments") ? Measure.UNKNOWN : v.measure();
+            out.add(new VariableMeta(v.name(), v.label(), v.storage(), v.width(), v.decimals(), v.format(), measure,
                     unit, v.valueLabels(), v.missingCodes(), v.missingRanges(), valid));
         }
         return new DatasetCodebook("one SPSS system file a wave, named after the wave (2024-Q3.sav ...)", TITLE, out);

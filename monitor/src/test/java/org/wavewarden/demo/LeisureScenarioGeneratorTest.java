@@ -147,6 +147,9 @@ class LeisureScenarioGeneratorTest {
         assertEquals("hours per week", study.variable("sport_hours").orElseThrow().unit());
         assertEquals("Reduced rate", study.variable("membership").orElseThrow().valueLabels().get("3"));
         assertEquals(180.0, study.variable("travel_minutes").orElseThrow().validRange().max());
+        assertEquals(Measure.UNKNOWN, study.variable("comments").orElseThrow().measure(),
+                "free text has no measurement level, so it is judged as text, not as categories");
+        assertFalse(generator.ddi().contains("name=\"comments\" files=\"F1\" intrvl=\"discrete\" nature="));
         assertTrue(generator.ddi().contains("measUnit=\"visits per month\""));
     }
 
