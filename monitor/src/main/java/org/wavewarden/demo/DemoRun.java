@@ -1,5 +1,6 @@
 package org.wavewarden.demo;
 
+import org.wavewarden.codebook.DatasetCodebook;
 import org.wavewarden.config.ConfigLoader;
 import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.Identifiers;
@@ -10,13 +11,17 @@ import org.wavewarden.deliver.MarkdownDigest;
 import org.wavewarden.deliver.OutputPaths;
 import org.wavewarden.deliver.ReleaseDigest;
 import org.wavewarden.deliver.ReleaseReport;
+import org.wavewarden.load.CaseImporter;
+import org.wavewarden.load.CaseSource;
 import org.wavewarden.load.CsvWaveImporter;
+import org.wavewarden.load.spss.SavFiles;
 import org.wavewarden.pipeline.CatalogCheck;
 import org.wavewarden.pipeline.DigestAssembler;
 import org.wavewarden.pipeline.JudgedWave;
 import org.wavewarden.pipeline.ReleaseJudge;
 import org.wavewarden.pipeline.Session;
 import org.wavewarden.pipeline.WaveJudge;
+import org.wavewarden.store.WaveCodebooks;
 
 import java.io.IOException;
 import java.io.InputStream;
@@ -32,25 +37,34 @@ import java.sql.SQLException;
 import java.time.Clock;
 import java.time.Instant;
 import java.util.ArrayList;
+import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 
 /**
  * The demo end to end: starts an embedded PostgreSQL server, creates the demo's source tables, imports every wave of
- * both demo datasets with the same CSV importer users run, judges each wave against the previous one, compares the
- * two publications of the panel's revised wave and writes the outputs. The scenario, its config and its schema
- * travel inside the jar, so the demo needs nothing but Java.
+ * the three demo datasets with the same importers users run (CSV for the household survey and the panel; SPSS files
+ * for the leisure survey, whose table the first wave's import creates and whose configuration names no variable: its
+ * DDI codebook and each file's dictionary say what every variable is), judges each wave against the previous one,
+ * compares the two publications of the panel's revised wave and writes the outputs. The scenario, its config, its
+ * codebook and its schema travel inside the jar, so the demo needs nothing but Java.
  *
  * <p>Outputs: for the household survey, {@code digest.html} and {@code digest.md} in {@code outDir} and
  * {@code findings.json} + {@code digest.md} per wave in {@code outDir/<wave>/}; for the panel the same under
  * {@code outDir/harrowmere-panel/}, and the release comparison's {@code releases.json} and {@code releases.md} under
- * {@code outDir/harrowmere-panel/releases/<wave>/}; each {@code <wave>} folder is named by
- * {@link OutputPaths#name}.
+ * {@code outDir/harrowmere-panel/releases/<wave>/}; for the leisure survey the same under
+ * {@code outDir/harrowmere-leisure/}; each {@code <wave>} folder is named by {@link OutputPaths#name}.
  */
 public final class DemoRun {
 
     /** The folder, below the demo's output folder, that holds the panel's outputs. */
     public static final String PANEL_FOLDER = "harrowmere-panel";
+
+    /** The folder, below the demo's output folder, that holds the leisure survey's outputs. */
+    public static final String LEISURE_FOLDER = "harrowmere-leisure";
+
+    /** Where the demo's config lies in the jar; it is staged beside the leisure codebook it names by relative path. */
+    static final String CONFIG = "config/demo.yaml";
 
     private DemoRun() {
     }
@@ -63,36 +77,49 @@ public final class DemoRun {
      * @param panelReports the panel's judged waves, in time order
      * @param release      the comparison of the panel's revised wave with its first publication
      * @param outputs      every file written, in the order written
+     * @param leisureReports the leisure survey's judged waves, in time order
+     * @param leisureImports each leisure wave's label and the dictionary its SPSS file was imported with
      */
     public record Outcome(Path outDir, List<FindingsReport> reports, List<FindingsReport> panelReports,
-                          ReleaseReport release, List<Path> outputs) {
+                          ReleaseReport release, List<Path> outputs, List<FindingsReport> leisureReports,
+                          Map<String, DatasetCodebook> leisureImports) {
     }
 
     public static Outcome run(Path outDir, PrintWriter out) {
         try (EmbeddedServer server = EmbeddedServer.start()) {
             out.println("started an embedded PostgreSQL server on 127.0.0.1:" + server.port());
-            WardenConfig config = ConfigLoader.parse(resource("/config/demo.yaml"));
+            Path staging = Files.createTempDirectory("wavewarden-demo");
+            WardenConfig config = ConfigLoader.load(stageConfig(staging));
             DatasetConfig household = config.datasets().get(0);
             DatasetConfig panel = config.datasets().get(1);
+            DatasetConfig leisure = config.dataset(LEISURE_FOLDER);
             createSourceTables(server);
-            Path staging = Files.createTempDirectory("wavewarden-demo");
+            Map<String, DatasetCodebook> dictionaries;
             try (Connection c = DriverManager.getConnection(server.jdbcUrl())) {
                 importWaves(c, household, "/demo-data/waves/",
                         DemoScenarioGenerator.WAVES.stream().map(DemoWave::fileName).toList(), staging, out);
                 importWaves(c, panel, "/demo-data/panel/",
                         PanelScenarioGenerator.WAVES.stream().map(PanelScenarioGenerator::fileName).toList(), staging,
                         out);
+                dictionaries = importSpssWaves(c, leisure, staging, out);
             }
             List<Path> outputs = new ArrayList<>();
             List<FindingsReport> reports;
             List<FindingsReport> panelReports;
+            List<FindingsReport> leisureReports;
             ReleaseReport release;
             Path panelDir = outDir.resolve(PANEL_FOLDER);
             try (Session s = Session.open(config, server, Map.of())) {
                 s.migrate();
                 s.source().useHandle(h -> CatalogCheck.verify(h, config));
+                // each wave is judged with the dictionary it was delivered with (labels, code frames)
+                WaveCodebooks waveCodebooks = new WaveCodebooks(s.store().jdbi(), config.results().schema());
+                Instant importedAt = Instant.now();
+                dictionaries.forEach((wave, dictionary) -> waveCodebooks.save(leisure.name(), wave, dictionary,
+                        importedAt));
                 reports = judgeAll(s, household, outDir, out, outputs);
                 panelReports = judgeAll(s, panel, panelDir, out, outputs);
+                leisureReports = judgeAll(s, leisure, outDir.resolve(LEISURE_FOLDER), out, outputs);
                 Path releaseDir = OutputPaths.under(panelDir.resolve("releases"), PanelScenarioGenerator.REVISED_WAVE);
                 release = new ReleaseJudge(s, Clock.systemUTC()).compare(panel, PanelScenarioGenerator.REVISED_WAVE,
                         null, null, releaseDir, null);
@@ -104,7 +131,8 @@ public final class DemoRun {
             }
             out.println("wrote " + outputs.size() + " files:");
             outputs.forEach(p -> out.println("    " + outDir.relativize(p)));
-            return new Outcome(outDir, reports, panelReports, release, List.copyOf(outputs));
+            return new Outcome(outDir, reports, panelReports, release, List.copyOf(outputs), leisureReports,
+                    dictionaries);
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         } catch (SQLException e) {
@@ -116,17 +144,59 @@ public final class DemoRun {
                                     PrintWriter out) throws IOException, SQLException {
         for (String file : files) {
             Path csv = staging.resolve(d.name() + "-" + file);
-            try (InputStream in = DemoRun.class.getResourceAsStream(folder + file)) {
-                if (in == null) {
-                    throw new IllegalStateException("the build is missing " + folder + file);
-                }
-                Files.copy(in, csv, StandardCopyOption.REPLACE_EXISTING);
-            }
+            copyResource(folder + file, csv);
             String wave = file.replaceFirst("\\.csv(\\.gz)?$", "");
             var r = CsvWaveImporter.load(c, Identifiers.TableName.parse("table", d.table()), d.waveColumn(), wave,
                     csv, false, null);
             out.println("imported " + d.name() + " wave " + wave + ": " + r.rows() + " rows");
         }
+    }
+
+    /**
+     * Copies the demo's config and the leisure survey's DDI codebook out of the jar into the same layout as in the
+     * repository ({@code config/demo.yaml} beside {@code demo-data/leisure/}), so the codebook path the config gives,
+     * relative to the config file, resolves the same from a checkout and from the jar.
+     */
+    static Path stageConfig(Path staging) throws IOException {
+        Path config = staging.resolve(CONFIG);
+        copyResource("/" + CONFIG, config);
+        copyResource("/demo-data/" + LeisureScenarioGenerator.FOLDER + "/" + LeisureScenarioGenerator.CODEBOOK_FILE,
+                staging.resolve("demo-data").resolve(LeisureScenarioGenerator.FOLDER)
+                        .resolve(LeisureScenarioGenerator.CODEBOOK_FILE));
+        return config;
+    }
+
+    private static void copyResource(String resource, Path target) throws IOException {
+        Files.createDirectories(target.getParent());
+        try (InputStream in = DemoRun.class.getResourceAsStream(resource)) {
+            if (in == null) {
+                throw new IllegalStateException("the build is missing " + resource);
+            }
+            Files.copy(in, target, StandardCopyOption.REPLACE_EXISTING);
+        }
+    }
+
+    /**
+     * Imports the leisure survey's SPSS waves, the first creating the table from its dictionary, and gives each
+     * wave's dictionary for the results store (which exists only once the session has migrated it).
+     */
+    private static Map<String, DatasetCodebook> importSpssWaves(Connection c, DatasetConfig d, Path staging,
+                                                                PrintWriter out) throws IOException, SQLException {
+        Map<String, DatasetCodebook> dictionaries = new LinkedHashMap<>();
+        boolean first = true;
+        for (LeisureScenarioGenerator.Wave w : LeisureScenarioGenerator.WAVES) {
+            Path file = staging.resolve(d.name() + "-" + w.fileName());
+            copyResource("/demo-data/" + LeisureScenarioGenerator.FOLDER + "/" + w.fileName(), file);
+            try (CaseSource cases = SavFiles.open(file)) {
+                var r = CaseImporter.load(c, Identifiers.TableName.parse("table", d.table()), d.waveColumn(), w.label(),
+                        cases, false, first, out);
+                dictionaries.put(w.label(), cases.codebook());
+                out.println("imported " + d.name() + " wave " + w.label() + " from " + w.fileName() + ": " + r.rows()
+                        + " rows, " + cases.codebook().variables().size() + " variables described by its dictionary");
+            }
+            first = false;
+        }
+        return dictionaries;
     }
 
     /** Judges every wave of a dataset and writes its findings and digests under {@code dir}. */

@@ -65,7 +65,7 @@ public final class DemoScenarioGenerator {
     private static final double[] MODE_PHONE_ERA = {0.10, 0.78, 0.12};
 
     private static final String[] DISTRICTS = {"GUL", "SAL", "BRN", "TID", "MOR", "KES"};
-    private static final double[] DISTRICT_SHARES = {0.24, 0.19, 0.17, 0.15, 0.14, 0.11};
+    static final double[] DISTRICT_SHARES = {0.24, 0.19, 0.17, 0.15, 0.14, 0.11};
 
     private static final String[] FUELS = {"GAS", "OIL", "ELEC", "HPUMP", "SOLID", "LPG"};
     private static final double[] FUEL_BEFORE = {0.52, 0.14, 0.16, 0.04, 0.08, 0.06};
@@ -245,7 +245,7 @@ public final class DemoScenarioGenerator {
         return (year * 10 + quarter) * 10_000_000L;
     }
 
-    private static int pick(SplittableRandom rnd, double[] shares) {
+    static int pick(SplittableRandom rnd, double[] shares) {
         double u = rnd.nextDouble();
         double cumulative = 0;
         for (int k = 0; k < shares.length - 1; k++) {
@@ -264,7 +264,7 @@ public final class DemoScenarioGenerator {
         return StrictMath.sqrt(-2.0 * StrictMath.log(u1)) * StrictMath.cos(2.0 * StrictMath.PI * u2);
     }
 
-    private static int age(SplittableRandom rnd, boolean statedOnTelephone) {
+    static int age(SplittableRandom rnd, boolean statedOnTelephone) {
         // Kumaraswamy (1980), J. Hydrology 46, with a = 1.7, b = 2.6 on [16, 96), drawn by its closed-form inverse:
         // a smooth, right-skewed adult age profile with no digit preference
         double u = rnd.nextDouble();
