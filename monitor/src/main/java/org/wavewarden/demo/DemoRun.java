@@ -1,6 +1,7 @@
 package org.wavewarden.demo;
 
 import org.wavewarden.codebook.DatasetCodebook;
+import org.wavewarden.codebook.Codebooks;
 import org.wavewarden.config.ConfigLoader;
 import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.Identifiers;
@@ -89,7 +90,10 @@ public final class DemoRun {
         try (EmbeddedServer server = EmbeddedServer.start()) {
             out.println("started an embedded PostgreSQL server on 127.0.0.1:" + server.port());
             Path staging = Files.createTempDirectory("wavewarden-demo");
-            WardenConfig config = ConfigLoader.load(stageConfig(staging));
+            Path stagedConfig = stageConfig(staging);
+            var resolved = Codebooks.resolve(ConfigLoader.load(stagedConfig), stagedConfig.getParent());
+            resolved.report().forEach(out::println);
+            WardenConfig config = resolved.config();
             DatasetConfig household = config.datasets().get(0);
             DatasetConfig panel = config.datasets().get(1);
             DatasetConfig leisure = config.dataset(LEISURE_FOLDER);

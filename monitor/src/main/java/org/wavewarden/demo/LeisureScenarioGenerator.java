@@ -143,7 +143,7 @@ public final class LeisureScenarioGenerator {
         Files.createDirectories(directory);
         Files.writeString(directory.resolve(CODEBOOK_FILE), ddi(), StandardCharsets.UTF_8);
         for (Wave w : WAVES) {
-            SavWriter.write(directory.resolve(w.fileName()), dictionary(w), cases(w), w.compression());
+            SavWriter.write(directory.resolve(w.fileName()), dictionary(w), cases(w), w.compression(), FILES_CREATED);
         }
     }
 
