@@ -76,11 +76,12 @@ final class ImportCommand implements Callable<Integer> {
         if (name.endsWith(".sav") || name.endsWith(".zsav")) {
             return FileKind.SPSS;
         }
-        if (name.endsWith(".csv") || name.endsWith(".csv.gz")) {
+        if (name.endsWith(".csv") || name.endsWith(".csv.gz") || name.endsWith(".tsv") || name.endsWith(".tsv.gz")
+                || name.endsWith(".txt") || name.endsWith(".txt.gz")) {
             return FileKind.CSV;
         }
         throw new ConfigException("FILE", "cannot tell what " + DataText.visible(file.getFileName().toString())
-                + " is from its name: expected .sav or .zsav (SPSS system file), .csv or .csv.gz");
+                + " is from its name: expected .sav or .zsav (SPSS system file), or delimited text: .csv, .tsv or .txt, each also .gz");
     }
 
     @Override
@@ -109,20 +110,25 @@ final class ImportCommand implements Callable<Integer> {
         DatasetCodebook given = codebookFile == null ? null : readCodebook(codebookFile);
         PrintWriter out = spec.commandLine().getOut();
         PrintWriter err = spec.commandLine().getErr();
-        boolean ownResults = c.results().connection() != null;
+        // The results schema is touched only when the wave has a codebook to keep (or one to forget on --replace):
+        // a plain CSV import needs nothing but the source.
+        boolean keepsCodebook = kind == FileKind.SPSS || given != null || replace;
+        boolean ownResults = keepsCodebook && c.results().connection() != null;
         // Two connections: Flyway holds one for its lock while it migrates with the other.
         try (HikariDataSource ds = Databases.open(c.source(), null, "source", false, System.getenv(), 2);
              HikariDataSource rs = ownResults
                      ? Databases.open(c.results().connection(), null, "results", false, System.getenv(), 2) : null) {
             // A wrong password is reported at once rather than after the pool's connection timeout.
             Databases.firstContact(ds, "source");
-            HikariDataSource results = ownResults ? rs : ds;
+            HikariDataSource results = !keepsCodebook ? null : ownResults ? rs : ds;
             if (ownResults) {
                 Databases.firstContact(rs, "results");
             }
             // The results schema is brought up to date first, so an unreachable or outdated results store stops
             // the import before its rows are committed.
-            ResultsSchema.migrate(results, c.results().schema());
+            if (keepsCodebook) {
+                ResultsSchema.migrate(results, c.results().schema());
+            }
             DatasetCodebook saved;
             long rows;
             try (Connection conn = ds.getConnection()) {
@@ -143,6 +149,9 @@ final class ImportCommand implements Callable<Integer> {
                 Progress.done(err);
             }
             out.println("imported " + rows + " rows into " + table + " as wave " + DataText.visible(wave));
+            if (!keepsCodebook) {
+                return Main.OK;
+            }
             return saveCodebook(new WaveCodebooks(Jdbi.create(results), c.results().schema()), d.name(), saved, out,
                     err);
         }

@@ -68,7 +68,7 @@ class MissingRangesConfigTest {
             "{name: born, kind: date, missingRanges: [{max: -1}]}"
                     + "|datasets[0].variables[0].missingRanges|ranges of numbers",
             "{name: tenure, kind: categorical, valueLabels: [Owner]}"
-                    + "|datasets[0].variables[0].valueLabels|expected a mapping",
+                    + "|datasets[0].variables[0].valueLabels|expected a map of code to label",
     })
     void aBadRangeIsRefusedWithItsFullKeyPath(String variable, String key, String problem) {
         ConfigException e = assertThrows(ConfigException.class, () -> ConfigLoader.parse(config(variable)));
