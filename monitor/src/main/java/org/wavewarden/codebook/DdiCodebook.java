@@ -42,9 +42,16 @@ public final class DdiCodebook {
      * {@code @nature} (nominal, ordinal; a scale is {@code ratio}, or {@code interval} for dates, where zero means
      * nothing) with {@code @intrvl} {@code contin} for scales and {@code discrete} otherwise; the unit is
      * {@code @measUnit}; value labels are {@code catgry} with {@code catValu} and {@code labl}, and a declared missing
-     * value is a {@code catgry} with {@code @missing="Y"} (labelled with its reason when it has no value label); a
+     * value is a {@code catgry} with {@code @missing="Y"} whose {@code txt} gives its reason where that is not its
+     * value label (a missing value without a value label has no {@code labl}, so reading it back adds none); a
      * missing range is an {@code invalrng} with its {@code range} and its reason as the {@code key}; the valid range is
-     * {@code valrng}; the source format is {@code varFormat} with {@code @schema="SPSS"}.
+     * {@code valrng}; the source format is {@code varFormat} with {@code @schema="SPSS"}, and a text or date variable
+     * without one still has a {@code varFormat} saying so ({@code @type}, {@code @category="date"}, DATETIME for a
+     * date and time).
+     *
+     * <p>{@link #read} gives back the same codebook (apart from its source, which names the file read), with two
+     * exceptions: white space inside text is collapsed, and declared missing values come back in the order of the
+     * categories (labelled codes in their labels' order, then the unlabelled ones).
      */
     public static void write(DatasetCodebook codebook, Writer out) throws IOException {
         Xml x = new Xml(out);
@@ -81,7 +88,7 @@ public final class DdiCodebook {
 
     private static void writeVar(Xml x, VariableMeta v, int n) throws IOException {
         StringBuilder open = new StringBuilder("<var ID=\"V" + n + "\" name=\"" + Xml.text(v.name()) + "\" files=\"F1\"");
-        if (v.decimals() != null && v.storage() == StorageType.NUMBER) {
+        if (v.decimals() != null) {
             open.append(" dcml=\"").append(v.decimals()).append('"');
         }
         open.append(" intrvl=\"").append(v.measure() == Measure.SCALE ? "contin" : "discrete").append('"');
@@ -112,35 +119,47 @@ public final class DdiCodebook {
             x.line(3, "</invalrng>");
         }
         for (Map.Entry<String, Category> c : categories(v).entrySet()) {
-            x.line(3, c.getValue().missing() ? "<catgry missing=\"Y\">" : "<catgry>");
+            Category cat = c.getValue();
+            x.line(3, cat.missing() ? "<catgry missing=\"Y\">" : "<catgry>");
             x.line(4, "<catValu>" + Xml.text(c.getKey()) + "</catValu>");
-            if (c.getValue().label() != null && !c.getValue().label().isBlank()) {
-                x.line(4, "<labl>" + Xml.text(c.getValue().label()) + "</labl>");
+            if (cat.label() != null && !cat.label().isBlank()) {
+                x.line(4, "<labl>" + Xml.text(cat.label()) + "</labl>");
+            }
+            if (cat.reason() != null && !cat.reason().isBlank() && !cat.reason().equals(cat.label())) {
+                x.line(4, "<txt>" + Xml.text(cat.reason()) + "</txt>");
             }
             x.line(3, "</catgry>");
         }
+        boolean dated = v.storage() == StorageType.DATE || v.storage() == StorageType.DATETIME;
+        String date = dated ? " category=\"date\"" : "";
+        String type = "<varFormat type=\"" + (v.storage() == StorageType.TEXT ? "character" : "numeric") + "\"";
         if (v.format() != null && !v.format().isBlank()) {
             String name = v.format().replaceFirst("[0-9.]+$", "");
-            x.line(3, "<varFormat type=\"" + (v.storage() == StorageType.TEXT ? "character" : "numeric")
-                    + "\" formatname=\"" + Xml.text(name) + "\" schema=\"SPSS\""
-                    + (v.storage() == StorageType.DATE || v.storage() == StorageType.DATETIME ? " category=\"date\"" : "")
-                    + ">" + Xml.text(v.format()) + "</varFormat>");
+            x.line(3, type + " formatname=\"" + Xml.text(name) + "\" schema=\"SPSS\"" + date + ">"
+                    + Xml.text(v.format()) + "</varFormat>");
+        } else if (v.storage() == StorageType.DATETIME) {
+            // category="date" alone would read back as a date: the format's name tells a date and time apart
+            x.line(3, type + " formatname=\"DATETIME\" schema=\"SPSS\"" + date + "/>");
+        } else if (v.storage() != StorageType.NUMBER) {
+            x.line(3, type + date + "/>");
         }
         x.line(2, "</var>");
     }
 
-    private record Category(String label, boolean missing) {
+    /** A category: its value label (null when it has none) and, for a declared missing value, its reason. */
+    private record Category(String label, boolean missing, String reason) {
     }
 
-    /** Labelled codes in the codebook's order, then declared missing codes without a label, labelled by reason. */
+    /** Labelled codes in the codebook's order, then declared missing codes without a label. */
     private static Map<String, Category> categories(VariableMeta v) {
         Map<String, String> reasons = new LinkedHashMap<>();
         for (MissingCodeSpec m : v.missingCodes()) {
-            reasons.put(m.value(), m.reason());
+            reasons.putIfAbsent(m.value(), m.reason());
         }
         Map<String, Category> out = new LinkedHashMap<>();
-        v.valueLabels().forEach((code, label) -> out.put(code, new Category(label, reasons.containsKey(code))));
-        reasons.forEach((code, reason) -> out.putIfAbsent(code, new Category(reason, true)));
+        v.valueLabels().forEach((code, label) -> out.put(code, new Category(label, reasons.containsKey(code),
+                reasons.get(code))));
+        reasons.forEach((code, reason) -> out.putIfAbsent(code, new Category(null, true, reason)));
         return out;
     }
 

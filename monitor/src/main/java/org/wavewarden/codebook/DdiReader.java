@@ -29,12 +29,18 @@ import java.util.Set;
  * taken from the first {@code titl} of the study description.
  *
  * <p>Per {@code var}: {@code @name}; its own {@code labl}; the measurement level from {@code @nature}, else
- * {@code @intrvl} ({@code contin} is a scale; {@code discrete} says nothing of order); {@code @dcml}; storage from
- * {@code varFormat} ({@code @type} character or numeric; a date when {@code @category} is {@code date} or the SPSS
- * {@code @formatname} is a date format); {@code catgry} (a {@code catValu} with its {@code labl}; {@code @missing="Y"}
- * declares the code missing, its label the reason); {@code invalrng} ({@code range @min/@max} and {@code item
- * @VALUE}: missing ranges and codes); {@code valrng/range} (the valid range); the unit from {@code @measUnit} of a
- * {@code measure} element inside the {@code var} (the one place DDI 2.5 names a unit of measurement).
+ * {@code @intrvl} ({@code contin} is a scale; {@code discrete} says nothing of order); {@code @dcml}; the unit from
+ * {@code @measUnit} (the 2.5 schema's {@code varType} attribute; its content model has no element for a unit, and
+ * {@code measure} belongs to {@code nCube}, not to {@code var}); storage from {@code varFormat} ({@code @type}
+ * character or numeric; a date when {@code @category} is {@code date} or the SPSS format name is a date format);
+ * the format from {@code varFormat}'s text ("DATE11"), else from {@code @formatname} when that carries a width
+ * ({@code formatname="DATE"} alone names only the kind of format); {@code catgry} (a {@code catValu} with its
+ * {@code labl}; {@code @missing="Y"} declares the code missing, with the reason its {@code txt} gives, else its
+ * label); {@code invalrng} ({@code range @min/@max} and {@code item @VALUE}: missing ranges and codes, with the
+ * reason its {@code key} gives); {@code valrng/range} (the valid range).
+ *
+ * <p>Text (labels, reasons, the title) has its white space collapsed to single spaces: a label wrapped over lines by
+ * hand reads as one line.
  *
  * <p>The document is read without a DTD: a {@code DOCTYPE} is refused before any entity could be expanded, so an
  * external entity can neither read a local file nor reach the network.
@@ -150,18 +156,22 @@ final class DdiReader {
         String where = "<var name=\"" + name + "\">";
         Measure measure = measure(attr("nature"), attr("intrvl"), where);
         Integer decimals = integer(attr("dcml"), where + " dcml");
+        String unit = attr("measUnit") == null || attr("measUnit").isBlank() ? null
+                : attr("measUnit").replaceAll("\\s+", " ").strip();
         String label = null;
-        String unit = null;
         String formatType = null;
         String formatName = null;
+        String formatText = null;
         String formatCategory = null;
-        List<String[]> categories = new ArrayList<>();
-        List<Double[]> invalidRanges = new ArrayList<>();
-        List<String> invalidItems = new ArrayList<>();
+        List<Category> categories = new ArrayList<>();
+        List<InvalidRange> invalidRanges = new ArrayList<>();
+        List<String[]> invalidItems = new ArrayList<>();
+        List<Object> invalidBlock = null;
+        String invalidKey = null;
         RangeSpec valid = null;
         int depth = 0;
         String block = null;
-        String[] category = null;
+        Category category = null;
         while (true) {
             int ev = r.next();
             if (ev == XMLStreamConstants.END_ELEMENT) {
@@ -171,11 +181,23 @@ final class DdiReader {
                 depth--;
                 if (depth == 0) {
                     if ("catgry".equals(block) && category != null) {
-                        if (category[0] == null) {
+                        if (category.value == null) {
                             throw fail(where + " <catgry>", "a category without a catValu");
                         }
                         categories.add(category);
                         category = null;
+                    }
+                    if ("invalrng".equals(block)) {
+                        // the key may follow the ranges and items it describes
+                        for (Object o : invalidBlock) {
+                            if (o instanceof Double[] d) {
+                                invalidRanges.add(new InvalidRange(d[0], d[1], invalidKey));
+                            } else {
+                                invalidItems.add(new String[] {(String) o, invalidKey});
+                            }
+                        }
+                        invalidBlock = null;
+                        invalidKey = null;
                     }
                     block = null;
                 }
@@ -203,14 +225,18 @@ final class DdiReader {
                         formatType = attr("type");
                         formatName = attr("formatname");
                         formatCategory = attr("category");
-                        skip();
+                        formatText = text();
                         continue;
                     }
                     case "catgry" -> {
-                        category = new String[] {null, null, "Y".equalsIgnoreCase(attr("missing")) ? "Y" : "N"};
+                        category = new Category("Y".equalsIgnoreCase(attr("missing")));
                         block = el;
                     }
-                    case "invalrng", "valrng" -> block = el;
+                    case "invalrng" -> {
+                        invalidBlock = new ArrayList<>();
+                        block = el;
+                    }
+                    case "valrng" -> block = el;
                     default -> block = "other";
                 }
                 depth++;
@@ -218,16 +244,23 @@ final class DdiReader {
             }
             String at = where + " <" + block + "><" + el + ">";
             if ("catgry".equals(block) && depth == 1 && el.equals("catValu")) {
-                category[0] = text().strip();
+                category.value = text();
                 continue;
             }
             if ("catgry".equals(block) && depth == 1 && el.equals("labl")) {
-                String l = text().strip();
-                category[1] = category[1] == null ? l : category[1];
+                String l = text();
+                category.label = category.label == null && !l.isEmpty() ? l : category.label;
                 continue;
             }
-            if (el.equals("measure") && attr("measUnit") != null && unit == null) {
-                unit = attr("measUnit").strip();
+            if ("catgry".equals(block) && depth == 1 && el.equals("txt")) {
+                String t = text();
+                category.text = category.text == null && !t.isEmpty() ? t : category.text;
+                continue;
+            }
+            if ("invalrng".equals(block) && depth == 1 && el.equals("key")) {
+                String k = text();
+                invalidKey = invalidKey == null && !k.isEmpty() ? k : invalidKey;
+                continue;
             }
             if ("invalrng".equals(block) && el.equals("range")) {
                 Double lo = number(attr("min"), at + " min");
@@ -235,13 +268,13 @@ final class DdiReader {
                 if (lo == null && hi == null) {
                     throw fail(at, "a range needs min, max or both");
                 }
-                invalidRanges.add(new Double[] {lo, hi});
+                invalidBlock.add(new Double[] {lo, hi});
             } else if ("invalrng".equals(block) && el.equals("item")) {
                 String v = attr("VALUE");
                 if (v == null || v.isBlank()) {
                     throw fail(at, "an item needs a VALUE");
                 }
-                invalidItems.add(v.strip());
+                invalidBlock.add(v.strip());
             } else if ("valrng".equals(block) && el.equals("range") && valid == null) {
                 Double lo = number(attr("min"), at + " min");
                 Double hi = number(attr("max"), at + " max");
@@ -252,34 +285,54 @@ final class DdiReader {
             }
             depth++;
         }
-        StorageType storage = storage(formatType, formatName, formatCategory);
+        String format = formatText != null && !formatText.isEmpty() ? formatText
+                : formatName != null && formatName.strip().matches(".*\\d") ? formatName.strip() : null;
+        StorageType storage = storage(formatType, formatName == null || formatName.isBlank() ? format : formatName,
+                formatCategory);
         Map<String, String> labels = new LinkedHashMap<>();
         List<MissingCodeSpec> missing = new ArrayList<>();
         Set<String> missingSeen = new HashSet<>();
-        for (String[] c : categories) {
-            String code = code(c[0], storage);
-            String codeLabel = c[1] == null || c[1].isBlank() ? null : c[1];
-            if (codeLabel != null) {
-                labels.putIfAbsent(code, codeLabel);
+        for (Category c : categories) {
+            String code = code(c.value, storage);
+            if (c.label != null) {
+                labels.putIfAbsent(code, c.label);
             }
-            if (c[2].equals("Y") && missingSeen.add(code)) {
-                missing.add(new MissingCodeSpec(code, codeLabel == null ? "declared missing in the codebook"
-                        : codeLabel));
+            if (c.missing && missingSeen.add(code)) {
+                missing.add(new MissingCodeSpec(code, c.text != null ? c.text
+                        : c.label != null ? c.label : "declared missing in the codebook"));
             }
         }
-        for (String item : invalidItems) {
-            String code = code(item, storage);
+        for (String[] item : invalidItems) {
+            String code = code(item[0], storage);
             if (missingSeen.add(code)) {
-                missing.add(new MissingCodeSpec(code, labels.getOrDefault(code, "declared invalid in the codebook")));
+                missing.add(new MissingCodeSpec(code, labels.getOrDefault(code,
+                        item[1] != null ? item[1] : "declared invalid in the codebook")));
             }
         }
         List<MissingRangeSpec> ranges = new ArrayList<>();
-        for (Double[] d : invalidRanges) {
-            ranges.add(new MissingRangeSpec(d[0], d[1], "declared invalid range in the codebook"));
+        for (InvalidRange d : invalidRanges) {
+            ranges.add(new MissingRangeSpec(d.low(), d.high(), d.key() != null ? d.key()
+                    : "declared invalid range in the codebook"));
         }
-        Integer width = storage == StorageType.TEXT ? textWidth(formatName) : null;
-        return new VariableMeta(name.strip(), label == null || label.isBlank() ? null : label.strip(), storage,
-                width, decimals, formatName, measure, unit, labels, missing, ranges, valid);
+        Integer width = storage == StorageType.TEXT ? textWidth(format) : null;
+        return new VariableMeta(name.strip(), label == null || label.isBlank() ? null : label, storage,
+                width, decimals, format, measure, unit, labels, missing, ranges, valid);
+    }
+
+    /** One {@code catgry} as read: its code, first label, first text, and whether it is declared missing. */
+    private static final class Category {
+        final boolean missing;
+        String value;
+        String label;
+        String text;
+
+        Category(boolean missing) {
+            this.missing = missing;
+        }
+    }
+
+    /** One {@code invalrng/range} with the {@code key} of its {@code invalrng}, when there is one. */
+    private record InvalidRange(Double low, Double high, String key) {
     }
 
     /** A numeric code in the one text form of {@link Codes#of}, so "1.0" and "1" are the same answer. */
@@ -326,9 +379,9 @@ final class DdiReader {
         return StorageType.NUMBER;
     }
 
-    private static Integer textWidth(String formatName) {
-        if (formatName != null && formatName.strip().toUpperCase(Locale.ROOT).matches("A\\d+")) {
-            return Integer.parseInt(formatName.strip().substring(1));
+    private static Integer textWidth(String format) {
+        if (format != null && format.strip().toUpperCase(Locale.ROOT).matches("A\\d{1,9}")) {
+            return Integer.parseInt(format.strip().substring(1));
         }
         return null;
     }

@@ -70,12 +70,65 @@ class DdiCodebookReadTest {
     }
 
     @Test
-    void aContinuousIntervalIsAScaleWithItsUnitFromTheMeasureElement() throws IOException {
+    void aContinuousIntervalIsAScaleWithItsUnitFromTheVarsMeasUnit() throws IOException {
         VariableMeta v = variable("commute_minutes");
         assertEquals(Measure.SCALE, v.measure());
         assertEquals("minutes", v.unit());
-        assertEquals(List.of(new MissingRangeSpec(-99.0, -91.0, "declared invalid range in the codebook")),
-                v.missingRanges());
+    }
+
+    @Test
+    void anInvalidRangesKeyIsItsReasonAndAMissingCategorysTxtIsItsReason() throws IOException {
+        VariableMeta v = variable("commute_minutes");
+        assertEquals(List.of(new MissingRangeSpec(-99.0, -91.0, "not stated")), v.missingRanges());
+        assertEquals(List.of(new MissingCodeSpec("-99", "refused to say")), v.missingCodes());
+        assertEquals(Map.of("-99", "Not stated"), v.valueLabels(), "the txt is a reason, not a value label");
+    }
+
+    /** varType (DDI-Codebook 2.5 codebook.xsd) has measUnit as an attribute and no measure element. */
+    @Test
+    void aMeasureElementInsideAVarIsNotReadAsItsUnit(@TempDir Path dir) throws IOException {
+        Path f = Files.writeString(dir.resolve("measure.xml"), "<codeBook xmlns=\"ddi:codebook:2_5\"><dataDscr>"
+                + "<var name=\"a\" intrvl=\"contin\"><catgry><catValu>1</catValu><measure measUnit=\"kg\"/>"
+                + "</catgry></var></dataDscr></codeBook>");
+        assertNull(DdiCodebook.read(f).variable("a").orElseThrow().unit());
+    }
+
+    @Test
+    void theKeyOfAnInvalidRangeNamesEveryRangeAndUnlabelledItemOfIt(@TempDir Path dir) throws IOException {
+        Path f = Files.writeString(dir.resolve("key.xml"), "<codeBook xmlns=\"ddi:codebook:2_5\"><dataDscr>"
+                + "<var name=\"a\"><invalrng><range min=\"-9\" max=\"-7\"/><item VALUE=\"99\"/><item VALUE=\"98\"/>"
+                + "<key>\n  not asked\n</key></invalrng><invalrng><range min=\"997\"/></invalrng>"
+                + "<catgry><catValu>98</catValu><labl>Don't know</labl></catgry></var></dataDscr></codeBook>");
+        VariableMeta v = DdiCodebook.read(f).variable("a").orElseThrow();
+        assertEquals(List.of(new MissingRangeSpec(-9.0, -7.0, "not asked"),
+                new MissingRangeSpec(997.0, null, "declared invalid range in the codebook")), v.missingRanges());
+        assertEquals(List.of(new MissingCodeSpec("99", "not asked"), new MissingCodeSpec("98", "Don't know")),
+                v.missingCodes());
+    }
+
+    @ParameterizedTest(name = "{0}")
+    @CsvSource(delimiter = '|', value = {
+            "the text of varFormat         | <varFormat type='numeric' formatname='DATE' category='date'>"
+                    + "DATE11</varFormat> | DATE11 | DATE",
+            "a formatname with its width   | <varFormat type='character' formatname='A20'/> | A20 | TEXT",
+            "a formatname without a width  | <varFormat type='numeric' formatname='DATETIME'/> | | DATETIME",
+            "no varFormat                  | | | NUMBER"})
+    void theFormatIsVarFormatsTextElseAFormatNameWithAWidth(String what, String varFormat, String format,
+                                                            StorageType storage, @TempDir Path dir)
+            throws IOException {
+        Path f = Files.writeString(dir.resolve("format.xml"), "<codeBook xmlns='ddi:codebook:2_5'><dataDscr>"
+                + "<var name='a'>" + (varFormat == null ? "" : varFormat) + "</var></dataDscr></codeBook>");
+        VariableMeta v = DdiCodebook.read(f).variable("a").orElseThrow();
+        assertEquals(format, v.format());
+        assertEquals(storage, v.storage());
+        assertEquals(storage == StorageType.TEXT ? 20 : null, v.width());
+    }
+
+    @Test
+    void whiteSpaceInsideLabelsIsCollapsed(@TempDir Path dir) throws IOException {
+        Path f = Files.writeString(dir.resolve("wrapped.xml"), "<codeBook xmlns='ddi:codebook:2_5'><dataDscr>"
+                + "<var name='a'><labl>\n  Minutes to work,\n\t one way  </labl></var></dataDscr></codeBook>");
+        assertEquals("Minutes to work, one way", DdiCodebook.read(f).variable("a").orElseThrow().label());
     }
 
     @Test

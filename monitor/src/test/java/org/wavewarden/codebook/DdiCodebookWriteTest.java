@@ -1,6 +1,8 @@
 package org.wavewarden.codebook;
 
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.CsvSource;
 import org.w3c.dom.Document;
 import org.w3c.dom.Element;
 import org.w3c.dom.Node;
@@ -82,14 +84,49 @@ class DdiCodebookWriteTest {
         List<String> categories = new ArrayList<>();
         for (Element c : children(tenure, "catgry")) {
             categories.add(text(c, "catValu") + "=" + text(c, "labl") + ("Y".equals(c.getAttribute("missing"))
-                    ? " missing" : ""));
+                    ? " missing" : "") + (text(c, "txt") == null ? "" : " because " + text(c, "txt")));
         }
-        // -8 is declared missing without a value label: it is still a category, labelled with its reason
-        assertEquals(List.of("1=Owner", "4=Council tenant", "-9=Refused missing", "-8=not asked missing"), categories);
+        // -8 is declared missing without a value label: it is still a category, with its reason as its txt and no
+        // labl, so that reading the document back gives it no value label
+        assertEquals(List.of("1=Owner", "4=Council tenant", "-9=Refused missing", "-8=null missing because not asked"),
+                categories);
         assertEquals("nominal", tenure.getAttribute("nature"));
         assertEquals("discrete", tenure.getAttribute("intrvl"));
         assertEquals("code", tenure.getAttribute("representationType"));
         assertEquals("Tenure of the home", text(tenure, "labl"));
+    }
+
+    @Test
+    void aMissingValueWhoseReasonIsNotItsLabelHasTheReasonAsItsTxt() throws Exception {
+        VariableMeta v = new VariableMeta("q", null, StorageType.NUMBER, null, null, null, Measure.NOMINAL, null,
+                Map.of("-1", "No answer"), List.of(new MissingCodeSpec("-1", "skipped by routing")), null, null);
+        Element q = vars(parse(write(new DatasetCodebook("f", "t", List.of(v)))).getDocumentElement()).get(0);
+        Element c = children(q, "catgry").get(0);
+        assertEquals(List.of("catValu", "labl", "txt"), childNames(c), "catgryType's sequence");
+        assertEquals("No answer", text(c, "labl"));
+        assertEquals("skipped by routing", text(c, "txt"));
+    }
+
+    @ParameterizedTest(name = "{0}")
+    @CsvSource({"TEXT, character, , ", "DATE, numeric, , date", "DATETIME, numeric, DATETIME, date"})
+    void aTextOrDateVariableWithoutAFormatStillSaysHowItIsStored(StorageType storage, String type, String formatName,
+                                                                  String category) throws Exception {
+        VariableMeta v = new VariableMeta("v", null, storage, null, null, null, null, null, null, null, null, null);
+        Element var = vars(parse(write(new DatasetCodebook("f", "t", List.of(v)))).getDocumentElement()).get(0);
+        Element format = children(var, "varFormat").get(0);
+        assertEquals(type, format.getAttribute("type"));
+        assertEquals(formatName == null ? "" : formatName, format.getAttribute("formatname"));
+        assertEquals(category == null ? "" : category, format.getAttribute("category"));
+        assertEquals("", format.getTextContent());
+    }
+
+    @Test
+    void aNumberWithoutAFormatHasNoVarFormat() throws Exception {
+        VariableMeta v = new VariableMeta("n", null, StorageType.NUMBER, null, 2, null, null, null, null, null, null,
+                null);
+        Element var = vars(parse(write(new DatasetCodebook("f", "t", List.of(v)))).getDocumentElement()).get(0);
+        assertTrue(children(var, "varFormat").isEmpty());
+        assertEquals("2", var.getAttribute("dcml"));
     }
 
     @Test
