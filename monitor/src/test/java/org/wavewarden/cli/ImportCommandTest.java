@@ -348,6 +348,10 @@ class ImportCommandTest {
         Path csv = SmallSurvey.writeWaves(dir)[0];
         CliRun first = importWave(cfg, "w1", csv);
         assertEquals(0, first.exitCode(), first.err());
+        org.postgresql.ds.PGSimpleDataSource ds = new org.postgresql.ds.PGSimpleDataSource();
+        ds.setURL(url);
+        ds.setUser("postgres");
+        ResultsSchema.migrate(ds, "ww_results");
         codebooks().save("small-survey", "w1", new DatasetCodebook("old.xml", null, List.of()), Instant.now());
         CliRun r = importWave(cfg, "w1", csv, "--replace");
         assertEquals(0, r.exitCode(), r.err());
@@ -357,14 +361,22 @@ class ImportCommandTest {
     }
 
     @Test
-    void theResultsSchemaIsReadyBeforeTheFirstImport() throws Exception {
+    void aPlainCsvImportLeavesTheResultsSchemaAloneAndACodebookMakesItReady() throws Exception {
         SmallSurvey.createTable(url);
         Path cfg = dir.resolve("small.yaml");
         Files.writeString(cfg, SmallSurvey.config(url, null));
-        CliRun r = importWave(cfg, "w1", SmallSurvey.writeWaves(dir)[0]);
+        Path[] waves = SmallSurvey.writeWaves(dir);
+        CliRun r = importWave(cfg, "w1", waves[0]);
         assertEquals(0, r.exitCode(), r.err());
+        assertEquals(0, count("SELECT count(*) FROM pg_namespace WHERE nspname = 'ww_results'"),
+                "a CSV wave without a codebook has nothing to keep in the results schema");
+        Path codebook = Files.writeString(dir.resolve("small.csv"), "variable,label\nregion,Region of the home\n");
+        CliRun withCodebook = importWave(cfg, "w2", waves[1], "--codebook", codebook.toString());
+        assertEquals(0, withCodebook.exitCode(), withCodebook.err());
         assertEquals(1, count("SELECT count(*) FROM pg_tables WHERE schemaname = 'ww_results'"
                 + " AND tablename = 'wave_codebook'"));
+        assertEquals("Region of the home", codebooks().load("small-survey", "w2").orElseThrow()
+                .variable("region").orElseThrow().label());
     }
 
     @Test
@@ -392,7 +404,7 @@ class ImportCommandTest {
 
     @Test
     void aFileOfUnknownKindOrOneThatIsNotThereIsRefusedNamingIt() throws Exception {
-        Path odd = Files.writeString(dir.resolve("wave.txt"), "id\n1\n");
+        Path odd = Files.writeString(dir.resolve("wave.dat"), "id\n1\n");
         CliRun r = importWave(config, "2025-Q1", odd);
         assertEquals(2, r.exitCode(), r.err());
         assertTrue(r.err().contains("config error at FILE") && r.err().contains(".sav"), r.err());
