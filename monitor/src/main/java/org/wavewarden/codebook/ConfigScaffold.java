@@ -194,6 +194,20 @@ public final class ConfigScaffold {
         return m.isPresent() ? m : codebook.variables().stream().filter(v -> matches(v, column)).findFirst();
     }
 
+    /**
+     * Whether a numeric variable's answers are all value-labelled codes: at least two labelled valid codes, and every
+     * answer of the wave not declared missing is one of them (matched as numbers).
+     */
+    static boolean allAnswersLabelled(ColumnTally tally, org.wavewarden.missing.Codebook declared, ColumnType type,
+                                      Map<String, String> labels, List<String> valid) {
+        if (tally == null || valid.size() < 2) {
+            return false;
+        }
+        CodeLabels named = new CodeLabels(null, labels);
+        return tally.valueCounts().keySet().stream().filter(x -> declared.reasonOf(x, type).isEmpty())
+                .allMatch(x -> named.label(x) != null);
+    }
+
     /** A codebook name matches the column the import made of it. */
     private static boolean matches(VariableMeta m, String column) {
         return TableShape.columnName(m.name()).equals(column);
@@ -231,7 +245,13 @@ public final class ConfigScaffold {
                         .filter(x -> declared.reasonOf(x, type).isEmpty()).count() <= 2);
                 switch (m.measure()) {
                     case SCALE -> {
-                        if (numeric) {
+                        if (numeric && allAnswersLabelled(tally, declared, type, labels, valid)) {
+                            // Files written without a measurement level (haven writes every number as scale) still
+                            // say what a code is by labelling every answer: such a variable is a set of codes.
+                            kind = two ? VariableKind.BINARY : VariableKind.CATEGORICAL;
+                            origin = "codebook: scale, but every answer in wave " + quote(wave) + " is one of its "
+                                    + valid.size() + " labelled codes";
+                        } else if (numeric) {
                             kind = VariableKind.CONTINUOUS;
                             origin = "codebook: scale";
                         }

@@ -188,6 +188,28 @@ class ConfigScaffoldTest {
     }
 
     @Test
+    void aScaleWhoseEveryAnswerIsALabelledCodeIsReadAsCodesAndAScaleWithUnlabelledAnswersStaysContinuous() {
+        // haven writes every number with the measurement level scale, labelled or not.
+        DatasetCodebook codebook = new DatasetCodebook("household.sav", null, List.of(
+                meta("tenure", "Tenure", Measure.SCALE, Map.of("1", "Owner", "2", "Council tenant",
+                        "3", "Private renter", "9", "Refused"), List.of(new MissingCodeSpec("9", "Refused")),
+                        List.of(), null),
+                meta("hours", "Hours", Measure.SCALE, Map.of("-9", "Refused", "1", "One hour", "2", "Two hours"),
+                        List.of(new MissingCodeSpec("-9", "Refused")), List.of(), null)));
+        String yaml = ConfigScaffold.yaml(input(List.of(new SourceColumn("wave", ColumnType.TEXT, "text"),
+                        new SourceColumn("tenure", ColumnType.DECIMAL, "double precision"),
+                        new SourceColumn("hours", ColumnType.DECIMAL, "double precision")),
+                Map.of("tenure", tally("tenure", ColumnType.DECIMAL, Map.of("1", 40L, "2", 30L, "3", 20L, "9", 2L)),
+                        "hours", tally("hours", ColumnType.DECIMAL, Map.of("1", 4L, "2", 5L, "37", 30L, "-9", 2L))),
+                codebook));
+        DatasetConfig d = load(yaml);
+        assertEquals(VariableKind.CATEGORICAL, variable(d, "tenure").kind(), yaml);
+        assertTrue(yaml.contains("# codebook: scale, but every answer in wave \"2025-Q1\" is one of its 3 labelled"
+                + " codes"), yaml);
+        assertEquals(VariableKind.CONTINUOUS, variable(d, "hours").kind(), yaml);
+    }
+
+    @Test
     void aCodebookKindThatDoesNotFitTheColumnGivesWayToInferenceWithANote() {
         DatasetCodebook codebook = new DatasetCodebook("household.csv", null, List.of(
                 meta("remark", "Remarks", Measure.SCALE, Map.of(), List.of(), List.of(new MissingRangeSpec(null, -1.0,
