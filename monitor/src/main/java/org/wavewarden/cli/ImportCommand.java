@@ -15,6 +15,7 @@ import org.wavewarden.load.CaseImporter;
 import org.wavewarden.load.CaseSource;
 import org.wavewarden.load.CsvWaveImporter;
 import org.wavewarden.load.spss.SavFiles;
+import org.wavewarden.load.spss.SavFormatException;
 import org.wavewarden.store.ResultsSchema;
 import org.wavewarden.store.WaveCodebooks;
 import picocli.CommandLine.Command;
@@ -132,6 +133,11 @@ final class ImportCommand implements Callable<Integer> {
                                 create, out, Progress.rows("importing " + file.getFileName(), err));
                         rows = loaded.imported().rows();
                         saved = loaded.codebook();
+                    } catch (SavFormatException e) {
+                        // A damaged delivery is bad input like a CSV row that cannot be read; the import's
+                        // transaction, if it had begun, was rolled back before this.
+                        throw new CsvWaveImporter.ImportRefusedException(e.getMessage() + "; nothing was imported",
+                                e);
                     }
                 } else {
                     var r = CsvWaveImporter.load(conn, table, d.waveColumn(), wave, file, replace,

@@ -73,6 +73,10 @@ public final class CsvWaveImporter {
         public ImportRefusedException(String message) {
             super(message);
         }
+
+        public ImportRefusedException(String message, Throwable cause) {
+            super(message, cause);
+        }
     }
 
     /** COPY's error context: {@code COPY wavewarden_staging, line 3, column score: "abc"}. */
