@@ -36,8 +36,9 @@ import java.util.concurrent.Callable;
 
 @Command(name = "import", mixinStandardHelpOptions = true,
         description = "Load one wave into the dataset's table: an SPSS system file (.sav, .zsav) with its dictionary,"
-                + " or a CSV file (header row; .csv or .csv.gz), with COPY in one transaction. The codebook the wave"
-                + " came with (the .sav dictionary, or --codebook) is saved in the results schema. This is the one"
+                + " or a CSV file (header row; .csv, .tsv, optionally .gz), with COPY in one transaction. The"
+                + " codebook the wave came with (the .sav dictionary, or --codebook) is saved in the results schema."
+                + " This is the one"
                 + " command that writes to the source database, so it opens its own writable session.")
 final class ImportCommand implements Callable<Integer> {
 
@@ -56,7 +57,7 @@ final class ImportCommand implements Callable<Integer> {
     @Option(names = "--codebook", paramLabel = "FILE", description = "the codebook of a CSV file: DDI-Codebook 2.5"
             + " (.xml) or a CSV codebook (.csv); saved with the wave")
     Path codebookFile;
-    @Parameters(paramLabel = "FILE", description = "the file to load: .sav, .zsav, .csv or .csv.gz")
+    @Parameters(paramLabel = "FILE", description = "the file to load: .sav, .zsav, .csv, .tsv, .csv.gz or .tsv.gz")
     Path file;
     @Option(names = "--delimiter", paramLabel = "D", description = "the CSV field delimiter: ',' ';' '|' or tab"
             + " (\"tab\" or \\t); guessed from the header and first rows when not given")
@@ -77,11 +78,12 @@ final class ImportCommand implements Callable<Integer> {
         if (name.endsWith(".sav") || name.endsWith(".zsav")) {
             return FileKind.SPSS;
         }
-        if (name.endsWith(".csv") || name.endsWith(".csv.gz")) {
+        // A tab-separated file is a CSV file with another delimiter, which the reader guesses or is given.
+        if (name.endsWith(".csv") || name.endsWith(".csv.gz") || name.endsWith(".tsv") || name.endsWith(".tsv.gz")) {
             return FileKind.CSV;
         }
         throw new ConfigException("FILE", "cannot tell what " + DataText.visible(file.getFileName().toString())
-                + " is from its name: expected .sav or .zsav (SPSS system file), .csv or .csv.gz");
+                + " is from its name: expected .sav or .zsav (SPSS system file), .csv, .tsv, .csv.gz or .tsv.gz");
     }
 
     @Override
