@@ -2,18 +2,15 @@ package org.wavewarden.load;
 
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
-import org.junit.jupiter.api.io.TempDir;
 import org.wavewarden.codebook.DatasetCodebook;
 import org.wavewarden.codebook.StorageType;
 import org.wavewarden.codebook.VariableMeta;
 import org.wavewarden.config.ConfigException;
 import org.wavewarden.config.Identifiers.TableName;
-import org.wavewarden.testing.SmallSurvey;
 import org.wavewarden.testing.TestDatabase;
 
 import java.io.PrintWriter;
 import java.io.StringWriter;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.sql.Connection;
 import java.sql.SQLException;
@@ -34,17 +31,16 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
  * every row with its evidence printed (a codebook's storage types first); an existing table is never widened or
  * retyped.
  */
-class CsvCreateTableTest {
+class CsvCreateTableTest extends SmallSurveyImportTest {
 
-    @TempDir
-    Path dir;
-    String url;
     StringWriter notes;
 
+    CsvCreateTableTest() {
+        super("csvcreate");
+    }
+
     @BeforeEach
-    void database() throws Exception {
-        url = TestDatabase.freshDatabase("csvcreate");
-        SmallSurvey.createTable(url);
+    void notes() {
         notes = new StringWriter();
     }
 
@@ -70,19 +66,6 @@ class CsvCreateTableTest {
             }
         }
         return out;
-    }
-
-    String text(String sql) throws SQLException {
-        try (Connection c = TestDatabase.connect(url); var rs = c.createStatement().executeQuery(sql)) {
-            rs.next();
-            return rs.getString(1);
-        }
-    }
-
-    Path write(String name, String content) throws Exception {
-        Path p = dir.resolve(name);
-        Files.writeString(p, content);
-        return p;
     }
 
     static VariableMeta declared(String name, StorageType storage) {
@@ -228,10 +211,6 @@ class CsvCreateTableTest {
         }
     }
 
-    long count(String sql) throws SQLException {
-        return Long.parseLong(text(sql));
-    }
-
     @Test
     void twoCreatingImportsOfDifferentWavesWaitForOneCreationLockAndOneCreatesTheTable() throws Exception {
         Path first = write("visits-1.csv", "id,income\n1,1200\n2,2.5\n");
@@ -245,12 +224,7 @@ class CsvCreateTableTest {
             st.execute("SELECT pg_advisory_lock(hashtext('wavewarden create \"src\".\"visits\"'), 0)");
             runs.add(pool.submit(() -> createWave("w1", first)));
             runs.add(pool.submit(() -> createWave("w2", second)));
-            while (count("SELECT count(*) FROM pg_locks l JOIN pg_stat_activity a ON a.pid = l.pid"
-                    + " WHERE NOT l.granted AND l.locktype = 'advisory' AND a.datname = current_database()") < 2
-                    && runs.stream().noneMatch(Future::isDone)) {
-                Thread.sleep(20);
-            }
-            bothWaited = runs.stream().noneMatch(Future::isDone);
+            bothWaited = awaitWaiting(url, 2, "advisory", runs);
             st.execute("SELECT pg_advisory_unlock(hashtext('wavewarden create \"src\".\"visits\"'), 0)");
         }
         List<Created> done = new ArrayList<>();
