@@ -15,6 +15,7 @@ import org.wavewarden.load.CaseImporter;
 import org.wavewarden.load.CaseSource;
 import org.wavewarden.load.CsvWaveImporter;
 import org.wavewarden.load.spss.SavFiles;
+import org.wavewarden.load.spss.SavFormatException;
 import org.wavewarden.store.ResultsSchema;
 import org.wavewarden.store.WaveCodebooks;
 import picocli.CommandLine.Command;
@@ -35,8 +36,9 @@ import java.util.concurrent.Callable;
 
 @Command(name = "import", mixinStandardHelpOptions = true,
         description = "Load one wave into the dataset's table: an SPSS system file (.sav, .zsav) with its dictionary,"
-                + " or a CSV file (header row; .csv or .csv.gz), with COPY in one transaction. The codebook the wave"
-                + " came with (the .sav dictionary, or --codebook) is saved in the results schema. This is the one"
+                + " or a CSV file (header row; .csv, .tsv, optionally .gz), with COPY in one transaction. The"
+                + " codebook the wave came with (the .sav dictionary, or --codebook) is saved in the results schema."
+                + " This is the one"
                 + " command that writes to the source database, so it opens its own writable session.")
 final class ImportCommand implements Callable<Integer> {
 
@@ -55,7 +57,7 @@ final class ImportCommand implements Callable<Integer> {
     @Option(names = "--codebook", paramLabel = "FILE", description = "the codebook of a CSV file: DDI-Codebook 2.5"
             + " (.xml) or a CSV codebook (.csv); saved with the wave")
     Path codebookFile;
-    @Parameters(paramLabel = "FILE", description = "the file to load: .sav, .zsav, .csv or .csv.gz")
+    @Parameters(paramLabel = "FILE", description = "the file to load: .sav, .zsav, .csv, .tsv, .csv.gz or .tsv.gz")
     Path file;
     @Option(names = "--delimiter", paramLabel = "D", description = "the CSV field delimiter: ',' ';' '|' or tab"
             + " (\"tab\" or \\t); guessed from the header and first rows when not given")
@@ -76,12 +78,12 @@ final class ImportCommand implements Callable<Integer> {
         if (name.endsWith(".sav") || name.endsWith(".zsav")) {
             return FileKind.SPSS;
         }
-        if (name.endsWith(".csv") || name.endsWith(".csv.gz") || name.endsWith(".tsv") || name.endsWith(".tsv.gz")
-                || name.endsWith(".txt") || name.endsWith(".txt.gz")) {
+        // A tab-separated file is a CSV file with another delimiter, which the reader guesses or is given.
+        if (name.endsWith(".csv") || name.endsWith(".csv.gz") || name.endsWith(".tsv") || name.endsWith(".tsv.gz")) {
             return FileKind.CSV;
         }
         throw new ConfigException("FILE", "cannot tell what " + DataText.visible(file.getFileName().toString())
-                + " is from its name: expected .sav or .zsav (SPSS system file), or delimited text: .csv, .tsv or .txt, each also .gz");
+                + " is from its name: expected .sav or .zsav (SPSS system file), .csv, .tsv, .csv.gz or .tsv.gz");
     }
 
     @Override
@@ -138,6 +140,11 @@ final class ImportCommand implements Callable<Integer> {
                                 create, out, Progress.rows("importing " + file.getFileName(), err));
                         rows = loaded.imported().rows();
                         saved = loaded.codebook();
+                    } catch (SavFormatException e) {
+                        // A damaged delivery is bad input like a CSV row that cannot be read; the import's
+                        // transaction, if it had begun, was rolled back before this.
+                        throw new CsvWaveImporter.ImportRefusedException(e.getMessage() + "; nothing was imported",
+                                e);
                     }
                 } else {
                     var r = CsvWaveImporter.load(conn, table, d.waveColumn(), wave, file, replace,

@@ -79,20 +79,7 @@ public final class CaseImporter {
         String file = dictionary.source() == null ? "the file" : dictionary.source();
         List<String> printed = new ArrayList<>();
         Loaded loaded = WaveLoad.inOneTransaction(c, () -> {
-            WaveLoad.lockWave(c, table, wave);
-            Map<String, String> have = new java.util.LinkedHashMap<>(TableShape.existing(c, table));
-            if (have.isEmpty()) {
-                if (!create) {
-                    // The refusal TableShape gives for a missing table, before a single case is read.
-                    TableShape.ensure(c, table, waveColumn, List.of(), false);
-                }
-                WaveLoad.lockTableCreation(c, table);
-                // Another import may have created it while this one waited for the lock.
-                have.putAll(TableShape.existing(c, table));
-            }
-            if (!have.isEmpty() && !have.containsKey(waveColumn)) {
-                throw new ConfigException("waveColumn", "table " + table + " has no column " + waveColumn);
-            }
+            Map<String, String> have = WaveLoad.lockWaveAndFindTable(c, table, waveColumn, wave, create);
             long existing = have.isEmpty() ? 0 : WaveLoad.existingRows(c, table, waveColumn, wave, replace);
             List<String> names = columnNames(dictionary, have, waveColumn, file, printed);
             if (names.stream().allMatch(n -> n == null)) {
@@ -110,7 +97,8 @@ public final class CaseImporter {
             printed.addAll(outcome.lines());
             String waveType = TableShape.existing(c, table).get(waveColumn);
             long inserted = WaveLoad.replaceWave(c, table, waveColumn, wave, existing, STAGING,
-                    columns.stream().map(TableShape.Column::name).toList(), waveType, "the cases of " + file);
+                    columns.stream().map(col -> WaveLoad.Filled.same(col.name())).toList(), waveType,
+                    WaveLoad.doNotFit("the cases of " + file, table));
             return new Loaded(new CsvWaveImporter.Imported(wave, inserted), renamed(dictionary, names));
         });
         if (notes != null) {
@@ -230,7 +218,7 @@ public final class CaseImporter {
             }
             return rows;
         } catch (SQLException e) {
-            if (CsvWaveImporter.isBadInput(e)) {
+            if (WaveLoad.isBadInput(e)) {
                 throw refused(file, e);
             }
             throw e;
@@ -296,7 +284,7 @@ public final class CaseImporter {
                 at.append(", column ").append(DataText.visible(m.group(2).strip()));
             }
         }
-        return new CsvWaveImporter.ImportRefusedException(at + ": " + CsvWaveImporter.serverMessage(e)
+        return new CsvWaveImporter.ImportRefusedException(at + ": " + WaveLoad.serverMessage(e)
                 + "; nothing was imported");
     }
 

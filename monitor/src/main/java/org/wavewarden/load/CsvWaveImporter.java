@@ -27,7 +27,6 @@ import java.sql.Connection;
 import java.sql.PreparedStatement;
 import java.sql.ResultSet;
 import java.sql.SQLException;
-import java.sql.Savepoint;
 import java.sql.Statement;
 import java.util.ArrayList;
 import java.util.HashMap;
@@ -50,10 +49,11 @@ import java.util.zip.GZIPInputStream;
  * NULL, a quoted empty field ({@code ""}) an empty string, as PostgreSQL defines the format. Header names are
  * matched to the table's columns without regard to case.
  *
- * <p>The rows go through a temporary staging table and are inserted in one transaction, so a failed import leaves
- * nothing behind; the wave label is bound as a parameter, never pasted into SQL. Imports of one wave into one
- * table are serialised by a transaction-level advisory lock taken before the wave's rows are counted, so of two
- * concurrent imports the second sees the first one's rows. With {@code create}, a missing table is created from
+ * <p>The rows go through a temporary staging table and are inserted with {@link WaveLoad}, the steps every import
+ * shares: one transaction, so a failed import leaves nothing behind; the wave's advisory lock taken before its rows
+ * are counted, so of two concurrent imports the second sees the first one's rows; the table-creation lock; the
+ * refusal without {@code --replace}; the wave label bound as a parameter, never pasted into SQL. With
+ * {@code create}, a missing table is created from
  * the file: its rows go to an all-text staging table, each column's type is decided in SQL over every row
  * ({@link CsvColumnTypes}), and {@link TableShape#ensure} creates the table or refuses an existing one that
  * cannot take the file.
@@ -72,6 +72,10 @@ public final class CsvWaveImporter {
 
         public ImportRefusedException(String message) {
             super(message);
+        }
+
+        public ImportRefusedException(String message, Throwable cause) {
+            super(message, cause);
         }
     }
 
@@ -147,37 +151,24 @@ public final class CsvWaveImporter {
                 + sniffed.encoding().name();
         note(notes, read + (sniffed.guesses().isEmpty() ? " (as given)" : " (guessed: "
                 + String.join("; ", sniffed.guesses()) + "; pass --encoding/--delimiter to override)"));
-        Map<String, String> have = TableShape.existing(c, table);
-        if (have.isEmpty() && !create) {
-            throw new ConfigException("table", "table " + table + " does not exist; pass --create to create it"
-                    + " from the file's columns");
-        }
         try (CsvParser parser = new CsvParser(new DecodingReader(counting(open(csv), bytesRead),
                 sniffed.encoding()), sniffed.delimiter())) {
-            List<String> header = new ArrayList<>();
-            try {
-                if (!parser.next(header)) {
-                    throw new ConfigException("csv", csv + " is empty: expected a header row");
+            return WaveLoad.inOneTransaction(c, () -> {
+                Map<String, String> have = WaveLoad.lockWaveAndFindTable(c, table, waveColumn, wave, create);
+                List<String> header = new ArrayList<>();
+                try {
+                    if (!parser.next(header)) {
+                        throw new ConfigException("csv", csv + " is empty: expected a header row");
+                    }
+                } catch (CsvParser.BadRowException e) {
+                    throw refused(csv, List.of(), e, sniffed);
                 }
-            } catch (CsvParser.BadRowException e) {
-                throw refused(csv, List.of(), e, sniffed);
-            }
-            checkHeader(file, header);
-            Rows rows = new Rows(csv, header, parser, sniffed);
-            boolean autoCommit = c.getAutoCommit();
-            c.setAutoCommit(false);
-            try {
-                Imported done = have.isEmpty() || create
+                checkHeader(file, header);
+                Rows rows = new Rows(csv, header, parser, sniffed);
+                return have.isEmpty() || create
                         ? loadCreating(c, table, waveColumn, wave, rows, have, replace, codebook, notes)
                         : loadTyped(c, table, waveColumn, wave, rows, have, replace);
-                c.commit();
-                return done;
-            } catch (SQLException | IOException | RuntimeException e) {
-                c.rollback();
-                throw e;
-            } finally {
-                c.setAutoCommit(autoCommit);
-            }
+            });
         }
     }
 
@@ -253,42 +244,21 @@ public final class CsvWaveImporter {
         if (columns.contains(null)) {
             throw unmatched(rows.file, table, rows.header, columns, have, "");
         }
-        lock(c, table, wave);
-        long existing = existingRows(c, table, waveColumn, wave, replace);
+        long existing = WaveLoad.existingRows(c, table, waveColumn, wave, replace);
         String line = lineColumn(have);
         try (Statement st = c.createStatement()) {
-            // CREATE TABLE AS copies no NOT NULL constraint, so the wave column may stay empty until set below.
+            // CREATE TABLE AS copies no NOT NULL constraint, so the file need not have the wave column.
             st.execute("CREATE TEMP TABLE " + STAGING + " ON COMMIT DROP AS SELECT NULL::bigint AS "
                     + Identifiers.quote(line) + ", * FROM " + table.quoted() + " WITH NO DATA");
         }
         String cols = String.join(", ", columns.stream().map(Identifiers::quote).toList());
-        long n = rows.copy(c, "COPY " + STAGING + " (" + Identifiers.quote(line) + ", " + cols
-                + ") FROM STDIN (FORMAT csv)", columns);
-        try (PreparedStatement ps = c.prepareStatement("UPDATE " + STAGING + " SET "
-                + Identifiers.quote(waveColumn) + " = ?")) {
-            ps.setObject(1, wave, java.sql.Types.OTHER);
-            ps.executeUpdate();
-        } catch (SQLException e) {
-            if (isBadInput(e)) {
-                throw badWave(wave, waveColumn, e);
-            }
-            throw e;
-        }
-        deleteExisting(c, table, waveColumn, wave, existing);
-        String wc = Identifiers.quote(waveColumn);
-        String insertCols = columns.contains(waveColumn) ? cols : cols + ", " + wc;
-        Savepoint before = c.setSavepoint();
-        try (Statement st = c.createStatement()) {
-            // Naming the columns lets the table's own defaults fill any column the file does not have.
-            st.executeUpdate("INSERT INTO " + table.quoted() + " (" + insertCols + ") SELECT " + insertCols
-                    + " FROM " + STAGING);
-        } catch (SQLException e) {
-            if (isBadInput(e)) {
-                c.rollback(before);
-                throw rowsDoNotFit(c, rows, table, columns, columns, Identifiers.quote(line), i -> true, e);
-            }
-            throw e;
-        }
+        rows.copy(c, "COPY " + STAGING + " (" + Identifiers.quote(line) + ", " + cols + ") FROM STDIN (FORMAT csv)",
+                columns);
+        // The file's own wave column, if it has one, gives way to the wave label.
+        List<WaveLoad.Filled> filled = columns.stream().filter(col -> !col.equals(waveColumn))
+                .map(WaveLoad.Filled::same).toList();
+        long n = WaveLoad.replaceWave(c, table, waveColumn, wave, existing, STAGING, filled, have.get(waveColumn),
+                e -> rowsDoNotFit(c, rows, table, columns, columns, Identifiers.quote(line), i -> true, e));
         return new Imported(wave, n);
     }
 
@@ -299,13 +269,7 @@ public final class CsvWaveImporter {
     private static Imported loadCreating(Connection c, TableName table, String waveColumn, String wave, Rows rows,
                                          Map<String, String> have, boolean replace, DatasetCodebook codebook,
                                          PrintWriter notes) throws SQLException, IOException {
-        try (PreparedStatement ps = c.prepareStatement("SELECT pg_advisory_xact_lock(hashtext(?))")) {
-            ps.setString(1, "wavewarden create " + table.quoted());
-            ps.execute();
-        }
-        have = TableShape.existing(c, table);
-        lock(c, table, wave);
-        long existing = have.isEmpty() ? 0 : existingRows(c, table, waveColumn, wave, replace);
+        long existing = have.isEmpty() ? 0 : WaveLoad.existingRows(c, table, waveColumn, wave, replace);
         List<String> staged = new ArrayList<>();
         StringBuilder defs = new StringBuilder("wavewarden_line bigint");
         for (int i = 0; i < rows.header.size(); i++) {
@@ -315,7 +279,7 @@ public final class CsvWaveImporter {
         try (Statement st = c.createStatement()) {
             st.execute("CREATE TEMP TABLE " + STAGING + " (" + defs + ") ON COMMIT DROP");
         }
-        long n = rows.copy(c, "COPY " + STAGING + " (wavewarden_line, " + String.join(", ", staged)
+        rows.copy(c, "COPY " + STAGING + " (wavewarden_line, " + String.join(", ", staged)
                 + ") FROM STDIN (FORMAT csv)", staged);
         List<String> matched = have.isEmpty() ? List.of() : match(rows.header, have);
         List<String> names = new ArrayList<>();
@@ -350,35 +314,16 @@ public final class CsvWaveImporter {
         }
         outcome.lines().forEach(l -> note(notes, l));
         Map<String, String> target = TableShape.existing(c, table);
-        deleteExisting(c, table, waveColumn, wave, existing);
-        List<String> insert = new ArrayList<>();
-        List<String> select = new ArrayList<>();
+        List<WaveLoad.Filled> filled = new ArrayList<>();
         for (int i = 0; i < names.size(); i++) {
-            if (names.get(i).equals(waveColumn)) {
-                continue;
+            if (!names.get(i).equals(waveColumn)) {
+                filled.add(new WaveLoad.Filled(names.get(i), cast(staged.get(i), target.get(names.get(i)))));
             }
-            insert.add(Identifiers.quote(names.get(i)));
-            select.add(cast("c" + (i + 1), target.get(names.get(i))));
         }
-        insert.add(Identifiers.quote(waveColumn));
-        select.add("CAST(? AS " + target.get(waveColumn) + ")");
-        Savepoint before = c.setSavepoint();
-        try (PreparedStatement ps = c.prepareStatement("INSERT INTO " + table.quoted() + " (" + String.join(", ",
-                insert) + ") SELECT " + String.join(", ", select) + " FROM " + STAGING)) {
-            ps.setString(1, wave);
-            ps.executeUpdate();
-        } catch (SQLException e) {
-            if (isBadInput(e)) {
-                c.rollback(before);
-                if (badWaveLabel(c, wave, target.get(waveColumn))) {
-                    throw badWave(wave, waveColumn, e);
-                }
-                // Only a column cast from text can hold the value the server names.
-                throw rowsDoNotFit(c, rows, table, staged, names, "wavewarden_line",
-                        i -> !cast(staged.get(i), target.get(names.get(i))).equals(staged.get(i)), e);
-            }
-            throw e;
-        }
+        // Only a column cast from text can hold the value the server names.
+        long n = WaveLoad.replaceWave(c, table, waveColumn, wave, existing, STAGING, filled, target.get(waveColumn),
+                e -> rowsDoNotFit(c, rows, table, staged, names, "wavewarden_line",
+                        i -> !cast(staged.get(i), target.get(names.get(i))).equals(staged.get(i)), e));
         return new Imported(wave, n);
     }
 
@@ -405,66 +350,6 @@ public final class CsvWaveImporter {
             return staged;
         }
         return "CAST(" + CsvColumnTypes.trimmed(staged) + " AS " + type + ")";
-    }
-
-    private static boolean badWaveLabel(Connection c, String wave, String type) throws SQLException {
-        Savepoint s = c.setSavepoint();
-        try (PreparedStatement ps = c.prepareStatement("SELECT CAST(? AS " + type + ")")) {
-            ps.setString(1, wave);
-            ps.execute();
-            c.releaseSavepoint(s);
-            return false;
-        } catch (SQLException e) {
-            c.rollback(s);
-            return true;
-        }
-    }
-
-    private static ConfigException badWave(String wave, String waveColumn, SQLException e) {
-        return new ConfigException("--wave", "'" + DataText.visible(wave) + "' is not a value the wave column "
-                + waveColumn + " can hold: " + serverMessage(e));
-    }
-
-    private static void lock(Connection c, TableName table, String wave) throws SQLException {
-        try (PreparedStatement ps = c.prepareStatement("SELECT pg_advisory_xact_lock(hashtext(?), hashtext(?))")) {
-            ps.setString(1, "wavewarden import " + table.quoted());
-            ps.setString(2, wave);
-            ps.execute();
-        }
-    }
-
-    private static long existingRows(Connection c, TableName table, String waveColumn, String wave,
-                                     boolean replace) throws SQLException {
-        long existing;
-        try (PreparedStatement ps = c.prepareStatement("SELECT count(*) FROM " + table.quoted() + " WHERE "
-                + Identifiers.quote(waveColumn) + "::text = ?")) {
-            ps.setString(1, wave);
-            try (ResultSet rs = ps.executeQuery()) {
-                rs.next();
-                existing = rs.getLong(1);
-            }
-        } catch (SQLException e) {
-            if ("42703".equals(e.getSQLState())) {
-                throw new ConfigException("waveColumn", "table " + table + " has no column " + waveColumn);
-            }
-            throw e;
-        }
-        if (existing > 0 && !replace) {
-            throw new ConfigException("--wave", "wave '" + DataText.visible(wave) + "' already has " + existing
-                    + " rows in " + table + "; pass --replace to load it again");
-        }
-        return existing;
-    }
-
-    private static void deleteExisting(Connection c, TableName table, String waveColumn, String wave, long existing)
-            throws SQLException {
-        if (existing > 0) {
-            try (PreparedStatement ps = c.prepareStatement("DELETE FROM " + table.quoted() + " WHERE "
-                    + Identifiers.quote(waveColumn) + "::text = ?")) {
-                ps.setString(1, wave);
-                ps.executeUpdate();
-            }
-        }
     }
 
     /** A staging column for the line numbers that no column of the table is called. */
@@ -507,7 +392,7 @@ public final class CsvWaveImporter {
             }
         }
         return new ImportRefusedException((where == null ? "the rows of " + rows.csv + " do not fit " + table
-                : where) + ": " + serverMessage(e) + "; nothing was imported");
+                : where) + ": " + WaveLoad.serverMessage(e) + "; nothing was imported");
     }
 
     private static String firstLine(Connection c, String sql, String value, int column, Rows rows)
@@ -660,18 +545,18 @@ public final class CsvWaveImporter {
         }
 
         private SQLException copyFailed(SQLException e, List<String> staged) {
-            if (!isBadInput(e)) {
+            if (!WaveLoad.isBadInput(e)) {
                 return e;
             }
             String where = e instanceof PSQLException p && p.getServerErrorMessage() != null
                     ? p.getServerErrorMessage().getWhere() : null;
             Matcher m = where == null ? null : COPY_WHERE.matcher(where);
             if (m == null || !m.find()) {
-                throw new ImportRefusedException(csv + ": " + serverMessage(e) + "; nothing was imported");
+                throw new ImportRefusedException(csv + ": " + WaveLoad.serverMessage(e) + "; nothing was imported");
             }
             long line = lineOf(Long.parseLong(m.group(1)));
             int column = m.group(2) == null ? 0 : staged.indexOf(m.group(2).strip()) + 1;
-            throw new ImportRefusedException(at(line, column) + ": " + serverMessage(e) + "; nothing was imported");
+            throw new ImportRefusedException(at(line, column) + ": " + WaveLoad.serverMessage(e) + "; nothing was imported");
         }
     }
 
@@ -704,21 +589,6 @@ public final class CsvWaveImporter {
                             : "windows-1252");
         }
         return new ImportRefusedException(s + "; nothing was imported");
-    }
-
-    /** Data exceptions (class 22) and integrity violations (class 23): the file's content, not the server, is wrong. */
-    static boolean isBadInput(SQLException e) {
-        String state = e.getSQLState();
-        return state != null && (state.startsWith("22") || state.startsWith("23"));
-    }
-
-    /** The server's own sentence, with data in it made visible and cut short. */
-    static String serverMessage(SQLException e) {
-        String m = e instanceof PSQLException p && p.getServerErrorMessage() != null
-                && p.getServerErrorMessage().getMessage() != null ? p.getServerErrorMessage().getMessage()
-                : e.getClass().getSimpleName();
-        String shown = DataText.visible(m);
-        return shown.length() > 300 ? shown.substring(0, 300) + "..." : shown;
     }
 
     static InputStream open(Path csv) throws IOException {

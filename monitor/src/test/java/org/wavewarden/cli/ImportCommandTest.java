@@ -276,6 +276,52 @@ class ImportCommandTest {
         assertEquals(0, count("SELECT count(*) FROM pg_class WHERE relname = 'household'"));
     }
 
+    /** The offset a refusal names, checked to lie inside the file it names. */
+    static long byteOffset(String message, long fileLength) {
+        java.util.regex.Matcher m = java.util.regex.Pattern.compile("byte offset (\\d+)").matcher(message);
+        assertTrue(m.find(), message);
+        long offset = Long.parseLong(m.group(1));
+        assertTrue(offset >= 0 && offset <= fileLength, message);
+        return offset;
+    }
+
+    @Test
+    void aSavFileCutShortIsRefusedAsBadInputNamingFileAndByteOffsetAndCreatesNoTable() throws Exception {
+        byte[] whole = Files.readAllBytes(fixture("household-q1.sav"));
+        // Cut inside the last case: the dictionary reads, so the import is under way when the cases stop short.
+        Path cut = Files.write(dir.resolve("household-cut.sav"), java.util.Arrays.copyOf(whole, whole.length - 5));
+        CliRun r = importWave(config, "2025-Q1", cut, "--create");
+        assertEquals(Main.USAGE, r.exitCode(), r.err());
+        assertTrue(r.err().contains("import refused: ") && r.err().contains("household-cut.sav"), r.err());
+        assertTrue(byteOffset(r.err(), whole.length - 5) > 0, r.err());
+        assertTrue(r.err().contains("nothing was imported"), r.err());
+        assertEquals(0, count("SELECT count(*) FROM pg_class WHERE relname = 'household'"));
+        assertTrue(codebooks().load("household", "2025-Q1").isEmpty());
+    }
+
+    @Test
+    void aSavFileCutShortAddsNoRowsToAnExistingTable() throws Exception {
+        Path q1 = fixture("household-q1.sav");
+        assertEquals(0, importWave(config, "2025-Q1", q1, "--create").exitCode());
+        byte[] whole = Files.readAllBytes(q1);
+        Path cut = Files.write(dir.resolve("household-cut.sav"), java.util.Arrays.copyOf(whole, whole.length - 5));
+        CliRun r = importWave(config, "2025-Q2", cut);
+        assertEquals(Main.USAGE, r.exitCode(), r.err());
+        assertEquals(0, count("SELECT count(*) FROM survey.household WHERE wave = '2025-Q2'"));
+        assertEquals(6, count("SELECT count(*) FROM survey.household"));
+        assertTrue(codebooks().load("household", "2025-Q2").isEmpty());
+    }
+
+    @Test
+    void aFileNamedSavThatIsNoSystemFileIsRefusedAsBadInputAndCreatesNoTable() throws Exception {
+        Path notSav = Files.writeString(dir.resolve("wave-q1.sav"), "id,region\n1,2\n2,5\n");
+        CliRun r = importWave(config, "2025-Q1", notSav, "--create");
+        assertEquals(Main.USAGE, r.exitCode(), r.err());
+        assertTrue(r.err().contains("import refused: ") && r.err().contains("wave-q1.sav"), r.err());
+        byteOffset(r.err(), Files.size(notSav));
+        assertEquals(0, count("SELECT count(*) FROM pg_class WHERE relname = 'household'"));
+    }
+
     @Test
     void aSavWaveLoadedAgainNeedsReplaceWhichReplacesRowsAndCodebook() throws Exception {
         Path q1 = fixture("household-q1.sav");
@@ -404,7 +450,7 @@ class ImportCommandTest {
 
     @Test
     void aFileOfUnknownKindOrOneThatIsNotThereIsRefusedNamingIt() throws Exception {
-        Path odd = Files.writeString(dir.resolve("wave.dat"), "id\n1\n");
+        Path odd = Files.writeString(dir.resolve("wave.txt"), "id\n1\n");
         CliRun r = importWave(config, "2025-Q1", odd);
         assertEquals(2, r.exitCode(), r.err());
         assertTrue(r.err().contains("config error at FILE") && r.err().contains(".sav"), r.err());

@@ -384,11 +384,7 @@ class CaseImporterTest {
             st.execute("SELECT pg_advisory_lock(hashtext('wavewarden create \"survey\".\"household\"'), 0)");
             runs.add(pool.submit(() -> load("2025-Q1", household(), q1(), false, true)));
             runs.add(pool.submit(() -> load("2025-Q2", household(), q1(), false, true)));
-            while (count("SELECT count(*) FROM pg_locks l JOIN pg_stat_activity a ON a.pid = l.pid"
-                    + " WHERE NOT l.granted AND l.locktype = 'advisory' AND a.datname = current_database()") < 2
-                    && runs.stream().noneMatch(Future::isDone)) {
-                Thread.sleep(20);
-            }
+            SmallSurveyImportTest.awaitWaiting(url, 2, "advisory", runs);
             st.execute("SELECT pg_advisory_unlock(hashtext('wavewarden create \"survey\".\"household\"'), 0)");
         }
         List<Boolean> created = new ArrayList<>();

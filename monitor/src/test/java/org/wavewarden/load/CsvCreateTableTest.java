@@ -2,24 +2,25 @@ package org.wavewarden.load;
 
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
-import org.junit.jupiter.api.io.TempDir;
 import org.wavewarden.codebook.DatasetCodebook;
 import org.wavewarden.codebook.StorageType;
 import org.wavewarden.codebook.VariableMeta;
 import org.wavewarden.config.ConfigException;
 import org.wavewarden.config.Identifiers.TableName;
-import org.wavewarden.testing.SmallSurvey;
 import org.wavewarden.testing.TestDatabase;
 
 import java.io.PrintWriter;
 import java.io.StringWriter;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.sql.Connection;
 import java.sql.SQLException;
+import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Executors;
+import java.util.concurrent.Future;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
@@ -30,17 +31,16 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
  * every row with its evidence printed (a codebook's storage types first); an existing table is never widened or
  * retyped.
  */
-class CsvCreateTableTest {
+class CsvCreateTableTest extends SmallSurveyImportTest {
 
-    @TempDir
-    Path dir;
-    String url;
     StringWriter notes;
 
+    CsvCreateTableTest() {
+        super("csvcreate");
+    }
+
     @BeforeEach
-    void database() throws Exception {
-        url = TestDatabase.freshDatabase("csvcreate");
-        SmallSurvey.createTable(url);
+    void notes() {
         notes = new StringWriter();
     }
 
@@ -66,19 +66,6 @@ class CsvCreateTableTest {
             }
         }
         return out;
-    }
-
-    String text(String sql) throws SQLException {
-        try (Connection c = TestDatabase.connect(url); var rs = c.createStatement().executeQuery(sql)) {
-            rs.next();
-            return rs.getString(1);
-        }
-    }
-
-    Path write(String name, String content) throws Exception {
-        Path p = dir.resolve(name);
-        Files.writeString(p, content);
-        return p;
     }
 
     static VariableMeta declared(String name, StorageType storage) {
@@ -209,5 +196,49 @@ class CsvCreateTableTest {
         var e = assertThrows(CsvWaveImporter.ImportRefusedException.class, () -> load("src.answers", csv, null));
         assertTrue(e.getMessage().contains("flags.csv line 3, column 2 (has_car): invalid input syntax for type"
                 + " boolean"), e.getMessage());
+    }
+
+    /** What one import printed and loaded. */
+    record Created(String notes, long rows) {
+    }
+
+    Created createWave(String wave, Path csv) throws Exception {
+        StringWriter printed = new StringWriter();
+        try (Connection c = TestDatabase.connect(url)) {
+            long rows = CsvWaveImporter.load(c, TableName.parse("table", "src.visits"), "wave", wave, csv, false,
+                    null, CsvWaveImporter.CsvFormat.detect(), true, null, new PrintWriter(printed, true)).rows();
+            return new Created(printed.toString(), rows);
+        }
+    }
+
+    @Test
+    void twoCreatingImportsOfDifferentWavesWaitForOneCreationLockAndOneCreatesTheTable() throws Exception {
+        Path first = write("visits-1.csv", "id,income\n1,1200\n2,2.5\n");
+        Path second = write("visits-2.csv", "id,income\n3,900\n4,1e3\n5,\n");
+        List<Future<Created>> runs = new ArrayList<>();
+        ExecutorService pool = Executors.newFixedThreadPool(2);
+        boolean bothWaited;
+        try (Connection gate = TestDatabase.connect(url); var st = gate.createStatement()) {
+            // The gate holds the table-creation lock every import takes (WaveLoad.lockTableCreation), so both
+            // imports have found no table before either may create it, whatever the scheduling.
+            st.execute("SELECT pg_advisory_lock(hashtext('wavewarden create \"src\".\"visits\"'), 0)");
+            runs.add(pool.submit(() -> createWave("w1", first)));
+            runs.add(pool.submit(() -> createWave("w2", second)));
+            bothWaited = awaitWaiting(url, 2, "advisory", runs);
+            st.execute("SELECT pg_advisory_unlock(hashtext('wavewarden create \"src\".\"visits\"'), 0)");
+        }
+        List<Created> done = new ArrayList<>();
+        for (Future<Created> f : runs) {
+            done.add(f.get());
+        }
+        pool.shutdown();
+        assertTrue(bothWaited, "an import created the table without the creation lock: " + done);
+        assertEquals(1, done.stream().filter(d -> d.notes().contains("created table src.visits")).count(),
+                done.toString());
+        assertEquals(1, done.stream().filter(d -> d.notes().contains("table src.visits exists and holds every"
+                + " column of the file")).count(), done.toString());
+        assertEquals(List.of(2L, 3L), done.stream().map(Created::rows).toList());
+        assertEquals(2, count("SELECT count(*) FROM src.visits WHERE wave = 'w1'"));
+        assertEquals(3, count("SELECT count(*) FROM src.visits WHERE wave = 'w2'"));
     }
 }

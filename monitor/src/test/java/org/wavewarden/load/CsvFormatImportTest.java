@@ -1,22 +1,15 @@
 package org.wavewarden.load;
 
-import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
-import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
 import org.wavewarden.testing.CliRun;
-import org.wavewarden.testing.SmallSurvey;
-import org.wavewarden.testing.TestDatabase;
 
 import java.io.ByteArrayOutputStream;
 import java.io.OutputStream;
 import java.nio.charset.Charset;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
-import java.sql.Connection;
-import java.sql.SQLException;
 import java.util.Locale;
 import java.util.zip.GZIPOutputStream;
 
@@ -29,48 +22,17 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
  * line, with the guess printed; every row it cannot load is refused with exit 2, naming the file, the line an
  * editor shows and the column's number and name.
  */
-class CsvFormatImportTest {
+class CsvFormatImportTest extends SmallSurveyImportTest {
 
     static final String HEADER = "respondent_id,score,region,satisfied,has_car,remark,spread\n";
     static final Charset WINDOWS_1252 = Charset.forName("windows-1252");
 
-    @TempDir
-    Path dir;
-    String url;
-    Path config;
-
-    @BeforeEach
-    void database() throws Exception {
-        url = TestDatabase.freshDatabase("csvformat");
-        SmallSurvey.createTable(url);
-        config = dir.resolve("survey.yaml");
-        Files.writeString(config, SmallSurvey.config(url, null));
+    CsvFormatImportTest() {
+        super("csvformat");
     }
 
     CliRun importWave(Path csv, String... options) {
-        String[] args = new String[5 + options.length + 1];
-        String[] head = {"import", "--config", config.toString(), "--wave", "w1"};
-        System.arraycopy(head, 0, args, 0, head.length);
-        System.arraycopy(options, 0, args, head.length, options.length);
-        args[args.length - 1] = csv.toString();
-        return CliRun.of(args);
-    }
-
-    String text(String sql) throws SQLException {
-        try (Connection c = TestDatabase.connect(url); var rs = c.createStatement().executeQuery(sql)) {
-            rs.next();
-            return rs.getString(1);
-        }
-    }
-
-    Path write(String name, byte[] content) throws Exception {
-        Path p = dir.resolve(name);
-        Files.write(p, content);
-        return p;
-    }
-
-    Path write(String name, String content) throws Exception {
-        return write(name, content.getBytes(StandardCharsets.UTF_8));
+        return importWave("w1", csv, options);
     }
 
     static byte[] concat(byte[]... parts) {

@@ -1,17 +1,13 @@
 package org.wavewarden.load;
 
-import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
-import org.junit.jupiter.api.io.TempDir;
 import org.wavewarden.testing.CliRun;
 import org.wavewarden.testing.SmallSurvey;
 import org.wavewarden.testing.TestDatabase;
 
 import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.sql.Connection;
-import java.sql.SQLException;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
@@ -24,42 +20,12 @@ import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 /** Importing a wave: the file's mistakes come back with file, line and column; a wave is loaded once. */
-class CsvImportTest {
+class CsvImportTest extends SmallSurveyImportTest {
 
     static final String HEADER = "respondent_id,score,region,satisfied,has_car,remark,spread\n";
 
-    @TempDir
-    Path dir;
-    String url;
-    Path config;
-
-    @BeforeEach
-    void database() throws Exception {
-        url = TestDatabase.freshDatabase("import");
-        SmallSurvey.createTable(url);
-        config = dir.resolve("survey.yaml");
-        Files.writeString(config, SmallSurvey.config(url, null));
-    }
-
-    CliRun importWave(String wave, Path csv) {
-        return CliRun.of("import", "--config", config.toString(), "--wave", wave, csv.toString());
-    }
-
-    long count(String sql) throws SQLException {
-        try (Connection c = TestDatabase.connect(url); var rs = c.createStatement().executeQuery(sql)) {
-            rs.next();
-            return rs.getLong(1);
-        }
-    }
-
-    Path write(String name, byte[] content) throws Exception {
-        Path p = dir.resolve(name);
-        Files.write(p, content);
-        return p;
-    }
-
-    Path write(String name, String content) throws Exception {
-        return write(name, content.getBytes(StandardCharsets.UTF_8));
+    CsvImportTest() {
+        super("import");
     }
 
     @Test
@@ -74,11 +40,7 @@ class CsvImportTest {
             st.execute("LOCK TABLE src.answers IN SHARE MODE");
             runs.add(pool.submit(() -> importWave("w1", csv)));
             runs.add(pool.submit(() -> importWave("w1", csv)));
-            while (count("SELECT count(*) FROM pg_locks l JOIN pg_stat_activity a ON a.pid = l.pid"
-                    + " WHERE NOT l.granted AND a.datname = current_database()") < 2
-                    && runs.stream().noneMatch(Future::isDone)) {
-                Thread.sleep(20);
-            }
+            awaitWaiting(url, 2, null, runs);
             gate.commit();
         }
         List<CliRun> done = new ArrayList<>();

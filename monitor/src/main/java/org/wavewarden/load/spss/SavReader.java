@@ -803,9 +803,10 @@ public final class SavReader implements CaseSource {
             for (Variable v : variables) {
                 metas.add(meta(v));
             }
-            String title = text(fileLabel).trim();
+            // Only the trailing blanks are padding; leading ones belong to the label as it was written.
+            String title = text(fileLabel);
             return new DatasetCodebook(fileName + ", SPSS system file written by " + product,
-                    title.isEmpty() ? null : title, metas);
+                    title.isBlank() ? null : title, metas);
         }
 
         private VariableMeta meta(Variable v) {

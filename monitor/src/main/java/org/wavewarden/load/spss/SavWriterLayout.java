@@ -157,7 +157,8 @@ final class SavWriterLayout {
     }
 
     static SavWriterLayout of(DatasetCodebook codebook) {
-        byte[] title = codebook.title() == null ? new byte[0] : utf8(codebook.title().strip());
+        // Trailing blanks would be lost in the label's blank padding anyway; leading ones are the title's own.
+        byte[] title = codebook.title() == null ? new byte[0] : utf8(codebook.title().stripTrailing());
         if (title.length > MAX_FILE_LABEL) {
             throw new IllegalArgumentException("the file label (the codebook's title) is " + title.length
                     + " bytes in UTF-8; a system file holds at most " + MAX_FILE_LABEL);

@@ -239,37 +239,9 @@ final class SavWriterReadBack {
             } else if (line.isBlank()) {
                 current = null;
             } else if (current != null) {
-                current.add(cells(line));
+                current.add(ToolReadback.csvFields(line));
             }
         }
-        return out;
-    }
-
-    private static List<String> cells(String line) {
-        List<String> out = new ArrayList<>();
-        StringBuilder cell = new StringBuilder();
-        boolean quoted = false;
-        for (int i = 0; i < line.length(); i++) {
-            char ch = line.charAt(i);
-            if (quoted) {
-                if (ch == '"' && i + 1 < line.length() && line.charAt(i + 1) == '"') {
-                    cell.append('"');
-                    i++;
-                } else if (ch == '"') {
-                    quoted = false;
-                } else {
-                    cell.append(ch);
-                }
-            } else if (ch == '"') {
-                quoted = true;
-            } else if (ch == ',') {
-                out.add(cell.toString());
-                cell.setLength(0);
-            } else {
-                cell.append(ch);
-            }
-        }
-        out.add(cell.toString());
         return out;
     }
 }

@@ -311,6 +311,34 @@ class SavWriterTest {
         assertArrayEquals(first, third, "only the creation date differs");
     }
 
+    @ParameterizedTest
+    @EnumSource(SavWriter.Compression.class)
+    void missingValuesOfAStringWiderThanEightBytesAreReadBackFromTheVariableRecord(
+            SavWriter.Compression compression) throws IOException {
+        VariableMeta comment = new VariableMeta("comment", null, StorageType.TEXT, 20, null, null, Measure.NOMINAL,
+                null, Map.of("DK", "Don't know"), List.of(new MissingCodeSpec("DK", "Don't know"),
+                new MissingCodeSpec("REFUSED", "refused"), new MissingCodeSpec("n/a", "not asked")), null, null);
+        Path file = dir.resolve("comment-" + compression + ".sav");
+        SavWriter.write(file, codebook(comment), rows("a comment of 20 byte", "REFUSED", "DK"), compression,
+                CREATED);
+        assertFalse(Dictionary.of(Files.readAllBytes(file)).extensions().containsKey(22),
+                "no long string missing values record: the values sit in the variable record");
+        try (SavReader reader = SavFiles.open(file)) {
+            VariableMeta read = reader.codebook().variables().get(0);
+            assertEquals(20, read.width());
+            // A value without a value label gets the reader's own reason: the file has no place for a reason.
+            assertEquals(List.of(new MissingCodeSpec("DK", "Don't know"),
+                    new MissingCodeSpec("REFUSED", SavReader.DECLARED_MISSING),
+                    new MissingCodeSpec("n/a", SavReader.DECLARED_MISSING)), read.missingCodes());
+            List<Object> values = new ArrayList<>();
+            Object[] row = new Object[1];
+            while (reader.next(row)) {
+                values.add(row[0]);
+            }
+            assertEquals(List.of("a comment of 20 byte", "REFUSED", "DK"), values);
+        }
+    }
+
     @Test
     void longNamesGetUniqueShortNamesAndANameThatFitsKeepsItsOwn() {
         List<String> shorts = SavWriter.shortNames(codebook(number("income_monthly_eur"), number("income_monthly_gbp"),

@@ -203,7 +203,8 @@ final class ToolReadback {
         return rows;
     }
 
-    private static List<String> csvFields(String line) {
+    /** One line of the comma-separated text PSPP prints, split as RFC 4180 quotes it. */
+    static List<String> csvFields(String line) {
         List<String> out = new ArrayList<>();
         StringBuilder cur = new StringBuilder();
         boolean quoted = false;
