@@ -21,4 +21,19 @@ public final class Codes {
         }
         return BigDecimal.valueOf(value).stripTrailingZeros().toPlainString();
     }
+
+    /**
+     * A code as a codebook file writes it, in the one text form: numbers of a numeric variable through
+     * {@link #of(double)} ("1.0" and "1" are the same answer), text codes and what does not parse as they are.
+     */
+    public static String of(String text, StorageType storage) {
+        if (storage == StorageType.NUMBER) {
+            try {
+                return of(Double.parseDouble(text));
+            } catch (IllegalArgumentException e) {
+                return text;
+            }
+        }
+        return text;
+    }
 }

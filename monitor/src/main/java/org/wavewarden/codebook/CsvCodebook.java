@@ -185,29 +185,18 @@ public final class CsvCodebook {
         }
         Map<String, String> seen = new java.util.HashMap<>();
         for (var e : d.codeAt.entrySet()) {
-            String before = seen.put(code(e.getKey(), storage), e.getKey());
+            String before = seen.put(Codes.of(e.getKey(), storage), e.getKey());
             if (before != null) {
                 throw new CodebookFormatException(file, e.getValue()[0], e.getValue()[1], "column code", "code '"
                         + e.getKey() + "' of " + d.name + " is listed twice (as '" + before + "' too)");
             }
         }
         Map<String, String> labels = new LinkedHashMap<>();
-        d.labels.forEach((k, v) -> labels.put(code(k, storage), v));
+        d.labels.forEach((k, v) -> labels.put(Codes.of(k, storage), v));
         List<MissingCodeSpec> missing = new ArrayList<>();
-        d.missing.forEach(m -> missing.add(new MissingCodeSpec(code(m[0], storage), m[1])));
+        d.missing.forEach(m -> missing.add(new MissingCodeSpec(Codes.of(m[0], storage), m[1])));
         return new VariableMeta(d.name, d.fields.get("label"), storage, null, null, null, measure,
                 d.fields.get("unit"), labels, missing, d.ranges, lo == null && hi == null ? null : new RangeSpec(lo, hi));
-    }
-
-    private static String code(String text, StorageType storage) {
-        if (storage == StorageType.NUMBER) {
-            try {
-                return Codes.of(Double.parseDouble(text));
-            } catch (IllegalArgumentException e) {
-                return text;
-            }
-        }
-        return text;
     }
 
     private static Double number(Path file, int line, Draft d, String field) throws CodebookFormatException {

@@ -293,7 +293,7 @@ final class DdiReader {
         List<MissingCodeSpec> missing = new ArrayList<>();
         Set<String> missingSeen = new HashSet<>();
         for (Category c : categories) {
-            String code = code(c.value, storage);
+            String code = Codes.of(c.value, storage);
             if (c.label != null) {
                 labels.putIfAbsent(code, c.label);
             }
@@ -303,7 +303,7 @@ final class DdiReader {
             }
         }
         for (String[] item : invalidItems) {
-            String code = code(item[0], storage);
+            String code = Codes.of(item[0], storage);
             if (missingSeen.add(code)) {
                 missing.add(new MissingCodeSpec(code, labels.getOrDefault(code,
                         item[1] != null ? item[1] : "declared invalid in the codebook")));
@@ -333,18 +333,6 @@ final class DdiReader {
 
     /** One {@code invalrng/range} with the {@code key} of its {@code invalrng}, when there is one. */
     private record InvalidRange(Double low, Double high, String key) {
-    }
-
-    /** A numeric code in the one text form of {@link Codes#of}, so "1.0" and "1" are the same answer. */
-    private static String code(String text, StorageType storage) {
-        if (storage == StorageType.NUMBER) {
-            try {
-                return Codes.of(Double.parseDouble(text));
-            } catch (IllegalArgumentException e) {
-                return text;
-            }
-        }
-        return text;
     }
 
     private Measure measure(String nature, String intrvl, String where) throws IOException {
