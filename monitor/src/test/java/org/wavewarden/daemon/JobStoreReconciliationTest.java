@@ -159,7 +159,13 @@ class JobStoreReconciliationTest {
             // Another instance on the older config starts, re-adds the retired dataset's job, and stops.
             try (Session o = Session.open(older, null, Map.of());
                  Daemon old = started(older, o, "older", new Firings())) {
-                assertEquals(3, jobRows(RETIRED), "job, schedule and redelivery triggers");
+                // The current instance shares the job store and fires every second: it may already have taken one
+                // of the re-added triggers (and with it the skip below) before this look, so the job is there, or
+                // its skip has been logged; exactly one skip line is required at the end either way.
+                long rows = jobRows(RETIRED);
+                assertTrue(rows == 3 || events(RETIRED).stream()
+                                .anyMatch(e -> e.getFormattedMessage().contains("was skipped")),
+                        "job, schedule and redelivery triggers, or the current instance's skip of them: " + rows);
             }
             await(() -> jobRows(RETIRED) == 0, "the current instance drops the unknown dataset's job when it fires");
             assertEquals(0, firings.of(RETIRED), "the current instance never judges it");
