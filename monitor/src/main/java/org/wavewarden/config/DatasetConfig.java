@@ -27,13 +27,15 @@ import java.util.List;
  * @param design       optional strata and cluster columns of the sampling design (needs {@code weightColumn})
  * @param relationships pairs of numeric variables whose correlation is compared between waves
  * @param codebook     optional codebook file whose variables are merged with {@code variables} (the YAML wins)
+ * @param population   a sample (the default), or a census or full register judged by the size of change alone
+ * @param alertRules   changes expected ahead and mute rules
  */
 public record DatasetConfig(String name, String table, String waveColumn, String tablePattern, WaveOrder waveOrder,
                             CompareWith compareWith, String schedule, List<String> exclude,
                             List<VariableConfig> variables, java.time.Duration quietPeriod, SinkSettings alerts,
                             String readyTable, String readyColumn, String weightColumn, String respondentKey,
                             ReleasesConfig releases, DesignColumns design, List<RelationshipConfig> relationships,
-                            CodebookSource codebook) {
+                            CodebookSource codebook, Population population, AlertRules alertRules) {
 
     public DatasetConfig {
         waveOrder = waveOrder == null ? WaveOrder.NATURAL : waveOrder;
@@ -43,6 +45,20 @@ public record DatasetConfig(String name, String table, String waveColumn, String
         quietPeriod = quietPeriod == null ? java.time.Duration.ZERO : quietPeriod;
         alerts = alerts == null ? SinkSettings.NONE : alerts;
         relationships = relationships == null ? List.of() : List.copyOf(relationships);
+        population = population == null ? Population.SAMPLE : population;
+        alertRules = alertRules == null ? AlertRules.NONE : alertRules;
+    }
+
+    /** A sample dataset without alert rules. */
+    public DatasetConfig(String name, String table, String waveColumn, String tablePattern, WaveOrder waveOrder,
+                         CompareWith compareWith, String schedule, List<String> exclude,
+                         List<VariableConfig> variables, java.time.Duration quietPeriod, SinkSettings alerts,
+                         String readyTable, String readyColumn, String weightColumn, String respondentKey,
+                         ReleasesConfig releases, DesignColumns design, List<RelationshipConfig> relationships,
+                         CodebookSource codebook) {
+        this(name, table, waveColumn, tablePattern, waveOrder, compareWith, schedule, exclude, variables, quietPeriod,
+                alerts, readyTable, readyColumn, weightColumn, respondentKey, releases, design, relationships,
+                codebook, null, null);
     }
 
     /** A dataset without a codebook. */
@@ -59,7 +75,7 @@ public record DatasetConfig(String name, String table, String waveColumn, String
     public DatasetConfig withVariables(List<VariableConfig> merged, CodebookSource source) {
         return new DatasetConfig(name, table, waveColumn, tablePattern, waveOrder, compareWith, schedule, exclude,
                 merged, quietPeriod, alerts, readyTable, readyColumn, weightColumn, respondentKey, releases, design,
-                relationships, source);
+                relationships, source, population, alertRules);
     }
 
     /** A dataset without relationships. */

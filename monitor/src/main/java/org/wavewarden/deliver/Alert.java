@@ -71,7 +71,7 @@ public record Alert(List<Finding> facets) {
                 case MISSING_RATE_CHANGE -> MISSING_RATE;
                 case COLUMN_ADDED, COLUMN_DROPPED, COLUMN_RETYPED -> SCHEMA;
                 case RELATIONSHIP_CHANGE -> RELATIONSHIP;
-                case EMPTY_WAVE -> WAVE;
+                case EMPTY_WAVE, SIGNED_WAVE_CHANGED -> WAVE;
                 case SKIPPED -> NOT_COMPARED;
                 default -> DATA_QUALITY;
             };

@@ -22,14 +22,61 @@ import com.fasterxml.jackson.annotation.JsonInclude;
  * @param dfConvention  how {@code df} was obtained (e.g. "Welch-Satterthwaite"), so the p-value can be reproduced
  * @param fdrFamilySize how many p-values the false-discovery-rate control adjusted together to give {@code qValue}
  * @param fdrMethod     the adjustment that gave {@code qValue}, e.g. BENJAMINI_HOCHBERG
+ * @param repeat        null for a finding that is news; otherwise why a finding worth a person raised no new alert
+ *                      (it says what the previous wave's finding said)
  */
 @JsonInclude(JsonInclude.Include.ALWAYS)
 public record Finding(String variable, String label, FindingKind kind, String test, Double statistic, Double pValue,
                       Double qValue, Effect effect, Verdict verdict, Long nBaseline, Long nCurrent, String sentence,
-                      Object detail, Double df, String dfConvention, Integer fdrFamilySize, String fdrMethod) {
+                      Object detail, Double df, String dfConvention, Integer fdrFamilySize, String fdrMethod,
+                      Repeat repeat) {
 
     /** An effect size as reported: estimate, interval and the threshold T it was judged against. */
     public record Effect(String name, double estimate, double ciLow, double ciHigh, double threshold) {
+
+        /**
+         * The smallest change these two waves could show at alpha, in the effect's units: the half-width of its
+         * interval. A change smaller than this cannot be told from none on these samples.
+         */
+        @com.fasterxml.jackson.annotation.JsonProperty("minimumDetectable")
+        public double minimumDetectable() {
+            return (ciHigh - ciLow) / 2;
+        }
+
+        /**
+         * Whether the samples can resolve the threshold at all: when the interval is wider than the band (-T, T),
+         * no estimate could be shown STABLE, so a quiet UNCERTAIN verdict says only that there are too few answers.
+         */
+        @com.fasterxml.jackson.annotation.JsonProperty("resolvable")
+        public boolean resolvable() {
+            return minimumDetectable() < threshold;
+        }
+    }
+
+    /**
+     * Why a finding worth a person raised no new alert: the previous wave's finding of the same variable and kind
+     * said the same thing.
+     *
+     * @param kind          what was repeated
+     * @param previousWave  the wave whose finding this one repeats
+     * @param firstWave     the first wave of the unbroken run of repeats (the wave that alerted)
+     */
+    public record Repeat(Kind kind, String previousWave, String firstWave) {
+
+        public enum Kind {
+            /** A data-quality finding unchanged from the previous wave: same kind, rate within its interval. */
+            STILL_PRESENT,
+            /** Still too few answers to resolve the threshold, and the verdict has not changed. */
+            STILL_UNRESOLVABLE
+        }
+    }
+
+    /** A finding that is news (no repeat). */
+    public Finding(String variable, String label, FindingKind kind, String test, Double statistic, Double pValue,
+                   Double qValue, Effect effect, Verdict verdict, Long nBaseline, Long nCurrent, String sentence,
+                   Object detail, Double df, String dfConvention, Integer fdrFamilySize, String fdrMethod) {
+        this(variable, label, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline, nCurrent, sentence,
+                detail, df, dfConvention, fdrFamilySize, fdrMethod, null);
     }
 
     /** A finding without a variable label. */
@@ -56,19 +103,31 @@ public record Finding(String variable, String label, FindingKind kind, String te
     /** The same finding with another sentence; every other field, the test's df and family included, is kept. */
     public Finding withSentence(String newSentence) {
         return new Finding(variable, label, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline,
-                nCurrent, newSentence, detail, df, dfConvention, fdrFamilySize, fdrMethod);
+                nCurrent, newSentence, detail, df, dfConvention, fdrFamilySize, fdrMethod, repeat);
     }
 
     /** The same finding with another detail; every other field is kept. */
     public Finding withDetail(Object newDetail) {
         return new Finding(variable, label, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline,
-                nCurrent, sentence, newDetail, df, dfConvention, fdrFamilySize, fdrMethod);
+                nCurrent, sentence, newDetail, df, dfConvention, fdrFamilySize, fdrMethod, repeat);
     }
 
     /** The same finding with the variable's label (null: none); every other field is kept. */
     public Finding withLabel(String variableLabel) {
         return new Finding(variable, variableLabel, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline,
-                nCurrent, sentence, detail, df, dfConvention, fdrFamilySize, fdrMethod);
+                nCurrent, sentence, detail, df, dfConvention, fdrFamilySize, fdrMethod, repeat);
+    }
+
+    /** The same finding marked as a repeat of the previous wave's (null: news); every other field is kept. */
+    public Finding withRepeat(Repeat newRepeat) {
+        return new Finding(variable, label, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline,
+                nCurrent, sentence, detail, df, dfConvention, fdrFamilySize, fdrMethod, newRepeat);
+    }
+
+    /** The same finding with another verdict (for example CLEARED); every other field is kept. */
+    public Finding withVerdict(Verdict newVerdict) {
+        return new Finding(variable, label, kind, test, statistic, pValue, qValue, effect, newVerdict, nBaseline,
+                nCurrent, sentence, detail, df, dfConvention, fdrFamilySize, fdrMethod, repeat);
     }
 
     /** Ranking for digests and alerts: verdict first, then size of the effect relative to its threshold. */

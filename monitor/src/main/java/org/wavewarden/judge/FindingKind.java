@@ -47,6 +47,11 @@ public enum FindingKind {
     DIGIT_PREFERENCE,
     /** A wave listed with no rows at all: a finding on the dataset; the wave is never a baseline. */
     EMPTY_WAVE,
+    /**
+     * A rerun of a signed-off wave changed its findings: the release was signed on other numbers. A finding on the
+     * whole wave.
+     */
+    SIGNED_WAVE_CHANGED,
     COLUMN_ADDED,
     COLUMN_DROPPED,
     COLUMN_RETYPED,

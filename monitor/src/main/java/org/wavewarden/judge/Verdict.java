@@ -1,7 +1,7 @@
 package org.wavewarden.judge;
 
 /**
- * The four outcomes of the verdict rule, most urgent first. The rule separates a change that is detectable
+ * The outcomes of the verdict rule, most urgent first, and CLEARED. The rule separates a change that is detectable
  * (significant after false-discovery-rate control) from one that is large enough to matter (beyond the
  * variable's threshold T), and says when the data cannot tell.
  */
@@ -13,7 +13,12 @@ public enum Verdict {
     /** Not significant, but the interval reaches beyond T: too little data to rule out a change that matters. */
     UNCERTAIN("cannot rule out a change that matters: too little data"),
     /** Not significant and the interval lies inside (-T, T): shown equivalent within T. */
-    STABLE("shown equivalent within the threshold");
+    STABLE("shown equivalent within the threshold"),
+    /**
+     * A missing rate or a sentinel's share that fell to zero: good news, reported as cleared and never alerted.
+     * Not an outcome of the verdict rule but of the direction of the change; last, so it is the least urgent.
+     */
+    CLEARED("fell to zero: the problem cleared");
 
     private final String meaning;
 

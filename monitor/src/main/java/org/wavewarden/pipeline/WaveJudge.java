@@ -41,6 +41,12 @@ import org.wavewarden.read.WaveScanner;
 import org.wavewarden.read.WaveSource;
 import org.wavewarden.store.OutboxStore;
 import org.wavewarden.store.ResultsStore;
+import org.wavewarden.store.AlertReviews;
+import org.wavewarden.store.SignOffs;
+import org.wavewarden.review.CreationRules;
+import org.wavewarden.review.SignOff;
+import org.wavewarden.review.SignOffDrift;
+import org.wavewarden.judge.Repeats;
 import org.wavewarden.store.WaveCodebooks;
 import org.wavewarden.codebook.CodebookMerge;
 import org.wavewarden.codebook.DatasetCodebook;
@@ -225,6 +231,7 @@ public final class WaveJudge {
         inference.addAll(judged.inference());
         List<Finding> findings = labelled(screened, FindingsFiles.ordered(withRelabelledCodes(judged.findings(),
                 screened, baselineCodebook, currentCodebook, codebookBaseline, wave)));
+        findings = marked(d, wave, against, findings);
         List<Alert> alerts = Alerts.group(findings);
         Instant finished = clock.instant();
         String fingerprint = org.wavewarden.config.ConfigFingerprint.of(cfg, d);
@@ -235,10 +242,38 @@ public final class WaveJudge {
         long runId = session.store().writeRun(new ResultsStore.RunWrite(d.name(), wave,
                         againstLabel == null ? "" : againstLabel, checksum, started, finished, cfg.alpha(),
                         cfg.fdr().name(), report.toolVersion(), fingerprint),
-                current, findings, alerts, inference, outputs);
+                current, findings, alerts, inference, outputs, CreationRules.decider(d, order, wave,
+                        java.time.LocalDate.ofInstant(finished, java.time.ZoneOffset.UTC),
+                        reviews().activeMutes(d.name(), java.time.LocalDate.ofInstant(finished,
+                                java.time.ZoneOffset.UTC))));
         // The summary the run stored becomes the baseline of later waves under this configuration.
         session.store().keySummary(d.name(), wave, checksum, SummaryKey.of(d, current.schema()).value());
         return new JudgedWave(report, runId, alerts);
+    }
+
+    private AlertReviews reviews() {
+        return new AlertReviews(session.store().jdbi(), session.config().results().schema());
+    }
+
+    /**
+     * The run's findings with what earlier records say about them: repeats of the previous wave's findings marked
+     * (they raise no new alert), and, when the wave was signed off on other findings, a SIGNED_WAVE_CHANGED finding.
+     */
+    private List<Finding> marked(DatasetConfig d, String wave, List<String> against, List<Finding> findings) {
+        String previousWave = against.size() == 1 ? against.get(0) : null;
+        List<Finding> out = new ArrayList<>(Repeats.mark(previousWave, previousWave == null ? List.of()
+                : currentFindings(d.name(), previousWave), findings));
+        Optional<SignOff> signed = new SignOffs(session.store().jdbi(), session.config().results().schema())
+                .latest(d.name(), wave);
+        signed.flatMap(so -> SignOffDrift.check(so, session.store().storedReport(so.runId())
+                .map(FindingsReport::findings).orElse(List.of()), out)).ifPresent(out::add);
+        return out;
+    }
+
+    /** The findings of a wave's current run, or none. */
+    private List<Finding> currentFindings(String dataset, String wave) {
+        return session.store().currentRun(dataset, wave).flatMap(r -> session.store().storedReport(r.runId()))
+                .map(FindingsReport::findings).orElse(List.of());
     }
 
     /**
@@ -264,7 +299,7 @@ public final class WaveJudge {
         return new DatasetConfig(d.name(), d.table(), d.waveColumn(), d.tablePattern(), d.waveOrder(),
                 d.compareWith(), d.schedule(), d.exclude(), merged.variables(), d.quietPeriod(), d.alerts(),
                 d.readyTable(), d.readyColumn(), d.weightColumn(), d.respondentKey(), d.releases(), d.design(),
-                d.relationships());
+                d.relationships(), null, d.population(), d.alertRules());
     }
 
     /**

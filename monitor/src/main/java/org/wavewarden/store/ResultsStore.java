@@ -144,6 +144,16 @@ public final class ResultsStore {
      */
     public long writeRun(RunWrite run, WaveProfile currentProfile, List<Finding> findings, List<Alert> alerts,
                          List<String> inference, OutboxStore.Outputs outputs) {
+        return writeRun(run, currentProfile, findings, alerts, inference, outputs, a -> Optional.empty());
+    }
+
+    /**
+     * The same, with what the configuration decides for each new alert when it is created (explained by an expected
+     * change, muted by a rule); an alert without a decision is created open.
+     */
+    public long writeRun(RunWrite run, WaveProfile currentProfile, List<Finding> findings, List<Alert> alerts,
+                         List<String> inference, OutboxStore.Outputs outputs,
+                         java.util.function.Function<Alert, Optional<org.wavewarden.review.CreationDecision>> decide) {
         return jdbi.inTransaction(h -> {
             saveSummary(h, run.dataset(), currentProfile, run.summaryChecksum());
             // Earlier runs of this wave on other data are superseded, with their alerts.
@@ -211,10 +221,10 @@ public final class ResultsStore {
         }
         PreparedBatch b = h.prepareBatch("INSERT INTO " + s + ".finding (run_id, variable, label, kind, test, statistic, p_value,"
                 + " q_value, effect_name, effect_estimate, effect_ci_low, effect_ci_high, effect_threshold, verdict,"
-                + " n_baseline, n_current, sentence, detail, df, df_convention, fdr_family_size, fdr_method) VALUES"
+                + " n_baseline, n_current, sentence, detail, df, df_convention, fdr_family_size, fdr_method, repeat) VALUES"
                 + " (:run, :variable, :label, :kind, :test, :statistic, :p, :q, :effectName, :estimate, :ciLow, :ciHigh,"
                 + " :threshold, :verdict, :nb, :nc, :sentence, CAST(:detail AS jsonb), :df, :dfConvention, :family,"
-                + " :fdrMethod)");
+                + " :fdrMethod, CAST(:repeat AS jsonb))");
         for (Finding f : findings) {
             Finding.Effect e = f.effect();
             b.bind("run", runId).bind("variable", f.variable()).bind("label", f.label()).bind("kind", f.kind().name()).bind("test", f.test())
@@ -229,6 +239,7 @@ public final class ResultsStore {
                     .bind("detail", Json.write(f.detail() == null ? java.util.Map.of() : f.detail()))
                     .bind("df", f.df()).bind("dfConvention", f.dfConvention())
                     .bind("family", f.fdrFamilySize()).bind("fdrMethod", f.fdrMethod())
+                    .bind("repeat", f.repeat() == null ? null : Json.write(f.repeat()))
                     .add();
         }
         b.execute();
@@ -261,7 +272,8 @@ public final class ResultsStore {
     private List<Finding> storedFindings(Handle h, long runId) {
         return h.createQuery("SELECT variable, label, kind, test, statistic, p_value, q_value, effect_name, effect_estimate,"
                         + " effect_ci_low, effect_ci_high, effect_threshold, verdict, n_baseline, n_current, sentence,"
-                        + " df, df_convention, fdr_family_size, fdr_method, detail::text AS detail FROM " + s + ".finding WHERE run_id = :run ORDER BY finding_id")
+                        + " df, df_convention, fdr_family_size, fdr_method, repeat::text AS repeat, detail::text AS detail FROM " + s
+                        + ".finding WHERE run_id = :run ORDER BY finding_id")
                 .bind("run", runId)
                 .map((rs, ctx) -> finding(rs, detail(FindingKind.valueOf(rs.getString("kind")),
                         rs.getString("detail"))))
@@ -270,7 +282,8 @@ public final class ResultsStore {
 
     /**
      * A finding from a result row with the finding table's column names (variable, label, kind, test, statistic, p_value,
-     * q_value, effect_*, verdict, n_baseline, n_current, sentence, df, df_convention, fdr_family_size, fdr_method).
+     * q_value, effect_*, verdict, n_baseline, n_current, sentence, df, df_convention, fdr_family_size, fdr_method,
+     * and optionally repeat as text).
      */
     static Finding finding(java.sql.ResultSet rs, Object detail) throws java.sql.SQLException {
         String effectName = rs.getString("effect_name");
@@ -283,7 +296,19 @@ public final class ResultsStore {
                 (Double) rs.getObject("statistic"), (Double) rs.getObject("p_value"), (Double) rs.getObject("q_value"),
                 effect, verdict == null ? null : Verdict.valueOf(verdict), (Long) rs.getObject("n_baseline"),
                 (Long) rs.getObject("n_current"), rs.getString("sentence"), detail, (Double) rs.getObject("df"),
-                rs.getString("df_convention"), (Integer) rs.getObject("fdr_family_size"), rs.getString("fdr_method"));
+                rs.getString("df_convention"), (Integer) rs.getObject("fdr_family_size"), rs.getString("fdr_method"),
+                repeat(rs));
+    }
+
+    private static Finding.Repeat repeat(java.sql.ResultSet rs) throws java.sql.SQLException {
+        java.sql.ResultSetMetaData meta = rs.getMetaData();
+        for (int i = 1; i <= meta.getColumnCount(); i++) {
+            if (meta.getColumnLabel(i).equals("repeat")) {
+                String json = rs.getString(i);
+                return json == null ? null : Json.read(json, Finding.Repeat.class);
+            }
+        }
+        return null;
     }
 
     private static Object detail(FindingKind kind, String json) {

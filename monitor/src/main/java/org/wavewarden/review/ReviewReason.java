@@ -1,0 +1,45 @@
+package org.wavewarden.review;
+
+import java.util.Arrays;
+import java.util.Locale;
+import java.util.Optional;
+
+/** Why an alert was explained or muted, in categories a release report can count. */
+public enum ReviewReason {
+    /** Expected from a change of the design, the mode or the questionnaire. */
+    PLANNED_CHANGE("planned-change", "expected from a design, mode or questionnaire change"),
+    /** A data error that is being fixed upstream. */
+    FIX_UPSTREAM("fix-upstream", "a data error being fixed upstream"),
+    /** Accepted as a real change in the population. */
+    REAL_CHANGE("real-change", "accepted as a real change"),
+    /** Looked at; not a problem. */
+    NO_PROBLEM("no-problem", "looked at: not a problem");
+
+    private final String key;
+    private final String meaning;
+
+    ReviewReason(String key, String meaning) {
+        this.key = key;
+        this.meaning = meaning;
+    }
+
+    /** The name used in the configuration, on the command line and in the results schema. */
+    public String key() {
+        return key;
+    }
+
+    public String meaning() {
+        return meaning;
+    }
+
+    public static Optional<ReviewReason> parse(String text) {
+        String t = text == null ? "" : text.trim().toLowerCase(Locale.ROOT);
+        return Arrays.stream(values()).filter(r -> r.key.equals(t) || r.name().toLowerCase(Locale.ROOT).equals(t))
+                .findFirst();
+    }
+
+    /** The keys, for error messages. */
+    public static String keys() {
+        return String.join(", ", Arrays.stream(values()).map(ReviewReason::key).toList());
+    }
+}
