@@ -43,16 +43,38 @@ public final class AlertReviews {
 
     /** The alerts the filter matches, oldest first. */
     public List<AlertView> list(Filter filter) {
-        throw new UnsupportedOperationException("to be written");
+        // Until alert histories exist, an alert's state is read from its row alone: superseded or open.
+        return jdbi.withHandle(h -> h.createQuery("SELECT alert_id, run_id, dataset, wave, against_wave, variable, kind,"
+                        + " verdict, sentence, facet_kinds, created_at, superseded_at FROM " + s + ".alert WHERE"
+                        + " (CAST(:d AS text) IS NULL OR dataset = :d) AND (CAST(:w AS text) IS NULL OR wave = :w)"
+                        + " AND (CAST(:v AS text) IS NULL OR verdict = :v) AND (CAST(:k AS text) IS NULL OR kind = :k"
+                        + " OR :k = ANY (facet_kinds)) AND (CAST(:st AS text) IS NULL OR (CASE WHEN superseded_at IS"
+                        + " NULL THEN 'OPEN' ELSE 'SUPERSEDED' END) = :st) ORDER BY alert_id")
+                .bind("d", filter.dataset()).bind("w", filter.wave()).bind("v", filter.verdict())
+                .bind("k", filter.kind()).bind("st", filter.state() == null ? null : filter.state().name())
+                .map((rs, ctx) -> new AlertView(rs.getLong("alert_id"), rs.getLong("run_id"), rs.getString("dataset"),
+                        rs.getString("wave"), rs.getString("against_wave"), rs.getString("variable"),
+                        rs.getString("kind"), rs.getString("verdict"), rs.getString("sentence"),
+                        List.of((String[]) rs.getArray("facet_kinds").getArray()),
+                        rs.getObject("created_at", java.time.OffsetDateTime.class).toInstant(),
+                        rs.getObject("superseded_at") == null ? AlertState.OPEN : AlertState.SUPERSEDED, null))
+                .list());
     }
 
     public Optional<AlertView> get(long alertId) {
-        throw new UnsupportedOperationException("to be written");
+        return list(Filter.ANY).stream().filter(a -> a.alertId() == alertId).findFirst();
     }
 
     /** The states of the given alerts, in one query. */
     public Map<Long, AlertState> states(Collection<Long> alertIds) {
-        throw new UnsupportedOperationException("to be written");
+        return jdbi.withHandle(h -> h.createQuery("SELECT alert_id, superseded_at IS NULL FROM " + s + ".alert WHERE"
+                        + " alert_id = ANY (CAST(:ids AS bigint[]))")
+                .bind("ids", alertIds.toArray(Long[]::new))
+                .reduceRows(new java.util.HashMap<Long, AlertState>(), (m, row) -> {
+                    m.put(row.getColumn(1, Long.class), row.getColumn(2, Boolean.class) ? AlertState.OPEN
+                            : AlertState.SUPERSEDED);
+                    return m;
+                }));
     }
 
     /** Every entry of an alert's history, oldest first. */
