@@ -266,7 +266,10 @@ public final class WaveJudge {
         Optional<SignOff> signed = new SignOffs(session.store().jdbi(), session.config().results().schema())
                 .latest(d.name(), wave);
         signed.flatMap(so -> SignOffDrift.check(so, session.store().storedReport(so.runId())
-                .map(FindingsReport::findings).orElse(List.of()), out)).ifPresent(out::add);
+                .map(FindingsReport::findings).orElse(List.of()), out)).ifPresent(changed -> {
+                    LOG.error("dataset {}: {}", d.name(), changed.sentence());
+                    out.add(changed);
+                });
         return out;
     }
 

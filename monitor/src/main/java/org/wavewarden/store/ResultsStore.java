@@ -21,8 +21,9 @@ import java.util.Optional;
 
 /**
  * Reads and writes the results schema. A judged wave is written in one transaction (run, findings, alerts), keyed
- * so that a rerun on the same data replaces its findings and adds no alert twice, and a rerun on changed data
- * supersedes the older run and its alerts. An alert row is one event ({@link Alert}): it is keyed and named by its
+ * so that a rerun on the same data under the same configuration keeps its run and findings and adds no alert twice,
+ * and a rerun on changed data, against another wave or under another configuration is a new run that supersedes the
+ * older run and its alerts. Nothing written is deleted; each alert's history is kept by {@link AlertReviews}. An alert row is one event ({@link Alert}): it is keyed and named by its
  * lead finding and lists the kinds of the event's other findings.
  */
 public final class ResultsStore {
@@ -31,9 +32,11 @@ public final class ResultsStore {
     private final String s;
 
     private final OutboxStore outbox;
+    private final String schemaName;
 
     public ResultsStore(Jdbi jdbi, String schema) {
         this.jdbi = jdbi;
+        this.schemaName = schema;
         this.s = Identifiers.quote(schema);
         this.outbox = new OutboxStore(jdbi, s);
     }
@@ -154,62 +157,80 @@ public final class ResultsStore {
     public long writeRun(RunWrite run, WaveProfile currentProfile, List<Finding> findings, List<Alert> alerts,
                          List<String> inference, OutboxStore.Outputs outputs,
                          java.util.function.Function<Alert, Optional<org.wavewarden.review.CreationDecision>> decide) {
+        AlertReviews reviews = new AlertReviews(jdbi, schemaName);
         return jdbi.inTransaction(h -> {
             saveSummary(h, run.dataset(), currentProfile, run.summaryChecksum());
-            // Earlier runs of this wave on other data are superseded, with their alerts.
-            h.createUpdate("UPDATE " + s + ".run SET superseded_at = now() WHERE dataset = :dataset AND wave = :wave"
-                            + " AND superseded_at IS NULL AND (summary_checksum <> :checksum OR against_wave <> :against)")
-                    .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("checksum", run.summaryChecksum())
-                    .bind("against", run.againstWave()).execute();
-            long runId = h.createQuery("INSERT INTO " + s + ".run (dataset, wave, against_wave, summary_checksum,"
-                            + " started_at, finished_at, alpha, fdr_method, findings_count, alerts_count, tool_version,"
-                            + " config_fingerprint) VALUES (:dataset, :wave, :against, :checksum, :started, :finished,"
-                            + " :alpha, :fdr, :nf, :na, :tool, :fingerprint)"
-                            + " ON CONFLICT ON CONSTRAINT run_key DO UPDATE SET finished_at = EXCLUDED.finished_at,"
-                            + " started_at = EXCLUDED.started_at, alpha = EXCLUDED.alpha, fdr_method = EXCLUDED.fdr_method,"
-                            + " tool_version = EXCLUDED.tool_version, config_fingerprint = EXCLUDED.config_fingerprint,"
-                            + " findings_count = EXCLUDED.findings_count, alerts_count = EXCLUDED.alerts_count,"
-                            + " superseded_at = NULL RETURNING run_id")
+            String fingerprint = run.configFingerprint() == null ? "" : run.configFingerprint();
+            // A run is judged data under a configuration: the same data judged under the same configuration again
+            // is the same run, kept with its findings as they were written (what was seen, explained or signed off
+            // stays what it was); other data, another baseline or another configuration is a new run.
+            Optional<Long> kept = h.createQuery("SELECT run_id FROM " + s + ".run WHERE dataset = :dataset AND"
+                            + " wave = :wave AND against_wave = :against AND summary_checksum = :checksum AND"
+                            + " coalesce(config_fingerprint, '') = :fingerprint FOR UPDATE")
                     .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("against", run.againstWave())
-                    .bind("checksum", run.summaryChecksum())
-                    .bind("started", OffsetDateTime.ofInstant(run.startedAt(), ZoneOffset.UTC))
-                    .bind("finished", OffsetDateTime.ofInstant(run.finishedAt(), ZoneOffset.UTC))
-                    .bind("alpha", run.alpha()).bind("fdr", run.fdrMethod())
-                    .bind("tool", run.toolVersion()).bind("fingerprint", run.configFingerprint())
-                    .bind("nf", findings.size()).bind("na", alerts.size())
-                    .mapTo(Long.class).one();
+                    .bind("checksum", run.summaryChecksum()).bind("fingerprint", fingerprint)
+                    .mapTo(Long.class).findOne();
+            h.createUpdate("UPDATE " + s + ".run SET superseded_at = now() WHERE dataset = :dataset AND wave = :wave"
+                            + " AND superseded_at IS NULL AND run_id <> :kept")
+                    .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("kept", kept.orElse(-1L)).execute();
+            long runId;
+            if (kept.isPresent()) {
+                runId = kept.get();
+                // Judged again after other data had replaced it, the run is current again.
+                h.createUpdate("UPDATE " + s + ".run SET superseded_at = NULL WHERE run_id = :run")
+                        .bind("run", runId).execute();
+            } else {
+                runId = h.createQuery("INSERT INTO " + s + ".run (dataset, wave, against_wave, summary_checksum,"
+                                + " started_at, finished_at, alpha, fdr_method, findings_count, alerts_count, tool_version,"
+                                + " config_fingerprint) VALUES (:dataset, :wave, :against, :checksum, :started, :finished,"
+                                + " :alpha, :fdr, :nf, :na, :tool, :fingerprint) RETURNING run_id")
+                        .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("against", run.againstWave())
+                        .bind("checksum", run.summaryChecksum())
+                        .bind("started", OffsetDateTime.ofInstant(run.startedAt(), ZoneOffset.UTC))
+                        .bind("finished", OffsetDateTime.ofInstant(run.finishedAt(), ZoneOffset.UTC))
+                        .bind("alpha", run.alpha()).bind("fdr", run.fdrMethod())
+                        .bind("tool", run.toolVersion()).bind("fingerprint", run.configFingerprint())
+                        .bind("nf", findings.size()).bind("na", alerts.size())
+                        .mapTo(Long.class).one();
+            }
             org.wavewarden.pipeline.FaultPoints.hit(org.wavewarden.pipeline.FaultPoints.INSIDE_WRITE);
-            h.createUpdate("DELETE FROM " + s + ".finding WHERE run_id = :run").bind("run", runId).execute();
-            insertFindings(h, runId, findings);
-            h.createUpdate("UPDATE " + s + ".alert SET superseded_at = now() WHERE dataset = :dataset AND wave = :wave"
-                            + " AND superseded_at IS NULL AND run_id <> :run")
-                    .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("run", runId).execute();
-            h.createUpdate("UPDATE " + s + ".alert SET superseded_at = now() WHERE run_id = :run AND superseded_at IS NULL"
-                            + " AND NOT ((variable, kind) IN (SELECT * FROM unnest(CAST(:vars AS text[]),"
-                            + " CAST(:kinds AS text[]))))")
-                    .bind("run", runId)
-                    .bind("vars", alerts.stream().map(Alert::variable).toArray(String[]::new))
-                    .bind("kinds", alerts.stream().map(a -> a.kind().name()).toArray(String[]::new))
-                    .execute();
-            // A rerun on the same data keeps the open alert (and so its deliveries) and takes the event's facets as
-            // now judged, which a rerun from before alerts were grouped did not record.
-            PreparedBatch b = h.prepareBatch("INSERT INTO " + s + ".alert (run_id, dataset, wave, against_wave, variable,"
-                    + " kind, verdict, sentence, facet_kinds) VALUES (:run, :dataset, :wave, :against, :variable, :kind,"
-                    + " :verdict, :sentence, CAST(:facets AS text[])) ON CONFLICT (dataset, wave, against_wave,"
-                    + " variable, kind) WHERE superseded_at IS NULL DO UPDATE SET facet_kinds = EXCLUDED.facet_kinds");
+            if (kept.isEmpty()) {
+                insertFindings(h, runId, findings);
+            }
+            // Alerts of this wave's other runs, and alerts of this run that it no longer raises, are superseded,
+            // each with an entry in its history.
+            reviews.supersede(h, "dataset = :dataset AND wave = :wave AND run_id <> :run",
+                    java.util.Map.of("dataset", run.dataset(), "wave", run.wave(), "run", runId), runId);
+            reviews.supersede(h, "run_id = :run AND NOT ((variable, kind) IN (SELECT * FROM unnest(CAST(:vars AS"
+                            + " text[]), CAST(:kinds AS text[]))))",
+                    java.util.Map.of("run", runId,
+                            "vars", alerts.stream().map(Alert::variable).toArray(String[]::new),
+                            "kinds", alerts.stream().map(a -> a.kind().name()).toArray(String[]::new)), runId);
+            // A rerun on the same data keeps the open alert (and so its deliveries and its history) and takes the
+            // event's facets as now judged, which a rerun from before alerts were grouped did not record. Only an
+            // alert inserted now gets its first entry: OPENED, or what the configuration decides.
             for (Alert a : alerts) {
-                b.bind("run", runId).bind("dataset", run.dataset()).bind("wave", run.wave())
+                java.util.Map<String, Object> row = h.createQuery("INSERT INTO " + s + ".alert (run_id, dataset, wave,"
+                                + " against_wave, variable, kind, verdict, sentence, facet_kinds) VALUES (:run, :dataset,"
+                                + " :wave, :against, :variable, :kind, :verdict, :sentence, CAST(:facets AS text[]))"
+                                + " ON CONFLICT (dataset, wave, against_wave, variable, kind) WHERE superseded_at IS NULL"
+                                + " DO UPDATE SET facet_kinds = EXCLUDED.facet_kinds"
+                                // xmax is 0 on a row version this statement inserted, not on one it updated.
+                                + " RETURNING alert_id, (xmax = 0) AS inserted")
+                        .bind("run", runId).bind("dataset", run.dataset()).bind("wave", run.wave())
                         .bind("against", run.againstWave()).bind("variable", a.variable()).bind("kind", a.kind().name())
                         .bind("verdict", a.verdict() == null ? null : a.verdict().name())
                         .bind("sentence", a.lead().sentence())
                         .bind("facets", a.otherKinds().stream().map(Enum::name).toArray(String[]::new))
-                        .add();
+                        .mapToMap().one();
+                if (Boolean.TRUE.equals(row.get("inserted"))) {
+                    reviews.created(h, ((Number) row.get("alert_id")).longValue(), decide.apply(a));
+                }
             }
-            if (!alerts.isEmpty()) {
-                b.execute();
+            if (kept.isEmpty()) {
+                h.createUpdate("UPDATE " + s + ".run SET inference = CAST(:inference AS jsonb) WHERE run_id = :run")
+                        .bind("run", runId).bind("inference", Json.write(inference)).execute();
             }
-            h.createUpdate("UPDATE " + s + ".run SET inference = CAST(:inference AS jsonb) WHERE run_id = :run")
-                    .bind("run", runId).bind("inference", Json.write(inference)).execute();
             outbox.add(h, run, runId, alerts, outputs);
             return runId;
         });

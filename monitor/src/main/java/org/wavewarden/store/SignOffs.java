@@ -1,10 +1,21 @@
 package org.wavewarden.store;
 
+import org.jdbi.v3.core.Handle;
 import org.jdbi.v3.core.Jdbi;
 import org.wavewarden.config.Identifiers;
+import org.wavewarden.deliver.Json;
+import org.wavewarden.review.AlertState;
+import org.wavewarden.review.AlertView;
+import org.wavewarden.review.ReviewException;
 import org.wavewarden.review.SignOff;
+import org.wavewarden.review.SignOffRule;
 
+import java.sql.ResultSet;
+import java.sql.SQLException;
+import java.time.Clock;
+import java.time.OffsetDateTime;
 import java.util.List;
+import java.util.Map;
 import java.util.Optional;
 
 /**
@@ -15,10 +26,17 @@ public final class SignOffs {
 
     private final Jdbi jdbi;
     private final String s;
+    private final AlertReviews reviews;
 
     public SignOffs(Jdbi jdbi, String schema) {
+        this(jdbi, schema, Clock.systemUTC());
+    }
+
+    /** With the clock whose UTC day decides whether a mute by date still holds when the wave is signed off. */
+    public SignOffs(Jdbi jdbi, String schema, Clock clock) {
         this.jdbi = jdbi;
         this.s = Identifiers.quote(schema);
+        this.reviews = new AlertReviews(jdbi, schema, clock);
     }
 
     /**
@@ -36,16 +54,72 @@ public final class SignOffs {
      * refused when the wave has no current run.
      */
     public SignOff signOff(Request request) {
-        throw new UnsupportedOperationException("to be written");
+        if (request.actor() == null || request.actor().isBlank()) {
+            throw new ReviewException("A sign-off names the person releasing the wave: no actor was given.");
+        }
+        if (request.force() && (request.forceReason() == null || request.forceReason().isBlank())) {
+            throw new ReviewException("Wave " + request.wave() + " of " + request.dataset() + " was not signed off:"
+                    + " forcing a sign-off needs a reason, which is recorded with it.");
+        }
+        return jdbi.inTransaction(h -> {
+            Map<String, Object> run = h.createQuery("SELECT run_id, config_fingerprint, tool_version FROM " + s
+                            + ".run WHERE dataset = :d AND wave = :w AND superseded_at IS NULL ORDER BY finished_at DESC"
+                            + " LIMIT 1 FOR SHARE")
+                    .bind("d", request.dataset()).bind("w", request.wave()).mapToMap().findOne()
+                    .orElseThrow(() -> new ReviewException("Wave " + request.wave() + " of " + request.dataset()
+                            + " was not signed off: it has not been judged (there is no current run to sign on)."));
+            // The wave's alerts are held while the decision is taken, so an action on one of them waits for the
+            // sign-off, and the states recorded are the states the decision was taken on.
+            h.createQuery("SELECT alert_id FROM " + s + ".alert WHERE dataset = :d AND wave = :w AND superseded_at IS"
+                            + " NULL FOR SHARE")
+                    .bind("d", request.dataset()).bind("w", request.wave()).mapTo(Long.class).list();
+            List<AlertView> current = reviews.list(h, new AlertReviews.Filter(request.dataset(), request.wave(), null,
+                    null, null), null).stream().filter(a -> a.state() != AlertState.SUPERSEDED).toList();
+            List<AlertView> blocking = SignOffRule.blocking(current);
+            if (!blocking.isEmpty() && !request.force()) {
+                throw new ReviewException(SignOffRule.refusal(request.dataset(), request.wave(), blocking));
+            }
+            // A forced sign-off with nothing blocking is recorded as what it is: not forced.
+            boolean forced = request.force() && !blocking.isEmpty();
+            return h.createQuery("INSERT INTO " + s + ".sign_off (dataset, wave, release, actor, run_id,"
+                            + " config_fingerprint, tool_version, forced, force_reason, alerts) VALUES (:d, :w, :release,"
+                            + " :actor, :run, :fingerprint, :tool, :forced, :reason, CAST(:alerts AS jsonb)) RETURNING *,"
+                            + " alerts::text AS alerts_text")
+                    .bind("d", request.dataset()).bind("w", request.wave())
+                    .bind("release", request.release() == null ? "" : request.release().trim())
+                    .bind("actor", request.actor().trim()).bind("run", ((Number) run.get("run_id")).longValue())
+                    .bind("fingerprint", (String) run.get("config_fingerprint"))
+                    .bind("tool", (String) run.get("tool_version")).bind("forced", forced)
+                    .bind("reason", forced ? request.forceReason().trim() : null)
+                    .bind("alerts", Json.write(current))
+                    .map((rs, ctx) -> signOff(rs))
+                    .one();
+        });
     }
 
     /** The latest sign-off of a wave. */
     public Optional<SignOff> latest(String dataset, String wave) {
-        return Optional.empty();
+        return jdbi.withHandle(h -> h.createQuery("SELECT *, alerts::text AS alerts_text FROM " + s + ".sign_off"
+                        + " WHERE dataset = :d AND wave = :w ORDER BY sign_off_id DESC LIMIT 1")
+                .bind("d", dataset).bind("w", wave)
+                .map((rs, ctx) -> signOff(rs))
+                .findOne());
     }
 
     /** Every sign-off of a dataset's waves (null: every dataset), oldest first. */
     public List<SignOff> all(String dataset) {
-        throw new UnsupportedOperationException("to be written");
+        return jdbi.withHandle(h -> h.createQuery("SELECT *, alerts::text AS alerts_text FROM " + s + ".sign_off"
+                        + " WHERE CAST(:d AS text) IS NULL OR dataset = :d ORDER BY sign_off_id")
+                .bind("d", dataset)
+                .map((rs, ctx) -> signOff(rs))
+                .list());
+    }
+
+    private static SignOff signOff(ResultSet rs) throws SQLException {
+        return new SignOff(rs.getLong("sign_off_id"), rs.getString("dataset"), rs.getString("wave"),
+                rs.getString("release"), rs.getString("actor"),
+                rs.getObject("signed_at", OffsetDateTime.class).toInstant(), rs.getLong("run_id"),
+                rs.getString("config_fingerprint"), rs.getString("tool_version"), rs.getBoolean("forced"),
+                rs.getString("force_reason"), List.of(Json.read(rs.getString("alerts_text"), AlertView[].class)));
     }
 }
