@@ -227,10 +227,10 @@ public final class ResultsStore {
                     reviews.created(h, ((Number) row.get("alert_id")).longValue(), decide.apply(a));
                 }
             }
-            if (kept.isEmpty()) {
-                h.createUpdate("UPDATE " + s + ".run SET inference = CAST(:inference AS jsonb) WHERE run_id = :run")
-                        .bind("run", runId).bind("inference", Json.write(inference)).execute();
-            }
+            // The notes on how the wave was read (a baseline summary reused or read again) describe the latest
+            // reading of the same data; they change no finding.
+            h.createUpdate("UPDATE " + s + ".run SET inference = CAST(:inference AS jsonb) WHERE run_id = :run")
+                    .bind("run", runId).bind("inference", Json.write(inference)).execute();
             outbox.add(h, run, runId, alerts, outputs);
             return runId;
         });
