@@ -23,8 +23,9 @@ import java.util.Optional;
  * Reads and writes the results schema. A judged wave is written in one transaction (run, findings, alerts), keyed
  * so that a rerun on the same data under the same configuration keeps its run and findings and adds no alert twice,
  * and a rerun on changed data, against another wave or under another configuration is a new run that supersedes the
- * older run and its alerts. Nothing written is deleted; each alert's history is kept by {@link AlertReviews}. An alert row is one event ({@link Alert}): it is keyed and named by its
- * lead finding and lists the kinds of the event's other findings.
+ * older run and its alerts. Nothing written is deleted; each alert's history is kept by {@link AlertReviews}. An
+ * alert row is one event ({@link Alert}): it is keyed and named by its lead finding and lists the kinds of the
+ * event's other findings.
  */
 public final class ResultsStore {
 
@@ -164,7 +165,7 @@ public final class ResultsStore {
             // A run is judged data under a configuration: the same data judged under the same configuration again
             // is the same run, kept with its findings as they were written (what was seen, explained or signed off
             // stays what it was); other data, another baseline or another configuration is a new run.
-            Optional<Long> kept = h.createQuery("SELECT run_id FROM " + s + ".run WHERE dataset = :dataset AND"
+            Optional<Long> existing = h.createQuery("SELECT run_id FROM " + s + ".run WHERE dataset = :dataset AND"
                             + " wave = :wave AND against_wave = :against AND summary_checksum = :checksum AND"
                             + " coalesce(config_fingerprint, '') = :fingerprint FOR UPDATE")
                     .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("against", run.againstWave())
@@ -172,18 +173,15 @@ public final class ResultsStore {
                     .mapTo(Long.class).findOne();
             h.createUpdate("UPDATE " + s + ".run SET superseded_at = now() WHERE dataset = :dataset AND wave = :wave"
                             + " AND superseded_at IS NULL AND run_id <> :kept")
-                    .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("kept", kept.orElse(-1L)).execute();
-            long runId;
-            if (kept.isPresent()) {
-                runId = kept.get();
-                // Judged again after other data had replaced it, the run is current again.
-                h.createUpdate("UPDATE " + s + ".run SET superseded_at = NULL WHERE run_id = :run")
-                        .bind("run", runId).execute();
-            } else {
-                runId = h.createQuery("INSERT INTO " + s + ".run (dataset, wave, against_wave, summary_checksum,"
+                    .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("kept", existing.orElse(-1L)).execute();
+            Optional<Long> inserted = Optional.empty();
+            if (existing.isEmpty()) {
+                // Another writer of the same run that committed meanwhile wins the key, and this one keeps its run.
+                inserted = h.createQuery("INSERT INTO " + s + ".run (dataset, wave, against_wave, summary_checksum,"
                                 + " started_at, finished_at, alpha, fdr_method, findings_count, alerts_count, tool_version,"
                                 + " config_fingerprint) VALUES (:dataset, :wave, :against, :checksum, :started, :finished,"
-                                + " :alpha, :fdr, :nf, :na, :tool, :fingerprint) RETURNING run_id")
+                                + " :alpha, :fdr, :nf, :na, :tool, :fingerprint) ON CONFLICT (dataset, wave, against_wave,"
+                                + " summary_checksum, (coalesce(config_fingerprint, ''))) DO NOTHING RETURNING run_id")
                         .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("against", run.againstWave())
                         .bind("checksum", run.summaryChecksum())
                         .bind("started", OffsetDateTime.ofInstant(run.startedAt(), ZoneOffset.UTC))
@@ -191,10 +189,22 @@ public final class ResultsStore {
                         .bind("alpha", run.alpha()).bind("fdr", run.fdrMethod())
                         .bind("tool", run.toolVersion()).bind("fingerprint", run.configFingerprint())
                         .bind("nf", findings.size()).bind("na", alerts.size())
-                        .mapTo(Long.class).one();
+                        .mapTo(Long.class).findOne();
+            }
+            boolean isNew = inserted.isPresent();
+            long runId = inserted.or(() -> existing).orElseGet(() -> h.createQuery("SELECT run_id FROM " + s
+                            + ".run WHERE dataset = :dataset AND wave = :wave AND against_wave = :against AND"
+                            + " summary_checksum = :checksum AND coalesce(config_fingerprint, '') = :fingerprint")
+                    .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("against", run.againstWave())
+                    .bind("checksum", run.summaryChecksum()).bind("fingerprint", fingerprint)
+                    .mapTo(Long.class).one());
+            if (!isNew) {
+                // Judged again after other data had replaced it, the run is current again.
+                h.createUpdate("UPDATE " + s + ".run SET superseded_at = NULL WHERE run_id = :run")
+                        .bind("run", runId).execute();
             }
             org.wavewarden.pipeline.FaultPoints.hit(org.wavewarden.pipeline.FaultPoints.INSIDE_WRITE);
-            if (kept.isEmpty()) {
+            if (isNew) {
                 insertFindings(h, runId, findings);
             }
             // Alerts of this wave's other runs, and alerts of this run that it no longer raises, are superseded,
