@@ -11,6 +11,8 @@ import org.junit.jupiter.params.provider.CsvSource;
 import org.wavewarden.config.ConfigLoader;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.deliver.Alert;
+import org.wavewarden.deliver.FindingsSchema;
+import org.wavewarden.deliver.Json;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
 import org.wavewarden.pipeline.JudgedWave;
@@ -205,6 +207,11 @@ class SignOffIntegrationTest {
         Alert alert = rerun.alerts().stream().filter(a -> a.kind() == FindingKind.SIGNED_WAVE_CHANGED).findFirst()
                 .orElseThrow(() -> new AssertionError("it is alerted: " + rerun.alerts()));
         assertEquals(changed, alert.lead());
+        // Stored with the run and written to findings.json like any finding, within the published schema.
+        var report = session.store().storedReport(rerun.runId()).orElseThrow();
+        assertTrue(report.findings().stream().anyMatch(f -> f.kind() == FindingKind.SIGNED_WAVE_CHANGED
+                && f.sentence().equals(changed.sentence())));
+        assertEquals(List.of(), FindingsSchema.problems(Json.mapper().valueToTree(report)));
         AlertView stored = reviews.list(new AlertReviews.Filter("hh", "w2", AlertState.OPEN, null,
                 "SIGNED_WAVE_CHANGED")).get(0);
         assertEquals(List.of(ReviewAction.OPENED), reviews.history(stored.alertId()).stream()
