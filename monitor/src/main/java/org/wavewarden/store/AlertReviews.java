@@ -211,6 +211,23 @@ public final class AlertReviews {
     }
 
     /**
+     * Opens an explained alert again (its explanation no longer holds, for example); the explanation stays in the
+     * history. Refused for an alert that is not explained: an open one is open, a muted one is unmuted.
+     */
+    public ReviewEntry reopen(long alertId, String actor, String note, String source) {
+        String who = actor(actor);
+        return jdbi.inTransaction(h -> {
+            AlertView a = lockedCurrent(h, alertId, "reopened");
+            if (a.state() != AlertState.EXPLAINED) {
+                throw new ReviewException("Alert " + alertId + " is not explained (it is " + a.state() + "): only an"
+                        + " explained alert is reopened" + (a.state() == AlertState.MUTED ? "; unmute a muted one."
+                        : "."));
+            }
+            return append(h, alertId, who, ReviewAction.REOPENED, null, note, source, null, null, null);
+        });
+    }
+
+    /**
      * The mute rules stored by commands for a dataset that have not been lifted and have not expired by date. A
      * rule's words name it ({@code mute rule 12}), so that an alert it mutes when created is linked to it and
      * opens again when the rule is lifted.

@@ -162,6 +162,23 @@ class AlertLifecycleIntegrationTest {
         assertEquals(List.of(ReviewAction.OPENED, ReviewAction.EXPLAINED), actions(scoreAlert));
     }
 
+    @Test
+    @Order(3)
+    void anExplainedAlertIsReopenedWithItsExplanationKeptAndExplainedAgain() {
+        ReviewException notExplained = assertThrows(ReviewException.class,
+                () -> reviews.reopen(heightAlert, "Maren Holt", null, "command"));
+        assertTrue(notExplained.getMessage().contains("is not explained (it is OPEN)"), notExplained.getMessage());
+        ReviewEntry reopened = reviews.reopen(scoreAlert, "Tobias Wren", "The scale change came a wave later.",
+                "command");
+        assertEquals(ReviewAction.REOPENED, reopened.action());
+        assertEquals(AlertState.OPEN, state(scoreAlert));
+        reviews.explain(scoreAlert, "Maren Holt", ReviewReason.PLANNED_CHANGE, "Scale change confirmed for w2.",
+                "command");
+        assertEquals(AlertState.EXPLAINED, state(scoreAlert));
+        assertEquals(List.of(ReviewAction.OPENED, ReviewAction.EXPLAINED, ReviewAction.REOPENED,
+                ReviewAction.EXPLAINED), actions(scoreAlert));
+    }
+
     @ParameterizedTest(name = "{0}")
     @Order(3)
     @CsvSource({
