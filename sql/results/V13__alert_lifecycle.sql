@@ -40,7 +40,9 @@ CREATE TABLE mute_rule_lift (
 
 -- Every action on an alert, oldest first by entry_id; the alert's state is what its latest entry leads to (see
 -- review.ReviewAction). Creation is an entry: OPENED, or EXPLAINED / MUTED when the configuration decided so.
--- mute_rule_id links a MUTED entry to the stored rule behind it, so that lifting the rule ends the mute.
+-- mute_rule_id links a MUTED entry to the stored rule behind it, so that lifting the rule ends the mute. The state
+-- is read, never stored (store.AlertReviews): a superseded alert row is SUPERSEDED; a MUTED entry past its
+-- until_date (UTC) or whose rule was lifted reads OPEN; an alert without entries reads OPEN.
 CREATE TABLE alert_action (
     entry_id      bigserial   PRIMARY KEY,
     alert_id      bigint      NOT NULL REFERENCES alert (alert_id),

@@ -289,7 +289,8 @@ public final class AlertReviews {
     }
 
     /**
-     * Marks the alerts of the given ids superseded by a run, with an entry each. Already superseded ones are left.
+     * Marks the alerts the condition selects (a fixed SQL condition over the alert table; values only as binds)
+     * superseded by a run, each with a SUPERSEDED entry naming the run. Already superseded ones are left as they are.
      */
     void supersede(Handle h, String whereAlerts, Map<String, Object> binds, long byRun) {
         var u = h.createUpdate("WITH sup AS (UPDATE " + s + ".alert SET superseded_at = now() WHERE superseded_at IS"
