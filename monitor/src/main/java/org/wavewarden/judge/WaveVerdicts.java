@@ -48,9 +48,12 @@ public final class WaveVerdicts {
                 .thenComparing(Finding::variable).thenComparing(f -> f.kind().name())).toList();
     }
 
-    /** The missing rate of one reason, as the detail of the variable's MISSING_RATE_CHANGE finding lists it. */
+    /**
+     * The missing rate of one reason, as the detail of the variable's MISSING_RATE_CHANGE finding lists it. In a
+     * complete enumeration p and q are null and the difference's interval is the difference itself.
+     */
     public record ReasonRate(String reason, double shareBaseline, double shareCurrent,
-                             org.wavewarden.compare.EffectSize difference, double pValue, double qValue,
+                             org.wavewarden.compare.EffectSize difference, Double pValue, Double qValue,
                              String verdict, String sentence, org.wavewarden.compare.WaveEstimates.Estimate baseline,
                              org.wavewarden.compare.WaveEstimates.Estimate current) {
     }
@@ -79,8 +82,12 @@ public final class WaveVerdicts {
             Finding top = ranked.get(0);
             List<ReasonRate> detail = ranked.stream().map(f -> {
                 var d = (VariableComparator.ProportionDetail) f.detail();
+                var rd = d.riskDifference();
+                // Judged by size (no test): a complete count has no sampling interval to list.
+                var difference = f.pValue() != null || rd == null ? rd : new org.wavewarden.compare.EffectSize(
+                        rd.name(), rd.estimate(), rd.estimate(), rd.estimate(), rd.confidence());
                 return new ReasonRate(d.successValue().replaceFirst("^missing \\((.*)\\)$", "$1"), d.shareBaseline(),
-                        d.shareCurrent(), d.riskDifference(), f.pValue(), f.qValue(), f.verdict().name(),
+                        d.shareCurrent(), difference, f.pValue(), f.qValue(), f.verdict().name(),
                         f.sentence(), d.plot().baseline().get(0), d.plot().current().get(0));
             }).toList();
             out.add(top.withDetail(detail));
