@@ -77,17 +77,25 @@ class DemoPowerAndDirectionTest {
     }
 
     /**
-     * New interviewers keyed 999 for 'not measured' in 2.69% of the 2024-Q3 interviews (demo-data/manifest.yaml,
-     * measured with R 4.2.2); in 2024-Q4 it is gone. Cohen's h of that fall, 2 asin(sqrt(0)) - 2 asin(sqrt(0.0269)),
-     * is -0.33 (R 4.2.2), beyond 0.2: the verdict rule alone made it MATERIAL.
+     * Each planted sentinel that disappears again (demo-data/manifest.yaml, shares measured with R 4.2.2): 999 for
+     * height in 2.69% of the 2024-Q3 interviews and 1.98% of 2025-Q2's, 1900-01-01 for the move-in date in 2.47% of
+     * 2024-Q4's. Cohen's h of a fall from p to none, 2 asin(sqrt(0)) - 2 asin(sqrt(p)) (R 4.2.2), is beyond 0.2
+     * each time, so the verdict rule alone made every one MATERIAL.
      */
-    @Test
-    void theSentinelThatDisappearedIsCleared() {
-        Finding f = finding("2024-Q4", "height_cm", FindingKind.MISSING_RATE_CHANGE).orElseThrow();
+    @ParameterizedTest(name = "{0} {1}: {2}% to none, h {3}")
+    @CsvSource({
+            "2024-Q4, height_cm,     2.7, -0.3295",   // R 4.2.2: -2 * asin(sqrt(0.0269))
+            "2025-Q3, height_cm,     2.0, -0.2824",   // R 4.2.2: -2 * asin(sqrt(0.0198))
+            "2025-Q1, move_in_date,  2.5, -0.3156",   // R 4.2.2: -2 * asin(sqrt(0.0247))
+    })
+    void aSentinelThatDisappearedIsCleared(String wave, String variable, String percent, double h) {
+        Finding f = finding(wave, variable, FindingKind.MISSING_RATE_CHANGE).orElseThrow(
+                () -> new AssertionError(BY_WAVE.get(wave).findings().toString()));
         assertEquals(Verdict.CLEARED, f.verdict(), f.sentence());
-        // The detector names the reason by what it found; the code itself is in the sentinel finding of 2024-Q3.
-        assertEquals("Cleared: the share missing (disguised: numeric sentinel) fell from 2.7% of rows to none this wave (-2.7 points);"
-                + " nothing is left to look at: CLEARED.", f.sentence());
-        assertEquals(-0.33, f.effect().estimate(), 0.005);
+        // The detector names the reason by what it found; the code itself is in the sentinel finding before.
+        assertTrue(f.sentence().matches("Cleared: the share missing \\(disguised: [a-z ]+\\) fell from " + percent
+                + "% of rows to none this wave \\(-" + percent + " points\\); nothing is left to look at: CLEARED\\."),
+                f.sentence());
+        assertEquals(h, f.effect().estimate(), 0.005, "shares rounded to 3 digits in the manifest");
     }
 }
