@@ -433,6 +433,12 @@ public final class WaveJudge {
         return judgeVariables(baseline, current, null, null, alpha, fdr, what, List.of());
     }
 
+    /** The same for two sides of a dataset observing {@code population} (a complete enumeration is judged by size). */
+    public static List<Finding> judgeVariables(ScreenedWave baseline, ScreenedWave current, double alpha,
+                                               WardenConfig.FdrMethod fdr, String what, Population population) {
+        return judgeVariables(baseline, current, null, null, alpha, fdr, what, List.of(), null, population);
+    }
+
     /**
      * The same with both sides' sampling designs (PSU sums; null for none), whose weighted comparisons then take
      * their variances from the strata and clusters, and with comparisons made elsewhere (the relationships of

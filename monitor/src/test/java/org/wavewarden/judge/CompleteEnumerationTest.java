@@ -91,4 +91,27 @@ class CompleteEnumerationTest {
                 + " shares are of all units, those that did not answer included; share missing (NULL) rose from 10.0%"
                 + " to 13.0% of units (+3.0 points); Cohen's h 0.094, below the 0.200 threshold: MINOR.", f.sentence());
     }
+
+    /**
+     * A relationship between two variables of a census is judged by size too. The difference of Spearman
+     * correlations of two weighted pair tables, reference R 4.2.2: cor(rep(x, n), rep(y, n), method = "spearman")
+     * is 0.20519567 before and -0.34759085 after, difference -0.55278652, beyond the 0.1 threshold.
+     */
+    @Test
+    void aRelationshipIsJudgedBySizeToo() {
+        double[] x = {1, 2, 3, 4, 5};
+        double[] y = {1, 2, 3, 4, 1};
+        var before = new org.wavewarden.profile.JointTally("x", "y", x, y, new long[] {10, 10, 10, 10, 10},
+                org.wavewarden.profile.Binning.EXACT);
+        var after = new org.wavewarden.profile.JointTally("x", "y", x, y, new long[] {10, 10, 10, 10, 30},
+                org.wavewarden.profile.Binning.EXACT);
+        Comparison c = org.wavewarden.compare.relation.RelationshipChange.compare("x ~ y", before, after, 0.1, "",
+                1 - ALPHA, 0, 0).comparison();
+        Finding f = Judge.judge(List.of(c), ALPHA, FdrMethod.BENJAMINI_HOCHBERG, Population.CENSUS).get(0);
+        assertEquals(-0.55278652, f.effect().estimate(), 1e-8);   // R 4.2.2, see above
+        assertEquals(Verdict.MATERIAL, f.verdict());
+        assertNull(f.pValue());
+        assertTrue(f.sentence().startsWith("Every unit was observed (census): the change is as large as it is, so no"
+                + " test is made; the Spearman correlation of x and y fell from 0.205 to -0.348"), f.sentence());
+    }
 }
