@@ -121,9 +121,9 @@ public final class Sentences {
         String threshold = thresholdText(c);
         String mde;
         if (c.thresholdSource().endsWith(" percentage points")) {
-            mde = String.format(Locale.ROOT, "%.1f percentage points", 100 * e.minimumDetectable());
+            mde = atLeast(100 * e.minimumDetectable(), 100 * e.threshold(), 1) + " percentage points";
         } else {
-            String v = num(e.minimumDetectable(), Math.max(2, decimals(e.minimumDetectable()) - 1));
+            String v = atLeast(e.minimumDetectable(), e.threshold(), Math.max(2, decimals(e.minimumDetectable()) - 1));
             boolean configuredRaw = c.thresholdSource().startsWith("configured ")
                     && !c.thresholdSource().contains(" on ");
             String unit = configuredRaw && threshold.contains(" ") ? threshold.substring(threshold.indexOf(' ')) : "";
@@ -132,6 +132,18 @@ public final class Sentences {
         return String.format(Locale.ROOT, "Too few answers to judge: with %,d and %,d answers, these waves can only"
                 + " show changes of at least %s; the threshold %s cannot be resolved at this sample size.",
                 c.nBaseline(), c.nCurrent(), mde, threshold);
+    }
+
+    /**
+     * v with at least {@code digits} decimals, more where fewer would print it at or below the threshold it exceeds
+     * (an MDE of 0.2004 against 0.2 reads "0.2004", never "0.20").
+     */
+    private static String atLeast(double v, double threshold, int digits) {
+        int d = digits;
+        while (d < 8 && v > threshold && Double.parseDouble(num(v, d)) <= threshold) {
+            d++;
+        }
+        return num(v, d);
     }
 
     /**

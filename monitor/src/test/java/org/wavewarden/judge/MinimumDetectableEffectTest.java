@@ -87,6 +87,33 @@ class MinimumDetectableEffectTest {
     }
 
     /**
+     * A threshold in the variable's own units is answered in them. Two waves of 40 answers with the same mean (0 to
+     * 39 around 100, Welch pinned): the detectable mean difference is the half-width of Welch's interval, reference
+     * R 4.2.2, diff(t.test(x, x)$conf.int) / 2 = 5.20420269 (exact: the same quantile and standard error).
+     */
+    @ParameterizedTest(name = "{0} answers, threshold {1} a year: MDE {2}")
+    @CsvSource({
+            "40, 5, 5.20420269",   // R 4.2.2: n <- 40; x <- 100 + ((0:(n-1)) * 37) %% n; diff(t.test(x, x)$conf.int) / 2
+    })
+    void aRawThresholdIsAnsweredInTheVariablesUnits(int n, double threshold, double halfWidth) {
+        double[] x = new double[n];
+        for (int i = 0; i < n; i++) {
+            x[i] = 100 + (i * 37 % n);
+        }
+        Comparison c = new VariableComparator(1 - ALPHA).numeric("mooring_fee", false, NumericDistribution.ofSample(x),
+                NumericDistribution.ofSample(x), new Threshold(threshold, null, null), "currency per year",
+                new org.wavewarden.compare.location.LocationTestChoice.Choice(
+                        org.wavewarden.compare.location.LocationTestChoice.LocationTest.WELCH_T, "pinned", null));
+        Finding f = judged(c);
+        assertEquals("mean difference", f.effect().name());
+        assertEquals(halfWidth, f.effect().minimumDetectable(), 1e-6);
+        assertEquals(Verdict.UNCERTAIN, f.verdict());
+        assertTrue(f.sentence().startsWith("Too few answers to judge: with 40 and 40 answers, these waves can only"
+                + " show changes of at least 5.20 currency per year (mean difference); the threshold 5 currency per"
+                + " year cannot be resolved at this sample size. "), f.sentence());
+    }
+
+    /**
      * A measure that cannot be negative needs its whole interval below T, so its detectable change is the whole
      * width. A 2 x 3 table of 300 and 300 with V = 0.035: the reference is R 4.2.2, chisq.test(m, correct =
      * FALSE)$statistic = 0.7326 and uniroot(function(l) pchisq(x2, 2, ncp = l) - 0.025)$root = ncp 5.9696, V's
