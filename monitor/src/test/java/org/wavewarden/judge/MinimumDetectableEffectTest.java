@@ -87,6 +87,32 @@ class MinimumDetectableEffectTest {
     }
 
     /**
+     * Cliff's delta is bounded by -1 and 1, but near no change its interval is close to symmetric, so its half-width
+     * stands for the significance boundary too. n answers a wave, 1 to n against 1.5 to n + 0.5 (delta 1 / n).
+     * Reference: R 4.2.2, the exact Mann-Whitney boundary 2 * qwilcox(0.975, n, n) / n^2 - 1. Tolerance 10%
+     * at 40, 5% at 200: the interval is built around the observed delta from its estimated variance, not from the
+     * exact null distribution.
+     */
+    @ParameterizedTest(name = "{0} answers a wave: MDE of Cliff's delta {1} (qwilcox), within {2} relative")
+    @CsvSource({
+            "40,  0.253750, 0.10",   // R 4.2.2: 2 * qwilcox(0.975, 40, 40) / 40^2 - 1
+            "200, 0.113250, 0.05",   // R 4.2.2: 2 * qwilcox(0.975, 200, 200) / 200^2 - 1
+    })
+    void cliffsDeltaNearNoChangeIsDetectableFromItsSignificanceBoundary(int n, double boundary, double tolerance) {
+        double[] b = new double[n];
+        double[] c = new double[n];
+        for (int i = 0; i < n; i++) {
+            b[i] = i + 1;
+            c[i] = i + 1.5;
+        }
+        EffectSize d = org.wavewarden.compare.rank.CliffsDelta.estimate(NumericDistribution.ofSample(b),
+                NumericDistribution.ofSample(c), 1 - ALPHA);
+        assertEquals(1.0 / n, d.estimate(), 1e-12);
+        Finding.Effect e = new Finding.Effect(d.name(), d.estimate(), d.ciLow(), d.ciHigh(), 0.147);
+        assertEquals(boundary, e.minimumDetectable(), tolerance * boundary);
+    }
+
+    /**
      * A threshold in the variable's own units is answered in them. Two waves of 40 answers with the same mean (0 to
      * 39 around 100, Welch pinned): the detectable mean difference is the half-width of Welch's interval, reference
      * R 4.2.2, diff(t.test(x, x)$conf.int) / 2 = 5.20420269 (exact: the same quantile and standard error).
