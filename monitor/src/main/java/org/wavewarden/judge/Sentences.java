@@ -129,6 +129,12 @@ public final class Sentences {
             String unit = configuredRaw && threshold.contains(" ") ? threshold.substring(threshold.indexOf(' ')) : "";
             mde = v + unit + " (" + e.name() + ")";
         }
+        if (c.kind() == FindingKind.REFERENCE) {
+            // A reference is a fixed value, not a second wave: only the current wave's answers count.
+            return String.format(Locale.ROOT, "Too few answers to judge: with %,d answers, this wave can only show"
+                    + " differences from the reference of at least %s; the threshold %s cannot be resolved at this"
+                    + " sample size.", c.nCurrent(), mde, threshold);
+        }
         return String.format(Locale.ROOT, "Too few answers to judge: with %,d and %,d answers, these waves can only"
                 + " show changes of at least %s; the threshold %s cannot be resolved at this sample size.",
                 c.nBaseline(), c.nCurrent(), mde, threshold);

@@ -140,6 +140,30 @@ class MinimumDetectableEffectTest {
     }
 
     /**
+     * A reference is a fixed value, so only the current wave's answers limit what can be shown. 30 answers from 11
+     * up against a reference mean of 25.5 (their own), threshold 2 (raw): the detectable difference is the half-width
+     * of the one-sample t interval, reference R 4.2.2, diff(t.test(0:29 + 11, mu = 25.5)$conf.int) / 2 = 3.28724673.
+     */
+    @ParameterizedTest(name = "{0} answers against a reference, threshold {1}: MDE {2}")
+    @CsvSource({
+            "30, 2, 3.28724673",   // R 4.2.2: diff(t.test(0:29 + 11, mu = 25.5)$conf.int) / 2
+    })
+    void aReferenceComparisonCountsOnlyTheCurrentWavesAnswers(int n, double threshold, double halfWidth) {
+        double[] x = new double[n];
+        for (int i = 0; i < n; i++) {
+            x[i] = 11 + i;
+        }
+        Comparison c = new VariableComparator(1 - ALPHA).referenceMean("score", NumericDistribution.ofSample(x),
+                11 + (n - 1) / 2.0, new Threshold(threshold, null, null), null);
+        Finding f = judged(c);
+        assertEquals(halfWidth, f.effect().minimumDetectable(), 1e-6);
+        assertEquals(Verdict.UNCERTAIN, f.verdict(), f.sentence());
+        assertTrue(f.sentence().startsWith("Too few answers to judge: with 30 answers, this wave can only show"
+                + " differences from the reference of at least 3.29 (mean difference from the reference); the"
+                + " threshold 2 cannot be resolved at this sample size. "), f.sentence());
+    }
+
+    /**
      * A measure that cannot be negative needs its whole interval below T, so its detectable change is the whole
      * width. A 2 x 3 table of 300 and 300 with V = 0.035: the reference is R 4.2.2, chisq.test(m, correct =
      * FALSE)$statistic = 0.7326 and uniroot(function(l) pchisq(x2, 2, ncp = l) - 0.025)$root = ncp 5.9696, V's
