@@ -31,7 +31,10 @@ public final class Judge {
         return judge(comparisons, alpha, method, Population.SAMPLE);
     }
 
-    /** The findings of a run over a dataset that observes {@code population}: tested for a sample, by size otherwise. */
+    /**
+     * The findings of a run over a dataset that observes {@code population}: tested for a sample, judged by size for
+     * a census or a full register.
+     */
     public static List<Finding> judge(List<Comparison> comparisons, double alpha, FdrMethod method,
                                       Population population) {
         if (population != null && population.complete()) {

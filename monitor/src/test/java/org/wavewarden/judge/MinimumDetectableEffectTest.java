@@ -119,7 +119,8 @@ class MinimumDetectableEffectTest {
      */
     @ParameterizedTest(name = "{0} answers, threshold {1} a year: MDE {2}")
     @CsvSource({
-            "40, 5, 5.20420269",   // R 4.2.2: n <- 40; x <- 100 + ((0:(n-1)) * 37) %% n; diff(t.test(x, x)$conf.int) / 2
+            // R 4.2.2: n <- 40; x <- 100 + ((0:(n-1)) * 37) %% n; diff(t.test(x, x)$conf.int) / 2
+            "40, 5, 5.20420269",
     })
     void aRawThresholdIsAnsweredInTheVariablesUnits(int n, double threshold, double halfWidth) {
         double[] x = new double[n];
