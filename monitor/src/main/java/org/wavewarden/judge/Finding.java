@@ -35,21 +35,43 @@ public record Finding(String variable, String label, FindingKind kind, String te
     public record Effect(String name, double estimate, double ciLow, double ciHigh, double threshold) {
 
         /**
-         * The smallest change these two waves could show at alpha, in the effect's units: the half-width of its
-         * interval. A change smaller than this cannot be told from none on these samples.
+         * The smallest change these two waves could show at alpha, in the effect's units: how narrow the effect's
+         * (1 - alpha) interval is, read against the band the verdict rule calls STABLE.
+         *
+         * <ul>
+         *   <li>A signed effect (Hedges' g, Cohen's d and h, risk and share differences in points, raw and
+         *   design-based mean differences, Cliff's delta, the difference of Spearman correlations): half the
+         *   interval's width. STABLE needs the interval inside (-T, T), which an interval of width 2T or more can
+         *   never be. Each of these intervals is close to symmetric around an estimate near zero, and an
+         *   UNCERTAIN estimate is near zero relative to its interval, so the half-width there is z times the
+         *   standard error under no change: the change a test at alpha detects half the time (its significance
+         *   boundary), which R's power.prop.test and power.t.test give at power 0.5.</li>
+         *   <li>A measure that cannot be negative (Cramér's V, Cohen's w, the KS distance): the whole width. Its
+         *   interval is [low, high] with low at least 0, STABLE needs it inside [0, T), and with no change the
+         *   interval starts at 0, so its upper end is the smallest value it could rule out: half of it would
+         *   promise twice the resolution the verdict rule can use.</li>
+         * </ul>
+         * A complete enumeration has no sampling interval (low = high = estimate), so every change is detectable: 0.
          */
         @com.fasterxml.jackson.annotation.JsonProperty("minimumDetectable")
         public double minimumDetectable() {
-            return (ciHigh - ciLow) / 2;
+            return nonNegative(name) ? ciHigh - ciLow : (ciHigh - ciLow) / 2;
         }
 
         /**
-         * Whether the samples can resolve the threshold at all: when the interval is wider than the band (-T, T),
-         * no estimate could be shown STABLE, so a quiet UNCERTAIN verdict says only that there are too few answers.
+         * Whether the samples can resolve the threshold at all: when the interval is too wide to fit inside the band
+         * the verdict rule calls STABLE, no estimate could be shown STABLE, so a quiet UNCERTAIN verdict says only
+         * that there are too few answers.
          */
         @com.fasterxml.jackson.annotation.JsonProperty("resolvable")
         public boolean resolvable() {
             return minimumDetectable() < threshold;
+        }
+
+        /** Effects measured from 0 up (a distance or an association strength), whose interval never goes below 0. */
+        static boolean nonNegative(String effectName) {
+            return effectName.startsWith("Cramér's V") || effectName.startsWith("Cohen's w")
+                    || effectName.startsWith("KS distance");
         }
     }
 

@@ -111,6 +111,97 @@ public final class Sentences {
         return s.toString();
     }
 
+    /**
+     * "Too few answers to judge: with 34 and 31 answers, these waves can only show changes of at least 0.50
+     * (Hedges' g); the threshold 0.2 cannot be resolved at this sample size." Said of an UNCERTAIN comparison whose
+     * interval is too wide to fit inside the threshold's band ({@link Finding.Effect#resolvable()}), in the units
+     * the threshold is stated in.
+     */
+    public static String tooFewAnswers(Comparison c, Finding.Effect e) {
+        String threshold = thresholdText(c);
+        String mde;
+        if (c.thresholdSource().endsWith(" percentage points")) {
+            mde = atLeast(100 * e.minimumDetectable(), 100 * e.threshold(), 1) + " percentage points";
+        } else {
+            String v = atLeast(e.minimumDetectable(), e.threshold(), Math.max(2, decimals(e.minimumDetectable()) - 1));
+            boolean configuredRaw = c.thresholdSource().startsWith("configured ")
+                    && !c.thresholdSource().contains(" on ");
+            String unit = configuredRaw && threshold.contains(" ") ? threshold.substring(threshold.indexOf(' ')) : "";
+            mde = v + unit + " (" + e.name() + ")";
+        }
+        if (c.kind() == FindingKind.REFERENCE) {
+            // A reference is a fixed value, not a second wave: only the current wave's answers count.
+            return String.format(Locale.ROOT, "Too few answers to judge: with %,d answers, this wave can only show"
+                    + " differences from the reference of at least %s; the threshold %s cannot be resolved at this"
+                    + " sample size.", c.nCurrent(), mde, threshold);
+        }
+        return String.format(Locale.ROOT, "Too few answers to judge: with %,d and %,d answers, these waves can only"
+                + " show changes of at least %s; the threshold %s cannot be resolved at this sample size.",
+                c.nBaseline(), c.nCurrent(), mde, threshold);
+    }
+
+    /**
+     * v with at least {@code digits} decimals, more where fewer would print it at or below the threshold it exceeds
+     * (an MDE of 0.2004 against 0.2 reads "0.2004", never "0.20").
+     */
+    private static String atLeast(double v, double threshold, int digits) {
+        int d = digits;
+        while (d < 8 && v > threshold && Double.parseDouble(num(v, d)) <= threshold) {
+            d++;
+        }
+        return num(v, d);
+    }
+
+    /**
+     * The sentence of a comparison in a complete enumeration, judged by size alone: "Every unit was observed
+     * (census): the change is as large as it is, so no test is made; mean of income rose from 2,000 to 2,100 (+100);
+     * Hedges' g 0.25, at or above the 0.2 threshold: MATERIAL." A missing rate says that its shares are of every
+     * unit, those who did not answer included, since in a complete enumeration nonresponse is missingness and not
+     * a sample's chance.
+     */
+    public static String bySize(Comparison c, Verdict verdict, org.wavewarden.config.Population population) {
+        Change ch = c.change();
+        boolean missingRate = c.kind() == FindingKind.MISSING_RATE_CHANGE && ch.percent();
+        StringBuilder s = new StringBuilder("Every unit was observed (")
+                .append(population == org.wavewarden.config.Population.REGISTER ? "full register" : "census")
+                .append("): the change is as large as it is, so no test is made");
+        if (missingRate) {
+            s.append(", and the shares are of all units, those that did not answer included");
+        }
+        s.append("; ");
+        String measure = c.kind() == FindingKind.RELATIONSHIP_CHANGE ? "the Spearman correlation of "
+                + ch.measure().replaceFirst("^Spearman rho of ", "") : ch.measure();
+        int digits = Math.max(decimals(ch.before()), Math.min(3, decimals(ch.estimate())));
+        String before = value(ch, ch.before(), digits);
+        String after = value(ch, ch.after(), digits);
+        s.append(measure).append(' ');
+        if (before.equals(after)) {
+            s.append("stayed at ").append(after);
+        } else {
+            s.append(ch.after() > ch.before() ? "rose" : "fell").append(" from ").append(before).append(" to ")
+                    .append(after);
+        }
+        s.append(missingRate ? " of units" : ch.percent() ? "" : unitSuffix(ch));
+        s.append(" (").append(signed(ch, ch.estimate())).append(ch.percent() ? " points" : unitSuffix(ch))
+                .append("); ");
+        s.append(c.effect().name()).append(' ').append(num(c.effect().estimate(), 3));
+        boolean beyond = Math.abs(c.effect().estimate()) >= c.threshold();
+        s.append(beyond ? ", at or above" : c.effect().estimate() == 0 ? ", no change against" : ", below")
+                .append(" the ").append(thresholdText(c)).append(" threshold");
+        s.append(": ").append(verdict.name()).append('.');
+        return s.toString();
+    }
+
+    /**
+     * "Cleared: the share missing (999) fell from 2.7% of rows to none this wave (-2.7 points); nothing is left to
+     * look at: CLEARED." A missing reason or sentinel that is gone is good news, not a change to look at.
+     */
+    public static String cleared(String measure, double shareBefore) {
+        return String.format(Locale.ROOT, "Cleared: the %s fell from %.1f%% of rows to none this wave (%+.1f points);"
+                + " nothing is left to look at: %s.", measure, 100 * shareBefore, -100 * shareBefore,
+                Verdict.CLEARED.name());
+    }
+
     /** The name Sentences gives the Hodges-Lehmann estimate beside two medians. */
     static final String HODGES_LEHMANN = "Hodges-Lehmann shift";
     /** A comparison whose change is a named shift says so in its note: "the shift is the ...". */

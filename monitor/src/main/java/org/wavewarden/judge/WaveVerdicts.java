@@ -29,8 +29,17 @@ public final class WaveVerdicts {
      */
     public static List<Finding> judge(List<Comparison> comparisons, Map<String, Double> relativeError, double alpha,
                                       WardenConfig.FdrMethod fdr) {
+        return judge(comparisons, relativeError, alpha, fdr, org.wavewarden.config.Population.SAMPLE);
+    }
+
+    /**
+     * The same for a dataset observing {@code population}: a complete enumeration's comparisons are judged by size
+     * ({@link Judge#bySize}) and form no false-discovery-rate family.
+     */
+    public static List<Finding> judge(List<Comparison> comparisons, Map<String, Double> relativeError, double alpha,
+                                      WardenConfig.FdrMethod fdr, org.wavewarden.config.Population population) {
         return withSummaryError(MissingRateContext.apply(shapeOnlyWhereLocationIsQuiet(onePerVariableAndKind(
-                Judge.judge(comparisons, alpha, fdr)))), relativeError);
+                Judge.judge(comparisons, alpha, fdr, population)))), relativeError);
     }
 
     /** Findings in reading order: most urgent verdict first, then by size relative to threshold, variable, kind. */
@@ -39,9 +48,12 @@ public final class WaveVerdicts {
                 .thenComparing(Finding::variable).thenComparing(f -> f.kind().name())).toList();
     }
 
-    /** The missing rate of one reason, as the detail of the variable's MISSING_RATE_CHANGE finding lists it. */
+    /**
+     * The missing rate of one reason, as the detail of the variable's MISSING_RATE_CHANGE finding lists it. In a
+     * complete enumeration p and q are null and the difference's interval is the difference itself.
+     */
     public record ReasonRate(String reason, double shareBaseline, double shareCurrent,
-                             org.wavewarden.compare.EffectSize difference, double pValue, double qValue,
+                             org.wavewarden.compare.EffectSize difference, Double pValue, Double qValue,
                              String verdict, String sentence, org.wavewarden.compare.WaveEstimates.Estimate baseline,
                              org.wavewarden.compare.WaveEstimates.Estimate current) {
     }
@@ -50,13 +62,17 @@ public final class WaveVerdicts {
      * Every missing reason of a variable is tested (and counted by the false-discovery-rate control), but a reader
      * gets one MISSING_RATE_CHANGE finding per variable: the most urgent reason, with every reason in its detail.
      * This keeps the alert key (dataset, wave, against, variable, kind) one row per variable.
+     *
+     * <p>A reason whose share fell to none this wave is CLEARED ({@link #clearedIfGone}), so the variable's finding
+     * is the most urgent reason still present, and only when every reason that moved is gone is the finding itself
+     * CLEARED.
      */
     public static List<Finding> onePerVariableAndKind(List<Finding> judged) {
         Map<String, List<Finding>> rates = new LinkedHashMap<>();
         List<Finding> out = new ArrayList<>();
         for (Finding f : judged) {
             if (f.kind() == FindingKind.MISSING_RATE_CHANGE) {
-                rates.computeIfAbsent(f.variable(), k -> new ArrayList<>()).add(f);
+                rates.computeIfAbsent(f.variable(), k -> new ArrayList<>()).add(clearedIfGone(f));
             } else {
                 out.add(f);
             }
@@ -66,13 +82,34 @@ public final class WaveVerdicts {
             Finding top = ranked.get(0);
             List<ReasonRate> detail = ranked.stream().map(f -> {
                 var d = (VariableComparator.ProportionDetail) f.detail();
+                var rd = d.riskDifference();
+                // Judged by size (no test): a complete count has no sampling interval to list.
+                var difference = f.pValue() != null || rd == null ? rd : new org.wavewarden.compare.EffectSize(
+                        rd.name(), rd.estimate(), rd.estimate(), rd.estimate(), rd.confidence());
                 return new ReasonRate(d.successValue().replaceFirst("^missing \\((.*)\\)$", "$1"), d.shareBaseline(),
-                        d.shareCurrent(), d.riskDifference(), f.pValue(), f.qValue(), f.verdict().name(),
+                        d.shareCurrent(), difference, f.pValue(), f.qValue(), f.verdict().name(),
                         f.sentence(), d.plot().baseline().get(0), d.plot().current().get(0));
             }).toList();
             out.add(top.withDetail(detail));
         });
         return out;
+    }
+
+    /**
+     * A missing reason (SQL NULL, a declared missing code, a blank, a sentinel the detector found) whose share fell
+     * from some to none is good news: CLEARED with a sentence that says so, whatever the size of the fall, so that
+     * the reason's disappearance is never alerted as a MATERIAL change. A rise from none, and any change that leaves
+     * some rows with the reason, keep their verdict. Shares of ordinary categories are not missing reasons and never
+     * come here.
+     */
+    static Finding clearedIfGone(Finding f) {
+        if (f.kind() != FindingKind.MISSING_RATE_CHANGE || f.verdict() == null
+                || !(f.detail() instanceof VariableComparator.ProportionDetail d)
+                || !(d.shareCurrent() == 0 && d.shareBaseline() > 0)) {
+            return f;
+        }
+        String measure = d.plot() == null ? "share " + d.successValue() : d.plot().statistic();
+        return f.withVerdict(Verdict.CLEARED).withSentence(Sentences.cleared(measure, d.shareBaseline()));
     }
 
     /**

@@ -126,7 +126,7 @@ public final class ReleaseJudge {
             ScreenedWave later = ScreenedWave.screen(sides.afterSelection().label(), a, null, variables, inference);
             ScreenedWave earlier = ScreenedWave.screen(sides.beforeSelection().label(), b, null, variables, List.of());
             return new ReleaseRevision.Distributions(inference, FindingsFiles.ordered(
-                    WaveJudge.judgeVariables(earlier, later, cfg.alpha(), cfg.fdr(), what)));
+                    WaveJudge.judgeVariables(earlier, later, cfg.alpha(), cfg.fdr(), what, d.population())));
         });
         return new ReleaseReport(d.name(), wave, sides.layout(), sides.beforeSelection().label(),
                 sides.afterSelection().label(), d.respondentKey(), clock.instant(), cfg.alpha(), cfg.fdr().name(),

@@ -15,6 +15,7 @@ import org.wavewarden.compare.relation.RelationshipFindings;
 import org.wavewarden.config.CompareWith;
 import org.wavewarden.config.ConfigException;
 import org.wavewarden.config.DatasetConfig;
+import org.wavewarden.config.Population;
 import org.wavewarden.config.VariableConfig;
 import org.wavewarden.config.VariableKind;
 import org.wavewarden.config.WardenConfig;
@@ -409,7 +410,7 @@ public final class WaveJudge {
         List<Finding> findings = new ArrayList<>(judgeVariables(screened.baseline(), screened.current(),
                 weighted && baseline != null ? baseline.design() : null, weighted ? current.design() : null,
                 cfg.alpha(), cfg.fdr(), d.name() + " wave " + current.wave(), relations,
-                history));
+                history, d.population()));
         findings.addAll(relationNotes);
         findings.addAll(SchemaFindings.of(SchemaChanges.between(baseline, current)));
         if (current.rows() == 0) {
@@ -435,6 +436,12 @@ public final class WaveJudge {
         return judgeVariables(baseline, current, null, null, alpha, fdr, what, List.of());
     }
 
+    /** The same for two sides of a dataset observing {@code population} (a complete enumeration is judged by size). */
+    public static List<Finding> judgeVariables(ScreenedWave baseline, ScreenedWave current, double alpha,
+                                               WardenConfig.FdrMethod fdr, String what, Population population) {
+        return judgeVariables(baseline, current, null, null, alpha, fdr, what, List.of(), null, population);
+    }
+
     /**
      * The same with both sides' sampling designs (PSU sums; null for none), whose weighted comparisons then take
      * their variances from the strata and clusters, and with comparisons made elsewhere (the relationships of
@@ -452,6 +459,19 @@ public final class WaveJudge {
                                                DesignSummary baselineDesign, DesignSummary currentDesign,
                                                double alpha, WardenConfig.FdrMethod fdr, String what,
                                                List<Comparison> alsoJudged, LocationHistory history) {
+        return judgeVariables(baseline, current, baselineDesign, currentDesign, alpha, fdr, what, alsoJudged, history,
+                Population.SAMPLE);
+    }
+
+    /**
+     * The same for a dataset observing {@code population}: a census or a full register is judged by the size of
+     * each change alone, with no test and no false-discovery-rate family ({@link org.wavewarden.judge.Judge}).
+     */
+    public static List<Finding> judgeVariables(ScreenedWave baseline, ScreenedWave current,
+                                               DesignSummary baselineDesign, DesignSummary currentDesign,
+                                               double alpha, WardenConfig.FdrMethod fdr, String what,
+                                               List<Comparison> alsoJudged, LocationHistory history,
+                                               Population population) {
         VariableComparator comparator = new VariableComparator(1 - alpha);
         WeightedComparator weighted = new WeightedComparator(1 - alpha);
         List<Comparison> comparisons = new ArrayList<>();
@@ -486,7 +506,8 @@ public final class WaveJudge {
             plain.addAll(myPlain);
         }
         comparisons.addAll(alsoJudged);
-        List<Finding> findings = new ArrayList<>(WaveVerdicts.judge(comparisons, summarised, alpha, fdr));
+        List<Finding> findings = new ArrayList<>(WaveVerdicts.judge(comparisons, summarised, alpha, fdr,
+                population == null ? Population.SAMPLE : population));
         findings.addAll(plain);
         return findings;
     }

@@ -254,4 +254,24 @@ class SentencesTest {
                 f.sentence());
         assertFalse(f.sentence().contains("rules out"), f.sentence());
     }
+
+    @Test
+    void aDetectableChangeJustAboveTheThresholdIsPrintedWithTheDigitsThatShowIt() {
+        Finding f = judgedAlone(comparison("fee", 0.9, new EffectSize("Hedges' g", 0, -0.2004, 0.2004, 0.95), 0.2,
+                new Change("mean fee", 1.0, 1.0, false, null, 0, -0.2004, 0.2004, "")));
+        assertEquals(Verdict.UNCERTAIN, f.verdict());
+        assertTrue(f.sentence().startsWith("Too few answers to judge: with "), f.sentence());
+        assertTrue(f.sentence().contains("can only show changes of at least 0.2004 (Hedges' g); the threshold 0.200"
+                + " cannot be resolved at this sample size. Mean fee stayed at"), f.sentence());
+    }
+
+    @Test
+    void aResolvableUncertainChangeSaysNothingAboutTooFewAnswers() {
+        // Half-width 0.15 fits inside the band of 0.2, but this interval reaches beyond it: more data would settle it.
+        Finding f = judgedAlone(comparison("fee", 0.4, new EffectSize("Hedges' g", 0.1, -0.05, 0.25, 0.95), 0.2,
+                new Change("mean fee", 1.0, 1.1, false, null, 0.1, -0.05, 0.25, "")));
+        assertEquals(Verdict.UNCERTAIN, f.verdict());
+        assertTrue(f.effect().resolvable());
+        assertTrue(f.sentence().startsWith("Mean fee rose"), f.sentence());
+    }
 }
