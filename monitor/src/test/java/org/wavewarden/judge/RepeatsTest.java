@@ -1,0 +1,251 @@
+package org.wavewarden.judge;
+
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.Arguments;
+import org.junit.jupiter.params.provider.CsvSource;
+import org.junit.jupiter.params.provider.MethodSource;
+import org.wavewarden.deliver.Alerts;
+
+import java.util.EnumSet;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import java.util.stream.Collectors;
+import java.util.stream.Stream;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertNull;
+import static org.junit.jupiter.api.Assertions.assertSame;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+/**
+ * A finding that says what the previous wave's finding said raises no new alert: a data-quality rate whose previous
+ * value lies in the current rate's 95% Wilson interval is still present, a state or the same unlabelled codes are
+ * still present, a change is always news, and a variable still too small to resolve its threshold stays quiet until
+ * its state changes.
+ */
+class RepeatsTest {
+
+    static final String BEFORE = "2025-Q1";
+
+    /** The detail of a finding in this run: a record, as the detectors give it. */
+    record Counted(long count, long rows) {
+    }
+
+    static Finding quality(String variable, FindingKind kind, Object detail) {
+        return Finding.dataQuality(variable, kind, 1000L, 1000L, "Some rows look like missing values.", detail);
+    }
+
+    static Finding shift(String variable, Verdict verdict, double estimate, double halfWidth) {
+        return new Finding(variable, FindingKind.SHIFT, "Welch t", 1.0, 0.3, 0.4,
+                new Finding.Effect("Hedges' g", estimate, estimate - halfWidth, estimate + halfWidth, 0.2), verdict,
+                35L, 37L, "The mean rose.", null);
+    }
+
+    /** The previous rate is compared with the interval of the current one: inside is still present, outside is news. */
+    @ParameterizedTest(name = "{0} of {1} now, {2} of {3} before: repeat {4}")
+    @CsvSource({
+            // The interval is R 4.2.2's prop.test(count, rows, correct = FALSE)$conf.int, which Wilson's interval is
+            // checked against in WilsonIntervalTest:
+            // 235 of 2500: [0.0831752397991923, 0.106070551762975]
+            "235, 2500, 208, 2500, true",    // 0.0832, just inside the lower limit
+            "235, 2500, 207, 2500, false",   // 0.0828, just below it
+            "235, 2500, 265, 2500, true",    // 0.1060, just inside the upper limit
+            "235, 2500, 266, 2500, false",   // 0.1064, just above it
+            // 27 of 1000: [0.018621382774295, 0.0389987307530402]
+            "27, 1000, 19, 1000, true",
+            "27, 1000, 18, 1000, false",
+            "27, 1000, 38, 1000, true",
+            "27, 1000, 39, 1000, false",     // 0.039 is just above 0.0389987
+            // 5 of 40: [0.054595002509454, 0.261121198388511]; the previous wave's size plays no part
+            "5, 40, 3, 40, true",
+            "5, 40, 2, 40, false",
+            "5, 40, 250, 1000, true",
+            "5, 40, 275, 1000, false",
+    })
+    void aRateIsStillPresentWhenThePreviousRateLiesInTheCurrentRatesWilsonInterval(long count, long rows,
+                                                                                   long previousCount,
+                                                                                   long previousRows,
+                                                                                   boolean repeat) {
+        // The previous run's detail comes back from the results schema as the JSON object it was stored as.
+        Finding previous = quality("occupation", FindingKind.BLANK, Map.of("count", previousCount,
+                "rows", previousRows));
+        Finding now = quality("occupation", FindingKind.BLANK, new Counted(count, rows));
+        Finding marked = Repeats.mark(BEFORE, List.of(previous), List.of(now)).get(0);
+        assertEquals(repeat, marked.repeat() != null, marked.sentence());
+        assertEquals(repeat, !Alerts.worthAPerson(marked));
+    }
+
+    /**
+     * Every data-quality kind, reported again in the next wave with the same detail: whether it repeats, and why.
+     * The detail holds every field any kind reads (a rate and codes), so only the kind decides.
+     */
+    static final Map<FindingKind, String> AGAIN = new LinkedHashMap<>();
+
+    static {
+        // A level with a rate: the same rate is within its own interval.
+        for (FindingKind k : List.of(FindingKind.BLANK, FindingKind.INVISIBLE, FindingKind.PLACEHOLDER,
+                FindingKind.PATTERN_OUTLIER, FindingKind.NUMERIC_SENTINEL, FindingKind.OUT_OF_RANGE_SENTINEL,
+                FindingKind.TEXT_IN_NUMERIC, FindingKind.SENTINEL_DATE, FindingKind.INLIER_SPIKE,
+                FindingKind.OUT_OF_RANGE)) {
+            AGAIN.put(k, "STILL_PRESENT");
+        }
+        // A state of the column: the same state again.
+        AGAIN.put(FindingKind.ALL_NULL, "STILL_PRESENT");
+        AGAIN.put(FindingKind.CONSTANT, "STILL_PRESENT");
+        AGAIN.put(FindingKind.TOO_MANY_DISTINCT, "STILL_PRESENT");
+        // The same codes without a label.
+        AGAIN.put(FindingKind.CODE_UNLABELLED, "STILL_PRESENT");
+        // Never alerted, so there is nothing to hold back.
+        AGAIN.put(FindingKind.MISSING_CODE, "not alerted");
+        // Changes against the baseline: news each time they are reported.
+        for (FindingKind k : List.of(FindingKind.MISSING_RATE_CHANGE, FindingKind.CODE_APPEARED,
+                FindingKind.CODE_VANISHED, FindingKind.LABEL_CHANGED, FindingKind.HEAPING,
+                FindingKind.DIGIT_PREFERENCE, FindingKind.EMPTY_WAVE, FindingKind.SIGNED_WAVE_CHANGED,
+                FindingKind.COLUMN_ADDED, FindingKind.COLUMN_DROPPED, FindingKind.COLUMN_RETYPED)) {
+            AGAIN.put(k, "news");
+        }
+    }
+
+    static Stream<Arguments> dataQualityKinds() {
+        return AGAIN.entrySet().stream().map(e -> Arguments.of(e.getKey(), e.getValue()));
+    }
+
+    @Test
+    void everyDataQualityKindIsDecided() {
+        Set<FindingKind> dataQuality = EnumSet.allOf(FindingKind.class).stream().filter(FindingKind::isDataQuality)
+                .collect(Collectors.toCollection(() -> EnumSet.noneOf(FindingKind.class)));
+        assertEquals(dataQuality, AGAIN.keySet());
+    }
+
+    @ParameterizedTest(name = "{0} reported again: {1}")
+    @MethodSource("dataQualityKinds")
+    void aDataQualityKindReportedAgainUnchanged(FindingKind kind, String expected) {
+        Map<String, Object> detail = Map.of("count", 50, "rows", 1000, "codes", List.of("7"), "counts", List.of(50));
+        Finding previous = quality("children", kind, detail);
+        Finding now = quality("children", kind, detail);
+        Finding marked = Repeats.mark(BEFORE, List.of(previous), List.of(now)).get(0);
+        switch (expected) {
+            case "STILL_PRESENT" -> {
+                assertEquals(new Finding.Repeat(Finding.Repeat.Kind.STILL_PRESENT, BEFORE, BEFORE), marked.repeat());
+                assertFalse(Alerts.worthAPerson(marked));
+            }
+            case "news" -> {
+                assertSame(now, marked);
+                assertTrue(Alerts.worthAPerson(marked));
+            }
+            default -> {
+                assertSame(now, marked);
+                assertFalse(Alerts.worthAPerson(marked));
+            }
+        }
+    }
+
+    @ParameterizedTest(name = "previous codes {0}, now {1}: repeat {2}")
+    @CsvSource(delimiter = ';', value = {
+            "7; 7; true",
+            "7,8; 8; true",
+            "7; 7,8; false",     // code 8 newly without a label is news
+            "8; 7; false",
+    })
+    void unlabelledCodesAreStillPresentOnlyWhenNoCodeIsNew(String before, String now, boolean repeat) {
+        Finding previous = quality("main_activity", FindingKind.CODE_UNLABELLED,
+                Map.of("codes", List.of(before.split(","))));
+        Finding current = quality("main_activity", FindingKind.CODE_UNLABELLED,
+                Map.of("codes", List.of(now.split(","))));
+        assertEquals(repeat, Repeats.mark(BEFORE, List.of(previous), List.of(current)).get(0).repeat() != null);
+    }
+
+    @Test
+    void aRateIsOnlyComparedWithTheSameVariableAndKind() {
+        Finding otherVariable = quality("height_cm", FindingKind.NUMERIC_SENTINEL, Map.of("count", 50, "rows", 1000));
+        Finding otherKind = quality("children", FindingKind.PLACEHOLDER, Map.of("count", 50, "rows", 1000));
+        Finding now = quality("children", FindingKind.NUMERIC_SENTINEL, new Counted(50, 1000));
+        assertSame(now, Repeats.mark(BEFORE, List.of(otherVariable, otherKind), List.of(now)).get(0));
+    }
+
+    @ParameterizedTest(name = "detail {0}")
+    @CsvSource(delimiter = ';', value = {
+            "{}",
+            "{\"count\": 5}",
+            "{\"count\": 5, \"rows\": 0}",
+            "{\"count\": 50, \"rows\": 40}",
+            "{\"count\": -1, \"rows\": 40}",
+            "{\"count\": \"5\", \"rows\": \"40\"}",
+            "{\"count\": 2.5, \"rows\": 40}",
+    })
+    void aDetailWithoutAUsableRateIsNeverARepeatAndNeverACrash(String json) {
+        Object bad = org.wavewarden.deliver.Json.read(json, Object.class);
+        Finding previous = quality("children", FindingKind.NUMERIC_SENTINEL, bad);
+        Finding now = quality("children", FindingKind.NUMERIC_SENTINEL, bad);
+        assertNull(Repeats.mark(BEFORE, List.of(previous), List.of(now)).get(0).repeat());
+    }
+
+    @ParameterizedTest(name = "{0} then {3}: repeat {6}")
+    @CsvSource({
+            // previous verdict, estimate, half-width; current verdict, estimate, half-width; repeat (T = 0.2)
+            "UNCERTAIN, 0.10, 0.35, UNCERTAIN, 0.39, 0.47, true",   // both intervals wider than the band
+            "UNCERTAIN, 0.10, 0.15, UNCERTAIN, 0.15, 0.35, false",  // the previous wave could resolve T
+            "UNCERTAIN, 0.10, 0.35, UNCERTAIN, 0.15, 0.15, false",  // this wave can: not a repeat (and resolvable)
+            "STABLE,    0.01, 0.15, UNCERTAIN, 0.10, 0.35, false",  // the verdict changed
+            "MATERIAL,  0.60, 0.35, UNCERTAIN, 0.10, 0.35, false",
+            "UNCERTAIN, 0.10, 0.35, MATERIAL,  0.60, 0.35, false",
+    })
+    void aVariableTooSmallToJudgeAlertsOnlyWhenItsStateChanges(Verdict was, double wasEstimate, double wasHalf,
+                                                              Verdict is, double isEstimate, double isHalf,
+                                                              boolean repeat) {
+        Finding previous = shift("mooring_fee", was, wasEstimate, wasHalf);
+        Finding now = shift("mooring_fee", is, isEstimate, isHalf);
+        Finding marked = Repeats.mark(BEFORE, List.of(previous), List.of(now)).get(0);
+        assertEquals(repeat ? new Finding.Repeat(Finding.Repeat.Kind.STILL_UNRESOLVABLE, BEFORE, BEFORE) : null,
+                marked.repeat());
+        if (repeat) {
+            assertEquals(now.sentence() + " Too few answers to judge since 2025-Q1: the smallest change these waves"
+                    + " could show (0.470) is larger than the threshold (0.200), as in 2025-Q1; no new alert.",
+                    marked.sentence());
+        }
+    }
+
+    @Test
+    void aMissingRateThatCannotBeResolvedIsStillUnresolvableLikeAShift() {
+        Finding.Effect wide = new Finding.Effect("Cohen's h", 0.05, -0.3, 0.4, 0.2);
+        Finding previous = new Finding("mooring_fee", FindingKind.MISSING_RATE_CHANGE, "z", 1.0, 0.5, 0.6, wide,
+                Verdict.UNCERTAIN, 40L, 40L, "The missing rate moved.", null);
+        Finding marked = Repeats.mark(BEFORE, List.of(previous), List.of(previous)).get(0);
+        assertEquals(Finding.Repeat.Kind.STILL_UNRESOLVABLE, marked.repeat().kind());
+    }
+
+    @Test
+    void theFirstWaveIsCarriedAlongAnUnbrokenRunOfRepeats() {
+        Finding first = quality("occupation", FindingKind.BLANK, Map.of("count", 235, "rows", 2500));
+        Finding second = Repeats.mark("2024-Q2", List.of(first),
+                List.of(quality("occupation", FindingKind.BLANK, new Counted(240, 2500)))).get(0);
+        assertEquals(new Finding.Repeat(Finding.Repeat.Kind.STILL_PRESENT, "2024-Q2", "2024-Q2"), second.repeat());
+        Finding third = Repeats.mark("2024-Q3", List.of(second),
+                List.of(quality("occupation", FindingKind.BLANK, new Counted(238, 2500)))).get(0);
+        assertEquals(new Finding.Repeat(Finding.Repeat.Kind.STILL_PRESENT, "2024-Q3", "2024-Q2"), third.repeat());
+        assertEquals("Some rows look like missing values. Still present since 2024-Q2: unchanged from 2024-Q3 (rate"
+                + " within its interval); no new alert.", third.sentence());
+    }
+
+    @Test
+    void withoutOneComparedWaveNothingIsARepeat() {
+        Finding f = quality("occupation", FindingKind.BLANK, new Counted(235, 2500));
+        List<Finding> now = List.of(f);
+        assertSame(now, Repeats.mark(null, List.of(f), now), "a pooled baseline or none");
+        assertSame(now, Repeats.mark(BEFORE, List.of(), now), "a previous wave without findings");
+    }
+
+    @Test
+    void aRepeatStaysInTheFindingsButRaisesNoAlert() {
+        Finding previous = quality("occupation", FindingKind.BLANK, Map.of("count", 235, "rows", 2500));
+        Finding sentinel = quality("children", FindingKind.NUMERIC_SENTINEL, new Counted(40, 2500));
+        List<Finding> marked = Repeats.mark(BEFORE, List.of(previous),
+                List.of(quality("occupation", FindingKind.BLANK, new Counted(235, 2500)), sentinel));
+        assertEquals(2, marked.size());
+        assertEquals(List.of("children"), Alerts.group(marked).stream().map(a -> a.variable()).toList());
+    }
+}
