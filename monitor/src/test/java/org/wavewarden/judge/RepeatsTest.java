@@ -22,10 +22,10 @@ import static org.junit.jupiter.api.Assertions.assertSame;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 /**
- * A finding that says what the previous wave's finding said raises no new alert: a data-quality rate whose previous
- * value lies in the current rate's 95% Wilson interval is still present, a state or the same unlabelled codes are
- * still present, a change is always news, and a variable still too small to resolve its threshold stays quiet until
- * its state changes.
+ * A finding that says what the previous wave's finding said raises no new alert: a data-quality rate whose change
+ * between the waves is within its sampling error (the 95% interval of the difference holds zero) is still present,
+ * so are a state and the same unlabelled codes, a change is always news, and a variable still too small to resolve
+ * its threshold stays quiet until its state changes.
  */
 class RepeatsTest {
 
@@ -45,28 +45,33 @@ class RepeatsTest {
                 35L, 37L, "The mean rose.", null);
     }
 
-    /** The previous rate is compared with the interval of the current one: inside is still present, outside is news. */
+    /**
+     * A rate is still present while the interval of its change holds zero; each case is the last previous count
+     * on either side that does, and the first that does not.
+     */
     @ParameterizedTest(name = "{0} of {1} now, {2} of {3} before: repeat {4}")
     @CsvSource({
-            // The interval is R 4.2.2's prop.test(count, rows, correct = FALSE)$conf.int, which Wilson's interval is
-            // checked against in WilsonIntervalTest:
-            // 235 of 2500: [0.0831752397991923, 0.106070551762975]
-            "235, 2500, 208, 2500, true",    // 0.0832, just inside the lower limit
-            "235, 2500, 207, 2500, false",   // 0.0828, just below it
-            "235, 2500, 265, 2500, true",    // 0.1060, just inside the upper limit
-            "235, 2500, 266, 2500, false",   // 0.1064, just above it
-            // 27 of 1000: [0.018621382774295, 0.0389987307530402]
-            "27, 1000, 19, 1000, true",
-            "27, 1000, 18, 1000, false",
-            "27, 1000, 38, 1000, true",
-            "27, 1000, 39, 1000, false",     // 0.039 is just above 0.0389987
-            // 5 of 40: [0.054595002509454, 0.261121198388511]; the previous wave's size plays no part
-            "5, 40, 3, 40, true",
-            "5, 40, 2, 40, false",
-            "5, 40, 250, 1000, true",
-            "5, 40, 275, 1000, false",
+            // Newcombe's interval of (now - before) from R 4.2.2, as in NewcombeDifferenceTest (the Wilson limits
+            // of prop.test(x, n, correct = FALSE)$conf.int combined by method 10), searched over every previous count
+            "168, 3800, 149, 4200, false",   // [0.000164, 0.017452]
+            "168, 3800, 150, 4200, true",    // [-0.000087, 0.017225]
+            "168, 3800, 221, 4200, true",    // the demo's blank occupations in its last two waves, roughly
+            "168, 3800, 225, 4200, true",    // [-0.018811, 0.000138]
+            "168, 3800, 226, 4200, false",   // [-0.019059, -0.000090]
+            "235, 2500, 196, 2500, false",   // [0.000027, 0.031212]
+            "235, 2500, 197, 2500, true",    // [-0.000390, 0.030828]
+            "235, 2500, 277, 2500, true",    // [-0.033645, 0.000019]
+            "235, 2500, 278, 2500, false",   // [-0.034059, -0.000367]
+            "5, 40, 0, 40, false",           // [0.012597, 0.261121]: a sentinel that was absent is news
+            "5, 40, 1, 40, true",            // [-0.025436, 0.237667]
+            "5, 40, 12, 40, true",           // [-0.344604, 0.005969]
+            "5, 40, 13, 40, false",          // [-0.370079, -0.015763]
+            "27, 1000, 14, 1000, false",     // [0.000436, 0.026259]
+            "27, 1000, 15, 1000, true",      // [-0.000743, 0.025366]
+            "27, 1000, 43, 1000, true",      // [-0.032677, 0.000225]
+            "27, 1000, 44, 1000, false",     // [-0.033792, -0.000680]
     })
-    void aRateIsStillPresentWhenThePreviousRateLiesInTheCurrentRatesWilsonInterval(long count, long rows,
+    void aRateIsStillPresentWhileTheIntervalOfItsChangeHoldsZero(long count, long rows,
                                                                                    long previousCount,
                                                                                    long previousRows,
                                                                                    boolean repeat) {
@@ -86,7 +91,7 @@ class RepeatsTest {
     static final Map<FindingKind, String> AGAIN = new LinkedHashMap<>();
 
     static {
-        // A level with a rate: the same rate is within its own interval.
+        // A level with a rate: the same rate has not moved.
         for (FindingKind k : List.of(FindingKind.BLANK, FindingKind.INVISIBLE, FindingKind.PLACEHOLDER,
                 FindingKind.PATTERN_OUTLIER, FindingKind.NUMERIC_SENTINEL, FindingKind.OUT_OF_RANGE_SENTINEL,
                 FindingKind.TEXT_IN_NUMERIC, FindingKind.SENTINEL_DATE, FindingKind.INLIER_SPIKE,
@@ -227,8 +232,8 @@ class RepeatsTest {
         Finding third = Repeats.mark("2024-Q3", List.of(second),
                 List.of(quality("occupation", FindingKind.BLANK, new Counted(238, 2500)))).get(0);
         assertEquals(new Finding.Repeat(Finding.Repeat.Kind.STILL_PRESENT, "2024-Q3", "2024-Q2"), third.repeat());
-        assertEquals("Some rows look like missing values. Still present since 2024-Q2: unchanged from 2024-Q3 (rate"
-                + " within its interval); no new alert.", third.sentence());
+        assertEquals("Some rows look like missing values. Still present since 2024-Q2: unchanged from 2024-Q3 (its"
+                + " rate has not moved beyond sampling error); no new alert.", third.sentence());
     }
 
     @Test
