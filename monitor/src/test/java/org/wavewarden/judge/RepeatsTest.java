@@ -22,8 +22,8 @@ import static org.junit.jupiter.api.Assertions.assertSame;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 /**
- * A finding that says what the previous wave's finding said raises no new alert: a data-quality rate whose change
- * between the waves is within its sampling error (the 95% interval of the difference holds zero) is still present,
+ * A finding that says what the previous wave's finding said raises no new alert: a data-quality rate that has not
+ * risen beyond its sampling error (the 95% interval of its rise does not lie above zero) is still present,
  * so are a state and the same unlabelled codes, a change is always news, and a variable still too small to resolve
  * its threshold stays quiet until its state changes.
  */
@@ -46,8 +46,9 @@ class RepeatsTest {
     }
 
     /**
-     * A rate is still present while the interval of its change holds zero; each case is the last previous count
-     * on either side that does, and the first that does not.
+     * A rate is still present unless the interval of its rise lies above zero: a rise beyond sampling error is news,
+     * a rate that held or fell is not. Each case is the last previous count on either side whose interval holds
+     * zero, and the first that does not.
      */
     @ParameterizedTest(name = "{0} of {1} now, {2} of {3} before: repeat {4}")
     @CsvSource({
@@ -57,21 +58,21 @@ class RepeatsTest {
             "168, 3800, 150, 4200, true",    // [-0.000087, 0.017225]
             "168, 3800, 221, 4200, true",    // the demo's blank occupations in its last two waves, roughly
             "168, 3800, 225, 4200, true",    // [-0.018811, 0.000138]
-            "168, 3800, 226, 4200, false",   // [-0.019059, -0.000090]
+            "168, 3800, 226, 4200, true",    // [-0.019059, -0.000090]: fell
             "235, 2500, 196, 2500, false",   // [0.000027, 0.031212]
             "235, 2500, 197, 2500, true",    // [-0.000390, 0.030828]
             "235, 2500, 277, 2500, true",    // [-0.033645, 0.000019]
-            "235, 2500, 278, 2500, false",   // [-0.034059, -0.000367]
+            "235, 2500, 278, 2500, true",    // [-0.034059, -0.000367]: fell
             "5, 40, 0, 40, false",           // [0.012597, 0.261121]: a sentinel that was absent is news
             "5, 40, 1, 40, true",            // [-0.025436, 0.237667]
             "5, 40, 12, 40, true",           // [-0.344604, 0.005969]
-            "5, 40, 13, 40, false",          // [-0.370079, -0.015763]
+            "5, 40, 13, 40, true",           // [-0.370079, -0.015763]: fell
             "27, 1000, 14, 1000, false",     // [0.000436, 0.026259]
             "27, 1000, 15, 1000, true",      // [-0.000743, 0.025366]
             "27, 1000, 43, 1000, true",      // [-0.032677, 0.000225]
-            "27, 1000, 44, 1000, false",     // [-0.033792, -0.000680]
+            "27, 1000, 44, 1000, true",      // [-0.033792, -0.000680]: fell
     })
-    void aRateIsStillPresentWhileTheIntervalOfItsChangeHoldsZero(long count, long rows,
+    void aRateIsStillPresentUnlessItRoseBeyondItsSamplingError(long count, long rows,
                                                                                    long previousCount,
                                                                                    long previousRows,
                                                                                    boolean repeat) {
@@ -234,6 +235,17 @@ class RepeatsTest {
         assertEquals(new Finding.Repeat(Finding.Repeat.Kind.STILL_PRESENT, "2024-Q3", "2024-Q2"), third.repeat());
         assertEquals("Some rows look like missing values. Still present since 2024-Q2: unchanged from 2024-Q3 (its"
                 + " rate has not moved beyond sampling error); no new alert.", third.sentence());
+    }
+
+    @Test
+    void aRateThatFellSaysSo() {
+        // the demo's blank occupations, 432 of 4200 then 337 of 3800: Newcombe's interval of the rise, computed in
+        // R 4.2.2 as in NewcombeDifferenceTest, is [-0.027046, -0.001235]
+        Finding previous = quality("occupation", FindingKind.BLANK, Map.of("count", 432, "rows", 4200));
+        Finding marked = Repeats.mark("2025-Q2", List.of(previous),
+                List.of(quality("occupation", FindingKind.BLANK, new Counted(337, 3800)))).get(0);
+        assertEquals("Some rows look like missing values. Still present since 2025-Q2: lower than in 2025-Q2 (its"
+                + " rate fell beyond sampling error); no new alert.", marked.sentence());
     }
 
     @Test
