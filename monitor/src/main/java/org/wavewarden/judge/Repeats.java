@@ -109,17 +109,18 @@ public final class Repeats {
         if (stillUnresolvable(previous, f)) {
             Finding.Effect e = f.effect();
             return f.withRepeat(new Finding.Repeat(Finding.Repeat.Kind.STILL_UNRESOLVABLE, previousWave, firstWave))
-                    .withSentence(f.sentence() + String.format(Locale.ROOT, " Too few answers to judge since %s:"
-                                    + " the smallest change these waves could show (%.3g) is larger than the"
-                                    + " threshold (%.3g), as in %s; no new alert.", firstWave, e.minimumDetectable(),
-                            e.threshold(), previousWave));
+                    .withSentence(f.sentence() + String.format(Locale.ROOT, " Too few answers to judge since wave"
+                                    + " %s: the smallest change these waves could show (%.3g) is larger than the"
+                                    + " threshold (%.3g), as in wave %s; no new alert.", firstWave,
+                            e.minimumDetectable(), e.threshold(), previousWave));
         }
         if (f.verdict() == null && f.kind().isDataQuality() && stillPresent(previous, f)) {
             boolean fell = basis(f.kind()) == Basis.RATE && change(previous, f).upper() < 0;
+            String since = " Still present since wave " + firstWave;
             return f.withRepeat(new Finding.Repeat(Finding.Repeat.Kind.STILL_PRESENT, previousWave, firstWave))
-                    .withSentence(f.sentence() + " Still present since " + firstWave + (fell ? ": lower than in "
-                            + previousWave + " (its rate fell beyond sampling error); no new alert."
-                            : ": unchanged from " + previousWave + " (" + why(f.kind()) + "); no new alert."));
+                    .withSentence(f.sentence() + since + (fell ? ": lower than in wave " + previousWave
+                            + " (its rate fell beyond sampling error); no new alert." : ": unchanged from wave "
+                            + previousWave + " (" + why(f.kind()) + "); no new alert."));
         }
         return f;
     }
@@ -163,7 +164,7 @@ public final class Repeats {
     private static NewcombeDifference change(Finding previous, Finding f) {
         Rate now = Rate.of(f);
         Rate then = Rate.of(previous);
-        return NewcombeDifference.of(now.count(), now.rows(), then.count(), then.rows(), CONFIDENCE);
+        return NewcombeDifference.of(then.count(), then.rows(), now.count(), now.rows(), CONFIDENCE);
     }
 
     /**

@@ -209,9 +209,9 @@ class RepeatsTest {
         assertEquals(repeat ? new Finding.Repeat(Finding.Repeat.Kind.STILL_UNRESOLVABLE, BEFORE, BEFORE) : null,
                 marked.repeat());
         if (repeat) {
-            assertEquals(now.sentence() + " Too few answers to judge since 2025-Q1: the smallest change these waves"
-                    + " could show (0.470) is larger than the threshold (0.200), as in 2025-Q1; no new alert.",
-                    marked.sentence());
+            assertEquals(now.sentence() + " Too few answers to judge since wave 2025-Q1: the smallest change these"
+                    + " waves could show (0.470) is larger than the threshold (0.200), as in wave 2025-Q1; no new"
+                    + " alert.", marked.sentence());
         }
     }
 
@@ -233,8 +233,8 @@ class RepeatsTest {
         Finding third = Repeats.mark("2024-Q3", List.of(second),
                 List.of(quality("occupation", FindingKind.BLANK, new Counted(238, 2500)))).get(0);
         assertEquals(new Finding.Repeat(Finding.Repeat.Kind.STILL_PRESENT, "2024-Q3", "2024-Q2"), third.repeat());
-        assertEquals("Some rows look like missing values. Still present since 2024-Q2: unchanged from 2024-Q3 (its"
-                + " rate has not moved beyond sampling error); no new alert.", third.sentence());
+        assertEquals("Some rows look like missing values. Still present since wave 2024-Q2: unchanged from wave"
+                + " 2024-Q3 (its rate has not moved beyond sampling error); no new alert.", third.sentence());
     }
 
     @Test
@@ -244,8 +244,8 @@ class RepeatsTest {
         Finding previous = quality("occupation", FindingKind.BLANK, Map.of("count", 432, "rows", 4200));
         Finding marked = Repeats.mark("2025-Q2", List.of(previous),
                 List.of(quality("occupation", FindingKind.BLANK, new Counted(337, 3800)))).get(0);
-        assertEquals("Some rows look like missing values. Still present since 2025-Q2: lower than in 2025-Q2 (its"
-                + " rate fell beyond sampling error); no new alert.", marked.sentence());
+        assertEquals("Some rows look like missing values. Still present since wave 2025-Q2: lower than in wave"
+                + " 2025-Q2 (its rate fell beyond sampling error); no new alert.", marked.sentence());
     }
 
     @Test

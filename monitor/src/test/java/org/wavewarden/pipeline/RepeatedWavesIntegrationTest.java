@@ -106,8 +106,8 @@ class RepeatedWavesIntegrationTest {
             String previous = String.valueOf(Integer.parseInt(wave) - 1);
             assertEquals(new Finding.Repeat(Finding.Repeat.Kind.STILL_PRESENT, previous, "1"), blank.repeat(),
                     blank.sentence());
-            assertTrue(blank.sentence().endsWith(" Still present since 1: unchanged from " + previous + " (its rate"
-                    + " has not moved beyond sampling error); no new alert."), blank.sentence());
+            assertTrue(blank.sentence().endsWith(" Still present since wave 1: unchanged from wave " + previous
+                    + " (its rate has not moved beyond sampling error); no new alert."), blank.sentence());
         }
     }
 
