@@ -10,8 +10,8 @@ import java.util.List;
 import java.util.Map;
 
 /**
- * Which findings become alerts: shifts judged MATERIAL or UNCERTAIN, and data-quality findings. MINOR and STABLE
- * verdicts stay in the findings (a reader can audit them) but do not ask for anyone's time. The findings that do
+ * Which findings become alerts: shifts judged MATERIAL or UNCERTAIN, and data-quality findings, unless they repeat
+ * the previous wave's finding ({@link org.wavewarden.judge.Repeats}). MINOR and STABLE verdicts stay in the findings (a reader can audit them) but do not ask for anyone's time. The findings that do
  * are grouped into events ({@link #group}), one alert each.
  */
 public final class Alerts {
@@ -19,8 +19,13 @@ public final class Alerts {
     private Alerts() {
     }
 
+    /**
+     * Whether a finding asks for a person's time with a new alert. A repeat of the previous wave's finding (still
+     * present, still too few answers to judge) does not: it was alerted when it first appeared and stays in the
+     * findings and the digest's sections, with a note saying since when.
+     */
     public static boolean worthAPerson(Finding f) {
-        if (f.kind() == FindingKind.SKIPPED) {
+        if (f.kind() == FindingKind.SKIPPED || f.repeat() != null) {
             return false;
         }
         if (f.verdict() != null) {

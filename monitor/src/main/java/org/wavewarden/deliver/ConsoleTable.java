@@ -23,7 +23,8 @@ public final class ConsoleTable {
                 "effect [CI]", "p", "q"));
         java.util.Set<String> labelShown = new java.util.HashSet<>();
         for (Finding f : FindingsFiles.ordered(r.findings())) {
-            if (!all && !Alerts.worthAPerson(f) && f.verdict() != org.wavewarden.judge.Verdict.MINOR) {
+            // A repeat raised no new alert, but the table lists findings: it keeps its line.
+            if (!all && !Alerts.worthAPerson(f.withRepeat(null)) && f.verdict() != org.wavewarden.judge.Verdict.MINOR) {
                 continue;
             }
             String effect = f.effect() == null ? "" : String.format(Locale.ROOT, "%+.3f [%+.3f, %+.3f]",

@@ -87,6 +87,14 @@ public final class DemoRun {
     }
 
     public static Outcome run(Path outDir, PrintWriter out) {
+        return run(outDir, out, s -> { });
+    }
+
+    /**
+     * The same, and {@code inspect} reads the results schema (the runs and their alert rows) before the demo's
+     * server stops.
+     */
+    public static Outcome run(Path outDir, PrintWriter out, java.util.function.Consumer<Session> inspect) {
         try (EmbeddedServer server = EmbeddedServer.start()) {
             out.println("started an embedded PostgreSQL server on 127.0.0.1:" + server.port());
             Path staging = Files.createTempDirectory("wavewarden-demo");
@@ -132,6 +140,7 @@ public final class DemoRun {
                 out.print(ReleaseDigest.summary(release, false));
                 outputs.add(releaseDir.resolve("releases.json"));
                 outputs.add(releaseDir.resolve("releases.md"));
+                inspect.accept(s);
             }
             out.println("wrote " + outputs.size() + " files:");
             outputs.forEach(p -> out.println("    " + outDir.relativize(p)));

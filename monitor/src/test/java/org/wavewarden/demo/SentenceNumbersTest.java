@@ -165,7 +165,9 @@ class SentenceNumbersTest {
         s = s.replace(f.variable(), " ");
         s = s.replaceAll("'[^']*'", " ");
         s = CITATION.matcher(s).replaceAll(" ");
-        for (String w : Stream.of(r.wave(), r.againstWave()).filter(java.util.Objects::nonNull).toList()) {
+        // a repeat's note names the waves it repeats, which its repeat field holds
+        for (String w : Stream.of(r.wave(), r.againstWave(), f.repeat() == null ? null : f.repeat().firstWave(),
+                f.repeat() == null ? null : f.repeat().previousWave()).filter(java.util.Objects::nonNull).toList()) {
             s = s.replace("wave " + w, " ");
         }
 
