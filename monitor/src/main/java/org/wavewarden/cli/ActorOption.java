@@ -21,16 +21,22 @@ final class ActorOption {
         return resolve(name, System.getenv(), System.getProperty("user.name"));
     }
 
-    /** The first of the option, the environment variable and the user name that is not blank, stripped. */
+    /**
+     * The option when given, else the environment variable when set, else the user name. A source that is given is
+     * used or refused, never skipped: a blank {@code --as} is a mistake to report, not a reason to record the
+     * action under the login name instead.
+     */
     static String resolve(String option, Map<String, String> env, String userName) {
-        for (String candidate : new String[] {option, env.get(ENV), userName}) {
-            if (candidate != null && !candidate.isBlank()) {
-                if (candidate.chars().anyMatch(Character::isISOControl)) {
-                    throw new Refused("the acting person's name holds a control character; give a plain name with"
-                            + " --as");
-                }
-                return candidate.strip();
+        String[][] sources = {{"--as", option}, {ENV, env.get(ENV)}, {"the user name", userName}};
+        for (String[] s : sources) {
+            if (s[1] == null) {
+                continue;
             }
+            if (s[1].isBlank() || s[1].chars().anyMatch(Character::isISOControl)) {
+                throw new Refused("the acting person from " + s[0] + " is " + (s[1].isBlank() ? "blank"
+                        : "not a plain name") + "; give a name with --as NAME");
+            }
+            return s[1].strip();
         }
         throw new Refused("no acting person: give --as NAME or set " + ENV);
     }
