@@ -230,9 +230,10 @@ final class AlertsCommand implements Runnable {
         /** With an explicit wave order, the last wave muted must be one of it (as in a configured mute rule). */
         static void knownWave(Session s, String dataset, String wave) {
             for (DatasetConfig d : s.config().datasets()) {
-                if (d.name().equals(dataset) && !d.waveOrder().isNatural() && !d.waveOrder().explicit().contains(wave)) {
+                List<String> order = d.waveOrder().explicit();
+                if (d.name().equals(dataset) && !d.waveOrder().isNatural() && !order.contains(wave)) {
                     throw new ReviewException("wave '" + DataText.visible(wave) + "' is not in the waveOrder of "
-                            + dataset + ": " + d.waveOrder().explicit());
+                            + dataset + ": " + order);
                 }
             }
         }

@@ -44,7 +44,8 @@ public final class ConsoleTable {
      * Any other listing as a fixed-width table: every cell made visible and cut to its column's width (a width of 0
      * leaves the cell whole, for a last column), so that no value from the data can break a row or the columns.
      */
-    public static String table(java.util.List<String> headers, int[] widths, java.util.List<java.util.List<String>> rows) {
+    public static String table(java.util.List<String> headers, int[] widths,
+                               java.util.List<java.util.List<String>> rows) {
         StringBuilder sb = new StringBuilder();
         line(sb, headers, widths);
         rows.forEach(r -> line(sb, r, widths));

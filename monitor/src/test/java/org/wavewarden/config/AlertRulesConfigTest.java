@@ -169,4 +169,23 @@ class AlertRulesConfigTest {
                 mutes: [{variable: occupation, untilDate: 2025-03-31, reason: recoding, by: Ann}]
                 """));
     }
+
+    /**
+     * The demo declares its planned move to telephone fieldwork ahead, and carries a mute rule only as an example of
+     * the shape: it ended before the demo's waves can be judged, so it mutes nothing planted.
+     */
+    @Test
+    void theDemoDeclaresTheModeChangeAheadAndAnEndedExampleMute() {
+        DatasetConfig d = ConfigLoader.load(java.nio.file.Path.of("..", "config", "demo.yaml"))
+                .dataset("harrowmere-household");
+        assertEquals(Population.SAMPLE, d.population());
+        assertEquals(List.of(new ExpectedChange("interview_mode", "2025-Q1", "2025-Q1", ReviewReason.PLANNED_CHANGE,
+                "Fieldwork moved from the web form to telephone interviews in 2025-Q1, as planned in 2024.",
+                "Harrowmere County Survey Office")), d.alertRules().expectedChanges());
+        MuteRule example = d.alertRules().mutes().get(0);
+        assertEquals(1, d.alertRules().mutes().size());
+        assertEquals(LocalDate.of(2024, 3, 31), example.untilDate());
+        assertEquals(null, example.untilWave());
+        assertEquals(true, example.untilDate().isBefore(LocalDate.now(java.time.ZoneOffset.UTC)), "already ended");
+    }
 }
