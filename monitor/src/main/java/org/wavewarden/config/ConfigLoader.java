@@ -474,9 +474,9 @@ public final class ConfigLoader {
 
         /** A variable name, or a pattern in which {@code *} stands for any run of characters. */
         String variablePattern(String text, String path) {
-            if (text.isBlank() || text.chars().anyMatch(Character::isISOControl)) {
-                throw new ConfigException(path, "expected a variable name or a pattern with * but got "
-                        + Identifiers.Text.show(text));
+            if (text.chars().anyMatch(Character::isISOControl)) {
+                throw new ConfigException(path, "expected a variable name or a pattern with * but got text with a"
+                        + " control character");
             }
             return text.strip();
         }

@@ -120,6 +120,11 @@ class AlertRulesConfigTest {
             mutes: [{kind: SHIFT, untilDate: 2025-02-30, reason: noisy, by: Ann}] | datasets[0].mutes[0].untilDate | expected an ISO date such as 2025-06-30 but got '2025-02-30'
             mutes: [{kind: SHIFT, untilDate: 2025-03-31, reason: noisy}] | datasets[0].mutes[0].by | missing
             mutes: [{kind: SHIFT, untilDate: 2025-03-31, by: Ann}] | datasets[0].mutes[0].reason | missing
+            expectedChanges: [{variable: tenure, waves: [2025-Q1, 2025-Q2], reason: real-change, by: Ann}] | datasets[0].expectedChanges[0].waves | expected text but got a list
+            expectedChanges: [{variable: "", waves: 2025-Q1, reason: real-change, by: Ann}] | datasets[0].expectedChanges[0].variable | expected a value but it is empty
+            expectedChanges: [{variable: "ten\\ture", waves: 2025-Q1, reason: real-change, by: Ann}] | datasets[0].expectedChanges[0].variable | expected a variable name or a pattern with * but got text with a control character
+            mutes: {variable: occupation} | datasets[0].mutes | expected a list of {variable, kind, untilWave, untilDate, reason, by} but got a mapping
+            mutes: [{kind: shift, untilDate: 2025-03-31, reason: noisy, by: Ann}] | datasets[0].mutes[0].kind | unknown finding kind 'shift'; did you mean 'SHIFT'?
             mutes: [{kind: SHIFT, untilDate: 2025-03-31, reason: noisy, by: Ann, forever: true}] | datasets[0].mutes[0].forever | unknown key; expected one of variable, kind, untilWave, untilDate, reason, by
             """)
     void aBadValueInTheFirstDatasetNamesItsKey(String keys, String key, String problem) {
@@ -140,6 +145,33 @@ class AlertRulesConfigTest {
         ConfigException e = assertThrows(ConfigException.class, () -> ConfigLoader.parse(yaml("", keys)));
         assertEquals(key, e.key(), e.getMessage());
         assertEquals(problem, e.problem());
+    }
+
+    /** On the command line a bad rule is refused like any bad config: exit 2, one line, before anything connects. */
+    @Test
+    void theCommandLineRefusesABadRuleBeforeConnecting(@org.junit.jupiter.api.io.TempDir java.nio.file.Path dir)
+            throws Exception {
+        java.nio.file.Path file = dir.resolve("bad.yaml");
+        java.nio.file.Files.writeString(file, yaml("", "expectedChanges: [{variable: tenure, waves: {from: spring-25,"
+                + " to: autumn-24}, reason: real-change, by: Ann}]"));
+        for (String[] command : new String[][] {{"waves"}, {"alerts", "list"}, {"signoff", "--show"}}) {
+            List<String> args = new java.util.ArrayList<>(List.of(command));
+            args.addAll(List.of("--config", file.toString()));
+            org.wavewarden.testing.CliRun r = org.wavewarden.testing.CliRun.of(args.toArray(String[]::new));
+            assertEquals(2, r.exitCode(), r.err());
+            assertEquals("config error at datasets[1].expectedChanges[0].waves.to: wave 'autumn-24' comes before from"
+                    + " 'spring-25' in the waveOrder [spring-24, autumn-24, spring-25, autumn-25]", r.err().strip());
+        }
+    }
+
+    @Test
+    void numberedWavesMayBeWrittenAsNumbers() {
+        DatasetConfig d = ConfigLoader.parse(yaml("expectedChanges: [{variable: score, waves: {from: 3, to: 4},"
+                + " reason: fix-upstream, by: Ann}]\nmutes: [{variable: score, untilWave: 5, reason: noisy, by: Ann}]",
+                "")).dataset("household");
+        assertEquals("3", d.alertRules().expectedChanges().get(0).fromWave());
+        assertEquals("4", d.alertRules().expectedChanges().get(0).toWave());
+        assertEquals("5", d.alertRules().mutes().get(0).untilWave());
     }
 
     @Test
