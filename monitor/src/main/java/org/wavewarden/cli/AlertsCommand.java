@@ -212,6 +212,11 @@ final class AlertsCommand implements Runnable {
                         + " a mute always ends");
                 return Main.USAGE;
             }
+            if (untilDate != null && untilDate.isBefore(LocalDate.now(ZoneOffset.UTC))) {
+                spec.commandLine().getErr().println("refused: --until-date " + untilDate + " is past; a mute ending"
+                        + " then would mute nothing");
+                return Main.USAGE;
+            }
             return act(config, spec, s -> {
                 String who = actor.resolve();
                 AlertReviews reviews = reviews(s);

@@ -6,6 +6,7 @@ import org.wavewarden.config.MuteRule;
 import org.wavewarden.config.WaveOrder;
 import org.wavewarden.deliver.Alert;
 import org.wavewarden.judge.Finding;
+import org.wavewarden.judge.FindingKind;
 import org.wavewarden.read.WaveListing;
 
 import java.time.LocalDate;
@@ -19,7 +20,8 @@ import java.util.regex.Pattern;
 /**
  * Which alerts the configuration explains or mutes when they are created: an expected change whose variable and
  * wave range match explains; otherwise a mute rule (from the configuration or stored by a command) that matches
- * and has not expired mutes.
+ * and has not expired mutes. An alert that a signed-off wave's findings changed is never explained or muted by a
+ * rule.
  *
  * <p>A variable pattern is a name in which {@code *} stands for any run of characters, matched against the whole
  * name. A relationship alert is named {@code x ~ y}; a pattern matches it when it matches that name or either of
@@ -50,6 +52,11 @@ public final class CreationRules {
         storedMutes.forEach(m -> mutes.add(new Mute(m, "stored")));
         List<Mute> inForce = mutes.stream().filter(m -> m.inForce(waves, wave, today)).toList();
         return a -> {
+            if (a.kind() == FindingKind.SIGNED_WAVE_CHANGED) {
+                // A rule written ahead cannot have foreseen that a signed release's numbers would move: that alert
+                // is always raised open, whatever pattern or scope a rule has.
+                return Optional.empty();
+            }
             for (ExpectedChange e : expected) {
                 if (matches(e.variable(), a.variable())) {
                     return Optional.of(new CreationDecision(ReviewAction.EXPLAINED, e.reason(), e.note(), e.who(),

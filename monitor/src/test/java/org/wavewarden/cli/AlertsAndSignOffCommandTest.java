@@ -139,6 +139,12 @@ class AlertsAndSignOffCommandTest {
         CliRun forever = alerts("mute", String.valueOf(scoreAlert), "--as", "T. Quill");
         assertEquals(2, forever.exitCode());
         assertTrue(forever.err().contains("give --until-wave WAVE, --until-date DATE or both"), forever.err());
+        CliRun past = alerts("mute", String.valueOf(scoreAlert), "--until-date", "2001-01-31", "--as", "T. Quill");
+        assertEquals(2, past.exitCode());
+        assertTrue(past.err().contains("--until-date 2001-01-31 is past"), past.err());
+        CliRun badDate = alerts("mute", String.valueOf(scoreAlert), "--until-date", "31.01.2099", "--as", "T. Quill");
+        assertEquals(2, badDate.exitCode());
+        assertTrue(badDate.err().contains("--until-date"), badDate.err());
         CliRun unknown = alerts("history", "987654");
         assertEquals(2, unknown.exitCode());
         assertTrue(unknown.err().contains("there is no alert 987654"), unknown.err());

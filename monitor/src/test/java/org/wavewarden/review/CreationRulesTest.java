@@ -22,7 +22,8 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 /**
  * What the configuration decides for an alert when it is created: explained by the first expected change whose
  * variable and waves match, otherwise muted by the first mute rule (configured ones before stored ones) whose scope
- * matches and that has not expired, otherwise nothing (the alert opens).
+ * matches and that has not expired, otherwise nothing (the alert opens). A change to a signed-off wave's findings is
+ * never decided by a rule.
  */
 class CreationRulesTest {
 
@@ -107,6 +108,9 @@ class CreationRulesTest {
             region                | SHIFT                     | 2024-Q4 | 2025-05-02 | MUTED - by T. Quill from stored mute rule "region" SHIFT until wave 2024-Q4
             region                | SHIFT                     | 2025-Q2 | 2025-05-02 | OPEN
             income_net            | SHIFT                     | 2025-Q2 | 2025-05-02 | MUTED fix-upstream by M. Pellow from config mute rule "income_*" every kind until wave 2025-Q3
+            # a signed-off wave whose findings changed is always raised open, even where a rule covers everything
+            (wave)                | SIGNED_WAVE_CHANGED       | 2025-Q1 | 2025-01-15 | OPEN
+            (wave)                | SIGNED_WAVE_CHANGED       | 2025-Q2 | 2025-01-15 | OPEN
             # an expected change comes before any mute
             interview_mode        | MISSING_RATE_CHANGE       | 2025-Q1 | 2025-01-15 | EXPLAINED planned-change by County Survey Office from expected change "interview_mode" 2025-Q1
             """)
