@@ -57,7 +57,7 @@ final class AlertsCommand implements Runnable {
     static int act(ConfigOption config, CommandLine.Model.CommandSpec spec, Function<Session, Integer> action) {
         PrintWriter err = spec.commandLine().getErr();
         try (Session s = Session.open(config.load(), null, System.getenv())) {
-            s.migrate();
+            s.migrate(); // a results schema written by an earlier version gains the history tables first
             return action.apply(s);
         } catch (ReviewException | ActorOption.Refused e) {
             err.println("refused: " + DataText.visible(e.getMessage()));
