@@ -12,6 +12,7 @@ import java.util.List;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertNotEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
 
 /**
  * A dataset's population, its changes expected ahead and its mute rules, as the configuration declares them: read
@@ -103,6 +104,7 @@ class AlertRulesConfigTest {
     @CsvSource(delimiter = '|', textBlock = """
             population: sampel | datasets[0].population | expected one of sample, census, register but got 'sampel' (did you mean 'sample'?)
             population: [census] | datasets[0].population | expected text but got a list
+            population: CENSUS | datasets[0].population | expected one of sample, census, register but got 'CENSUS' (did you mean 'census'?)
             expectedChanges: {variable: tenure} | datasets[0].expectedChanges | expected a list of {variable, waves, reason, note, by} but got a mapping
             expectedChanges: [tenure] | datasets[0].expectedChanges[0] | expected a mapping but got text (tenure)
             expectedChanges: [{variable: tenure, waves: 2025-Q1, reason: mode, by: Ann}] | datasets[0].expectedChanges[0].reason | expected one of planned-change, fix-upstream, real-change, no-problem but got "mode"
@@ -162,6 +164,20 @@ class AlertRulesConfigTest {
             assertEquals("config error at datasets[1].expectedChanges[0].waves.to: wave 'autumn-24' comes before from"
                     + " 'spring-25' in the waveOrder [spring-24, autumn-24, spring-25, autumn-25]", r.err().strip());
         }
+    }
+
+    @Test
+    void aKeyGivenTwiceInARuleIsRefusedAtItsPath() {
+        ConfigException e = assertThrows(ConfigException.class, () -> ConfigLoader.parse(yaml("""
+                mutes:
+                  - variable: occupation
+                    untilDate: 2025-03-31
+                    untilDate: 2026-03-31
+                    reason: recoding
+                    by: Ann
+                """, "")));
+        assertEquals("datasets[0].mutes[0].untilDate", e.key(), e.getMessage());
+        assertTrue(e.problem().startsWith("the key is given twice in the same mapping"), e.problem());
     }
 
     @Test
