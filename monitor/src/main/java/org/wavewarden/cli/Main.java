@@ -14,7 +14,8 @@ import java.io.PrintWriter;
 @Command(name = "wavewarden", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
         description = "Judges each new survey wave against earlier waves and flags disguised missing values.",
         subcommands = {DemoCommand.class, InitDbCommand.class, ImportCommand.class, WavesCommand.class,
-                CheckCommand.class, ReleasesCommand.class, RunCommand.class, OutboxCommand.class, BenchCommand.class,
+                CheckCommand.class, ReleasesCommand.class, RunCommand.class, OutboxCommand.class, AlertsCommand.class,
+                SignOffCommand.class, BenchCommand.class,
                 SoakCommand.class, ScaffoldCommand.class, ServerCommand.class,
                 CommandLine.HelpCommand.class})
 public final class Main implements Runnable {

@@ -17,9 +17,10 @@ import java.util.HexFormat;
  * A SHA-256 over the part of the configuration that decides what a run of one dataset finds: the run's alpha and
  * false-discovery-rate method and the dataset as configured (tables, wave order, comparison rule, exclusions,
  * weights, design, respondent key, releases, relationships, every declared variable with its kind, unit, range,
- * codes, threshold and reference, and the content digest of its codebook file). Left out, because they change when
- * a wave is judged or where its alerts go but not what it says: the schedule, the quiet period, the ready table and
- * the alert sinks (which may also name secrets). Two runs with equal fingerprints judged their waves under the same
+ * codes, threshold and reference, the content digest of its codebook file, and whether it is a census or a full
+ * register, judged without tests). Left out, because they change when a wave is judged or what becomes of its
+ * alerts but not what it says: the schedule, the quiet period, the ready table, the alert sinks (which may also name
+ * secrets), the expected changes and the mute rules. Two runs with equal fingerprints judged their waves under the same
  * rules; variables left to inference are described by the run's inference notes.
  *
  * <p>Canonical form: the configuration records as JSON with properties and map keys in alphabetical order and the
@@ -55,9 +56,13 @@ public final class ConfigFingerprint {
     /** The same from the run's alpha and method. */
     public static String of(double alpha, WardenConfig.FdrMethod fdr, DatasetConfig dataset) {
         ObjectNode d = CANONICAL.valueToTree(dataset);
-        d.remove(java.util.List.of("schedule", "quietPeriod", "readyTable", "readyColumn", "alerts"));
+        // Expected changes and mute rules decide what happens to an alert, never what a run finds.
+        d.remove(java.util.List.of("schedule", "quietPeriod", "readyTable", "readyColumn", "alerts", "alertRules"));
         if (d.path("codebook").isNull()) {
             d.remove("codebook"); // a dataset without a codebook keeps the fingerprint it had before codebooks existed
+        }
+        if (d.path("population").asText().equals(Population.SAMPLE.name())) {
+            d.remove("population"); // likewise a sample, judged as every dataset was before populations existed
         }
         ObjectNode root = CANONICAL.createObjectNode();
         root.put("alpha", alpha);

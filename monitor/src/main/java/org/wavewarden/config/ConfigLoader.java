@@ -8,6 +8,7 @@ import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import com.fasterxml.jackson.dataformat.yaml.YAMLFactory;
 import org.quartz.CronExpression;
+import org.wavewarden.review.ReviewReason;
 
 import java.io.IOException;
 import java.nio.file.Files;
@@ -284,7 +285,8 @@ public final class ConfigLoader {
         DatasetConfig dataset(ObjectNode node, String path) {
             known(node, path, "name", "table", "waveColumn", "tablePattern", "waveOrder", "compareWith", "schedule",
                     "exclude", "variables", "quietPeriod", "alerts", "readyTable", "readyColumn", "weightColumn",
-                    "respondentKey", "releases", "design", "relationships", "codebook");
+                    "respondentKey", "releases", "design", "relationships", "codebook", "population",
+                    "expectedChanges", "mutes");
             String name = text(node, "name", path + ".name", true);
             if (!name.matches("[A-Za-z0-9][A-Za-z0-9_.-]{0,99}")) {
                 throw new ConfigException(path + ".name", "expected letters, digits, '-', '_' or '.' (at most 100)"
@@ -359,9 +361,152 @@ public final class ConfigLoader {
                     design(object(node, "design", path + ".design", false), path, waveColumn, key,
                             weightColumn(node, path)),
                     relationships(node.get("relationships"), path + ".relationships"),
-                    codebook(object(node, "codebook", path + ".codebook", false), path + ".codebook"));
+                    codebook(object(node, "codebook", path + ".codebook", false), path + ".codebook"),
+                    population(node, path + ".population"),
+                    new AlertRules(expectedChanges(node.get("expectedChanges"), path + ".expectedChanges", order),
+                            mutes(node.get("mutes"), path + ".mutes", order)));
             notBookkeeping(d, path);
             return d;
+        }
+
+        /** {@code population: sample | census | register}; a sample when left out. */
+        Population population(ObjectNode node, String path) {
+            String p = text(node, "population", path, false);
+            if (p == null) {
+                return Population.SAMPLE;
+            }
+            List<String> names = java.util.Arrays.stream(Population.values())
+                    .map(v -> v.name().toLowerCase(Locale.ROOT)).toList();
+            if (!names.contains(p)) {
+                throw new ConfigException(path, "expected one of " + String.join(", ", names) + " but got "
+                        + Identifiers.Text.show(p) + Suggest.nearest(p, names).map(x -> " (did you mean '" + x + "'?)")
+                        .orElse(""));
+            }
+            return Population.valueOf(p.toUpperCase(Locale.ROOT));
+        }
+
+        /**
+         * Changes declared ahead: {@code [{variable, waves, reason, note, by}]}, where {@code waves} is one wave
+         * label or {@code {from, to}} (both inclusive).
+         */
+        List<ExpectedChange> expectedChanges(JsonNode node, String path, WaveOrder order) {
+            List<ExpectedChange> out = new ArrayList<>();
+            for (int i = 0; i < listSize(node, path, "{variable, waves, reason, note, by}"); i++) {
+                String p = path + "[" + i + "]";
+                ObjectNode o = asObject(node.get(i), p);
+                known(o, p, "variable", "waves", "reason", "note", "by");
+                String variable = variablePattern(text(o, "variable", p + ".variable", true), p + ".variable");
+                JsonNode w = o.get("waves");
+                String from;
+                String to;
+                if (w == null || w.isNull()) {
+                    throw new ConfigException(p + ".waves", "missing: expected one wave label, or {from, to} for a"
+                            + " range of waves");
+                } else if (w.isObject()) {
+                    ObjectNode range = (ObjectNode) w;
+                    known(range, p + ".waves", "from", "to");
+                    from = wave(text(range, "from", p + ".waves.from", true), p + ".waves.from", order);
+                    to = wave(text(range, "to", p + ".waves.to", true), p + ".waves.to", order);
+                    if (!order.isNatural() && order.explicit().indexOf(from) > order.explicit().indexOf(to)) {
+                        throw new ConfigException(p + ".waves.to", "wave '" + to + "' comes before from '" + from
+                                + "' in the waveOrder " + order.explicit());
+                    }
+                } else {
+                    from = wave(text(o, "waves", p + ".waves", true), p + ".waves", order);
+                    to = from;
+                }
+                ReviewReason reason = reason(text(o, "reason", p + ".reason", true), p + ".reason");
+                out.add(new ExpectedChange(variable, from, to, reason, text(o, "note", p + ".note", false),
+                        text(o, "by", p + ".by", true)));
+            }
+            return out;
+        }
+
+        /**
+         * Mute rules: {@code [{variable, kind, untilWave, untilDate, reason, by}]}; variable and kind narrow the rule
+         * (left out: every variable, every kind), and at least one expiry is required so that no mute is forever.
+         */
+        List<MuteRule> mutes(JsonNode node, String path, WaveOrder order) {
+            List<MuteRule> out = new ArrayList<>();
+            for (int i = 0; i < listSize(node, path, "{variable, kind, untilWave, untilDate, reason, by}"); i++) {
+                String p = path + "[" + i + "]";
+                ObjectNode o = asObject(node.get(i), p);
+                known(o, p, "variable", "kind", "untilWave", "untilDate", "reason", "by");
+                String variable = text(o, "variable", p + ".variable", false);
+                if (variable != null) {
+                    variable = variablePattern(variable, p + ".variable");
+                }
+                String kind = text(o, "kind", p + ".kind", false);
+                String untilWave = text(o, "untilWave", p + ".untilWave", false);
+                if (untilWave != null) {
+                    wave(untilWave, p + ".untilWave", order);
+                }
+                String untilDate = text(o, "untilDate", p + ".untilDate", false);
+                if (untilWave == null && untilDate == null) {
+                    throw new ConfigException(p + ".untilWave", "missing: a mute ends at a wave (untilWave), a day"
+                            + " (untilDate, such as 2025-06-30) or both, whichever comes first");
+                }
+                java.time.LocalDate until = null;
+                if (untilDate != null) {
+                    try {
+                        until = java.time.LocalDate.parse(untilDate);
+                    } catch (java.time.format.DateTimeParseException e) {
+                        throw new ConfigException(p + ".untilDate", "expected an ISO date such as 2025-06-30 but got "
+                                + Identifiers.Text.show(untilDate));
+                    }
+                }
+                out.add(new MuteRule(variable, kind == null ? null : findingKind(kind, p + ".kind"), untilWave, until,
+                        text(o, "reason", p + ".reason", true), text(o, "by", p + ".by", true)));
+            }
+            return out;
+        }
+
+        /** The size of an optional list of mappings; null is an empty list. */
+        int listSize(JsonNode node, String path, String shape) {
+            if (node == null || node.isNull()) {
+                return 0;
+            }
+            if (!node.isArray()) {
+                throw new ConfigException(path, "expected a list of " + shape + " but got " + describe(node));
+            }
+            return node.size();
+        }
+
+        /** A variable name, or a pattern in which {@code *} stands for any run of characters. */
+        String variablePattern(String text, String path) {
+            if (text.chars().anyMatch(Character::isISOControl)) {
+                throw new ConfigException(path, "expected a variable name or a pattern with * but got text with a"
+                        + " control character");
+            }
+            return text.strip();
+        }
+
+        /** A wave label; with an explicit waveOrder it must be one of its waves. */
+        String wave(String label, String path, WaveOrder order) {
+            if (!order.isNatural() && !order.explicit().contains(label)) {
+                throw new ConfigException(path, "wave '" + label + "' is not in the waveOrder " + order.explicit()
+                        + Suggest.nearest(label, order.explicit()).map(x -> " (did you mean '" + x + "'?)")
+                        .orElse(""));
+            }
+            return label;
+        }
+
+        ReviewReason reason(String text, String path) {
+            return ReviewReason.parse(text).orElseThrow(() -> new ConfigException(path, "expected one of "
+                    + ReviewReason.keys() + " but got \"" + text + "\""
+                    + Suggest.nearest(text, java.util.Arrays.stream(ReviewReason.values()).map(ReviewReason::key)
+                    .toList()).map(x -> " (did you mean '" + x + "'?)").orElse("")));
+        }
+
+        org.wavewarden.judge.FindingKind findingKind(String text, String path) {
+            List<String> names = java.util.Arrays.stream(org.wavewarden.judge.FindingKind.values()).map(Enum::name)
+                    .toList();
+            if (!names.contains(text)) {
+                throw new ConfigException(path, "unknown finding kind " + Identifiers.Text.show(text)
+                        + Suggest.nearest(text, names).map(x -> "; did you mean '" + x + "'?")
+                        .orElse("; expected one of " + String.join(", ", names)));
+            }
+            return org.wavewarden.judge.FindingKind.valueOf(text);
         }
 
         /**

@@ -41,6 +41,28 @@ public final class ConsoleTable {
         return sb.toString();
     }
 
+    /**
+     * Any other listing as a fixed-width table: every cell made visible and cut to its column's width (a width of 0
+     * leaves the cell whole, for a last column), so that no value from the data can break a row or the columns.
+     */
+    public static String table(java.util.List<String> headers, int[] widths,
+                               java.util.List<java.util.List<String>> rows) {
+        StringBuilder sb = new StringBuilder();
+        line(sb, headers, widths);
+        rows.forEach(r -> line(sb, r, widths));
+        return sb.toString();
+    }
+
+    private static void line(StringBuilder sb, java.util.List<String> cells, int[] widths) {
+        StringBuilder row = new StringBuilder(" ");
+        for (int i = 0; i < cells.size(); i++) {
+            String v = DataText.visible(cells.get(i));
+            int w = i < widths.length ? widths[i] : 0;
+            row.append(' ').append(w == 0 ? v : String.format(Locale.ROOT, "%-" + w + "s", cut(v, w)));
+        }
+        sb.append(row.toString().stripTrailing()).append('\n');
+    }
+
     static String cut(String s, int n) {
         return s.length() <= n ? s : s.substring(0, n - 1) + "~";
     }

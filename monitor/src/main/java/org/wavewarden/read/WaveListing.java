@@ -62,7 +62,7 @@ public final class WaveListing {
     }
 
     /** Numeric order when every label is a number, else text order (which suits 2025-Q1 or 2025-03 labels). */
-    static Comparator<String> naturalOrder(List<String> labels) {
+    public static Comparator<String> naturalOrder(List<String> labels) {
         boolean numeric = !labels.isEmpty() && labels.stream().allMatch(l -> l.matches("-?\\d+(\\.\\d+)?"));
         return numeric ? Comparator.comparing(BigDecimal::new) : Comparator.naturalOrder();
     }
