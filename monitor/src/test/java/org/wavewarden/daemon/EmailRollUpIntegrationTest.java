@@ -205,6 +205,11 @@ class EmailRollUpIntegrationTest {
 
         List<String> row = rollUpRow("state", "folder", "item");
         assertEquals("delivered", row.get(0));
+        try (Connection c = TestDatabase.connect(url); var st = c.createStatement();
+             ResultSet rs = st.executeQuery("SELECT count(*) FROM hh_results.outbox WHERE product = 'alert'")) {
+            rs.next();
+            assertEquals(0, rs.getInt(1), "a sink sent only roll-ups owes no alert on its own");
+        }
         Path folder = Path.of(row.get(1));
         String link = BASE + "/" + out.toAbsolutePath().normalize().relativize(folder).toString().replace('\\', '/')
                 + "/digest.html";
