@@ -46,6 +46,13 @@ import java.util.Optional;
  * by later firings after a backoff that doubles with each time it died ({@link RetryPolicy#ceiling}), or at once
  * when replayed; a later success marks it delivered and removes its dead letter. Only an unreachable results
  * database escapes a step (its failure cannot be recorded), so that the firing is retried.
+ *
+ * <p>An alert row is sent only while its alert is open ({@link AlertReviews#states}): one explained (by an
+ * expected change at creation, or by a person since) or muted is marked {@code withheld} with its state, and
+ * shows in the digest instead. A sink can also (or instead) take one {@link RollUp} per firing: rendered here from
+ * the stored results of the firing's runs and the alerts' states now, it lists the open alerts its filter takes
+ * and counts the rest; one with nothing new is withheld. A roll-up or an e-mail the sink gave up on
+ * ({@link UndeliveredException}) is marked dead with the reason and tried again after the same backoff.
  */
 public final class Deliveries {
 

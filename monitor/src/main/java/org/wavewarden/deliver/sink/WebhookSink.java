@@ -31,6 +31,11 @@ import java.util.Set;
  * the receiver acknowledges or refuses that alert alone, and one alert the receiver refuses becomes one dead
  * letter instead of holding back the rest. Alerts are few per wave, so the extra requests cost little.
  *
+ * <p><b>Roll-ups and chat tools.</b> Configured so, the sink also (or instead) posts one {@link RollUp} per firing,
+ * its JSON form as the body, under its own idempotency key. With a text field configured, every body is instead
+ * {@code {"<field>": "<the message as plain text>"}}, written by Jackson, for chat tools that take one text field;
+ * it is signed the same way.
+ *
  * <p><b>Headers.</b> {@code Content-Type: application/json}; {@code X-Wavewarden-Signature: sha256=<hex>}, the
  * HMAC-SHA256 (RFC 2104) of the exact body bytes keyed with the shared secret, which the receiver recomputes over
  * the bytes it received before trusting them (see {@link Signatures#verify}); {@code X-Wavewarden-Delivery} and
