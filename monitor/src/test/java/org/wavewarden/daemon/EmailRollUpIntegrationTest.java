@@ -308,12 +308,32 @@ class EmailRollUpIntegrationTest {
         }
     }
 
+    @Test
+    @Order(6)
+    void perAlertEachAlertIsAnEmailOfItsOwnKeyedByTheAlert() throws Exception {
+        SinkSettings.Email perAlert = ConfigLoader.parse(yaml(url, relay.port(), cert.pem()).replace(
+                "        userEnv:", "        messages: perAlert\n        userEnv:")).dataset("household").alerts().email();
+        assertEquals(SinkSettings.Messages.PER_ALERT, perAlert.messages());
+        var m = RollUpFixture.one().alerts().get(0);
+        int before = relay.received().size();
+        try (EmailSink sink = new EmailSink(perAlert, Map.of("RELAY_USER", USER, "RELAY_PASSWORD", PASSWORD)::get,
+                SinkFilter.all(), RetryPolicy.of(1, Duration.ofMillis(1), Duration.ofMillis(1)))) {
+            assertEquals(1, sink.deliver(List.of(m, m)).delivered(), "the same alert twice in a batch is sent once");
+        }
+        List<SmtpRelay.Received> got = relay.received();
+        assertEquals(before + 1, got.size());
+        Message mail = got.get(got.size() - 1).message();
+        assertEquals("[Wavewarden] household wave w2: MATERIAL score", mail.getSubject());
+        assertEquals("<" + m.idempotencyKey() + "@harrowmere.example>", mail.getHeader("Message-ID")[0]);
+        assertEquals(RollUp.text(m), body(got.get(got.size() - 1)).stripTrailing());
+    }
+
     /** A roll-up of one alert, for the tests of the transport alone. */
     static final class RollUpFixture {
         static RollUp one() {
             var m = new org.wavewarden.deliver.sink.AlertMessage("household", "w2", "w1", 1L, "score",
                     org.wavewarden.judge.FindingKind.SHIFT, org.wavewarden.judge.Verdict.MATERIAL, "Scores rose.",
-                    null, null, null, "0".repeat(64));
+                    null, null, null, "5".repeat(64));
             return new RollUp("household", "digest-test", List.of(1L), List.of(m), RollUp.NotSent.NONE, null,
                     RollUp.idempotencyKey("household", "email:test", "roll-up of test"));
         }
