@@ -233,7 +233,7 @@ public final class EmailSink implements AlertSink, AutoCloseable {
     }
 
     /** A socket factory trusting exactly the certificates of a PEM file (a private relay's authority). */
-    static SSLSocketFactory trusting(Path pem) {
+    public static SSLSocketFactory trusting(Path pem) {
         try (InputStream in = Files.newInputStream(pem)) {
             Collection<? extends Certificate> certs = CertificateFactory.getInstance("X.509")
                     .generateCertificates(in);
