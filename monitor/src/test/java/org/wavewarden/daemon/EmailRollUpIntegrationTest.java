@@ -120,19 +120,27 @@ class EmailRollUpIntegrationTest {
     }
 
     static Session session(String password) {
-        Session s = Session.open(config, null, Map.of("RELAY_USER", USER, "RELAY_PASSWORD", password));
+        return session(password, config);
+    }
+
+    static Session session(String password, WardenConfig c) {
+        Session s = Session.open(c, null, Map.of("RELAY_USER", USER, "RELAY_PASSWORD", password));
         s.migrate();
         return s;
     }
 
     /** One firing of the daemon for the dataset: judge what changed, then carry out what is owed. */
     static Deliveries.Outcome fire(Session s) {
+        return fire(s, config);
+    }
+
+    static Deliveries.Outcome fire(Session s, WardenConfig c) {
         Map<String, List<AlertSink>> sinks = Sinks.fromConfig(s, RetryPolicy.of(2, Duration.ofMillis(1),
                 Duration.ofMillis(2)));
         Deliveries deliveries = new Deliveries(s, sinks, Clock.fixed(now, ZoneOffset.UTC),
                 Deliveries.DEAD_LETTER_BACKOFF);
         new DatasetFiring(s, Clock.fixed(now, ZoneOffset.UTC), out, deliveries.sinkNames("household"),
-                deliveries.rollUpSinkNames("household"), true).fire(config.dataset("household"));
+                deliveries.rollUpSinkNames("household"), true).fire(c.dataset("household"));
         now = now.plus(Duration.ofMinutes(1));
         return deliveries.deliver("household");
     }
@@ -326,6 +334,34 @@ class EmailRollUpIntegrationTest {
         assertEquals("[Wavewarden] household wave w2: MATERIAL score", mail.getSubject());
         assertEquals("<" + m.idempotencyKey() + "@harrowmere.example>", mail.getHeader("Message-ID")[0]);
         assertEquals(RollUp.text(m), body(got.get(got.size() - 1)).stripTrailing());
+    }
+
+    @Test
+    @Order(7)
+    void aFiringWithNothingNewForTheSinkSendsNothingAndSaysWhy() throws Exception {
+        try (Connection c = TestDatabase.connect(url); var st = c.createStatement()) {
+            st.execute("INSERT INTO src.hh SELECT 'w4', pid, score, height_cm, region FROM src.hh WHERE wave = 'w3'");
+        }
+        // This sink takes only added columns among the data-quality findings: whatever w4 raises is not for it.
+        WardenConfig onlyAddedColumns = ConfigLoader.parse(yaml(url, relay.port(), cert.pem()).replace(
+                "        userEnv:", "        kinds: [COLUMN_ADDED]\n        userEnv:"));
+        int before = relay.received().size();
+        try (Session s = session(PASSWORD, onlyAddedColumns)) {
+            fire(s, onlyAddedColumns);
+        }
+        assertEquals(before, relay.received().size(), "nothing new, nothing sent");
+        long notSent;
+        try (Connection c = TestDatabase.connect(url); var st = c.createStatement();
+             ResultSet rs = st.executeQuery("SELECT (SELECT count(*) FROM hh_results.alert WHERE wave = 'w4'"
+                     + " AND superseded_at IS NULL) + (SELECT count(*) FROM hh_results.finding f JOIN"
+                     + " hh_results.run r ON r.run_id = f.run_id WHERE r.wave = 'w4' AND f.repeat IS NOT NULL)")) {
+            rs.next();
+            notSent = rs.getLong(1);
+        }
+        // The sentinel heights are still in w4: an alert of a kind this sink does not take, or a repeat.
+        assertTrue(notSent >= 1, "w4 found something that was not sent: " + notSent);
+        List<String> row = rollUpRow("state", "last_error");
+        assertEquals(List.of("withheld", "nothing new: " + notSent + " not sent on their own"), row);
     }
 
     /** A roll-up of one alert, for the tests of the transport alone. */
