@@ -364,6 +364,21 @@ class EmailRollUpIntegrationTest {
         assertEquals(List.of("withheld", "nothing new: " + notSent + " not sent on their own"), row);
     }
 
+    @Test
+    @Order(8)
+    void aPlainLoopbackRelayIsUsedOnlyWhenConfiguredSo() throws Exception {
+        try (SmtpRelay plain = SmtpRelay.withoutTls(USER, PASSWORD)) {
+            SinkSettings.Email settings = ConfigLoader.parse(yaml(url, plain.port(), null).replace(
+                    "        userEnv:", "        tls: none\n        userEnv:")).dataset("household").alerts().email();
+            try (EmailSink sink = new EmailSink(settings, Map.of("RELAY_USER", USER, "RELAY_PASSWORD", PASSWORD)::get,
+                    SinkFilter.all(), RetryPolicy.of(1, Duration.ofMillis(1), Duration.ofMillis(1)))) {
+                sink.deliverRollUp(RollUpFixture.one());
+            }
+            assertEquals(1, plain.received().size());
+            assertEquals(List.of(USER), plain.logins());
+        }
+    }
+
     /** A roll-up of one alert, for the tests of the transport alone. */
     static final class RollUpFixture {
         static RollUp one() {
