@@ -4,6 +4,8 @@ import org.wavewarden.config.ConfigException;
 import org.wavewarden.config.DaemonConfig;
 import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.WardenConfig;
+import org.wavewarden.config.SinkSettings;
+import org.wavewarden.deliver.sink.EmailSink;
 import org.wavewarden.deliver.sink.SinkFactory;
 
 import java.io.IOException;
@@ -14,8 +16,8 @@ import java.net.UnknownHostException;
 import java.util.Map;
 
 /**
- * The checks of {@code run} that need the machine rather than the database: each webhook's secret is in the
- * environment and the status port can be bound. They run before any connection is opened, so a daemon that could
+ * The checks of {@code run} that need the machine rather than the database: each webhook's secret and each
+ * e-mail relay's credentials are in the environment (and a relay's CA file is readable) and the status port can be bound. They run before any connection is opened, so a daemon that could
  * not work refuses to start with the key to fix (exit 2) instead of failing later with a stack trace.
  */
 final class Preflight {
@@ -38,9 +40,29 @@ final class Preflight {
                             + " is not set or empty; it must hold the webhook's shared secret");
                 }
             }
+            if (d.alerts().email() != null) {
+                email(d.alerts().email(), "datasets[" + i + "].alerts.email", env);
+            }
         }
         if (statusServer) {
             portIsFree(config.daemon());
+        }
+    }
+
+    /** The relay's credentials are in the environment and its CA file holds certificates. */
+    static void email(SinkSettings.Email e, String path, Map<String, String> env) {
+        for (String[] v : new String[][] {{"userEnv", e.userEnv()}, {"passwordEnv", e.passwordEnv()}}) {
+            if (v[1] != null && (env.get(v[1]) == null || env.get(v[1]).isEmpty())) {
+                throw new ConfigException(path + "." + v[0], "environment variable " + v[1] + " is not set or empty;"
+                        + " it must hold the SMTP relay's " + (v[0].equals("userEnv") ? "user name" : "password"));
+            }
+        }
+        if (e.caFile() != null) {
+            try {
+                EmailSink.trusting(java.nio.file.Path.of(e.caFile()));
+            } catch (IllegalArgumentException x) {
+                throw new ConfigException(path + ".caFile", x.getMessage().replaceFirst("^caFile: ", ""));
+            }
         }
     }
 

@@ -152,7 +152,7 @@ public final class ConfigLoader {
             if (node == null) {
                 return SinkSettings.NONE;
             }
-            known(node, path, "jsonLines", "webhook");
+            known(node, path, "jsonLines", "webhook", "email", "digestBaseUrl");
             SinkSettings.JsonLines jl = null;
             SinkSettings.Webhook wh = null;
             ObjectNode j = object(node, "jsonLines", path + ".jsonLines", false);
@@ -163,23 +163,137 @@ public final class ConfigLoader {
             }
             ObjectNode w = object(node, "webhook", path + ".webhook", false);
             if (w != null) {
-                known(w, path + ".webhook", "url", "secretEnv", "minimumVerdict", "kinds", "secret");
+                String wp = path + ".webhook";
+                known(w, wp, "url", "secretEnv", "minimumVerdict", "kinds", "secret", "messages", "textField");
                 if (w.has("secret")) {
-                    throw new ConfigException(path + ".webhook.secret", "secrets are never written in the config;"
+                    throw new ConfigException(wp + ".secret", "secrets are never written in the config;"
                             + " name an environment variable with secretEnv");
                 }
-                String url = text(w, "url", path + ".webhook.url", true);
+                String url = text(w, "url", wp + ".url", true);
                 if (!url.matches("https?://[^\\s]+")) {
-                    throw new ConfigException(path + ".webhook.url", "expected an http:// or https:// URL but got "
+                    throw new ConfigException(wp + ".url", "expected an http:// or https:// URL but got "
                             + Identifiers.Text.show(url));
                 }
-                String env = text(w, "secretEnv", path + ".webhook.secretEnv", true);
+                String env = text(w, "secretEnv", wp + ".secretEnv", true);
                 if (!env.matches("[A-Za-z_][A-Za-z0-9_]*")) {
-                    throw new ConfigException(path + ".webhook.secretEnv", "expected an environment variable name");
+                    throw new ConfigException(wp + ".secretEnv", "expected an environment variable name");
                 }
-                wh = new SinkSettings.Webhook(url, env, filter(w, path + ".webhook"));
+                String field = text(w, "textField", wp + ".textField", false);
+                if (field != null && !field.matches("[A-Za-z_][A-Za-z0-9_]{0,63}")) {
+                    throw new ConfigException(wp + ".textField", "expected a JSON field name of letters, digits"
+                            + " and '_' (such as text) but got " + Identifiers.Text.show(field));
+                }
+                wh = new SinkSettings.Webhook(url, env, filter(w, wp),
+                        messages(w, wp, SinkSettings.Messages.PER_ALERT), field);
             }
-            return new SinkSettings(jl, wh);
+            SinkSettings.Email em = email(object(node, "email", path + ".email", false), path + ".email");
+            String base = text(node, "digestBaseUrl", path + ".digestBaseUrl", false);
+            if (base != null) {
+                if (!base.matches("https?://[^\\s?#]+")) {
+                    throw new ConfigException(path + ".digestBaseUrl", "expected an http:// or https:// URL without"
+                            + " query or fragment but got " + Identifiers.Text.show(base));
+                }
+                base = base.replaceAll("/+$", "");
+            }
+            return new SinkSettings(jl, wh, em, base);
+        }
+
+        SinkSettings.Messages messages(ObjectNode node, String path, SinkSettings.Messages dflt) {
+            String m = text(node, "messages", path + ".messages", false);
+            if (m == null) {
+                return dflt;
+            }
+            SinkSettings.Messages out = SinkSettings.Messages.of(m);
+            if (out == null) {
+                throw new ConfigException(path + ".messages", "expected perAlert, perFiring or both but got "
+                        + Identifiers.Text.show(m));
+            }
+            return out;
+        }
+
+        SinkSettings.Email email(ObjectNode e, String path) {
+            if (e == null) {
+                return null;
+            }
+            known(e, path, "host", "port", "tls", "caFile", "userEnv", "passwordEnv", "password", "from", "to",
+                    "minimumVerdict", "kinds", "messages");
+            if (e.has("password")) {
+                throw new ConfigException(path + ".password", "passwords are never written in the config; name an"
+                        + " environment variable with passwordEnv");
+            }
+            String host = text(e, "host", path + ".host", true);
+            if (!host.matches("[0-9A-Za-z.:\\-\\[\\]]{1,255}")) {
+                throw new ConfigException(path + ".host", "expected a host name or IP address but got "
+                        + Identifiers.Text.show(host));
+            }
+            double port = number(e, "port", path + ".port", 587);
+            if (port != Math.rint(port) || port < 1 || port > 65535) {
+                throw new ConfigException(path + ".port", "expected a port from 1 to 65535 but got "
+                        + e.get("port").asText());
+            }
+            String tlsText = text(e, "tls", path + ".tls", false);
+            SinkSettings.Tls tls;
+            if (tlsText == null || tlsText.equals("starttls")) {
+                tls = SinkSettings.Tls.STARTTLS;
+            } else if (tlsText.equals("none")) {
+                tls = SinkSettings.Tls.NONE;
+                // Credentials and alerts in clear text are acceptable only to a relay on this very machine.
+                if (!(host.equals("localhost") || host.startsWith("127.") || host.equals("::1")
+                        || host.equals("[::1]"))) {
+                    throw new ConfigException(path + ".tls", "none is only for a relay on the loopback interface"
+                            + " (localhost, 127.0.0.1 or ::1); " + Identifiers.Text.show(host) + " needs starttls");
+                }
+            } else {
+                throw new ConfigException(path + ".tls", "expected starttls or none but got "
+                        + Identifiers.Text.show(tlsText));
+            }
+            String ca = text(e, "caFile", path + ".caFile", false);
+            if (ca != null && tls == SinkSettings.Tls.NONE) {
+                throw new ConfigException(path + ".caFile", "only meaningful with tls: starttls");
+            }
+            String userEnv = envName(e, "userEnv", path);
+            String passwordEnv = envName(e, "passwordEnv", path);
+            if ((userEnv == null) != (passwordEnv == null)) {
+                throw new ConfigException(path + (userEnv == null ? ".userEnv" : ".passwordEnv"), "give both userEnv"
+                        + " and passwordEnv, or neither for a relay that takes mail without authentication");
+            }
+            String from = address(text(e, "from", path + ".from", true), path + ".from");
+            JsonNode toNode = e.get("to");
+            List<String> to = toNode != null && toNode.isTextual() ? List.of(toNode.asText())
+                    : texts(e, "to", path + ".to");
+            if (to.isEmpty()) {
+                throw new ConfigException(path + ".to", "missing: expected at least one recipient address");
+            }
+            List<String> checked = new ArrayList<>();
+            for (int i = 0; i < to.size(); i++) {
+                checked.add(address(to.get(i), toNode.isTextual() ? path + ".to" : path + ".to[" + i + "]"));
+            }
+            return new SinkSettings.Email(host, (int) port, tls, ca, userEnv, passwordEnv, from, checked,
+                    filter(e, path), messages(e, path, SinkSettings.Messages.PER_FIRING));
+        }
+
+        String envName(ObjectNode node, String key, String path) {
+            String env = text(node, key, path + "." + key, false);
+            if (env != null && !env.matches("[A-Za-z_][A-Za-z0-9_]*")) {
+                throw new ConfigException(path + "." + key, "expected an environment variable name but got "
+                        + Identifiers.Text.show(env));
+            }
+            return env;
+        }
+
+        /** A bare address (local@domain, RFC 5322 addr-spec without a display name), checked strictly. */
+        static String address(String text, String path) {
+            try {
+                jakarta.mail.internet.InternetAddress a = new jakarta.mail.internet.InternetAddress(text, true);
+                a.validate();
+                if (!a.getAddress().equals(text) || !text.matches("[^@\\s]+@[^@\\s]+\\.[^@\\s]+")) {
+                    throw new jakarta.mail.internet.AddressException("not a bare address");
+                }
+                return text;
+            } catch (jakarta.mail.internet.AddressException ex) {
+                throw new ConfigException(path, "expected an e-mail address such as survey-ops@harrowmere.example"
+                        + " but got " + Identifiers.Text.show(text));
+            }
         }
 
         SinkSettings.Filter filter(ObjectNode node, String path) {

@@ -218,7 +218,7 @@ public final class Daemon implements AutoCloseable {
             long started = System.nanoTime();
             try {
                 DatasetFiring.Result r = new DatasetFiring(session, clock, outputDir,
-                        deliveries.sinkNames(dataset), true).fire(d);
+                        deliveries.sinkNames(dataset), deliveries.rollUpSinkNames(dataset), true).fire(d);
                 long judgedNanos = System.nanoTime() - started;
                 int alerts = 0;
                 for (JudgedWave j : r.judged()) {

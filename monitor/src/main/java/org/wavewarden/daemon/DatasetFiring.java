@@ -41,6 +41,7 @@ public final class DatasetFiring {
     private final Clock clock;
     private final Path outputDir;
     private final List<String> alertSinks;
+    private final List<String> rollUpSinks;
     private final boolean digest;
 
     /** A firing whose runs owe their wave files only, which it writes before it returns. */
@@ -54,6 +55,13 @@ public final class DatasetFiring {
      *                   whose delivery step writes every file, so this firing writes none itself
      */
     public DatasetFiring(Session session, Clock clock, Path outputDir, List<String> alertSinks, boolean digest) {
+        this(session, clock, outputDir, alertSinks, List.of(), digest);
+    }
+
+    /** @param rollUpSinks the names of the sinks that get one roll-up of the firing's new alerts */
+    public DatasetFiring(Session session, Clock clock, Path outputDir, List<String> alertSinks,
+                         List<String> rollUpSinks, boolean digest) {
+        this.rollUpSinks = List.copyOf(rollUpSinks);
         this.session = session;
         this.clock = clock;
         this.outputDir = outputDir;
@@ -76,7 +84,8 @@ public final class DatasetFiring {
      */
     public Result fire(DatasetConfig d) {
         Path datasetDir = OutputPaths.under(outputDir, d.name());
-        Path digestFolder = digest ? datasetDir.resolve("digest-" + STAMP.format(clock.instant())) : null;
+        Path firing = datasetDir.resolve("digest-" + STAMP.format(clock.instant()));
+        Path digestFolder = digest ? firing : null;
         WaveJudge judge = new WaveJudge(session, clock);
         ResultsStore store = session.store();
         List<JudgedWave> judged = new ArrayList<>();
@@ -101,7 +110,7 @@ public final class DatasetFiring {
                 continue;
             }
             judged.add(judge.judgeWithOutputs(d, w.wave(), null, new OutboxStore.Outputs(
-                    OutputPaths.under(datasetDir, w.wave()), digestFolder, alertSinks), null));
+                    OutputPaths.under(datasetDir, w.wave()), digestFolder, alertSinks, rollUpSinks, firing), null));
             store.judgedFingerprint(d.name(), w.wave(), w.fingerprint());
         }
         for (JudgedWave j : digest ? List.<JudgedWave>of() : judged) {

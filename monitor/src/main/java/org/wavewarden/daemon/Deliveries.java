@@ -12,6 +12,11 @@ import org.wavewarden.deliver.sink.AlertSink;
 import org.wavewarden.deliver.sink.DeliveryReport;
 import org.wavewarden.deliver.sink.JdbiDeadLetters;
 import org.wavewarden.deliver.sink.RetryPolicy;
+import org.wavewarden.deliver.sink.RollUp;
+import org.wavewarden.deliver.sink.UndeliveredException;
+import org.wavewarden.judge.Finding;
+import org.wavewarden.review.AlertState;
+import org.wavewarden.store.AlertReviews;
 import org.wavewarden.pipeline.DigestAssembler;
 import org.wavewarden.pipeline.FaultPoints;
 import org.wavewarden.pipeline.Session;
@@ -41,6 +46,13 @@ import java.util.Optional;
  * by later firings after a backoff that doubles with each time it died ({@link RetryPolicy#ceiling}), or at once
  * when replayed; a later success marks it delivered and removes its dead letter. Only an unreachable results
  * database escapes a step (its failure cannot be recorded), so that the firing is retried.
+ *
+ * <p>An alert row is sent only while its alert is open ({@link AlertReviews#states}): one explained (by an
+ * expected change at creation, or by a person since) or muted is marked {@code withheld} with its state, and
+ * shows in the digest instead. A sink can also (or instead) take one {@link RollUp} per firing: rendered here from
+ * the stored results of the firing's runs and the alerts' states now, it lists the open alerts its filter takes
+ * and counts the rest; one with nothing new is withheld. A roll-up or an e-mail the sink gave up on
+ * ({@link UndeliveredException}) is marked dead with the reason and tried again after the same backoff.
  */
 public final class Deliveries {
 
@@ -92,9 +104,16 @@ public final class Deliveries {
         this.deadLetterBackoff = deadLetterBackoff;
     }
 
-    /** The names of a dataset's alert sinks, which its runs write outbox rows for. */
+    /** The names of a dataset's sinks that take each alert on its own, which its runs write outbox rows for. */
     List<String> sinkNames(String dataset) {
-        return sinksByDataset.getOrDefault(dataset, List.of()).stream().map(AlertSink::name).toList();
+        return sinksByDataset.getOrDefault(dataset, List.of()).stream().filter(x -> x.messages().perAlert())
+                .map(AlertSink::name).toList();
+    }
+
+    /** The names of a dataset's sinks that take one roll-up per firing. */
+    List<String> rollUpSinkNames(String dataset) {
+        return sinksByDataset.getOrDefault(dataset, List.of()).stream().filter(x -> x.messages().perFiring())
+                .map(AlertSink::name).toList();
     }
 
     /** Carries out everything of the dataset that is due. */
@@ -103,7 +122,10 @@ public final class Deliveries {
         List<Step> steps = new ArrayList<>();
         steps.add(files(dataset));
         for (AlertSink sink : sinksByDataset.getOrDefault(dataset, List.of())) {
-            outbox.enrolAlerts(dataset, sink.name());
+            // A sink sent only roll-ups owes no alert on its own, not even those of runs made without it.
+            if (sink.messages().perAlert()) {
+                outbox.enrolAlerts(dataset, sink.name());
+            }
             steps.add(alerts(dataset, sink));
         }
         Map<String, OutboxStore.Backlog> owed = new java.util.HashMap<>();
@@ -193,7 +215,22 @@ public final class Deliveries {
     private Step alerts(String dataset, AlertSink sink) {
         Step step = new Step(sink.name());
         for (OutboxStore.Row row : outbox.due(dataset, sink.name(), clock.instant())) {
-            Optional<AlertMessage> m = row.alertId() == null ? Optional.empty() : outbox.message(row.alertId());
+            if (row.product().equals(OutboxStore.ROLL_UP)) {
+                if (!rollUp(dataset, sink, row, step)) {
+                    break;
+                }
+                continue;
+            }
+            // An alert explained or muted (at creation, or by a person since) is recorded and shown in the digest,
+            // never sent on its own.
+            AlertState state = row.alertId() == null ? null : reviews().states(List.of(row.alertId()))
+                    .get(row.alertId());
+            if (state == AlertState.EXPLAINED || state == AlertState.MUTED) {
+                outbox.withheld(row.id(), state.name());
+                continue;
+            }
+            Optional<AlertMessage> m = state == null || state == AlertState.SUPERSEDED ? Optional.empty()
+                    : outbox.message(row.alertId());
             if (m.isEmpty()) {
                 outbox.superseded(row.id());
                 continue;
@@ -205,6 +242,9 @@ public final class Deliveries {
             DeliveryReport r;
             try {
                 r = sink.deliver(List.of(m.get()));
+            } catch (UndeliveredException e) {
+                dead(dataset, sink, row, e, step);
+                break;
             } catch (RuntimeException e) {
                 outbox.failed(row.id(), e.getMessage() == null ? e.toString() : e.getMessage());
                 step.failed++;
@@ -234,6 +274,95 @@ public final class Deliveries {
             step.delivered++;
         }
         return step;
+    }
+
+    /**
+     * Carries out a roll-up row: renders it from the stored results of its runs and the alerts' states now, and
+     * hands it to the sink; a roll-up with nothing new is withheld.
+     *
+     * @return false when the sink failed and waits for the next firing
+     */
+    private boolean rollUp(String dataset, AlertSink sink, OutboxStore.Row row, Step step) {
+        RollUp r = rollUpOf(dataset, sink, row);
+        if (r.alerts().isEmpty()) {
+            outbox.withheld(row.id(), "nothing new: " + r.notSent().total() + " not sent on their own");
+            return true;
+        }
+        try {
+            sink.deliverRollUp(r);
+        } catch (UndeliveredException e) {
+            dead(dataset, sink, row, e, step);
+            return false;
+        } catch (RuntimeException e) {
+            outbox.failed(row.id(), e.getMessage() == null ? e.toString() : e.getMessage());
+            step.failed++;
+            LOG.warn("{}: the roll-up to {} failed and waits for the next firing: {}", dataset, sink.name(),
+                    e.getMessage());
+            return false;
+        }
+        FaultPoints.hit(AFTER_SEND);
+        outbox.delivered(row.id());
+        step.delivered++;
+        return true;
+    }
+
+    /** The roll-up of one row for one sink, as it stands now. */
+    RollUp rollUpOf(String dataset, AlertSink sink, OutboxStore.Row row) {
+        List<Long> ids = outbox.rollUpAlerts(row);
+        Map<Long, AlertState> states = ids.isEmpty() ? Map.of() : reviews().states(ids);
+        List<AlertMessage> fresh = new ArrayList<>();
+        int explained = 0;
+        int muted = 0;
+        int notForThisSink = 0;
+        for (long id : ids) {
+            AlertState st = states.get(id);
+            if (st == AlertState.EXPLAINED) {
+                explained++;
+            } else if (st == AlertState.MUTED) {
+                muted++;
+            } else if (st == AlertState.OPEN) {
+                Optional<AlertMessage> m = outbox.message(id);
+                if (m.isPresent() && sink.filter().accepts(m.get())) {
+                    fresh.add(m.get());
+                } else if (m.isPresent()) {
+                    notForThisSink++;
+                }
+            }
+        }
+        Map<String, Integer> repeats = outbox.repeats(row.runIds());
+        RollUp.NotSent notSent = new RollUp.NotSent(explained, muted,
+                repeats.getOrDefault(Finding.Repeat.Kind.STILL_PRESENT.name(), 0),
+                repeats.getOrDefault(Finding.Repeat.Kind.STILL_UNRESOLVABLE.name(), 0), notForThisSink);
+        String firing = Path.of(row.item().substring(row.item().indexOf(" of ") + 4)).getFileName().toString();
+        return new RollUp(dataset, firing, row.runIds(), fresh, notSent, digestLink(dataset, row.folder()),
+                RollUp.idempotencyKey(dataset, sink.name(), row.item()));
+    }
+
+    /**
+     * {@code <digestBaseUrl>/<dataset folder>/<firing folder>/digest.html}: the daemon's output folder as published
+     * under the base URL. The folder names are made by {@link org.wavewarden.deliver.OutputPaths} and the firing's
+     * time stamp, so they hold only letters, digits, '.', '-' and '_' and need no escaping in a URL.
+     */
+    private String digestLink(String dataset, Path digestFolder) {
+        String base = session.config().datasets().stream().filter(x -> x.name().equals(dataset)).findFirst()
+                .map(d -> d.alerts().digestBaseUrl()).orElse(null);
+        if (base == null || digestFolder == null || digestFolder.getParent() == null) {
+            return null;
+        }
+        return base + "/" + digestFolder.getParent().getFileName() + "/" + digestFolder.getFileName()
+                + "/digest.html";
+    }
+
+    private void dead(String dataset, AlertSink sink, OutboxStore.Row row, UndeliveredException e, Step step) {
+        Instant retryAt = clock.instant().plus(deadLetterBackoff.ceiling(row.deadCount() + 1));
+        outbox.dead(row.id(), e.getMessage(), retryAt);
+        step.failed++;
+        LOG.warn("{}: {} gave up on {} after {} attempt(s): {}; tried again after {}; the sink waits for the next"
+                + " firing", dataset, sink.name(), row.product(), e.attempts(), e.getMessage(), retryAt);
+    }
+
+    private AlertReviews reviews() {
+        return new AlertReviews(session.store().jdbi(), session.config().results().schema());
     }
 
     private JdbiDeadLetters deadLetters() {

@@ -3,9 +3,11 @@ package org.wavewarden.daemon;
 import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.SinkSettings;
 import org.wavewarden.deliver.sink.AlertSink;
+import org.wavewarden.deliver.sink.EmailSink;
 import org.wavewarden.deliver.sink.JdbiDeadLetters;
 import org.wavewarden.deliver.sink.RetryPolicy;
 import org.wavewarden.deliver.sink.SinkFactory;
+import org.wavewarden.deliver.sink.SinkFilter;
 import org.wavewarden.deliver.sink.WebhookSink;
 import org.wavewarden.pipeline.Session;
 
@@ -24,7 +26,7 @@ public final class Sinks {
     }
 
     /**
-     * The daemon's sinks. A webhook retries an alert three times within a firing (waits of about 1 and 2 s): the
+     * The daemon's sinks. A webhook (and an e-mail relay) retries an alert three times within a firing (waits of about 1 and 2 s): the
      * outbox retries across firings, so a longer wait here would only hold up the dataset's firing.
      */
     public static Map<String, List<AlertSink>> fromConfig(Session s) {
@@ -49,10 +51,16 @@ public final class Sinks {
                         a.jsonLines().filter().kinds()));
             }
             if (a.webhook() != null) {
-                sinks.add(SinkFactory.webhook(URI.create(a.webhook().url()), a.webhook().secretEnv(), s.env()::get,
-                        a.webhook().filter().minimumVerdict(), a.webhook().filter().kinds(), retry,
+                SinkSettings.Webhook w = a.webhook();
+                sinks.add(new WebhookSink(URI.create(w.url()), SinkFactory.secret(w.secretEnv(), s.env()::get),
+                        SinkFilter.of(w.filter().minimumVerdict(), w.filter().kinds()), retry,
                         new JdbiDeadLetters(s.store().jdbi(), s.config().results().schema()),
-                        SinkFactory.httpClient(), webhookTimeout));
+                        SinkFactory.httpClient(), webhookTimeout, w.messages(), w.textField()));
+            }
+            if (a.email() != null) {
+                SinkSettings.Email e = a.email();
+                sinks.add(new EmailSink(e, s.env()::get, SinkFilter.of(e.filter().minimumVerdict(),
+                        e.filter().kinds()), retry));
             }
             out.put(d.name(), sinks);
         }

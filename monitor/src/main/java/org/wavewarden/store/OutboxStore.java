@@ -29,6 +29,8 @@ public final class OutboxStore {
     public static final String WAVE_FILES = "wave-files";
     public static final String FIRING_DIGEST = "firing-digest";
     public static final String ALERT = "alert";
+    /** One message per firing and sink listing the firing's new alerts (migration V14). */
+    public static final String ROLL_UP = "roll-up";
 
     private final Jdbi jdbi;
     private final String s;
@@ -43,13 +45,25 @@ public final class OutboxStore {
      *
      * @param waveFolder   where the wave's {@code findings.json} and {@code digest.md} go; null for none
      * @param digestFolder the folder of the digest of the firing the run belongs to; null for none
-     * @param alertSinks   the names of the sinks every alert of the run goes to
+     * @param alertSinks   the names of the sinks every alert of the run goes to on its own
+     * @param rollUpSinks  the names of the sinks that get one roll-up of the firing the run belongs to
+     * @param firing       what names the firing, the same for all its runs (the folder its digest would go to);
+     *                     required when there are roll-up sinks
      */
-    public record Outputs(Path waveFolder, Path digestFolder, List<String> alertSinks) {
+    public record Outputs(Path waveFolder, Path digestFolder, List<String> alertSinks, List<String> rollUpSinks,
+                          Path firing) {
         public static final Outputs NONE = new Outputs(null, null, List.of());
 
         public Outputs {
             alertSinks = List.copyOf(alertSinks);
+            rollUpSinks = rollUpSinks == null ? List.of() : List.copyOf(rollUpSinks);
+            if (!rollUpSinks.isEmpty() && firing == null) {
+                throw new IllegalArgumentException("firing: required for roll-up sinks " + rollUpSinks);
+            }
+        }
+
+        public Outputs(Path waveFolder, Path digestFolder, List<String> alertSinks) {
+            this(waveFolder, digestFolder, alertSinks, List.of(), null);
         }
 
         public static Outputs files(Path waveFolder) {
@@ -108,6 +122,22 @@ public final class OutboxStore {
                             .bind("w", run.wave()).bind("against", run.againstWave()).bind("v", a.variable())
                             .bind("kind", a.kind().name()).add();
                 }
+            }
+            b.execute();
+        }
+        if (!outputs.rollUpSinks().isEmpty()) {
+            String firing = outputs.firing().toAbsolutePath().normalize().toString();
+            String digest = outputs.digestFolder() == null ? null
+                    : outputs.digestFolder().toAbsolutePath().normalize().toString();
+            // Keyed like the firing's digest: one row per firing and sink, gathering the firing's runs.
+            PreparedBatch b = h.prepareBatch("INSERT INTO " + s + ".outbox AS o (dataset, sink, product, item,"
+                    + " run_ids, folder) VALUES (:d, :sink, :p, :item, ARRAY[:run]::bigint[], :folder)"
+                    + " ON CONFLICT ON CONSTRAINT outbox_key DO UPDATE SET state = 'pending', next_attempt_at = now(),"
+                    + " delivered_at = NULL, run_ids = (SELECT array_agg(DISTINCT x ORDER BY x)"
+                    + " FROM unnest(o.run_ids || EXCLUDED.run_ids) x)");
+            for (String sink : outputs.rollUpSinks()) {
+                b.bind("d", run.dataset()).bind("sink", sink).bind("p", ROLL_UP).bind("item", ROLL_UP + " of " + firing)
+                        .bind("run", runId).bind("folder", digest).add();
             }
             b.execute();
         }
@@ -206,6 +236,39 @@ public final class OutboxStore {
     /** An alert the sink's filter does not take: nothing is owed. */
     public void filtered(long id) {
         state(id, "filtered");
+    }
+
+    /**
+     * Not sent, and nothing owed: an alert explained or muted by the time it was due, or a roll-up with nothing
+     * new. The reason (e.g. the alert's state) is kept in {@code last_error}.
+     */
+    public void withheld(long id, String reason) {
+        jdbi.useHandle(h -> h.createUpdate("UPDATE " + s + ".outbox SET state = 'withheld', last_error = :why"
+                + " WHERE outbox_id = :id").bind("id", id).bind("why", reason).execute());
+    }
+
+    /**
+     * The alerts a roll-up row announces as new: the alerts of its runs, oldest first, except those an earlier
+     * roll-up of the same sink already carried (a rerun on the same data keeps its run and its alerts).
+     */
+    public List<Long> rollUpAlerts(Row rollUp) {
+        return jdbi.withHandle(h -> h.createQuery("SELECT a.alert_id FROM " + s + ".alert a WHERE a.run_id = ANY"
+                        + " (CAST(:runs AS bigint[])) AND NOT EXISTS (SELECT 1 FROM " + s + ".outbox o WHERE"
+                        + " o.sink = :sink AND o.product = :p AND o.outbox_id <> :id AND o.state = 'delivered'"
+                        + " AND a.run_id = ANY (o.run_ids) AND o.delivered_at >= a.created_at) ORDER BY a.alert_id")
+                .bind("runs", rollUp.runIds().toArray(Long[]::new)).bind("sink", rollUp.sink()).bind("p", ROLL_UP)
+                .bind("id", rollUp.id()).mapTo(Long.class).list());
+    }
+
+    /** How many findings of the runs repeat the previous wave's, by {@link Finding.Repeat.Kind} name. */
+    public java.util.Map<String, Integer> repeats(List<Long> runIds) {
+        return jdbi.withHandle(h -> h.createQuery("SELECT repeat->>'kind' AS k, count(*) AS n FROM " + s + ".finding"
+                        + " WHERE run_id = ANY (CAST(:runs AS bigint[])) AND repeat IS NOT NULL GROUP BY 1")
+                .bind("runs", runIds.toArray(Long[]::new))
+                .reduceRows(new java.util.HashMap<String, Integer>(), (m, r) -> {
+                    m.put(r.getColumn("k", String.class), r.getColumn("n", Integer.class));
+                    return m;
+                }));
     }
 
     private void state(long id, String state) {

@@ -56,6 +56,30 @@ class PreflightTest {
     }
 
     @Test
+    void anUnsetRelayPasswordVariableOrAnUnreadableCaFileExitsTwoNamingItsKey() throws Exception {
+        String unset = "WAVEWARDEN_PREFLIGHT_RELAY_PASSWORD_THAT_IS_NOT_SET";
+        assertEquals(null, System.getenv(unset), "the variable must not be set for this test");
+        String email = "alerts: {email: {host: 127.0.0.1, userEnv: PATH, passwordEnv: " + unset + ","
+                + " from: wavewarden@harrowmere.example, to: survey-ops@harrowmere.example}}";
+        Path file = dir.resolve("relay.yaml");
+        Files.writeString(file, config(email, "httpPort: -1"));
+        CliRun r = CliRun.of("run", "--once", "--config", file.toString());
+        assertEquals(2, r.exitCode(), r.err());
+        assertTrue(r.err().startsWith("config error at datasets[0].alerts.email.passwordEnv: environment variable "
+                + unset + " is not set or empty"), r.err());
+
+        Path notPem = dir.resolve("not-a-ca.pem");
+        Files.writeString(notPem, "not a certificate\n");
+        Files.writeString(file, config(email.replace(unset, "PATH").replace("host: 127.0.0.1,", "host: 127.0.0.1,"
+                + " caFile: \"" + notPem.toString().replace("\\", "/") + "\","), "httpPort: -1"));
+        r = CliRun.of("run", "--once", "--config", file.toString());
+        assertEquals(2, r.exitCode(), r.err());
+        assertTrue(r.err().startsWith("config error at datasets[0].alerts.email.caFile: cannot read certificates"),
+                r.err());
+        assertEquals(0, schemas(), "the results schema is not created");
+    }
+
+    @Test
     void aBusyStatusPortExitsTwoNamingDaemonHttpPortBeforeAnythingIsWritten() throws Exception {
         try (ServerSocket taken = new ServerSocket()) {
             taken.bind(new InetSocketAddress(InetAddress.getByName("127.0.0.1"), 0));

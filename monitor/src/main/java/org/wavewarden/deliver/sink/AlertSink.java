@@ -1,5 +1,7 @@
 package org.wavewarden.deliver.sink;
 
+import org.wavewarden.config.SinkSettings;
+
 import java.util.List;
 
 /**
@@ -17,4 +19,18 @@ public interface AlertSink {
 
     /** Delivers the messages this sink's filter accepts, in the given order. */
     DeliveryReport deliver(List<AlertMessage> messages);
+
+    /** Whether the sink is sent one message per alert, one roll-up per firing, or both. */
+    default SinkSettings.Messages messages() {
+        return SinkSettings.Messages.PER_ALERT;
+    }
+
+    /**
+     * Delivers one firing's roll-up.
+     *
+     * @throws UndeliveredException when the sink gave up on it; the outbox keeps it owed
+     */
+    default void deliverRollUp(RollUp rollUp) {
+        throw new UnsupportedOperationException(name() + " takes no roll-ups");
+    }
 }

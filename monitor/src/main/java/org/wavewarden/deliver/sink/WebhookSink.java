@@ -2,6 +2,8 @@ package org.wavewarden.deliver.sink;
 
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
+import org.wavewarden.config.SinkSettings;
+import org.wavewarden.deliver.Json;
 
 import javax.crypto.spec.SecretKeySpec;
 import java.io.IOException;
@@ -15,6 +17,7 @@ import java.time.Duration;
 import java.util.HashSet;
 import java.util.List;
 import java.util.Locale;
+import java.util.Map;
 import java.util.Objects;
 import java.util.Optional;
 import java.util.Random;
@@ -27,6 +30,11 @@ import java.util.Set;
  * request keeps the contract simple for the receiver: the delivery header names the one alert the body holds,
  * the receiver acknowledges or refuses that alert alone, and one alert the receiver refuses becomes one dead
  * letter instead of holding back the rest. Alerts are few per wave, so the extra requests cost little.
+ *
+ * <p><b>Roll-ups and chat tools.</b> Configured so, the sink also (or instead) posts one {@link RollUp} per firing,
+ * its JSON form as the body, under its own idempotency key. With a text field configured, every body is instead
+ * {@code {"<field>": "<the message as plain text>"}}, written by Jackson, for chat tools that take one text field;
+ * it is signed the same way.
  *
  * <p><b>Headers.</b> {@code Content-Type: application/json}; {@code X-Wavewarden-Signature: sha256=<hex>}, the
  * HMAC-SHA256 (RFC 2104) of the exact body bytes keyed with the shared secret, which the receiver recomputes over
@@ -68,6 +76,8 @@ public final class WebhookSink implements AlertSink {
     private final Random jitter;
     private final String name;
     private final Duration requestTimeout;
+    private final SinkSettings.Messages messages;
+    private final String textField;
 
     public WebhookSink(URI url, String secret, SinkFilter filter, RetryPolicy retry, DeadLetters deadLetters,
                        HttpClient client) {
@@ -77,6 +87,21 @@ public final class WebhookSink implements AlertSink {
     /** @param requestTimeout how long one attempt may take, connection included */
     public WebhookSink(URI url, String secret, SinkFilter filter, RetryPolicy retry, DeadLetters deadLetters,
                        HttpClient client, Duration requestTimeout) {
+        this(url, secret, filter, retry, deadLetters, client, requestTimeout, SinkSettings.Messages.PER_ALERT, null);
+    }
+
+    /**
+     * @param messages  one post per alert, one roll-up per firing, or both
+     * @param textField null to post the full JSON message; otherwise the body is the JSON object
+     *                  {@code {"<textField>": "<the message as plain text>"}}, the form chat tools take
+     */
+    public WebhookSink(URI url, String secret, SinkFilter filter, RetryPolicy retry, DeadLetters deadLetters,
+                       HttpClient client, Duration requestTimeout, SinkSettings.Messages messages, String textField) {
+        this.messages = Objects.requireNonNull(messages, "messages");
+        if (textField != null && !textField.matches("[A-Za-z_][A-Za-z0-9_]{0,63}")) {
+            throw new IllegalArgumentException("textField: expected a JSON field name but got " + textField);
+        }
+        this.textField = textField;
         Objects.requireNonNull(url, "url");
         String scheme = url.getScheme() == null ? "" : url.getScheme().toLowerCase(Locale.ROOT);
         if (!(scheme.equals("http") || scheme.equals("https")) || url.getHost() == null) {
@@ -115,6 +140,35 @@ public final class WebhookSink implements AlertSink {
     @Override
     public SinkFilter filter() {
         return filter;
+    }
+
+    @Override
+    public SinkSettings.Messages messages() {
+        return messages;
+    }
+
+    /**
+     * Posts the roll-up (its JSON form, or its text in the configured field) with the same headers as an alert,
+     * its own idempotency key naming it.
+     */
+    @Override
+    public void deliverRollUp(RollUp rollUp) {
+        String body = textField == null ? rollUp.toJson() : Json.write(Map.of(textField, rollUp.text()));
+        Attempts a = send(body.getBytes(StandardCharsets.UTF_8), rollUp.idempotencyKey());
+        if (a.interrupted) {
+            Thread.currentThread().interrupt();
+        }
+        if (!a.delivered) {
+            LOG.warn("{}: giving up on the roll-up of {} firing {} ({} attempts): {}", name, rollUp.dataset(),
+                    rollUp.firing(), a.attempts, a.lastError);
+            throw new UndeliveredException(a.lastError, a.attempts);
+        }
+    }
+
+    /** The request body of one alert: its JSON message, or its text in the configured field. */
+    private byte[] body(AlertMessage m) {
+        String body = textField == null ? m.toJson() : Json.write(Map.of(textField, RollUp.text(m)));
+        return body.getBytes(StandardCharsets.UTF_8);
     }
 
     @Override
@@ -175,14 +229,17 @@ public final class WebhookSink implements AlertSink {
     }
 
     private Attempts send(AlertMessage m) {
-        byte[] body = m.toJson().getBytes(StandardCharsets.UTF_8);
+        return send(body(m), m.idempotencyKey());
+    }
+
+    private Attempts send(byte[] body, String idempotencyKey) {
         HttpRequest request = HttpRequest.newBuilder(url)
                 .timeout(requestTimeout)
                 .header("Content-Type", "application/json")
                 .header("User-Agent", "wavewarden-monitor")
                 .header(SIGNATURE_HEADER, Signatures.SCHEME + Signatures.hmacSha256Hex(body, key))
-                .header(DELIVERY_HEADER, m.idempotencyKey())
-                .header(IDEMPOTENCY_HEADER, m.idempotencyKey())
+                .header(DELIVERY_HEADER, idempotencyKey)
+                .header(IDEMPOTENCY_HEADER, idempotencyKey)
                 .POST(HttpRequest.BodyPublishers.ofByteArray(body))
                 .build();
         String lastError = "not attempted";
@@ -196,7 +253,7 @@ public final class WebhookSink implements AlertSink {
             }
             if (o.ok) {
                 if (attempt > 1) {
-                    LOG.info("{}: delivered {} on attempt {}", name, m.idempotencyKey(), attempt);
+                    LOG.info("{}: delivered {} on attempt {}", name, idempotencyKey, attempt);
                 }
                 return new Attempts(true, attempt, null, false);
             }
@@ -212,7 +269,7 @@ public final class WebhookSink implements AlertSink {
                 u = jitter.nextDouble();
             }
             Duration wait = retry.delay(attempt, u, o.retryAfter);
-            LOG.info("{}: attempt {} for {} failed ({}); retrying in {} ms", name, attempt, m.idempotencyKey(),
+            LOG.info("{}: attempt {} for {} failed ({}); retrying in {} ms", name, attempt, idempotencyKey,
                     lastError, wait.toMillis());
             try {
                 retry.sleeper().sleep(wait);
