@@ -48,7 +48,8 @@ public final class StandingFindings {
 
     /**
      * Each dataset's variables too few answers can judge, judged by the latest finding of each variable and kind
-     * across the reports (given in wave order), in the order the variables first appear.
+     * across the reports (given in wave order), in the order the variables first appear. A verdict that is not
+     * unresolvable in between breaks the run: the variable is listed again from the wave it returned.
      */
     public static List<TooFewAnswers> tooFewAnswers(List<FindingsReport> reports) {
         Map<List<Object>, TooFewAnswers> latest = new LinkedHashMap<>();
@@ -59,10 +60,12 @@ public final class StandingFindings {
                 }
                 List<Object> key = List.of(r.dataset(), f.variable(), f.kind());
                 // A later verdict of the same variable and kind replaces the earlier one, whatever it says.
-                latest.remove(key);
+                TooFewAnswers before = latest.remove(key);
                 if (unresolvable(f)) {
+                    // The repeat mark names the wave that alerted; without one, an unbroken run within these
+                    // reports still starts where the earlier entry started.
                     String since = f.repeat() != null && f.repeat().firstWave() != null ? f.repeat().firstWave()
-                            : r.wave();
+                            : before != null ? before.sinceWave() : r.wave();
                     latest.put(key, new TooFewAnswers(r.dataset(), f.variable(), f.label(), f.kind(), f.effect(),
                             f.nCurrent(), since, r.wave()));
                 }

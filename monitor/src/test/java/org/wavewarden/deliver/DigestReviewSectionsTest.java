@@ -280,6 +280,23 @@ class DigestReviewSectionsTest {
         String html = html(reports, DigestRecords.NONE);
         assertTrue(html.contains("<li data-variable=\"mooring_fee\">" + expected + "</li>"), html);
         assertEquals(1, Pattern.compile("<li data-variable=").matcher(html).results().count());
+
+        // Findings not marked as repeats (an earlier release's) still give the first wave of the unbroken run.
+        List<FindingsReport> unmarked = reports.stream().map(r -> report(r.wave(), r.againstWave(),
+                r.findings().stream().map(f -> f.withRepeat(null)).toList())).toList();
+        assertEquals(List.of(expected), listUnder(markdown(unmarked, DigestRecords.NONE),
+                DATASET + ": too few answers to judge"));
+    }
+
+    @Test
+    void aVariableThatCouldBeJudgedInBetweenIsListedFromTheWaveItBecameUnresolvableAgain() {
+        List<FindingsReport> reports = List.of(
+                report("2024-Q2", "2024-Q1", List.of(shift("mooring_fee", Verdict.UNCERTAIN, 0.2, -0.9, 1.3, 0.5))),
+                report("2024-Q3", "2024-Q2", List.of(shift("mooring_fee", Verdict.STABLE, 0.0, -0.2, 0.2, 0.5))),
+                report("2024-Q4", "2024-Q3", List.of(shift("mooring_fee", Verdict.UNCERTAIN, 0.2, -0.9, 1.3, 0.5))));
+        List<String> items = listUnder(markdown(reports, DigestRecords.NONE), DATASET + ": too few answers to judge");
+        assertEquals(1, items.size(), items.toString());
+        assertTrue(items.get(0).endsWith("in wave 2024-Q4; too few answers to judge since wave 2024-Q4."), items.get(0));
     }
 
     @Test
