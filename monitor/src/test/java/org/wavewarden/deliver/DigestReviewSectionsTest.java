@@ -280,6 +280,12 @@ class DigestReviewSectionsTest {
         String html = html(reports, DigestRecords.NONE);
         assertTrue(html.contains("<li data-variable=\"mooring_fee\">" + expected + "</li>"), html);
         assertEquals(1, Pattern.compile("<li data-variable=").matcher(html).results().count());
+        // The card of the alert says it beside the interval.
+        org.wavewarden.judge.Finding news = reports.get(1).findings().get(0);
+        String card = HtmlDigest.render(DATASET, List.of(new WaveSection(reports.get(1),
+                List.of(new org.wavewarden.deliver.html.AlertView(news, null, null)))), REPORTED);
+        assertTrue(card.contains("<span class=\"mde unresolvable\">smallest detectable change &plusmn;64.9: too few"
+                + " answers to judge</span>"), card);
 
         // Findings not marked as repeats (an earlier release's) still give the first wave of the unbroken run.
         List<FindingsReport> unmarked = reports.stream().map(r -> report(r.wave(), r.againstWave(),

@@ -379,6 +379,15 @@ public final class HtmlDigest {
                     .append(esc(signed(e.ciLow()))).append(" to ").append(esc(signed(e.ciHigh())))
                     .append("), threshold &plusmn;").append(esc(String.format(Locale.ROOT, "%.3g", e.threshold())))
                     .append("</span>");
+            double mde = e.minimumDetectable();
+            if (Double.isFinite(mde) && mde > 0) {
+                // The smallest change these samples could show: when it reaches the threshold, no wave of this
+                // size can settle the verdict, which the card says beside the numbers.
+                sb.append("<span class=\"mde").append(e.resolvable() ? "" : " unresolvable")
+                        .append("\">smallest detectable change &plusmn;")
+                        .append(esc(String.format(Locale.ROOT, "%.3g", mde)))
+                        .append(e.resolvable() ? "" : ": too few answers to judge").append("</span>");
+            }
         }
         List<String> ns = new java.util.ArrayList<>();
         if (f.nBaseline() != null) {
@@ -484,6 +493,7 @@ public final class HtmlDigest {
             .stats{font-size:13px;color:var(--muted);margin:0 0 8px;display:flex;flex-wrap:wrap;gap:4px 14px}
             .facets{margin:4px 0 8px;padding-left:18px}.facet{margin:2px 0}.facet .sentence{margin:0 0 0 4px}
             .facet-name{font-weight:600;font-size:13px}
+            .stats .mde.unresolvable{color:#8a5a00;font-weight:600}
             .charts{display:flex;flex-wrap:wrap;gap:14px;align-items:flex-start}
             svg.plot{background:#fff;border:1px solid var(--line);border-radius:4px;max-width:100%;height:auto}
             svg.plot text{font-size:11px;fill:#39424e;font-family:inherit}
