@@ -60,7 +60,7 @@ public final class MarkdownDigest {
                 md.append("> **Signed-off wave changed.** ").append(escape(ReviewText.signedWaveChanged(changed,
                         status.map(WaveStatus::signOff).orElse(null)))).append("\n\n");
             }
-            alerts(md, r);
+            alerts(md, r, status.orElse(null));
             if (status.isPresent()) {
                 list(md, "Explained", status.get().explained().stream().map(ReviewText::explained).toList());
                 list(md, "Muted: recorded, not delivered", status.get().muted().stream().map(ReviewText::muted)
@@ -84,7 +84,8 @@ public final class MarkdownDigest {
         return md.toString();
     }
 
-    private static void alerts(StringBuilder md, FindingsReport r) {
+    /** The alert table; an alert someone explained or muted says so beside its verdict (its entry is below). */
+    private static void alerts(StringBuilder md, FindingsReport r, WaveStatus status) {
         List<Alert> alerts = Alerts.group(r.findings());
         if (alerts.isEmpty()) {
             md.append("Nothing needs attention.\n\n");
@@ -93,7 +94,9 @@ public final class MarkdownDigest {
         // One row per event: the lead's verdict and sentence, then what else was seen of the same variable.
         md.append("| verdict / kind | variable | what happened |\n|---|---|---|\n");
         for (Alert a : alerts) {
-            md.append("| ").append(label(a.lead())).append(" | ").append(escape(a.variable()))
+            String reviewed = status == null ? "" : status.reviewed(a.variable(), a.lead().kind().name())
+                    .map(st -> " (" + st.name().toLowerCase(java.util.Locale.ROOT) + ")").orElse("");
+            md.append("| ").append(label(a.lead())).append(reviewed).append(" | ").append(escape(a.variable()))
                     .append(a.lead().label() == null ? "" : " (" + escape(org.wavewarden.codebook.CodeLabels.shown(a.lead().label())) + ")").append(" | ")
                     .append(escape(a.lead().sentence()));
             // Plain text, so the lead's verdict stays the only bold word of the row.

@@ -78,6 +78,21 @@ public record WaveStatus(String dataset, String wave, Map<AlertState, Integer> c
         return new WaveStatus(dataset, wave, counts, explained, muted, signOff);
     }
 
+    /**
+     * The review state of the wave's alert led by this variable and kind, when someone explained or muted it;
+     * empty for an open alert or one these records do not hold.
+     */
+    public java.util.Optional<AlertState> reviewed(String variable, String kind) {
+        for (List<Reviewed> list : List.of(explained, muted)) {
+            for (Reviewed r : list) {
+                if (r.alert().variable().equals(variable) && r.alert().kind().equals(kind)) {
+                    return java.util.Optional.of(r.alert().state());
+                }
+            }
+        }
+        return java.util.Optional.empty();
+    }
+
     /** The wave's alerts in a state; 0 for SUPERSEDED. */
     public int count(AlertState state) {
         return counts.getOrDefault(state, 0);

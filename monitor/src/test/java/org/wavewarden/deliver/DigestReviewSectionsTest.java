@@ -176,6 +176,35 @@ class DigestReviewSectionsTest {
     }
 
     @Test
+    void anAlertSomeoneExplainedOrMutedSaysSoInTheAlertTableAndOnItsCard() {
+        Finding fee = shift("mooring_fee", Verdict.UNCERTAIN, 25.01, -39.94, 89.96, 40);
+        Finding kids = shift("children", Verdict.MATERIAL, 0.6, 0.5, 0.7, 0.2);
+        Finding mode = shift("interview_mode", Verdict.MATERIAL, 0.6, 0.5, 0.7, 0.1);
+        FindingsReport r = report("2025-Q1", "2024-Q4", List.of(fee, kids, mode));
+        WaveStatus status = WaveStatus.of(DATASET, "2025-Q1", List.of(
+                alert(1, "mooring_fee", FindingKind.SHIFT, Verdict.UNCERTAIN, AlertState.EXPLAINED, null),
+                alert(2, "children", FindingKind.SHIFT, Verdict.MATERIAL, AlertState.MUTED, null),
+                alert(3, "interview_mode", FindingKind.SHIFT, Verdict.MATERIAL, AlertState.OPEN, null)),
+                a -> null, null);
+        DigestRecords records = new DigestRecords(Map.of(), List.of(status));
+
+        String md = markdown(List.of(r), records);
+        assertTrue(md.contains("| **UNCERTAIN** (explained) | mooring\\_fee |"), md);
+        assertTrue(md.contains("| **MATERIAL** (muted) | children |"), md);
+        assertTrue(md.contains("| **MATERIAL** | interview\\_mode |"), md);
+        String html = HtmlDigest.render(DATASET, List.of(new WaveSection(r, List.of(
+                new org.wavewarden.deliver.html.AlertView(fee, null, null),
+                new org.wavewarden.deliver.html.AlertView(kids, null, null),
+                new org.wavewarden.deliver.html.AlertView(mode, null, null)))), REPORTED, records);
+        assertTrue(html.contains("data-variable=\"mooring_fee\" data-kind=\"SHIFT\" data-verdict=\"UNCERTAIN\""
+                + " data-state=\"EXPLAINED\">"), html);
+        assertTrue(html.contains("data-variable=\"children\" data-kind=\"SHIFT\" data-verdict=\"MATERIAL\""
+                + " data-state=\"MUTED\">"));
+        assertTrue(html.contains("data-variable=\"interview_mode\" data-kind=\"SHIFT\" data-verdict=\"MATERIAL\">"));
+        assertEquals(2, Pattern.compile("<span class=\"state\">").matcher(html).results().count());
+    }
+
+    @Test
     void aMutedAlertIsListedWithItsExpiryRuleReasonAndWho() {
         AlertView a = alert(5, "occupation", FindingKind.BLANK, null, AlertState.MUTED,
                 entry(5, "Sam Treloar", ReviewAction.MUTED, ReviewReason.FIX_UPSTREAM, "Register fix due in Q3",

@@ -155,7 +155,8 @@ public final class HtmlDigest {
         }
         String baselineWave = r.againstWave() == null ? "baseline" : r.againstWave();
         for (AlertView a : ordered(s.alerts())) {
-            alert(h, a, baselineWave, r.wave(), r.alpha());
+            alert(h, a, baselineWave, r.wave(), r.alpha(), status == null ? null : status.reviewed(
+                    a.finding().variable(), a.finding().kind().name()).orElse(null));
         }
         if (status != null) {
             list(h, "explained", "Explained", status.explained().stream().map(ReviewText::explained).toList());
@@ -249,19 +250,25 @@ public final class HtmlDigest {
         }
     }
 
-    private static void alert(StringBuilder h, AlertView a, String baselineWave, String currentWave, double alpha) {
+    /** @param reviewed EXPLAINED or MUTED when someone explained or muted the alert, else null */
+    private static void alert(StringBuilder h, AlertView a, String baselineWave, String currentWave, double alpha,
+                              org.wavewarden.review.AlertState reviewed) {
         Finding f = a.finding();
         String badge = f.verdict() != null ? f.verdict().name() : f.kind() == FindingKind.SKIPPED ? "SKIPPED" : "DATA QUALITY";
         String badgeClass = f.verdict() != null ? "v-" + f.verdict().name().toLowerCase(Locale.ROOT) : "v-quality";
         h.append("<article class=\"alert ").append(badgeClass).append("\" data-variable=\"").append(esc(f.variable()))
                 .append("\" data-kind=\"").append(esc(f.kind().name())).append("\"")
-                .append(f.verdict() == null ? "" : " data-verdict=\"" + f.verdict().name() + "\"").append(">\n");
+                .append(f.verdict() == null ? "" : " data-verdict=\"" + f.verdict().name() + "\"")
+                .append(reviewed == null ? "" : " data-state=\"" + reviewed.name() + "\"").append(">\n");
         h.append("<header><span class=\"badge ").append(badgeClass).append("\"");
         if (f.verdict() != null) {
             h.append(" title=\"").append(esc(f.verdict().meaning())).append("\"");
         }
         h.append(">").append(esc(badge)).append("</span> <code class=\"variable\">").append(esc(f.variable()))
                 .append("</code> <span class=\"kind\">").append(esc(kindLabel(f.kind()))).append("</span>");
+        if (reviewed != null) {
+            h.append(" <span class=\"state\">").append(reviewed.name().toLowerCase(Locale.ROOT)).append("</span>");
+        }
         if (f.label() != null) {
             h.append("<br><span class=\"vlabel\">").append(esc(f.label())).append("</span>");
         }
@@ -494,6 +501,7 @@ public final class HtmlDigest {
             .facets{margin:4px 0 8px;padding-left:18px}.facet{margin:2px 0}.facet .sentence{margin:0 0 0 4px}
             .facet-name{font-weight:600;font-size:13px}
             .stats .mde.unresolvable{color:#8a5a00;font-weight:600}
+            .state{font-size:12px;border:1px solid var(--muted);color:var(--muted);border-radius:4px;padding:0 6px}
             .charts{display:flex;flex-wrap:wrap;gap:14px;align-items:flex-start}
             svg.plot{background:#fff;border:1px solid var(--line);border-radius:4px;max-width:100%;height:auto}
             svg.plot text{font-size:11px;fill:#39424e;font-family:inherit}
