@@ -143,7 +143,9 @@ class DigestReviewIntegrationTest {
                 .findFirst().orElseThrow(() -> new AssertionError(md));
         assertTrue(item.startsWith("- height\\_cm (") && item.contains("a data error being fixed upstream. Note:"
                 + " Scale recalibrated, the supplier resends w2. By Ruth Penhallow on "), item);
+        assertTrue(md.contains(" (explained) | height\\_cm"), "the alert table marks the row: " + md);
         assertTrue(html().contains("<h3>Explained (1)</h3>"));
+        assertTrue(html().contains("data-variable=\"height_cm\"") && html().contains("data-state=\"EXPLAINED\""));
     }
 
     /** Waits for stored sign-offs: {@link SignOffs#signOff} and {@link SignOffs#latest}. */
