@@ -4,8 +4,10 @@ import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.Verdict;
 
 import java.util.EnumMap;
+import java.util.HashSet;
 import java.util.List;
 import java.util.Map;
+import java.util.Set;
 
 /**
  * The digest for chat and e-mail: what changed, what is suspicious in the data, and the cautions. Every string
@@ -17,40 +19,104 @@ public final class MarkdownDigest {
     private MarkdownDigest() {
     }
 
+    /** The digest of findings alone, with no review records: the digest a run writes beside its findings. */
     public static String render(List<FindingsReport> reports) {
+        return render(reports, DigestRecords.NONE);
+    }
+
+    /**
+     * The digest of the reports (in wave order) with what the results schema says beyond them: each wave's review
+     * status line, its explained and muted alerts, and once per dataset whether it is a complete enumeration.
+     * Findings still present since an earlier wave, problems that cleared, and the standing list of variables too
+     * few answers can judge come from the findings themselves.
+     */
+    public static String render(List<FindingsReport> reports, DigestRecords records) {
         StringBuilder md = new StringBuilder();
         md.append("# Wavewarden change digest\n\n");
         md.append("> **Screening aid, not a finding.** ").append(Cautions.LINES.get(0)).append(' ')
                 .append(Cautions.LINES.get(1)).append("\n\n");
+        Set<String> introduced = new HashSet<>();
         for (FindingsReport r : reports) {
+            boolean complete = records.complete(r.dataset());
             md.append("## ").append(escape(r.dataset())).append(": wave ").append(escape(r.wave()));
             md.append(r.againstWave() == null ? " (screened alone)" : " against " + escape(r.againstWave()))
                     .append("\n\n");
-            md.append(verdictCounts(r.findings())).append(" False discovery rate ")
-                    .append(r.alpha()).append(" (").append(r.fdrMethod()).append(").\n\n");
-            List<Alert> alerts = Alerts.group(r.findings());
-            if (alerts.isEmpty()) {
-                md.append("Nothing needs attention.\n\n");
-                continue;
+            if (complete && introduced.add(r.dataset())) {
+                md.append("> **Complete enumeration.** ")
+                        .append(escape(ReviewText.completeEnumeration(records.population(r.dataset()))))
+                        .append("\n\n");
             }
-            // One row per event: the lead's verdict and sentence, then what else was seen of the same variable.
-            md.append("| verdict / kind | variable | what happened |\n|---|---|---|\n");
-            for (Alert a : alerts) {
-                md.append("| ").append(label(a.lead())).append(" | ").append(escape(a.variable()))
-                        .append(a.lead().label() == null ? "" : " (" + escape(org.wavewarden.codebook.CodeLabels.shown(a.lead().label())) + ")").append(" | ")
-                        .append(escape(a.lead().sentence()));
-                // Plain text, so the lead's verdict stays the only bold word of the row.
-                for (Finding o : a.facets().subList(1, a.facets().size())) {
-                    md.append(" Also ").append(o.verdict() == null ? "" : o.verdict().name() + " ")
-                            .append(o.kind().name()).append(": ").append(escape(o.sentence()));
-                }
-                md.append(" |\n");
+            md.append(verdictCounts(r.findings()));
+            if (complete) {
+                md.append(" Judged by size of change alone.\n\n");
+            } else {
+                md.append(" False discovery rate ").append(r.alpha()).append(" (").append(r.fdrMethod())
+                        .append(").\n\n");
             }
-            md.append('\n');
+            java.util.Optional<WaveStatus> status = records.status(r.dataset(), r.wave());
+            status.ifPresent(s -> md.append("**Review status:** ").append(escape(ReviewText.statusLine(s)))
+                    .append("\n\n"));
+            for (Finding changed : StandingFindings.signedWaveChanged(r)) {
+                md.append("> **Signed-off wave changed.** ").append(escape(ReviewText.signedWaveChanged(changed,
+                        status.map(WaveStatus::signOff).orElse(null)))).append("\n\n");
+            }
+            alerts(md, r, status.orElse(null));
+            if (status.isPresent()) {
+                list(md, "Explained", status.get().explained().stream().map(ReviewText::explained).toList());
+                list(md, "Muted: recorded, not delivered", status.get().muted().stream().map(ReviewText::muted)
+                        .toList());
+            }
+            list(md, "Still present, not alerted again", StandingFindings.stillPresent(r).stream()
+                    .map(ReviewText::stillPresent).toList());
+            list(md, "Cleared", StandingFindings.cleared(r).stream().map(ReviewText::cleared).toList());
         }
+        Map<String, List<StandingFindings.TooFewAnswers>> tooFew = new java.util.LinkedHashMap<>();
+        StandingFindings.tooFewAnswers(reports).forEach(t -> tooFew.computeIfAbsent(t.dataset(),
+                k -> new java.util.ArrayList<>()).add(t));
+        tooFew.forEach((dataset, list) -> {
+            md.append("## ").append(escape(dataset)).append(": too few answers to judge\n\n")
+                    .append(ReviewText.TOO_FEW_ANSWERS_INTRO).append("\n\n");
+            list.forEach(t -> md.append("- ").append(escape(ReviewText.tooFewAnswers(t))).append('\n'));
+            md.append('\n');
+        });
         md.append("## Cautions\n\n");
         Cautions.LINES.forEach(l -> md.append("- ").append(l).append('\n'));
         return md.toString();
+    }
+
+    /** The alert table; an alert someone explained or muted says so beside its verdict (its entry is below). */
+    private static void alerts(StringBuilder md, FindingsReport r, WaveStatus status) {
+        List<Alert> alerts = Alerts.group(r.findings());
+        if (alerts.isEmpty()) {
+            md.append("Nothing needs attention.\n\n");
+            return;
+        }
+        // One row per event: the lead's verdict and sentence, then what else was seen of the same variable.
+        md.append("| verdict / kind | variable | what happened |\n|---|---|---|\n");
+        for (Alert a : alerts) {
+            String reviewed = status == null ? "" : status.reviewed(a.variable(), a.lead().kind().name())
+                    .map(st -> " (" + st.name().toLowerCase(java.util.Locale.ROOT) + ")").orElse("");
+            md.append("| ").append(label(a.lead())).append(reviewed).append(" | ").append(escape(a.variable()))
+                    .append(a.lead().label() == null ? "" : " (" + escape(org.wavewarden.codebook.CodeLabels.shown(a.lead().label())) + ")").append(" | ")
+                    .append(escape(a.lead().sentence()));
+            // Plain text, so the lead's verdict stays the only bold word of the row.
+            for (Finding o : a.facets().subList(1, a.facets().size())) {
+                md.append(" Also ").append(o.verdict() == null ? "" : o.verdict().name() + " ")
+                        .append(o.kind().name()).append(": ").append(escape(o.sentence()));
+            }
+            md.append(" |\n");
+        }
+        md.append('\n');
+    }
+
+    /** A titled list of sentences (each escaped whole), or nothing when there are none. */
+    private static void list(StringBuilder md, String title, List<String> items) {
+        if (items.isEmpty()) {
+            return;
+        }
+        md.append("### ").append(title).append(" (").append(items.size()).append(")\n\n");
+        items.forEach(i -> md.append("- ").append(escape(i)).append('\n'));
+        md.append('\n');
     }
 
     /** {@code **MATERIAL** PANEL_SHIFT}; a distribution shift with a verdict is named by the verdict alone. */
@@ -85,10 +151,15 @@ public final class MarkdownDigest {
         return sb.append(". Data-quality findings: ").append(dq).append('.').toString();
     }
 
+    /** Every outcome of the verdict rule, and CLEARED (not one of its outcomes) only when a finding has it. */
     private static void verdicts(StringBuilder sb, Map<Verdict, Integer> counts) {
+        List<String> parts = new java.util.ArrayList<>();
         for (Verdict v : Verdict.values()) {
-            sb.append(v.name()).append(' ').append(counts.getOrDefault(v, 0)).append(v == Verdict.STABLE ? "" : ", ");
+            if (v != Verdict.CLEARED || counts.containsKey(v)) {
+                parts.add(v.name() + ' ' + counts.getOrDefault(v, 0));
+            }
         }
+        sb.append(String.join(", ", parts));
     }
 
     /** Data in Markdown: see {@link DataText#markdown(String)}. */

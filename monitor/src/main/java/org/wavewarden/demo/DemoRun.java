@@ -228,7 +228,8 @@ public final class DemoRun {
         Files.createDirectories(dir);
         Files.writeString(dir.resolve("digest.html"), new DigestAssembler(s).html(d, reports, Instant.now()),
                 StandardCharsets.UTF_8);
-        Files.writeString(dir.resolve("digest.md"), MarkdownDigest.render(reports), StandardCharsets.UTF_8);
+        Files.writeString(dir.resolve("digest.md"), MarkdownDigest.render(reports,
+                new DigestAssembler(s).records(d, reports)), StandardCharsets.UTF_8);
         outputs.add(dir.resolve("digest.html"));
         outputs.add(dir.resolve("digest.md"));
         return reports;

@@ -9,7 +9,9 @@ import org.wavewarden.compare.design.PsuTotals;
 import org.wavewarden.compare.relation.RelationshipDetail;
 import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.config.VariableConfig;
+import org.wavewarden.deliver.DigestRecords;
 import org.wavewarden.deliver.FindingsReport;
+import org.wavewarden.deliver.WaveStatus;
 import org.wavewarden.deliver.html.AlertView;
 import org.wavewarden.deliver.html.HtmlDigest;
 import org.wavewarden.deliver.html.Trend;
@@ -22,6 +24,9 @@ import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.DesignSummary;
 import org.wavewarden.profile.WaveProfile;
 import org.wavewarden.read.WaveInfo;
+import org.wavewarden.review.ReviewEntry;
+import org.wavewarden.store.AlertReviews;
+import org.wavewarden.store.SignOffs;
 import org.wavewarden.missing.ScreenedWave;
 import org.wavewarden.missing.VariableInference;
 import org.wavewarden.missing.ScreenedVariable;
@@ -126,7 +131,51 @@ public final class DigestAssembler {
             }
             sections.add(new WaveSection(r, views));
         }
-        return HtmlDigest.render(d.name(), sections, generatedAt);
+        return HtmlDigest.render(d.name(), sections, generatedAt, records(d, reports));
+    }
+
+    /** The Markdown digest of judged waves, with their review status as the results schema holds it now. */
+    public String markdown(DatasetConfig d, List<FindingsReport> reports) {
+        return org.wavewarden.deliver.MarkdownDigest.render(reports, records(d, reports));
+    }
+
+    /**
+     * What the digests show beyond the findings, read as it stands now: the dataset's population from its
+     * configuration, and for each judged wave its alerts with their states (every run's: the status keeps only
+     * those not superseded), the entry that explained or muted each, and the wave's latest sign-off.
+     */
+    public DigestRecords records(DatasetConfig d, List<FindingsReport> reports) {
+        AlertReviews reviews = new AlertReviews(session.store().jdbi(), session.config().results().schema());
+        SignOffs signOffs = new SignOffs(session.store().jdbi(), session.config().results().schema());
+        List<WaveStatus> statuses = new ArrayList<>();
+        Set<String> seen = new java.util.HashSet<>();
+        for (FindingsReport r : reports) {
+            if (!r.dataset().equals(d.name()) || !seen.add(r.wave())) {
+                continue;
+            }
+            List<org.wavewarden.review.AlertView> alerts = reviews.list(new AlertReviews.Filter(d.name(), r.wave(),
+                    null, null, null));
+            statuses.add(WaveStatus.of(d.name(), r.wave(), alerts, a -> entryOf(reviews, a),
+                    signOffs.latest(d.name(), r.wave()).orElse(null)));
+        }
+        return new DigestRecords(Map.of(d.name(), d.population()), statuses);
+    }
+
+    /**
+     * The entry that put an explained or muted alert in its state: its latest entry when that is the one, else the
+     * latest such entry of its history.
+     */
+    private static ReviewEntry entryOf(AlertReviews reviews, org.wavewarden.review.AlertView a) {
+        if (a.last() != null && a.last().action().leadsTo() == a.state()) {
+            return a.last();
+        }
+        List<ReviewEntry> history = reviews.history(a.alertId());
+        for (int i = history.size() - 1; i >= 0; i--) {
+            if (history.get(i).action().leadsTo() == a.state()) {
+                return history.get(i);
+            }
+        }
+        return null;
     }
 
     /**

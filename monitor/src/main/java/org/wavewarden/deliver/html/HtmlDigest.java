@@ -2,6 +2,10 @@ package org.wavewarden.deliver.html;
 
 import org.wavewarden.deliver.Alert;
 import org.wavewarden.deliver.Cautions;
+import org.wavewarden.deliver.DigestRecords;
+import org.wavewarden.deliver.ReviewText;
+import org.wavewarden.deliver.StandingFindings;
+import org.wavewarden.deliver.WaveStatus;
 import org.wavewarden.deliver.FindingsFiles;
 import org.wavewarden.deliver.FindingsReport;
 import org.wavewarden.judge.Finding;
@@ -49,7 +53,20 @@ public final class HtmlDigest {
      * @param generatedAt when the digest was made (passed in: rendering reads no clock)
      */
     public static String render(String dataset, List<WaveSection> sections, Instant generatedAt) {
+        return render(dataset, sections, generatedAt, DigestRecords.NONE);
+    }
+
+    /**
+     * Renders the page with what the results schema says beyond the findings: each wave's review status, its
+     * explained and muted alerts, and whether the dataset is a complete enumeration.
+     *
+     * @param records the review records of the waves and the dataset's population; {@link DigestRecords#NONE}
+     *                for none
+     */
+    public static String render(String dataset, List<WaveSection> sections, Instant generatedAt,
+                                DigestRecords records) {
         Objects.requireNonNull(dataset, "dataset");
+        Objects.requireNonNull(records, "records");
         Objects.requireNonNull(sections, "sections");
         Objects.requireNonNull(generatedAt, "generatedAt");
         StringBuilder h = new StringBuilder(64 * 1024);
@@ -63,14 +80,23 @@ public final class HtmlDigest {
                 .append("</strong> &middot; ").append(sections.size()).append(" judged wave(s) &middot; generated ")
                 .append(esc(STAMP.format(generatedAt))).append("</p></header>\n");
         cautions(h, "cautions-top", "Read this first: screening aids, not findings");
+        boolean complete = records.complete(dataset);
+        if (complete) {
+            // Said once for the dataset: no wave of it carries a test.
+            h.append("<aside class=\"population\" id=\"complete-enumeration\" role=\"note\"><h2>Complete")
+                    .append(" enumeration</h2><p>").append(esc(ReviewText.completeEnumeration(
+                            records.population(dataset)))).append("</p></aside>\n");
+        }
         if (sections.isEmpty()) {
             h.append("<p class=\"none\">No waves were judged, so there is nothing to report.</p>\n");
         } else {
             contents(h, sections);
         }
         for (int i = 0; i < sections.size(); i++) {
-            wave(h, sections.get(i), i);
+            WaveSection s = sections.get(i);
+            wave(h, s, i, complete, records.status(s.report().dataset(), s.report().wave()).orElse(null));
         }
+        tooFewAnswers(h, StandingFindings.tooFewAnswers(sections.stream().map(WaveSection::report).toList()));
         cautions(h, "cautions-end", "Cautions");
         h.append("<footer id=\"end-of-digest\">End of digest for ").append(esc(dataset)).append(".</footer>\n");
         h.append("</main>\n</body>\n</html>\n");
@@ -103,11 +129,20 @@ public final class HtmlDigest {
                 : " against " + r.againstWave());
     }
 
-    private static void wave(StringBuilder h, WaveSection s, int index) {
+    private static void wave(StringBuilder h, WaveSection s, int index, boolean complete, WaveStatus status) {
         FindingsReport r = s.report();
         h.append("<section class=\"wave\" id=\"wave-").append(index).append("\" data-wave=\"").append(esc(r.wave()))
                 .append("\">\n<h2>").append(esc(capitalised(waveTitle(r)))).append("</h2>\n");
-        h.append("<p class=\"summary\">").append(summary(r, s.alerts().size())).append("</p>\n");
+        h.append("<p class=\"summary\">").append(summary(r, s.alerts().size(), complete)).append("</p>\n");
+        if (status != null) {
+            h.append("<p class=\"review-status").append(status.signOff() == null ? "" : " signed")
+                    .append("\"><b>Review status:</b> ").append(esc(ReviewText.statusLine(status))).append("</p>\n");
+        }
+        for (Finding changed : StandingFindings.signedWaveChanged(r)) {
+            h.append("<p class=\"signed-changed\" role=\"alert\"><b>Signed-off wave changed.</b> ")
+                    .append(esc(ReviewText.signedWaveChanged(changed, status == null ? null : status.signOff())))
+                    .append("</p>\n");
+        }
         if (!r.inference().isEmpty()) {
             // How the run read its data: kinds it inferred, baselines it read again, waves it passed over.
             h.append("<details class=\"notes\"><summary>Notes on this run (").append(r.inference().size())
@@ -120,9 +155,41 @@ public final class HtmlDigest {
         }
         String baselineWave = r.againstWave() == null ? "baseline" : r.againstWave();
         for (AlertView a : ordered(s.alerts())) {
-            alert(h, a, baselineWave, r.wave(), r.alpha());
+            alert(h, a, baselineWave, r.wave(), r.alpha(), status == null ? null : status.reviewed(
+                    a.finding().variable(), a.finding().kind().name()).orElse(null));
         }
+        if (status != null) {
+            list(h, "explained", "Explained", status.explained().stream().map(ReviewText::explained).toList());
+            list(h, "muted", "Muted: recorded, not delivered", status.muted().stream().map(ReviewText::muted)
+                    .toList());
+        }
+        list(h, "still-present", "Still present, not alerted again", StandingFindings.stillPresent(r).stream()
+                .map(ReviewText::stillPresent).toList());
+        list(h, "cleared", "Cleared", StandingFindings.cleared(r).stream().map(ReviewText::cleared).toList());
         h.append("</section>\n");
+    }
+
+    /** A titled list of sentences, each escaped whole, or nothing when there are none. */
+    private static void list(StringBuilder h, String cssClass, String title, List<String> items) {
+        if (items.isEmpty()) {
+            return;
+        }
+        h.append("<div class=\"review-list ").append(cssClass).append("\"><h3>").append(esc(title)).append(" (")
+                .append(items.size()).append(")</h3><ul>");
+        items.forEach(i -> h.append("<li>").append(esc(i)).append("</li>"));
+        h.append("</ul></div>\n");
+    }
+
+    /** The standing list of variables too few answers can judge: once for the dataset, not per wave. */
+    private static void tooFewAnswers(StringBuilder h, List<StandingFindings.TooFewAnswers> standing) {
+        if (standing.isEmpty()) {
+            return;
+        }
+        h.append("<section class=\"too-few\" id=\"too-few-answers\"><h2>Too few answers to judge</h2><p>")
+                .append(esc(ReviewText.TOO_FEW_ANSWERS_INTRO)).append("</p><ul>");
+        standing.forEach(t -> h.append("<li data-variable=\"").append(esc(t.variable())).append("\">")
+                .append(esc(ReviewText.tooFewAnswers(t))).append("</li>"));
+        h.append("</ul></section>\n");
     }
 
     /** The given alerts in the order {@link FindingsFiles#ordered} puts their findings. */
@@ -133,7 +200,7 @@ public final class HtmlDigest {
                 .map(f -> byFinding.get(f).poll()).toList();
     }
 
-    private static String summary(FindingsReport r, int alerts) {
+    private static String summary(FindingsReport r, int alerts, boolean complete) {
         Map<Verdict, Integer> counts = new EnumMap<>(Verdict.class);
         Map<Verdict, Integer> relations = new EnumMap<>(Verdict.class);
         int quality = 0;
@@ -159,7 +226,11 @@ public final class HtmlDigest {
         if (skipped > 0) {
             sb.append(" &middot; not compared <b>").append(skipped).append("</b>");
         }
-        sb.append(" &middot; alerts shown <b>").append(alerts).append("</b> &middot; q-values at false discovery rate ")
+        sb.append(" &middot; alerts shown <b>").append(alerts).append("</b> &middot; ");
+        if (complete) {
+            return sb.append("judged by size of change alone").toString();
+        }
+        sb.append("q-values at false discovery rate ")
                 .append(esc(java.math.BigDecimal.valueOf(r.alpha()).stripTrailingZeros().toPlainString()));
         if (r.fdrMethod() != null && !r.fdrMethod().isBlank()) {
             sb.append(" (").append(esc(methodName(r.fdrMethod()))).append(")");
@@ -167,27 +238,37 @@ public final class HtmlDigest {
         return sb.toString();
     }
 
+    /** Every outcome of the verdict rule, and CLEARED (not one of its outcomes) only when a finding has it. */
     private static void tallies(StringBuilder sb, Map<Verdict, Integer> counts) {
         for (Verdict v : Verdict.values()) {
+            if (v == Verdict.CLEARED && !counts.containsKey(v)) {
+                continue;
+            }
             int n = counts.getOrDefault(v, 0);
             sb.append("<span class=\"tally v-").append(v.name().toLowerCase(Locale.ROOT)).append(n == 0 ? " zero" : "")
                     .append("\">").append(v.name()).append(" <b>").append(n).append("</b></span> ");
         }
     }
 
-    private static void alert(StringBuilder h, AlertView a, String baselineWave, String currentWave, double alpha) {
+    /** @param reviewed EXPLAINED or MUTED when someone explained or muted the alert, else null */
+    private static void alert(StringBuilder h, AlertView a, String baselineWave, String currentWave, double alpha,
+                              org.wavewarden.review.AlertState reviewed) {
         Finding f = a.finding();
         String badge = f.verdict() != null ? f.verdict().name() : f.kind() == FindingKind.SKIPPED ? "SKIPPED" : "DATA QUALITY";
         String badgeClass = f.verdict() != null ? "v-" + f.verdict().name().toLowerCase(Locale.ROOT) : "v-quality";
         h.append("<article class=\"alert ").append(badgeClass).append("\" data-variable=\"").append(esc(f.variable()))
                 .append("\" data-kind=\"").append(esc(f.kind().name())).append("\"")
-                .append(f.verdict() == null ? "" : " data-verdict=\"" + f.verdict().name() + "\"").append(">\n");
+                .append(f.verdict() == null ? "" : " data-verdict=\"" + f.verdict().name() + "\"")
+                .append(reviewed == null ? "" : " data-state=\"" + reviewed.name() + "\"").append(">\n");
         h.append("<header><span class=\"badge ").append(badgeClass).append("\"");
         if (f.verdict() != null) {
             h.append(" title=\"").append(esc(f.verdict().meaning())).append("\"");
         }
         h.append(">").append(esc(badge)).append("</span> <code class=\"variable\">").append(esc(f.variable()))
                 .append("</code> <span class=\"kind\">").append(esc(kindLabel(f.kind()))).append("</span>");
+        if (reviewed != null) {
+            h.append(" <span class=\"state\">").append(reviewed.name().toLowerCase(Locale.ROOT)).append("</span>");
+        }
         if (f.label() != null) {
             h.append("<br><span class=\"vlabel\">").append(esc(f.label())).append("</span>");
         }
@@ -305,6 +386,15 @@ public final class HtmlDigest {
                     .append(esc(signed(e.ciLow()))).append(" to ").append(esc(signed(e.ciHigh())))
                     .append("), threshold &plusmn;").append(esc(String.format(Locale.ROOT, "%.3g", e.threshold())))
                     .append("</span>");
+            double mde = e.minimumDetectable();
+            if (Double.isFinite(mde) && mde > 0) {
+                // The smallest change these samples could show: when it reaches the threshold, no wave of this
+                // size can settle the verdict, which the card says beside the numbers.
+                sb.append("<span class=\"mde").append(e.resolvable() ? "" : " unresolvable")
+                        .append("\">smallest detectable change &plusmn;")
+                        .append(esc(String.format(Locale.ROOT, "%.3g", mde)))
+                        .append(e.resolvable() ? "" : ": too few answers to judge").append("</span>");
+            }
         }
         List<String> ns = new java.util.ArrayList<>();
         if (f.nBaseline() != null) {
@@ -349,14 +439,7 @@ public final class HtmlDigest {
     }
 
     static String kindLabel(FindingKind k) {
-        return switch (k) {
-            case SHIFT -> "distribution shift";
-            case PANEL_SHIFT -> "shift within respondents";
-            case SHAPE_CHANGE -> "change of shape";
-            case RELATIONSHIP_CHANGE -> "relationship change";
-            case MISSING_RATE_CHANGE -> "missing rate change";
-            default -> k.name().toLowerCase(Locale.ROOT).replace('_', ' ');
-        };
+        return ReviewText.kindLabel(k);
     }
 
     private static String capitalised(String s) {
@@ -399,6 +482,17 @@ public final class HtmlDigest {
             .v-minor.badge,.tally.v-minor{background:#4f6f96}
             .v-uncertain.badge,.tally.v-uncertain{background:#b07b00}
             .v-stable.badge,.tally.v-stable{background:#2f7d32}
+            .v-cleared.badge,.tally.v-cleared{background:#3d8a8a}
+            .review-status{margin:0 0 10px;font-size:14px}
+            .signed-changed{background:#fdecea;border:2px solid #b3261e;border-radius:6px;padding:8px 12px;\
+            font-weight:600;color:#7a1410}
+            .population{background:#eef4fb;border:1px solid #9db8d9;border-radius:6px;padding:10px 18px;margin:0 0 20px}
+            .population h2{font-size:16px;margin:0 0 4px}.population p{margin:0}
+            .review-list{border-top:1px solid var(--line);padding:8px 0 0;margin:8px 0 0}
+            .review-list h3{font-size:15px;margin:0 0 4px}.review-list ul{margin:0;padding-left:20px}
+            .review-list.cleared h3{color:#2f6b2f}.review-list.muted{color:var(--muted)}
+            .too-few{background:#fff;border:1px solid var(--line);border-left:6px solid #b07b00;border-radius:8px;\
+            padding:14px 22px;margin:0 0 22px}
             .v-quality.badge{background:#5b4b9a}
             .variable{font-size:17px;font-weight:700;background:none}
             .kind{color:var(--muted)}
@@ -406,6 +500,8 @@ public final class HtmlDigest {
             .stats{font-size:13px;color:var(--muted);margin:0 0 8px;display:flex;flex-wrap:wrap;gap:4px 14px}
             .facets{margin:4px 0 8px;padding-left:18px}.facet{margin:2px 0}.facet .sentence{margin:0 0 0 4px}
             .facet-name{font-weight:600;font-size:13px}
+            .stats .mde.unresolvable{color:#8a5a00;font-weight:600}
+            .state{font-size:12px;border:1px solid var(--muted);color:var(--muted);border-radius:4px;padding:0 6px}
             .charts{display:flex;flex-wrap:wrap;gap:14px;align-items:flex-start}
             svg.plot{background:#fff;border:1px solid var(--line);border-radius:4px;max-width:100%;height:auto}
             svg.plot text{font-size:11px;fill:#39424e;font-family:inherit}
