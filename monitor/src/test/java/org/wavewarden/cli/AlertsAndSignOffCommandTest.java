@@ -210,7 +210,7 @@ class AlertsAndSignOffCommandTest {
         CliRun history = alerts("history", String.valueOf(scoreAlert));
         assertEquals(0, history.exitCode(), history.err());
         List<String> actions = history.out().lines().skip(2).map(l -> {
-            Matcher m = Pattern.compile("^\\s+\\d{4}-\\d\\d-\\d\\d \\d\\d:\\d\\d UTC  (\\w+) by ([^,(]+?)[,( ]")
+            Matcher m = Pattern.compile("^\\s+\\d{4}-\\d\\d-\\d\\d \\d\\d:\\d\\d UTC  (\\w+) by (.+?)(?:, | \\()")
                     .matcher(l);
             return m.find() ? m.group(1) + " by " + m.group(2) : l;
         }).toList();

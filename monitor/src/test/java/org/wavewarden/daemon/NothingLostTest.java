@@ -122,7 +122,8 @@ class NothingLostTest {
                 clock.now = clock.now.plusSeconds(2);
                 assertTrue(d.fireWithRetries(DATASET));
                 long open = openAlerts();
-                assertTrue(open >= 5, "the planted shifts raise several alerts: " + open);
+                // Three since repeats of the second wave's data-quality findings are carried without a new alert.
+                assertTrue(open >= 3, "the planted shifts raise several alerts: " + open);
                 assertTrue(hook.received().isEmpty());
                 assertEquals(open, keys(jsonl).size(), "the JSON Lines sink is not held up by the webhook");
 
@@ -158,7 +159,7 @@ class NothingLostTest {
                 d.start("redeliver-test", 1000);
                 assertTrue(d.fireWithRetries(DATASET));
                 long open = openAlerts();
-                assertTrue(open >= 5, "alerts: " + open);
+                assertTrue(open >= 3, "alerts: " + open);
                 assertTrue(hook.received().isEmpty());
 
                 hook.up();
