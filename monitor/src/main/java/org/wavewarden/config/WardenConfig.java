@@ -13,11 +13,18 @@ import java.util.List;
  * @param daemon   settings of the daemon
  */
 public record WardenConfig(ConnectionConfig source, ResultsConfig results, double alpha, FdrMethod fdr,
-                           List<DatasetConfig> datasets, DaemonConfig daemon) {
+                           List<DatasetConfig> datasets, DaemonConfig daemon, ConsoleConfig console) {
 
     public WardenConfig {
         datasets = List.copyOf(datasets);
         daemon = daemon == null ? DaemonConfig.DEFAULTS : daemon;
+        console = console == null ? ConsoleConfig.DISABLED : console;
+    }
+
+    /** A configuration without the web console. */
+    public WardenConfig(ConnectionConfig source, ResultsConfig results, double alpha, FdrMethod fdr,
+                        List<DatasetConfig> datasets, DaemonConfig daemon) {
+        this(source, results, alpha, fdr, datasets, daemon, ConsoleConfig.DISABLED);
     }
 
     public DatasetConfig dataset(String name) {

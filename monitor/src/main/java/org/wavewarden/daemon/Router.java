@@ -26,10 +26,22 @@ public final class Router extends Handler.Abstract {
     private static final Logger LOG = LoggerFactory.getLogger(Router.class);
 
     /** What an endpoint answers: a status, a media type and a body (which HEAD leaves out). */
-    public record Reply(int status, String contentType, byte[] body) {
+    public record Reply(int status, String contentType, byte[] body, Map<String, String> headers) {
         public Reply {
             Objects.requireNonNull(contentType, "contentType");
             body = body == null ? new byte[0] : body;
+            headers = headers == null ? Map.of() : Map.copyOf(headers);
+        }
+
+        public Reply(int status, String contentType, byte[] body) {
+            this(status, contentType, body, Map.of());
+        }
+
+        /** The same reply with one more header (e.g. {@code Set-Cookie}, {@code Location}); replaces a same-named one. */
+        public Reply with(String name, String value) {
+            Map<String, String> all = new LinkedHashMap<>(headers);
+            all.put(name, value);
+            return new Reply(status, contentType, body, all);
         }
 
         public static Reply text(int status, String text) {
@@ -89,6 +101,7 @@ public final class Router extends Handler.Abstract {
         response.getHeaders().put(HttpHeader.CONTENT_TYPE, reply.contentType());
         response.getHeaders().put(HttpHeader.CACHE_CONTROL, "no-store");
         response.getHeaders().put("X-Content-Type-Options", "nosniff");
+        reply.headers().forEach((name, value) -> response.getHeaders().put(name, value));
         response.getHeaders().put(HttpHeader.CONTENT_LENGTH, reply.body().length);
         response.write(true, ByteBuffer.wrap(reply.body()), callback);
         return true;
