@@ -1,6 +1,7 @@
 package org.wavewarden.cli;
 
 import org.wavewarden.config.DatasetConfig;
+import org.wavewarden.config.EnumKeys;
 import org.wavewarden.deliver.ConsoleTable;
 import org.wavewarden.deliver.DataText;
 import org.wavewarden.judge.FindingKind;
@@ -23,7 +24,6 @@ import java.time.LocalDate;
 import java.time.ZoneOffset;
 import java.time.format.DateTimeFormatter;
 import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
@@ -321,14 +321,8 @@ final class AlertsCommand implements Runnable {
 
     /** An enum value written in any case, refused with the list of values. */
     static <E extends Enum<E>> E parse(Class<E> type, String text, Function<E, String> shown) {
-        for (E e : type.getEnumConstants()) {
-            if (e.name().equalsIgnoreCase(text.strip()) || shown.apply(e).equalsIgnoreCase(text.strip())) {
-                return e;
-            }
-        }
-        throw new CommandLine.TypeConversionException("expected one of " + String.join(", ",
-                Arrays.stream(type.getEnumConstants()).map(shown).toList()) + " but got '" + DataText.visible(text)
-                + "'");
+        return EnumKeys.parse(type, shown, text).orElseThrow(() -> new CommandLine.TypeConversionException(
+                "expected one of " + EnumKeys.listed(type, shown) + " but got '" + DataText.visible(text) + "'"));
     }
 
     static final class StateConverter implements CommandLine.ITypeConverter<AlertState> {
@@ -355,8 +349,7 @@ final class AlertsCommand implements Runnable {
     static final class ReasonConverter implements CommandLine.ITypeConverter<ReviewReason> {
         @Override
         public ReviewReason convert(String value) {
-            return ReviewReason.parse(value).orElseThrow(() -> new CommandLine.TypeConversionException(
-                    "expected one of " + ReviewReason.keys() + " but got '" + DataText.visible(value) + "'"));
+            return parse(ReviewReason.class, value, ReviewReason::key);
         }
     }
 }
