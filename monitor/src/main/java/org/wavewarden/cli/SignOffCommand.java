@@ -67,7 +67,7 @@ final class SignOffCommand implements Callable<Integer> {
             print(signOffs.signOff(new SignOffs.Request(d.name(), wave, release == null ? "" : release,
                     actor.resolve(), force, reason)), out);
             return Main.OK;
-        }, (s, e) -> blocking(AlertsCommand.reviews(s), dataset.pick(s.config()).name(), e));
+        }, (s, refusalOut) -> blocking(AlertsCommand.reviews(s), dataset.pick(s.config()).name(), refusalOut));
     }
 
     /** What the options say together that none says alone, or null. */
