@@ -1,6 +1,7 @@
 package org.wavewarden.cli;
 
 import org.wavewarden.config.DatasetConfig;
+import org.wavewarden.config.EnumKeys;
 import org.wavewarden.deliver.ConsoleTable;
 import org.wavewarden.deliver.DataText;
 import org.wavewarden.judge.FindingKind;
@@ -23,10 +24,10 @@ import java.time.LocalDate;
 import java.time.ZoneOffset;
 import java.time.format.DateTimeFormatter;
 import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
+import java.util.function.BiConsumer;
 import java.util.function.Function;
 
 @Command(name = "alerts", mixinStandardHelpOptions = true,
@@ -55,14 +56,54 @@ final class AlertsCommand implements Runnable {
      * allow, a missing person) is exit 2 with its reason; anything else goes to the command line's error handler.
      */
     static int act(ConfigOption config, CommandLine.Model.CommandSpec spec, Function<Session, Integer> action) {
+        return act(config, spec, action, (s, err) -> { });
+    }
+
+    /**
+     * As {@link #act(ConfigOption, CommandLine.Model.CommandSpec, Function)}; when the results schema refuses the
+     * action, {@code wayOut} then prints what the person can do about it, with the store still open.
+     */
+    static int act(ConfigOption config, CommandLine.Model.CommandSpec spec, Function<Session, Integer> action,
+                   BiConsumer<Session, PrintWriter> wayOut) {
         PrintWriter err = spec.commandLine().getErr();
         try (Session s = Session.open(config.load(), null, System.getenv())) {
             s.migrate(); // a results schema written by an earlier version gains the history tables first
-            return action.apply(s);
+            try {
+                return action.apply(s);
+            } catch (ReviewException e) {
+                err.println(refused(e));
+                wayOut.accept(s, err);
+                return Main.USAGE;
+            }
         } catch (ReviewException | ActorOption.Refused e) {
-            err.println("refused: " + DataText.visible(e.getMessage()));
+            err.println(refused(e));
             return Main.USAGE;
         }
+    }
+
+    private static String refused(RuntimeException e) {
+        return "refused: " + DataText.visible(e.getMessage());
+    }
+
+    /** What an action on one alert is given: the session, the alert store, the alert and the acting person. */
+    record Acting(Session session, AlertReviews reviews, AlertView alert, String actor) {
+    }
+
+    /**
+     * Takes one action on alert {@code id} as the acting person, and prints the alert as it stands after it with
+     * the entry the action wrote: explain, mute and unmute differ only in the action.
+     */
+    static int review(ConfigOption config, CommandLine.Model.CommandSpec spec, ActorOption actor, long id,
+                      Function<Acting, ReviewEntry> action) {
+        return act(config, spec, s -> {
+            String who = actor.resolve();
+            AlertReviews reviews = reviews(s);
+            ReviewEntry e = action.apply(new Acting(s, reviews, alert(reviews, id), who));
+            PrintWriter out = spec.commandLine().getOut();
+            out.println(describe(alert(reviews, id)));
+            out.println("  " + entry(e));
+            return Main.OK;
+        });
     }
 
     static AlertReviews reviews(Session s) {
@@ -169,15 +210,8 @@ final class AlertsCommand implements Runnable {
 
         @Override
         public Integer call() {
-            return act(config, spec, s -> {
-                String who = actor.resolve();
-                AlertReviews reviews = reviews(s);
-                ReviewEntry e = reviews.explain(alert(reviews, id).alertId(), who, reason, note, SOURCE);
-                PrintWriter out = spec.commandLine().getOut();
-                out.println(describe(alert(reviews, id)));
-                out.println("  " + entry(e));
-                return Main.OK;
-            });
+            return review(config, spec, actor, id,
+                    a -> a.reviews().explain(a.alert().alertId(), a.actor(), reason, note, SOURCE));
         }
     }
 
@@ -217,18 +251,11 @@ final class AlertsCommand implements Runnable {
                         + " then would mute nothing");
                 return Main.USAGE;
             }
-            return act(config, spec, s -> {
-                String who = actor.resolve();
-                AlertReviews reviews = reviews(s);
-                AlertView a = alert(reviews, id);
+            return review(config, spec, actor, id, a -> {
                 if (untilWave != null) {
-                    knownWave(s, a.dataset(), untilWave);
+                    knownWave(a.session(), a.alert().dataset(), untilWave);
                 }
-                ReviewEntry e = reviews.mute(a.alertId(), who, untilWave, untilDate, reason, note, SOURCE);
-                PrintWriter out = spec.commandLine().getOut();
-                out.println(describe(alert(reviews, id)));
-                out.println("  " + entry(e));
-                return Main.OK;
+                return a.reviews().mute(a.alert().alertId(), a.actor(), untilWave, untilDate, reason, note, SOURCE);
             });
         }
 
@@ -261,15 +288,8 @@ final class AlertsCommand implements Runnable {
 
         @Override
         public Integer call() {
-            return act(config, spec, s -> {
-                String who = actor.resolve();
-                AlertReviews reviews = reviews(s);
-                ReviewEntry e = reviews.unmute(alert(reviews, id).alertId(), who, note, SOURCE);
-                PrintWriter out = spec.commandLine().getOut();
-                out.println(describe(alert(reviews, id)));
-                out.println("  " + entry(e));
-                return Main.OK;
-            });
+            return review(config, spec, actor, id,
+                    a -> a.reviews().unmute(a.alert().alertId(), a.actor(), note, SOURCE));
         }
     }
 
@@ -301,14 +321,8 @@ final class AlertsCommand implements Runnable {
 
     /** An enum value written in any case, refused with the list of values. */
     static <E extends Enum<E>> E parse(Class<E> type, String text, Function<E, String> shown) {
-        for (E e : type.getEnumConstants()) {
-            if (e.name().equalsIgnoreCase(text.strip()) || shown.apply(e).equalsIgnoreCase(text.strip())) {
-                return e;
-            }
-        }
-        throw new CommandLine.TypeConversionException("expected one of " + String.join(", ",
-                Arrays.stream(type.getEnumConstants()).map(shown).toList()) + " but got '" + DataText.visible(text)
-                + "'");
+        return EnumKeys.parse(type, shown, text).orElseThrow(() -> new CommandLine.TypeConversionException(
+                "expected one of " + EnumKeys.listed(type, shown) + " but got '" + DataText.visible(text) + "'"));
     }
 
     static final class StateConverter implements CommandLine.ITypeConverter<AlertState> {
@@ -335,8 +349,7 @@ final class AlertsCommand implements Runnable {
     static final class ReasonConverter implements CommandLine.ITypeConverter<ReviewReason> {
         @Override
         public ReviewReason convert(String value) {
-            return ReviewReason.parse(value).orElseThrow(() -> new CommandLine.TypeConversionException(
-                    "expected one of " + ReviewReason.keys() + " but got '" + DataText.visible(value) + "'"));
+            return parse(ReviewReason.class, value, ReviewReason::key);
         }
     }
 }

@@ -4,7 +4,6 @@ import org.wavewarden.config.DatasetConfig;
 import org.wavewarden.deliver.ConsoleTable;
 import org.wavewarden.deliver.DataText;
 import org.wavewarden.review.AlertView;
-import org.wavewarden.review.ReviewException;
 import org.wavewarden.review.SignOff;
 import org.wavewarden.review.SignOffRule;
 import org.wavewarden.store.AlertReviews;
@@ -65,19 +64,10 @@ final class SignOffCommand implements Callable<Integer> {
             if (show) {
                 return show(signOffs, d, out, err);
             }
-            String who = actor.resolve();
-            SignOff done;
-            try {
-                done = signOffs.signOff(new SignOffs.Request(d.name(), wave, release == null ? "" : release, who,
-                        force, reason));
-            } catch (ReviewException e) {
-                err.println("refused: " + DataText.visible(e.getMessage()));
-                blocking(new AlertReviews(s.store().jdbi(), s.config().results().schema()), d.name(), err);
-                return Main.USAGE;
-            }
-            print(done, out);
+            print(signOffs.signOff(new SignOffs.Request(d.name(), wave, release == null ? "" : release,
+                    actor.resolve(), force, reason)), out);
             return Main.OK;
-        });
+        }, (s, refusalOut) -> blocking(AlertsCommand.reviews(s), dataset.pick(s.config()).name(), refusalOut));
     }
 
     /** What the options say together that none says alone, or null. */

@@ -24,7 +24,6 @@ import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.DesignSummary;
 import org.wavewarden.profile.WaveProfile;
 import org.wavewarden.read.WaveInfo;
-import org.wavewarden.review.ReviewEntry;
 import org.wavewarden.store.AlertReviews;
 import org.wavewarden.store.SignOffs;
 import org.wavewarden.missing.ScreenedWave;
@@ -155,27 +154,12 @@ public final class DigestAssembler {
             }
             List<org.wavewarden.review.AlertView> alerts = reviews.list(new AlertReviews.Filter(d.name(), r.wave(),
                     null, null, null));
-            statuses.add(WaveStatus.of(d.name(), r.wave(), alerts, a -> entryOf(reviews, a),
+            // The entry that explained or muted an alert is its latest, read with the list: the results schema
+            // derives both states from the latest entry's action, so no alert's history needs reading.
+            statuses.add(WaveStatus.of(d.name(), r.wave(), alerts, org.wavewarden.review.AlertView::last,
                     signOffs.latest(d.name(), r.wave()).orElse(null)));
         }
         return new DigestRecords(Map.of(d.name(), d.population()), statuses);
-    }
-
-    /**
-     * The entry that put an explained or muted alert in its state: its latest entry when that is the one, else the
-     * latest such entry of its history.
-     */
-    private static ReviewEntry entryOf(AlertReviews reviews, org.wavewarden.review.AlertView a) {
-        if (a.last() != null && a.last().action().leadsTo() == a.state()) {
-            return a.last();
-        }
-        List<ReviewEntry> history = reviews.history(a.alertId());
-        for (int i = history.size() - 1; i >= 0; i--) {
-            if (history.get(i).action().leadsTo() == a.state()) {
-                return history.get(i);
-            }
-        }
-        return null;
     }
 
     /**

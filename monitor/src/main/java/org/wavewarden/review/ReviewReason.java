@@ -1,7 +1,7 @@
 package org.wavewarden.review;
 
-import java.util.Arrays;
-import java.util.Locale;
+import org.wavewarden.config.EnumKeys;
+
 import java.util.Optional;
 
 /** Why an alert was explained or muted, in categories a release report can count. */
@@ -32,14 +32,13 @@ public enum ReviewReason {
         return meaning;
     }
 
+    /** The reason written as its key or its name, in any case; empty for anything else. */
     public static Optional<ReviewReason> parse(String text) {
-        String t = text == null ? "" : text.trim().toLowerCase(Locale.ROOT);
-        return Arrays.stream(values()).filter(r -> r.key.equals(t) || r.name().toLowerCase(Locale.ROOT).equals(t))
-                .findFirst();
+        return EnumKeys.parse(ReviewReason.class, ReviewReason::key, text);
     }
 
     /** The keys, for error messages. */
     public static String keys() {
-        return String.join(", ", Arrays.stream(values()).map(ReviewReason::key).toList());
+        return EnumKeys.listed(ReviewReason.class, ReviewReason::key);
     }
 }

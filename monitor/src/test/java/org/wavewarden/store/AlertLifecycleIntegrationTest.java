@@ -8,7 +8,6 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.TestMethodOrder;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
-import org.wavewarden.config.ConfigLoader;
 import org.wavewarden.config.MuteRule;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.deliver.Alert;
@@ -24,10 +23,10 @@ import org.wavewarden.review.ReviewAction;
 import org.wavewarden.review.ReviewEntry;
 import org.wavewarden.review.ReviewException;
 import org.wavewarden.review.ReviewReason;
+import org.wavewarden.testing.HouseholdWaves;
 import org.wavewarden.testing.TestDatabase;
 
 import java.sql.Connection;
-import java.sql.ResultSet;
 import java.sql.SQLException;
 import java.time.Clock;
 import java.time.Instant;
@@ -72,41 +71,23 @@ class AlertLifecycleIntegrationTest {
     static JudgedWave w3;
     static long w3OtherRun;
 
+    static HouseholdWaves households;
+
     @BeforeAll
     static void setUp() throws Exception {
-        url = TestDatabase.freshDatabase("lifecycle");
-        try (Connection c = TestDatabase.connect(url); var st = c.createStatement()) {
-            st.execute("""
-                    CREATE SCHEMA src;
-                    CREATE TABLE src.hh (wave text NOT NULL, pid integer NOT NULL, score double precision,
-                        height_cm double precision, region text);
-                    INSERT INTO src.hh SELECT 'w1', p, 40 + (p * 7) % 21, 150 + (p * 11) % 41,
-                        (ARRAY['north', 'south', 'east', 'west'])[1 + p % 4] FROM generate_series(1, 400) p;
-                    INSERT INTO src.hh SELECT 'w2', p, 46 + (p * 7) % 21,
-                        CASE WHEN p % 8 = 0 THEN 999 ELSE 150 + (p * 11) % 41 END,
-                        (ARRAY['north', 'south', 'east', 'west'])[1 + p % 4] FROM generate_series(1, 400) p;
-                    INSERT INTO src.hh SELECT 'w3', pid, score, height_cm, region FROM src.hh WHERE wave = 'w2';
-                    """);
-        }
-        config = ConfigLoader.parse("source:\n  jdbcUrl: \"" + url + "\"\n  user: postgres\nresults:\n"
-                + "  schema: lc_results\nalpha: 0.05\ndatasets:\n"
-                + "  - name: hh\n    table: src.hh\n    waveColumn: wave\n    exclude: [pid]\n    variables:\n"
-                + "      - {name: score, kind: continuous, unit: points}\n"
-                + "      - {name: height_cm, kind: continuous, unit: cm}\n"
-                + "      - {name: region, kind: categorical}\n");
-        session = Session.open(config, null, Map.of());
-        session.migrate();
-        reviews = new AlertReviews(session.store().jdbi(), "lc_results");
-        WaveJudge judge = new WaveJudge(session, Clock.systemUTC());
-        judge.judge(config.dataset("hh"), "w1", null, null, null);
-        w2 = judge.judge(config.dataset("hh"), "w2", null, null, null);
+        households = HouseholdWaves.judged("lifecycle", "lc_results", true);
+        url = households.url();
+        config = households.config();
+        session = households.session();
+        reviews = households.reviews();
+        w2 = households.w2();
         scoreAlert = alertId("w2", "score");
         heightAlert = alertId("w2", "height_cm");
     }
 
     @AfterAll
     static void tearDown() {
-        session.close();
+        households.close();
     }
 
     static long alertId(String wave, String variable) {
@@ -126,10 +107,7 @@ class AlertLifecycleIntegrationTest {
     }
 
     static long count(String sql) throws SQLException {
-        try (Connection c = TestDatabase.connect(url); var st = c.createStatement(); ResultSet rs = st.executeQuery(sql)) {
-            rs.next();
-            return rs.getLong(1);
-        }
+        return households.count(sql);
     }
 
     @Test

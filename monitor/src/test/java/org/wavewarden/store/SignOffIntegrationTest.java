@@ -8,7 +8,6 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.TestMethodOrder;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
-import org.wavewarden.config.ConfigLoader;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.deliver.Alert;
 import org.wavewarden.deliver.FindingsSchema;
@@ -25,14 +24,13 @@ import org.wavewarden.review.ReviewEntry;
 import org.wavewarden.review.ReviewException;
 import org.wavewarden.review.ReviewReason;
 import org.wavewarden.review.SignOff;
+import org.wavewarden.testing.HouseholdWaves;
 import org.wavewarden.testing.TestDatabase;
 
 import java.sql.Connection;
-import java.sql.ResultSet;
 import java.sql.SQLException;
 import java.time.Clock;
 import java.util.List;
-import java.util.Map;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
@@ -58,41 +56,24 @@ class SignOffIntegrationTest {
     static JudgedWave w2;
     static long scoreAlert;
 
+    static HouseholdWaves households;
+
     @BeforeAll
     static void setUp() throws Exception {
-        url = TestDatabase.freshDatabase("signoff");
-        try (Connection c = TestDatabase.connect(url); var st = c.createStatement()) {
-            st.execute("""
-                    CREATE SCHEMA src;
-                    CREATE TABLE src.hh (wave text NOT NULL, pid integer NOT NULL, score double precision,
-                        region text);
-                    INSERT INTO src.hh SELECT 'w1', p, 40 + (p * 7) % 21,
-                        (ARRAY['north', 'south', 'east', 'west'])[1 + p % 4] FROM generate_series(1, 400) p;
-                    INSERT INTO src.hh SELECT 'w2', p, 46 + (p * 7) % 21,
-                        (ARRAY['north', 'south', 'east', 'west'])[1 + p % 4] FROM generate_series(1, 400) p;
-                    INSERT INTO src.hh SELECT 'w3', p, 46 + (p * 7) % 21,
-                        (ARRAY['north', 'south', 'east', 'west'])[1 + p % 4] FROM generate_series(1, 400) p;
-                    """);
-        }
-        config = ConfigLoader.parse("source:\n  jdbcUrl: \"" + url + "\"\n  user: postgres\nresults:\n"
-                + "  schema: so_results\nalpha: 0.05\ndatasets:\n"
-                + "  - name: hh\n    table: src.hh\n    waveColumn: wave\n    exclude: [pid]\n    variables:\n"
-                + "      - {name: score, kind: continuous, unit: points}\n"
-                + "      - {name: region, kind: categorical}\n");
-        session = Session.open(config, null, Map.of());
-        session.migrate();
+        households = HouseholdWaves.judged("signoff", "so_results", false);
+        url = households.url();
+        config = households.config();
+        session = households.session();
+        reviews = households.reviews();
+        w2 = households.w2();
         signOffs = new SignOffs(session.store().jdbi(), "so_results");
-        reviews = new AlertReviews(session.store().jdbi(), "so_results");
-        WaveJudge judge = new WaveJudge(session, Clock.systemUTC());
-        judge.judge(config.dataset("hh"), "w1", null, null, null);
-        w2 = judge.judge(config.dataset("hh"), "w2", null, null, null);
         scoreAlert = reviews.list(new AlertReviews.Filter("hh", "w2", AlertState.OPEN, "MATERIAL", null)).stream()
                 .filter(a -> a.variable().equals("score")).findFirst().orElseThrow().alertId();
     }
 
     @AfterAll
     static void tearDown() {
-        session.close();
+        households.close();
     }
 
     static SignOffs.Request request(String wave, String actor, boolean force, String reason) {
@@ -100,10 +81,7 @@ class SignOffIntegrationTest {
     }
 
     static long count(String sql) throws SQLException {
-        try (Connection c = TestDatabase.connect(url); var st = c.createStatement(); ResultSet rs = st.executeQuery(sql)) {
-            rs.next();
-            return rs.getLong(1);
-        }
+        return households.count(sql);
     }
 
     @Test

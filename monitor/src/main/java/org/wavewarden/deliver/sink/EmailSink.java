@@ -27,7 +27,6 @@ import java.time.Duration;
 import java.util.Collection;
 import java.util.List;
 import java.util.Objects;
-import java.util.Random;
 import java.util.function.Function;
 
 /**
@@ -64,8 +63,7 @@ public final class EmailSink implements AlertSink, AutoCloseable {
     private final List<String> to;
     private final SinkFilter filter;
     private final SinkSettings.Messages messages;
-    private final RetryPolicy retry;
-    private final Random jitter;
+    private final RetryLoop attempts;
     private final Mailer mailer;
     private final String password;
 
@@ -81,8 +79,8 @@ public final class EmailSink implements AlertSink, AutoCloseable {
         this.to = List.copyOf(settings.to());
         this.filter = Objects.requireNonNull(filter, "filter");
         this.messages = settings.messages();
-        this.retry = Objects.requireNonNull(retry, "retry");
-        this.jitter = new Random(retry.seed());
+        Objects.requireNonNull(retry, "retry");
+        this.attempts = new RetryLoop(name, retry, LOG);
         String user = settings.userEnv() == null ? null : variable(settings.userEnv(), "userEnv", environment);
         this.password = settings.passwordEnv() == null ? null
                 : variable(settings.passwordEnv(), "passwordEnv", environment);
@@ -155,39 +153,20 @@ public final class EmailSink implements AlertSink, AutoCloseable {
                 .withHeader(DELIVERY_HEADER, key)
                 .fixingMessageId(messageId(key, from))
                 .buildEmail();
-        String lastError = "not attempted";
-        for (int attempt = 1; attempt <= retry.maxAttempts(); attempt++) {
+        RetryLoop.Result r = attempts.run(key, "sent", () -> {
             try {
                 mailer.sendMail(email, false).join();
-                if (attempt > 1) {
-                    LOG.info("{}: sent {} on attempt {}", name, key, attempt);
-                }
-                return;
+                return RetryLoop.Outcome.DELIVERED;
             } catch (RuntimeException e) {
-                lastError = describe(e);
-                if (isFinal(e)) {
-                    throw new UndeliveredException(lastError + " (not retried)", attempt);
-                }
+                return RetryLoop.Outcome.failed(describe(e), !isFinal(e), null);
             }
-            if (attempt == retry.maxAttempts()) {
-                break;
-            }
-            double u;
-            synchronized (jitter) {
-                u = jitter.nextDouble();
-            }
-            Duration wait = retry.delay(attempt, u, null);
-            LOG.info("{}: attempt {} for {} failed ({}); retrying in {} ms", name, attempt, key, lastError,
-                    wait.toMillis());
-            try {
-                retry.sleeper().sleep(wait);
-            } catch (InterruptedException ie) {
-                Thread.currentThread().interrupt();
-                throw new UndeliveredException("interrupted while waiting to retry; last error: " + lastError,
-                        attempt);
-            }
+        });
+        if (r.interrupted()) {
+            Thread.currentThread().interrupt();
         }
-        throw new UndeliveredException(lastError, retry.maxAttempts());
+        if (!r.delivered()) {
+            throw new UndeliveredException(r.lastError(), r.attempts());
+        }
     }
 
     /** {@code <key@domain of the sender>}: stable for the same outbox row, unique across rows. */

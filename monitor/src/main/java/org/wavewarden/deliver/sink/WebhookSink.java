@@ -20,7 +20,6 @@ import java.util.Locale;
 import java.util.Map;
 import java.util.Objects;
 import java.util.Optional;
-import java.util.Random;
 import java.util.Set;
 
 /**
@@ -70,10 +69,9 @@ public final class WebhookSink implements AlertSink {
     private final SecretKeySpec key;
     private final String secretText;
     private final SinkFilter filter;
-    private final RetryPolicy retry;
     private final DeadLetters deadLetters;
     private final HttpClient client;
-    private final Random jitter;
+    private final RetryLoop attempts;
     private final String name;
     private final Duration requestTimeout;
     private final SinkSettings.Messages messages;
@@ -112,11 +110,11 @@ public final class WebhookSink implements AlertSink {
         this.key = Signatures.key(secret);
         this.secretText = secret;
         this.filter = Objects.requireNonNull(filter, "filter");
-        this.retry = Objects.requireNonNull(retry, "retry");
+        Objects.requireNonNull(retry, "retry");
         this.deadLetters = Objects.requireNonNull(deadLetters, "deadLetters");
         this.client = Objects.requireNonNull(client, "client");
-        this.jitter = new Random(retry.seed());
         this.name = "webhook:" + shown(url);
+        this.attempts = new RetryLoop(name, retry, LOG);
         this.requestTimeout = Objects.requireNonNull(requestTimeout, "requestTimeout");
         if (requestTimeout.isNegative() || requestTimeout.isZero()) {
             throw new IllegalArgumentException("requestTimeout: expected a positive duration but got "
@@ -154,14 +152,14 @@ public final class WebhookSink implements AlertSink {
     @Override
     public void deliverRollUp(RollUp rollUp) {
         String body = textField == null ? rollUp.toJson() : Json.write(Map.of(textField, rollUp.text()));
-        Attempts a = send(body.getBytes(StandardCharsets.UTF_8), rollUp.idempotencyKey());
-        if (a.interrupted) {
+        RetryLoop.Result a = send(body.getBytes(StandardCharsets.UTF_8), rollUp.idempotencyKey());
+        if (a.interrupted()) {
             Thread.currentThread().interrupt();
         }
-        if (!a.delivered) {
+        if (!a.delivered()) {
             LOG.warn("{}: giving up on the roll-up of {} firing {} ({} attempts): {}", name, rollUp.dataset(),
-                    rollUp.firing(), a.attempts, a.lastError);
-            throw new UndeliveredException(a.lastError, a.attempts);
+                    rollUp.firing(), a.attempts(), a.lastError());
+            throw new UndeliveredException(a.lastError(), a.attempts());
         }
     }
 
@@ -190,18 +188,18 @@ public final class WebhookSink implements AlertSink {
                 duplicates++;
                 continue;
             }
-            Attempts a = interrupted ? new Attempts(false, 0, "not attempted: delivery was interrupted", true)
-                    : send(m);
-            interrupted |= a.interrupted;
-            if (a.delivered) {
+            RetryLoop.Result a = interrupted
+                    ? new RetryLoop.Result(false, 0, "not attempted: delivery was interrupted", true) : send(m);
+            interrupted |= a.interrupted();
+            if (a.delivered()) {
                 delivered++;
                 continue;
             }
             dead++;
             LOG.warn("{}: giving up on {} {} of {} wave {} ({} attempts): {}", name, m.kind(), m.variable(),
-                    m.dataset(), m.wave(), a.attempts, a.lastError);
+                    m.dataset(), m.wave(), a.attempts(), a.lastError());
             try {
-                deadLetters.record(DeadLetter.of(name, m, a.attempts, a.lastError));
+                deadLetters.record(DeadLetter.of(name, m, a.attempts(), a.lastError()));
             } catch (RuntimeException e) {
                 LOG.error("{}: cannot record the dead letter {}: {}", name, m.idempotencyKey(), mask(e.toString()));
                 if (recordFailure == null) {
@@ -220,19 +218,11 @@ public final class WebhookSink implements AlertSink {
         return new DeliveryReport(name, messages.size(), filteredOut, duplicates, delivered, dead);
     }
 
-    /** What the attempts on one message came to. */
-    private record Attempts(boolean delivered, int attempts, String lastError, boolean interrupted) {
-    }
-
-    /** One attempt's outcome. */
-    private record Outcome(boolean ok, boolean retryable, String error, Duration retryAfter) {
-    }
-
-    private Attempts send(AlertMessage m) {
+    private RetryLoop.Result send(AlertMessage m) {
         return send(body(m), m.idempotencyKey());
     }
 
-    private Attempts send(byte[] body, String idempotencyKey) {
+    private RetryLoop.Result send(byte[] body, String idempotencyKey) {
         HttpRequest request = HttpRequest.newBuilder(url)
                 .timeout(requestTimeout)
                 .header("Content-Type", "application/json")
@@ -242,51 +232,15 @@ public final class WebhookSink implements AlertSink {
                 .header(IDEMPOTENCY_HEADER, idempotencyKey)
                 .POST(HttpRequest.BodyPublishers.ofByteArray(body))
                 .build();
-        String lastError = "not attempted";
-        for (int attempt = 1; attempt <= retry.maxAttempts(); attempt++) {
-            Outcome o;
-            try {
-                o = once(request);
-            } catch (InterruptedException e) {
-                return new Attempts(false, attempt, "interrupted during attempt " + attempt + "; before that: "
-                        + lastError, true);
-            }
-            if (o.ok) {
-                if (attempt > 1) {
-                    LOG.info("{}: delivered {} on attempt {}", name, idempotencyKey, attempt);
-                }
-                return new Attempts(true, attempt, null, false);
-            }
-            lastError = o.error;
-            if (!o.retryable) {
-                return new Attempts(false, attempt, lastError + " (not retried)", false);
-            }
-            if (attempt == retry.maxAttempts()) {
-                break;
-            }
-            double u;
-            synchronized (jitter) {
-                u = jitter.nextDouble();
-            }
-            Duration wait = retry.delay(attempt, u, o.retryAfter);
-            LOG.info("{}: attempt {} for {} failed ({}); retrying in {} ms", name, attempt, idempotencyKey,
-                    lastError, wait.toMillis());
-            try {
-                retry.sleeper().sleep(wait);
-            } catch (InterruptedException e) {
-                return new Attempts(false, attempt, "interrupted while waiting to retry; last error: " + lastError,
-                        true);
-            }
-        }
-        return new Attempts(false, retry.maxAttempts(), lastError, false);
+        return attempts.run(idempotencyKey, "delivered", () -> once(request));
     }
 
-    private Outcome once(HttpRequest request) throws InterruptedException {
+    private RetryLoop.Outcome once(HttpRequest request) throws InterruptedException {
         HttpResponse<InputStream> response;
         try {
             response = client.send(request, HttpResponse.BodyHandlers.ofInputStream());
         } catch (IOException e) {
-            return new Outcome(false, true, mask(describe(e)), null);
+            return RetryLoop.Outcome.failed(mask(describe(e)), true, null);
         }
         int status = response.statusCode();
         String answer;
@@ -296,7 +250,7 @@ public final class WebhookSink implements AlertSink {
             answer = "";
         }
         if (status >= 200 && status < 300) {
-            return new Outcome(true, false, null, null);
+            return RetryLoop.Outcome.DELIVERED;
         }
         String snippet = answer.strip().replaceAll("\\s+", " ");
         if (snippet.length() > ERROR_BODY_CHARS) {
@@ -304,7 +258,7 @@ public final class WebhookSink implements AlertSink {
         }
         String error = mask("HTTP " + status + (snippet.isEmpty() ? "" : ": " + snippet));
         boolean retryable = status == 429 || status >= 500;
-        return new Outcome(false, retryable, error, retryable ? retryAfter(response) : null);
+        return RetryLoop.Outcome.failed(error, retryable, retryable ? retryAfter(response) : null);
     }
 
     /** A Retry-After given in seconds; the date form is rare from webhooks and ignored. */
