@@ -3,6 +3,7 @@ package org.wavewarden.pipeline;
 import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 import org.wavewarden.config.ConfigLoader;
@@ -13,8 +14,11 @@ import org.wavewarden.review.ReviewAction;
 import org.wavewarden.review.ReviewEntry;
 import org.wavewarden.review.ReviewReason;
 import org.wavewarden.store.AlertReviews;
+import org.wavewarden.testing.CliRun;
 import org.wavewarden.testing.TestDatabase;
 
+import java.nio.file.Files;
+import java.nio.file.Path;
 import java.sql.Connection;
 import java.sql.ResultSet;
 import java.time.Clock;
@@ -34,8 +38,8 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
  * each of them (never a repeat of the wave before):
  * <ul>
  *     <li>{@code score}: muted by the configuration until wave 3;</li>
- *     <li>{@code income}: muted by a person (the {@code alerts mute} command's store call) on its wave 2 alert,
- *     until wave 3;</li>
+ *     <li>{@code income}: muted by a person with the {@code alerts mute} command on its wave 2 alert, until
+ *     wave 3;</li>
  *     <li>{@code hours}: muted by the configuration until 31 March 2026, the waves judged on 30 March, 31 March and
  *     1 April;</li>
  *     <li>{@code commute}: under a rule for another kind of finding (a numeric sentinel), so never muted;</li>
@@ -47,6 +51,9 @@ class MuteExpiryIntegrationTest {
     static final String SURVEY_OFFICE = "Harrowmere County Survey Office";
     static final String REVIEWER = "Idris Fenwick";
 
+    @TempDir
+    static Path dir;
+    static Path configFile;
     static String url;
     static Session session;
     static AlertReviews reviews;
@@ -80,7 +87,7 @@ class MuteExpiryIntegrationTest {
                     FROM generate_series(1, 4) w, generate_series(1, 400) p;
                     """);
         }
-        WardenConfig config = ConfigLoader.parse("""
+        String yaml = """
                 source:
                   jdbcUrl: "%s"
                   user: postgres
@@ -108,16 +115,21 @@ class MuteExpiryIntegrationTest {
                       - {variable: commute, kind: NUMERIC_SENTINEL, untilWave: "4", reason: "Keyed 999s.",
                          by: Edda Marsh}
                       - {variable: hours, untilDate: 2026-03-31, reason: "Hours question reworded.", by: Edda Marsh}
-                """.formatted(url, SURVEY_OFFICE));
+                """.formatted(url, SURVEY_OFFICE);
+        configFile = dir.resolve("household.yaml");
+        Files.writeString(configFile, yaml);
+        WardenConfig config = ConfigLoader.parse(yaml);
         session = Session.open(config, null, Map.of());
         session.migrate();
         reviews = new AlertReviews(session.store().jdbi(), "mute_results", at(JUDGED_ON.get("2")));
         for (String wave : List.of("1", "2")) {
             judge(config, wave);
         }
-        // A person mutes the income alert of wave 2 until wave 3, as `alerts mute` does, before wave 3 arrives.
-        reviews.mute(alertOf("income", "2").alertId(), REVIEWER, "3", null, ReviewReason.FIX_UPSTREAM,
-                "Income bands recoded upstream from wave 4.", "command");
+        // A person mutes the income alert of wave 2 until wave 3 with the alerts command, before wave 3 arrives.
+        CliRun muted = CliRun.of("alerts", "mute", "--config", configFile.toString(),
+                String.valueOf(alertOf("income", "2").alertId()), "--until-wave", "3", "--reason", "fix-upstream",
+                "--note", "Income bands recoded upstream from wave 4.", "--as", REVIEWER);
+        assertEquals(0, muted.exitCode(), muted.err());
         for (String wave : List.of("3", "4")) {
             judge(config, wave);
         }
