@@ -21,7 +21,6 @@ import org.wavewarden.review.ReviewReason;
 import org.wavewarden.store.AlertReviews;
 import org.wavewarden.testing.TestDatabase;
 
-import java.io.IOException;
 import java.net.InetAddress;
 import java.net.InetSocketAddress;
 import java.nio.charset.StandardCharsets;
@@ -199,6 +198,18 @@ class WithheldDeliveryIntegrationTest {
         }
     }
 
+    /** The item of a variable's alert row: the alert's idempotency key. */
+    static String alertItem(String schema, String variable) throws Exception {
+        try (Connection c = TestDatabase.connect(url); var st = c.prepareStatement("SELECT o.item FROM " + schema
+                + ".outbox o JOIN " + schema + ".alert a ON a.alert_id = o.alert_id WHERE a.variable = ?")) {
+            st.setString(1, variable);
+            try (ResultSet rs = st.executeQuery()) {
+                assertTrue(rs.next(), "an outbox row of " + variable);
+                return rs.getString(1);
+            }
+        }
+    }
+
     /** The sentence stored with the w2 alert of a variable: the text a post carries for it. */
     static String sentence(String schema, String variable) throws Exception {
         try (Connection c = TestDatabase.connect(url); var st = c.prepareStatement("SELECT sentence FROM " + schema
@@ -232,6 +243,8 @@ class WithheldDeliveryIntegrationTest {
 
         assertEquals(1, POSTS.size(), POSTS.toString());
         assertEquals("Wavewarden, dataset household: " + scoreLine("per_alert"), text(POSTS.get(0)));
+        assertEquals(alertItem("per_alert", "score"), POSTS.get(0).idempotencyKey(),
+                "keyed by the alert, as its outbox row is");
         assertEquals(List.of(
                 new OutboxRow("alert", "income", "withheld", "MUTED"),
                 new OutboxRow("alert", "mode", "withheld", "EXPLAINED"),
@@ -297,11 +310,20 @@ class WithheldDeliveryIntegrationTest {
         f.deliver();
 
         assertEquals(1, POSTS.size(), POSTS.toString());
-        String text = text(POSTS.get(0));
-        assertTrue(text.contains("\n1 new alert.\n\nMATERIAL (1)\n- " + scoreLine("late_roll_up") + "\n"),
-                text);
-        assertTrue(text.contains("\nNot sent on their own: 3\n- explained (expected change or reviewer): 2\n"
-                + "- muted: 1\n"), text);
+        assertEquals("""
+                Wavewarden, dataset household, firing %s
+                1 new alert.
+
+                MATERIAL (1)
+                - %s
+
+                Not sent on their own: 3
+                - explained (expected change or reviewer): 2
+                - muted: 1
+                - still present from the previous wave: 0
+                - still too few answers to judge: 0
+                - not taken by this sink's filter: 0
+                """.formatted(FIRING, scoreLine("late_roll_up")), text(POSTS.get(0)));
         assertEquals(List.of(new OutboxRow("roll-up", null, "delivered", null)), outbox("late_roll_up"));
     }
 }
