@@ -68,7 +68,7 @@ public final class CreationRules {
                 if (m.matches(a)) {
                     return Optional.of(new CreationDecision(ReviewAction.MUTED,
                             ReviewReason.parse(m.rule().reason()).orElse(null), m.rule().reason(), m.rule().who(),
-                            m.describe()));
+                            m.describe(), m.rule().untilWave(), m.rule().untilDate()));
                 }
             }
             return Optional.empty();

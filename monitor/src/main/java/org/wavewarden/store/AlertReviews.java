@@ -267,16 +267,22 @@ public final class AlertReviews {
                             .bind("r", id).mapTo(Long.class).one() == 1)
                     .orElse(null);
         }
-        String until = null;
-        LocalDate untilDate = null;
+        // A rule of the configuration ends its alerts' mute on its last day, as a rule stored by a person does.
+        String until = c.untilWave();
+        LocalDate untilDate = c.untilDate();
+        ReviewReason reason = c.reason();
         if (ruleId != null) {
-            Map<String, Object> rule = h.createQuery("SELECT until_wave, until_date FROM " + s
+            Map<String, Object> rule = h.createQuery("SELECT until_wave, until_date, reason FROM " + s
                     + ".mute_rule WHERE rule_id = :r").bind("r", ruleId).mapToMap().one();
             until = (String) rule.get("until_wave");
             untilDate = rule.get("until_date") == null ? null : ((java.sql.Date) rule.get("until_date")).toLocalDate();
+            // The rule's words only name its category, so the category the person gave is read from the rule itself.
+            if (reason == null) {
+                reason = ReviewReason.parse((String) rule.get("reason")).orElse(null);
+            }
         }
         String actor = c.actor() == null || c.actor().isBlank() ? MONITOR : c.actor();
-        append(h, alertId, actor, c.action(), c.reason(), c.note(), c.source() == null ? "configuration" : c.source(),
+        append(h, alertId, actor, c.action(), reason, c.note(), c.source() == null ? "configuration" : c.source(),
                 until, untilDate, ruleId);
     }
 
