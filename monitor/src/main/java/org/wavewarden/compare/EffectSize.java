@@ -18,6 +18,14 @@ public record EffectSize(String name, double estimate, double ciLow, double ciHi
         }
     }
 
+    /**
+     * The same effect with its interval collapsed onto the estimate: a complete enumeration observed every unit, so
+     * the effect has no sampling error to draw or state.
+     */
+    public EffectSize exact() {
+        return new EffectSize(name, estimate, estimate, estimate, confidence);
+    }
+
     /** The interval lies strictly inside (-threshold, threshold). */
     public boolean intervalWithin(double threshold) {
         return ciLow > -threshold && ciHigh < threshold;

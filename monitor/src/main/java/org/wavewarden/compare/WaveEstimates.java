@@ -74,6 +74,11 @@ public final class WaveEstimates {
             this(category, null, value, low, high);
         }
 
+        /** The same estimate without sampling error (a complete enumeration): low = high = value. */
+        public Estimate exact() {
+            return new Estimate(category, label, value, value, value);
+        }
+
         /** The same estimate with its category's label from the variable's labels. */
         public Estimate labelled(org.wavewarden.codebook.CodeLabels labels) {
             return category == null ? this : new Estimate(category, labels.label(category), value, low, high);

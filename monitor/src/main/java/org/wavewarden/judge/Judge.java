@@ -1,6 +1,7 @@
 package org.wavewarden.judge;
 
 import org.wavewarden.compare.Comparison;
+import org.wavewarden.compare.ExactDetail;
 import org.wavewarden.config.Population;
 import org.wavewarden.config.WardenConfig.FdrMethod;
 import org.wavewarden.judge.multiplicity.BenjaminiHochberg;
@@ -67,7 +68,8 @@ public final class Judge {
      * One comparison of a complete enumeration, judged by the size of its change: MATERIAL when |estimate| reaches
      * the threshold T, MINOR when it is above 0 but below T, STABLE when it is 0 (common practice, no source: with
      * every unit observed the change is the population's own, so only its size is left to judge). The interval
-     * collapses to the estimate (a complete count has no sampling error), so nothing is below detection.
+     * collapses to the estimate (a complete count has no sampling error), so nothing is below detection; so does every
+     * interval of the detail ({@link ExactDetail}), which is what the digest plots.
      */
     static Finding bySize(Comparison c, Population population) {
         double estimate = c.effect().estimate();
@@ -76,6 +78,6 @@ public final class Judge {
         Finding.Effect e = new Finding.Effect(c.effect().name(), estimate, estimate, estimate, c.threshold());
         return new Finding(c.variable(), c.kind(), null, null, null, null, e, v,
                 c.kind() == FindingKind.REFERENCE ? null : c.nBaseline(), c.nCurrent(),
-                Sentences.bySize(c, v, population), c.detail(), null, null, null, null);
+                Sentences.bySize(c, v, population), ExactDetail.of(c.detail()), null, null, null, null);
     }
 }

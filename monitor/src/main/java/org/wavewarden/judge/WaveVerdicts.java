@@ -82,12 +82,9 @@ public final class WaveVerdicts {
             Finding top = ranked.get(0);
             List<ReasonRate> detail = ranked.stream().map(f -> {
                 var d = (VariableComparator.ProportionDetail) f.detail();
-                var rd = d.riskDifference();
-                // Judged by size (no test): a complete count has no sampling interval to list.
-                var difference = f.pValue() != null || rd == null ? rd : new org.wavewarden.compare.EffectSize(
-                        rd.name(), rd.estimate(), rd.estimate(), rd.estimate(), rd.confidence());
+                // Judged by size (no test), the detail's intervals are already collapsed (Judge.bySize).
                 return new ReasonRate(d.successValue().replaceFirst("^missing \\((.*)\\)$", "$1"), d.shareBaseline(),
-                        d.shareCurrent(), difference, f.pValue(), f.qValue(), f.verdict().name(),
+                        d.shareCurrent(), d.riskDifference(), f.pValue(), f.qValue(), f.verdict().name(),
                         f.sentence(), d.plot().baseline().get(0), d.plot().current().get(0));
             }).toList();
             out.add(top.withDetail(detail));

@@ -126,6 +126,10 @@ public final class DigestAssembler {
                     plot = new VariablePlot.Unavailable(e.getClass().getSimpleName());
                     trend = null;
                 }
+                if (trend != null && d.population() != null && d.population().complete()) {
+                    // Every wave of a complete enumeration counted every unit: the trend has no band either.
+                    trend = trend.exact();
+                }
                 views.add(new AlertView(alert, plot, trend));
             }
             sections.add(new WaveSection(r, views));

@@ -78,12 +78,23 @@ public final class WaveJudge {
 
     private final Session session;
     private final Clock clock;
+    /** The version of the tool the runs are recorded as judged by: part of a run's key. */
+    private final String toolVersion;
     private Scanner scanner;
     private PanelPairs.Reader pairReader = org.wavewarden.read.KeyedPairReader::read;
 
     public WaveJudge(Session session, Clock clock) {
+        this(session, clock, org.wavewarden.deliver.ToolVersion.current());
+    }
+
+    /**
+     * The same, recording the runs as judged by {@code toolVersion} rather than the running build's version: a rerun
+     * of stored data by another version is another run.
+     */
+    public WaveJudge(Session session, Clock clock, String toolVersion) {
         this.session = session;
         this.clock = clock;
+        this.toolVersion = toolVersion;
         this.scanner = new BinaryWaveScanner(WaveScanner.DEFAULT_MAX_DISTINCT)::scan;
     }
 
@@ -232,14 +243,16 @@ public final class WaveJudge {
         inference.addAll(judged.inference());
         List<Finding> findings = labelled(screened, FindingsFiles.ordered(withRelabelledCodes(judged.findings(),
                 screened, baselineCodebook, currentCodebook, codebookBaseline, wave)));
-        findings = marked(d, wave, against, findings);
+        String fingerprint = org.wavewarden.config.ConfigFingerprint.of(cfg, d);
+        String checksum = current.checksum();
+        Optional<Long> kept = session.store().sameRun(d.name(), wave, againstLabel == null ? "" : againstLabel,
+                checksum, fingerprint, toolVersion);
+        findings = marked(d, wave, against, findings, kept);
         List<Alert> alerts = Alerts.group(findings);
         Instant finished = clock.instant();
-        String fingerprint = org.wavewarden.config.ConfigFingerprint.of(cfg, d);
         FindingsReport report = new FindingsReport(d.name(), wave, againstLabel, finished, cfg.alpha(),
-                cfg.fdr().name(), inference, findings, org.wavewarden.deliver.ToolVersion.current(), fingerprint);
+                cfg.fdr().name(), inference, findings, toolVersion, fingerprint);
         FaultPoints.hit(FaultPoints.BEFORE_WRITE);
-        String checksum = current.checksum();
         long runId = session.store().writeRun(new ResultsStore.RunWrite(d.name(), wave,
                         againstLabel == null ? "" : againstLabel, checksum, started, finished, cfg.alpha(),
                         cfg.fdr().name(), report.toolVersion(), fingerprint),
@@ -259,11 +272,21 @@ public final class WaveJudge {
     /**
      * The run's findings with what earlier records say about them: repeats of the previous wave's findings marked
      * (they raise no new alert), and, when the wave was signed off on other findings, a SIGNED_WAVE_CHANGED finding.
+     *
+     * <p>A run the store keeps ({@code kept}: the same data, configuration and tool version as a stored run) writes
+     * no findings, so it is compared with no sign-off: it carries the drift finding its stored run was written with,
+     * if any, which keeps that finding's alert open, and adds none that would never be stored.
      */
-    private List<Finding> marked(DatasetConfig d, String wave, List<String> against, List<Finding> findings) {
+    private List<Finding> marked(DatasetConfig d, String wave, List<String> against, List<Finding> findings,
+                                 Optional<Long> kept) {
         String previousWave = against.size() == 1 ? against.get(0) : null;
         List<Finding> out = new ArrayList<>(Repeats.mark(previousWave, previousWave == null ? List.of()
                 : currentFindings(d.name(), previousWave), findings));
+        if (kept.isPresent()) {
+            session.store().storedReport(kept.get()).map(FindingsReport::findings).orElse(List.of()).stream()
+                    .filter(f -> f.kind() == FindingKind.SIGNED_WAVE_CHANGED).forEach(out::add);
+            return out;
+        }
         Optional<SignOff> signed = new SignOffs(session.store().jdbi(), session.config().results().schema())
                 .latest(d.name(), wave);
         signed.flatMap(so -> SignOffDrift.check(so, session.store().storedReport(so.runId())

@@ -62,6 +62,29 @@ public final class ResultsStore {
                            String configFingerprint) {
     }
 
+    /**
+     * The stored run that writing a run of this key would keep rather than write anew: the same dataset, wave,
+     * baseline ({@code ""} for none), data (summary checksum), configuration fingerprint and tool version. Its
+     * findings are those the wave keeps.
+     */
+    public Optional<Long> sameRun(String dataset, String wave, String againstWave, String summaryChecksum,
+                                  String configFingerprint, String toolVersion) {
+        return jdbi.withHandle(h -> sameRun(h, new RunWrite(dataset, wave, againstWave, summaryChecksum, null, null,
+                Double.NaN, null, toolVersion, configFingerprint), ""));
+    }
+
+    private Optional<Long> sameRun(Handle h, RunWrite run, String lock) {
+        return h.createQuery("SELECT run_id FROM " + s + ".run WHERE dataset = :dataset AND wave = :wave AND"
+                        + " against_wave = :against AND summary_checksum = :checksum AND"
+                        + " coalesce(config_fingerprint, '') = :fingerprint AND coalesce(tool_version, '') = :tool"
+                        + lock)
+                .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("against", run.againstWave())
+                .bind("checksum", run.summaryChecksum())
+                .bind("fingerprint", run.configFingerprint() == null ? "" : run.configFingerprint())
+                .bind("tool", run.toolVersion() == null ? "" : run.toolVersion())
+                .mapTo(Long.class).findOne();
+    }
+
     public void saveSummary(String dataset, WaveProfile profile, String checksum) {
         jdbi.useHandle(h -> saveSummary(h, dataset, profile, checksum));
     }
@@ -161,16 +184,11 @@ public final class ResultsStore {
         AlertReviews reviews = new AlertReviews(jdbi, schemaName);
         return jdbi.inTransaction(h -> {
             saveSummary(h, run.dataset(), currentProfile, run.summaryChecksum());
-            String fingerprint = run.configFingerprint() == null ? "" : run.configFingerprint();
-            // A run is judged data under a configuration: the same data judged under the same configuration again
-            // is the same run, kept with its findings as they were written (what was seen, explained or signed off
-            // stays what it was); other data, another baseline or another configuration is a new run.
-            Optional<Long> existing = h.createQuery("SELECT run_id FROM " + s + ".run WHERE dataset = :dataset AND"
-                            + " wave = :wave AND against_wave = :against AND summary_checksum = :checksum AND"
-                            + " coalesce(config_fingerprint, '') = :fingerprint FOR UPDATE")
-                    .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("against", run.againstWave())
-                    .bind("checksum", run.summaryChecksum()).bind("fingerprint", fingerprint)
-                    .mapTo(Long.class).findOne();
+            // A run is judged data under a configuration by a version of the tool: the same data judged under the
+            // same configuration by the same version again is the same run, kept with its findings as they were
+            // written (what was seen, explained or signed off stays what it was); other data, another baseline,
+            // another configuration or another version is a new run.
+            Optional<Long> existing = sameRun(h, run, " FOR UPDATE");
             h.createUpdate("UPDATE " + s + ".run SET superseded_at = now() WHERE dataset = :dataset AND wave = :wave"
                             + " AND superseded_at IS NULL AND run_id <> :kept")
                     .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("kept", existing.orElse(-1L)).execute();
@@ -181,7 +199,8 @@ public final class ResultsStore {
                                 + " started_at, finished_at, alpha, fdr_method, findings_count, alerts_count, tool_version,"
                                 + " config_fingerprint) VALUES (:dataset, :wave, :against, :checksum, :started, :finished,"
                                 + " :alpha, :fdr, :nf, :na, :tool, :fingerprint) ON CONFLICT (dataset, wave, against_wave,"
-                                + " summary_checksum, (coalesce(config_fingerprint, ''))) DO NOTHING RETURNING run_id")
+                                + " summary_checksum, (coalesce(config_fingerprint, '')), (coalesce(tool_version, '')))"
+                                + " DO NOTHING RETURNING run_id")
                         .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("against", run.againstWave())
                         .bind("checksum", run.summaryChecksum())
                         .bind("started", OffsetDateTime.ofInstant(run.startedAt(), ZoneOffset.UTC))
@@ -192,12 +211,7 @@ public final class ResultsStore {
                         .mapTo(Long.class).findOne();
             }
             boolean isNew = inserted.isPresent();
-            long runId = inserted.or(() -> existing).orElseGet(() -> h.createQuery("SELECT run_id FROM " + s
-                            + ".run WHERE dataset = :dataset AND wave = :wave AND against_wave = :against AND"
-                            + " summary_checksum = :checksum AND coalesce(config_fingerprint, '') = :fingerprint")
-                    .bind("dataset", run.dataset()).bind("wave", run.wave()).bind("against", run.againstWave())
-                    .bind("checksum", run.summaryChecksum()).bind("fingerprint", fingerprint)
-                    .mapTo(Long.class).one());
+            long runId = inserted.or(() -> existing).orElseGet(() -> sameRun(h, run, "").orElseThrow());
             if (!isNew) {
                 // Judged again after other data had replaced it, the run is current again.
                 h.createUpdate("UPDATE " + s + ".run SET superseded_at = NULL WHERE run_id = :run")

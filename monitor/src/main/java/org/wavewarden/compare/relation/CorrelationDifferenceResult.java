@@ -33,4 +33,10 @@ public record CorrelationDifferenceResult(CorrelationMethod method, double r1, d
         }
         Checks.confidence(confidence);
     }
+
+    /** The same difference without sampling error (a complete enumeration): Zou's interval is the difference. */
+    public CorrelationDifferenceResult exact() {
+        return new CorrelationDifferenceResult(method, r1, r2, n1, n2, z, pValue, difference, difference, difference,
+                confidence, name);
+    }
 }

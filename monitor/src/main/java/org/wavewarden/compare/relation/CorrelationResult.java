@@ -30,4 +30,9 @@ public record CorrelationResult(CorrelationMethod method, double estimate, long 
         }
         Checks.confidence(confidence);
     }
+
+    /** The same correlation without sampling error (a complete enumeration): the interval is the estimate. */
+    public CorrelationResult exact() {
+        return new CorrelationResult(method, estimate, n, estimate, estimate, confidence);
+    }
 }

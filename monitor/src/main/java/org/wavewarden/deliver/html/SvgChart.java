@@ -468,8 +468,13 @@ public final class SvgChart {
         int labelWidth = 110;
         int shown = p.labels().size();
         Frame f = new Frame(WIDTH, 40 + shown * row + 46, labelWidth + 8, 30, 40, 46);
+        boolean intervals = false;
+        for (int i = 0; i < shown; i++) {
+            intervals |= hasWidth(p.baseline()[i][1], p.baseline()[i][2]) || hasWidth(p.current()[i][1],
+                    p.current()[i][2]);
+        }
         StringBuilder s = open(f, "correlation", "Correlations of " + relationship + ": " + baselineWave
-                + " against " + currentWave + ", with " + "confidence intervals");
+                + " against " + currentWave + (intervals ? ", with confidence intervals" : ""));
         legend(s, f, baselineWave + " (baseline)", currentWave + " (current)");
         for (double t = -1; t <= 1.0001; t += 0.5) {
             double x = f.sx(t, -1, 1);
@@ -498,14 +503,20 @@ public final class SvgChart {
 
     private static void whisker(StringBuilder s, Frame f, String cls, double y, double[] e, String what,
                                 String data) {
-        double lo = f.sx(Math.max(-1, e[1]), -1, 1);
-        double hi = f.sx(Math.min(1, e[2]), -1, 1);
+        boolean interval = hasWidth(e[1], e[2]);
         double x = f.sx(e[0], -1, 1);
-        String tip = what + ": " + number(e[0]) + " (" + number(e[1]) + " to " + number(e[2]) + ")";
-        s.append(String.format(Locale.ROOT, "<g class=\"whisker %s\"%s><title>%s</title><line class=\"ci %s\" x1=\"%.1f\""
-                + " y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/><circle class=\"pt %s\" cx=\"%.1f\" cy=\"%.1f\" r=\"4\"/>"
-                + "<text class=\"val %s\" x=\"%.1f\" y=\"%.1f\">%s</text></g>", cls, data, esc(tip), cls, lo, y, hi, y, cls,
-                x, y, cls, hi + 5, y + 4, esc(number(e[0]))));
+        double lo = interval ? f.sx(Math.max(-1, e[1]), -1, 1) : x;
+        double hi = interval ? f.sx(Math.min(1, e[2]), -1, 1) : x;
+        String tip = what + ": " + number(e[0]) + (interval ? " (" + number(e[1]) + " to " + number(e[2]) + ")" : "");
+        s.append(String.format(Locale.ROOT, "<g class=\"whisker %s\"%s><title>%s</title>%s<circle class=\"pt %s\""
+                + " cx=\"%.1f\" cy=\"%.1f\" r=\"4\"/><text class=\"val %s\" x=\"%.1f\" y=\"%.1f\">%s</text></g>", cls, data,
+                esc(tip), ciLine(interval, cls, lo, y, hi), cls, x, y, cls, hi + 5, y + 4, esc(number(e[0]))));
+    }
+
+    /** A whisker's line from {@code lo} to {@code hi} at height {@code y}, or nothing when there is no interval. */
+    private static String ciLine(boolean interval, String cls, double lo, double y, double hi) {
+        return interval ? String.format(Locale.ROOT, "<line class=\"ci %s\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\""
+                + " y2=\"%.1f\"/>", cls, lo, y, hi, y) : "";
     }
 
     /** Missing rate by reason, both waves, as a share of the wave's rows. */
@@ -585,8 +596,7 @@ public final class SvgChart {
         StringBuilder upper = new StringBuilder();
         StringBuilder lower = new StringBuilder();
         for (int i = 0; i <= n; i++) {
-            boolean in = i < n && !Double.isNaN(t.values().get(i)) && !Double.isNaN(t.lows().get(i))
-                    && !Double.isNaN(t.highs().get(i));
+            boolean in = i < n && !Double.isNaN(t.values().get(i)) && hasWidth(t.lows().get(i), t.highs().get(i));
             if (in) {
                 double x = f.x0() + slot * (i + 0.5);
                 upper.append(String.format(Locale.ROOT, "%.1f,%.1f ", x, f.sy(scale.applyAsDouble(t.highs().get(i)), ylo, yhi)));
@@ -682,7 +692,21 @@ public final class SvgChart {
     }
 
     private static boolean hasInterval(Trend t) {
-        return t.lows().stream().anyMatch(v -> !Double.isNaN(v));
+        for (int i = 0; i < t.lows().size(); i++) {
+            if (hasWidth(t.lows().get(i), t.highs().get(i))) {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    /**
+     * Whether an interval is drawn: only one of positive width. NaN limits mean none was computed (too few answers);
+     * limits equal to the estimate are those of a complete enumeration, which has no sampling error, and a whisker
+     * of no length would still read as one.
+     */
+    static boolean hasWidth(double low, double high) {
+        return high > low;
     }
 
     /**
@@ -707,8 +731,10 @@ public final class SvgChart {
         int row = 30;
         int labelWidth = 150;
         Frame f = new Frame(WIDTH, 40 + shown * row + 46, labelWidth + 8, 66, 40, 46);
-        String title = capitalised(plotted.statistic()) + " of " + variable + ", each category with its confidence"
-                + " interval: " + (hasBaseline ? baselineWave + " against " : "") + currentWave
+        boolean intervals = java.util.stream.Stream.of(plotted.baseline(), plotted.current()).flatMap(List::stream)
+                .anyMatch(e -> hasWidth(e.low(), e.high()));
+        String title = capitalised(plotted.statistic()) + " of " + variable + (intervals
+                ? ", each category with its confidence interval: " : ", each category: ") + (hasBaseline ? baselineWave + " against " : "") + currentWave
                 + (hasReference ? ", with the reference shares" : "");
         StringBuilder s = open(f, "shares estimates", title);
         legend(s, f, hasBaseline ? baselineWave + " (baseline)" : null, currentWave + " (current)"
@@ -763,12 +789,13 @@ public final class SvgChart {
     private static void shareBar(StringBuilder s, Frame f, String cls, double y, double xtop,
                                  org.wavewarden.compare.WaveEstimates.Estimate e, String wave, String findingId) {
         double w = Double.isNaN(e.value()) ? 0 : f.sx(100 * e.value(), 0, xtop) - f.x0();
-        String tip = wave + ", " + categoryName(e) + ": " + percent(e.value()) + (Double.isNaN(e.low()) ? ""
+        boolean interval = hasWidth(e.low(), e.high());
+        String tip = wave + ", " + categoryName(e) + ": " + percent(e.value()) + (!interval ? ""
                 : " (" + percent(e.low()) + " to " + percent(e.high()) + ")");
         s.append("<g class=\"est ").append(cls).append('"')
                 .append(data(e.value(), e.low(), e.high(), wave, e.category(), findingId)).append('>');
         bar(s, cls, f.x0(), y, w, 10, tip, "");
-        if (!Double.isNaN(e.low())) {
+        if (interval) {
             double lo = f.sx(100 * e.low(), 0, xtop);
             double hi = f.sx(100 * e.high(), 0, xtop);
             s.append(String.format(Locale.ROOT, "<line class=\"ci %s\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>"
@@ -776,7 +803,7 @@ public final class SvgChart {
                     + "<line class=\"ci %s\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>", cls, lo, y + 5, hi,
                     y + 5, cls, lo, y + 2, lo, y + 8, cls, hi, y + 2, hi, y + 8));
         }
-        double end = Double.isNaN(e.high()) ? f.x0() + w : Math.max(f.x0() + w, f.sx(100 * e.high(), 0, xtop));
+        double end = !interval ? f.x0() + w : Math.max(f.x0() + w, f.sx(100 * e.high(), 0, xtop));
         s.append(String.format(Locale.ROOT, "<text class=\"val %s\" x=\"%.1f\" y=\"%.1f\">%s</text></g>", cls, end + 4,
                 y + 9, esc(percent(e.value()))));
     }
@@ -822,7 +849,8 @@ public final class SvgChart {
         int labelWidth = 110;
         Frame f = new Frame(WIDTH, 40 + rows.size() * row + 46, labelWidth + 8, 30, 40, 46);
         String axis = capitalised(plotted.statistic()) + (unit == null ? "" : " (" + unit + ")");
-        StringBuilder s = open(f, "location estimates", axis + " with its confidence interval: "
+        boolean intervals = rows.stream().anyMatch(e -> hasWidth(e.low(), e.high()));
+        StringBuilder s = open(f, "location estimates", axis + (intervals ? " with its confidence interval: " : ": ")
                 + (hasBaseline ? baselineWave + " against " : "") + currentWave
                 + (reference == null ? "" : ", with the reference"));
         legend(s, f, hasBaseline ? baselineWave + " (baseline)" : null, currentWave + " (current)"
@@ -855,17 +883,17 @@ public final class SvgChart {
             s.append(String.format(Locale.ROOT, "<text class=\"cat\" x=\"%d\" y=\"%.1f\" text-anchor=\"end\">%s</text>",
                     labelWidth, y + 4, esc(waves.get(i))));
             double x = f.sx(inDecade(e.value(), decade), xlo, xhi);
-            boolean interval = !Double.isNaN(e.low());
+            boolean interval = hasWidth(e.low(), e.high());
             double l = interval ? f.sx(inDecade(e.low(), decade), xlo, xhi) : x;
             double h = interval ? f.sx(inDecade(e.high(), decade), xlo, xhi) : x;
             String tip = waves.get(i) + ": " + number(inDecade(e.value(), decade)) + (unit == null ? "" : " " + unit)
                     + (interval ? " (" + number(inDecade(e.low(), decade)) + " to " + number(inDecade(e.high(),
                     decade)) + ")" : "");
-            s.append(String.format(Locale.ROOT, "<g class=\"whisker est %s\"%s><title>%s</title><line class=\"ci %s\""
-                            + " x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/><circle class=\"pt %s\" cx=\"%.1f\""
-                            + " cy=\"%.1f\" r=\"4\"/><text class=\"val %s\" x=\"%.1f\" y=\"%.1f\">%s</text></g>", cls,
-                    data(e.value(), e.low(), e.high(), waves.get(i), null, p.findingId()), esc(tip), cls, l, y, h, y,
-                    cls, x, y, cls, h + 5, y + 4, esc(number(inDecade(e.value(), decade)))));
+            s.append(String.format(Locale.ROOT, "<g class=\"whisker est %s\"%s><title>%s</title>%s<circle class=\"pt %s\""
+                            + " cx=\"%.1f\" cy=\"%.1f\" r=\"4\"/><text class=\"val %s\" x=\"%.1f\" y=\"%.1f\">%s</text></g>",
+                    cls, data(e.value(), e.low(), e.high(), waves.get(i), null, p.findingId()), esc(tip),
+                    ciLine(interval, cls, l, y, h), cls, x, y, cls, h + 5, y + 4,
+                    esc(number(inDecade(e.value(), decade)))));
         }
         return s.append("</svg>").toString();
     }
@@ -929,8 +957,9 @@ public final class SvgChart {
         var ci = d.interval();
         String tip = "largest gap at " + number(d.at()) + (given == null ? "" : " " + given) + ": "
                 + percent(d.cdfBaseline()) + " of " + baselineWave + " and " + percent(d.cdfCurrent()) + " of "
-                + currentWave + " at or below it; KS distance " + number(d.distance()) + " ("
-                + Math.round(100 * ci.confidence()) + "% CI " + number(ci.ciLow()) + " to " + number(ci.ciHigh()) + ")";
+                + currentWave + " at or below it; KS distance " + number(d.distance())
+                + (hasWidth(ci.ciLow(), ci.ciHigh()) ? " (" + Math.round(100 * ci.confidence()) + "% CI "
+                + number(ci.ciLow()) + " to " + number(ci.ciHigh()) + ")" : "");
         s.append(String.format(Locale.ROOT, "<line class=\"gap\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\""
                         + " data-at=\"%s\" data-baseline=\"%s\" data-current=\"%s\"%s><title>%s</title></line>", gx,
                 f.sy(d.cdfBaseline(), 0, 1), gx, f.sy(d.cdfCurrent(), 0, 1), full(d.at()), full(d.cdfBaseline()),
@@ -961,8 +990,10 @@ public final class SvgChart {
         int row = 40;
         int labelWidth = 110;
         Frame f = new Frame(WIDTH, 40 + 2 * row + 46, labelWidth + 8, 40, 40, 46);
-        StringBuilder s = open(f, "dates estimates", "Median date of " + variable + " with its confidence interval,"
-                + " and the span of the dates: " + baselineWave + " against " + currentWave);
+        boolean intervals = hasWidth(medians[0].ciLow(), medians[0].ciHigh())
+                || hasWidth(medians[1].ciLow(), medians[1].ciHigh());
+        StringBuilder s = open(f, "dates estimates", "Median date of " + variable
+                + (intervals ? " with its confidence interval," : ",") + " and the span of the dates: " + baselineWave + " against " + currentWave);
         legend(s, f, baselineWave + " (baseline)", currentWave + " (current)");
         s.append(String.format(Locale.ROOT, "<line class=\"axis\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/>",
                 f.x0(), f.y0(), f.x1(), f.y0()));
@@ -988,17 +1019,17 @@ public final class SvgChart {
                     esc(waves[i] + ": dates from " + ends[i][0] + " to " + ends[i][1])));
             var m = medians[i];
             double x = f.sx(m.estimate(), lo, hi);
-            boolean interval = !Double.isNaN(m.ciLow());
+            boolean interval = hasWidth(m.ciLow(), m.ciHigh());
             double l = interval ? f.sx(m.ciLow(), lo, hi) : x;
             double h = interval ? f.sx(m.ciHigh(), lo, hi) : x;
             String tip = waves[i] + ": median date " + iso[i] + (interval ? " (" + Math.round(100 * m.confidence())
                     + "% CI " + org.wavewarden.compare.DateComparison.DateDetail.date(m.ciLow()) + " to "
                     + org.wavewarden.compare.DateComparison.DateDetail.date(m.ciHigh()) + ")" : "");
             s.append(String.format(Locale.ROOT, "<g class=\"whisker est %s\" data-date=\"%s\"%s><title>%s</title>"
-                            + "<line class=\"ci %s\" x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\"/><circle class=\"pt %s\""
-                            + " cx=\"%.1f\" cy=\"%.1f\" r=\"4\"/><text class=\"val %s\" x=\"%.1f\" y=\"%.1f\">%s</text></g>",
+                            + "%s<circle class=\"pt %s\" cx=\"%.1f\" cy=\"%.1f\" r=\"4\"/><text class=\"val %s\" x=\"%.1f\""
+                            + " y=\"%.1f\">%s</text></g>",
                     cls[i], esc(iso[i]), data(m.estimate(), m.ciLow(), m.ciHigh(), waves[i], "median date", id),
-                    esc(tip), cls[i], l, y, h, y, cls[i], x, y, cls[i], h + 5, y + 4, esc(iso[i])));
+                    esc(tip), ciLine(interval, cls[i], l, y, h), cls[i], x, y, cls[i], h + 5, y + 4, esc(iso[i])));
         }
         return s.append("</svg>").toString();
     }

@@ -48,6 +48,14 @@ public record Trend(String measure, String unit, List<String> waves, List<Double
         }
     }
 
+    /**
+     * The same trend of a complete enumeration, whose waves each counted every unit: no wave has a sampling interval,
+     * so each limit is the wave's value and no band is drawn.
+     */
+    public Trend exact() {
+        return new Trend(measure, unit, waves, values, values, values, percent, category, reference, findingId);
+    }
+
     private static List<Double> nans(int n) {
         List<Double> out = new ArrayList<>(n);
         for (int i = 0; i < n; i++) {
