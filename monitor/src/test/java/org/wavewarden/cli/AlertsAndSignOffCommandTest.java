@@ -37,6 +37,7 @@ class AlertsAndSignOffCommandTest {
     static Path dir;
     String config;
     long scoreAlert;
+    long spreadAlert;
 
     @BeforeAll
     void judgeThreeWaves() throws Exception {
@@ -85,6 +86,12 @@ class AlertsAndSignOffCommandTest {
         return CliRun.of(all);
     }
 
+    /** The ids in the first column of a listing's rows, in its order (not the closing count, "2 alert(s)"). */
+    static List<Long> rowIds(String listing) {
+        return listing.lines().map(String::strip).filter(l -> l.matches("\\d+\\s.*") && !l.endsWith(" alert(s)"))
+                .map(l -> Long.parseLong(l.split("\\s+")[0])).toList();
+    }
+
     /** The id in the first column of the listed row whose cells include all of {@code cells}. */
     static long idOf(String listing, String... cells) {
         for (String line : listing.lines().toList()) {
@@ -104,7 +111,7 @@ class AlertsAndSignOffCommandTest {
         assertTrue(all.out().lines().findFirst().orElse("").matches(
                 "\\s+id\\s+dataset\\s+wave\\s+variable\\s+kind\\s+verdict\\s+state\\s+last action"), all.out());
         scoreAlert = idOf(all.out(), "small-survey", "w3", "score", "SHIFT", "MATERIAL", "open");
-        long spreadAlert = idOf(all.out(), "small-survey", "w3", "spread");
+        spreadAlert = idOf(all.out(), "small-survey", "w3", "spread");
 
         CliRun explained = alerts("list", "--wave", "w3", "--state", "explained");
         assertEquals(0, explained.exitCode(), explained.err());
@@ -116,11 +123,13 @@ class AlertsAndSignOffCommandTest {
     @Test
     @Order(2)
     void filtersByVerdictAndKindNarrowTheList() {
+        // w3 has two alerts: the score's shift and the spread's change of shape. Each filter takes one away.
+        assertEquals(List.of(scoreAlert, spreadAlert), rowIds(alerts("list", "--wave", "w3").out()));
         CliRun material = alerts("list", "--wave", "w3", "--verdict", "material", "--kind", "shift");
         assertEquals(0, material.exitCode(), material.err());
-        assertEquals(scoreAlert, idOf(material.out(), "score"));
-        assertTrue(material.out().lines().filter(l -> l.matches("\\s+\\d+\\s.*"))
-                .allMatch(l -> l.contains("MATERIAL")), material.out());
+        assertEquals(List.of(scoreAlert), rowIds(material.out()), material.out());
+        assertEquals(List.of(spreadAlert), rowIds(alerts("list", "--wave", "w3", "--kind", "SHAPE_CHANGE").out()));
+        assertEquals(List.of(), rowIds(alerts("list", "--wave", "w3", "--verdict", "STABLE").out()));
         assertEquals("0 alert(s)", alerts("list", "--wave", "no-such-wave").out().strip().lines()
                 .reduce((a, b) -> b).orElse(""));
     }

@@ -11,6 +11,7 @@ import java.util.List;
 import java.util.Map;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
 
 /**
  * A missing reason or a sentinel whose share falls to none is good news: CLEARED, never a MATERIAL change. A rise from
@@ -30,24 +31,28 @@ class ClearedTest {
     }
 
     /**
-     * Cohen's h of 27/1000 against 0/1000 is -0.33013065 (R 4.2.2: 2 * asin(sqrt(0)) - 2 * asin(sqrt(0.027))),
-     * beyond 0.2 and significant: the verdict rule alone would call the fall MATERIAL.
+     * Cohen's h of each change, reference R 4.2.2: 2 * asin(sqrt(after / 1000)) - 2 * asin(sqrt(before / 1000)).
+     * The fall of 27 to none is beyond 0.2 and significant: the verdict rule alone would call it MATERIAL. The
+     * direction changes the verdict only, never the effect, so every row keeps its h.
      */
-    @ParameterizedTest(name = "{0}/1000 -> {1}/1000: {2}")
+    @ParameterizedTest(name = "{0}/1000 -> {1}/1000: {2}, h {3}")
     @CsvSource({
-            "27, 0,  CLEARED",    // fell to none
-            "0,  27, MATERIAL",   // a rise from none stays as judged
-            "27, 2,  MATERIAL",   // some are left: still a change to look at
-            "3,  0,  CLEARED",    // too small a fall to be significant, but gone is gone
+            "27, 0,  CLEARED,  -0.33013065",   // fell to none
+            "0,  27, MATERIAL,  0.33013065",   // a rise from none stays as judged
+            "27, 2,  MATERIAL, -0.24065809",   // some are left: still a change to look at
+            "3,  0,  CLEARED,  -0.10959936",   // too small a fall to be significant, but gone is gone
     })
-    void aReasonThatFellToNoneIsCleared(long before, long after, Verdict verdict) {
+    void aReasonThatFellToNoneIsCleared(long before, long after, Verdict verdict, double h) {
         Finding f = judged(rate("999", before, after)).get(0);
         assertEquals(verdict, f.verdict(), f.sentence());
+        assertEquals(h, f.effect().estimate(), 1e-8);   // R 4.2.2, see above
+        assertEquals(verdict == Verdict.CLEARED, f.sentence().startsWith("Cleared:"), f.sentence());
         if (verdict == Verdict.CLEARED) {
             assertEquals(String.format(java.util.Locale.ROOT, "Cleared: the share missing (999) fell from %.1f%% of"
                     + " rows to none this wave (%+.1f points); nothing is left to look at: CLEARED.", before / 10.0,
                     -before / 10.0), f.sentence());
-            assertEquals(-0.33013065, judged(rate("999", 27, 0)).get(0).effect().estimate(), 1e-8);  // R 4.2.2
+        } else {
+            assertTrue(f.sentence().endsWith(": MATERIAL."), f.sentence());
         }
     }
 

@@ -12,7 +12,6 @@ import java.util.List;
 import java.util.Map;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
-import static org.junit.jupiter.api.Assertions.assertNotNull;
 import static org.junit.jupiter.api.Assertions.assertNull;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -63,14 +62,28 @@ class CompleteEnumerationTest {
                 f.sentence());
     }
 
+    /**
+     * The same counts as a sample: the two-proportion z-test without continuity correction, reference R 4.2.2
+     * {@code prop.test(c(300, 400), c(1000, 1000), correct = FALSE)}: X-squared 21.978022 (z 4.6880723), p-value
+     * 2.7579058e-06; alone in its family, so Benjamini-Hochberg leaves q = p. Cohen's h with its interval on the
+     * arcsine scale from the two Wilson intervals (the MOVER construction CohensH documents), reference R 4.2.2:
+     *   g <- function(p) 2 * asin(sqrt(p)); b <- prop.test(300, 1000, correct = FALSE)$conf.int
+     *   a <- prop.test(400, 1000, correct = FALSE)$conf.int; h <- g(0.4) - g(0.3)
+     *   c(h - sqrt((g(0.4) - g(a[1]))^2 + (g(b[2]) - g(0.3))^2),
+     *     h + sqrt((g(a[2]) - g(0.4))^2 + (g(0.3) - g(b[1]))^2))
+     * = 0.12229986 to 0.29738900.
+     */
     @Test
     void theSameCountsAsASampleAreTested() {
         Comparison c = share("owns_boat", FindingKind.SHIFT, "answering 'yes'", 300, 1000, 400, 1000);
         Finding f = Judge.judge(List.of(c), ALPHA, FdrMethod.BENJAMINI_HOCHBERG, Population.SAMPLE).get(0);
-        assertNotNull(f.pValue());
-        assertNotNull(f.qValue());
+        assertEquals(2.7579057770547e-06, f.pValue(), 1e-12);    // R 4.2.2 prop.test, see above
+        assertEquals(f.pValue(), f.qValue(), 1e-15, "a family of one: q is p");
         assertEquals(1, f.fdrFamilySize());
-        assertTrue(f.effect().ciLow() < f.effect().estimate() && f.effect().estimate() < f.effect().ciHigh());
+        assertEquals(0.21015893, f.effect().estimate(), 1e-8);     // R 4.2.2, see above
+        assertEquals(0.12229986, f.effect().ciLow(), 1e-8);        // R 4.2.2, see above
+        assertEquals(0.29738900, f.effect().ciHigh(), 1e-8);       // R 4.2.2, see above
+        assertEquals(Verdict.MATERIAL, f.verdict(), f.sentence());
         // The same comparison, judged without naming a population, is a sample's.
         assertEquals(f, Judge.judge(List.of(c), ALPHA, FdrMethod.BENJAMINI_HOCHBERG).get(0));
     }

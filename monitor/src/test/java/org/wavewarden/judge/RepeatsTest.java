@@ -221,7 +221,11 @@ class RepeatsTest {
         Finding previous = new Finding("mooring_fee", FindingKind.MISSING_RATE_CHANGE, "z", 1.0, 0.5, 0.6, wide,
                 Verdict.UNCERTAIN, 40L, 40L, "The missing rate moved.", null);
         Finding marked = Repeats.mark(BEFORE, List.of(previous), List.of(previous)).get(0);
-        assertEquals(Finding.Repeat.Kind.STILL_UNRESOLVABLE, marked.repeat().kind());
+        assertEquals(new Finding.Repeat(Finding.Repeat.Kind.STILL_UNRESOLVABLE, BEFORE, BEFORE), marked.repeat());
+        assertEquals("The missing rate moved. Too few answers to judge since wave 2025-Q1: the smallest change these"
+                + " waves could show (0.350) is larger than the threshold (0.200), as in wave 2025-Q1; no new alert.",
+                marked.sentence());
+        assertFalse(Alerts.worthAPerson(marked));
     }
 
     @Test

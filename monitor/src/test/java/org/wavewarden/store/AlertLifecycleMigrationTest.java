@@ -15,6 +15,7 @@ import java.util.List;
 import java.util.Map;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
 
 /**
  * A results schema written before alert histories existed is migrated on a real PostgreSQL server: every alert
@@ -53,6 +54,7 @@ class AlertLifecycleMigrationTest {
                 superseded.stream().map(ReviewEntry::action).toList());
         assertEquals(List.of("wavewarden", "wavewarden"), superseded.stream().map(ReviewEntry::actor).toList());
         assertEquals(List.of("migration", "migration"), superseded.stream().map(ReviewEntry::source).toList());
+        assertEquals(java.time.Instant.parse("2026-01-05T09:00:00Z"), superseded.get(0).at(), "opened when created");
         assertEquals(java.time.Instant.parse("2026-01-06T09:00:00Z"), superseded.get(1).at());
         assertEquals(List.of(ReviewAction.OPENED), reviews.history(11).stream().map(ReviewEntry::action).toList());
         assertEquals(Map.of(10L, AlertState.SUPERSEDED, 11L, AlertState.OPEN), reviews.states(List.of(10L, 11L)));
@@ -63,6 +65,12 @@ class AlertLifecycleMigrationTest {
                      + " AND c.confdeltype = 'c'")) {
             rs.next();
             assertEquals(0, rs.getInt(1), "no foreign key of the results schema cascades a delete any more");
+        }
+        // No cascading key could also mean no key at all: a run its findings and alerts refer to cannot be deleted.
+        try (Connection c = TestDatabase.connect(url); var st = c.createStatement()) {
+            java.sql.SQLException refused = assertThrows(java.sql.SQLException.class,
+                    () -> st.execute("DELETE FROM old_results.run WHERE run_id = 1"));
+            assertEquals("23503", refused.getSQLState(), refused.getMessage());   // foreign_key_violation
         }
     }
 }
