@@ -34,7 +34,7 @@ import java.util.function.Function;
         description = "What people concluded about alerts: list them with their states, explain, mute or unmute one,"
                 + " and show its history. Every action is recorded with the acting person and never changed.",
         subcommands = {AlertsCommand.ListAlerts.class, AlertsCommand.Explain.class, AlertsCommand.Mute.class,
-                AlertsCommand.Unmute.class, AlertsCommand.History.class})
+                AlertsCommand.Unmute.class, AlertsCommand.Reopen.class, AlertsCommand.History.class})
 final class AlertsCommand implements Runnable {
 
     /** Where an entry written from the command line says it came from. */
@@ -290,6 +290,29 @@ final class AlertsCommand implements Runnable {
         public Integer call() {
             return review(config, spec, actor, id,
                     a -> a.reviews().unmute(a.alert().alertId(), a.actor(), note, SOURCE));
+        }
+    }
+
+    @Command(name = "reopen", mixinStandardHelpOptions = true,
+            description = "Open an explained alert again, when its explanation no longer holds; the explanation stays"
+                    + " in the history.")
+    static final class Reopen implements Callable<Integer> {
+        @Mixin
+        ConfigOption config;
+        @Parameters(index = "0", paramLabel = "ID", description = "the alert, as 'alerts list' shows it")
+        long id;
+        @Option(names = "--note", required = true, paramLabel = "TEXT",
+                description = "why the explanation no longer holds, in words")
+        String note;
+        @Mixin
+        ActorOption actor;
+        @picocli.CommandLine.Spec
+        picocli.CommandLine.Model.CommandSpec spec;
+
+        @Override
+        public Integer call() {
+            return review(config, spec, actor, id,
+                    a -> a.reviews().reopen(a.alert().alertId(), a.actor(), note, SOURCE));
         }
     }
 

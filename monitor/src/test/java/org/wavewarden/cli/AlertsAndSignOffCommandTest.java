@@ -238,4 +238,24 @@ class AlertsAndSignOffCommandTest {
         assertTrue(all.out().contains("2 sign-off(s) of small-survey"), all.out());
         assertTrue(all.out().contains("forced: board meeting"), all.out());
     }
+
+    @Test
+    @Order(8)
+    void anExplanationThatNoLongerHoldsIsReopenedWithItsReasonAndOnlyAnExplainedAlertCanBe() {
+        CliRun reopened = alerts("reopen", String.valueOf(scoreAlert), "--note", "the bus line opened a year later",
+                "--as", "T. Quill");
+        assertEquals(0, reopened.exitCode(), reopened.err());
+        assertEquals(scoreAlert, idOf(alerts("list", "--state", "open", "--wave", "w3").out(), "score", "open"));
+
+        CliRun again = alerts("reopen", String.valueOf(scoreAlert), "--note", "twice", "--as", "T. Quill");
+        assertEquals(Main.USAGE, again.exitCode(), again.out());
+        assertTrue(again.err().contains("is not explained (it is OPEN)"), again.err());
+
+        List<String> lines = alerts("history", String.valueOf(scoreAlert)).out().lines().toList();
+        assertTrue(lines.stream().anyMatch(l -> l.contains("reopened by T. Quill")
+                && l.contains("the bus line opened a year later")), String.join("\n", lines));
+        CliRun noNote = alerts("reopen", String.valueOf(scoreAlert), "--as", "T. Quill");
+        assertEquals(Main.USAGE, noNote.exitCode(), "a reopening without a note is refused: the history must say why");
+        assertTrue(noNote.err().contains("--note"), noNote.err());
+    }
 }
