@@ -193,7 +193,7 @@ public final class ConsoleAuth {
      */
     public LoginResult login(String name, char[] password, String remoteAddress) {
         String n = name == null ? "" : name.strip();
-        Optional<Duration> wait = throttle.retryAfter(n, remoteAddress);
+        Optional<Duration> wait = throttle.begin(n, remoteAddress);
         if (wait.isPresent()) {
             LOG.warn("console login throttled from {} for {} s", remoteAddress, wait.get().toSeconds());
             return new LoginResult.Throttled(wait.get());
@@ -202,12 +202,11 @@ public final class ConsoleAuth {
         boolean matched = PasswordHashes.matches(password == null ? new char[0] : password,
                 user.map(ConsoleConfig.User::passwordHash).orElseGet(StandIn::hash));
         if (matched && user.isPresent()) {
-            throttle.succeeded(n);
+            throttle.succeeded(n, remoteAddress);
             Live live = open(new Principal(n, user.get().role(), "password"), clock.instant());
             LOG.info("console login: {} ({}) from {}", n, live.principal.role().key(), remoteAddress);
             return new LoginResult.LoggedIn(live.view());
         }
-        throttle.failed(n, remoteAddress);
         if (user.isPresent()) {
             LOG.warn("console login refused: wrong password for {} from {}", n, remoteAddress);
         } else {

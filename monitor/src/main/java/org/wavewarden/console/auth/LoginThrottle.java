@@ -41,8 +41,13 @@ public final class LoginThrottle {
         this.clock = clock;
     }
 
-    /** How long until an attempt for {@code name} from {@code address} is checked again, or empty when it is now. */
-    public synchronized Optional<Duration> retryAfter(String name, String address) {
+    /**
+     * Starts an attempt for {@code name} from {@code address}: how long until one is checked again, or empty when it
+     * may be checked now, in which case it is already counted as a failure. Counting before the check, in one step
+     * with the test, keeps a burst of simultaneous attempts to the limit: none of them can pass the test while
+     * another is still being checked.
+     */
+    public synchronized Optional<Duration> begin(String name, String address) {
         Instant now = clock.instant();
         Duration wait = Duration.ZERO;
         for (Duration d : new Duration[] {wait(byName, nameKey(name), now), wait(byAddress, address, now)}) {
@@ -50,19 +55,24 @@ public final class LoginThrottle {
                 wait = d;
             }
         }
-        return wait.isZero() ? Optional.empty() : Optional.of(wait);
-    }
-
-    /** Counts one failed attempt for the name and for the address. */
-    public synchronized void failed(String name, String address) {
-        Instant now = clock.instant();
+        if (!wait.isZero()) {
+            return Optional.of(wait);
+        }
         add(byName, nameKey(name), now);
         add(byAddress, address, now);
+        return Optional.empty();
     }
 
-    /** Forgets the name's failures after a successful login. */
-    public synchronized void succeeded(String name) {
+    /**
+     * The attempt begun for {@code name} from {@code address} succeeded: the name's failures are forgotten and the
+     * address is no longer charged for this attempt (its other failures stay).
+     */
+    public synchronized void succeeded(String name, String address) {
         byName.remove(nameKey(name));
+        Deque<Instant> failures = byAddress.get(address);
+        if (failures != null && !failures.isEmpty()) {
+            failures.removeLast();
+        }
     }
 
     private Duration wait(Map<String, Deque<Instant>> map, String key, Instant now) {

@@ -193,6 +193,34 @@ class ConsoleAuthTest {
     }
 
     @Test
+    void aBurstOfSimultaneousAttemptsGetsNoMoreChecksThanTheLimit() throws Exception {
+        int attempts = 12;
+        java.util.concurrent.ExecutorService pool = java.util.concurrent.Executors.newFixedThreadPool(attempts);
+        java.util.concurrent.CountDownLatch go = new java.util.concurrent.CountDownLatch(1);
+        List<java.util.concurrent.Future<ConsoleAuth.LoginResult>> results = new ArrayList<>();
+        try {
+            for (int i = 0; i < attempts; i++) {
+                results.add(pool.submit(() -> {
+                    go.await();
+                    return auth.login("ada", "wrong".toCharArray(), HERE);
+                }));
+            }
+            go.countDown();
+            int refused = 0;
+            int throttled = 0;
+            for (var f : results) {
+                ConsoleAuth.LoginResult r = f.get();
+                refused += r instanceof ConsoleAuth.LoginResult.Refused ? 1 : 0;
+                throttled += r instanceof ConsoleAuth.LoginResult.Throttled ? 1 : 0;
+            }
+            assertEquals(3, refused, "checked: exactly the three failures allowed");
+            assertEquals(attempts - 3, throttled, "the rest refused unchecked, however close together they came");
+        } finally {
+            pool.shutdownNow();
+        }
+    }
+
+    @Test
     void aSuccessClearsTheNamesFailures() {
         auth.login("ada", "wrong".toCharArray(), "203.0.113.1");
         auth.login("ada", "wrong".toCharArray(), "203.0.113.2");
