@@ -163,6 +163,23 @@ class ConsoleAuthTest {
     }
 
     @Test
+    void everyCheckedAttemptSpendsOneHashCheckWhoeverItNames() {
+        // Equal work rather than a timing measurement: a name that is not configured, or has no hash, is checked
+        // against a stand-in hash, so its answer takes as long as a configured name's.
+        for (String name : List.of("ada", "dora", "cai", "")) {
+            long before = PasswordHashes.CHECKS_DONE.get();
+            auth.login(name, "wrong".toCharArray(), "203.0.113." + name.length());
+            assertEquals(1, PasswordHashes.CHECKS_DONE.get() - before, "checks spent for '" + name + "'");
+        }
+        long before = PasswordHashes.CHECKS_DONE.get();
+        for (int i = 0; i < 3; i++) {
+            auth.login("eli", "wrong".toCharArray(), HERE);
+        }
+        assertInstanceOf(ConsoleAuth.LoginResult.Throttled.class, auth.login("eli", "x".toCharArray(), HERE));
+        assertEquals(3, PasswordHashes.CHECKS_DONE.get() - before, "a throttled attempt is not checked at all");
+    }
+
+    @Test
     void afterTheAllowedFailuresANameIsThrottledUntilTheWindowHasPassed() {
         for (int i = 0; i < 3; i++) {
             assertInstanceOf(ConsoleAuth.LoginResult.Refused.class,
