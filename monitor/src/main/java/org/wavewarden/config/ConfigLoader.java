@@ -91,7 +91,7 @@ public final class ConfigLoader {
     private static final class Walker {
 
         WardenConfig config(ObjectNode root) {
-            known(root, "", "source", "results", "alpha", "fdr", "datasets", "daemon");
+            known(root, "", "source", "results", "alpha", "fdr", "datasets", "daemon", "console");
             ConnectionConfig source = connection(object(root, "source", "source", true), "source", true);
             WardenConfig.ResultsConfig results = results(object(root, "results", "results", false));
             double alpha = number(root, "alpha", "alpha", 0.05);
@@ -114,7 +114,148 @@ public final class ConfigLoader {
                 datasets.add(d);
             }
             return new WardenConfig(source, results, alpha, fdr, datasets,
-                    daemon(object(root, "daemon", "daemon", false)));
+                    daemon(object(root, "daemon", "daemon", false)),
+                    console(object(root, "console", "console", false)));
+        }
+
+        ConsoleConfig console(ObjectNode node) {
+            ConsoleConfig d = ConsoleConfig.DISABLED;
+            if (node == null) {
+                return d;
+            }
+            known(node, "console", "enabled", "users", "proxy", "sessionMinutes", "idleMinutes", "secureCookie",
+                    "loginFailures", "lockoutMinutes");
+            boolean enabled = flag(node, "enabled", "console.enabled", false);
+            List<ConsoleConfig.User> users = consoleUsers(node);
+            ConsoleConfig.Proxy proxy = consoleProxy(object(node, "proxy", "console.proxy", false));
+            if (enabled && users.isEmpty()) {
+                throw new ConfigException("console.users", "missing: an enabled console needs at least one user");
+            }
+            if (proxy == null) {
+                for (int i = 0; i < users.size(); i++) {
+                    ConsoleConfig.User u = users.get(i);
+                    if (u.passwordHash() == null && u.passwordHashEnv() == null) {
+                        throw new ConfigException("console.users[" + i + "]", "give passwordHash or passwordHashEnv;"
+                                + " only a console behind a trusted proxy (console.proxy) has people without one");
+                    }
+                }
+            }
+            int session = wholeNumber(node, "sessionMinutes", "console.sessionMinutes",
+                    d.sessionLength().toMinutes(), 1, 7 * 24 * 60);
+            int idle = wholeNumber(node, "idleMinutes", "console.idleMinutes", d.idleTimeout().toMinutes(), 1,
+                    7 * 24 * 60);
+            if (idle > session) {
+                throw new ConfigException("console.idleMinutes", "expected at most sessionMinutes (" + session
+                        + "): a session never lives longer than sessionMinutes, idle or not");
+            }
+            boolean secure = flag(node, "secureCookie", "console.secureCookie", d.secureCookie());
+            int failures = wholeNumber(node, "loginFailures", "console.loginFailures", d.loginFailures(), 1, 1000);
+            int lockout = wholeNumber(node, "lockoutMinutes", "console.lockoutMinutes", d.lockout().toMinutes(), 1,
+                    24 * 60);
+            return new ConsoleConfig(enabled, users, proxy, java.time.Duration.ofMinutes(session),
+                    java.time.Duration.ofMinutes(idle), secure, failures, java.time.Duration.ofMinutes(lockout));
+        }
+
+        // Names appear on pages, in the audit rows and in log lines: letters, digits and a few marks, no spaces at
+        // either end, at most 64 characters.
+        private static final java.util.regex.Pattern PERSON =
+                java.util.regex.Pattern.compile("[\\p{L}\\p{N}]([\\p{L}\\p{N} ._@'-]{0,62}[\\p{L}\\p{N}])?");
+
+        List<ConsoleConfig.User> consoleUsers(ObjectNode node) {
+            JsonNode list = node.get("users");
+            if (list == null || list.isNull()) {
+                return List.of();
+            }
+            if (!list.isArray()) {
+                throw new ConfigException("console.users", "expected a list but got " + describe(list));
+            }
+            List<ConsoleConfig.User> users = new ArrayList<>();
+            Map<String, Integer> seen = new HashMap<>();
+            for (int i = 0; i < list.size(); i++) {
+                String path = "console.users[" + i + "]";
+                ObjectNode u = asObject(list.get(i), path);
+                if (u.has("password")) {
+                    // Refused before anything else, and without repeating the value.
+                    throw new ConfigException(path + ".password", "passwords are never written in the config; give"
+                            + " passwordHash, the output of wavewarden console-password");
+                }
+                known(u, path, "name", "role", "passwordHash", "passwordHashEnv");
+                String name = text(u, "name", path + ".name", true);
+                if (!PERSON.matcher(name).matches()) {
+                    throw new ConfigException(path + ".name", "expected 1 to 64 letters, digits, spaces and . _ @ ' -,"
+                            + " starting and ending with a letter or digit, but got " + Identifiers.Text.show(name));
+                }
+                Integer first = seen.putIfAbsent(name, i);
+                if (first != null) {
+                    throw new ConfigException(path + ".name", "user name '" + name + "' is already given at"
+                            + " console.users[" + first + "]");
+                }
+                String roleText = text(u, "role", path + ".role", true);
+                org.wavewarden.review.Role role = java.util.Arrays.stream(org.wavewarden.review.Role.values())
+                        .filter(r -> r.key().equals(roleText)).findFirst().orElseThrow(() -> new ConfigException(
+                                path + ".role", "expected one of viewer, steward, releaser but got "
+                                + Identifiers.Text.show(roleText)));
+                String hash = text(u, "passwordHash", path + ".passwordHash", false);
+                String env = envName(u, "passwordHashEnv", path);
+                if (hash != null && env != null) {
+                    throw new ConfigException(path + ".passwordHashEnv", "give passwordHash or passwordHashEnv,"
+                            + " not both");
+                }
+                if (hash != null) {
+                    hash = hash.strip();
+                    String problem = org.wavewarden.console.auth.PasswordHashes.problem(hash);
+                    if (problem != null) {
+                        throw new ConfigException(path + ".passwordHash", "the value " + problem);
+                    }
+                }
+                users.add(new ConsoleConfig.User(name, role, hash, env));
+            }
+            return users;
+        }
+
+        ConsoleConfig.Proxy consoleProxy(ObjectNode node) {
+            if (node == null) {
+                return null;
+            }
+            known(node, "console.proxy", "userHeader", "trustedAddresses");
+            String header = text(node, "userHeader", "console.proxy.userHeader", true);
+            // An HTTP field name (a token of RFC 9110 section 5.1), so that it can only ever name a header.
+            if (!header.matches("[A-Za-z0-9!#$%&'*+.^_`|~-]{1,100}")) {
+                throw new ConfigException("console.proxy.userHeader", "expected an HTTP header name such as"
+                        + " X-Forwarded-User but got " + Identifiers.Text.show(header));
+            }
+            List<String> addresses = texts(node, "trustedAddresses", "console.proxy.trustedAddresses");
+            if (addresses.isEmpty()) {
+                throw new ConfigException("console.proxy.trustedAddresses", "missing: expected the proxy's IP"
+                        + " addresses (such as 127.0.0.1); the header is believed from these only");
+            }
+            for (int i = 0; i < addresses.size(); i++) {
+                if (org.wavewarden.console.auth.IpLiteral.parse(addresses.get(i)).isEmpty()) {
+                    throw new ConfigException("console.proxy.trustedAddresses[" + i + "]", "expected an IPv4 or IPv6"
+                            + " address (no host name, no range) but got " + Identifiers.Text.show(addresses.get(i)));
+                }
+            }
+            return new ConsoleConfig.Proxy(header, addresses);
+        }
+
+        boolean flag(ObjectNode parent, String key, String path, boolean dflt) {
+            JsonNode n = parent.get(key);
+            if (n == null || n.isNull()) {
+                return dflt;
+            }
+            if (!n.isBoolean()) {
+                throw new ConfigException(path, "expected true or false but got " + describe(n));
+            }
+            return n.asBoolean();
+        }
+
+        int wholeNumber(ObjectNode parent, String key, String path, long dflt, int min, int max) {
+            double v = number(parent, key, path, dflt);
+            if (v != Math.rint(v) || v < min || v > max) {
+                throw new ConfigException(path, "expected a whole number from " + min + " to " + max + " but got "
+                        + parent.get(key).asText());
+            }
+            return (int) v;
         }
 
         DaemonConfig daemon(ObjectNode node) {

@@ -1,10 +1,14 @@
 package org.wavewarden.config;
 
+import org.wavewarden.console.auth.PasswordHashes;
 import org.wavewarden.review.Role;
 
 import java.time.Duration;
+import java.util.ArrayList;
 import java.util.List;
 import java.util.Objects;
+import java.util.Optional;
+import java.util.function.Function;
 
 /**
  * The web console's people and sessions (key {@code console}). The console is served on the daemon's
@@ -34,14 +38,23 @@ public record ConsoleConfig(boolean enabled, List<User> users, Proxy proxy, Dura
     }
 
     /**
-     * One person who logs in with a password.
+     * One person who logs in with a password, or whom a trusted proxy names.
      *
-     * @param passwordHash the encoded hash (made by the {@code console-password} command), never the password
+     * @param passwordHash    the encoded Argon2id hash (made by the {@code console-password} command), never the
+     *                        password; null for a person who only comes through the proxy or whose hash is in
+     *                        {@code passwordHashEnv}
+     * @param passwordHashEnv the environment variable that holds the encoded hash, for deployments that keep even
+     *                        hashes out of the config file; null when the hash is given inline or not at all
      */
-    public record User(String name, Role role, String passwordHash) {
+    public record User(String name, Role role, String passwordHash, String passwordHashEnv) {
         public User {
             Objects.requireNonNull(name, "name");
             Objects.requireNonNull(role, "role");
+        }
+
+        /** A person whose hash is written in the config (or who has none). */
+        public User(String name, Role role, String passwordHash) {
+            this(name, role, passwordHash, null);
         }
 
         @Override
@@ -49,6 +62,42 @@ public record ConsoleConfig(boolean enabled, List<User> users, Proxy proxy, Dura
             // The hash stays out of logs and error messages.
             return "User[name=" + name + ", role=" + role.key() + "]";
         }
+    }
+
+    /**
+     * This configuration with every {@code passwordHashEnv} read from {@code environment} into {@code passwordHash}.
+     * The hash is checked here as the config file's hashes are checked when it is read, so a bad variable is refused
+     * at start-up with its key path, never at someone's first login.
+     *
+     * @param environment looks a variable up ({@code System::getenv} in production)
+     */
+    public ConsoleConfig withHashesFrom(Function<String, String> environment) {
+        List<User> resolved = new ArrayList<>();
+        for (int i = 0; i < users.size(); i++) {
+            User u = users.get(i);
+            if (u.passwordHashEnv() == null) {
+                resolved.add(u);
+                continue;
+            }
+            String key = "console.users[" + i + "].passwordHashEnv";
+            String hash = environment.apply(u.passwordHashEnv());
+            if (hash == null || hash.isBlank()) {
+                throw new ConfigException(key, "the environment variable " + u.passwordHashEnv() + " is not set;"
+                        + " it should hold the output of wavewarden console-password");
+            }
+            String problem = PasswordHashes.problem(hash.strip());
+            if (problem != null) {
+                throw new ConfigException(key, "the environment variable " + u.passwordHashEnv() + " " + problem);
+            }
+            resolved.add(new User(u.name(), u.role(), hash.strip(), u.passwordHashEnv()));
+        }
+        return new ConsoleConfig(enabled, resolved, proxy, sessionLength, idleTimeout, secureCookie, loginFailures,
+                lockout);
+    }
+
+    /** The configured person called {@code name} (names are compared exactly), if any. */
+    public Optional<User> user(String name) {
+        return users.stream().filter(u -> u.name().equals(name)).findFirst();
     }
 
     /**
