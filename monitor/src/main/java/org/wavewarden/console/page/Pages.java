@@ -542,7 +542,7 @@ public final class Pages {
         String href = findingId != null ? "/console/finding?id=" + findingId
                 : datasetHref(a.dataset(), a.kind());
         Mark m = Mark.of(a.verdict());
-        h.append("<li class=\"alert-item ").append(m.cls).append("\"><span class=\"key ").append(m.cls).append("\">")
+        h.append("<li class=\"alert-item\"><span class=\"key ").append(m.cls).append("\">")
                 .append(m.text).append("</span> <a href=\"").append(href).append("\"><code>")
                 .append(esc(a.variable())).append("</code></a> <span class=\"kind\">").append(esc(kindLabel(a.kind())))
                 .append("</span> <span class=\"verdict\">").append(a.verdict() == null ? "no verdict"

@@ -95,11 +95,18 @@ final class TrendChart {
         java.util.function.DoubleUnaryOperator y = v -> TOP + (yHi - v) / (yHi - yLo) * (HEIGHT - TOP - BOTTOM);
         int n = points.size();
         double step = (WIDTH - LEFT - RIGHT) / (double) n;
-
         h.append("<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"trend-chart\" id=\"").append(id)
                 .append("\" viewBox=\"0 0 ").append(WIDTH).append(' ').append(HEIGHT).append("\" role=\"img\"")
                 .append(" aria-labelledby=\"").append(id).append("-title\"><title id=\"").append(id)
                 .append("-title\">").append(esc(title)).append("</title>");
+        // The page's wave as a shaded column, drawn first so the band, zero line and whiskers stay on top of it.
+        for (int i = 0; i < n; i++) {
+            if (points.get(i).wave().equals(currentWave)) {
+                h.append("<rect class=\"current-wave\" x=\"").append(f(LEFT + step * i)).append("\" y=\"")
+                        .append(TOP).append("\" width=\"").append(f(step)).append("\" height=\"")
+                        .append(HEIGHT - TOP - BOTTOM).append("\" />");
+            }
+        }
         if (effect && !Double.isNaN(threshold)) {
             double top = y.applyAsDouble(threshold);
             double bottom = y.applyAsDouble(-threshold);
@@ -133,11 +140,6 @@ final class TrendChart {
             Double est = effect ? p.estimate() : p.level();
             Double low = effect ? p.low() : p.levelLow();
             Double high = effect ? p.high() : p.levelHigh();
-            if (current) {
-                h.append("<rect class=\"current-wave\" x=\"").append(f(x - step / 2)).append("\" y=\"").append(TOP)
-                        .append("\" width=\"").append(f(step)).append("\" height=\"").append(HEIGHT - TOP - BOTTOM)
-                        .append("\" />");
-            }
             if (finite(low) && finite(high)) {
                 h.append("<line class=\"whisker\" x1=\"").append(f(x)).append("\" x2=\"").append(f(x))
                         .append("\" y1=\"").append(f(y.applyAsDouble(low))).append("\" y2=\"")
