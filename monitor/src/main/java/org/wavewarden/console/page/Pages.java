@@ -598,6 +598,9 @@ public final class Pages {
         h.append("<h1>Variables matching &#8220;<span id=\"query\">").append(esc(query)).append("</span>&#8221;</h1>\n");
         h.append("<p class=\"meta\">").append(hits.size()).append(hits.size() == 1 ? " variable" : " variables")
                 .append(" found by name or label.</p>\n");
+        if (hits.isEmpty()) {
+            h.append("<p class=\"none\" id=\"search-none\">No variable's name or label contains this text.</p>\n");
+        }
         h.append("<table id=\"search-results\"><thead><tr><th scope=\"col\">Dataset</th><th scope=\"col\">Variable"
                 + "</th><th scope=\"col\">Label</th><th scope=\"col\">Last wave</th><th scope=\"col\">Verdict</th>"
                 + "<th scope=\"col\">Finding</th></tr></thead><tbody>");

@@ -357,4 +357,20 @@ class ConsolePagesTest {
         assertEquals("No finding 999 <here>.", byId(d, "problem").getTextContent());
         assertTrue(select(d, "//form").isEmpty(), "nobody is logged in, so there is no logout form");
     }
+
+    @Test
+    void theSearchListsEachHitWithItsLinks() {
+        Document d = parse(PageFixtures.everyPage(Role.VIEWER).get("search"));
+        List<String> row = select(d, "//table[@id='search-results']/tbody/tr[1]/*").stream()
+                .map(Element::getTextContent).toList();
+        assertEquals(List.of(PageFixtures.DATASET, PageFixtures.VARIABLE, PageFixtures.LABEL, PageFixtures.WAVE,
+                "▲ MAT MATERIAL", "finding 103"), row);
+        assertEquals(List.of("/console/dataset?name=harrowmere%3Cscript%3Ealert%281%29%3C%2Fscript%3E%22%26%27",
+                        "/console/wave?dataset=harrowmere%3Cscript%3Ealert%281%29%3C%2Fscript%3E%22%26%27"
+                                + "&wave=2025-Q4%27%26", "/console/finding?id=103"),
+                select(d, "//table[@id='search-results']//a").stream().map(e -> e.getAttribute("href")).toList());
+        Document none = parse(Pages.search(PageFixtures.chrome(Role.VIEWER), "zzz", List.of()));
+        assertTrue(byId(none, "search-none").getTextContent().startsWith("No variable"));
+        assertTrue(select(none, "//table[@id='search-results']/tbody/tr").isEmpty());
+    }
 }

@@ -1,9 +1,13 @@
 package org.wavewarden.console.page;
 
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.Arguments;
+import org.junit.jupiter.params.provider.MethodSource;
 import org.w3c.dom.Document;
 import org.w3c.dom.Element;
 import org.wavewarden.compare.Comparison;
+import org.wavewarden.compare.DateComparison;
 import org.wavewarden.compare.VariableComparator;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.deliver.FindingsReport;
@@ -17,9 +21,13 @@ import org.wavewarden.profile.NumericDistribution;
 import org.wavewarden.review.Role;
 import org.wavewarden.store.ConsoleReads;
 
+import java.time.LocalDate;
+import java.util.LinkedHashMap;
 import java.util.List;
+import java.util.Map;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
+import java.util.stream.Stream;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
@@ -35,18 +43,35 @@ class FindingPageTest {
 
     private static final Pattern PLOT = Pattern.compile("<svg class=\"plot .*?</svg>", Pattern.DOTALL);
 
-    /** A change of shape as a stored run reads it back: its detail is the JSON the results table holds. */
-    private static Finding storedShapeChange() {
+    /**
+     * Findings as a stored run reads them back (the detail is the JSON the results table holds), one per kind of
+     * picture the digest draws from a finding's own numbers: a change of shape and a comparison of dates.
+     */
+    static Stream<Arguments> storedFindings() {
         NumericDistribution b = NumericDistribution.ofSample(1, 2, 2, 3, 3, 3, 4, 4, 5, 9, 10, 11, 12, 13, 14);
         NumericDistribution c = NumericDistribution.ofSample(5, 6, 6, 7, 7, 7, 7, 8, 8, 8, 9, 9, 20, 21, 22);
         Comparison shape = new VariableComparator(0.95).shape("rooms", b, c, "rooms");
-        Finding f = Judge.judge(List.of(shape), 0.05, WardenConfig.FdrMethod.BENJAMINI_HOCHBERG).get(0);
+        Comparison dates = DateComparison.compare(new VariableComparator(0.95), "moved_in",
+                dates("2010-01-01", 400, 4), List.of(), dates("2010-03-01", 400, 4), List.of()).orElseThrow();
+        return Stream.of(Arguments.of("cumulative", stored(shape)), Arguments.of("dates", stored(dates)));
+    }
+
+    private static Finding stored(Comparison comparison) {
+        Finding f = Judge.judge(List.of(comparison), 0.05, WardenConfig.FdrMethod.BENJAMINI_HOCHBERG).get(0);
         return f.withDetail(Json.read(Json.write(f.detail()), Object.class));
     }
 
-    @Test
-    void thePlotIsTheDigestsPlotForTheSameFinding() {
-        Finding f = storedShapeChange();
+    private static Map<String, Long> dates(String from, int days, long each) {
+        Map<String, Long> out = new LinkedHashMap<>();
+        for (int i = 0; i < days; i++) {
+            out.put(LocalDate.parse(from).plusDays(i).toString(), each);
+        }
+        return out;
+    }
+
+    @ParameterizedTest(name = "{0}")
+    @MethodSource("storedFindings")
+    void thePlotIsTheDigestsPlotForTheSameFinding(String plotKind, Finding f) {
         String dataset = "harrowmere-household";
         String id = DigestAssembler.findingId(dataset, "2025-Q4", f);
         FindingsReport report = new FindingsReport(dataset, "2025-Q4", "2025-Q3", PageFixtures.AT, 0.05,
@@ -59,7 +84,7 @@ class FindingPageTest {
         String page = Pages.finding(PageFixtures.chrome(Role.VIEWER), view);
 
         String digestPlot = only(digest);
-        assertTrue(digestPlot.startsWith("<svg class=\"plot cumulative"), digestPlot);
+        assertTrue(digestPlot.startsWith("<svg class=\"plot " + plotKind), digestPlot);
         String section = page.substring(page.indexOf("<section id=\"plot\""), page.indexOf("</section>",
                 page.indexOf("<section id=\"plot\"")));
         assertEquals(digestPlot, only(section));
