@@ -65,7 +65,7 @@ final class TrendChart {
                     hi = Math.max(hi, v);
                 }
             }
-            if (effect && finite(p.threshold()) && p.wave().equals(currentWave)) {
+            if (effect && finite(p.threshold()) && Objects.equals(p.wave(), currentWave)) {
                 threshold = Math.abs(p.threshold());
             }
         }
@@ -101,7 +101,7 @@ final class TrendChart {
                 .append("-title\">").append(esc(title)).append("</title>");
         // The page's wave as a shaded column, drawn first so the band, zero line and whiskers stay on top of it.
         for (int i = 0; i < n; i++) {
-            if (points.get(i).wave().equals(currentWave)) {
+            if (Objects.equals(points.get(i).wave(), currentWave)) {
                 h.append("<rect class=\"current-wave\" x=\"").append(f(LEFT + step * i)).append("\" y=\"")
                         .append(TOP).append("\" width=\"").append(f(step)).append("\" height=\"")
                         .append(HEIGHT - TOP - BOTTOM).append("\" />");
@@ -136,7 +136,7 @@ final class TrendChart {
         for (int i = 0; i < n; i++) {
             TrendPoint p = points.get(i);
             double x = LEFT + step * (i + 0.5);
-            boolean current = p.wave().equals(currentWave);
+            boolean current = Objects.equals(p.wave(), currentWave);
             Double est = effect ? p.estimate() : p.level();
             Double low = effect ? p.low() : p.levelLow();
             Double high = effect ? p.high() : p.levelHigh();
@@ -173,7 +173,7 @@ final class TrendChart {
         }
         h.append("</tr></thead><tbody>");
         for (TrendPoint p : points) {
-            boolean current = p.wave().equals(currentWave);
+            boolean current = Objects.equals(p.wave(), currentWave);
             h.append("<tr").append(current ? " class=\"current\"" : "").append("><th scope=\"row\">");
             if (p.findingId() != 0) {
                 h.append("<a href=\"/console/finding?id=").append(p.findingId()).append("\">").append(esc(p.wave()))

@@ -373,4 +373,16 @@ class ConsolePagesTest {
         assertTrue(byId(none, "search-none").getTextContent().startsWith("No variable"));
         assertTrue(select(none, "//table[@id='search-results']/tbody/tr").isEmpty());
     }
+
+    @Test
+    void eachAlertOnTheWavePageSaysItsVerdictSentenceAndLastAction() {
+        Document d = parse(Pages.wave(PageFixtures.chrome(Role.VIEWER), PageFixtures.waveView(), null));
+        Element muted = select(d, "//section[@id='alerts-muted']//li").get(0);
+        assertEquals("■ DQ " + PageFixtures.VARIABLE + " distribution shift no verdict" + PageFixtures.SENTENCE
+                + "Last: muted by " + PageFixtures.ACTOR + " at 2026-03-02 09:29 UTC (fix-upstream): "
+                + PageFixtures.NOTE, muted.getTextContent());
+        Element open = select(d, "//section[@id='alerts-open']//li").get(0);
+        assertTrue(open.getTextContent().startsWith("▲ MAT " + PageFixtures.VARIABLE + " distribution shift"
+                + " MATERIAL"), open.getTextContent());
+    }
 }
