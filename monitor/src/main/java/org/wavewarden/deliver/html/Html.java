@@ -1,7 +1,7 @@
 package org.wavewarden.deliver.html;
 
 /** Escaping for text and attribute values in HTML and inline SVG. */
-final class Html {
+public final class Html {
 
     private Html() {
     }
@@ -11,7 +11,7 @@ final class Html {
      * category label, a variable name) can never become markup. Control characters other than tab and newline are
      * dropped because they are not allowed in HTML text.
      */
-    static String esc(String s) {
+    public static String esc(String s) {
         if (s == null) {
             return "";
         }

@@ -335,7 +335,7 @@ public final class HtmlDigest {
         return "<p class=\"note\">The " + what + " of this alert could not be drawn (" + esc(error) + ").</p>";
     }
 
-    static String plot(String variable, VariablePlot p, String baselineWave, String currentWave) {
+    public static String plot(String variable, VariablePlot p, String baselineWave, String currentWave) {
         if (p instanceof VariablePlot.Unavailable u) {
             return notDrawn("plot", u.error());
         }
@@ -409,7 +409,7 @@ public final class HtmlDigest {
         return sb.toString();
     }
 
-    static String pValue(double p) {
+    public static String pValue(double p) {
         if (Double.isNaN(p)) {
             return "not available";
         }
@@ -419,7 +419,7 @@ public final class HtmlDigest {
         return "= " + String.format(Locale.ROOT, "%.4f", p);
     }
 
-    private static String signed(double v) {
+    public static String signed(double v) {
         if (!Double.isFinite(v)) {
             return v > 0 ? "+\u221e" : v < 0 ? "\u2212\u221e" : "n/a";
         }
@@ -447,7 +447,7 @@ public final class HtmlDigest {
     }
 
     /** Colours: baseline slate, current orange (distinct in the common colour-vision deficiencies). */
-    private static final String CSS = """
+    public static final String CSS = """
             :root{--b:#5b7089;--bf:rgba(91,112,137,.28);--c:#d4570b;--cf:rgba(212,87,11,.18);--ink:#1d232b;\
             --muted:#5d6875;--line:#d9dee4;--bg:#f5f6f8}
             *{box-sizing:border-box}
