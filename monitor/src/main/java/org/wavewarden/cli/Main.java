@@ -17,6 +17,7 @@ import java.io.PrintWriter;
                 CheckCommand.class, ReleasesCommand.class, RunCommand.class, OutboxCommand.class, AlertsCommand.class,
                 SignOffCommand.class, BenchCommand.class,
                 SoakCommand.class, ScaffoldCommand.class, ServerCommand.class,
+                ConsoleCommand.class,
                 CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
 
