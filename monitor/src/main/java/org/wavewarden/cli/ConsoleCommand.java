@@ -77,14 +77,14 @@ final class ConsoleCommand implements Callable<Integer> {
      */
     static Running serve(Session s, String bindOption, Integer portOption) throws IOException {
         WardenConfig c = s.config();
-        if (ResultsSchema.pending(s.resultsDataSource(), c.results().schema()) > 0) {
-            return null;
-        }
         String address = bindOption == null ? c.daemon().httpBind() : bindOption;
         int p = portOption == null ? c.daemon().httpPort() : portOption;
         if (p < 0 || p > 65535) {
             throw new ConfigException(portOption == null ? "daemon.httpPort" : "--port", "the console needs a port"
                     + " from 0 (any free one) to 65535, got " + p);
+        }
+        if (ResultsSchema.pending(s.resultsDataSource(), c.results().schema()) > 0) {
+            return null;
         }
         Router router = new ConsoleApp(c, s.store().jdbi(), Clock.systemUTC(), null).install(new Router());
         StatusServer server = StatusServer.start(address, p, router);
