@@ -206,7 +206,8 @@ public final class ConsoleApp {
             return redirect("/console/login?next=" + encode(safeNext(here)));
         }
         Fields query = Request.extractQueryParameters(request, StandardCharsets.UTF_8);
-        String notice = NOTICES.get(query.getValue("done"));
+        String done = query.getValue("done");
+        String notice = done == null ? null : NOTICES.get(done);
         Session s = session.get();
         return body.answer(request, query, s, new Chrome(s.principal().name(), s.principal().role(), s.csrfToken(),
                 notice));
