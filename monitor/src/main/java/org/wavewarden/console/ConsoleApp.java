@@ -368,16 +368,13 @@ public final class ConsoleApp {
             Arrays.fill(password, '\0');
         }
         if (result instanceof ConsoleAuth.LoginResult.LoggedIn in) {
-            LOG.info("console: {} logged in from {}", DataText.visible(name), from);
             return redirect(next).with("Set-Cookie", auth.setCookie(in.session()));
         }
         if (result instanceof ConsoleAuth.LoginResult.Throttled t) {
             long seconds = Math.max(1, (t.retryAfter().toMillis() + 999) / 1000);
-            LOG.info("console: logins as {} or from {} are paused for {} s", DataText.visible(name), from, seconds);
             return loginPage(429, "Too many failed logins: try again in " + minutes(seconds) + ".", next)
                     .with("Retry-After", String.valueOf(seconds));
         }
-        LOG.info("console: a login as {} from {} was refused", DataText.visible(name), from);
         return loginPage(401, LOGIN_REFUSAL, next);
     }
 
@@ -387,8 +384,7 @@ public final class ConsoleApp {
     }
 
     private Reply logout(Request request, Fields form, Session session) {
-        auth.logout(session);
-        LOG.info("console: {} logged out", DataText.visible(session.principal().name()));
+        auth.logout(session); // which logs it, as it logs logins
         return redirect("/console/login").with("Set-Cookie", auth.clearCookie());
     }
 

@@ -74,9 +74,12 @@ class ConsoleHttpIntegrationTest {
     StatusServer server;
     String base;
     long scoreAlert;
+    long spreadAlert;
     long scoreFinding;
     final ListAppender<ILoggingEvent> log = new ListAppender<>();
     final Logger root = (Logger) LoggerFactory.getLogger(org.slf4j.Logger.ROOT_LOGGER_NAME);
+    final Logger ours = (Logger) LoggerFactory.getLogger("org.wavewarden");
+    ch.qos.logback.classic.Level oursBefore;
     /** Every page body and every session cookie seen, for the last check: no secret in a page or a log line. */
     final List<String> bodies = new ArrayList<>();
     final List<String> sessionIds = new ArrayList<>();
@@ -85,6 +88,9 @@ class ConsoleHttpIntegrationTest {
     void judgeThreeWavesAndServeTheConsole() throws Exception {
         log.start();
         root.addAppender(log);
+        // Every line the console and its sign-in write, whatever the default level hides.
+        oursBefore = ours.getLevel();
+        ours.setLevel(ch.qos.logback.classic.Level.DEBUG);
         String url = TestDatabase.freshDatabase("console_http");
         SmallSurvey.createTable(url);
         Path[] csv = SmallSurvey.writeWaves(dir);
@@ -110,9 +116,8 @@ class ConsoleHttpIntegrationTest {
         WardenConfig config = new WardenConfig(loaded.source(), loaded.results(), loaded.alpha(), loaded.fdr(),
                 loaded.datasets(), loaded.daemon(), console);
         jdbi = Jdbi.create(url, "postgres", "");
-        scoreAlert = jdbi.withHandle(h -> h.createQuery("SELECT alert_id FROM " + S + ".alert WHERE dataset ="
-                + " 'small-survey' AND wave = 'w3' AND variable = 'score' AND superseded_at IS NULL")
-                .mapTo(Long.class).one());
+        scoreAlert = alertOf("score");
+        spreadAlert = alertOf("spread");
         scoreFinding = jdbi.withHandle(h -> h.createQuery("SELECT f.finding_id FROM " + S + ".finding f JOIN " + S
                         + ".alert a ON a.run_id = f.run_id AND a.variable = f.variable AND a.kind = f.kind"
                         + " WHERE a.alert_id = :a")
@@ -128,6 +133,13 @@ class ConsoleHttpIntegrationTest {
             server.stop();
         }
         root.detachAppender(log);
+        ours.setLevel(oursBefore);
+    }
+
+    long alertOf(String variable) {
+        return jdbi.withHandle(h -> h.createQuery("SELECT alert_id FROM " + S + ".alert WHERE dataset ="
+                        + " 'small-survey' AND wave = 'w3' AND variable = :v AND superseded_at IS NULL")
+                .bind("v", variable).mapTo(Long.class).one());
     }
 
     /**
@@ -399,7 +411,10 @@ class ConsoleHttpIntegrationTest {
                 "csrf", releaser.token()));
         assertEquals(409, r.statusCode(), r.body());
         assertTrue(r.body().contains("id=\"refusal\""), r.body());
-        assertTrue(r.body().contains("score"), r.body());
+        String refusal = r.body().substring(r.body().indexOf("id=\"refusal\""));
+        refusal = refusal.substring(0, refusal.indexOf("</p>"));
+        assertTrue(refusal.contains("2 MATERIAL alerts are open") && refusal.contains("score")
+                && refusal.contains("spread"), refusal);
         assertEquals(0, signOffs());
     }
 
@@ -449,6 +464,13 @@ class ConsoleHttpIntegrationTest {
                 .bind("a", scoreAlert).mapToMap().one());
         assertEquals(List.of("EXPLAINED", STEWARD, "console", "real-change",
                 "fewer hours in the harvest month, confirmed with the field team"), List.copyOf(row.values()));
+        // Without a page to return to (no Referer), the action returns to the alert's wave.
+        HttpResponse<String> spread = steward.post("/console/alert/explain", Map.of("alert",
+                String.valueOf(spreadAlert), "reason", "planned-change", "note", "the item moved to a slider",
+                "csrf", steward.token()));
+        assertEquals(303, spread.statusCode(), spread.body());
+        assertEquals("/console/wave?dataset=small-survey&wave=w3&done=explained",
+                spread.headers().firstValue("Location").orElse(null));
     }
 
     @Test
