@@ -24,6 +24,7 @@ import org.wavewarden.daemon.Router;
 import org.wavewarden.daemon.StatusServer;
 import org.wavewarden.review.Role;
 import org.wavewarden.testing.CliRun;
+import org.wavewarden.testing.ConsolePeople;
 import org.wavewarden.testing.SmallSurvey;
 import org.wavewarden.testing.TestDatabase;
 
@@ -108,9 +109,9 @@ class ConsoleHttpIntegrationTest {
         }
         WardenConfig loaded = ConfigLoader.load(file);
         ConsoleConfig console = new ConsoleConfig(true, List.of(
-                new ConsoleConfig.User(VIEWER, Role.VIEWER, argon2(PASSWORDS.get(VIEWER))),
-                new ConsoleConfig.User(STEWARD, Role.STEWARD, argon2(PASSWORDS.get(STEWARD))),
-                new ConsoleConfig.User(RELEASER, Role.RELEASER, argon2(PASSWORDS.get(RELEASER)))),
+                new ConsoleConfig.User(VIEWER, Role.VIEWER, ConsolePeople.hash(PASSWORDS.get(VIEWER))),
+                new ConsoleConfig.User(STEWARD, Role.STEWARD, ConsolePeople.hash(PASSWORDS.get(STEWARD))),
+                new ConsoleConfig.User(RELEASER, Role.RELEASER, ConsolePeople.hash(PASSWORDS.get(RELEASER)))),
                 null, ConsoleConfig.DISABLED.sessionLength(), ConsoleConfig.DISABLED.idleTimeout(), true,
                 ConsoleConfig.DISABLED.loginFailures(), ConsoleConfig.DISABLED.lockout());
         WardenConfig config = new WardenConfig(loaded.source(), loaded.results(), loaded.alpha(), loaded.fdr(),
@@ -140,16 +141,6 @@ class ConsoleHttpIntegrationTest {
         return jdbi.withHandle(h -> h.createQuery("SELECT alert_id FROM " + S + ".alert WHERE dataset ="
                         + " 'small-survey' AND wave = 'w3' AND variable = :v AND superseded_at IS NULL")
                 .bind("v", variable).mapTo(Long.class).one());
-    }
-
-    /**
-     * The hash the {@code console-password} command prints: Argon2id by Spring Security Crypto's encoder (looked up
-     * by name, so this class compiles before the dependency is on the classpath).
-     */
-    static String argon2(String password) throws Exception {
-        Class<?> encoder = Class.forName("org.springframework.security.crypto.argon2.Argon2PasswordEncoder");
-        Object e = encoder.getMethod("defaultsForSpringSecurity_v5_8").invoke(null);
-        return (String) encoder.getMethod("encode", CharSequence.class).invoke(e, password);
     }
 
     // ---- a browser of our own: a cookie jar that, like a browser on loopback, sends Secure cookies over http ----
@@ -513,6 +504,27 @@ class ConsoleHttpIntegrationTest {
 
     @Test
     @Order(17)
+    void repeatedFailedLoginsArePausedWithRetryAfter() throws Exception {
+        Browser b = new Browser();
+        int limit = ConsoleConfig.DISABLED.loginFailures();
+        // Failures from this address earlier in the class count too: at most the limit more are answered 401.
+        int tries = 0;
+        HttpResponse<String> r;
+        do {
+            r = b.login(VIEWER, "wrong-" + tries, null);
+            tries++;
+        } while (r.statusCode() == 401 && tries <= limit);
+        assertEquals(429, r.statusCode(), "paused after at most " + limit + " failures");
+        // Even the right password is not checked while the pause lasts.
+        HttpResponse<String> paused = b.login(VIEWER, PASSWORDS.get(VIEWER), null);
+        assertEquals(429, paused.statusCode(), paused.body());
+        long retryAfter = Long.parseLong(paused.headers().firstValue("Retry-After").orElse("0"));
+        assertTrue(retryAfter > 0 && retryAfter <= ConsoleConfig.DISABLED.lockout().toSeconds(), "" + retryAfter);
+        assertFalse(b.jar.containsKey(ConsoleAuth.COOKIE));
+    }
+
+    @Test
+    @Order(18)
     void noPasswordOrSessionIdIsInAnyPageOrLogLine() {
         assertFalse(sessionIds.isEmpty());
         List<String> lines = log.list.stream().map(e -> e.getFormattedMessage()
