@@ -608,12 +608,4 @@ public final class ConsoleApp {
             return i < 0 ? Integer.MAX_VALUE : i;
         }).thenComparing(NATURAL_WAVES);
     }
-
-    Clock clock() {
-        return clock;
-    }
-
-    Jdbi jdbi() {
-        return jdbi;
-    }
 }

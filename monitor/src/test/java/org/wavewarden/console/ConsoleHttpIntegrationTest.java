@@ -319,6 +319,33 @@ class ConsoleHttpIntegrationTest {
         assertTrue(css.headers().firstValue("Content-Type").orElse("").startsWith("text/css"));
     }
 
+    @Test
+    @Order(5)
+    void whatARequestCarriesIsShownAsTextOrNotAtAll() throws Exception {
+        Browser viewer = new Browser().as(VIEWER);
+        HttpResponse<String> search = viewer.get("/console/search?q=" + enc("<script>alert(1)</script>"));
+        assertEquals(200, search.statusCode());
+        assertFalse(search.body().contains("<script>alert(1)"), search.body());
+        // A notice is a code mapped to fixed text: an unknown code shows nothing of itself.
+        HttpResponse<String> notice = viewer.get("/console?done=" + enc("<b>signed off by the director</b>"));
+        assertEquals(200, notice.statusCode());
+        assertFalse(notice.body().contains("signed off by the director"), notice.body());
+    }
+
+    @Test
+    @Order(5)
+    void aPostWithoutASessionGoesToTheLoginAndAnOversizedFormIsRefused() throws Exception {
+        HttpResponse<String> away = new Browser().post("/console/alert/explain", Map.of("alert",
+                String.valueOf(scoreAlert), "reason", "no-problem", "csrf", "x"));
+        assertEquals(303, away.statusCode());
+        assertEquals("/console/login", away.headers().firstValue("Location").orElse(null));
+        Browser steward = new Browser().as(STEWARD);
+        HttpResponse<String> huge = steward.post("/console/alert/explain", Map.of("alert", String.valueOf(scoreAlert),
+                "reason", "no-problem", "note", "x".repeat(70 * 1024), "csrf", steward.token()));
+        assertEquals(400, huge.statusCode(), huge.body());
+        assertEquals(0, actions("console"));
+    }
+
     @ParameterizedTest(name = "{0} downloads as an attachment")
     @Order(6)
     @CsvSource({"findings.json, application/json, \"wave\" : \"w3\"",
