@@ -18,6 +18,7 @@ import java.io.PrintWriter;
                 SignOffCommand.class, BenchCommand.class,
                 SoakCommand.class, ScaffoldCommand.class, ServerCommand.class,
                 ConsolePasswordCommand.class,
+                ConsoleCommand.class,
                 CommandLine.HelpCommand.class})
 public final class Main implements Runnable {
 

@@ -84,6 +84,19 @@ public final class Daemon implements AutoCloseable {
         return metrics;
     }
 
+    /** What the web console, served on the status endpoint, reads and acts on. */
+    WardenConfig config() {
+        return config;
+    }
+
+    Clock clock() {
+        return clock;
+    }
+
+    org.jdbi.v3.core.Jdbi resultsJdbi() {
+        return session.store().jdbi();
+    }
+
     /** Starts the scheduler (and the status endpoint unless its port is -1). */
     public void start(String instanceId, int clusterCheckinMillis) throws SchedulerException, IOException {
         // First, so that a port in use is refused before the schema is migrated or a job is stored.
@@ -235,7 +248,7 @@ public final class Daemon implements AutoCloseable {
                 metrics.firingDuration(dataset, (System.nanoTime() - started) / 1e9);
                 return true;
             } catch (RuntimeException e) {
-                metrics.firingFailed(dataset);
+                metrics.firingFailed(dataset, clock.instant());
                 if (attempt >= retry.attempts()) {
                     LOG.error("firing of {} failed {} times; giving up until the next firing: {}", dataset, attempt,
                             e.toString());

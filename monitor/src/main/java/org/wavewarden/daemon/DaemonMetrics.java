@@ -75,6 +75,9 @@ public final class DaemonMetrics {
     private final Counter alerts;
     private final Histogram firingDuration;
     private final Map<String, Boolean> failing = new ConcurrentHashMap<>();
+    /** When each dataset's firing last succeeded and last failed, for the console's health line. */
+    private final Map<String, Instant> lastSucceededAt = new ConcurrentHashMap<>();
+    private final Map<String, Instant> lastFailedAt = new ConcurrentHashMap<>();
     private volatile String unreachableDatabase;
     private volatile Supplier<List<DeliveryBacklog>> backlogSource = List::of;
     private Future<List<DeliveryBacklog>> backlogRead;
@@ -123,11 +126,37 @@ public final class DaemonMetrics {
         firings.labelValues(dataset).inc();
         lastSuccess.labelValues(dataset).set(at.toEpochMilli() / 1000.0);
         failing.put(dataset, false);
+        lastSucceededAt.put(dataset, at);
     }
 
     void firingFailed(String dataset) {
         failures.labelValues(dataset).inc();
         failing.put(dataset, true);
+    }
+
+    void firingFailed(String dataset, Instant at) {
+        firingFailed(dataset);
+        lastFailedAt.put(dataset, at);
+    }
+
+    private static final java.time.format.DateTimeFormatter MINUTE = java.time.format.DateTimeFormatter
+            .ofPattern("yyyy-MM-dd HH:mm 'UTC'").withZone(java.time.ZoneOffset.UTC);
+
+    /**
+     * A dataset's last firing in this daemon as one line for the web console: whether it succeeded and when, and
+     * when it last succeeded after a failure. Only what this process saw: a restart starts with no firing.
+     */
+    public String firingLine(String dataset) {
+        Instant ok = lastSucceededAt.get(dataset);
+        Instant failed = lastFailedAt.get(dataset);
+        if (Boolean.TRUE.equals(failing.get(dataset))) {
+            return "last firing failed" + (failed == null ? "" : " " + MINUTE.format(failed))
+                    + (ok == null ? "" : "; last success " + MINUTE.format(ok));
+        }
+        if (ok != null) {
+            return "last firing succeeded " + MINUTE.format(ok);
+        }
+        return "no firing since the daemon started";
     }
 
     /** How long a firing of the dataset took, from the start of its work to its end. */

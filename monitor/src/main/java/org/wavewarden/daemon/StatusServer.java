@@ -9,6 +9,7 @@ import org.eclipse.jetty.util.thread.QueuedThreadPool;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
 import org.wavewarden.config.ConfigException;
+import org.wavewarden.console.ConsoleApp;
 import org.wavewarden.deliver.Json;
 
 import java.io.IOException;
@@ -26,7 +27,7 @@ import java.time.Duration;
  * connection, never a worker thread, and loses it after {@link #IDLE_TIMEOUT}. Workers come from a bounded pool,
  * connections are capped, and request headers are limited in size.
  */
-final class StatusServer {
+public final class StatusServer {
 
     private static final Logger LOG = LoggerFactory.getLogger(StatusServer.class);
 
@@ -51,9 +52,9 @@ final class StatusServer {
         return start(bind, port, routes(daemon));
     }
 
-    /** The daemon's endpoints; the web console adds its own routes to the same router. */
+    /** The daemon's endpoints, and the web console's when the configuration enables it. */
     static Router routes(Daemon daemon) {
-        return new Router()
+        Router router = new Router()
                 .get("/health", request -> {
                     DaemonMetrics.Health health = daemon.metrics().health();
                     return Router.Reply.of(health.degraded() ? 503 : 200, "application/json",
@@ -62,6 +63,11 @@ final class StatusServer {
                 .get("/metrics", request -> Router.Reply.of(200, DaemonMetrics.CONTENT_TYPE,
                         daemon.metrics().prometheus()))
                 .get("/digest", request -> digest(daemon.latestDigest()));
+        if (daemon.config().console().enabled()) {
+            new ConsoleApp(daemon.config(), daemon.resultsJdbi(), daemon.clock(), daemon.metrics()::firingLine)
+                    .install(router);
+        }
+        return router;
     }
 
     private static Router.Reply digest(Path latest) throws IOException {
@@ -78,7 +84,7 @@ final class StatusServer {
      * @throws ConfigException naming {@code daemon.httpPort} when the port is taken, {@code daemon.httpBind} when
      *                         the address is not one of this machine's
      */
-    static StatusServer start(String bind, int port, Router router) throws IOException {
+    public static StatusServer start(String bind, int port, Router router) throws IOException {
         QueuedThreadPool pool = new QueuedThreadPool(MAX_THREADS, 2, (int) Duration.ofMinutes(1).toMillis());
         pool.setName("wavewarden-http");
         pool.setDaemon(true);
@@ -128,11 +134,11 @@ final class StatusServer {
                 + "); use an address of this machine such as 127.0.0.1");
     }
 
-    int port() {
+    public int port() {
         return connector.getLocalPort();
     }
 
-    void stop() {
+    public void stop() {
         stopQuietly(server);
     }
 

@@ -12,6 +12,18 @@ public final class ResultsSchema {
     }
 
     public static MigrateResult migrate(DataSource ds, String schema) {
+        return flyway(ds, schema).migrate();
+    }
+
+    /**
+     * How many versions of the results schema this build has that the database lacks; all of them when the schema
+     * was never made. Zero for a schema a reader of it (the console) can use as it is; nothing is changed.
+     */
+    public static int pending(DataSource ds, String schema) {
+        return flyway(ds, schema).info().pending().length;
+    }
+
+    private static Flyway flyway(DataSource ds, String schema) {
         return Flyway.configure()
                 .dataSource(ds)
                 .schemas(schema)
@@ -19,7 +31,6 @@ public final class ResultsSchema {
                 .createSchemas(true)
                 .locations("classpath:db/results")
                 .table("schema_history")
-                .load()
-                .migrate();
+                .load();
     }
 }
