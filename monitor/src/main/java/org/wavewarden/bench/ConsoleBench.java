@@ -95,7 +95,22 @@ public final class ConsoleBench {
             org.postgresql.ds.PGSimpleDataSource ds = new org.postgresql.ds.PGSimpleDataSource();
             ds.setURL(url);
             ResultsSchema.migrate(ds, schema);
-            Jdbi jdbi = Jdbi.create(ds);
+            // Pooled as the daemon's connections are: a page pays for its statements, not for a new connection.
+            com.zaxxer.hikari.HikariConfig pool = new com.zaxxer.hikari.HikariConfig();
+            pool.setDataSource(ds);
+            pool.setMaximumPoolSize(4);
+            pool.setPoolName("console-bench");
+            try (com.zaxxer.hikari.HikariDataSource pooled = new com.zaxxer.hikari.HikariDataSource(pool)) {
+                return measureAll(o, log, schema, ds, Jdbi.create(pooled));
+            }
+        } catch (SQLException e) {
+            throw new IllegalStateException("console bench database step failed: " + e.getMessage(), e);
+        }
+    }
+
+    private static List<Report> measureAll(Options o, PrintWriter log, String schema,
+                                           org.postgresql.ds.PGSimpleDataSource ds, Jdbi jdbi) {
+        {
             log.printf(Locale.ROOT, "writing %d datasets x %d waves x %d variables of findings%n",
                     o.size().datasets(), o.size().waves(), o.size().variables());
             log.flush();
@@ -118,8 +133,6 @@ public final class ConsoleBench {
                 }
             }
             return reports;
-        } catch (SQLException e) {
-            throw new IllegalStateException("console bench database step failed: " + e.getMessage(), e);
         }
     }
 

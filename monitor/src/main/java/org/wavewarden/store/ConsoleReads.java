@@ -163,9 +163,13 @@ public final class ConsoleReads {
         return jdbi.withHandle(h -> {
             Map<String, Map<String, Integer>> open = new HashMap<>();
             Map<String, Map<AlertState, Integer>> states = new HashMap<>();
-            h.createQuery("WITH " + currentRuns(null) + " SELECT v.dataset, v.verdict, v.state, count(*) AS n FROM ("
-                            + reviews.alertSelect() + " JOIN cur c ON c.run_id = a.run_id) v"
-                            + " GROUP BY v.dataset, v.verdict, v.state")
+            // Every current alert's latest entry in one ordered pass over the actions' index, rather than one probe
+            // per alert: the overview counts tens of thousands of alerts on a long history.
+            h.createQuery("WITH " + currentRuns(null) + ", latest AS (SELECT DISTINCT ON (alert_id) * FROM " + s
+                            + ".alert_action ORDER BY alert_id, entry_id DESC) SELECT a.dataset, a.verdict, "
+                            + reviews.stateSql() + " AS state, count(*) AS n FROM cur c JOIN " + s + ".alert a ON"
+                            + " a.run_id = c.run_id LEFT JOIN latest e ON e.alert_id = a.alert_id"
+                            + " GROUP BY 1, 2, 3")
                     .bind("today", reviews.today())
                     .map((rs, ctx) -> {
                         String dataset = rs.getString("dataset");
@@ -221,13 +225,14 @@ public final class ConsoleReads {
             Map<String, Integer> labelColumn = new HashMap<>();
             h.createQuery("WITH " + currentRuns(":d") + ", ranked AS (SELECT f.finding_id, f.run_id, c.wave,"
                             + " f.variable, f.label, f.kind, f.verdict, count(*) OVER w AS n, row_number() OVER (w ORDER BY "
-                            + URGENCY + ", f.finding_id) AS rank FROM " + s + ".finding f JOIN cur c ON c.run_id ="
-                            + " f.run_id WHERE (CAST(:k AS text) IS NULL OR f.kind = :k) AND (CAST(:v AS text) IS NULL"
+                            + URGENCY + ", f.finding_id) AS rank FROM cur c CROSS JOIN LATERAL (SELECT * FROM " + s
+                            + ".finding x WHERE x.run_id = c.run_id) f"
+                            + " WHERE (CAST(:k AS text) IS NULL OR f.kind = :k) AND (CAST(:v AS text) IS NULL"
                             + " OR f.verdict = :v OR (:v = '" + NO_VERDICT + "' AND f.verdict IS NULL))"
                             + " WINDOW w AS (PARTITION BY f.run_id, f.variable)),"
                             // The alert on a variable in a wave: the current run's, preferring one still in force.
                             + " alerts AS (SELECT DISTINCT ON (v.run_id, v.variable) v.run_id, v.variable, v.state FROM ("
-                            + reviews.alertSelect() + " JOIN cur c ON c.run_id = a.run_id) v"
+                            + reviews.alertSelect() + " WHERE a.run_id IN (SELECT run_id FROM cur)) v"
                             + " ORDER BY v.run_id, v.variable, (v.state = 'SUPERSEDED'), v.alert_id DESC)"
                             + " SELECT r.*, al.state FROM ranked r LEFT JOIN alerts al ON al.run_id = r.run_id AND"
                             + " al.variable = r.variable WHERE r.rank = 1")
@@ -251,8 +256,9 @@ public final class ConsoleReads {
                         return variable;
                     })
                     .list();
-            List<String> kinds = h.createQuery("WITH " + currentRuns(":d") + " SELECT DISTINCT f.kind FROM " + s
-                            + ".finding f JOIN cur c ON c.run_id = f.run_id ORDER BY f.kind")
+            List<String> kinds = h.createQuery("WITH " + currentRuns(":d") + " SELECT DISTINCT f.kind FROM cur c"
+                            + " CROSS JOIN LATERAL (SELECT kind FROM " + s + ".finding x WHERE x.run_id = c.run_id) f"
+                            + " ORDER BY f.kind")
                     .bind("d", dataset).mapTo(String.class).list();
             List<GridRow> rows = new ArrayList<>();
             cells.forEach((variable, row) -> rows.add(new GridRow(variable, labels.get(variable),
@@ -300,8 +306,8 @@ public final class ConsoleReads {
             List<TrendPoint> trend = new ArrayList<>(h.createQuery("WITH " + currentRuns(":d") + ", p AS (SELECT"
                             + " c.wave, f.finding_id, f.verdict, f.effect_name, f.effect_estimate, f.effect_ci_low,"
                             + " f.effect_ci_high, f.effect_threshold, f.detail -> 'plot' AS plot,"
-                            + " f.detail -> 'plot' -> 'current' -> 0 AS level FROM " + s + ".finding f JOIN cur c"
-                            + " ON c.run_id = f.run_id WHERE f.variable = :v AND f.kind = :k)"
+                            + " f.detail -> 'plot' -> 'current' -> 0 AS level FROM cur c CROSS JOIN LATERAL (SELECT *"
+                            + " FROM " + s + ".finding x WHERE x.run_id = c.run_id AND x.variable = :v AND x.kind = :k) f)"
                             + " SELECT p.*, CASE WHEN jsonb_typeof(p.plot -> 'statistic') = 'string' THEN"
                             + " p.plot ->> 'statistic' END AS level_name,"
                             + " CASE WHEN jsonb_typeof(p.level -> 'category') = 'string' THEN p.level ->> 'category' END"
@@ -377,8 +383,8 @@ public final class ConsoleReads {
                         + " FROM " + s + ".run WHERE superseded_at IS NULL ORDER BY dataset, finished_at DESC, run_id DESC)"
                         // strpos compares text with text: % _ \ and quotes in what was typed match themselves.
                         + " SELECT DISTINCT ON (l.dataset, f.variable) l.dataset, f.variable, f.label, l.wave,"
-                        + " f.finding_id, f.verdict FROM " + s + ".finding f JOIN latest l ON l.run_id = f.run_id"
-                        + " WHERE strpos(lower(f.variable), lower(:t)) > 0 OR strpos(lower(coalesce(f.label, '')),"
+                        + " f.finding_id, f.verdict FROM latest l CROSS JOIN LATERAL (SELECT * FROM " + s
+                        + ".finding x WHERE x.run_id = l.run_id) f WHERE strpos(lower(f.variable), lower(:t)) > 0 OR strpos(lower(coalesce(f.label, '')),"
                         + " lower(:t)) > 0 ORDER BY l.dataset, f.variable, " + URGENCY + ", f.finding_id LIMIT :n")
                 .bind("t", text.trim()).bind("n", limit)
                 .map((rs, ctx) -> new SearchHit(rs.getString("dataset"), rs.getString("variable"), rs.getString("label"),
