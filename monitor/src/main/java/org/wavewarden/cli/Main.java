@@ -15,7 +15,7 @@ import java.io.PrintWriter;
         description = "Judges each new survey wave against earlier waves and flags disguised missing values.",
         subcommands = {DemoCommand.class, InitDbCommand.class, ImportCommand.class, WavesCommand.class,
                 CheckCommand.class, ReleasesCommand.class, RunCommand.class, OutboxCommand.class, AlertsCommand.class,
-                SignOffCommand.class, BenchCommand.class,
+                SignOffCommand.class, BenchCommand.class, ConsoleBenchCommand.class,
                 SoakCommand.class, ScaffoldCommand.class, ServerCommand.class,
                 ConsolePasswordCommand.class,
                 ConsoleCommand.class,

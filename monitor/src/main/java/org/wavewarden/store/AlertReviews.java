@@ -75,12 +75,12 @@ public final class AlertReviews {
         public static final Filter ANY = new Filter(null, null, null, null, null);
     }
 
-    private LocalDate today() {
+    LocalDate today() {
         return LocalDate.ofInstant(clock.instant(), ZoneOffset.UTC);
     }
 
     /** The state of alert {@code a} with its latest entry {@code e}, as SQL (binds :today). */
-    private String stateSql() {
+    String stateSql() {
         String byAction = Arrays.stream(ReviewAction.values())
                 .map(x -> " WHEN e.action = '" + x.name() + "' THEN '" + x.leadsTo().name() + "'")
                 .collect(Collectors.joining());
@@ -89,9 +89,20 @@ public final class AlertReviews {
                 + ".mute_rule_lift l WHERE l.rule_id = e.mute_rule_id)) THEN 'OPEN'" + byAction + " END";
     }
 
-    private String latestEntryJoin() {
+    String latestEntryJoin() {
         return " LEFT JOIN LATERAL (SELECT * FROM " + s + ".alert_action x WHERE x.alert_id = a.alert_id"
                 + " ORDER BY x.entry_id DESC LIMIT 1) e ON true";
+    }
+
+    /**
+     * Alerts with their state and latest entry, as {@link #alertView} reads them: the select and from clauses, for
+     * a caller to add its where clause over {@code a} (the alert); binds :today.
+     */
+    String alertSelect() {
+        return "SELECT a.alert_id, a.run_id, a.dataset, a.wave, a.against_wave, a.variable, a.kind, a.verdict,"
+                + " a.sentence, a.facet_kinds, a.created_at, " + stateSql() + " AS state, e.entry_id, e.acted_at,"
+                + " e.actor, e.action, e.reason, e.note, e.source, e.until_wave, e.until_date FROM " + s + ".alert a"
+                + latestEntryJoin();
     }
 
     /** The alerts the filter matches, oldest first. */
@@ -100,10 +111,7 @@ public final class AlertReviews {
     }
 
     List<AlertView> list(Handle h, Filter filter, Long alertId) {
-        return h.createQuery("SELECT * FROM (SELECT a.alert_id, a.run_id, a.dataset, a.wave, a.against_wave,"
-                        + " a.variable, a.kind, a.verdict, a.sentence, a.facet_kinds, a.created_at, " + stateSql()
-                        + " AS state, e.entry_id, e.acted_at, e.actor, e.action, e.reason, e.note, e.source,"
-                        + " e.until_wave, e.until_date FROM " + s + ".alert a" + latestEntryJoin() + " WHERE"
+        return h.createQuery("SELECT * FROM (" + alertSelect() + " WHERE"
                         + " (CAST(:id AS bigint) IS NULL OR a.alert_id = :id)"
                         + " AND (CAST(:d AS text) IS NULL OR a.dataset = :d) AND (CAST(:w AS text) IS NULL OR a.wave = :w)"
                         + " AND (CAST(:v AS text) IS NULL OR a.verdict = :v) AND (CAST(:k AS text) IS NULL OR a.kind = :k"
@@ -112,14 +120,22 @@ public final class AlertReviews {
                 .bind("id", alertId).bind("today", today())
                 .bind("d", filter.dataset()).bind("w", filter.wave()).bind("v", filter.verdict())
                 .bind("k", filter.kind()).bind("st", filter.state() == null ? null : filter.state().name())
-                .map((rs, ctx) -> new AlertView(rs.getLong("alert_id"), rs.getLong("run_id"), rs.getString("dataset"),
-                        rs.getString("wave"), rs.getString("against_wave"), rs.getString("variable"),
-                        rs.getString("kind"), rs.getString("verdict"), rs.getString("sentence"),
-                        List.of((String[]) rs.getArray("facet_kinds").getArray()),
-                        rs.getObject("created_at", OffsetDateTime.class).toInstant(),
-                        AlertState.valueOf(rs.getString("state")),
-                        rs.getObject("entry_id") == null ? null : entry(rs)))
+                .map((rs, ctx) -> alertView(rs))
                 .list();
+    }
+
+    /**
+     * An alert from a row with the alert table's columns, its state as {@code state} ({@link #stateSql()}) and its
+     * latest entry's columns ({@link #latestEntryJoin()}), null when it has none.
+     */
+    static AlertView alertView(ResultSet rs) throws SQLException {
+        return new AlertView(rs.getLong("alert_id"), rs.getLong("run_id"), rs.getString("dataset"),
+                rs.getString("wave"), rs.getString("against_wave"), rs.getString("variable"),
+                rs.getString("kind"), rs.getString("verdict"), rs.getString("sentence"),
+                List.of((String[]) rs.getArray("facet_kinds").getArray()),
+                rs.getObject("created_at", OffsetDateTime.class).toInstant(),
+                AlertState.valueOf(rs.getString("state")),
+                rs.getObject("entry_id") == null ? null : entry(rs));
     }
 
     public Optional<AlertView> get(long alertId) {
@@ -343,7 +359,7 @@ public final class AlertReviews {
                 .one();
     }
 
-    private static ReviewEntry entry(ResultSet rs) throws SQLException {
+    static ReviewEntry entry(ResultSet rs) throws SQLException {
         String reason = rs.getString("reason");
         return new ReviewEntry(rs.getLong("entry_id"), rs.getLong("alert_id"),
                 rs.getObject("acted_at", OffsetDateTime.class).toInstant(), rs.getString("actor"),

@@ -1,16 +1,25 @@
 package org.wavewarden.store;
 
 import org.jdbi.v3.core.Jdbi;
+import org.wavewarden.config.Identifiers;
 import org.wavewarden.judge.Finding;
+import org.wavewarden.judge.FindingKind;
 import org.wavewarden.review.AlertState;
 import org.wavewarden.review.AlertView;
 import org.wavewarden.review.ReviewEntry;
 import org.wavewarden.review.SignOff;
 
+import java.time.Clock;
 import java.time.Instant;
+import java.time.OffsetDateTime;
+import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.Comparator;
+import java.util.EnumMap;
+import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
+import java.util.TreeMap;
 import java.util.Objects;
 import java.util.Optional;
 
@@ -24,12 +33,26 @@ import java.util.Optional;
  */
 public final class ConsoleReads {
 
+    /** The key of a finding or alert without a verdict, in counts and in the grid's verdict filter. */
+    public static final String NO_VERDICT = "none";
+
+    /** Most urgent first, as the grid and search pick a variable's finding; SQL over the finding {@code f}. */
+    private static final String URGENCY = "CASE f.verdict WHEN 'MATERIAL' THEN 0 WHEN 'UNCERTAIN' THEN 1"
+            + " WHEN 'MINOR' THEN 2 WHEN 'STABLE' THEN 3 WHEN 'CLEARED' THEN 4 ELSE 5 END";
+
     private final Jdbi jdbi;
-    private final String schema;
+    private final String s;
+    private final AlertReviews reviews;
 
     public ConsoleReads(Jdbi jdbi, String schema) {
+        this(jdbi, schema, Clock.systemUTC());
+    }
+
+    /** With the clock whose UTC day decides whether a mute by date still holds (as {@link AlertReviews}). */
+    public ConsoleReads(Jdbi jdbi, String schema, Clock clock) {
         this.jdbi = Objects.requireNonNull(jdbi, "jdbi");
-        this.schema = Objects.requireNonNull(schema, "schema");
+        this.s = Identifiers.quote(Objects.requireNonNull(schema, "schema"));
+        this.reviews = new AlertReviews(jdbi, schema, clock);
     }
 
     /**
@@ -135,26 +158,259 @@ public final class ConsoleReads {
                             String verdict) {
     }
 
-    /** Every dataset with results, by name. */
+    /** Every dataset with results, by name: three statements whatever the number of datasets, waves or alerts. */
     public List<DatasetSummary> datasets() {
-        throw new UnsupportedOperationException("not yet");
+        return jdbi.withHandle(h -> {
+            Map<String, Map<String, Integer>> open = new HashMap<>();
+            Map<String, Map<AlertState, Integer>> states = new HashMap<>();
+            // Every current alert's latest entry in one ordered pass over the actions' index, rather than one probe
+            // per alert: the overview counts tens of thousands of alerts on a long history.
+            h.createQuery("WITH " + currentRuns(null) + ", latest AS (SELECT DISTINCT ON (alert_id) * FROM " + s
+                            + ".alert_action ORDER BY alert_id, entry_id DESC) SELECT a.dataset, a.verdict, "
+                            + reviews.stateSql() + " AS state, count(*) AS n FROM cur c JOIN " + s + ".alert a ON"
+                            + " a.run_id = c.run_id LEFT JOIN latest e ON e.alert_id = a.alert_id"
+                            + " GROUP BY 1, 2, 3")
+                    .bind("today", reviews.today())
+                    .map((rs, ctx) -> {
+                        String dataset = rs.getString("dataset");
+                        AlertState state = AlertState.valueOf(rs.getString("state"));
+                        int n = rs.getInt("n");
+                        states.computeIfAbsent(dataset, k -> new EnumMap<>(AlertState.class)).merge(state, n, Integer::sum);
+                        if (state == AlertState.OPEN) {
+                            String verdict = rs.getString("verdict");
+                            open.computeIfAbsent(dataset, k -> new TreeMap<>())
+                                    .merge(verdict == null ? NO_VERDICT : verdict, n, Integer::sum);
+                        }
+                        return dataset;
+                    })
+                    .list();
+            Map<String, SignOff> lastSignOff = new HashMap<>();
+            h.createQuery("SELECT DISTINCT ON (dataset) *, alerts::text AS alerts_text FROM " + s + ".sign_off"
+                            + " ORDER BY dataset, sign_off_id DESC")
+                    .map((rs, ctx) -> SignOffs.signOff(rs))
+                    .forEach(so -> lastSignOff.put(so.dataset(), so));
+            return h.createQuery("WITH " + currentRuns(null) + ", last AS (SELECT DISTINCT ON (dataset) dataset, wave,"
+                            + " finished_at FROM cur ORDER BY dataset, finished_at DESC, run_id DESC)"
+                            + " SELECT l.dataset, l.wave, l.finished_at, (SELECT count(*) FROM cur c WHERE c.dataset ="
+                            + " l.dataset) AS waves, EXISTS (SELECT 1 FROM " + s + ".sign_off so WHERE so.dataset ="
+                            + " l.dataset AND so.wave = l.wave) AS signed FROM last l ORDER BY l.dataset")
+                    .map((rs, ctx) -> {
+                        String dataset = rs.getString("dataset");
+                        return new DatasetSummary(dataset, rs.getString("wave"),
+                                rs.getObject("finished_at", OffsetDateTime.class).toInstant(), rs.getInt("waves"),
+                                open.getOrDefault(dataset, Map.of()), states.getOrDefault(dataset, Map.of()),
+                                lastSignOff.get(dataset), rs.getBoolean("signed"));
+                    })
+                    .list();
+        });
     }
 
-    /** The grid of {@code dataset}, waves ordered by {@code waveOrder}. */
+    /**
+     * The grid of {@code dataset}, waves ordered by {@code waveOrder}: a row for each variable with at least one
+     * finding that passes the filter, by name. Three statements.
+     */
     public Grid grid(String dataset, GridFilter filter, Comparator<String> waveOrder) {
-        throw new UnsupportedOperationException("not yet");
+        GridFilter f = filter == null ? GridFilter.ANY : filter;
+        return jdbi.withHandle(h -> {
+            List<String> waves = new ArrayList<>(h.createQuery("WITH " + currentRuns(":d") + " SELECT wave FROM cur")
+                    .bind("d", dataset).mapTo(String.class).list());
+            waves.sort(waveOrder);
+            Map<String, Integer> column = new HashMap<>();
+            for (int i = 0; i < waves.size(); i++) {
+                column.put(waves.get(i), i);
+            }
+            // Per variable: its cells by column, and its label as the latest wave (in wave order) that had one.
+            Map<String, GridCell[]> cells = new TreeMap<>();
+            Map<String, String> labels = new HashMap<>();
+            Map<String, Integer> labelColumn = new HashMap<>();
+            h.createQuery("WITH " + currentRuns(":d") + ", ranked AS (SELECT f.finding_id, f.run_id, c.wave,"
+                            + " f.variable, f.label, f.kind, f.verdict, count(*) OVER w AS n, row_number() OVER (w ORDER BY "
+                            + URGENCY + ", f.finding_id) AS rank FROM cur c CROSS JOIN LATERAL (SELECT * FROM " + s
+                            + ".finding x WHERE x.run_id = c.run_id) f"
+                            + " WHERE (CAST(:k AS text) IS NULL OR f.kind = :k) AND (CAST(:v AS text) IS NULL"
+                            + " OR f.verdict = :v OR (:v = '" + NO_VERDICT + "' AND f.verdict IS NULL))"
+                            + " WINDOW w AS (PARTITION BY f.run_id, f.variable)),"
+                            // The alert on a variable in a wave: the current run's, preferring one still in force.
+                            + " alerts AS (SELECT DISTINCT ON (v.run_id, v.variable) v.run_id, v.variable, v.state"
+                            + " FROM cur c CROSS JOIN LATERAL (" + reviews.alertSelect() + " WHERE a.run_id = c.run_id) v"
+                            + " ORDER BY v.run_id, v.variable, (v.state = 'SUPERSEDED'), v.alert_id DESC)"
+                            + " SELECT r.*, al.state FROM ranked r LEFT JOIN alerts al ON al.run_id = r.run_id AND"
+                            + " al.variable = r.variable WHERE r.rank = 1")
+                    .bind("d", dataset).bind("k", f.kind()).bind("v", f.verdict()).bind("today", reviews.today())
+                    .map((rs, ctx) -> {
+                        String variable = rs.getString("variable");
+                        Integer col = column.get(rs.getString("wave"));
+                        if (col == null) {
+                            // A wave whose first run was committed between this page's two statements: next time.
+                            return variable;
+                        }
+                        String state = rs.getString("state");
+                        cells.computeIfAbsent(variable, k -> new GridCell[waves.size()])[col] = new GridCell(
+                                rs.getLong("finding_id"), rs.getString("kind"), rs.getString("verdict"), rs.getInt("n"),
+                                state == null ? null : AlertState.valueOf(state));
+                        String label = rs.getString("label");
+                        if (label != null && !label.isBlank() && labelColumn.getOrDefault(variable, -1) < col) {
+                            labels.put(variable, label);
+                            labelColumn.put(variable, col);
+                        }
+                        return variable;
+                    })
+                    .list();
+            List<String> kinds = h.createQuery("WITH " + currentRuns(":d") + " SELECT DISTINCT f.kind FROM cur c"
+                            + " CROSS JOIN LATERAL (SELECT kind FROM " + s + ".finding x WHERE x.run_id = c.run_id) f"
+                            + " ORDER BY f.kind")
+                    .bind("d", dataset).mapTo(String.class).list();
+            List<GridRow> rows = new ArrayList<>();
+            cells.forEach((variable, row) -> rows.add(new GridRow(variable, labels.get(variable),
+                    Arrays.stream(row).map(c -> c == null ? GridCell.EMPTY : c).toList())));
+            return new Grid(dataset, waves, rows, kinds);
+        });
     }
 
+    /** A finding with its alert, the alert's history and the trend: four statements. */
     public Optional<FindingView> finding(long findingId, Comparator<String> waveOrder) {
-        throw new UnsupportedOperationException("not yet");
+        return jdbi.withHandle(h -> {
+            Optional<FindingView> head = h.createQuery("SELECT f.finding_id, f.run_id, r.dataset, r.wave,"
+                            + " r.against_wave, f.variable, f.label, f.kind, f.test, f.statistic, f.p_value, f.q_value,"
+                            + " f.effect_name, f.effect_estimate, f.effect_ci_low, f.effect_ci_high, f.effect_threshold,"
+                            + " f.verdict, f.n_baseline, f.n_current, f.sentence, f.df, f.df_convention,"
+                            + " f.fdr_family_size, f.fdr_method, f.repeat::text AS repeat, f.detail::text AS detail"
+                            + " FROM " + s + ".finding f JOIN " + s + ".run r ON r.run_id = f.run_id"
+                            + " WHERE f.finding_id = :id")
+                    .bind("id", findingId)
+                    .map((rs, ctx) -> {
+                        Finding finding = ResultsStore.finding(rs, ResultsStore.detail(
+                                FindingKind.valueOf(rs.getString("kind")), rs.getString("detail")));
+                        return new FindingView(rs.getLong("finding_id"), rs.getLong("run_id"), rs.getString("dataset"),
+                                rs.getString("wave"), emptyIsNone(rs.getString("against_wave")), finding, null,
+                                List.of(), List.of());
+                    })
+                    .findOne();
+            if (head.isEmpty()) {
+                return head;
+            }
+            FindingView v = head.get();
+            // The alert whose event holds this finding: led by it, or listing its kind among the event's others.
+            Optional<AlertView> alert = h.createQuery(reviews.alertSelect() + " WHERE a.run_id = :run AND a.variable ="
+                            + " :v AND (a.kind = :k OR :k = ANY (a.facet_kinds))"
+                            + " ORDER BY (a.superseded_at IS NULL) DESC, a.alert_id DESC LIMIT 1")
+                    .bind("run", v.runId()).bind("v", v.finding().variable()).bind("k", v.finding().kind().name())
+                    .bind("today", reviews.today())
+                    .map((rs, ctx) -> AlertReviews.alertView(rs))
+                    .findOne();
+            List<ReviewEntry> history = h.createQuery("SELECT * FROM " + s + ".alert_action WHERE alert_id = :id"
+                            + " ORDER BY entry_id")
+                    .bind("id", alert.map(AlertView::alertId).orElse(0L))
+                    .map((rs, ctx) -> AlertReviews.entry(rs))
+                    .list();
+            List<TrendPoint> trend = new ArrayList<>(h.createQuery("WITH " + currentRuns(":d") + ", p AS (SELECT"
+                            + " c.wave, f.finding_id, f.verdict, f.effect_name, f.effect_estimate, f.effect_ci_low,"
+                            + " f.effect_ci_high, f.effect_threshold, f.detail -> 'plot' AS plot,"
+                            + " f.detail -> 'plot' -> 'current' -> 0 AS level FROM cur c CROSS JOIN LATERAL (SELECT *"
+                            + " FROM " + s + ".finding x WHERE x.run_id = c.run_id AND x.variable = :v AND x.kind = :k) f)"
+                            + " SELECT p.*, CASE WHEN jsonb_typeof(p.plot -> 'statistic') = 'string' THEN"
+                            + " p.plot ->> 'statistic' END AS level_name,"
+                            + " CASE WHEN jsonb_typeof(p.level -> 'category') = 'string' THEN p.level ->> 'category' END"
+                            + " AS level_category, " + number("value") + " AS level_value, " + number("low")
+                            + " AS level_low, " + number("high") + " AS level_high FROM p")
+                    .bind("d", v.dataset()).bind("v", v.finding().variable()).bind("k", v.finding().kind().name())
+                    .map((rs, ctx) -> {
+                        String levelName = rs.getString("level_name");
+                        String category = rs.getString("level_category");
+                        Double level = (Double) rs.getObject("level_value");
+                        return new TrendPoint(rs.getString("wave"), rs.getLong("finding_id"), rs.getString("verdict"),
+                                rs.getString("effect_name"), (Double) rs.getObject("effect_estimate"),
+                                (Double) rs.getObject("effect_ci_low"), (Double) rs.getObject("effect_ci_high"),
+                                (Double) rs.getObject("effect_threshold"),
+                                level == null || levelName == null ? null
+                                        : category == null ? levelName : levelName + " (" + category + ")",
+                                level, level == null ? null : (Double) rs.getObject("level_low"),
+                                level == null ? null : (Double) rs.getObject("level_high"));
+                    })
+                    .list());
+            trend.sort(Comparator.comparing(TrendPoint::wave, waveOrder));
+            return Optional.of(new FindingView(v.findingId(), v.runId(), v.dataset(), v.wave(), v.againstWave(),
+                    v.finding(), alert.orElse(null), history, trend));
+        });
     }
 
+    /**
+     * A wave with its current run's alerts and every sign-off: three statements. Empty when the wave has neither a
+     * current run nor a sign-off.
+     */
     public Optional<WaveView> wave(String dataset, String wave) {
-        throw new UnsupportedOperationException("not yet");
+        return jdbi.withHandle(h -> {
+            String run = "SELECT run_id FROM " + s + ".run WHERE dataset = :d AND wave = :w AND superseded_at IS NULL"
+                    + " ORDER BY finished_at DESC, run_id DESC LIMIT 1";
+            Optional<Map<String, Object>> current = h.createQuery("SELECT run_id, against_wave, finished_at,"
+                            + " config_fingerprint, tool_version, findings_count FROM " + s + ".run WHERE run_id = ("
+                            + run + ")")
+                    .bind("d", dataset).bind("w", wave).mapToMap().findOne();
+            List<AlertView> alerts = h.createQuery(reviews.alertSelect() + " WHERE a.run_id = (" + run + ")"
+                            + " ORDER BY a.alert_id")
+                    .bind("d", dataset).bind("w", wave).bind("today", reviews.today())
+                    .map((rs, ctx) -> AlertReviews.alertView(rs))
+                    .list();
+            List<SignOff> signOffs = h.createQuery("SELECT *, alerts::text AS alerts_text FROM " + s + ".sign_off"
+                            + " WHERE dataset = :d AND wave = :w ORDER BY sign_off_id")
+                    .bind("d", dataset).bind("w", wave)
+                    .map((rs, ctx) -> SignOffs.signOff(rs))
+                    .list();
+            if (current.isEmpty() && signOffs.isEmpty()) {
+                return Optional.<WaveView>empty();
+            }
+            Map<String, Object> r = current.orElse(Map.of());
+            Object finished = r.get("finished_at");
+            return Optional.of(new WaveView(dataset, wave, emptyIsNone((String) r.get("against_wave")),
+                    r.isEmpty() ? 0 : ((Number) r.get("run_id")).longValue(),
+                    finished == null ? null : ((java.sql.Timestamp) finished).toInstant(),
+                    (String) r.get("config_fingerprint"), (String) r.get("tool_version"),
+                    r.isEmpty() ? 0 : ((Number) r.get("findings_count")).intValue(), alerts, signOffs));
+        });
     }
 
-    /** Variables whose name or label contains {@code text} (case-insensitive, as text, never a pattern). */
+    /**
+     * Variables whose name or label contains {@code text} (case-insensitive, as text, never a pattern), among the
+     * variables judged in each dataset's latest current run, by dataset and name; one statement. Reading only the
+     * latest runs keeps the search to one run per dataset however long the history: a variable no longer in a
+     * dataset's latest wave is found through that dataset's grid instead.
+     */
     public List<SearchHit> search(String text, int limit) {
-        throw new UnsupportedOperationException("not yet");
+        if (text == null || text.isBlank() || limit <= 0) {
+            return List.of();
+        }
+        return jdbi.withHandle(h -> h.createQuery("WITH latest AS (SELECT DISTINCT ON (dataset) run_id, dataset, wave"
+                        + " FROM " + s + ".run WHERE superseded_at IS NULL ORDER BY dataset, finished_at DESC, run_id DESC)"
+                        // strpos compares text with text: % _ \ and quotes in what was typed match themselves.
+                        + " SELECT DISTINCT ON (l.dataset, f.variable) l.dataset, f.variable, f.label, l.wave,"
+                        // The latest runs' ids as an array, so the findings are read by run through the index
+                        // rather than by a pass over every finding that a join would be planned as.
+                        + " f.finding_id, f.verdict FROM " + s + ".finding f JOIN latest l ON l.run_id = f.run_id"
+                        + " WHERE f.run_id = ANY (ARRAY(SELECT run_id FROM latest)) AND (strpos(lower(f.variable), lower(:t)) > 0 OR strpos(lower(coalesce(f.label, '')),"
+                        + " lower(:t)) > 0) ORDER BY l.dataset, f.variable, " + URGENCY + ", f.finding_id LIMIT :n")
+                .bind("t", text.trim()).bind("n", limit)
+                .map((rs, ctx) -> new SearchHit(rs.getString("dataset"), rs.getString("variable"), rs.getString("label"),
+                        rs.getString("wave"), rs.getLong("finding_id"), rs.getString("verdict")))
+                .list());
+    }
+
+    /**
+     * The current runs (the latest run of each wave that is not superseded) as a CTE named cur, of the dataset bound
+     * as {@code datasetBind}, or of every dataset when null.
+     */
+    private String currentRuns(String datasetBind) {
+        return "cur AS (SELECT DISTINCT ON (dataset, wave) run_id, dataset, wave, finished_at FROM " + s + ".run"
+                + " WHERE superseded_at IS NULL" + (datasetBind == null ? "" : " AND dataset = " + datasetBind)
+                + " ORDER BY dataset, wave, finished_at DESC, run_id DESC)";
+    }
+
+    /** A number of the level's JSON object, null when it is missing or not a number (bad data is no crash). */
+    private static String number(String field) {
+        return "CASE WHEN jsonb_typeof(p.level -> '" + field + "') = 'number' THEN CAST(p.level ->> '" + field
+                + "' AS double precision) END";
+    }
+
+    private static String emptyIsNone(String againstWave) {
+        return againstWave == null || againstWave.isEmpty() ? null : againstWave;
     }
 }

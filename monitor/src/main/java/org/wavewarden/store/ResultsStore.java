@@ -356,7 +356,7 @@ public final class ResultsStore {
         return null;
     }
 
-    private static Object detail(FindingKind kind, String json) {
+    static Object detail(FindingKind kind, String json) {
         if (kind == FindingKind.RELATIONSHIP_CHANGE) {
             try {
                 return Json.read(json, RelationshipDetail.class);

@@ -115,7 +115,7 @@ public final class SignOffs {
                 .list());
     }
 
-    private static SignOff signOff(ResultSet rs) throws SQLException {
+    static SignOff signOff(ResultSet rs) throws SQLException {
         return new SignOff(rs.getLong("sign_off_id"), rs.getString("dataset"), rs.getString("wave"),
                 rs.getString("release"), rs.getString("actor"),
                 rs.getObject("signed_at", OffsetDateTime.class).toInstant(), rs.getLong("run_id"),
