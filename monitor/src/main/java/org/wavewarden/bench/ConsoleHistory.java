@@ -22,6 +22,11 @@ public final class ConsoleHistory {
                 throw new IllegalArgumentException("a history needs at least 1 dataset, 2 waves and 1 variable, not "
                         + datasets + "/" + waves + "/" + variables);
             }
+            // Names are numbered with fixed widths so that waves sort in their order as text.
+            if (datasets > 99 || waves > 99 || variables > 999) {
+                throw new IllegalArgumentException("a history has at most 99 datasets, 99 waves and 999 variables,"
+                        + " not " + datasets + "/" + waves + "/" + variables);
+            }
         }
 
         /** The findings of current runs: one per dataset, wave and variable. */

@@ -74,6 +74,22 @@ class ConsoleReadsStatementCountTest {
         };
     }
 
+    @ParameterizedTest(name = "{0}: {1} datasets, {2} waves, {3} variables")
+    @CsvSource({
+            "small, 1,  4, 40",
+            "large, 50, 6, 60",
+    })
+    void theHistoriesAreAsLargeAsTheirNamesSay(String schema, int datasets, int waves, int variables) {
+        ConsoleReads reads = new ConsoleReads(jdbi, schema, Clock.systemUTC());
+        assertEquals(datasets, reads.datasets().size());
+        ConsoleReads.Grid grid = reads.grid(ConsoleHistory.dataset(1), ConsoleReads.GridFilter.ANY,
+                Comparator.naturalOrder());
+        assertEquals(waves, grid.waves().size());
+        assertEquals(variables, grid.rows().size());
+        assertTrue(reads.datasets().stream().mapToInt(d -> d.byState().values().stream().mapToInt(i -> i).sum())
+                .sum() > datasets, "alerts on the current runs");
+    }
+
     @ParameterizedTest(name = "{0}: {1} statements")
     @CsvSource({
             "overview,              3",
