@@ -301,7 +301,7 @@ public final class ConsoleApp {
     }
 
     private Reply wave(Request request, Fields query, Session session, Chrome chrome) {
-        return waveView(query, chrome).map(v -> html(200, Pages.wave(chrome, v, null)))
+        return waveView(query, chrome).map(v -> html(200, Pages.wave(chrome, v, null, v.leadFinding())))
                 .orElseGet(() -> html(404, Pages.problem(chrome, 404, "There is no such wave with results.")));
     }
 
@@ -426,7 +426,7 @@ public final class ConsoleApp {
             Chrome chrome = new Chrome(session.principal().name(), session.principal().role(), session.csrfToken(),
                     null);
             Optional<ConsoleReads.WaveView> v = reads.wave(dataset, wave);
-            return v.isPresent() ? html(409, Pages.wave(chrome, v.get(), e.getMessage()))
+            return v.isPresent() ? html(409, Pages.wave(chrome, v.get(), e.getMessage(), v.get().leadFinding()))
                     : html(409, Pages.problem(chrome, 409, e.getMessage()));
         }
         LOG.info("console: {} signed off wave {} of {}", DataText.visible(session.principal().name()),

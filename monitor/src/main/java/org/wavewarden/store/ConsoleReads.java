@@ -143,13 +143,23 @@ public final class ConsoleReads {
      * @param runId       the current run, or 0 when the wave has none
      * @param alerts      the alerts of the current run (all states)
      * @param signOffs    every sign-off of the wave, oldest first
+     * @param leadFinding each alert's lead finding (alert id to finding id), for links to the finding pages
      */
     public record WaveView(String dataset, String wave, String againstWave, long runId, Instant judgedAt,
                            String configFingerprint, String toolVersion, int findings, List<AlertView> alerts,
-                           List<SignOff> signOffs) {
+                           List<SignOff> signOffs, Map<Long, Long> leadFinding) {
         public WaveView {
             alerts = List.copyOf(alerts);
             signOffs = List.copyOf(signOffs);
+            leadFinding = leadFinding == null ? Map.of() : Map.copyOf(leadFinding);
+        }
+
+        /** A wave without links from its alerts to their findings. */
+        public WaveView(String dataset, String wave, String againstWave, long runId, Instant judgedAt,
+                        String configFingerprint, String toolVersion, int findings, List<AlertView> alerts,
+                        List<SignOff> signOffs) {
+            this(dataset, wave, againstWave, runId, judgedAt, configFingerprint, toolVersion, findings, alerts,
+                    signOffs, Map.of());
         }
     }
 
@@ -351,6 +361,14 @@ public final class ConsoleReads {
                     .bind("d", dataset).bind("w", wave).bind("today", reviews.today())
                     .map((rs, ctx) -> AlertReviews.alertView(rs))
                     .list();
+            // Each alert's lead finding, joined on the key the alert was written under (run, variable, kind).
+            Map<Long, Long> leads = new HashMap<>();
+            h.createQuery("SELECT a.alert_id, f.finding_id FROM " + s + ".alert a JOIN " + s + ".finding f"
+                            + " ON f.run_id = a.run_id AND f.variable = a.variable AND f.kind = a.kind"
+                            + " WHERE a.run_id = (" + run + ")")
+                    .bind("d", dataset).bind("w", wave)
+                    .map((rs, ctx) -> Map.entry(rs.getLong(1), rs.getLong(2)))
+                    .forEach(e -> leads.put(e.getKey(), e.getValue()));
             List<SignOff> signOffs = h.createQuery("SELECT *, alerts::text AS alerts_text FROM " + s + ".sign_off"
                             + " WHERE dataset = :d AND wave = :w ORDER BY sign_off_id")
                     .bind("d", dataset).bind("w", wave)
@@ -365,7 +383,7 @@ public final class ConsoleReads {
                     r.isEmpty() ? 0 : ((Number) r.get("run_id")).longValue(),
                     finished == null ? null : ((java.sql.Timestamp) finished).toInstant(),
                     (String) r.get("config_fingerprint"), (String) r.get("tool_version"),
-                    r.isEmpty() ? 0 : ((Number) r.get("findings_count")).intValue(), alerts, signOffs));
+                    r.isEmpty() ? 0 : ((Number) r.get("findings_count")).intValue(), alerts, signOffs, leads));
         });
     }
 

@@ -461,6 +461,8 @@ class ConsoleHttpIntegrationTest {
         // The notice comes from the code in the redirect, as fixed text.
         HttpResponse<String> page = steward.get("/console/wave?dataset=small-survey&wave=w3&done=unmuted");
         assertTrue(page.body().contains(ConsoleApp.NOTICES.get("unmuted")), page.body());
+        assertTrue(page.body().contains("href=\"/console/finding?id=" + scoreFinding + "\""),
+                "the alert links to its lead finding's page: " + page.body());
     }
 
     @Test
