@@ -420,7 +420,8 @@ public final class ConsoleApp {
         boolean force = flag(form.getValue("force"));
         String reason = text(form.getValue("reason"), MAX_TEXT, "reason");
         try {
-            signOffs.signOff(new SignOffs.Request(dataset, wave, release, session.principal().name(), force, reason));
+            signOffs.signOff(new SignOffs.Request(dataset, wave, release, session.principal().name(), force, reason,
+                    SOURCE));
         } catch (ReviewException e) {
             // The wave page again, with the refusal and the alerts that block it beside the form.
             Chrome chrome = new Chrome(session.principal().name(), session.principal().role(), session.csrfToken(),

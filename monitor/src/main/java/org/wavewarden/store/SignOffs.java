@@ -43,9 +43,18 @@ public final class SignOffs {
      * @param release     the release (revision) signed; '' for a dataset without releases
      * @param force       sign although a MATERIAL alert of the wave is open
      * @param forceReason required when forcing
+     * @param source      where the sign-off came from: {@code command} or {@code console}
      */
     public record Request(String dataset, String wave, String release, String actor, boolean force,
-                          String forceReason) {
+                          String forceReason, String source) {
+        public Request {
+            source = source == null || source.isBlank() ? "command" : source;
+        }
+
+        /** A sign-off from the command line. */
+        public Request(String dataset, String wave, String release, String actor, boolean force, String forceReason) {
+            this(dataset, wave, release, actor, force, forceReason, "command");
+        }
     }
 
     /**
@@ -82,8 +91,9 @@ public final class SignOffs {
             // A forced sign-off with nothing blocking is recorded as what it is: not forced.
             boolean forced = request.force() && !blocking.isEmpty();
             return h.createQuery("INSERT INTO " + s + ".sign_off (dataset, wave, release, actor, run_id,"
-                            + " config_fingerprint, tool_version, forced, force_reason, alerts) VALUES (:d, :w, :release,"
-                            + " :actor, :run, :fingerprint, :tool, :forced, :reason, CAST(:alerts AS jsonb)) RETURNING *,"
+                            + " config_fingerprint, tool_version, forced, force_reason, alerts, source) VALUES (:d, :w,"
+                            + " :release, :actor, :run, :fingerprint, :tool, :forced, :reason, CAST(:alerts AS jsonb),"
+                            + " :source) RETURNING *,"
                             + " alerts::text AS alerts_text")
                     .bind("d", request.dataset()).bind("w", request.wave())
                     .bind("release", request.release() == null ? "" : request.release().trim())
@@ -91,7 +101,7 @@ public final class SignOffs {
                     .bind("fingerprint", (String) run.get("config_fingerprint"))
                     .bind("tool", (String) run.get("tool_version")).bind("forced", forced)
                     .bind("reason", forced ? request.forceReason().trim() : null)
-                    .bind("alerts", Json.write(current))
+                    .bind("alerts", Json.write(current)).bind("source", request.source())
                     .map((rs, ctx) -> signOff(rs))
                     .one();
         });
@@ -120,6 +130,7 @@ public final class SignOffs {
                 rs.getString("release"), rs.getString("actor"),
                 rs.getObject("signed_at", OffsetDateTime.class).toInstant(), rs.getLong("run_id"),
                 rs.getString("config_fingerprint"), rs.getString("tool_version"), rs.getBoolean("forced"),
-                rs.getString("force_reason"), List.of(Json.read(rs.getString("alerts_text"), AlertView[].class)));
+                rs.getString("force_reason"), List.of(Json.read(rs.getString("alerts_text"), AlertView[].class)),
+                rs.getString("source"));
     }
 }

@@ -514,9 +514,9 @@ class ConsoleHttpIntegrationTest {
         assertEquals(303, r.statusCode(), r.body());
         assertEquals("/console/wave?dataset=small-survey&wave=w3&done=signedoff",
                 r.headers().firstValue("Location").orElse(null));
-        Map<String, Object> row = jdbi.withHandle(h -> h.createQuery("SELECT dataset, wave, actor, forced FROM " + S
-                + ".sign_off").mapToMap().one());
-        assertEquals(List.of("small-survey", "w3", RELEASER, false), List.copyOf(row.values()));
+        Map<String, Object> row = jdbi.withHandle(h -> h.createQuery("SELECT dataset, wave, actor, forced, source FROM "
+                + S + ".sign_off").mapToMap().one());
+        assertEquals(List.of("small-survey", "w3", RELEASER, false, "console"), List.copyOf(row.values()));
     }
 
     @Test
