@@ -188,9 +188,10 @@ public final class ConsoleApp {
             } catch (BadRequest e) {
                 reply = Reply.text(400, e.getMessage() + "\n");
             } catch (Exception e) {
-                // The message may carry database details: the client gets none of it; the log names the class.
-                LOG.warn("{} {} failed: {}", request.getMethod(), Request.getPathInContext(request),
-                        e.getClass().getName(), e);
+                // The message may carry database details or bound values (a note, a name): the client gets none of
+                // it, and the log names the class and where it was thrown, not the message.
+                LOG.warn("{} {} failed: {} at {}", request.getMethod(), Request.getPathInContext(request),
+                        e.getClass().getName(), e.getStackTrace().length == 0 ? "?" : e.getStackTrace()[0]);
                 reply = Reply.text(500, "internal error\n");
             }
             return reply.with("Content-Security-Policy", CONTENT_SECURITY_POLICY)
@@ -205,7 +206,7 @@ public final class ConsoleApp {
             String here = request.getHttpURI().getPathQuery();
             return redirect("/console/login?next=" + encode(safeNext(here)));
         }
-        Fields query = Request.extractQueryParameters(request, StandardCharsets.UTF_8);
+        Fields query = query(request);
         String done = query.getValue("done");
         String notice = done == null ? null : NOTICES.get(done);
         Session s = session.get();
@@ -236,8 +237,11 @@ public final class ConsoleApp {
     }
 
     private Optional<Session> session(Request request) {
-        String proxyUser = config.console().proxy() == null ? null
-                : request.getHeaders().get(config.console().proxy().userHeader());
+        // Exactly one value: a proxy that adds its header to one the client sent (instead of replacing it) would
+        // otherwise let the client's name through, and with it any configured person's role.
+        List<String> named = config.console().proxy() == null ? List.of()
+                : request.getHeaders().getValuesList(config.console().proxy().userHeader());
+        String proxyUser = named.size() == 1 ? named.get(0) : null;
         return auth.session(cookies(request), proxyUser, Request.getRemoteAddr(request));
     }
 
@@ -245,6 +249,15 @@ public final class ConsoleApp {
     private static String cookies(Request request) {
         List<String> all = request.getHeaders().getValuesList(HttpHeader.COOKIE);
         return all.isEmpty() ? null : String.join("; ", all);
+    }
+
+    /** The query's parameters; a query that is not percent-encoded UTF-8 is the client's error, a 400. */
+    private static Fields query(Request request) {
+        try {
+            return Request.extractQueryParameters(request, StandardCharsets.UTF_8);
+        } catch (RuntimeException e) {
+            throw new BadRequest("the request could not be read");
+        }
     }
 
     private static Fields form(Request request) {
@@ -343,7 +356,7 @@ public final class ConsoleApp {
     // ---- login and logout -----------------------------------------------------------------------------------
 
     private Reply loginForm(Request request) {
-        String next = Request.extractQueryParameters(request, StandardCharsets.UTF_8).getValue("next");
+        String next = query(request).getValue("next");
         return loginPage(200, null, safeNext(next));
     }
 
@@ -368,6 +381,8 @@ public final class ConsoleApp {
             Arrays.fill(password, '\0');
         }
         if (result instanceof ConsoleAuth.LoginResult.LoggedIn in) {
+            // Whoever was logged in on this browser before is logged out: a shared browser hands on no session.
+            session(request).filter(old -> !old.id().equals(in.session().id())).ifPresent(auth::logout);
             return redirect(next).with("Set-Cookie", auth.setCookie(in.session()));
         }
         if (result instanceof ConsoleAuth.LoginResult.Throttled t) {
@@ -481,10 +496,24 @@ public final class ConsoleApp {
         return Long.parseLong(text);
     }
 
+    /**
+     * A dataset or wave label exactly as given: labels are data and may carry blanks at either end, so nothing is
+     * stripped; a control character (which PostgreSQL's text refuses, NUL first of all) is a 400.
+     */
     private static String required(Fields fields, String name) {
-        String v = text(fields.getValue(name), MAX_TEXT, name);
-        if (v == null) {
+        String v = fields.getValue(name);
+        if (v == null || v.isEmpty()) {
             throw new BadRequest(name + ": a value is needed");
+        }
+        if (v.length() > MAX_TEXT) {
+            throw new BadRequest(name + ": longer than " + MAX_TEXT + " characters");
+        }
+        return noControlCharacters(v, name);
+    }
+
+    private static String noControlCharacters(String v, String name) {
+        if (v.chars().anyMatch(c -> c < 0x20 && c != '\t' && c != '\n' && c != '\r' || c == 0x7f)) {
+            throw new BadRequest(name + ": contains a control character");
         }
         return v;
     }
@@ -510,7 +539,7 @@ public final class ConsoleApp {
         if (v.length() > max) {
             throw new BadRequest(name + ": longer than " + max + " characters");
         }
-        return v;
+        return noControlCharacters(v, name);
     }
 
     private static ReviewReason reason(Fields form) {

@@ -112,7 +112,7 @@ class ConsoleHttpIntegrationTest {
                 new ConsoleConfig.User(VIEWER, Role.VIEWER, ConsolePeople.hash(PASSWORDS.get(VIEWER))),
                 new ConsoleConfig.User(STEWARD, Role.STEWARD, ConsolePeople.hash(PASSWORDS.get(STEWARD))),
                 new ConsoleConfig.User(RELEASER, Role.RELEASER, ConsolePeople.hash(PASSWORDS.get(RELEASER)))),
-                null, ConsoleConfig.DISABLED.sessionLength(), ConsoleConfig.DISABLED.idleTimeout(), true,
+                new ConsoleConfig.Proxy(PROXY_HEADER, List.of("127.0.0.1", "::1")), ConsoleConfig.DISABLED.sessionLength(), ConsoleConfig.DISABLED.idleTimeout(), true,
                 ConsoleConfig.DISABLED.loginFailures(), ConsoleConfig.DISABLED.lockout());
         WardenConfig config = new WardenConfig(loaded.source(), loaded.results(), loaded.alpha(), loaded.fdr(),
                 loaded.datasets(), loaded.daemon(), console);
@@ -370,12 +370,42 @@ class ConsoleHttpIntegrationTest {
     @ValueSource(strings = {"/console/finding?id=abc", "/console/finding?id=-4", "/console/finding?id=1e3",
             "/console/finding?id=", "/console/finding?id=99999999999999999999",
             "/console/dataset?name=small-survey&verdict=ALARMING",
-            "/console/download?dataset=small-survey&wave=w3&file=..%2Fsecrets"})
+            "/console/download?dataset=small-survey&wave=w3&file=..%2Fsecrets",
+            "/console/wave?dataset=small-survey%00&wave=w3", "/console/wave?dataset=small-survey&wave=w3%01",
+            "/console/search?q=%C3%28", "/console/wave?dataset=small-survey&wave=%e0%80"})
     void aRequestTheConsoleCannotReadIsA400WithoutDetail(String path) throws Exception {
         HttpResponse<String> r = new Browser().as(VIEWER).get(path);
         assertEquals(400, r.statusCode(), r.body());
         assertTrue(r.headers().firstValue("Content-Type").orElse("").startsWith("text/plain"));
         assertFalse(r.body().contains("Exception") || r.body().contains("at org."), r.body());
+    }
+
+    /** The header a trusted reverse proxy names the person in (the test's requests come from 127.0.0.1). */
+    static final String PROXY_HEADER = "X-Remote-Person";
+
+    @Test
+    @Order(7)
+    void aTrustedProxysHeaderIsBelievedOnlyWhenItNamesExactlyOnePerson() throws Exception {
+        HttpClient client = HttpClient.newBuilder().followRedirects(HttpClient.Redirect.NEVER).build();
+        HttpResponse<String> one = client.send(HttpRequest.newBuilder(URI.create(base + "/console"))
+                .header(PROXY_HEADER, VIEWER).build(), HttpResponse.BodyHandlers.ofString());
+        assertEquals(200, one.statusCode(), one.body());
+        assertTrue(one.body().contains(VIEWER), "the page names the person the proxy named");
+        // A proxy that appends its header to the client's own would pass on two names: neither is believed.
+        HttpResponse<String> two = client.send(HttpRequest.newBuilder(URI.create(base + "/console"))
+                .header(PROXY_HEADER, RELEASER).header(PROXY_HEADER, VIEWER).build(),
+                HttpResponse.BodyHandlers.ofString());
+        assertEquals(303, two.statusCode(), two.body());
+        assertTrue(two.headers().firstValue("Location").orElse("").startsWith("/console/login"));
+    }
+
+    @Test
+    @Order(7)
+    void aQueryThatCannotBeDecodedIsTheClientsErrorEvenBeforeLoggingIn() throws Exception {
+        // Not UTF-8 once decoded (a lone continuation byte): java.net.URI lets it through, the console cannot read it.
+        HttpResponse<String> r = new Browser().get("/console/login?next=%80");
+        assertEquals(400, r.statusCode(), r.body());
+        assertEquals("the request could not be read\n", r.body());
     }
 
     @Test
