@@ -13,7 +13,6 @@ import org.wavewarden.store.ResultsSchema;
 import java.io.PrintWriter;
 import java.net.CookieManager;
 import java.net.URI;
-import java.net.URLEncoder;
 import java.net.http.HttpClient;
 import java.net.http.HttpRequest;
 import java.net.http.HttpResponse;
@@ -248,7 +247,7 @@ public final class ConsoleBench {
     }
 
     private static String q(String s) {
-        return URLEncoder.encode(s == null ? "" : s, StandardCharsets.UTF_8);
+        return org.wavewarden.console.page.Pages.q(s);
     }
 
     private static <T> T pick(List<T> list, int i) {

@@ -34,7 +34,6 @@ import org.wavewarden.store.SignOffs;
 
 import java.math.BigDecimal;
 import java.net.URI;
-import java.net.URLEncoder;
 import java.nio.charset.StandardCharsets;
 import java.time.Clock;
 import java.time.LocalDate;
@@ -594,7 +593,7 @@ public final class ConsoleApp {
     }
 
     static String encode(String value) {
-        return URLEncoder.encode(value, StandardCharsets.UTF_8).replace("+", "%20");
+        return Pages.q(value);
     }
 
     private static String wavePath(String dataset, String wave) {

@@ -63,8 +63,9 @@ public final class ConsoleReads {
      * @param wavesJudged   waves with a current run
      * @param openByVerdict open alerts by verdict key (MATERIAL, UNCERTAIN, ...; "none" for a finding without one)
      * @param byState       alerts of current runs by state
-     * @param lastSignOff   the latest sign-off of any wave, or null
-     * @param lastWaveSignedOff whether {@code lastWave} has a sign-off
+     * @param lastSignOff   the latest sign-off of {@code lastWave}, or null
+     * @param lastWaveSignedOff whether that sign-off rests on the wave's current run (a sign-off of a run since
+     *                      replaced does not count)
      */
     public record DatasetSummary(String dataset, String lastWave, Instant lastJudgedAt, int wavesJudged,
                                  Map<String, Integer> openByVerdict, Map<AlertState, Integer> byState,
@@ -194,22 +195,31 @@ public final class ConsoleReads {
                         return dataset;
                     })
                     .list();
+            // The last wave's latest sign-off, and whether it was signed on the wave's current run: a sign-off of
+            // a run since replaced rests on other numbers and does not count as the wave's.
             Map<String, SignOff> lastSignOff = new HashMap<>();
-            h.createQuery("SELECT DISTINCT ON (dataset) *, alerts::text AS alerts_text FROM " + s + ".sign_off"
-                            + " ORDER BY dataset, sign_off_id DESC")
-                    .map((rs, ctx) -> SignOffs.signOff(rs))
-                    .forEach(so -> lastSignOff.put(so.dataset(), so));
+            Map<String, Boolean> onCurrentRun = new HashMap<>();
+            h.createQuery("WITH " + currentRuns(null) + ", last AS (SELECT DISTINCT ON (dataset)"
+                            + " dataset, wave, run_id, finished_at FROM cur ORDER BY dataset, finished_at DESC,"
+                            + " run_id DESC), signed AS (SELECT DISTINCT ON (so.dataset) so.*, so.alerts::text AS"
+                            + " alerts_text, so.run_id = l.run_id AS on_current FROM last l JOIN " + s + ".sign_off so"
+                            + " ON so.dataset = l.dataset AND so.wave = l.wave ORDER BY so.dataset, so.sign_off_id DESC)"
+                            + " SELECT * FROM signed")
+                    .map((rs, ctx) -> Map.entry(SignOffs.signOff(rs), rs.getBoolean("on_current")))
+                    .forEach(e -> {
+                        lastSignOff.put(e.getKey().dataset(), e.getKey());
+                        onCurrentRun.put(e.getKey().dataset(), e.getValue());
+                    });
             return h.createQuery("WITH " + currentRuns(null) + ", last AS (SELECT DISTINCT ON (dataset) dataset, wave,"
                             + " finished_at FROM cur ORDER BY dataset, finished_at DESC, run_id DESC)"
                             + " SELECT l.dataset, l.wave, l.finished_at, (SELECT count(*) FROM cur c WHERE c.dataset ="
-                            + " l.dataset) AS waves, EXISTS (SELECT 1 FROM " + s + ".sign_off so WHERE so.dataset ="
-                            + " l.dataset AND so.wave = l.wave) AS signed FROM last l ORDER BY l.dataset")
+                            + " l.dataset) AS waves FROM last l ORDER BY l.dataset")
                     .map((rs, ctx) -> {
                         String dataset = rs.getString("dataset");
                         return new DatasetSummary(dataset, rs.getString("wave"),
                                 rs.getObject("finished_at", OffsetDateTime.class).toInstant(), rs.getInt("waves"),
                                 open.getOrDefault(dataset, Map.of()), states.getOrDefault(dataset, Map.of()),
-                                lastSignOff.get(dataset), rs.getBoolean("signed"));
+                                lastSignOff.get(dataset), onCurrentRun.getOrDefault(dataset, false));
                     })
                     .list();
         });
@@ -240,12 +250,14 @@ public final class ConsoleReads {
                             + " WHERE (CAST(:k AS text) IS NULL OR f.kind = :k) AND (CAST(:v AS text) IS NULL"
                             + " OR f.verdict = :v OR (:v = '" + NO_VERDICT + "' AND f.verdict IS NULL))"
                             + " WINDOW w AS (PARTITION BY f.run_id, f.variable)),"
-                            // The alert on a variable in a wave: the current run's, preferring one still in force.
-                            + " alerts AS (SELECT DISTINCT ON (v.run_id, v.variable) v.run_id, v.variable, v.state"
-                            + " FROM cur c CROSS JOIN LATERAL (" + reviews.alertSelect() + " WHERE a.run_id = c.run_id) v"
-                            + " ORDER BY v.run_id, v.variable, (v.state = 'SUPERSEDED'), v.alert_id DESC)"
-                            + " SELECT r.*, al.state FROM ranked r LEFT JOIN alerts al ON al.run_id = r.run_id AND"
-                            + " al.variable = r.variable WHERE r.rank = 1")
+                            // The alert the cell's finding belongs to (as its lead or one of its other kinds, as
+                            // the finding page reads it): the current run's, preferring one still in force.
+                            + " alerts AS (SELECT v.run_id, v.variable, v.kind, v.facet_kinds, v.state, v.alert_id"
+                            + " FROM cur c CROSS JOIN LATERAL (" + reviews.alertSelect() + " WHERE a.run_id = c.run_id) v)"
+                            + " SELECT DISTINCT ON (r.finding_id) r.*, al.state FROM ranked r LEFT JOIN alerts al"
+                            + " ON al.run_id = r.run_id AND al.variable = r.variable AND (al.kind = r.kind"
+                            + " OR r.kind = ANY (al.facet_kinds)) WHERE r.rank = 1"
+                            + " ORDER BY r.finding_id, (al.state = 'SUPERSEDED'), al.alert_id DESC")
                     .bind("d", dataset).bind("k", f.kind()).bind("v", f.verdict()).bind("today", reviews.today())
                     .map((rs, ctx) -> {
                         String variable = rs.getString("variable");

@@ -51,7 +51,7 @@ public final class Pages {
             .withZone(ZoneOffset.UTC);
 
     /** The kind filter's and the grid's word for a finding without a verdict (a data-quality finding). */
-    static final String NO_VERDICT = "none";
+    static final String NO_VERDICT = ConsoleReads.NO_VERDICT;
 
     private Pages() {
     }
@@ -98,6 +98,11 @@ public final class Pages {
                     h.append(", release ").append(esc(so.release()));
                 }
                 h.append(so.forced() ? " (forced)" : "").append("</span>");
+            } else if (so != null && Objects.equals(so.wave(), s.lastWave())) {
+                // Signed on a run that has since been replaced: the release rests on other numbers.
+                h.append("<span class=\"unsigned\">not signed off on these numbers (signed by ")
+                        .append(esc(so.actor())).append(" at ").append(when(so.signedAt()))
+                        .append(" on an earlier run)</span>");
             } else {
                 h.append("<span class=\"unsigned\">not signed off</span>");
             }
@@ -745,7 +750,8 @@ public final class Pages {
     // ---- links and words ------------------------------------------------------------------------------------
 
     /** A query value as a URL encodes it; as it contains no quote, ampersand or angle bracket, it is attribute-safe. */
-    static String q(String value) {
+    /** A query value in a console address: the one encoder of the console's links, redirects and requests. */
+    public static String q(String value) {
         return URLEncoder.encode(value == null ? "" : value, StandardCharsets.UTF_8);
     }
 
