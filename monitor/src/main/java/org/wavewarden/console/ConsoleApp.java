@@ -67,7 +67,7 @@ import java.util.regex.Pattern;
  * POST /console/alert/explain                     fields alert, reason, note, csrf
  * POST /console/alert/mute                        fields alert, reason, note, untilWave, untilDate, csrf
  * POST /console/alert/unmute                      fields alert, note, csrf
- * POST /console/signoff                           fields dataset, wave, release, force, reason, csrf
+ * POST /console/signoff                           fields dataset, wave, run, release, force, reason, csrf
  * </pre>
  * A successful POST answers 303 to the page it came from with a notice; a missing or wrong CSRF token is 403, a
  * role that does not allow the action is 403, an action the lifecycle refuses is 409 with its reason.
@@ -433,9 +433,10 @@ public final class ConsoleApp {
         String release = Objects.requireNonNullElse(text(form.getValue("release"), MAX_TEXT, "release"), "");
         boolean force = flag(form.getValue("force"));
         String reason = text(form.getValue("reason"), MAX_TEXT, "reason");
+        Long run = form.getValue("run") == null ? null : id(form.getValue("run"), "run");
         try {
             signOffs.signOff(new SignOffs.Request(dataset, wave, release, session.principal().name(), force, reason,
-                    SOURCE));
+                    SOURCE, run));
         } catch (ReviewException e) {
             // The wave page again, with the refusal and the alerts that block it beside the form.
             Chrome chrome = new Chrome(session.principal().name(), session.principal().role(), session.csrfToken(),

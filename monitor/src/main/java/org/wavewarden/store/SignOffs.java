@@ -44,16 +44,18 @@ public final class SignOffs {
      * @param force       sign although a MATERIAL alert of the wave is open
      * @param forceReason required when forcing
      * @param source      where the sign-off came from: {@code command} or {@code console}
+     * @param shownRun    the run the person was shown (the console's wave page), or null: a sign-off is refused
+     *                    when the wave has been judged again since, so nobody signs numbers they have not seen
      */
     public record Request(String dataset, String wave, String release, String actor, boolean force,
-                          String forceReason, String source) {
+                          String forceReason, String source, Long shownRun) {
         public Request {
             source = source == null || source.isBlank() ? "command" : source;
         }
 
-        /** A sign-off from the command line. */
+        /** A sign-off from the command line, on whatever run is current. */
         public Request(String dataset, String wave, String release, String actor, boolean force, String forceReason) {
-            this(dataset, wave, release, actor, force, forceReason, "command");
+            this(dataset, wave, release, actor, force, forceReason, "command", null);
         }
     }
 
@@ -77,6 +79,12 @@ public final class SignOffs {
                     .bind("d", request.dataset()).bind("w", request.wave()).mapToMap().findOne()
                     .orElseThrow(() -> new ReviewException("Wave " + request.wave() + " of " + request.dataset()
                             + " was not signed off: it has not been judged (there is no current run to sign on)."));
+            long currentRun = ((Number) run.get("run_id")).longValue();
+            if (request.shownRun() != null && request.shownRun() != currentRun) {
+                throw new ReviewException("Wave " + request.wave() + " of " + request.dataset() + " was not signed off:"
+                        + " it has been judged again since the page was shown (run " + currentRun + ", not run "
+                        + request.shownRun() + "); look at the new numbers before signing.");
+            }
             // The wave's alerts are held while the decision is taken, so an action on one of them waits for the
             // sign-off, and the states recorded are the states the decision was taken on.
             h.createQuery("SELECT alert_id FROM " + s + ".alert WHERE dataset = :d AND wave = :w AND superseded_at IS"

@@ -539,8 +539,17 @@ class ConsoleHttpIntegrationTest {
     @Order(15)
     void aReleaserSignsTheWaveOffOnceNothingBlocksIt() throws Exception {
         Browser releaser = new Browser().as(RELEASER);
+        long current = jdbi.withHandle(h -> h.createQuery("SELECT run_id FROM " + S + ".alert WHERE alert_id = :a")
+                .bind("a", scoreAlert).mapTo(Long.class).one());
+        // A page shown before the wave was judged again names another run: refused, nothing written.
+        HttpResponse<String> stale = releaser.post("/console/signoff", Map.of("dataset", "small-survey", "wave", "w3",
+                "release", "", "run", String.valueOf(current - 1), "csrf", releaser.token()));
+        assertEquals(409, stale.statusCode(), stale.body());
+        assertTrue(stale.body().contains("it has been judged again since the page was shown (run " + current
+                + ", not run " + (current - 1) + ")"), stale.body());
+        assertEquals(0, signOffs());
         HttpResponse<String> r = releaser.post("/console/signoff", Map.of("dataset", "small-survey", "wave", "w3",
-                "release", "", "csrf", releaser.token()));
+                "release", "", "run", String.valueOf(current), "csrf", releaser.token()));
         assertEquals(303, r.statusCode(), r.body());
         assertEquals("/console/wave?dataset=small-survey&wave=w3&done=signedoff",
                 r.headers().firstValue("Location").orElse(null));

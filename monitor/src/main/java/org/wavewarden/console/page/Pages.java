@@ -521,6 +521,8 @@ public final class Pages {
                     .append("<h2>Sign this wave off</h2>");
             hidden(h, "dataset", wave.dataset());
             hidden(h, "wave", wave.wave());
+            // The run this page showed: a sign-off posted after the wave was judged again is refused.
+            hidden(h, "run", String.valueOf(wave.runId()));
             csrf(h, chrome);
             h.append("<label for=\"signoff-release\">Release (revision), empty for none</label>")
                     .append("<input id=\"signoff-release\" name=\"release\" type=\"text\" />")

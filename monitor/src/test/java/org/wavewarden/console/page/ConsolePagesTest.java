@@ -209,7 +209,7 @@ class ConsolePagesTest {
                 .contains("expected from a design, mode or questionnaire change"));
 
         Document w = parse(Pages.wave(PageFixtures.chrome(Role.RELEASER), PageFixtures.waveView(), null));
-        assertEquals(fields("csrf dataset force reason release wave"), names(w, "signoff-form"));
+        assertEquals(fields("csrf dataset force reason release run wave"), names(w, "signoff-form"));
         assertEquals("/console/signoff", byId(w, "signoff-form").getAttribute("action"));
         assertEquals(PageFixtures.DATASET, select(w, "//form[@id='signoff-form']//input[@name='dataset']").get(0)
                 .getAttribute("value"));
