@@ -3,6 +3,7 @@ package org.wavewarden.bench;
 import org.eclipse.jetty.server.Server;
 import org.eclipse.jetty.server.ServerConnector;
 import org.jdbi.v3.core.Jdbi;
+import org.wavewarden.config.ConsoleConfig;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.console.ConsoleApp;
 import org.wavewarden.daemon.Router;
@@ -124,12 +125,10 @@ public final class ConsoleBench {
             Report reads = reads(w, jdbi, schema, o, pick, statements);
             reads.print(log);
             reports.add(reads);
-            if (o.config() != null) {
-                Report http = http(w, jdbi, o, pick, statements, log);
-                if (http != null) {
-                    http.print(log);
-                    reports.add(http);
-                }
+            Report http = http(w, jdbi, withLogin(o, schema), pick, statements, log);
+            if (http != null) {
+                http.print(log);
+                reports.add(http);
             }
             return reports;
         }
@@ -176,16 +175,45 @@ public final class ConsoleBench {
                 pages, o.requests(), statements);
     }
 
+    /** The bench's own reader, when no configuration names one. */
+    static final String BENCH_READER = "Bench Reader";
+
+    /**
+     * The options with a console login the bench can use over plain HTTP on loopback: the configuration's when one
+     * is given, else a viewer of the bench's own with a random password hashed as a configured one is. The session
+     * cookie goes without its Secure flag here only: an HTTP client keeps Secure cookies for HTTPS.
+     */
+    static Options withLogin(Options o, String schema) {
+        WardenConfig base = o.config();
+        String user = o.user();
+        String password = o.password();
+        ConsoleConfig console;
+        if (base == null) {
+            byte[] random = new byte[18];
+            new java.security.SecureRandom().nextBytes(random);
+            password = java.util.Base64.getUrlEncoder().withoutPadding().encodeToString(random);
+            user = BENCH_READER;
+            console = new ConsoleConfig(true, List.of(new ConsoleConfig.User(user, org.wavewarden.review.Role.VIEWER,
+                    org.wavewarden.console.auth.PasswordHashes.encode(password.toCharArray()))), null,
+                    ConsoleConfig.DISABLED.sessionLength(), ConsoleConfig.DISABLED.idleTimeout(), false,
+                    ConsoleConfig.DISABLED.loginFailures(), ConsoleConfig.DISABLED.lockout());
+            base = new WardenConfig(null, new WardenConfig.ResultsConfig(null, schema), 0.05,
+                    WardenConfig.FdrMethod.BENJAMINI_HOCHBERG, List.of(), null, console);
+        } else {
+            ConsoleConfig c = base.console();
+            console = new ConsoleConfig(true, c.users(), c.proxy(), c.sessionLength(), c.idleTimeout(), false,
+                    c.loginFailures(), c.lockout());
+            base = new WardenConfig(base.source(), base.results(), base.alpha(), base.fdr(), base.datasets(),
+                    base.daemon(), console);
+        }
+        return new Options(o.size(), o.requests(), base, user, password);
+    }
+
     private static Report http(ConsoleHistory.Written w, Jdbi jdbi, Options o, Samples s, IntSupplier statements,
                                PrintWriter log) {
         Router router = new Router();
         router.get("/console-bench/floor", req -> Router.Reply.text(200, "ok"));
-        try {
-            new ConsoleApp(o.config(), jdbi, Clock.systemUTC(), null).install(router);
-        } catch (UnsupportedOperationException e) {
-            log.println("pages over HTTP not measured: this build's console does not install its routes yet");
-            return null;
-        }
+        new ConsoleApp(o.config(), jdbi, Clock.systemUTC(), null).install(router);
         Server jetty = new Server();
         ServerConnector connector = new ServerConnector(jetty);
         connector.setHost("127.0.0.1");

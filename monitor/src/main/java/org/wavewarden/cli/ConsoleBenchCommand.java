@@ -17,10 +17,11 @@ import java.util.concurrent.Callable;
                 + " embedded server, then asks for each page kind many times and prints, per kind, the median, 95th"
                 + " percentile and maximum in ms, the statements each page sent, and the median's ratio to a floor"
                 + " measured in the same run.",
-                "The reads behind the pages are always measured. With --config (whose console lets --user log in;"
-                        + " the password is read from the environment variable --password-env) the pages are also"
-                        + " asked for over HTTP from the real console on a loopback port; the history is written into"
-                        + " that configuration's results schema name on the embedded server."})
+                "Both the reads behind the pages and the pages over HTTP (the real console on a loopback port,"
+                        + " logged in) are measured. The bench logs in as a viewer of its own with a random password;"
+                        + " with --config it uses that configuration's console and --user instead (the password from"
+                        + " the environment variable --password-env), and writes the history into that configuration's"
+                        + " results schema name on the embedded server."})
 final class ConsoleBenchCommand implements Callable<Integer> {
 
     @Option(names = "--datasets", paramLabel = "N", defaultValue = "50",
@@ -36,7 +37,7 @@ final class ConsoleBenchCommand implements Callable<Integer> {
             description = "requests of each page kind (default: ${DEFAULT-VALUE})")
     int requests;
     @Option(names = {"-c", "--config"}, paramLabel = "FILE",
-            description = "a configuration with a console login, to measure the pages over HTTP")
+            description = "a configuration whose console login the bench uses over HTTP (default: a login of its own)")
     Path config;
     @Option(names = "--user", paramLabel = "NAME", description = "the console login the bench uses over HTTP")
     String user;
