@@ -29,6 +29,7 @@ import org.wavewarden.review.ReviewReason;
 import org.wavewarden.review.Role;
 import org.wavewarden.store.AlertReviews;
 import org.wavewarden.store.ConsoleReads;
+import org.wavewarden.store.ReleaseComparisons;
 import org.wavewarden.store.ResultsStore;
 import org.wavewarden.store.SignOffs;
 
@@ -60,7 +61,7 @@ import java.util.regex.Pattern;
  * GET  /console/finding?id=N                      a finding, its trend, its alert's history, the forms
  * GET  /console/wave?dataset=D&amp;wave=W             a wave's alerts by state, sign-off, downloads
  * GET  /console/search?q=TEXT                     variables by name or label across datasets
- * GET  /console/download?dataset=D&amp;wave=W&amp;file=findings.json|digest.md
+ * GET  /console/download?dataset=D&amp;wave=W&amp;file=findings.json|digest.md|releases.json|releases.md
  * GET  /console/static/console.css
  * GET  /console/login, POST /console/login        fields name, password, csrf, next
  * POST /console/logout                            field csrf
@@ -332,11 +333,14 @@ public final class ConsoleApp {
      * run itself uses, so the download is the file the run wrote beside its findings.
      */
     private Reply download(Request request, Fields query, Session session, Chrome chrome) throws Exception {
-        String file = choice(query, "file", List.of("findings.json", "digest.md"));
+        String file = choice(query, "file", List.of("findings.json", "digest.md", "releases.json", "releases.md"));
         if (file == null) {
-            throw new BadRequest("file: expected one of findings.json, digest.md");
+            throw new BadRequest("file: expected one of findings.json, digest.md, releases.json, releases.md");
         }
         Optional<ConsoleReads.WaveView> v = waveView(query, chrome);
+        if (file.startsWith("releases.")) {
+            return releaseDownload(v, file, chrome);
+        }
         Optional<FindingsReport> report = v.filter(w -> w.runId() != 0).flatMap(w -> store.storedReport(w.runId()));
         if (report.isEmpty()) {
             return html(404, Pages.problem(chrome, 404, "That wave has no judged run to download."));
@@ -348,6 +352,24 @@ public final class ConsoleApp {
                 : MarkdownDigest.render(List.of(r));
         // The name is made by the output folder's rules, so a label never reaches the header as it is.
         String name = OutputPaths.name(r.dataset()) + "_" + OutputPaths.name(r.wave()) + "_" + file;
+        return Reply.of(200, json ? "application/json; charset=utf-8" : "text/markdown; charset=utf-8", body)
+                .with("Content-Disposition", "attachment; filename=\"" + name + "\"");
+    }
+
+    /**
+     * The wave's latest release comparison as stored when it was made: {@code releases.md} byte for byte as written,
+     * {@code releases.json} with the same content (PostgreSQL keeps it as jsonb, so it is laid out again here).
+     */
+    private Reply releaseDownload(Optional<ConsoleReads.WaveView> v, String file, Chrome chrome) throws Exception {
+        Optional<ReleaseComparisons.Stored> latest = v.flatMap(w -> w.releaseComparisons().stream().findFirst());
+        if (latest.isEmpty()) {
+            return html(404, Pages.problem(chrome, 404, "That wave has no release comparison to download."));
+        }
+        ReleaseComparisons.Stored c = latest.get();
+        boolean json = file.equals("releases.json");
+        String body = json ? Json.mapper().writer().with(SerializationFeature.INDENT_OUTPUT)
+                .writeValueAsString(Json.mapper().readTree(c.reportJson())) + "\n" : c.markdown();
+        String name = OutputPaths.name(c.dataset()) + "_" + OutputPaths.name(c.wave()) + "_" + file;
         return Reply.of(200, json ? "application/json; charset=utf-8" : "text/markdown; charset=utf-8", body)
                 .with("Content-Disposition", "attachment; filename=\"" + name + "\"");
     }

@@ -29,12 +29,21 @@ public final class ReleaseDigest {
         try {
             Files.createDirectories(dir);
             Path json = dir.resolve("releases.json");
-            Files.writeString(json, Json.mapper().writer().with(com.fasterxml.jackson.databind.SerializationFeature
-                    .INDENT_OUTPUT).writeValueAsString(report) + "\n", StandardCharsets.UTF_8);
+            Files.writeString(json, json(report), StandardCharsets.UTF_8);
             Files.writeString(dir.resolve("releases.md"), markdown(report), StandardCharsets.UTF_8);
             return json;
         } catch (IOException e) {
             throw new UncheckedIOException("cannot write the release comparison to " + dir, e);
+        }
+    }
+
+    /** The content of {@code releases.json}, as written to the file and stored with the comparison. */
+    public static String json(ReleaseReport report) {
+        try {
+            return Json.mapper().writer().with(com.fasterxml.jackson.databind.SerializationFeature.INDENT_OUTPUT)
+                    .writeValueAsString(report) + "\n";
+        } catch (com.fasterxml.jackson.core.JsonProcessingException e) {
+            throw new IllegalStateException("the release comparison cannot be written as JSON", e);
         }
     }
 

@@ -12,6 +12,7 @@ import org.wavewarden.deliver.Cautions;
 import org.wavewarden.deliver.FindingsFiles;
 import org.wavewarden.deliver.ReleaseDigest;
 import org.wavewarden.deliver.ReleaseReport;
+import org.wavewarden.deliver.ToolVersion;
 import org.wavewarden.missing.ScreenedWave;
 import org.wavewarden.missing.VariableInference;
 import org.wavewarden.read.KeyedPairReader;
@@ -21,6 +22,7 @@ import org.wavewarden.read.SourceColumn;
 import org.wavewarden.read.WaveInfo;
 import org.wavewarden.read.WaveScanner;
 import org.wavewarden.read.WaveSource;
+import org.wavewarden.store.ReleaseComparisons;
 
 import java.nio.file.Path;
 import java.time.Clock;
@@ -34,8 +36,9 @@ import java.util.stream.Collectors;
 /**
  * Compares two publications of one wave: finds them (two values of the release column, or the previous table
  * beside the dataset's own), reads both in one statement matched by respondent key, and judges the two releases'
- * distributions exactly as two waves are judged. Nothing is written to the results schema: a release comparison
- * is an audit of the publication, not a run of the monitor.
+ * distributions exactly as two waves are judged. A release comparison is an audit of the publication, not a run of
+ * the monitor: it makes no run, finding or alert, but it is kept in the results schema's {@code release_comparison}
+ * (with the {@code releases.json} and {@code releases.md} written for it), so the console can show it.
  */
 public final class ReleaseJudge {
 
@@ -76,6 +79,11 @@ public final class ReleaseJudge {
                     : previousTableSides(d, key, source, wave, release, againstRelease);
             return compare(h, d, key, wave, sides, progress);
         });
+        // Every comparison is kept, with the very texts its files get, before the files are written: a stored row
+        // without files is a comparison the console can still hand out; files without a row would be one it cannot.
+        session.migrate();
+        new ReleaseComparisons(session.store().jdbi(), cfg.results().schema()).save(report,
+                ReleaseDigest.json(report), ReleaseDigest.markdown(report), ToolVersion.current());
         if (outDir != null) {
             ReleaseDigest.write(outDir, report);
         }

@@ -145,14 +145,26 @@ public final class ConsoleReads {
      * @param alerts      the alerts of the current run (all states)
      * @param signOffs    every sign-off of the wave, oldest first
      * @param leadFinding each alert's lead finding (alert id to finding id), for links to the finding pages
+     * @param releaseComparisons the comparisons of the wave's publications, latest first (none for a wave published
+     *                    once)
      */
     public record WaveView(String dataset, String wave, String againstWave, long runId, Instant judgedAt,
                            String configFingerprint, String toolVersion, int findings, List<AlertView> alerts,
-                           List<SignOff> signOffs, Map<Long, Long> leadFinding) {
+                           List<SignOff> signOffs, Map<Long, Long> leadFinding,
+                           List<ReleaseComparisons.Stored> releaseComparisons) {
         public WaveView {
             alerts = List.copyOf(alerts);
             signOffs = List.copyOf(signOffs);
             leadFinding = leadFinding == null ? Map.of() : Map.copyOf(leadFinding);
+            releaseComparisons = releaseComparisons == null ? List.of() : List.copyOf(releaseComparisons);
+        }
+
+        /** A wave without release comparisons. */
+        public WaveView(String dataset, String wave, String againstWave, long runId, Instant judgedAt,
+                        String configFingerprint, String toolVersion, int findings, List<AlertView> alerts,
+                        List<SignOff> signOffs, Map<Long, Long> leadFinding) {
+            this(dataset, wave, againstWave, runId, judgedAt, configFingerprint, toolVersion, findings, alerts,
+                    signOffs, leadFinding, List.of());
         }
 
         /** A wave without links from its alerts to their findings. */
@@ -357,8 +369,8 @@ public final class ConsoleReads {
     }
 
     /**
-     * A wave with its current run's alerts and every sign-off: three statements. Empty when the wave has neither a
-     * current run nor a sign-off.
+     * A wave with its current run's alerts, every sign-off and every release comparison: five statements. Empty when
+     * the wave has neither a current run, a sign-off nor a release comparison.
      */
     public Optional<WaveView> wave(String dataset, String wave) {
         return jdbi.withHandle(h -> {
@@ -386,7 +398,13 @@ public final class ConsoleReads {
                     .bind("d", dataset).bind("w", wave)
                     .map((rs, ctx) -> SignOffs.signOff(rs))
                     .list();
-            if (current.isEmpty() && signOffs.isEmpty()) {
+            List<ReleaseComparisons.Stored> comparisons = h.createQuery("SELECT " + ReleaseComparisons.COLUMNS
+                            + " FROM " + s + ".release_comparison WHERE dataset = :d AND wave = :w"
+                            + " ORDER BY comparison_id DESC")
+                    .bind("d", dataset).bind("w", wave)
+                    .map((rs, ctx) -> ReleaseComparisons.stored(rs))
+                    .list();
+            if (current.isEmpty() && signOffs.isEmpty() && comparisons.isEmpty()) {
                 return Optional.<WaveView>empty();
             }
             Map<String, Object> r = current.orElse(Map.of());
@@ -395,7 +413,8 @@ public final class ConsoleReads {
                     r.isEmpty() ? 0 : ((Number) r.get("run_id")).longValue(),
                     finished == null ? null : ((java.sql.Timestamp) finished).toInstant(),
                     (String) r.get("config_fingerprint"), (String) r.get("tool_version"),
-                    r.isEmpty() ? 0 : ((Number) r.get("findings_count")).intValue(), alerts, signOffs, leads));
+                    r.isEmpty() ? 0 : ((Number) r.get("findings_count")).intValue(), alerts, signOffs, leads,
+                    comparisons));
         });
     }
 

@@ -97,8 +97,8 @@ class ConsoleReadsStatementCountTest {
             "grid filtered,         3",
             "finding with an alert, 4",
             "finding unknown,       1",
-            "wave,                  4",
-            "wave unknown,          4",
+            "wave,                  5",
+            "wave unknown,          5",
             "search,                1",
     })
     void aReadSendsTheSameStatementsOnASmallAndALargeHistory(String page, int expected) {

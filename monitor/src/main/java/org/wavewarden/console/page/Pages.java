@@ -15,6 +15,7 @@ import org.wavewarden.review.ReviewReason;
 import org.wavewarden.review.Role;
 import org.wavewarden.review.SignOff;
 import org.wavewarden.store.ConsoleReads;
+import org.wavewarden.store.ReleaseComparisons;
 
 import java.io.IOException;
 import java.io.InputStream;
@@ -455,7 +456,8 @@ public final class Pages {
     /**
      * {@code GET /console/wave}: sections {@code #alerts-open}, {@code #alerts-explained}, {@code #alerts-muted},
      * {@code #alerts-superseded}; {@code #signoff-record}; form {@code #signoff-form} for a releaser;
-     * {@code #downloads}. {@code refusal}, when not null, says why a sign-off was just refused (shown in
+     * {@code #release-comparison} when the wave was published more than once and compared; {@code #downloads}.
+     * {@code refusal}, when not null, says why a sign-off was just refused (shown in
      * {@code #refusal}).
      */
     public static String wave(Chrome chrome, ConsoleReads.WaveView wave, String refusal) {
@@ -534,6 +536,8 @@ public final class Pages {
                     .append("<button type=\"submit\">Sign off</button></form>\n");
         }
 
+        releaseComparisons(h, wave);
+
         h.append("<section id=\"downloads\" aria-labelledby=\"downloads-title\"><h2 id=\"downloads-title\">")
                 .append("Downloads</h2><ul>");
         for (String file : List.of("findings.json", "digest.md")) {
@@ -597,6 +601,48 @@ public final class Pages {
             h.append(String.join(", ", parts)).append("</td></tr>");
         }
         h.append("</tbody></table></section>\n");
+    }
+
+    /**
+     * Section {@code #release-comparison}: every comparison of the wave's publications (table
+     * {@code #release-comparisons}, latest first, with its counts), the latest one's {@code releases.md} as
+     * preformatted text ({@code #release-markdown}, escaped: it carries labels and cell values from the data, so it
+     * is text here, never markup) and links to its two files. Absent for a wave published once.
+     */
+    private static void releaseComparisons(StringBuilder h, ConsoleReads.WaveView wave) {
+        List<ReleaseComparisons.Stored> comparisons = wave.releaseComparisons();
+        if (comparisons.isEmpty()) {
+            return;
+        }
+        h.append("<section id=\"release-comparison\" aria-labelledby=\"release-title\"><h2 id=\"release-title\">")
+                .append("Release comparison</h2>\n");
+        h.append("<div class=\"scroll\"><table id=\"release-comparisons\"><thead><tr>")
+                .append("<th scope=\"col\">Release</th><th scope=\"col\">Against</th><th scope=\"col\">Compared at</th>")
+                .append("<th scope=\"col\">Rows before</th><th scope=\"col\">Rows after</th>")
+                .append("<th scope=\"col\">Matched</th><th scope=\"col\">Added</th><th scope=\"col\">Removed</th>")
+                .append("<th scope=\"col\">Cells compared</th><th scope=\"col\">Cells changed</th>")
+                .append("<th scope=\"col\">Variables changed</th><th scope=\"col\">Tool version</th>")
+                .append("</tr></thead><tbody>");
+        for (ReleaseComparisons.Stored c : comparisons) {
+            h.append("<tr><td>").append(esc(c.release())).append("</td><td>").append(esc(c.againstRelease()))
+                    .append("</td><td>").append(when(c.comparedAt())).append("</td>");
+            for (long n : new long[]{c.rowsBefore(), c.rowsAfter(), c.matched(), c.rowsAdded(), c.rowsRemoved(),
+                    c.cellsCompared(), c.cellsChanged(), c.variablesChanged()}) {
+                h.append("<td class=\"num\">").append(n).append("</td>");
+            }
+            h.append("<td>").append(esc(c.toolVersion() == null ? "unknown" : c.toolVersion())).append("</td></tr>");
+        }
+        h.append("</tbody></table></div>\n");
+        ReleaseComparisons.Stored latest = comparisons.get(0);
+        h.append("<h3 id=\"release-markdown-title\">The latest comparison as written to releases.md</h3>\n")
+                .append("<div class=\"scroll\"><pre id=\"release-markdown\" aria-labelledby=\"release-markdown-title\">")
+                .append(esc(latest.markdown())).append("</pre></div>\n<ul>");
+        for (String file : List.of("releases.md", "releases.json")) {
+            h.append("<li><a href=\"/console/download?dataset=").append(q(wave.dataset())).append("&amp;wave=")
+                    .append(q(wave.wave())).append("&amp;file=").append(file).append("\">").append(file)
+                    .append(" of the latest comparison</a></li>");
+        }
+        h.append("</ul></section>\n");
     }
 
     /** {@code GET /console/search}: table {@code #search-results}. */
