@@ -11,6 +11,7 @@ import org.wavewarden.config.WardenConfig;
 import org.wavewarden.deliver.Cautions;
 import org.wavewarden.deliver.Json;
 import org.wavewarden.deliver.ReleaseReport;
+import org.wavewarden.store.ReleaseComparisons;
 import org.wavewarden.testing.CliRun;
 import org.wavewarden.testing.TestDatabase;
 
@@ -233,6 +234,29 @@ class ReleaseJudgeIntegrationTest {
         assertTrue(md.contains("| remark | 1 | 22 | 4.5% | 0 | 0 | 9: 'late\\tshift' → 'late shift' |"), md);
         assertTrue(md.contains("| region | 2 | 22 | 9.1% | 1 | 0 | 5: 'north' → 'south'; 11: 'east' → NULL |"),
                 md);
+    }
+
+    @Test
+    void everyComparisonIsKeptInTheResultsSchemaTheLatestReadFirst() throws Exception {
+        WardenConfig cfg = ConfigLoader.load(config);
+        try (Session s = Session.open(cfg, null, Map.of())) {
+            s.migrate();
+            ReleaseComparisons kept = new ReleaseComparisons(s.store().jdbi(), "rel_results");
+            int before = kept.all("pub", "w1").size();
+            JsonNode first = releases("pub", "w1");
+            JsonNode second = releases("pub", "w1", "--release", "2", "--against", "1");
+            List<ReleaseComparisons.Stored> all = kept.all("pub", "w1");
+            // Comparing the same releases again is another comparison, kept beside the first.
+            assertEquals(before + 2, all.size());
+            ReleaseComparisons.Stored latest = kept.latest("pub", "w1").orElseThrow();
+            assertEquals(all.get(0), latest);
+            assertTrue(latest.comparisonId() > all.get(1).comparisonId());
+            assertEquals(first.get("after").asText(), all.get(1).release());
+            assertEquals(List.of("release 2", "release 1", 24L, 25L, 22L, 3L, 2L),
+                    List.of(latest.release(), latest.againstRelease(), latest.rowsBefore(), latest.rowsAfter(),
+                            latest.matched(), latest.rowsAdded(), latest.rowsRemoved()));
+            assertEquals(second, Json.mapper().readTree(latest.reportJson()));
+        }
     }
 
     @Test
