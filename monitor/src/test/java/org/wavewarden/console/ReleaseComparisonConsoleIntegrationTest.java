@@ -11,6 +11,7 @@ import org.w3c.dom.Document;
 import org.w3c.dom.Element;
 import org.w3c.dom.NodeList;
 import org.wavewarden.config.ConsoleConfig;
+import org.wavewarden.config.Identifiers;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.console.auth.ConsoleAuth;
 import org.wavewarden.daemon.Router;
@@ -76,6 +77,8 @@ class ReleaseComparisonConsoleIntegrationTest {
     static Map<String, String> contentDisposition = new HashMap<>();
     static Map<String, SQLException> refusals = new HashMap<>();
     static long rowsAfterRefusals;
+    static int onceStatus;
+    static String oncePage;
 
     @BeforeAll
     static void runTheDemoAndReadItsReleaseComparisonThroughTheConsole() throws Exception {
@@ -119,6 +122,15 @@ class ReleaseComparisonConsoleIntegrationTest {
                 downloads.put(file, r.body());
                 contentDisposition.put(file, r.headers().firstValue("Content-Disposition").orElse(""));
             }
+            // A wave of the same panel published once: nothing to hand out.
+            String once = s.store().jdbi().withHandle(h -> h.createQuery("SELECT wave FROM "
+                            + Identifiers.quote(demo.results().schema()) + ".run WHERE dataset = :d AND wave <> :w"
+                            + " ORDER BY wave LIMIT 1")
+                    .bind("d", panel).bind("w", wave).mapTo(String.class).one());
+            onceStatus = b.get("/console/download?dataset=" + enc(panel) + "&wave=" + enc(once)
+                    + "&file=releases.md").statusCode();
+            oncePage = new String(b.get("/console/wave?dataset=" + enc(panel) + "&wave=" + enc(once)).body(),
+                    StandardCharsets.UTF_8);
         } finally {
             server.stop();
         }
@@ -200,6 +212,12 @@ class ReleaseComparisonConsoleIntegrationTest {
     void theJsonDownloadHasTheContentOfTheFileTheDemoWrote() throws Exception {
         assertEquals(JSON.readTree(Files.readAllBytes(releaseDir.resolve("releases.json"))),
                 JSON.readTree(downloads.get("releases.json")));
+    }
+
+    @Test
+    void aWavePublishedOnceHasNoComparisonToShowOrDownload() throws Exception {
+        assertEquals(404, onceStatus);
+        assertTrue(select(parse(oncePage), "section", "release-comparison").isEmpty());
     }
 
     @ParameterizedTest(name = "{0} is refused")
