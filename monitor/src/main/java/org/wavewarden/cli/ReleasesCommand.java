@@ -17,7 +17,7 @@ import java.util.concurrent.Callable;
 @Command(name = "releases", mixinStandardHelpOptions = true,
         description = "Compare two publications of one wave, respondent by respondent: rows added and removed,"
                 + " changed cells per variable, and the two releases' distributions; writes releases.json and"
-                + " releases.md.")
+                + " releases.md, and keeps the comparison in the results schema for the console's wave page.")
 final class ReleasesCommand implements Callable<Integer> {
 
     @Mixin
