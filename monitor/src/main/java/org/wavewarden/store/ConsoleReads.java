@@ -43,6 +43,7 @@ public final class ConsoleReads {
     private final Jdbi jdbi;
     private final String s;
     private final AlertReviews reviews;
+    private final ReleaseComparisons releases;
 
     public ConsoleReads(Jdbi jdbi, String schema) {
         this(jdbi, schema, Clock.systemUTC());
@@ -53,6 +54,7 @@ public final class ConsoleReads {
         this.jdbi = Objects.requireNonNull(jdbi, "jdbi");
         this.s = Identifiers.quote(Objects.requireNonNull(schema, "schema"));
         this.reviews = new AlertReviews(jdbi, schema, clock);
+        this.releases = new ReleaseComparisons(jdbi, schema);
     }
 
     /**
@@ -398,12 +400,7 @@ public final class ConsoleReads {
                     .bind("d", dataset).bind("w", wave)
                     .map((rs, ctx) -> SignOffs.signOff(rs))
                     .list();
-            List<ReleaseComparisons.Stored> comparisons = h.createQuery("SELECT " + ReleaseComparisons.COLUMNS
-                            + " FROM " + s + ".release_comparison WHERE dataset = :d AND wave = :w"
-                            + " ORDER BY comparison_id DESC")
-                    .bind("d", dataset).bind("w", wave)
-                    .map((rs, ctx) -> ReleaseComparisons.stored(rs))
-                    .list();
+            List<ReleaseComparisons.Stored> comparisons = releases.ofWave(h, dataset, wave, Integer.MAX_VALUE);
             if (current.isEmpty() && signOffs.isEmpty() && comparisons.isEmpty()) {
                 return Optional.<WaveView>empty();
             }

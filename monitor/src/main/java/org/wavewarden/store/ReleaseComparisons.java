@@ -43,8 +43,7 @@ public final class ReleaseComparisons {
                          int variablesChanged, String reportJson, String markdown) {
     }
 
-    /** Columns read back, in one place for this class and the console's wave read. */
-    static final String COLUMNS = "comparison_id, dataset, wave, release, against_release, compared_at, tool_version,"
+    private static final String COLUMNS = "comparison_id, dataset, wave, release, against_release, compared_at, tool_version,"
             + " rows_before, rows_after, matched, rows_added, rows_removed, cells_compared, cells_changed,"
             + " variables_changed, report::text AS report_text, markdown";
 
@@ -81,7 +80,7 @@ public final class ReleaseComparisons {
         return jdbi.withHandle(h -> ofWave(h, dataset, wave, Integer.MAX_VALUE));
     }
 
-    /** The wave's comparisons, latest first, at most {@code limit}: one statement. */
+    /** The wave's comparisons, latest first, at most {@code limit}: one statement (the console's wave read too). */
     List<Stored> ofWave(Handle h, String dataset, String wave, int limit) {
         return h.createQuery("SELECT " + COLUMNS + " FROM " + s + ".release_comparison WHERE dataset = :d AND wave = :w"
                         + " ORDER BY comparison_id DESC LIMIT :limit")
@@ -90,7 +89,7 @@ public final class ReleaseComparisons {
                 .list();
     }
 
-    static Stored stored(ResultSet rs) throws SQLException {
+    private static Stored stored(ResultSet rs) throws SQLException {
         return new Stored(rs.getLong("comparison_id"), rs.getString("dataset"), rs.getString("wave"),
                 rs.getString("release"), rs.getString("against_release"),
                 rs.getObject("compared_at", OffsetDateTime.class).toInstant(), rs.getString("tool_version"),
