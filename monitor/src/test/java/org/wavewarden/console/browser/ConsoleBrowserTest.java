@@ -525,28 +525,56 @@ class ConsoleBrowserTest {
         shoot("/console", "console-overview.png");
         shoot("/console/dataset?name=" + enc(DATASET), "console-grid.png");
         shoot(findingPath, "console-finding.png");
-        driver.manage().window().setSize(new Dimension(1280, 900));
     }
 
-    /** The page at 1280 px wide and as tall as its content (up to a limit), as a PNG. */
+    /**
+     * The page at 1280 CSS pixels wide and as tall as its content (up to a limit that keeps a long grid readable),
+     * as a PNG: the browser is told the viewport's size outright, since a window's outer size in headless mode
+     * includes a frame whose height the page does not get.
+     */
     void shoot(String pathQuery, String name) throws Exception {
-        driver.manage().window().setSize(new Dimension(1280, 900));
         open(pathQuery);
         noConsoleErrors();
         long height = (Long) ((JavascriptExecutor) driver).executeScript(
                 "return Math.ceil(document.documentElement.scrollHeight);");
-        // The window's outer height includes no browser frame when headless; the limit keeps a long grid readable.
-        driver.manage().window().setSize(new Dimension(1280, (int) Math.min(Math.max(height, 600), 2400)));
-        byte[] png = driver.getScreenshotAs(OutputType.BYTES);
-        Path file = SHOTS.resolve(name);
-        Files.write(file, png);
-        BufferedImage image = ImageIO.read(file.toFile());
-        assertNotNull(image, name + " is a PNG");
-        assertEquals(1280, image.getWidth(), name + " is 1280 px wide");
+        driver.executeCdpCommand("Emulation.setDeviceMetricsOverride", Map.of("width", 1280,
+                "height", (int) Math.min(height, 3000), "deviceScaleFactor", 1, "mobile", false));
+        try {
+            byte[] png = driver.getScreenshotAs(OutputType.BYTES);
+            Path file = SHOTS.resolve(name);
+            Files.write(file, png);
+            BufferedImage image = ImageIO.read(file.toFile());
+            assertNotNull(image, name + " is a PNG");
+            assertEquals(1280, image.getWidth(), name + " is 1280 px wide");
+            assertEquals(Math.min(height, 3000), image.getHeight(), name + " holds the whole page");
+        } finally {
+            driver.executeCdpCommand("Emulation.clearDeviceMetricsOverride", Map.of());
+        }
+        noConsoleErrors();
     }
 
     @Test
     @Order(12)
+    void theConsoleCheckSeesAPolicyViolationWhenThereIsOne() {
+        // The check above would pass vacuously if the browser's log never reached it: an inline style attribute,
+        // which the console's policy refuses, must show up in the log as SEVERE.
+        open("/console");
+        noConsoleErrors();
+        ((JavascriptExecutor) driver).executeScript(
+                "document.querySelector('main').insertAdjacentHTML('beforeend', '<p style=\\'color: red\\'>x</p>');");
+        List<String> severe = new ArrayList<>();
+        long until = System.nanoTime() + TimeUnit.SECONDS.toNanos(10);
+        while (severe.isEmpty() && System.nanoTime() < until) {
+            driver.manage().logs().get(LogType.BROWSER).getAll().stream()
+                    .filter(e -> e.getLevel().intValue() >= Level.SEVERE.intValue())
+                    .forEach(e -> severe.add(e.getMessage()));
+        }
+        assertTrue(severe.stream().anyMatch(m -> m.contains("Content Security Policy")),
+                "an inline style is reported as a policy violation: " + severe);
+    }
+
+    @Test
+    @Order(13)
     void everyPageVisitedWasChecked() {
         // Each kind of page the steps pass through was loaded and checked for console errors at least once.
         for (String p : List.of("/console/login", "/console?", "/console/dataset", "/console/finding",
