@@ -9,6 +9,8 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.TestInstance;
 import org.junit.jupiter.api.TestMethodOrder;
 import org.junit.jupiter.api.io.TempDir;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.ValueSource;
 import org.openqa.selenium.By;
 import org.openqa.selenium.Cookie;
 import org.openqa.selenium.Dimension;
@@ -507,6 +509,10 @@ class ConsoleBrowserTest {
         WebElement first = driver.switchTo().activeElement();
         assertEquals("Skip to content", first.getText().strip());
         assertTrue(first.getAttribute("href").endsWith("#main"), first.getAttribute("href"));
+        // Focused, the skip link comes on screen and shows where the focus is.
+        assertTrue(first.getLocation().getX() >= 0 && first.getLocation().getY() >= 0, "on screen at "
+                + first.getLocation());
+        assertEquals("solid", first.getCssValue("outline-style"), "the focus is visible");
 
         String datasetLink = "/console/dataset?name=" + enc(DATASET);
         int tabs = 0;
@@ -556,8 +562,32 @@ class ConsoleBrowserTest {
         noConsoleErrors();
     }
 
-    @Test
+    /**
+     * At 1280 px and on a narrow laptop's 1024 px no page scrolls sideways as a whole: the page keeps to its width
+     * and only a wide table scrolls inside its own box.
+     */
+    @ParameterizedTest(name = "{0} px wide")
+    @ValueSource(ints = {1280, 1024})
     @Order(12)
+    void noPageScrollsSidewaysAtALaptopsWidth(int width) {
+        try {
+            driver.executeCdpCommand("Emulation.setDeviceMetricsOverride", Map.of("width", width, "height", 800,
+                    "deviceScaleFactor", 1, "mobile", false));
+            for (String p : List.of("/console", "/console/dataset?name=" + enc(DATASET), findingPath, wavePath(),
+                    "/console/search?q=income")) {
+                open(p);
+                noConsoleErrors();
+                long scrollWidth = (Long) ((JavascriptExecutor) driver).executeScript(
+                        "return document.documentElement.scrollWidth;");
+                assertTrue(scrollWidth <= width, p + " is " + scrollWidth + " px wide in a " + width + " px window");
+            }
+        } finally {
+            driver.executeCdpCommand("Emulation.clearDeviceMetricsOverride", Map.of());
+        }
+    }
+
+    @Test
+    @Order(13)
     void theConsoleCheckSeesAPolicyViolationWhenThereIsOne() {
         // The check above would pass vacuously if the browser's log never reached it: an inline style attribute,
         // which the console's policy refuses, must show up in the log as SEVERE.
@@ -577,11 +607,11 @@ class ConsoleBrowserTest {
     }
 
     @Test
-    @Order(13)
+    @Order(14)
     void everyPageVisitedWasChecked() {
         // Each kind of page the steps pass through was loaded and checked for console errors at least once.
         for (String p : List.of("/console/login", "/console?", "/console/dataset", "/console/finding",
-                "/console/wave", "/console/signoff", "/console/alert/explain")) {
+                "/console/wave", "/console/search", "/console/signoff", "/console/alert/explain")) {
             assertTrue(pagesVisited.stream().anyMatch(v -> (v + "?").startsWith(p)), p + " in " + pagesVisited);
         }
     }
