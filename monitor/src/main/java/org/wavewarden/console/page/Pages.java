@@ -753,6 +753,7 @@ public final class Pages {
         h.append("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\" />\n")
                 .append("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\" />\n<title>")
                 .append(esc(title)).append(" &#8211; Wavewarden console</title>\n")
+                .append("<link rel=\"icon\" href=\"data:,\" />\n") // else the browser asks /favicon.ico: a 404
                 .append("<link rel=\"stylesheet\" href=\"/console/static/console.css\" />\n</head>\n<body>\n")
                 .append("<a class=\"skip\" href=\"#main\">Skip to content</a>\n<header class=\"top\">")
                 .append("<a class=\"brand\" href=\"/console\">Wavewarden</a>");
