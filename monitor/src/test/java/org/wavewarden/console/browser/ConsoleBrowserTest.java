@@ -420,10 +420,11 @@ class ConsoleBrowserTest {
         assertEquals("real-change", action.get("reason"));
         assertEquals(EXPLAIN_NOTE, action.get("note"));
 
-        Map<String, Object> signOff = jdbi.withHandle(h -> h.createQuery("SELECT actor, wave, release, forced,"
-                        + " force_reason FROM " + schema + ".sign_off WHERE dataset = :d")
+        Map<String, Object> signOff = jdbi.withHandle(h -> h.createQuery("SELECT actor, source, wave, release,"
+                        + " forced, force_reason FROM " + schema + ".sign_off WHERE dataset = :d")
                 .bind("d", DATASET).mapToMap().one());
         assertEquals(RELEASER, signOff.get("actor"));
+        assertEquals(ConsoleApp.SOURCE, signOff.get("source"));
         assertEquals(wave, signOff.get("wave"));
         assertEquals("", signOff.get("release"));
         assertEquals(forced, signOff.get("forced"));
