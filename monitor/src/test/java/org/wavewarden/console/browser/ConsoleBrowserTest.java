@@ -26,6 +26,7 @@ import org.openqa.selenium.logging.LogEntry;
 import org.openqa.selenium.logging.LogType;
 import org.openqa.selenium.logging.LoggingPreferences;
 import org.openqa.selenium.support.ui.Select;
+import org.openqa.selenium.support.ui.WebDriverWait;
 import org.wavewarden.config.ConsoleConfig;
 import org.wavewarden.config.WardenConfig;
 import org.wavewarden.console.ConsoleApp;
@@ -227,6 +228,19 @@ class ConsoleBrowserTest {
         return driver.findElement(By.cssSelector(css));
     }
 
+    /**
+     * The notice of the page a form's submission led to, once that page has loaded (on a busy machine the click
+     * returns before the next page is there); a refusal or problem page instead fails with its words.
+     */
+    String notice() {
+        new WebDriverWait(driver, Duration.ofSeconds(30)).until(d -> present("#notice") || present("#refusal")
+                || present("#problem"));
+        if (!present("#notice")) {
+            fail("the form was not carried out: " + driver.findElement(By.tagName("main")).getText());
+        }
+        return find("#notice").getText();
+    }
+
     boolean present(String css) {
         return !driver.findElements(By.cssSelector(css)).isEmpty();
     }
@@ -362,7 +376,7 @@ class ConsoleBrowserTest {
         find("#explain-note").sendKeys(EXPLAIN_NOTE);
         find("#explain-form button[type=submit]").click();
 
-        assertEquals("The alert was explained.", find("#notice").getText());
+        assertEquals("The alert was explained.", notice());
         String history = find("#history").getText();
         assertTrue(history.contains(RELEASER) && history.contains(EXPLAIN_NOTE), "the history shows the entry: "
                 + history);
@@ -391,7 +405,7 @@ class ConsoleBrowserTest {
         System.out.println("signed off wave " + wave + " of " + DATASET + (forced ? " by force: a MATERIAL alert"
                 + " was still open" : " without force: no MATERIAL alert was left open"));
 
-        assertEquals("The wave was signed off.", find("#notice").getText());
+        assertEquals("The wave was signed off.", notice());
         String record = find("#signoff-record tbody").getText();
         assertTrue(record.contains(RELEASER), record);
         assertTrue(forced ? record.contains("forced: " + FORCE_REASON) : record.contains(" no "), record);
