@@ -31,8 +31,8 @@ import java.util.function.BiConsumer;
 import java.util.function.Function;
 
 @Command(name = "alerts", mixinStandardHelpOptions = true,
-        description = "What people concluded about alerts: list them with their states, explain, mute or unmute one,"
-                + " and show its history. Every action is recorded with the acting person and never changed.",
+        description = "What people concluded about alerts: list them with their states, explain, mute, unmute or reopen"
+                + " one, and show its history. Every action is recorded with the acting person and never changed.",
         subcommands = {AlertsCommand.ListAlerts.class, AlertsCommand.Explain.class, AlertsCommand.Mute.class,
                 AlertsCommand.Unmute.class, AlertsCommand.Reopen.class, AlertsCommand.History.class})
 final class AlertsCommand implements Runnable {
@@ -191,27 +191,41 @@ final class AlertsCommand implements Runnable {
         }
     }
 
-    @Command(name = "explain", mixinStandardHelpOptions = true,
-            description = "Give the reason for an open or muted alert; it is explained from now on.")
-    static final class Explain implements Callable<Integer> {
+    /**
+     * An action a person takes on one alert: the configuration, the alert's id and the acting person are read alike
+     * by every such command, and {@link #review} takes the action and prints the result.
+     */
+    abstract static class OnOneAlert implements Callable<Integer> {
         @Mixin
         ConfigOption config;
         @Parameters(index = "0", paramLabel = "ID", description = "the alert, as 'alerts list' shows it")
         long id;
-        @Option(names = "--reason", required = true, paramLabel = "KEY", converter = ReasonConverter.class,
-                description = "planned-change, fix-upstream, real-change or no-problem")
-        ReviewReason reason;
-        @Option(names = "--note", paramLabel = "TEXT", description = "what was found, in words")
-        String note;
         @Mixin
         ActorOption actor;
         @picocli.CommandLine.Spec
         picocli.CommandLine.Model.CommandSpec spec;
 
+        /** The action, given the alert and the person. */
+        abstract ReviewEntry take(Acting a);
+
         @Override
         public Integer call() {
-            return review(config, spec, actor, id,
-                    a -> a.reviews().explain(a.alert().alertId(), a.actor(), reason, note, SOURCE));
+            return review(config, spec, actor, id, this::take);
+        }
+    }
+
+    @Command(name = "explain", mixinStandardHelpOptions = true,
+            description = "Give the reason for an open or muted alert; it is explained from now on.")
+    static final class Explain extends OnOneAlert {
+        @Option(names = "--reason", required = true, paramLabel = "KEY", converter = ReasonConverter.class,
+                description = "planned-change, fix-upstream, real-change or no-problem")
+        ReviewReason reason;
+        @Option(names = "--note", paramLabel = "TEXT", description = "what was found, in words")
+        String note;
+
+        @Override
+        ReviewEntry take(Acting a) {
+            return a.reviews().explain(a.alert().alertId(), a.actor(), reason, note, SOURCE);
         }
     }
 
@@ -219,11 +233,7 @@ final class AlertsCommand implements Runnable {
             description = "Mute an alert until a wave or a day (or both: whichever comes first). A muted alert is"
                     + " recorded and shown in the digest's muted section, never delivered; the same alert of a later"
                     + " wave is muted when it is raised, until the mute ends.")
-    static final class Mute implements Callable<Integer> {
-        @Mixin
-        ConfigOption config;
-        @Parameters(index = "0", paramLabel = "ID", description = "the alert, as 'alerts list' shows it")
-        long id;
+    static final class Mute extends OnOneAlert {
         @Option(names = "--until-wave", paramLabel = "WAVE", description = "the last wave muted")
         String untilWave;
         @Option(names = "--until-date", paramLabel = "DATE", description = "the last day muted, e.g. 2025-06-30")
@@ -233,10 +243,6 @@ final class AlertsCommand implements Runnable {
         ReviewReason reason;
         @Option(names = "--note", paramLabel = "TEXT", description = "why, in words")
         String note;
-        @Mixin
-        ActorOption actor;
-        @picocli.CommandLine.Spec
-        picocli.CommandLine.Model.CommandSpec spec;
 
         @Override
         public Integer call() {
@@ -251,12 +257,15 @@ final class AlertsCommand implements Runnable {
                         + " then would mute nothing");
                 return Main.USAGE;
             }
-            return review(config, spec, actor, id, a -> {
-                if (untilWave != null) {
-                    knownWave(a.session(), a.alert().dataset(), untilWave);
-                }
-                return a.reviews().mute(a.alert().alertId(), a.actor(), untilWave, untilDate, reason, note, SOURCE);
-            });
+            return super.call();
+        }
+
+        @Override
+        ReviewEntry take(Acting a) {
+            if (untilWave != null) {
+                knownWave(a.session(), a.alert().dataset(), untilWave);
+            }
+            return a.reviews().mute(a.alert().alertId(), a.actor(), untilWave, untilDate, reason, note, SOURCE);
         }
 
         /** With an explicit wave order, the last wave muted must be one of it (as in a configured mute rule). */
@@ -274,45 +283,27 @@ final class AlertsCommand implements Runnable {
     @Command(name = "unmute", mixinStandardHelpOptions = true,
             description = "Lift the mute of an alert: it is open again, and later waves' alerts are no longer muted"
                     + " by it.")
-    static final class Unmute implements Callable<Integer> {
-        @Mixin
-        ConfigOption config;
-        @Parameters(index = "0", paramLabel = "ID", description = "the alert, as 'alerts list' shows it")
-        long id;
+    static final class Unmute extends OnOneAlert {
         @Option(names = "--note", paramLabel = "TEXT", description = "why, in words")
         String note;
-        @Mixin
-        ActorOption actor;
-        @picocli.CommandLine.Spec
-        picocli.CommandLine.Model.CommandSpec spec;
 
         @Override
-        public Integer call() {
-            return review(config, spec, actor, id,
-                    a -> a.reviews().unmute(a.alert().alertId(), a.actor(), note, SOURCE));
+        ReviewEntry take(Acting a) {
+            return a.reviews().unmute(a.alert().alertId(), a.actor(), note, SOURCE);
         }
     }
 
     @Command(name = "reopen", mixinStandardHelpOptions = true,
             description = "Open an explained alert again, when its explanation no longer holds; the explanation stays"
                     + " in the history.")
-    static final class Reopen implements Callable<Integer> {
-        @Mixin
-        ConfigOption config;
-        @Parameters(index = "0", paramLabel = "ID", description = "the alert, as 'alerts list' shows it")
-        long id;
+    static final class Reopen extends OnOneAlert {
         @Option(names = "--note", required = true, paramLabel = "TEXT",
                 description = "why the explanation no longer holds, in words")
         String note;
-        @Mixin
-        ActorOption actor;
-        @picocli.CommandLine.Spec
-        picocli.CommandLine.Model.CommandSpec spec;
 
         @Override
-        public Integer call() {
-            return review(config, spec, actor, id,
-                    a -> a.reviews().reopen(a.alert().alertId(), a.actor(), note, SOURCE));
+        ReviewEntry take(Acting a) {
+            return a.reviews().reopen(a.alert().alertId(), a.actor(), note, SOURCE);
         }
     }
 
