@@ -29,13 +29,15 @@ import java.util.List;
  * @param codebook     optional codebook file whose variables are merged with {@code variables} (the YAML wins)
  * @param population   a sample (the default), or a census or full register judged by the size of change alone
  * @param alertRules   changes expected ahead and mute rules
+ * @param breakdowns   domain columns flagged variables are broken down by, and interviewer monitoring
  */
 public record DatasetConfig(String name, String table, String waveColumn, String tablePattern, WaveOrder waveOrder,
                             CompareWith compareWith, String schedule, List<String> exclude,
                             List<VariableConfig> variables, java.time.Duration quietPeriod, SinkSettings alerts,
                             String readyTable, String readyColumn, String weightColumn, String respondentKey,
                             ReleasesConfig releases, DesignColumns design, List<RelationshipConfig> relationships,
-                            CodebookSource codebook, Population population, AlertRules alertRules) {
+                            CodebookSource codebook, Population population, AlertRules alertRules,
+                            Breakdowns breakdowns) {
 
     public DatasetConfig {
         waveOrder = waveOrder == null ? WaveOrder.NATURAL : waveOrder;
@@ -47,6 +49,19 @@ public record DatasetConfig(String name, String table, String waveColumn, String
         relationships = relationships == null ? List.of() : List.copyOf(relationships);
         population = population == null ? Population.SAMPLE : population;
         alertRules = alertRules == null ? AlertRules.NONE : alertRules;
+        breakdowns = breakdowns == null ? Breakdowns.NONE : breakdowns;
+    }
+
+    /** A dataset without breakdowns. */
+    public DatasetConfig(String name, String table, String waveColumn, String tablePattern, WaveOrder waveOrder,
+                         CompareWith compareWith, String schedule, List<String> exclude,
+                         List<VariableConfig> variables, java.time.Duration quietPeriod, SinkSettings alerts,
+                         String readyTable, String readyColumn, String weightColumn, String respondentKey,
+                         ReleasesConfig releases, DesignColumns design, List<RelationshipConfig> relationships,
+                         CodebookSource codebook, Population population, AlertRules alertRules) {
+        this(name, table, waveColumn, tablePattern, waveOrder, compareWith, schedule, exclude, variables, quietPeriod,
+                alerts, readyTable, readyColumn, weightColumn, respondentKey, releases, design, relationships,
+                codebook, population, alertRules, null);
     }
 
     /** A sample dataset without alert rules. */
@@ -75,7 +90,7 @@ public record DatasetConfig(String name, String table, String waveColumn, String
     public DatasetConfig withVariables(List<VariableConfig> merged, CodebookSource source) {
         return new DatasetConfig(name, table, waveColumn, tablePattern, waveOrder, compareWith, schedule, exclude,
                 merged, quietPeriod, alerts, readyTable, readyColumn, weightColumn, respondentKey, releases, design,
-                relationships, source, population, alertRules);
+                relationships, source, population, alertRules, breakdowns);
     }
 
     /** A dataset without relationships. */

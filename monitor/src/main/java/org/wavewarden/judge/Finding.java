@@ -24,12 +24,30 @@ import com.fasterxml.jackson.annotation.JsonInclude;
  * @param fdrMethod     the adjustment that gave {@code qValue}, e.g. BENJAMINI_HOCHBERG
  * @param repeat        null for a finding that is news; otherwise why a finding worth a person raised no new alert
  *                      (it says what the previous wave's finding said)
+ * @param against       the baseline this finding used, when the dataset judges several alongside each other (for
+ *                      example "2024-Q1, the same wave 4 waves back"); null when the run has one baseline, named in
+ *                      the run's {@code againstWave}
+ * @param breakdowns    where the change happened: the variable's breakdown by each configured domain column; empty
+ *                      when none was made
  */
 @JsonInclude(JsonInclude.Include.ALWAYS)
 public record Finding(String variable, String label, FindingKind kind, String test, Double statistic, Double pValue,
                       Double qValue, Effect effect, Verdict verdict, Long nBaseline, Long nCurrent, String sentence,
                       Object detail, Double df, String dfConvention, Integer fdrFamilySize, String fdrMethod,
-                      Repeat repeat) {
+                      Repeat repeat, String against, java.util.List<org.wavewarden.compare.domain.Breakdown> breakdowns) {
+
+    public Finding {
+        breakdowns = breakdowns == null ? java.util.List.of() : java.util.List.copyOf(breakdowns);
+    }
+
+    /** A finding with its repeat, made against the run's one baseline and not broken down. */
+    public Finding(String variable, String label, FindingKind kind, String test, Double statistic, Double pValue,
+                   Double qValue, Effect effect, Verdict verdict, Long nBaseline, Long nCurrent, String sentence,
+                   Object detail, Double df, String dfConvention, Integer fdrFamilySize, String fdrMethod,
+                   Repeat repeat) {
+        this(variable, label, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline, nCurrent, sentence,
+                detail, df, dfConvention, fdrFamilySize, fdrMethod, repeat, null, null);
+    }
 
     /** An effect size as reported: estimate, interval and the threshold T it was judged against. */
     public record Effect(String name, double estimate, double ciLow, double ciHigh, double threshold) {
@@ -125,31 +143,43 @@ public record Finding(String variable, String label, FindingKind kind, String te
     /** The same finding with another sentence; every other field, the test's df and family included, is kept. */
     public Finding withSentence(String newSentence) {
         return new Finding(variable, label, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline,
-                nCurrent, newSentence, detail, df, dfConvention, fdrFamilySize, fdrMethod, repeat);
+                nCurrent, newSentence, detail, df, dfConvention, fdrFamilySize, fdrMethod, repeat, against, breakdowns);
     }
 
     /** The same finding with another detail; every other field is kept. */
     public Finding withDetail(Object newDetail) {
         return new Finding(variable, label, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline,
-                nCurrent, sentence, newDetail, df, dfConvention, fdrFamilySize, fdrMethod, repeat);
+                nCurrent, sentence, newDetail, df, dfConvention, fdrFamilySize, fdrMethod, repeat, against, breakdowns);
     }
 
     /** The same finding with the variable's label (null: none); every other field is kept. */
     public Finding withLabel(String variableLabel) {
         return new Finding(variable, variableLabel, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline,
-                nCurrent, sentence, detail, df, dfConvention, fdrFamilySize, fdrMethod, repeat);
+                nCurrent, sentence, detail, df, dfConvention, fdrFamilySize, fdrMethod, repeat, against, breakdowns);
     }
 
     /** The same finding marked as a repeat of the previous wave's (null: news); every other field is kept. */
     public Finding withRepeat(Repeat newRepeat) {
         return new Finding(variable, label, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline,
-                nCurrent, sentence, detail, df, dfConvention, fdrFamilySize, fdrMethod, newRepeat);
+                nCurrent, sentence, detail, df, dfConvention, fdrFamilySize, fdrMethod, newRepeat, against, breakdowns);
     }
 
     /** The same finding with another verdict (for example CLEARED); every other field is kept. */
     public Finding withVerdict(Verdict newVerdict) {
         return new Finding(variable, label, kind, test, statistic, pValue, qValue, effect, newVerdict, nBaseline,
-                nCurrent, sentence, detail, df, dfConvention, fdrFamilySize, fdrMethod, repeat);
+                nCurrent, sentence, detail, df, dfConvention, fdrFamilySize, fdrMethod, repeat, against, breakdowns);
+    }
+
+    /** The same finding naming the baseline it used (null: the run's one baseline); every other field is kept. */
+    public Finding withAgainst(String baseline) {
+        return new Finding(variable, label, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline,
+                nCurrent, sentence, detail, df, dfConvention, fdrFamilySize, fdrMethod, repeat, baseline, breakdowns);
+    }
+
+    /** The same finding with its breakdowns; every other field is kept. */
+    public Finding withBreakdowns(java.util.List<org.wavewarden.compare.domain.Breakdown> newBreakdowns) {
+        return new Finding(variable, label, kind, test, statistic, pValue, qValue, effect, verdict, nBaseline,
+                nCurrent, sentence, detail, df, dfConvention, fdrFamilySize, fdrMethod, repeat, against, newBreakdowns);
     }
 
     /** Ranking for digests and alerts: verdict first, then size of the effect relative to its threshold. */

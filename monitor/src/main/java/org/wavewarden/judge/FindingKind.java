@@ -57,6 +57,14 @@ public enum FindingKind {
     COLUMN_RETYPED,
     ALL_NULL,
     CONSTANT,
+    /**
+     * An interviewer whose answers of a variable stand out from every other interviewer's beyond chance (after
+     * false-discovery-rate control over the wave's interviewer tests): more missing or disguised-missing answers, or
+     * another distribution. A finding on the interviewer's work, with a case list.
+     */
+    INTERVIEWER_OUTLIER,
+    /** The intra-interviewer correlation of a variable lies above its threshold: answers cluster by interviewer. */
+    INTERVIEWER_EFFECT,
     /** More distinct values than the monitor keeps; the comparison was skipped or bounded. */
     TOO_MANY_DISTINCT,
     /** A variable that could not be compared this time, with the reason. */

@@ -326,7 +326,7 @@ public final class WaveJudge {
         return new DatasetConfig(d.name(), d.table(), d.waveColumn(), d.tablePattern(), d.waveOrder(),
                 d.compareWith(), d.schedule(), d.exclude(), merged.variables(), d.quietPeriod(), d.alerts(),
                 d.readyTable(), d.readyColumn(), d.weightColumn(), d.respondentKey(), d.releases(), d.design(),
-                d.relationships(), null, d.population(), d.alertRules());
+                d.relationships(), null, d.population(), d.alertRules(), d.breakdowns());
     }
 
     /**

@@ -22,15 +22,39 @@ import java.util.TreeMap;
  *                summaries stored before designs were read)
  * @param pairs   joint tallies of the configured pairs of numeric columns (relationship drift); empty in summaries
  *                stored before pairs were tallied
+ * @param domains the tallies of each configured breakdown column's domains, in configured order; empty without
+ *                breakdowns and in summaries stored before breakdowns were tallied
  */
 public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns,
-                          Map<String, Map<String, double[]>> weights, DesignSummary design, List<JointTally> pairs) {
+                          Map<String, Map<String, double[]>> weights, DesignSummary design, List<JointTally> pairs,
+                          List<DomainTally> domains) {
 
     public WaveProfile {
         schema = java.util.Collections.unmodifiableMap(new LinkedHashMap<>(schema));
         columns = java.util.Collections.unmodifiableMap(new LinkedHashMap<>(columns));
         weights = weights == null ? Map.of() : java.util.Collections.unmodifiableMap(new LinkedHashMap<>(weights));
         pairs = pairs == null ? List.of() : List.copyOf(pairs);
+        domains = domains == null ? List.of() : List.copyOf(domains);
+    }
+
+    /** A summary without domain tallies. */
+    public WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns,
+                       Map<String, Map<String, double[]>> weights, DesignSummary design, List<JointTally> pairs) {
+        this(wave, rows, schema, columns, weights, design, pairs, List.of());
+    }
+
+    /** The domain tallies of a breakdown column, if this summary holds them. */
+    public java.util.Optional<DomainTally> domains(String breakdownColumn) {
+        return domains.stream().filter(t -> t.column().equals(breakdownColumn)).findFirst();
+    }
+
+    /**
+     * One domain of a breakdown column as a summary of its own: the domain's rows, its tallies, weight sums and
+     * (with a design) its PSU sums over every PSU of the wave, so that every comparison and screening made on a
+     * whole wave can be made on a domain unchanged. Empty when the column or the domain is not held.
+     */
+    public java.util.Optional<WaveProfile> inDomain(String breakdownColumn, String domain) {
+        throw new UnsupportedOperationException("skeleton: profile owner implements");
     }
 
     public WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns) {

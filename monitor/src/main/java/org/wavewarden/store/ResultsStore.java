@@ -266,10 +266,11 @@ public final class ResultsStore {
         }
         PreparedBatch b = h.prepareBatch("INSERT INTO " + s + ".finding (run_id, variable, label, kind, test, statistic, p_value,"
                 + " q_value, effect_name, effect_estimate, effect_ci_low, effect_ci_high, effect_threshold, verdict,"
-                + " n_baseline, n_current, sentence, detail, df, df_convention, fdr_family_size, fdr_method, repeat) VALUES"
+                + " n_baseline, n_current, sentence, detail, df, df_convention, fdr_family_size, fdr_method, repeat,"
+                + " against, breakdowns) VALUES"
                 + " (:run, :variable, :label, :kind, :test, :statistic, :p, :q, :effectName, :estimate, :ciLow, :ciHigh,"
                 + " :threshold, :verdict, :nb, :nc, :sentence, CAST(:detail AS jsonb), :df, :dfConvention, :family,"
-                + " :fdrMethod, CAST(:repeat AS jsonb))");
+                + " :fdrMethod, CAST(:repeat AS jsonb), :against, CAST(:breakdowns AS jsonb))");
         for (Finding f : findings) {
             Finding.Effect e = f.effect();
             b.bind("run", runId).bind("variable", f.variable()).bind("label", f.label()).bind("kind", f.kind().name()).bind("test", f.test())
@@ -285,6 +286,8 @@ public final class ResultsStore {
                     .bind("df", f.df()).bind("dfConvention", f.dfConvention())
                     .bind("family", f.fdrFamilySize()).bind("fdrMethod", f.fdrMethod())
                     .bind("repeat", f.repeat() == null ? null : Json.write(f.repeat()))
+                    .bind("against", f.against())
+                    .bind("breakdowns", f.breakdowns().isEmpty() ? null : Json.write(f.breakdowns()))
                     .add();
         }
         b.execute();
@@ -317,7 +320,8 @@ public final class ResultsStore {
     private List<Finding> storedFindings(Handle h, long runId) {
         return h.createQuery("SELECT variable, label, kind, test, statistic, p_value, q_value, effect_name, effect_estimate,"
                         + " effect_ci_low, effect_ci_high, effect_threshold, verdict, n_baseline, n_current, sentence,"
-                        + " df, df_convention, fdr_family_size, fdr_method, repeat::text AS repeat, detail::text AS detail FROM " + s
+                        + " df, df_convention, fdr_family_size, fdr_method, repeat::text AS repeat, detail::text AS detail,"
+                        + " against, breakdowns::text AS breakdowns FROM " + s
                         + ".finding WHERE run_id = :run ORDER BY finding_id")
                 .bind("run", runId)
                 .map((rs, ctx) -> finding(rs, detail(FindingKind.valueOf(rs.getString("kind")),
@@ -342,7 +346,23 @@ public final class ResultsStore {
                 effect, verdict == null ? null : Verdict.valueOf(verdict), (Long) rs.getObject("n_baseline"),
                 (Long) rs.getObject("n_current"), rs.getString("sentence"), detail, (Double) rs.getObject("df"),
                 rs.getString("df_convention"), (Integer) rs.getObject("fdr_family_size"), rs.getString("fdr_method"),
-                repeat(rs));
+                repeat(rs), optionalText(rs, "against"), breakdowns(optionalText(rs, "breakdowns")));
+    }
+
+    /** A column of the result by its label, or null when the query did not select it. */
+    private static String optionalText(java.sql.ResultSet rs, String label) throws java.sql.SQLException {
+        java.sql.ResultSetMetaData meta = rs.getMetaData();
+        for (int i = 1; i <= meta.getColumnCount(); i++) {
+            if (meta.getColumnLabel(i).equals(label)) {
+                return rs.getString(i);
+            }
+        }
+        return null;
+    }
+
+    private static List<org.wavewarden.compare.domain.Breakdown> breakdowns(String json) {
+        return json == null ? List.of()
+                : List.of(Json.read(json, org.wavewarden.compare.domain.Breakdown[].class));
     }
 
     private static Finding.Repeat repeat(java.sql.ResultSet rs) throws java.sql.SQLException {
