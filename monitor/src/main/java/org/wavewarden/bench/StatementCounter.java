@@ -53,9 +53,9 @@ public final class StatementCounter implements SqlLogger {
 
     /** The scanner, counting its passes. */
     public WaveJudge.Scanner counting(WaveJudge.Scanner inner) {
-        return (h, source, wave, columns, weight, design, pairs, progress) -> {
+        return (h, source, wave, columns, weight, design, pairs, domains, progress) -> {
             copies.incrementAndGet();
-            return inner.scan(h, source, wave, columns, weight, design, pairs, progress);
+            return inner.scan(h, source, wave, columns, weight, design, pairs, domains, progress);
         };
     }
 

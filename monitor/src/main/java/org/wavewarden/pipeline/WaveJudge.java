@@ -105,9 +105,17 @@ public final class WaveJudge {
      */
     @FunctionalInterface
     public interface Scanner {
+        /** The scan with the domains of the dataset's breakdown columns tallied in the same pass. */
         WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
                                   SourceColumn weight, WaveScanner.Design design, List<PairSpec> pairs,
-                                  LongConsumer progress);
+                                  WaveScanner.Domains domains, LongConsumer progress);
+
+        /** The scan without breakdowns. */
+        default WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
+                                          SourceColumn weight, WaveScanner.Design design, List<PairSpec> pairs,
+                                          LongConsumer progress) {
+            return scan(h, source, wave, columns, weight, design, pairs, WaveScanner.Domains.NONE, progress);
+        }
     }
 
     /** Reads waves with the given scanner from now on; returns this judge. */
@@ -617,9 +625,22 @@ public final class WaveJudge {
         WaveScanner.Design design = d.design() == null ? null
                 : new WaveScanner.Design(column(all, d.design().strata()), column(all, d.design().clusters()));
         WaveScanner.WaveScan scan = scanner.scan(h, source, wave, monitored, weight, design, pairs(d, monitored),
-                progress);
+                domains(d, all), progress);
         return new WaveProfile(wave, scan.rows(), schema, scan.columns(), scan.weights(), scan.design(),
-                scan.pairs());
+                scan.pairs(), scan.domains());
+    }
+
+    /**
+     * The dataset's breakdown columns this wave's table has (monitored or excluded alike); a column missing from
+     * this wave's table has no domains in its summary.
+     */
+    static WaveScanner.Domains domains(DatasetConfig d, List<SourceColumn> all) {
+        if (d.breakdowns() == null || d.breakdowns().isEmpty()) {
+            return WaveScanner.Domains.NONE;
+        }
+        List<SourceColumn> present = d.breakdowns().columns().stream().map(name -> column(all, name))
+                .filter(java.util.Objects::nonNull).toList();
+        return new WaveScanner.Domains(present, d.breakdowns().maxDomains());
     }
 
     private static SourceColumn column(List<SourceColumn> all, String name) {

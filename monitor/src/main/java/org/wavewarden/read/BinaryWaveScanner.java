@@ -7,6 +7,7 @@ import org.wavewarden.config.Identifiers;
 import org.wavewarden.profile.Binning;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.DesignSummary;
+import org.wavewarden.profile.DomainTally;
 import org.wavewarden.profile.JointTally;
 import org.wavewarden.profile.PairCounter;
 import org.wavewarden.profile.RelativeBins;
@@ -61,15 +62,21 @@ public final class BinaryWaveScanner implements WaveScanner {
     /**
      * With a design, the PSU sums of {@link DesignSummary} (a weight that is NULL or invalid counts as zero there);
      * with pairs, one joint tally per pair, its cells decoded to doubles as they pass into one array reused for
-     * every row.
+     * every row. With breakdown columns, their domains are tallied in the same pass ({@link DomainScan}): each
+     * breakdown column travels as its output text, after the design and before the monitored columns, so every cell
+     * of a row knows its domains; a numeric column is summarised per domain beyond a tenth of the whole wave's
+     * budget of exact numbers.
      */
     @Override
     public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
                                      SourceColumn weight, WaveScanner.Design design, List<PairSpec> pairs,
-                                     LongConsumer progress) {
+                                     WaveScanner.Domains domains, LongConsumer progress) {
         int k = columns.size();
-        // The weight and the design travel first, so every cell of a row knows its weight and PSU.
-        List<SourceColumn> read = new ArrayList<>(k + 3);
+        List<SourceColumn> breakdowns = domains == null ? List.of() : domains.columns();
+        int m = breakdowns.size();
+        // The weight, the design and the breakdowns travel first, so every cell of a row knows its weight, PSU and
+        // domains.
+        List<SourceColumn> read = new ArrayList<>(k + 3 + m);
         if (weight != null) {
             read.add(weight);
         }
@@ -79,6 +86,9 @@ public final class BinaryWaveScanner implements WaveScanner {
         }
         if (design != null) {
             read.add(asText(design.clusters()));
+        }
+        for (SourceColumn b : breakdowns) {
+            read.add(asText(b));
         }
         int first = read.size();
         read.addAll(columns);
@@ -98,6 +108,16 @@ public final class BinaryWaveScanner implements WaveScanner {
             numeric[i] = decode[i].isNumber();
         }
         DesignScan ds = design == null ? null : new DesignScan(numeric);
+        boolean[] single = new boolean[k];
+        for (int i = 0; i < k; i++) {
+            single[i] = decode[i] == Decode.FLOAT4;
+        }
+        DomainScan[] dom = new DomainScan[m];
+        for (int j = 0; j < m; j++) {
+            dom[j] = new DomainScan(breakdowns.get(j).name(), domains.maxDomains(), domainExactNumbers(), numeric,
+                    single, weight != null, design != null, tallies);
+        }
+        int[] rowDomain = new int[m]; // this row's domain per breakdown column; -1 for none
         int[][] pairAt = new int[pairs.size()][];
         PairCounter[] joint = new PairCounter[pairs.size()];
         boolean[] inPair = new boolean[k];
@@ -147,6 +167,14 @@ public final class BinaryWaveScanner implements WaveScanner {
                     String stratum = hasStrata ? in.text() : "";
                     psu = ds.psu(stratum, in.text());
                 }
+                for (int j = 0; j < m; j++) {
+                    int len = in.int32();
+                    if (len >= 0) {
+                        in.need(len);
+                    }
+                    rowDomain[j] = dom[j].domain(in.buf, in.pos, len);
+                    in.pos += Math.max(len, 0);
+                }
                 for (int i = 0; i < fields - first; i++) {
                     int len = in.int32();
                     if (i >= k) { // the placeholder column of a scan without columns
@@ -156,6 +184,11 @@ public final class BinaryWaveScanner implements WaveScanner {
                     if (len < 0) {
                         nulls[i]++;
                         value[i] = Double.NaN;
+                        for (int j = 0; j < m; j++) {
+                            if (rowDomain[j] >= 0) {
+                                dom[j].nullCell(i, rowDomain[j]);
+                            }
+                        }
                         continue;
                     }
                     in.need(len);
@@ -163,7 +196,7 @@ public final class BinaryWaveScanner implements WaveScanner {
                     int p = in.pos;
                     Decode d = decode[i];
                     // A number is decoded once, and only where a pair, the bins or the design needs it.
-                    double x = numeric[i] && (inPair[i] || bins[i] != null || ds != null)
+                    double x = numeric[i] && (inPair[i] || bins[i] != null || ds != null || m > 0)
                             ? d.number(b, p, len) : Double.NaN;
                     if (inPair[i]) {
                         value[i] = x;
@@ -172,6 +205,11 @@ public final class BinaryWaveScanner implements WaveScanner {
                         bins[i].add(x, w);
                         if (ds != null && psu >= 0) {
                             ds.addBinned(i, psu, x, w);
+                        }
+                        for (int j = 0; j < m; j++) {
+                            if (rowDomain[j] >= 0) {
+                                dom[j].addNumber(i, rowDomain[j], psu, x, w);
+                            }
                         }
                         in.pos += len;
                         continue;
@@ -186,10 +224,18 @@ public final class BinaryWaveScanner implements WaveScanner {
                         if (ds != null && psu >= 0) {
                             ds.add(i, psu, entry, x, w);
                         }
+                        for (int j = 0; j < m; j++) {
+                            if (rowDomain[j] >= 0) {
+                                dom[j].add(i, rowDomain[j], psu, entry, x, w);
+                            }
+                        }
                     } else if (numeric[i]) {
                         ValueTally t = tallies[i];
                         if (ds != null) {
                             ds.toBins(i, e -> t.number((int) e));
+                        }
+                        for (int j = 0; j < m; j++) {
+                            dom[j].toBins(i, e -> t.number((int) e));
                         }
                         bins[i] = summarise(t, d == Decode.FLOAT4);
                         tallies[i] = null;
@@ -200,10 +246,20 @@ public final class BinaryWaveScanner implements WaveScanner {
                         if (ds != null && psu >= 0) {
                             ds.addBinned(i, psu, x, w);
                         }
+                        for (int j = 0; j < m; j++) {
+                            if (rowDomain[j] >= 0) {
+                                dom[j].addNumber(i, rowDomain[j], psu, x, w);
+                            }
+                        }
                     } else {
                         truncated[i] = true;
                         if (ds != null) {
                             ds.incomplete(i);
+                        }
+                        for (int j = 0; j < m; j++) {
+                            if (rowDomain[j] >= 0) {
+                                dom[j].truncated(i, rowDomain[j], psu, w);
+                            }
                         }
                     }
                     in.pos += len;
@@ -236,15 +292,20 @@ public final class BinaryWaveScanner implements WaveScanner {
             }
         }
         DesignSummary designSummary = null;
+        List<LongFunction<String>> texts = new ArrayList<>();
+        boolean[] binned = new boolean[k];
+        for (int i = 0; i < k; i++) {
+            ValueTally t = tallies[i];
+            binned[i] = bins[i] != null;
+            texts.add(binned[i] ? null : e -> t.text((int) e));
+        }
         if (ds != null) {
-            List<LongFunction<String>> texts = new ArrayList<>();
-            boolean[] binned = new boolean[k];
-            for (int i = 0; i < k; i++) {
-                ValueTally t = tallies[i];
-                binned[i] = bins[i] != null;
-                texts.add(binned[i] ? null : e -> t.text((int) e));
-            }
             designSummary = ds.result(columns.stream().map(SourceColumn::name).toList(), texts, binned);
+        }
+        List<DomainTally> domainTallies = new ArrayList<>(m);
+        for (int j = 0; j < m; j++) {
+            domainTallies.add(dom[j].result(columns, texts, designSummary == null ? 0 : designSummary.psuCount()));
+            dom[j] = null;
         }
         Map<String, ColumnTally> out = new LinkedHashMap<>();
         Map<String, Map<String, double[]>> weights = new LinkedHashMap<>();
@@ -272,7 +333,15 @@ public final class BinaryWaveScanner implements WaveScanner {
         for (int j = 0; j < joint.length; j++) {
             jointTallies.add(joint[j].tally(pairs.get(j).x(), pairs.get(j).y()));
         }
-        return new WaveScanner.WaveScan(rows, out, weights, badWeights, designSummary, jointTallies);
+        return new WaveScanner.WaveScan(rows, out, weights, badWeights, designSummary, jointTallies, domainTallies);
+    }
+
+    /**
+     * Distinct values a domain's numeric column is counted exactly up to: a tenth of the whole wave's budget (at
+     * least 16), since a domain holds a fraction of the rows and hundreds of domains share the memory.
+     */
+    int domainExactNumbers() {
+        return Math.max(16, exactNumbers / 10);
     }
 
     /** A design column travels as its output text, whatever its type. */

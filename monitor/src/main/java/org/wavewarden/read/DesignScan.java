@@ -92,7 +92,7 @@ final class DesignScan {
         return new DesignSummary(psuStratum, psuLabel, rowsWithoutPsu, out);
     }
 
-    private static String binnedText(double x) {
+    static String binnedText(double x) {
         return x == Math.rint(x) ? Long.toString((long) x) : Double.toString(x);
     }
 

@@ -3,6 +3,7 @@ package org.wavewarden.read;
 import org.jdbi.v3.core.Handle;
 import org.wavewarden.profile.ColumnTally;
 import org.wavewarden.profile.DesignSummary;
+import org.wavewarden.profile.DomainTally;
 import org.wavewarden.profile.JointTally;
 import org.wavewarden.profile.RelativeBins;
 
@@ -28,11 +29,19 @@ public interface WaveScanner {
      * @param design   the stratum and cluster columns, or null
      * @param pairs    pairs of numeric columns among {@code columns} whose joint values are tallied in the same
      *                 pass, over the rows where both cells are finite numbers, possibly none
+     * @param domains  the breakdown columns whose domains are tallied in the same pass ({@link Domains#NONE}:
+     *                 none)
      * @param progress told the rows read so far now and then, or null
      * @throws SourceReadException when the source cannot be read
      */
     WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, SourceColumn weight,
-                  Design design, List<PairSpec> pairs, LongConsumer progress);
+                  Design design, List<PairSpec> pairs, Domains domains, LongConsumer progress);
+
+    /** The scan without breakdowns. */
+    default WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns, SourceColumn weight,
+                          Design design, List<PairSpec> pairs, LongConsumer progress) {
+        return scan(h, source, wave, columns, weight, design, pairs, Domains.NONE, progress);
+    }
 
     /** The scan without weight, design or pairs. */
     default WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
@@ -71,19 +80,28 @@ public interface WaveScanner {
      * column and value the sum of weights and of squared weights ({@code double[] {sum w, sum w^2}}); rows whose
      * weight is NULL or not a finite non-negative number count in {@code badWeights} and add no weight. With a
      * design, the PSU sums of {@link DesignSummary}; with pairs requested, one joint tally per pair, in the order
+     * requested; with breakdown columns requested, one {@link DomainTally} per breakdown column, in the order
      * requested.
      */
     record WaveScan(long rows, Map<String, ColumnTally> columns, Map<String, Map<String, double[]>> weights,
-                           long badWeights, DesignSummary design, List<JointTally> pairs) {
+                           long badWeights, DesignSummary design, List<JointTally> pairs, List<DomainTally> domains) {
 
         public WaveScan {
             pairs = pairs == null ? List.of() : List.copyOf(pairs);
+            domains = domains == null ? List.of() : List.copyOf(domains);
+        }
+
+        /** A scan without breakdowns. */
+        public WaveScan(long rows, Map<String, ColumnTally> columns, Map<String, Map<String, double[]>> weights,
+                        long badWeights, DesignSummary design, List<JointTally> pairs) {
+            this(rows, columns, weights, badWeights, design, pairs, List.of());
         }
 
         @Override
         public boolean equals(Object o) {
             return o instanceof WaveScan w && rows == w.rows && columns.equals(w.columns) && badWeights == w.badWeights
-                    && sameWeights(weights, w.weights) && Objects.equals(design, w.design) && pairs.equals(w.pairs);
+                    && sameWeights(weights, w.weights) && Objects.equals(design, w.design) && pairs.equals(w.pairs)
+                    && domains.equals(w.domains);
         }
 
         @Override
@@ -109,6 +127,28 @@ public interface WaveScanner {
             }
         }
         return true;
+    }
+
+    /**
+     * The breakdown columns of a scan: each row's domain is the column's output text (as a design label travels),
+     * looked up once per row and column; at most {@code maxDomains} domains per column are kept, in order of first
+     * appearance, the rows of further domains counted as overflow ({@link DomainTally}).
+     */
+    record Domains(List<SourceColumn> columns, int maxDomains) {
+
+        /** No breakdowns. */
+        public static final Domains NONE = new Domains(List.of(), 1);
+
+        public Domains {
+            columns = columns == null ? List.of() : List.copyOf(columns);
+            if (maxDomains < 1) {
+                throw new IllegalArgumentException("maxDomains must be positive, was " + maxDomains);
+            }
+        }
+
+        public boolean isEmpty() {
+            return columns.isEmpty();
+        }
     }
 
     /** The stratum column (null for one stratum) and the cluster column of a wave's sampling design. */

@@ -31,16 +31,19 @@ public record TextWaveScanner(int maxDistinct, int exactNumbers) implements Wave
     }
 
     /**
-     * This reference scanner reads no sampling design (the binary scanner does).
+     * This reference scanner reads no sampling design and no breakdowns (the binary scanner does).
      *
-     * @throws IllegalArgumentException when a design is given
+     * @throws IllegalArgumentException when a design or breakdown columns are given
      */
     @Override
     public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
                                      SourceColumn weight, WaveScanner.Design design, List<PairSpec> pairs,
-                                     LongConsumer progress) {
+                                     WaveScanner.Domains domains, LongConsumer progress) {
         if (design != null) {
             throw new IllegalArgumentException("the text scanner reads no sampling design; use the binary scanner");
+        }
+        if (domains != null && !domains.isEmpty()) {
+            throw new IllegalArgumentException("the text scanner reads no breakdowns; use the binary scanner");
         }
         return read(h, source, wave, columns, weight, pairs, progress);
     }

@@ -1,0 +1,429 @@
+package org.wavewarden.read;
+
+import org.wavewarden.profile.Binning;
+import org.wavewarden.profile.ColumnTally;
+import org.wavewarden.profile.ColumnType;
+import org.wavewarden.profile.DesignSummary;
+import org.wavewarden.profile.DomainTally;
+import org.wavewarden.profile.RelativeBins;
+import org.wavewarden.profile.ValueIndex;
+
+import java.nio.charset.StandardCharsets;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.HashMap;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.function.LongFunction;
+import java.util.function.LongToDoubleFunction;
+
+/**
+ * Accumulates, during the one pass of {@link BinaryWaveScanner}, one breakdown column's domains
+ * ({@link DomainTally}): each row's domain is looked up once from the bytes of the column's output text, and every
+ * monitored cell of the row is counted in its domain, with no object per cell.
+ *
+ * <p>A cell's value is keyed by its entry in the whole wave's {@link ValueTally} (so a value is decoded and held once,
+ * however many domains it occurs in); per monitored column one {@link ValueIndex} numbers the (domain, value) pairs
+ * and plain arrays hold their counts and weight sums. A numeric column is summarised per domain in
+ * {@link RelativeBins} of {@link #DOMAIN_MAX_BINS} once the domain holds more than the scan's per-domain budget of
+ * distinct values, and every domain is summarised as soon as the whole wave's column is (its value entries are then
+ * gone); code-like numbers stay exact, as {@link RelativeBins} keeps them.
+ *
+ * <p>With a design, per column the weight of each (domain, PSU, value) cell and, for numbers, the sums w, w y and
+ * w y^2 of each (domain, PSU) are kept, the PSUs being the whole wave's; a domain's sums are zero in PSUs where it
+ * has no rows.
+ *
+ * <p>Memory per breakdown column and monitored column: at most {@code maxDomains} x (the per-domain budget of
+ * distinct values, or {@link #DOMAIN_MAX_BINS} bins) counting cells, plus at most {@link #MAX_CELLS} (domain, PSU,
+ * value) cells (beyond it only code-like numbers get new cells, and the column's domains are reported with
+ * {@link DesignSummary.ColumnDesign#complete()} false), plus 3 x domains x PSUs numeric sums. Overflow domain labels
+ * are counted up to {@link #MAX_OVERFLOW_LABELS} distinct ones.
+ */
+final class DomainScan {
+
+    /**
+     * (domain, PSU, value) cells kept per monitored column, during the scan and in the summary's dense per-PSU arrays
+     * together: four times a whole wave's {@link DesignScan#MAX_CELLS}, since it is shared by every domain.
+     */
+    static final int MAX_CELLS = 4 * DesignScan.MAX_CELLS;
+
+    /** Distinct overflow labels counted; beyond it {@link DomainTally#overflowDomains()} is a lower bound. */
+    static final int MAX_OVERFLOW_LABELS = 100_000;
+
+    /**
+     * Bins of a domain's summarised numeric column: an eighth of a whole wave's, because a domain holds a fraction
+     * of the rows and hundreds of domains share the memory.
+     */
+    static final int DOMAIN_MAX_BINS = RelativeBins.DEFAULT_MAX_BINS / 8;
+
+    private final String column;
+    private final int maxDomains;
+    private final int exactNumbers;
+    private final boolean weighted;
+    private final boolean designed;
+    private final ValueTally[] wave; // the scanner's tallies: a value's entry there is its key here
+    private final ValueIndex labels = ValueIndex.ofBytes();
+    private final ValueIndex overflowLabels = ValueIndex.ofBytes();
+    private long[] rows = new long[16];
+    private long nullRows;
+    private long overflowRows;
+    private final Col[] cols;
+
+    /**
+     * @param column       the breakdown column's name
+     * @param maxDomains   domains kept, in order of first appearance
+     * @param exactNumbers distinct values a domain's numeric column is counted exactly up to
+     * @param numeric      per monitored column, whether it is numeric
+     * @param single       per monitored column, whether it is {@code real} (bins print exact values as floats)
+     * @param wave         the scanner's whole-wave tallies, read to decode a value entry when a domain moves to bins
+     */
+    DomainScan(String column, int maxDomains, int exactNumbers, boolean[] numeric, boolean[] single, boolean weighted,
+               boolean designed, ValueTally[] wave) {
+        this.column = column;
+        this.maxDomains = maxDomains;
+        this.exactNumbers = exactNumbers;
+        this.weighted = weighted;
+        this.designed = designed;
+        this.wave = wave;
+        cols = new Col[numeric.length];
+        for (int i = 0; i < numeric.length; i++) {
+            cols[i] = new Col(numeric[i], single[i]);
+        }
+    }
+
+    /**
+     * The domain of a row from its breakdown cell {@code b[p .. p+len)} ({@code len < 0}: NULL), counting the row;
+     * -1 when the cell is NULL or its domain is beyond the cap.
+     */
+    int domain(byte[] b, int p, int len) {
+        if (len < 0) {
+            nullRows++;
+            return -1;
+        }
+        if (len > WaveScanner.MAX_VALUE_CHARS) { // a label longer than a kept value: its stand-in, as tallies keep it
+            String v = new String(b, p, len, StandardCharsets.UTF_8);
+            if (v.length() > WaveScanner.MAX_VALUE_CHARS) {
+                b = ValueText.shortened(v).getBytes(StandardCharsets.UTF_8);
+                p = 0;
+                len = b.length;
+            }
+        }
+        int d = labels.add(b, p, len, maxDomains);
+        if (d < 0) {
+            overflowRows++;
+            overflowLabels.add(b, p, len, MAX_OVERFLOW_LABELS);
+            return -1;
+        }
+        if (d == rows.length) {
+            rows = Arrays.copyOf(rows, rows.length * 2);
+        }
+        rows[d]++;
+        return d;
+    }
+
+    /** Column i is NULL in a row of domain d. */
+    void nullCell(int i, int d) {
+        Col c = cols[i];
+        c.grow(d);
+        c.nulls[d]++;
+    }
+
+    /** A cell of column i in domain d whose value is entry {@code entry} of the whole wave's exact tally. */
+    void add(int i, int d, int psu, int entry, double x, double w) {
+        Col c = cols[i];
+        c.grow(d);
+        boolean binned = c.bins[d] != null;
+        if (binned) {
+            c.bins[d].add(x, w);
+        } else {
+            int before = c.values.size();
+            int e = c.values.add(d, entry);
+            if (e == before) {
+                c.distinct[d]++;
+            }
+            c.count(e, w);
+            if (c.numeric && c.distinct[d] > exactNumbers) {
+                ValueTally t = wave[i];
+                c.summarise(new boolean[] {true}, d, key -> t.number((int) key));
+                binned = true;
+            }
+        }
+        if (designed && psu >= 0) {
+            c.design(d, psu, entry, x, w, !binned || RelativeBins.isCodeLike(x));
+        }
+    }
+
+    /** A cell of column i in domain d whose value the whole wave could not keep (a truncated text column). */
+    void truncated(int i, int d, int psu, double w) {
+        Col c = cols[i];
+        c.grow(d);
+        c.truncated[d] = true;
+        if (designed && psu >= 0) {
+            c.design(d, psu, 0, Double.NaN, w, false);
+        }
+    }
+
+    /** A cell of numeric column i in domain d after the whole wave's column moved to bins. */
+    void addNumber(int i, int d, int psu, double x, double w) {
+        Col c = cols[i];
+        c.grow(d);
+        if (c.bins[d] == null) {
+            c.bins[d] = c.newBins();
+        }
+        c.bins[d].add(x, w);
+        if (designed && psu >= 0) {
+            c.design(d, psu, Double.doubleToLongBits(x == 0 ? 0.0 : x), x, w, RelativeBins.isCodeLike(x));
+        }
+    }
+
+    /**
+     * The whole wave's column i moves to bins: every domain of it is summarised from its counts so far
+     * ({@code valueOf} maps a value entry to its number), and its design cells are re-keyed by the bits of their
+     * value, keeping the code-like ones.
+     */
+    void toBins(int i, LongToDoubleFunction valueOf) {
+        Col c = cols[i];
+        c.waveBinned = true;
+        int n = labels.size();
+        c.grow(Math.max(n - 1, 0));
+        boolean[] fresh = new boolean[n];
+        for (int d = 0; d < n; d++) {
+            fresh[d] = c.bins[d] == null;
+        }
+        c.summarise(fresh, -1, valueOf);
+        ValueIndex before = c.cells;
+        double[] weights = c.cellWeight;
+        c.cells = ValueIndex.ofPairs();
+        c.cellWeight = new double[256];
+        for (int e = 0; e < before.size(); e++) {
+            double x = valueOf.applyAsDouble(before.second(e));
+            if (RelativeBins.isCodeLike(x)) {
+                c.addCell(before.first(e), Double.doubleToLongBits(x == 0 ? 0.0 : x), weights[e], true);
+            }
+        }
+    }
+
+    /**
+     * The domains' tallies: {@code texts.get(i)} turns a value entry of column i into its text (null for a column
+     * the whole wave summarised in bins); {@code psus} is the whole wave's PSU count.
+     */
+    DomainTally result(List<SourceColumn> columns, List<LongFunction<String>> texts, int psus) {
+        int n = labels.size();
+        List<String> domains = new ArrayList<>(n);
+        for (int d = 0; d < n; d++) {
+            domains.add(new String(labels.bytes(), labels.offset(d), labels.length(d), StandardCharsets.UTF_8));
+        }
+        Map<String, List<ColumnTally>> tallies = new LinkedHashMap<>();
+        Map<String, List<Map<String, double[]>>> weights = new LinkedHashMap<>();
+        Map<String, List<DesignSummary.ColumnDesign>> designs = new LinkedHashMap<>();
+        for (int i = 0; i < cols.length; i++) {
+            Col c = cols[i];
+            c.grow(Math.max(n - 1, 0));
+            String name = columns.get(i).name();
+            ColumnType type = columns.get(i).type();
+            LongFunction<String> text = c.waveBinned ? bits -> DesignScan.binnedText(Double.longBitsToDouble(bits))
+                    : texts.get(i);
+            List<Map<String, Long>> counts = new ArrayList<>(n);
+            List<Map<String, double[]>> sums = new ArrayList<>(n);
+            for (int d = 0; d < n; d++) {
+                counts.add(c.bins[d] != null ? c.bins[d].counts() : new HashMap<>());
+                sums.add(c.bins[d] != null ? c.bins[d].weights() : new HashMap<>());
+            }
+            for (int e = 0; e < c.values.size(); e++) {
+                int d = (int) c.values.first(e);
+                if (c.bins[d] != null) {
+                    continue; // counted in the domain's bins since
+                }
+                String v = texts.get(i).apply(c.values.second(e));
+                counts.get(d).merge(v, c.count[e], Long::sum);
+                if (weighted) {
+                    double[] cell = sums.get(d).computeIfAbsent(v, k -> new double[2]);
+                    cell[0] += c.wsum[e];
+                    cell[1] += c.wsq[e];
+                }
+            }
+            List<ColumnTally> perDomain = new ArrayList<>(n);
+            for (int d = 0; d < n; d++) {
+                Binning binning = c.bins[d] == null ? Binning.EXACT : c.bins[d].binning();
+                perDomain.add(new ColumnTally(name, type, rows[d], c.nulls[d], counts.get(d), c.truncated[d], binning));
+            }
+            tallies.put(name, perDomain);
+            if (weighted) {
+                weights.put(name, sums);
+            }
+            if (designed) {
+                designs.put(name, c.designs(n, psus, text));
+            }
+        }
+        int overflowDomains = overflowLabels.size();
+        return new DomainTally(column, domains, Arrays.copyOf(rows, n), nullRows, overflowDomains, overflowRows,
+                tallies, weights, designs);
+    }
+
+    /** One monitored column's counts per domain; arrays indexed by domain grow as domains appear. */
+    private final class Col {
+        private final boolean numeric;
+        private final boolean single;
+        private boolean waveBinned;
+        private long[] nulls = new long[8];
+        private boolean[] truncated = new boolean[8];
+        private int[] distinct = new int[8];
+        private RelativeBins[] bins = new RelativeBins[8]; // a domain's bins, once it is summarised
+        private final ValueIndex values = ValueIndex.ofPairs(); // (domain, whole-wave value entry)
+        private long[] count = new long[64];
+        private double[] wsum = weighted ? new double[64] : null;
+        private double[] wsq = weighted ? new double[64] : null;
+        private ValueIndex cells = ValueIndex.ofPairs(); // (domain << 32 | PSU, value key); weight in cellWeight
+        private double[] cellWeight = new double[256];
+        private boolean capped;
+        private final ValueIndex domainPsus = ValueIndex.ofPairs(); // (domain, PSU) of the numeric sums
+        private double[] psuW = new double[64];
+        private double[] psuWy = new double[64];
+        private double[] psuWy2 = new double[64];
+
+        Col(boolean numeric, boolean single) {
+            this.numeric = numeric;
+            this.single = single;
+        }
+
+        void grow(int d) {
+            if (d >= nulls.length) {
+                int n = Math.max(nulls.length * 2, d + 1);
+                nulls = Arrays.copyOf(nulls, n);
+                truncated = Arrays.copyOf(truncated, n);
+                distinct = Arrays.copyOf(distinct, n);
+                bins = Arrays.copyOf(bins, n);
+            }
+        }
+
+        RelativeBins newBins() {
+            return new RelativeBins(DOMAIN_MAX_BINS, 0, single);
+        }
+
+        void count(int e, double w) {
+            if (e == count.length) {
+                count = Arrays.copyOf(count, ValueIndex.capacityFor(e, count.length));
+                if (weighted) {
+                    wsum = Arrays.copyOf(wsum, count.length);
+                    wsq = Arrays.copyOf(wsq, count.length);
+                }
+            }
+            count[e]++;
+            if (weighted && !Double.isNaN(w)) {
+                wsum[e] += w;
+                wsq[e] += w * w;
+            }
+        }
+
+        /**
+         * Moves the exact counts of domain {@code only} (or, when it is -1, of every domain marked in {@code which})
+         * into new bins, in one pass over the (domain, value) entries.
+         */
+        void summarise(boolean[] which, int only, LongToDoubleFunction valueOf) {
+            if (only >= 0) {
+                bins[only] = newBins();
+            } else {
+                for (int d = 0; d < which.length; d++) {
+                    if (which[d]) {
+                        bins[d] = newBins();
+                    }
+                }
+            }
+            for (int e = 0; e < values.size(); e++) {
+                int d = (int) values.first(e);
+                boolean mine = only >= 0 ? d == only : d < which.length && which[d];
+                if (mine && count[e] > 0) {
+                    bins[d].add(valueOf.applyAsDouble(values.second(e)), count[e], weighted ? wsum[e] : 0,
+                            weighted ? wsq[e] : 0);
+                }
+            }
+        }
+
+        void design(int d, int psu, long valueKey, double x, double w, boolean keepCell) {
+            double weightOrZero = Double.isNaN(w) ? 0 : w;
+            if (numeric && Double.isFinite(x)) {
+                int e = domainPsus.add(d, psu);
+                if (e == psuW.length) {
+                    int n = ValueIndex.capacityFor(e, psuW.length);
+                    psuW = Arrays.copyOf(psuW, n);
+                    psuWy = Arrays.copyOf(psuWy, n);
+                    psuWy2 = Arrays.copyOf(psuWy2, n);
+                }
+                psuW[e] += weightOrZero;
+                psuWy[e] += weightOrZero * x;
+                psuWy2[e] += weightOrZero * x * x;
+            }
+            if (keepCell) { // else the domain is summarised or truncated, and so reported incomplete
+                addCell(((long) d << 32) | psu, valueKey, weightOrZero, numeric && RelativeBins.isCodeLike(x));
+            }
+        }
+
+        /** A cell's weight; a new cell beyond the cap is kept only when it is a code-like number. */
+        void addCell(long domainPsu, long valueKey, double w, boolean codeLike) {
+            int e = cells.add(domainPsu, valueKey, MAX_CELLS);
+            if (e < 0) {
+                capped = true;
+                if (!codeLike) {
+                    return;
+                }
+                e = cells.add(domainPsu, valueKey);
+            }
+            if (e == cellWeight.length) {
+                cellWeight = Arrays.copyOf(cellWeight, ValueIndex.capacityFor(e, cellWeight.length));
+            }
+            cellWeight[e] += w;
+        }
+
+        /** Each domain's PSU sums over all {@code psus} PSUs of the wave, zero where the domain has none. */
+        List<DesignSummary.ColumnDesign> designs(int n, int psus, LongFunction<String> text) {
+            List<Map<Long, double[]>> byValue = new ArrayList<>(n);
+            for (int d = 0; d < n; d++) {
+                byValue.add(new LinkedHashMap<>());
+            }
+            for (int e = 0; e < cells.size(); e++) {
+                long dp = cells.first(e);
+                int d = (int) (dp >>> 32);
+                int psu = (int) dp;
+                byValue.get(d).computeIfAbsent(cells.second(e), k -> new double[psus])[psu] += cellWeight[e];
+            }
+            List<DesignSummary.ColumnDesign> out = new ArrayList<>(n);
+            long budget = MAX_CELLS; // dense per-PSU values, spent by domains in order
+            for (int d = 0; d < n; d++) {
+                long dense = (long) byValue.get(d).size() * psus;
+                boolean complete = !capped && !waveBinned && bins[d] == null && !truncated[d] && dense <= budget;
+                if (complete) {
+                    budget -= dense;
+                }
+                Map<String, double[]> kept = new LinkedHashMap<>();
+                byValue.get(d).forEach((key, sums) -> {
+                    String t = text.apply(key);
+                    if (complete || DesignScan.isCodeLikeText(t)) {
+                        double[] before = kept.get(t);
+                        if (before == null) {
+                            kept.put(t, sums);
+                        } else {
+                            for (int p = 0; p < sums.length; p++) {
+                                before[p] += sums[p];
+                            }
+                        }
+                    }
+                });
+                double[] w = numeric ? new double[psus] : null;
+                double[] wy = numeric ? new double[psus] : null;
+                double[] wy2 = numeric ? new double[psus] : null;
+                out.add(new DesignSummary.ColumnDesign(kept, complete, w, wy, wy2));
+            }
+            if (numeric) {
+                for (int e = 0; e < domainPsus.size(); e++) {
+                    DesignSummary.ColumnDesign cd = out.get((int) domainPsus.first(e));
+                    int psu = (int) domainPsus.second(e);
+                    cd.weight()[psu] += psuW[e];
+                    cd.weightedSum()[psu] += psuWy[e];
+                    cd.weightedSquares()[psu] += psuWy2[e];
+                }
+            }
+            return out;
+        }
+    }
+}
