@@ -19,8 +19,8 @@ import java.util.TreeMap;
 
 /**
  * What a stored wave summary depends on besides the wave's rows: the columns read and their types, the weight and
- * design columns, every declared variable's kind, codebook codes and missing ranges, range and levels, the tallied pairs, and the
- * summary format. Two reads of the same rows under equal keys give equal summaries; a stored summary under another
+ * design columns, every declared variable's kind, codebook codes and missing ranges, range and levels, the tallied pairs, the
+ * breakdown columns and their cap on domains, and the summary format. Two reads of the same rows under equal keys give equal summaries; a stored summary under another
  * key (weights added since, a code declared, a kind changed) is not reused but read again.
  *
  * @param value a SHA-256 over a canonical rendering, in hex
@@ -66,6 +66,14 @@ public record SummaryKey(String value) {
         List<PairSpec> pairs = new ArrayList<>(WaveJudge.pairs(d, sorted));
         pairs.sort(Comparator.comparing(PairSpec::x).thenComparing(PairSpec::y));
         pairs.forEach(p -> lines.add("pair " + text(p.x()) + " " + text(p.y())));
+        // Only a dataset with breakdowns adds their line, so the key of every summary without them is what it was;
+        // a summary stored before breakdowns were configured then differs and is read again with its domains.
+        if (d.breakdowns() != null && !d.breakdowns().isEmpty()) {
+            StringBuilder s = new StringBuilder("breakdowns ").append(d.breakdowns().maxDomains());
+            d.breakdowns().columns().forEach(c -> s.append(' ').append(text(c)).append(' ')
+                    .append(sorted.containsKey(c) ? sorted.get(c) : "absent"));
+            lines.add(s.toString());
+        }
         try {
             MessageDigest md = MessageDigest.getInstance("SHA-256");
             for (String line : lines) {

@@ -52,9 +52,29 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
      * One domain of a breakdown column as a summary of its own: the domain's rows, its tallies, weight sums and
      * (with a design) its PSU sums over every PSU of the wave, so that every comparison and screening made on a
      * whole wave can be made on a domain unchanged. Empty when the column or the domain is not held.
+     *
+     * <p>The domain's summary has the wave's label and column layout, no pairs and no domains of its own; its design
+     * has the wave's PSUs (rows without a PSU are not counted per domain, so {@code rowsWithoutPsu} is 0).
      */
     public java.util.Optional<WaveProfile> inDomain(String breakdownColumn, String domain) {
-        throw new UnsupportedOperationException("skeleton: profile owner implements");
+        java.util.Optional<DomainTally> held = domains(breakdownColumn);
+        if (held.isEmpty() || held.get().indexOf(domain) < 0) {
+            return java.util.Optional.empty();
+        }
+        DomainTally t = held.get();
+        int d = t.indexOf(domain);
+        Map<String, ColumnTally> domainColumns = new LinkedHashMap<>();
+        t.tallies().forEach((column, perDomain) -> domainColumns.put(column, perDomain.get(d)));
+        Map<String, Map<String, double[]>> domainWeights = new LinkedHashMap<>();
+        t.weights().forEach((column, perDomain) -> domainWeights.put(column, perDomain.get(d)));
+        DesignSummary domainDesign = null;
+        if (design != null && !t.designs().isEmpty()) {
+            Map<String, DesignSummary.ColumnDesign> cds = new LinkedHashMap<>();
+            t.designs().forEach((column, perDomain) -> cds.put(column, perDomain.get(d)));
+            domainDesign = new DesignSummary(design.psuStratum(), design.psuLabel(), 0, cds);
+        }
+        return java.util.Optional.of(new WaveProfile(wave, t.rows()[d], schema, domainColumns, domainWeights,
+                domainDesign, List.of(), List.of()));
     }
 
     public WaveProfile(String wave, long rows, Map<String, ColumnType> schema, Map<String, ColumnTally> columns) {
@@ -121,9 +141,42 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
                     feed(md, Double.doubleToLongBits(xs[i]) + "," + Double.doubleToLongBits(ys[i]) + "=" + n[i]);
                 }
             }
+            // Only summaries with domains feed them, so the checksum of every summary without them is what it was.
+            for (DomainTally t : domains) {
+                feedDomains(md, t);
+            }
             return HexFormat.of().formatHex(md.digest());
         } catch (NoSuchAlgorithmException e) {
             throw new IllegalStateException(e);
+        }
+    }
+
+    /** One breakdown column's domains, each domain's tallies and sums in a canonical order. */
+    private static void feedDomains(MessageDigest md, DomainTally t) {
+        feed(md, "domains " + t.column().length() + ":" + t.column() + " " + t.nullRows() + " " + t.overflowDomains()
+                + " " + t.overflowRows());
+        for (int d = 0; d < t.domains().size(); d++) {
+            String label = t.domains().get(d);
+            feed(md, "domain " + label.length() + ":" + label + " " + t.rows()[d]);
+            for (var c : new TreeMap<>(t.tallies()).entrySet()) {
+                ColumnTally ct = c.getValue().get(d);
+                feed(md, "dtally " + c.getKey().length() + ":" + c.getKey() + " " + ct.rowCount() + " "
+                        + ct.nullCount() + " " + ct.truncated() + " " + ct.binning().level());
+                new TreeMap<>(ct.valueCounts()).forEach((v, n) -> feed(md, v.length() + ":" + v + "=" + n));
+            }
+            for (var c : new TreeMap<>(t.weights()).entrySet()) {
+                new TreeMap<>(c.getValue().get(d)).forEach((v, s) -> feed(md, "dw " + c.getKey().length() + ":"
+                        + c.getKey() + " " + v.length() + ":" + v + "=" + Double.doubleToLongBits(s[0]) + ","
+                        + Double.doubleToLongBits(s[1])));
+            }
+            for (var c : new TreeMap<>(t.designs()).entrySet()) {
+                DesignSummary.ColumnDesign cd = c.getValue().get(d);
+                feed(md, "dpsu " + c.getKey().length() + ":" + c.getKey() + " " + cd.complete() + " "
+                        + java.util.Arrays.toString(cd.weight()) + java.util.Arrays.toString(cd.weightedSum())
+                        + java.util.Arrays.toString(cd.weightedSquares()));
+                new TreeMap<>(cd.cells()).forEach((v, sums) -> feed(md, v.length() + ":" + v + "="
+                        + java.util.Arrays.toString(sums)));
+            }
         }
     }
 
@@ -177,7 +230,111 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
         }
         unweighted.forEach(weights::remove);
         List<JointTally> pooledPairs = pairs.values().stream().map(WaveProfile::pooled).toList();
-        return new WaveProfile(label, rows, schema, columns, weights, null, pooledPairs);
+        return new WaveProfile(label, rows, schema, columns, weights, null, pooledPairs, pooledDomains(waves));
+    }
+
+    /**
+     * The pool's domains: a breakdown column is pooled only when every wave holds its domains (else it is dropped,
+     * as a pool never mixes waves with and without a column's weights); its domains are matched by label, in order
+     * of first appearance, and each domain's tallies pooled like a whole wave's (a domain or a column absent from a
+     * wave adds nothing for it). Weights are kept for a column only when every wave has them; PSU sums are dropped,
+     * as a pool has no design. Overflow rows add up; overflow domains add up too, an upper bound of the distinct
+     * labels, since one label may overflow in several waves.
+     */
+    static List<DomainTally> pooledDomains(List<WaveProfile> waves) {
+        if (waves.isEmpty() || waves.get(0).domains.isEmpty()) {
+            return List.of();
+        }
+        List<DomainTally> out = new java.util.ArrayList<>();
+        for (DomainTally firstWave : waves.get(0).domains) {
+            String column = firstWave.column();
+            List<DomainTally> parts = waves.stream().map(w -> w.domains(column).orElse(null)).toList();
+            if (parts.contains(null)) {
+                continue;
+            }
+            out.add(pooledDomain(column, parts));
+        }
+        return out;
+    }
+
+    private static DomainTally pooledDomain(String column, List<DomainTally> parts) {
+        List<String> labels = new java.util.ArrayList<>();
+        java.util.Set<String> columnNames = new java.util.LinkedHashSet<>();
+        java.util.Set<String> weighted = null;
+        long nullRows = 0;
+        long overflowRows = 0;
+        int overflowDomains = 0;
+        for (DomainTally t : parts) {
+            t.domains().stream().filter(l -> !labels.contains(l)).forEach(labels::add);
+            columnNames.addAll(t.tallies().keySet());
+            nullRows += t.nullRows();
+            overflowRows += t.overflowRows();
+            overflowDomains += t.overflowDomains();
+        }
+        for (String c : columnNames) {
+            boolean allWeighted = parts.stream().allMatch(t -> !t.tallies().containsKey(c) || t.weights().containsKey(c));
+            if (allWeighted) {
+                if (weighted == null) {
+                    weighted = new java.util.HashSet<>();
+                }
+                weighted.add(c);
+            }
+        }
+        long[] rows = new long[labels.size()];
+        Map<String, List<ColumnTally>> tallies = new LinkedHashMap<>();
+        Map<String, List<Map<String, double[]>>> weights = new LinkedHashMap<>();
+        for (String c : columnNames) {
+            boolean keepWeights = weighted != null && weighted.contains(c);
+            List<ColumnTally> perDomain = new java.util.ArrayList<>();
+            List<Map<String, double[]>> perDomainWeights = new java.util.ArrayList<>();
+            for (String label : labels) {
+                ColumnTally pooled = null;
+                Map<String, double[]> pooledWeights = null;
+                for (DomainTally t : parts) {
+                    int d = t.indexOf(label);
+                    List<ColumnTally> ct = t.tallies().get(c);
+                    if (d < 0 || ct == null) {
+                        continue;
+                    }
+                    Map<String, double[]> tw = keepWeights ? t.weights().get(c).get(d) : null;
+                    if (pooled == null) {
+                        pooled = ct.get(d);
+                        pooledWeights = tw;
+                    } else {
+                        Pooled p = pooled(pooled, pooledWeights, ct.get(d), tw);
+                        pooled = p.tally();
+                        pooledWeights = p.weights();
+                    }
+                }
+                // A domain no wave had this column in: an empty tally over the domain's rows, all of them unanswered.
+                perDomain.add(pooled);
+                perDomainWeights.add(pooledWeights == null ? Map.of() : pooledWeights);
+            }
+            tallies.put(c, perDomain);
+            if (keepWeights) {
+                weights.put(c, perDomainWeights);
+            }
+        }
+        for (int d = 0; d < labels.size(); d++) {
+            for (DomainTally t : parts) {
+                int i = t.indexOf(labels.get(d));
+                if (i >= 0) {
+                    rows[d] += t.rows()[i];
+                }
+            }
+        }
+        for (var e : tallies.entrySet()) {
+            List<ColumnTally> perDomain = e.getValue();
+            for (int d = 0; d < perDomain.size(); d++) {
+                if (perDomain.get(d) == null) {
+                    ColumnType type = parts.stream().map(t -> t.tallies().get(e.getKey())).filter(java.util.Objects::nonNull)
+                            .findFirst().map(l -> l.get(0).type()).orElse(ColumnType.OTHER);
+                    perDomain.set(d, new ColumnTally(e.getKey(), type, rows[d], rows[d], Map.of(), false));
+                }
+            }
+        }
+        return new DomainTally(column, labels, rows, nullRows, overflowDomains, overflowRows, tallies, weights,
+                Map.of());
     }
 
     /**
