@@ -228,4 +228,29 @@ class BreakdownsReproduceSurveyTest {
                     "ranked by |contribution|");
         }
     }
+
+    /**
+     * The first-ranked domain (largest |Kitagawa contribution| from R's shares and changes above) and the change
+     * over every other domain pooled, its own estimate of the pooled rows, not an average of the domains'. R:
+     * {@code coef(svymean(~y, subset(d2, stype != first), na.rm = TRUE)) - coef(svymean(~y, subset(d1, stype !=
+     * first), na.rm = TRUE))}; for acs.46 the pooled rows hold wave 1's two high schools with an answer.
+     */
+    @ParameterizedTest(name = "{0} {1} beside {2}")
+    @CsvSource({
+            "design,yes,H,-0.025852694335641302",
+            "design,api00,E,-8.1993466941345332",
+            "design,acs.46,E,-0.94783894650185019",
+            "weights,yes,H,-0.025852694335641302",
+            "weights,api00,E,-8.1993466941345332",
+            "weights,acs.46,E,-0.94783894650185019",
+            "unweighted,yes,H,0.046792452830188513",
+            "unweighted,api00,E,26.534186046511536",
+            "unweighted,acs.46,E,-2.1666666666666679",
+            "unweighted,na46,M,-0.071197411003236288"
+    })
+    void elsewhereIsThePooledRestAsSvymeanOfTheSubset(String kind, String measure, String first, double elsewhere) {
+        Breakdown b = breakdown(kind, measure);
+        assertEquals(first, b.domains().get(0).domain(), "first-ranked domain");
+        close(elsewhere, b.elsewhere(), "elsewhere");
+    }
 }

@@ -37,21 +37,37 @@ final class DomainWaves {
 
     /** The rows of each wave of a CSV test resource whose first column is the wave. */
     static Map<String, List<Row>> read(String resource) {
-        Map<String, List<Row>> waves = new LinkedHashMap<>();
         try (BufferedReader in = new BufferedReader(new InputStreamReader(
                 DomainWaves.class.getClassLoader().getResourceAsStream(resource), StandardCharsets.UTF_8))) {
-            String[] header = in.readLine().split(",", -1);
-            for (String line = in.readLine(); line != null; line = in.readLine()) {
-                String[] f = line.split(",", -1);
-                Map<String, String> values = new LinkedHashMap<>();
-                for (int c = 5; c < header.length; c++) {
-                    values.put(header[c], f[c].isEmpty() ? null : f[c]);
-                }
-                waves.computeIfAbsent(f[0], k -> new ArrayList<>())
-                        .add(new Row(f[1], f[2], Double.parseDouble(f[3]), f[4].isEmpty() ? null : f[4], values));
-            }
+            return parse(in);
         } catch (IOException e) {
             throw new UncheckedIOException(e);
+        }
+    }
+
+    /** The rows of each wave of CSV text, header first, as {@link #read}. */
+    static Map<String, List<Row>> parse(String csv) {
+        try {
+            return parse(new BufferedReader(new java.io.StringReader(csv)));
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+
+    private static Map<String, List<Row>> parse(BufferedReader in) throws IOException {
+        Map<String, List<Row>> waves = new LinkedHashMap<>();
+        String[] header = in.readLine().strip().split(",", -1);
+        for (String line = in.readLine(); line != null; line = in.readLine()) {
+            if (line.isBlank()) {
+                continue;
+            }
+            String[] f = line.strip().split(",", -1);
+            Map<String, String> values = new LinkedHashMap<>();
+            for (int c = 5; c < header.length; c++) {
+                values.put(header[c], f[c].isEmpty() ? null : f[c]);
+            }
+            waves.computeIfAbsent(f[0], k -> new ArrayList<>())
+                    .add(new Row(f[1], f[2], Double.parseDouble(f[3]), f[4].isEmpty() ? null : f[4], values));
         }
         return waves;
     }
@@ -64,6 +80,15 @@ final class DomainWaves {
      * @param design whether the summary holds the design (PSU sums); weights are always held
      */
     static WaveProfile profile(String wave, List<Row> rows, String column, int maxDomains, boolean design) {
+        return profile(wave, rows, column, maxDomains, design, null);
+    }
+
+    /**
+     * The same, the design's PSU sums kept by value only for the values {@code cellsKept} accepts and marked
+     * incomplete (as the reader keeps a numeric column with too many distinct values); every value when null.
+     */
+    static WaveProfile profile(String wave, List<Row> rows, String column, int maxDomains, boolean design,
+                               java.util.function.Predicate<String> cellsKept) {
         List<String> columns = new ArrayList<>(rows.get(0).values().keySet());
         List<String> psuKeys = new ArrayList<>();
         List<String> psuStratum = new ArrayList<>();
@@ -107,7 +132,7 @@ final class DomainWaves {
             ColumnType type = numeric ? ColumnType.DECIMAL : ColumnType.TEXT;
             whole.put(c, tally(c, type, rows, null));
             wholeWeights.put(c, weightSums(c, rows, r -> true));
-            wholeDesign.put(c, design(c, numeric, rows, psuKeys, r -> true));
+            wholeDesign.put(c, design(c, numeric, rows, psuKeys, r -> true, cellsKept));
             List<ColumnTally> t = new ArrayList<>();
             List<Map<String, double[]>> w = new ArrayList<>();
             List<DesignSummary.ColumnDesign> g = new ArrayList<>();
@@ -115,7 +140,7 @@ final class DomainWaves {
                 java.util.function.Predicate<Row> in = r -> domain.equals(r.domain());
                 t.add(tally(c, type, rows, in));
                 w.add(weightSums(c, rows, in));
-                g.add(design(c, numeric, rows, psuKeys, in));
+                g.add(design(c, numeric, rows, psuKeys, in, cellsKept));
             }
             tallies.put(c, t);
             weights.put(c, w);
@@ -163,7 +188,8 @@ final class DomainWaves {
     }
 
     private static DesignSummary.ColumnDesign design(String c, boolean numeric, List<Row> rows, List<String> psuKeys,
-                                                     java.util.function.Predicate<Row> in) {
+                                                     java.util.function.Predicate<Row> in,
+                                                     java.util.function.Predicate<String> cellsKept) {
         int psus = psuKeys.size();
         Map<String, double[]> cells = new LinkedHashMap<>();
         double[] w = new double[psus];
@@ -183,7 +209,10 @@ final class DomainWaves {
                 wyy[p] += r.w() * y * y;
             }
         }
-        return new DesignSummary.ColumnDesign(cells, true, numeric ? w : null, numeric ? wy : null,
+        if (cellsKept != null) {
+            cells.keySet().removeIf(cellsKept.negate());
+        }
+        return new DesignSummary.ColumnDesign(cells, cellsKept == null, numeric ? w : null, numeric ? wy : null,
                 numeric ? wyy : null);
     }
 }
