@@ -12,7 +12,7 @@ package org.wavewarden.compare.design;
  * the lonely stratum contributes {@code z z'}. Chosen over "certainty" (contributing nothing) because it is
  * conservative: a monitor should not claim precision the design cannot show.
  */
-final class DesignVariance {
+public final class DesignVariance {
 
     private DesignVariance() {
     }
@@ -86,7 +86,7 @@ final class DesignVariance {
      * @param totals     {@code totals[k][c]}: total of the linearised scores of estimator c in PSU k
      * @return the p x p covariance matrix
      */
-    static double[][] covariance(int[] psuStratum, double[][] totals) {
+    public static double[][] covariance(int[] psuStratum, double[][] totals) {
         int psus = psuStratum.length;
         int p = psus == 0 ? 0 : totals[0].length;
         int[] psusInStratum = psusInStratum(psuStratum);

@@ -1,0 +1,85 @@
+package org.wavewarden.compare.domain;
+
+import org.apache.commons.math3.linear.Array2DRowRealMatrix;
+import org.apache.commons.math3.linear.EigenDecomposition;
+import org.apache.commons.math3.linear.RealMatrix;
+import org.apache.commons.math3.special.Gamma;
+
+import java.util.ArrayList;
+import java.util.List;
+
+/**
+ * The Wald chi-square that several domains' changes are equal (see {@link Breakdowns} for the rule on degenerate
+ * variances).
+ *
+ * @param statistic {@code W = (C d)' (C V C')^+ (C d)}
+ * @param df        the rank of {@code C V C'}
+ * @param pValue    {@code P(chi^2_df >= W)}; 1 without a testable contrast
+ */
+record Wald(double statistic, int df, double pValue) {
+
+    /**
+     * Relative size below which an eigenvalue of {@code C V C'} counts as zero: rounding in sums of squares of
+     * scores leaves about 1e-16 of the largest; 1e-10 keeps well clear of that (common practice, no source).
+     */
+    static final double RANK_TOLERANCE = 1e-10;
+
+    static final Wald NONE = new Wald(0, 0, 1);
+
+    /**
+     * @param change the domains' changes
+     * @param v      their covariance
+     */
+    static Wald ofChanges(double[] change, double[][] v) {
+        double largest = 0;
+        for (int i = 0; i < change.length; i++) {
+            largest = Math.max(largest, v[i][i]);
+        }
+        List<Integer> testable = new ArrayList<>();
+        for (int i = 0; i < change.length; i++) {
+            if (v[i][i] > RANK_TOLERANCE * largest) {
+                testable.add(i);
+            }
+        }
+        int m = testable.size();
+        if (m < 2) {
+            return NONE;
+        }
+        // Contrasts of each testable domain against the last: any full set of contrasts gives the same W.
+        int last = testable.get(m - 1);
+        double[] cd = new double[m - 1];
+        double[][] cvc = new double[m - 1][m - 1];
+        for (int a = 0; a < m - 1; a++) {
+            int i = testable.get(a);
+            cd[a] = change[i] - change[last];
+            for (int b = 0; b < m - 1; b++) {
+                int j = testable.get(b);
+                cvc[a][b] = v[i][j] - v[i][last] - v[last][j] + v[last][last];
+            }
+        }
+        EigenDecomposition eigen = new EigenDecomposition(new Array2DRowRealMatrix(cvc, false));
+        double[] values = eigen.getRealEigenvalues();
+        double top = 0;
+        for (double e : values) {
+            top = Math.max(top, e);
+        }
+        RealMatrix vectors = eigen.getV();
+        double w = 0;
+        int rank = 0;
+        for (int e = 0; e < values.length; e++) {
+            if (!(values[e] > RANK_TOLERANCE * top)) {
+                continue;
+            }
+            rank++;
+            double proj = 0;
+            for (int a = 0; a < m - 1; a++) {
+                proj += vectors.getEntry(a, e) * cd[a];
+            }
+            w += proj * proj / values[e];
+        }
+        if (rank == 0) {
+            return NONE;
+        }
+        return new Wald(w, rank, Gamma.regularizedGammaQ(rank / 2.0, w / 2));
+    }
+}
