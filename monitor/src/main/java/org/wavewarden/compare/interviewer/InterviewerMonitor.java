@@ -99,6 +99,66 @@ public final class InterviewerMonitor {
 
     /** The same from the interviewer column's domain tallies themselves. */
     public static Result judge(DomainTally interviewers, ScreenedWave screened, Breakdowns config, double alpha) {
+        Assessment a = assess(interviewers, screened, config, alpha);
+        if (a.tests() == null) {
+            return Result.nothing(a.notes());
+        }
+        List<String> ids = interviewers.domains();
+        long[] workload = interviewers.rows();
+        List<Test> tests = a.tests();
+        double[] p = tests.stream().mapToDouble(t -> t.result().pValue()).toArray();
+        double[] q = a.q();
+        Workloads w = a.workloads();
+        double confidence = 1 - alpha;
+        List<InterviewerFlag> flags = new ArrayList<>();
+        List<Finding> findings = new ArrayList<>();
+        List<Integer> order = new ArrayList<>();
+        for (int i = 0; i < tests.size(); i++) {
+            if (q[i] < alpha) {
+                order.add(i);
+            }
+        }
+        order.sort(Comparator.comparingDouble((Integer i) -> q[i]).thenComparingDouble(i -> p[i]));
+        for (int i : order) {
+            Test t = tests.get(i);
+            InterviewerFlag flag = new InterviewerFlag(interviewers.column(), ids.get(t.interviewer()),
+                    t.variable().name(), t.measure(), t.result().test(), workload[t.interviewer()], t.value(),
+                    t.rest(), t.result().pValue(), q[i], t.offending(), config.minInterviews());
+            flags.add(flag);
+            Double df = Double.isNaN(t.result().df()) ? null : t.result().df();
+            findings.add(new Finding(t.variable().name(), t.variable().label(), FindingKind.INTERVIEWER_OUTLIER,
+                    t.result().test(), t.result().statistic(), t.result().pValue(), q[i], null, null, t.restN(),
+                    t.ownN(), InterviewerSentences.outlier(flag, t, w), flag, df, df == null ? null
+                    : t.result().dfConvention(), a.family(), FDR));
+        }
+        for (InterviewerEffect e : a.effects()) {
+            if (e.ciLow() > config.iccThreshold()) {
+                VariableConfig v = screened.variable(e.variable()).orElseThrow();
+                findings.add(new Finding(e.variable(), v.label(), FindingKind.INTERVIEWER_EFFECT,
+                        "F test of the interviewer effect", e.fStatistic(), e.pValue(), null,
+                        new Finding.Effect(IntraInterviewerCorrelation.NAME, e.icc(), e.ciLow(), e.ciHigh(),
+                                config.iccThreshold()), null, null, e.interviews(),
+                        InterviewerSentences.effect(e, config.iccThreshold(), confidence, w), e, e.dfBetween(),
+                        "interviewers - 1; within: interviews - interviewers = "
+                                + String.format(java.util.Locale.ROOT, "%.0f", e.dfWithin()), null, null));
+            }
+        }
+        return new Result(findings, flags, a.effects(), a.notes());
+    }
+
+    /**
+     * Every interviewer test of a wave with its q-value, and every measure's interviewer effect.
+     *
+     * @param tests  every test, in order of variable, measure and interviewer; null when fewer than two
+     *               interviewers could be judged
+     * @param q      the tests' q-values (Benjamini-Hochberg over all of them), same order
+     * @param family how many p-values were adjusted together
+     */
+    record Assessment(List<Test> tests, double[] q, int family, List<InterviewerEffect> effects, List<String> notes,
+                      Workloads workloads) {
+    }
+
+    static Assessment assess(DomainTally interviewers, ScreenedWave screened, Breakdowns config, double alpha) {
         if (!(alpha > 0 && alpha < 1)) {
             throw new IllegalArgumentException("alpha must lie in (0, 1), was " + alpha);
         }
@@ -121,7 +181,7 @@ public final class InterviewerMonitor {
             notes.add(String.format(java.util.Locale.ROOT, "%d interviewer%s reached the minimum workload of %d "
                     + "interviews: at least two are needed to compare, so none was judged.", w.judged(),
                     w.judged() == 1 ? "" : "s", config.minInterviews()));
-            return Result.nothing(notes);
+            return new Assessment(null, null, 0, List.of(), notes, w);
         }
 
         List<Test> tests = new ArrayList<>();
@@ -170,42 +230,8 @@ public final class InterviewerMonitor {
         }
 
         double[] p = tests.stream().mapToDouble(t -> t.result().pValue()).toArray();
-        double[] q = BenjaminiHochberg.adjust(p);
         int family = (int) java.util.Arrays.stream(p).filter(x -> !Double.isNaN(x)).count();
-        List<InterviewerFlag> flags = new ArrayList<>();
-        List<Finding> findings = new ArrayList<>();
-        List<Integer> order = new ArrayList<>();
-        for (int i = 0; i < tests.size(); i++) {
-            if (q[i] < alpha) {
-                order.add(i);
-            }
-        }
-        order.sort(Comparator.comparingDouble((Integer i) -> q[i]).thenComparingDouble(i -> p[i]));
-        for (int i : order) {
-            Test t = tests.get(i);
-            InterviewerFlag flag = new InterviewerFlag(interviewers.column(), ids.get(t.interviewer()),
-                    t.variable().name(), t.measure(), t.result().test(), workload[t.interviewer()], t.value(),
-                    t.rest(), t.result().pValue(), q[i], t.offending(), config.minInterviews());
-            flags.add(flag);
-            Double df = Double.isNaN(t.result().df()) ? null : t.result().df();
-            findings.add(new Finding(t.variable().name(), t.variable().label(), FindingKind.INTERVIEWER_OUTLIER,
-                    t.result().test(), t.result().statistic(), t.result().pValue(), q[i], null, null, t.restN(),
-                    t.ownN(), InterviewerSentences.outlier(flag, t, w), flag, df, df == null ? null
-                    : t.result().dfConvention(), family, FDR));
-        }
-        for (InterviewerEffect e : effects) {
-            if (e.ciLow() > config.iccThreshold()) {
-                VariableConfig v = screened.variable(e.variable()).orElseThrow();
-                findings.add(new Finding(e.variable(), v.label(), FindingKind.INTERVIEWER_EFFECT,
-                        "F test of the interviewer effect", e.fStatistic(), e.pValue(), null,
-                        new Finding.Effect(IntraInterviewerCorrelation.NAME, e.icc(), e.ciLow(), e.ciHigh(),
-                                config.iccThreshold()), null, null, e.interviews(),
-                        InterviewerSentences.effect(e, config.iccThreshold(), confidence, w), e, e.dfBetween(),
-                        "interviewers - 1; within: interviews - interviewers = "
-                                + String.format(java.util.Locale.ROOT, "%.0f", e.dfWithin()), null, null));
-            }
-        }
-        return new Result(findings, flags, effects, notes);
+        return new Assessment(tests, BenjaminiHochberg.adjust(p), family, effects, notes, w);
     }
 
     /** How many interviewers were judged and left out, for every sentence. */
