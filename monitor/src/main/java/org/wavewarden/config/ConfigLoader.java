@@ -541,7 +541,7 @@ public final class ConfigLoader {
             known(node, path, "name", "table", "waveColumn", "tablePattern", "waveOrder", "compareWith", "schedule",
                     "exclude", "variables", "quietPeriod", "alerts", "readyTable", "readyColumn", "weightColumn",
                     "respondentKey", "releases", "design", "relationships", "codebook", "population",
-                    "expectedChanges", "mutes");
+                    "expectedChanges", "mutes", "breakdowns");
             String name = text(node, "name", path + ".name", true);
             if (!name.matches("[A-Za-z0-9][A-Za-z0-9_.-]{0,99}")) {
                 throw new ConfigException(path + ".name", "expected letters, digits, '-', '_' or '.' (at most 100)"
@@ -605,9 +605,13 @@ public final class ConfigLoader {
                     table, pattern, waveColumn);
             WaveOrder order = waveOrder(node, path);
             CompareWith compareWith = compareWith(node.get("compareWith"), path + ".compareWith");
-            if (compareWith instanceof CompareWith.Baseline b && !order.isNatural() && !order.explicit().contains(b.wave())) {
-                throw new ConfigException(path + ".compareWith.baseline", "wave '" + b.wave() + "' is not in "
-                        + path + ".waveOrder " + order.explicit());
+            for (int i = 0; i < compareWith.rules().size(); i++) {
+                if (compareWith.rules().get(i) instanceof CompareWith.Baseline b && !order.isNatural()
+                        && !order.explicit().contains(b.wave())) {
+                    throw new ConfigException(path + ".compareWith" + (compareWith instanceof CompareWith.Alongside
+                            ? "[" + i + "]" : "") + ".baseline", "wave '" + b.wave() + "' is not in " + path
+                            + ".waveOrder " + order.explicit());
+                }
             }
             DatasetConfig d = new DatasetConfig(name, table, waveColumn, pattern, order, compareWith, schedule,
                     exclude, variables, duration(node, "quietPeriod", path + ".quietPeriod"),
@@ -621,7 +625,98 @@ public final class ConfigLoader {
                     new AlertRules(expectedChanges(node.get("expectedChanges"), path + ".expectedChanges", order),
                             mutes(node.get("mutes"), path + ".mutes", order)));
             notBookkeeping(d, path);
-            return d;
+            Breakdowns breakdowns = breakdowns(object(node, "breakdowns", path + ".breakdowns", false), d,
+                    path + ".breakdowns");
+            return breakdowns == null ? d : new DatasetConfig(d.name(), d.table(), d.waveColumn(), d.tablePattern(),
+                    d.waveOrder(), d.compareWith(), d.schedule(), d.exclude(), d.variables(), d.quietPeriod(),
+                    d.alerts(), d.readyTable(), d.readyColumn(), d.weightColumn(), d.respondentKey(), d.releases(),
+                    d.design(), d.relationships(), d.codebook(), d.population(), d.alertRules(), breakdowns);
+        }
+
+        /**
+         * {@code breakdowns: {columns, maxDomains, interviewer, minInterviews, keyVariables, iccThreshold,
+         * maxCases}}: the domain columns flagged variables are broken down by, and the interviewer monitoring. A
+         * domain column may be a monitored variable or an excluded identifier, but not the wave, weight, respondent
+         * key or release column (bookkeeping whose every value is its own domain, or no domain at all). The
+         * interviewer's settings need the interviewer column; key variables must be compared variables, so
+         * neither bookkeeping nor the interviewer column itself (that each exists in the table, declared or inferred,
+         * is the catalog check's). Null when the section is left out.
+         */
+        Breakdowns breakdowns(ObjectNode node, DatasetConfig d, String path) {
+            if (node == null) {
+                return null;
+            }
+            known(node, path, "columns", "maxDomains", "interviewer", "minInterviews", "keyVariables",
+                    "iccThreshold", "maxCases");
+            List<String> columns = texts(node, "columns", path + ".columns");
+            if (columns.isEmpty()) {
+                throw new ConfigException(path + ".columns", "missing: expected the list of domain columns, e.g."
+                        + " [district, interview_mode]");
+            }
+            for (int i = 0; i < columns.size(); i++) {
+                String at = path + ".columns[" + i + "]";
+                String c = columns.get(i);
+                Identifiers.require(at, c);
+                int twin = columns.indexOf(c);
+                if (twin < i) {
+                    throw new ConfigException(at, "'" + c + "' is listed twice (also " + path + ".columns[" + twin
+                            + "])");
+                }
+                String other = c.equals(d.waveColumn()) ? "waveColumn" : c.equals(d.weightColumn()) ? "weightColumn"
+                        : c.equals(d.respondentKey()) ? "respondentKey" : c.equals(d.releaseColumn())
+                        ? "releases.column" : null;
+                if (other != null) {
+                    throw new ConfigException(at, "'" + c + "' is the dataset's " + other + " ("
+                            + path.substring(0, path.lastIndexOf('.')) + "." + other + "), which is never a domain:"
+                            + " break down by the answers or the field work, e.g. a district or an interviewer");
+                }
+            }
+            int maxDomains = node.has("maxDomains") ? wholeNumber(node, "maxDomains", path + ".maxDomains", 1,
+                    100_000, "domains") : Breakdowns.DEFAULT_MAX_DOMAINS;
+            int maxCases = node.has("maxCases") ? wholeNumber(node, "maxCases", path + ".maxCases", 1, 10_000_000,
+                    "cases") : Breakdowns.DEFAULT_MAX_CASES;
+            String interviewer = text(node, "interviewer", path + ".interviewer", false);
+            if (interviewer == null) {
+                for (String k : List.of("minInterviews", "keyVariables", "iccThreshold")) {
+                    if (node.has(k)) {
+                        throw new ConfigException(path + "." + k, "only meaningful with " + path + ".interviewer,"
+                                + " the column naming each interview's interviewer");
+                    }
+                }
+                return new Breakdowns(columns, maxDomains, null, Breakdowns.DEFAULT_MIN_INTERVIEWS, List.of(),
+                        Breakdowns.DEFAULT_ICC_THRESHOLD, maxCases);
+            }
+            if (!columns.contains(interviewer)) {
+                throw new ConfigException(path + ".interviewer", "'" + interviewer + "' is not one of " + path
+                        + ".columns " + columns + Suggest.nearest(interviewer, columns)
+                        .map(x -> "; did you mean '" + x + "'?").orElse("; add it there too, as its workloads are"
+                                + " tallied with the domains"));
+            }
+            // One interview gives no spread within an interviewer, so no interviewer effect can be estimated from it.
+            int minInterviews = node.has("minInterviews") ? wholeNumber(node, "minInterviews",
+                    path + ".minInterviews", 2, 1_000_000, "interviews") : Breakdowns.DEFAULT_MIN_INTERVIEWS;
+            double icc = number(node, "iccThreshold", path + ".iccThreshold", Breakdowns.DEFAULT_ICC_THRESHOLD);
+            if (!(icc >= 0 && icc < 1)) {
+                throw new ConfigException(path + ".iccThreshold", "expected an intra-interviewer correlation from 0"
+                        + " up to (not including) 1, e.g. 0.02, but got " + node.get("iccThreshold").asText());
+            }
+            List<String> keys = texts(node, "keyVariables", path + ".keyVariables");
+            for (int i = 0; i < keys.size(); i++) {
+                String at = path + ".keyVariables[" + i + "]";
+                String k = keys.get(i);
+                Identifiers.require(at, k);
+                if (keys.indexOf(k) < i) {
+                    throw new ConfigException(at, "'" + k + "' is listed twice (also " + path + ".keyVariables["
+                            + keys.indexOf(k) + "])");
+                }
+                if (k.equals(interviewer) || d.isBookkeeping(k)) {
+                    throw new ConfigException(at, "'" + k + "' is " + (k.equals(interviewer) ? "the interviewer"
+                            + " column itself" : "a column never compared as a variable (the wave, weight,"
+                            + " respondent key, release, design or an excluded column)") + "; key variables are the"
+                            + " answers whose per-interviewer distributions are compared");
+                }
+            }
+            return new Breakdowns(columns, maxDomains, interviewer, minInterviews, keys, icc, maxCases);
         }
 
         /** {@code population: sample | census | register}; a sample when left out. */
@@ -983,28 +1078,97 @@ public final class ConfigLoader {
             throw new ConfigException(path + ".waveOrder", "expected 'natural' or a list of wave labels");
         }
 
+        /**
+         * {@code compareWith}: one rule ({@code previous}, {@code {baseline: WAVE}}, {@code {pooledLast: K}},
+         * {@code {sameWaveBack: K}}) or a list of rules judged alongside each other, the first being the run's main
+         * baseline. A list holds no list, no rule twice, and at most one {@code baseline} and one {@code pooledLast}:
+         * each further rule adds a comparison of every variable to the run's one false-discovery-rate family, so a
+         * rule that can only repeat another's waves ({@code sameWaveBack: 1} or {@code pooledLast: 1} beside
+         * {@code previous}) is refused rather than spending the family's power twice on the same comparison.
+         */
         CompareWith compareWith(JsonNode node, String path) {
-            if (node == null || node.isNull() || (node.isTextual() && node.asText().equals("previous"))) {
+            if (node == null || node.isNull()) {
+                return CompareWith.PREVIOUS;
+            }
+            if (!node.isArray()) {
+                return compareRule(node, path);
+            }
+            if (node.isEmpty()) {
+                throw new ConfigException(path, "expected at least one rule, e.g. [previous, {sameWaveBack: 4}];"
+                        + " leave compareWith out for the previous wave");
+            }
+            List<CompareWith> rules = new ArrayList<>();
+            for (int i = 0; i < node.size(); i++) {
+                String p = path + "[" + i + "]";
+                if (node.get(i).isArray()) {
+                    throw new ConfigException(p, "expected one rule (previous, {baseline: WAVE}, {pooledLast: K} or"
+                            + " {sameWaveBack: K}) but got a list; the rules of compareWith are one flat list");
+                }
+                CompareWith rule = compareRule(node.get(i), p);
+                int twin = rules.indexOf(rule);
+                if (twin >= 0) {
+                    throw new ConfigException(p, "the same rule as " + path + "[" + twin + "]; list each rule once");
+                }
+                for (int j = 0; j < rules.size(); j++) {
+                    CompareWith other = rules.get(j);
+                    if (other.getClass() == rule.getClass() && (rule instanceof CompareWith.Baseline
+                            || rule instanceof CompareWith.PooledLast)) {
+                        throw new ConfigException(p, "a second " + ruleName(rule) + " rule beside " + path + "["
+                                + j + "]; at most one fixed baseline and one pooled baseline are judged alongside");
+                    }
+                    if (sameAsPrevious(rule) && other instanceof CompareWith.Previous
+                            || sameAsPrevious(other) && rule instanceof CompareWith.Previous) {
+                        throw new ConfigException(p, "compares with the same wave as " + path + "[" + j + "]"
+                                + " (the previous wave), so every comparison would be made twice; drop one of them");
+                    }
+                }
+                rules.add(rule);
+            }
+            return rules.size() == 1 ? rules.get(0) : new CompareWith.Alongside(rules);
+        }
+
+        private static boolean sameAsPrevious(CompareWith rule) {
+            return rule instanceof CompareWith.SameWaveBack s && s.waves() == 1
+                    || rule instanceof CompareWith.PooledLast p && p.waves() == 1;
+        }
+
+        private static String ruleName(CompareWith rule) {
+            return rule instanceof CompareWith.Baseline ? "baseline" : rule instanceof CompareWith.PooledLast
+                    ? "pooledLast" : rule instanceof CompareWith.SameWaveBack ? "sameWaveBack" : "previous";
+        }
+
+        /** One rule of {@code compareWith}. */
+        CompareWith compareRule(JsonNode node, String path) {
+            if (node.isTextual() && node.asText().equals("previous")) {
                 return CompareWith.PREVIOUS;
             }
             if (node.isObject()) {
                 ObjectNode o = (ObjectNode) node;
-                known(o, path, "baseline", "pooledLast");
+                known(o, path, "baseline", "pooledLast", "sameWaveBack");
                 if (o.size() != 1) {
-                    throw new ConfigException(path, "expected exactly one of baseline or pooledLast");
+                    throw new ConfigException(path, "expected exactly one of baseline, pooledLast or sameWaveBack");
                 }
                 if (o.has("baseline")) {
                     return new CompareWith.Baseline(text(o, "baseline", path + ".baseline", true));
                 }
-                double k = number(o, "pooledLast", path + ".pooledLast", Double.NaN);
-                if (k != Math.rint(k) || k < 1 || k > 1000) {
-                    throw new ConfigException(path + ".pooledLast", "expected a whole number of waves from 1 to 1000"
-                            + " but got " + o.get("pooledLast").asText());
-                }
-                return new CompareWith.PooledLast((int) k);
+                String key = o.has("pooledLast") ? "pooledLast" : "sameWaveBack";
+                int k = wholeNumber(o, key, path + "." + key, 1, 1000, "waves");
+                return key.equals("pooledLast") ? new CompareWith.PooledLast(k) : new CompareWith.SameWaveBack(k);
             }
-            throw new ConfigException(path, "expected previous, {baseline: WAVE} or {pooledLast: K} but got "
-                    + Identifiers.Text.show(node.asText()));
+            throw new ConfigException(path, "expected previous, {baseline: WAVE}, {pooledLast: K} or"
+                    + " {sameWaveBack: K} but got " + (node.isContainerNode() ? describe(node)
+                    : Identifiers.Text.show(node.asText())) + (node.isTextual() ? Suggest.nearest(node.asText(),
+                    List.of("previous")).map(x -> " (did you mean '" + x + "'?)").orElse("") : ""));
+        }
+
+        /** A required whole number from {@code min} to {@code max} of {@code unit}. */
+        int wholeNumber(ObjectNode o, String key, String path, int min, int max, String unit) {
+            double k = number(o, key, path, Double.NaN);
+            if (k != Math.rint(k) || k < min || k > max) {
+                throw new ConfigException(path, "expected a whole number of " + unit + " from " + min + " to " + max
+                        + " but got " + o.get(key).asText());
+            }
+            return (int) k;
         }
 
         VariableConfig variable(ObjectNode node, String path) {

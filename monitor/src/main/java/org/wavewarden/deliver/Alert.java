@@ -43,6 +43,11 @@ public record Alert(List<Finding> facets) {
         return lead().kind();
     }
 
+    /** The baseline the event was judged against when the run judged several (null: the run's main one). */
+    public String against() {
+        return lead().against();
+    }
+
     /** The lead's verdict; null when it is a data-quality finding without one. */
     public Verdict verdict() {
         return lead().verdict();

@@ -53,15 +53,18 @@ public final class Alerts {
     }
 
     /**
-     * What makes two findings of one wave the same event: the variable, or for a finding that is an event of its own
-     * also its kind (so a relationship named like a column never joins that column's alert).
+     * What makes two findings of one wave the same event: the variable and the baseline it was judged against
+     * ({@link Finding#against}, null for the run's main one), or for a finding that is an event of its own also its
+     * kind (so a relationship named like a column never joins that column's alert). A change against the same
+     * quarter a year back and one against the previous wave are two events: the first says the season moved, the
+     * second may only be the season itself, and each is looked at, muted or closed on its own.
      */
-    private record Event(String variable, FindingKind ownKind) {
+    private record Event(String variable, FindingKind ownKind, String against) {
     }
 
     private static Event event(Finding f) {
         Alert.Facet facet = Alert.Facet.of(f.kind());
         boolean own = facet == Alert.Facet.RELATIONSHIP || facet == Alert.Facet.WAVE;
-        return new Event(f.variable(), own ? f.kind() : null);
+        return new Event(f.variable(), own ? f.kind() : null, f.against());
     }
 }

@@ -91,17 +91,26 @@ public final class Repeats {
         // reason in its detail); should a kind ever give two, the first is the one compared.
         Map<Key, Finding> before = new LinkedHashMap<>();
         for (Finding p : previousFindings) {
-            before.putIfAbsent(new Key(p.variable(), p.kind()), p);
+            before.putIfAbsent(Key.of(p), p);
         }
         List<Finding> out = new ArrayList<>(findings.size());
         for (Finding f : findings) {
-            Finding previous = before.get(new Key(f.variable(), f.kind()));
+            Finding previous = before.get(Key.of(f));
             out.add(previous == null || !Alerts.worthAPerson(f) ? f : marked(previousWave, previous, f));
         }
         return out;
     }
 
-    private record Key(String variable, FindingKind kind) {
+    /**
+     * What a finding must share with the previous wave's to repeat it: the variable, the kind and the rule of the
+     * baseline it was judged against ({@link Against#rule}; null for the run's main baseline). The waves of a rule
+     * move on with the judged wave, the rule does not: this quarter's finding against the same quarter last year
+     * repeats last quarter's against its same quarter last year, never last quarter's against its previous wave.
+     */
+    private record Key(String variable, FindingKind kind, String rule) {
+        static Key of(Finding f) {
+            return new Key(f.variable(), f.kind(), Against.rule(f.against()));
+        }
     }
 
     private static Finding marked(String previousWave, Finding previous, Finding f) {

@@ -42,6 +42,36 @@ public final class WaveVerdicts {
                 Judge.judge(comparisons, alpha, fdr, population)))), relativeError);
     }
 
+    /**
+     * The findings of several baselines' comparisons judged alongside each other: every comparison of every group
+     * in ONE false-discovery-rate family (the family counts them all, so judging a wave against a second baseline
+     * costs each test its share of the error rate), then each group's findings made by the rules of
+     * {@link #judge} on their own, since one missing-rate finding per variable and a shape finding beside its
+     * location finding are rules about one pair of waves.
+     *
+     * @param groups        per baseline, its comparisons
+     * @param relativeError per baseline, the relative error bound of each summarised variable
+     * @return per baseline, its findings
+     */
+    public static List<List<Finding>> judgeAlongside(List<List<Comparison>> groups,
+                                                     List<Map<String, Double>> relativeError, double alpha,
+                                                     WardenConfig.FdrMethod fdr,
+                                                     org.wavewarden.config.Population population) {
+        List<Comparison> all = new ArrayList<>();
+        groups.forEach(all::addAll);
+        // Judge keeps the order of the comparisons it is given, one finding each, so the family splits back by size.
+        List<Finding> judged = Judge.judge(all, alpha, fdr, population);
+        List<List<Finding>> out = new ArrayList<>(groups.size());
+        int from = 0;
+        for (int g = 0; g < groups.size(); g++) {
+            int to = from + groups.get(g).size();
+            out.add(withSummaryError(MissingRateContext.apply(shapeOnlyWhereLocationIsQuiet(onePerVariableAndKind(
+                    judged.subList(from, to)))), relativeError.get(g)));
+            from = to;
+        }
+        return out;
+    }
+
     /** Findings in reading order: most urgent verdict first, then by size relative to threshold, variable, kind. */
     public static List<Finding> ordered(List<Finding> findings) {
         return findings.stream().sorted(Comparator.comparingDouble(Finding::urgency)

@@ -81,8 +81,25 @@ public final class CatalogCheck {
                 successValueOccurs(h, tables, v, column, at + ".successValue");
             }
         }
-        if (d.compareWith() instanceof CompareWith.Baseline b) {
-            baselineExists(h, src, tables, b.wave(), key + ".compareWith.baseline");
+        for (int j = 0; j < d.compareWith().rules().size(); j++) {
+            if (d.compareWith().rules().get(j) instanceof CompareWith.Baseline b) {
+                baselineExists(h, src, tables, b.wave(), key + ".compareWith" + (d.compareWith()
+                        instanceof CompareWith.Alongside ? "[" + j + "]" : "") + ".baseline");
+            }
+        }
+        for (int j = 0; j < d.breakdowns().columns().size(); j++) {
+            String name = d.breakdowns().columns().get(j);
+            if (columns.stream().noneMatch(c -> c.name().equals(name))) {
+                throw new ConfigException(key + ".breakdowns.columns[" + j + "]", "column " + name + " does not"
+                        + " exist in the source table; it has " + names(columns));
+            }
+        }
+        for (int j = 0; j < d.breakdowns().keyVariables().size(); j++) {
+            String name = d.breakdowns().keyVariables().get(j);
+            if (columns.stream().noneMatch(c -> c.name().equals(name))) {
+                throw new ConfigException(key + ".breakdowns.keyVariables[" + j + "]", "column " + name + " does not"
+                        + " exist in the source table; it has " + names(columns));
+            }
         }
         if (d.readyTable() != null) {
             var rt = org.wavewarden.config.Identifiers.TableName.parse(key + ".readyTable", d.readyTable());

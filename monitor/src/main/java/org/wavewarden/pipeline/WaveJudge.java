@@ -23,6 +23,7 @@ import org.wavewarden.deliver.Alert;
 import org.wavewarden.deliver.Alerts;
 import org.wavewarden.deliver.FindingsFiles;
 import org.wavewarden.deliver.FindingsReport;
+import org.wavewarden.judge.Against;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
 import org.wavewarden.judge.SchemaFindings;
@@ -138,34 +139,83 @@ public final class WaveJudge {
     /**
      * The same with the waves' row counts: under the previous-wave and pooled rules a wave without rows is never a
      * baseline, and the last waves with rows stand in (a configured baseline or {@code --against} is taken as
-     * given).
+     * given; a wave {@code k} back without rows is no baseline). With several rules, the run's main baseline: the
+     * first rule's, or when it has none for this wave (no wave {@code k} back yet), the next rule's that has one.
      */
     public static List<String> baselinesWithRows(DatasetConfig d, List<WaveInfo> waves, String wave, String override) {
+        if (override != null) {
+            return baselineWaves(d, waves.stream().map(WaveInfo::wave).toList(), wave, override);
+        }
+        return ruleBaselines(d, waves, wave).get(0).waves();
+    }
+
+    /** One rule of a run and the waves it compares the judged wave with this time (empty: none). */
+    public record RuleWaves(CompareWith rule, List<String> waves) {
+    }
+
+    /**
+     * Every rule of the dataset with its waves, the run's main rule first (the first rule with a baseline for this
+     * wave, else the first rule), the others in their configured order.
+     */
+    public static List<RuleWaves> ruleBaselines(DatasetConfig d, List<WaveInfo> waves, String wave) {
         List<String> order = waves.stream().map(WaveInfo::wave).toList();
-        List<String> asListed = baselineWaves(d, order, wave, override);
-        if (override != null || d.compareWith() instanceof CompareWith.Baseline) {
+        if (!order.contains(wave)) {
+            throw new ConfigException("--wave", "no wave '" + wave + "' in " + d.name() + "; waves: " + order);
+        }
+        List<RuleWaves> all = d.compareWith().rules().stream()
+                .map(r -> new RuleWaves(r, withRows(r, d, waves, wave))).toList();
+        int main = 0;
+        while (main < all.size() && all.get(main).waves().isEmpty()) {
+            main++;
+        }
+        if (main == all.size() || main == 0) {
+            return all;
+        }
+        List<RuleWaves> out = new ArrayList<>(all.size());
+        out.add(all.get(main));
+        for (int i = 0; i < all.size(); i++) {
+            if (i != main) {
+                out.add(all.get(i));
+            }
+        }
+        return out;
+    }
+
+    private static List<String> withRows(CompareWith rule, DatasetConfig d, List<WaveInfo> waves, String wave) {
+        List<String> order = waves.stream().map(WaveInfo::wave).toList();
+        List<String> asListed = baselineWaves(rule, d, order, wave);
+        if (rule instanceof CompareWith.Baseline) {
             return asListed;
         }
         java.util.Set<String> empty = new java.util.HashSet<>();
         waves.stream().filter(w -> w.rows() == 0).forEach(w -> empty.add(w.wave()));
+        if (rule instanceof CompareWith.SameWaveBack) {
+            // The season's wave and no other: a nearer wave with rows would compare another season.
+            return asListed.stream().filter(w -> !empty.contains(w)).toList();
+        }
         List<String> earlier = order.subList(0, order.indexOf(wave)).stream().filter(w -> !empty.contains(w)).toList();
-        int take = d.compareWith() instanceof CompareWith.PooledLast p ? p.waves() : 1;
+        int take = rule instanceof CompareWith.PooledLast p ? p.waves() : 1;
         return earlier.subList(Math.max(0, earlier.size() - take), earlier.size());
     }
 
-    /** The waves without rows the rule passed over to reach {@code chosen}. */
-    private static List<String> passedOver(DatasetConfig d, List<WaveInfo> waves, String wave, String override,
-                                           List<String> chosen) {
-        List<String> asListed = baselineWaves(d, waves.stream().map(WaveInfo::wave).toList(), wave, override);
+    /** The waves without rows the main rule passed over to reach {@code chosen}. */
+    private static List<String> passedOver(DatasetConfig d, CompareWith rule, List<WaveInfo> waves, String wave,
+                                           String override, List<String> chosen) {
+        if (override == null && !(rule instanceof CompareWith.Previous || rule instanceof CompareWith.PooledLast)) {
+            return List.of();
+        }
+        List<String> order = waves.stream().map(WaveInfo::wave).toList();
+        List<String> asListed = override != null ? baselineWaves(d, order, wave, override)
+                : baselineWaves(rule, d, order, wave);
         if (asListed.equals(chosen)) {
             return List.of();
         }
-        int from = chosen.isEmpty() ? 0 : waves.stream().map(WaveInfo::wave).toList().indexOf(chosen.get(0));
-        int to = waves.stream().map(WaveInfo::wave).toList().indexOf(wave);
+        int from = chosen.isEmpty() ? 0 : order.indexOf(chosen.get(0));
+        int to = order.indexOf(wave);
         return waves.subList(from, to).stream().filter(w -> w.rows() == 0).map(WaveInfo::wave).toList();
     }
 
-    /** The waves the given wave is compared against under the dataset's rule (empty for the first wave). */
+    /** The waves the given wave is compared against under the dataset's first rule (empty for the first wave). */
     public static List<String> baselineWaves(DatasetConfig d, List<String> order, String wave, String override) {
         int i = order.indexOf(wave);
         if (i < 0) {
@@ -178,7 +228,15 @@ public final class WaveJudge {
             }
             return List.of(override);
         }
-        CompareWith cw = d.compareWith();
+        return baselineWaves(d.compareWith().rules().get(0), d, order, wave);
+    }
+
+    /** The waves one rule compares the given wave against, rows not considered (empty: none). */
+    public static List<String> baselineWaves(CompareWith cw, DatasetConfig d, List<String> order, String wave) {
+        int i = order.indexOf(wave);
+        if (i < 0) {
+            throw new ConfigException("--wave", "no wave '" + wave + "' in " + d.name() + "; waves: " + order);
+        }
         if (cw instanceof CompareWith.Baseline b) {
             if (!order.contains(b.wave())) {
                 throw new ConfigException("compareWith.baseline", "no wave '" + b.wave() + "' in " + d.name());
@@ -187,6 +245,9 @@ public final class WaveJudge {
         }
         if (cw instanceof CompareWith.PooledLast p) {
             return order.subList(Math.max(0, i - p.waves()), i);
+        }
+        if (cw instanceof CompareWith.SameWaveBack s) {
+            return i >= s.waves() ? List.of(order.get(i - s.waves())) : List.of();
         }
         return i == 0 ? List.of() : List.of(order.get(i - 1));
     }
@@ -215,14 +276,16 @@ public final class WaveJudge {
         WaveSource source = WaveSource.of(d, "dataset");
         List<WaveInfo> listed = waves(d);
         List<String> order = listed.stream().map(WaveInfo::wave).toList();
-        List<String> against = baselinesWithRows(d, listed, wave, againstOverride);
-        String againstLabel = against.isEmpty() ? null : against.size() == 1 ? against.get(0)
-                : "pooled " + against.get(0) + " .. " + against.get(against.size() - 1);
+        // --against names the one wave to compare with, instead of every configured rule.
+        List<RuleWaves> rules = againstOverride != null ? List.of(new RuleWaves(d.compareWith().rules().get(0),
+                baselinesWithRows(d, listed, wave, againstOverride))) : ruleBaselines(d, listed, wave);
+        List<String> against = rules.get(0).waves();
+        String mainLabel = against.isEmpty() ? null : Against.waves(against);
 
         WaveProfile current = session.source().withHandle(h -> profile(h, d, source, wave, progress));
         List<WaveProfile> baselines = new ArrayList<>();
         List<String> notes = new ArrayList<>();
-        List<String> passedOver = passedOver(d, listed, wave, againstOverride, against);
+        List<String> passedOver = passedOver(d, rules.get(0).rule(), listed, wave, againstOverride, against);
         if (!passedOver.isEmpty()) {
             notes.add("Wave" + (passedOver.size() == 1 ? " " : "s ") + String.join(", ", passedOver)
                     + (passedOver.size() == 1 ? " has" : " have") + " no rows and " + (passedOver.size() == 1 ? "is"
@@ -234,7 +297,9 @@ public final class WaveJudge {
             baselines.add(baselineProfile(d, source, b, current.columnNames(), notes));
         }
         WaveProfile baseline = baselines.isEmpty() ? null
-                : baselines.size() == 1 ? baselines.get(0) : WaveProfile.pooled(againstLabel, baselines);
+                : baselines.size() == 1 ? baselines.get(0) : WaveProfile.pooled(mainLabel, baselines);
+        List<FurtherBaseline> further = furtherBaselines(d, source, rules, wave, current, notes);
+        String againstLabel = Against.runLabel(mainLabel, further.stream().map(FurtherBaseline::label).toList());
 
         WaveCodebooks codebooks = new WaveCodebooks(session.store().jdbi(), cfg.results().schema());
         Optional<DatasetCodebook> currentCodebook = codebooks.load(d.name(), wave);
@@ -246,7 +311,7 @@ public final class WaveJudge {
         Screened screened = screen(judgedAs, current, baseline);
         Profiled judged = findings(cfg, judgedAs, current, baseline, screened,
                 panel(judgedAs, source, against, baseline, current, screened),
-                history(d, source, listed, wave, against, baselines, againstLabel));
+                history(d, source, listed, wave, against, baselines, mainLabel), further);
         List<String> inference = new ArrayList<>(notes);
         inference.addAll(judged.inference());
         List<Finding> findings = labelled(screened, FindingsFiles.ordered(withRelabelledCodes(judged.findings(),
@@ -271,6 +336,48 @@ public final class WaveJudge {
         // The summary the run stored becomes the baseline of later waves under this configuration.
         session.store().keySummary(d.name(), wave, checksum, SummaryKey.of(d, current.schema()).value());
         return new JudgedWave(report, runId, alerts);
+    }
+
+    /**
+     * The baselines of the run's rules after the main one, each read once (a stored summary when there is one), and
+     * a note for every rule that has no baseline for this wave or only the waves of a rule before it.
+     */
+    private List<FurtherBaseline> furtherBaselines(DatasetConfig d, WaveSource source, List<RuleWaves> rules,
+                                                   String wave, WaveProfile current, List<String> notes) {
+        List<FurtherBaseline> out = new ArrayList<>();
+        java.util.Set<List<String>> compared = new java.util.HashSet<>();
+        compared.add(rules.get(0).waves());
+        boolean several = rules.size() > 1;
+        for (int i = 0; i < rules.size(); i++) {
+            RuleWaves r = rules.get(i);
+            if (r.waves().isEmpty()) {
+                if (several || r.rule() instanceof CompareWith.SameWaveBack) {
+                    notes.add("Wave " + wave + " has no baseline " + Against.ruleName(r.rule()) + " (no earlier wave"
+                            + " with rows that far back), so it is judged " + (rules.get(0).waves().isEmpty()
+                            ? "against no baseline: screened, not compared." : "against " + Against.waves(
+                            rules.get(0).waves()) + " (" + Against.ruleName(rules.get(0).rule()) + ")"
+                            + (several ? " and the other rules' baselines" : "") + " only."));
+                }
+                continue;
+            }
+            if (i == 0) {
+                continue;
+            }
+            if (!compared.add(r.waves())) {
+                notes.add("The baseline " + Against.ruleName(r.rule()) + " of wave " + wave + " is "
+                        + Against.waves(r.waves()) + ", already compared under another rule, so it is compared"
+                        + " once.");
+                continue;
+            }
+            String label = Against.label(r.waves(), r.rule());
+            List<WaveProfile> profiles = new ArrayList<>();
+            for (String b : r.waves()) {
+                profiles.add(baselineProfile(d, source, b, current.columnNames(), notes));
+            }
+            out.add(new FurtherBaseline(label, profiles.size() == 1 ? profiles.get(0)
+                    : WaveProfile.pooled(Against.waves(r.waves()), profiles)));
+        }
+        return out;
     }
 
     private AlertReviews reviews() {
@@ -427,6 +534,24 @@ public final class WaveJudge {
      */
     public static Profiled findings(WardenConfig cfg, DatasetConfig d, WaveProfile current, WaveProfile baseline,
                                     Screened screened, PairedPanel.Panel panel, LocationHistory history) {
+        return findings(cfg, d, current, baseline, screened, panel, history, List.of());
+    }
+
+    /**
+     * A baseline judged alongside the run's main one ({@code compareWith} a list of rules): its name, which every
+     * finding made against it carries ({@link Finding#withAgainst}), and its summary (pooled when the rule pools).
+     */
+    public record FurtherBaseline(String label, WaveProfile profile) {
+    }
+
+    /**
+     * The same with further baselines judged alongside the main one: each adds the comparisons of the two waves
+     * ({@link Collected#alongside}), named by the baseline, and every comparison of the run, against whichever
+     * baseline, is one false-discovery-rate family.
+     */
+    public static Profiled findings(WardenConfig cfg, DatasetConfig d, WaveProfile current, WaveProfile baseline,
+                                    Screened screened, PairedPanel.Panel panel, LocationHistory history,
+                                    List<FurtherBaseline> further) {
         List<String> inference = new ArrayList<>(screened.current().inference());
         List<VariableConfig> variables = screened.current().variables();
         boolean weighted = d.weightColumn() != null;
@@ -438,10 +563,31 @@ public final class WaveJudge {
             relations.addAll(r.comparisons());
             inference.addAll(r.notes());
         }
-        List<Finding> findings = new ArrayList<>(judgeVariables(screened.baseline(), screened.current(),
-                weighted && baseline != null ? baseline.design() : null, weighted ? current.design() : null,
-                cfg.alpha(), cfg.fdr(), d.name() + " wave " + current.wave(), relations,
-                history, d.population()));
+        String what = d.name() + " wave " + current.wave();
+        List<Collected> sides = new ArrayList<>();
+        sides.add(collect(screened.baseline(), screened.current(), weighted && baseline != null ? baseline.design()
+                : null, weighted ? current.design() : null, cfg.alpha(), what, relations, history));
+        for (FurtherBaseline fb : further) {
+            Screened other = new Screened(screened.current(), ScreenedWave.screen(fb.profile(), weighted, variables,
+                    List.of()));
+            List<Comparison> otherRelations = new ArrayList<>();
+            relationships(cfg, d, other, current, fb.profile(), otherRelations, new ArrayList<>());
+            sides.add(collect(other.baseline(), other.current(), weighted ? fb.profile().design() : null,
+                    weighted ? current.design() : null, cfg.alpha(), what + " against " + fb.label(),
+                    otherRelations, history).alongside());
+        }
+        List<List<Finding>> judged = WaveVerdicts.judgeAlongside(sides.stream().map(Collected::comparisons).toList(),
+                sides.stream().map(Collected::summarised).toList(), cfg.alpha(), cfg.fdr(), d.population());
+        List<Finding> findings = new ArrayList<>();
+        for (int i = 0; i < sides.size(); i++) {
+            List<Finding> side = new ArrayList<>(judged.get(i));
+            side.addAll(sides.get(i).plain());
+            String label = i == 0 ? null : further.get(i - 1).label();
+            // The sentence says it too, as an alert's message carries the sentence and not the field.
+            side.forEach(f -> findings.add(label == null ? f : f.withAgainst(label).withSentence(
+                    Character.toUpperCase(Against.phrase(label).charAt(0)) + Against.phrase(label).substring(1)
+                            + ": " + f.sentence())));
+        }
         findings.addAll(relationNotes);
         findings.addAll(SchemaFindings.of(SchemaChanges.between(baseline, current)));
         if (current.rows() == 0) {
@@ -503,6 +649,43 @@ public final class WaveJudge {
                                                double alpha, WardenConfig.FdrMethod fdr, String what,
                                                List<Comparison> alsoJudged, LocationHistory history,
                                                Population population) {
+        Collected c = collect(baseline, current, baselineDesign, currentDesign, alpha, what, alsoJudged, history);
+        List<Finding> findings = new ArrayList<>(WaveVerdicts.judge(c.comparisons(), c.summarised(), alpha, fdr,
+                population == null ? Population.SAMPLE : population));
+        findings.addAll(c.plain());
+        return findings;
+    }
+
+    /**
+     * What one pair of sides gives before the false-discovery-rate control: the comparisons of the family, the
+     * findings made without a test, and the relative error bound of each summarised variable.
+     */
+    record Collected(List<Comparison> comparisons, List<Finding> plain, Map<String, Double> summarised) {
+
+        /**
+         * What a further baseline adds to a run: only what compares the two waves (shifts, shapes, missing-rate
+         * changes, relationships; codes that appeared or vanished, heaping or digit preference that rose; a
+         * variable that could not be compared with that baseline). What the judged wave shows on its own (its
+         * sentinels, codes, ranges, states, its comparison with a reference) is the same against every baseline
+         * and is reported once, with the main baseline's findings; so are the panel's paired comparisons (pairs
+         * are read with the main baseline only), schema changes and relabelled codes (the table's and codebook's
+         * history, reported when they happened).
+         */
+        Collected alongside() {
+            return new Collected(comparisons.stream().filter(c -> ALONGSIDE_KINDS.contains(c.kind())).toList(),
+                    plain.stream().filter(f -> ALONGSIDE_KINDS.contains(f.kind())).toList(), summarised);
+        }
+    }
+
+    /** The kinds a further baseline repeats, see {@link Collected#alongside}. */
+    static final java.util.Set<FindingKind> ALONGSIDE_KINDS = java.util.EnumSet.of(FindingKind.SHIFT,
+            FindingKind.SHAPE_CHANGE, FindingKind.MISSING_RATE_CHANGE, FindingKind.RELATIONSHIP_CHANGE,
+            FindingKind.CODE_APPEARED, FindingKind.CODE_VANISHED, FindingKind.HEAPING, FindingKind.DIGIT_PREFERENCE,
+            FindingKind.SKIPPED);
+
+    private static Collected collect(ScreenedWave baseline, ScreenedWave current, DesignSummary baselineDesign,
+                                     DesignSummary currentDesign, double alpha, String what,
+                                     List<Comparison> alsoJudged, LocationHistory history) {
         VariableComparator comparator = new VariableComparator(1 - alpha);
         WeightedComparator weighted = new WeightedComparator(1 - alpha);
         List<Comparison> comparisons = new ArrayList<>();
@@ -537,10 +720,7 @@ public final class WaveJudge {
             plain.addAll(myPlain);
         }
         comparisons.addAll(alsoJudged);
-        List<Finding> findings = new ArrayList<>(WaveVerdicts.judge(comparisons, summarised, alpha, fdr,
-                population == null ? Population.SAMPLE : population));
-        findings.addAll(plain);
-        return findings;
+        return new Collected(comparisons, plain, summarised);
     }
 
     /**
