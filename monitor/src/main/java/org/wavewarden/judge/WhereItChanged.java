@@ -414,7 +414,7 @@ public final class WhereItChanged {
     }
 
     /** A plain English plural of a column's words: districts, interview modes, cities, boxes. */
-    static String plural(String words) {
+    public static String plural(String words) {
         String w = words.toLowerCase(Locale.ROOT);
         if (w.endsWith("s") || w.endsWith("x") || w.endsWith("ch") || w.endsWith("sh")) {
             return words + "es";
