@@ -375,8 +375,10 @@ public final class WhereItChanged {
         DomainChange top = b.domains().get(0);
         String domain = columnWords(b.column()) + " " + top.domain();
         String across = "the change differs across " + plural(columnWords(b.column())) + " (" + q(b.qValue()) + ")";
-        String values = change(b, top.change()) + (b.elsewhere() == null ? ""
-                : "; elsewhere " + change(b, b.elsewhere()).replace(unitSuffix(b), ""));
+        // The pooled rest is printed with the first domain's digits, so the two numbers read side by side.
+        int digits = Sentences.decimals(top.change());
+        String values = change(b, top.change(), digits) + (b.elsewhere() == null ? ""
+                : "; elsewhere " + change(b, b.elsewhere(), digits).replace(unitSuffix(b), ""));
         boolean sameWay = Math.signum(top.change()) == Math.signum(b.overall()) && b.overall() != 0;
         boolean concentrated = sameWay && (b.elsewhere() == null || Math.abs(top.change()) > Math.abs(b.elsewhere()));
         if (concentrated) {
@@ -389,9 +391,9 @@ public final class WhereItChanged {
     }
 
     /** A change in the breakdown's unit: percentage points for shares and rates, the variable's unit for means. */
-    static String change(Breakdown b, double d) {
+    static String change(Breakdown b, double d, int digits) {
         if (b.kind() == DomainMeasure.Kind.MEAN) {
-            return (d >= 0 ? "+" : "") + Sentences.num(d, Sentences.decimals(d)) + unitSuffix(b);
+            return (d >= 0 ? "+" : "") + Sentences.num(d, digits) + unitSuffix(b);
         }
         return String.format(Locale.ROOT, "%+.1f", d * 100) + " points";
     }
@@ -403,9 +405,10 @@ public final class WhereItChanged {
         return b.unit() == null || b.unit().isBlank() ? "" : " " + b.unit();
     }
 
-    /** "q < 0.001" or two significant digits, as p-values are printed. */
+    /** "q < 0.001", else two significant digits without trailing zeros: "q = 0.012", "q = 0.03". */
     static String q(double q) {
-        return q < 0.001 ? "q < 0.001" : "q = " + String.format(Locale.ROOT, "%.2g", q);
+        return q < 0.001 ? "q < 0.001" : "q = " + new java.math.BigDecimal(q)
+                .round(new java.math.MathContext(2)).stripTrailingZeros().toPlainString();
     }
 
     /** A column name in words: "interview_mode" reads "interview mode". */
