@@ -56,7 +56,7 @@ public record BreakdownView(String title, List<String> headings, List<List<Strin
                     level(b, d.after()), signed(b, d.change()) + " (" + signed(b, d.ciLow()) + " to "
                             + signed(b, d.ciHigh()) + ")", q(d.qValue()), signed(b, d.contribution())));
         }
-        String overall = String.format(Locale.ROOT, "Overall change %s%s: %s within the %ss, %s from their"
+        String overall = String.format(Locale.ROOT, "Overall change %s%s: %s within the %s, %s from their"
                         + " shares of the population moving (composition, Kitagawa 1955).", signed(b, b.overall()),
                 mean ? unitWords(b) : " points", signed(b, b.overall() - b.composition()),
                 org.wavewarden.judge.WhereItChanged.plural(column),

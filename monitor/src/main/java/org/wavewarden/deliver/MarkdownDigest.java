@@ -141,7 +141,9 @@ public final class MarkdownDigest {
                         md.append('\n');
                     }
                     md.append('\n').append(escape(v.test())).append(' ').append(escape(v.overall())).append(' ')
-                            .append(escape(v.method())).append(".\n\n");
+                            .append(escape(v.method() == null || v.method().isEmpty() ? ""
+                                    : Character.toUpperCase(v.method().charAt(0)) + v.method().substring(1)))
+                            .append(".\n\n");
                     v.notes().forEach(n -> md.append("- ").append(escape(n)).append('\n'));
                     if (!v.notes().isEmpty()) {
                         md.append('\n');
