@@ -107,6 +107,50 @@ public final class MarkdownDigest {
             md.append(" |\n");
         }
         md.append('\n');
+        where(md, r, alerts);
+    }
+
+    /**
+     * Each alerted finding's "Where it changed" tables, below the alert table (a Markdown table cannot hold one): per
+     * breakdown column the domains ranked by contribution, the heterogeneity test, the overall split and what was not
+     * compared, from the same {@link BreakdownView} as the HTML digest and the console.
+     */
+    private static void where(StringBuilder md, FindingsReport r, List<Alert> alerts) {
+        String before = r.againstWave() == null ? "baseline" : r.againstWave();
+        for (Alert a : alerts) {
+            for (Finding f : a.facets()) {
+                if (f.breakdowns().isEmpty()) {
+                    continue;
+                }
+                md.append("### Where it changed: ").append(escape(f.variable())).append(", ")
+                        .append(escape(f.verdict() == null ? f.kind().name() : f.verdict() + " " + f.kind()))
+                        .append("\n\n");
+                for (org.wavewarden.compare.domain.Breakdown b : f.breakdowns()) {
+                    BreakdownView v = BreakdownView.of(b, before, r.wave(), 1 - r.alpha());
+                    md.append("**").append(escape(Character.toUpperCase(v.title().charAt(0)) + v.title().substring(1)))
+                            .append("**\n\n|");
+                    v.headings().forEach(h -> md.append(' ').append(escape(h)).append(" |"));
+                    md.append("\n|");
+                    for (int i = 0; i < v.headings().size(); i++) {
+                        md.append(i == 0 ? "---|" : "---:|");
+                    }
+                    md.append('\n');
+                    for (List<String> row : v.rows()) {
+                        md.append('|');
+                        row.forEach(c -> md.append(' ').append(escape(c)).append(" |"));
+                        md.append('\n');
+                    }
+                    md.append('\n').append(escape(v.test())).append(' ').append(escape(v.overall())).append(' ')
+                            .append(escape(v.method() == null || v.method().isEmpty() ? ""
+                                    : Character.toUpperCase(v.method().charAt(0)) + v.method().substring(1)))
+                            .append(".\n\n");
+                    v.notes().forEach(n -> md.append("- ").append(escape(n)).append('\n'));
+                    if (!v.notes().isEmpty()) {
+                        md.append('\n');
+                    }
+                }
+            }
+        }
     }
 
     /** A titled list of sentences (each escaped whole), or nothing when there are none. */

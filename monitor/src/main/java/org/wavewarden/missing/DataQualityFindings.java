@@ -26,7 +26,7 @@ import java.util.Set;
 public final class DataQualityFindings {
 
     /** Candidates reported as findings; below this confidence they stay in the detail only. */
-    static final double REPORT_CONFIDENCE = 0.5;
+    public static final double REPORT_CONFIDENCE = 0.5;
     /** A code must have this many answers on one side to count as appeared or vanished (one stray answer is noise). */
     static final long CODE_FRAME_MIN_COUNT = 5;
     /** Whipple's index at which heaping is reported: the UN "approximate" band starts at 110. */

@@ -25,6 +25,8 @@ import org.wavewarden.deliver.FindingsFiles;
 import org.wavewarden.deliver.FindingsReport;
 import org.wavewarden.judge.Against;
 import org.wavewarden.judge.Finding;
+import org.wavewarden.judge.WhereItChanged;
+import org.wavewarden.compare.interviewer.InterviewerMonitor;
 import org.wavewarden.judge.FindingKind;
 import org.wavewarden.judge.SchemaFindings;
 import org.wavewarden.judge.WaveVerdicts;
@@ -594,6 +596,16 @@ public final class WaveJudge {
             findings.add(Finding.dataQuality(EMPTY_WAVE_SUBJECT, FindingKind.EMPTY_WAVE, null, 0L, "Wave "
                     + current.wave() + " of " + d.name() + " has no rows: nothing can be judged in it, and later"
                     + " waves are compared against the last wave with rows.", null));
+        }
+        WhereItChanged.Result where = WhereItChanged.attach(findings, baseline, current, screened.baseline(),
+                screened.current(), d.breakdowns(), weighted, cfg.alpha());
+        findings = new ArrayList<>(where.findings());
+        inference.addAll(where.notes());
+        if (d.breakdowns().interviewer() != null) {
+            InterviewerMonitor.Result interviewers = InterviewerMonitor.judge(current, screened.current(),
+                    d.breakdowns(), cfg.alpha());
+            findings.addAll(interviewers.findings());
+            inference.addAll(interviewers.notes());
         }
         return new Profiled(labelled(screened, FindingsFiles.ordered(findings)), inference);
     }

@@ -3,6 +3,7 @@ package org.wavewarden.console.page;
 import org.wavewarden.deliver.Cautions;
 import org.wavewarden.deliver.ReviewText;
 import org.wavewarden.deliver.html.HtmlDigest;
+import org.wavewarden.deliver.html.WhereTables;
 import org.wavewarden.deliver.html.VariablePlot;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
@@ -292,6 +293,12 @@ public final class Pages {
         h.append("</p>\n<p id=\"sentence\" class=\"sentence\">").append(esc(f.sentence())).append("</p>\n");
 
         numbers(h, f, baselineName(against), finding.wave());
+        if (!f.breakdowns().isEmpty()) {
+            // The page does not know the run's alpha, so the intervals' heading names no level.
+            h.append("<section id=\"where\" aria-label=\"Where it changed\">")
+                    .append(WhereTables.html(f, baselineName(against), finding.wave(), Double.NaN))
+                    .append("</section>\n");
+        }
 
         h.append("<section id=\"plot\" aria-labelledby=\"plot-title\"><h2 id=\"plot-title\">Both waves</h2>\n")
                 .append(plot(finding.dataset(), finding.wave(), against, f)).append("\n</section>\n");

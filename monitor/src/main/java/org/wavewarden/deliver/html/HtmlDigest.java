@@ -278,6 +278,7 @@ public final class HtmlDigest {
         if (!stats.isEmpty()) {
             h.append("<p class=\"stats\">").append(stats).append("</p>\n");
         }
+        h.append(WhereTables.html(f, baselineWave, currentWave, 1 - alpha));
         facets(h, a.alert(), alpha, baselineWave, currentWave);
         if (a.plot() != null || a.trend() != null) {
             h.append("<div class=\"charts\">");
@@ -313,6 +314,7 @@ public final class HtmlDigest {
             if (!stats.isEmpty()) {
                 h.append("<span class=\"stats\">").append(stats).append("</span>");
             }
+            h.append(WhereTables.html(o, baselineWave, currentWave, 1 - alpha));
             h.append("</li>");
         }
         h.append("</ul>\n");
@@ -500,6 +502,15 @@ public final class HtmlDigest {
             .stats{font-size:13px;color:var(--muted);margin:0 0 8px;display:flex;flex-wrap:wrap;gap:4px 14px}
             .facets{margin:4px 0 8px;padding-left:18px}.facet{margin:2px 0}.facet .sentence{margin:0 0 0 4px}
             .facet-name{font-weight:600;font-size:13px}
+            .where h3{font-size:15px;margin:8px 0 2px}
+            .where-table{border-collapse:collapse;font-size:13px;margin:4px 0}
+            .where-table caption{text-align:left;color:var(--muted);padding:2px 0}
+            .where-table th,.where-table td{border:1px solid var(--line);padding:2px 8px;text-align:left}
+            .where-table td.num{text-align:right;font-variant-numeric:tabular-nums}
+            .where-table[data-differs] caption{color:var(--ink);font-weight:600}
+            .where-test,.where-overall{font-size:13px;margin:2px 0;max-width:90ch}
+            .where-method{color:var(--muted)}
+            .where-notes{font-size:13px;color:var(--muted);margin:2px 0 8px;padding-left:18px}
             .stats .mde.unresolvable{color:#8a5a00;font-weight:600}
             .state{font-size:12px;border:1px solid var(--muted);color:var(--muted);border-radius:4px;padding:0 6px}
             .charts{display:flex;flex-wrap:wrap;gap:14px;align-items:flex-start}
