@@ -47,6 +47,11 @@ public final class ResultsStore {
         return outbox;
     }
 
+    /** The case lists stored beside the runs' findings. */
+    public CaseLists caseLists() {
+        return new CaseLists(jdbi, schemaName);
+    }
+
     public Jdbi jdbi() {
         return jdbi;
     }
