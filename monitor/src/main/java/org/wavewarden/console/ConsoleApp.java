@@ -146,6 +146,7 @@ public final class ConsoleApp {
                 .get("/console/wave", secured(r -> page(r, this::wave)))
                 .get("/console/search", secured(r -> page(r, this::search)))
                 .get("/console/download", secured(r -> page(r, this::download)))
+                .get("/console/cases", secured(r -> page(r, this::cases)))
                 .get("/console/static/console.css", secured(r -> Reply.of(200, "text/css; charset=utf-8",
                         Pages.css())))
                 .get("/console/login", secured(this::loginForm))
@@ -310,7 +311,7 @@ public final class ConsoleApp {
                     v.finding(), v.alert(), v.history(), v.trend().stream()
                     .sorted(Comparator.comparing(ConsoleReads.TrendPoint::wave, order)).toList());
         }
-        return html(200, Pages.finding(chrome, v));
+        return html(200, Pages.finding(chrome, v, store.caseLists().forFinding(v.findingId()).orElse(null)));
     }
 
     private Reply wave(Request request, Fields query, Session session, Chrome chrome) {
@@ -353,6 +354,22 @@ public final class ConsoleApp {
         // The name is made by the output folder's rules, so a label never reaches the header as it is.
         String name = OutputPaths.name(r.dataset()) + "_" + OutputPaths.name(r.wave()) + "_" + file;
         return Reply.of(200, json ? "application/json; charset=utf-8" : "text/markdown; charset=utf-8", body)
+                .with("Content-Disposition", "attachment; filename=\"" + name + "\"");
+    }
+
+    /**
+     * A finding's case list as the CSV file the run wrote beside its findings, made again from the stored list by
+     * the same writer; 404 for a finding without a list.
+     */
+    private Reply cases(Request request, Fields query, Session session, Chrome chrome) {
+        long id = id(query.getValue("finding"), "finding");
+        Optional<org.wavewarden.store.CaseLists.CaseList> list = store.caseLists().forFinding(id);
+        if (list.isEmpty()) {
+            return html(404, Pages.problem(chrome, 404, "Finding " + id + " has no case list."));
+        }
+        // The file name is made of the finding id and safe characters of the variable only.
+        String name = list.get().fileName().substring("cases/".length());
+        return Reply.of(200, "text/csv; charset=utf-8", org.wavewarden.deliver.CaseListCsv.render(list.get()))
                 .with("Content-Disposition", "attachment; filename=\"" + name + "\"");
     }
 

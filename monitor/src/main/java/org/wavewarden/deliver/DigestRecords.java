@@ -13,8 +13,9 @@ import java.util.Optional;
  *
  * @param populations each dataset's population; a dataset not named is a sample
  * @param waves       the review status of the judged waves; a wave not listed shows no status line
+ * @param caseLinks   the case lists of the judged waves' findings, linked where the files lie beside the digest
  */
-public record DigestRecords(Map<String, Population> populations, List<WaveStatus> waves) {
+public record DigestRecords(Map<String, Population> populations, List<WaveStatus> waves, List<CaseLink> caseLinks) {
 
     /** Nothing known beyond the findings: a digest written straight after a run, before anyone reviewed it. */
     public static final DigestRecords NONE = new DigestRecords(Map.of(), List.of());
@@ -22,6 +23,22 @@ public record DigestRecords(Map<String, Population> populations, List<WaveStatus
     public DigestRecords {
         populations = populations == null ? Map.of() : Map.copyOf(populations);
         waves = waves == null ? List.of() : List.copyOf(waves);
+        caseLinks = caseLinks == null ? List.of() : List.copyOf(caseLinks);
+    }
+
+    /** Records without case lists. */
+    public DigestRecords(Map<String, Population> populations, List<WaveStatus> waves) {
+        this(populations, waves, null);
+    }
+
+    /** The same records with the case lists linked. */
+    public DigestRecords withCaseLinks(List<CaseLink> links) {
+        return new DigestRecords(populations, waves, links);
+    }
+
+    /** The case lists of one judged wave, in finding order. */
+    public List<CaseLink> caseLinks(String dataset, String wave) {
+        return caseLinks.stream().filter(c -> c.dataset().equals(dataset) && c.wave().equals(wave)).toList();
     }
 
     public Optional<WaveStatus> status(String dataset, String wave) {

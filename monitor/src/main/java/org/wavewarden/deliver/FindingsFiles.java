@@ -32,12 +32,29 @@ public final class FindingsFiles {
      * sees the old file or the new one, never half of one.
      */
     public static Path write(Path dir, FindingsReport report) {
+        return write(dir, report, List.of());
+    }
+
+    /**
+     * The same with the run's case lists, each a CSV file under {@code cases/} (see {@link CaseListCsv}), written
+     * before the digest that links them and before {@code findings.json}, so a reader who sees the findings sees
+     * their lists.
+     */
+    public static Path write(Path dir, FindingsReport report, List<org.wavewarden.store.CaseLists.CaseList> cases) {
         try {
             Files.createDirectories(dir);
+            if (!cases.isEmpty()) {
+                Files.createDirectories(dir.resolve("cases"));
+            }
+            for (org.wavewarden.store.CaseLists.CaseList list : cases) {
+                writeAtomically(dir.resolve(list.fileName()), CaseListCsv.render(list));
+            }
             Path json = dir.resolve("findings.json");
             writeAtomically(json, Json.mapper().writer().with(SerializationFeature.INDENT_OUTPUT)
                     .writeValueAsString(report) + "\n");
-            writeAtomically(dir.resolve("digest.md"), MarkdownDigest.render(List.of(report)));
+            writeAtomically(dir.resolve("digest.md"), MarkdownDigest.render(List.of(report), DigestRecords.NONE
+                    .withCaseLinks(cases.stream().map(c -> CaseLink.of(report.dataset(), report.wave(), c))
+                            .toList())));
             return json;
         } catch (IOException e) {
             throw new UncheckedIOException("cannot write findings to " + dir, e);
@@ -54,7 +71,7 @@ public final class FindingsFiles {
             long runId = row.runIds().get(0);
             FindingsReport report = store.storedReport(runId).orElseThrow(() -> new IllegalStateException(
                     "run " + runId + " is no longer in the results schema"));
-            Path json = write(row.folder(), report);
+            Path json = write(row.folder(), report, store.caseLists().forRun(runId));
             store.outbox().delivered(row.id());
             return json;
         } catch (RuntimeException e) {

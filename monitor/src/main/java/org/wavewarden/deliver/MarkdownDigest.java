@@ -69,6 +69,7 @@ public final class MarkdownDigest {
             list(md, "Still present, not alerted again", StandingFindings.stillPresent(r).stream()
                     .map(ReviewText::stillPresent).toList());
             list(md, "Cleared", StandingFindings.cleared(r).stream().map(ReviewText::cleared).toList());
+            caseLists(md, records.caseLinks(r.dataset(), r.wave()));
         }
         Map<String, List<StandingFindings.TooFewAnswers>> tooFew = new java.util.LinkedHashMap<>();
         StandingFindings.tooFewAnswers(reports).forEach(t -> tooFew.computeIfAbsent(t.dataset(),
@@ -151,6 +152,20 @@ public final class MarkdownDigest {
                 }
             }
         }
+    }
+
+    /**
+     * The wave's case lists, each linked by its relative file name (safe characters only) with its count; the
+     * subject is data and escaped.
+     */
+    private static void caseLists(StringBuilder md, List<CaseLink> links) {
+        if (links.isEmpty()) {
+            return;
+        }
+        md.append("### Case lists for the field team (").append(links.size()).append(")\n\n");
+        links.forEach(c -> md.append("- ").append(escape(c.subject())).append(": [").append(escape(c.count()))
+                .append("](").append(c.file()).append(")\n"));
+        md.append('\n');
     }
 
     /** A titled list of sentences (each escaped whole), or nothing when there are none. */

@@ -134,12 +134,14 @@ public final class DigestAssembler {
             }
             sections.add(new WaveSection(r, views));
         }
-        return HtmlDigest.render(d.name(), sections, generatedAt, records(d, reports));
+        return HtmlDigest.render(d.name(), sections, generatedAt, records(d, reports)
+                .withCaseLinks(CaseListing.links(session, d.name(), reports)));
     }
 
     /** The Markdown digest of judged waves, with their review status as the results schema holds it now. */
     public String markdown(DatasetConfig d, List<FindingsReport> reports) {
-        return org.wavewarden.deliver.MarkdownDigest.render(reports, records(d, reports));
+        return org.wavewarden.deliver.MarkdownDigest.render(reports, records(d, reports)
+                .withCaseLinks(CaseListing.links(session, d.name(), reports)));
     }
 
     /**

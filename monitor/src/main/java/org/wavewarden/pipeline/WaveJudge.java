@@ -323,10 +323,14 @@ public final class WaveJudge {
         Optional<Long> kept = session.store().sameRun(d.name(), wave, againstLabel == null ? "" : againstLabel,
                 checksum, fingerprint, toolVersion);
         findings = marked(d, wave, against, findings, kept);
+        CaseListing.Wanted cases = CaseListing.wanted(judgedAs, findings, screened.current(), inference);
         List<Alert> alerts = Alerts.group(findings);
         Instant finished = clock.instant();
         FindingsReport report = new FindingsReport(d.name(), wave, againstLabel, finished, cfg.alpha(),
                 cfg.fdr().name(), inference, findings, toolVersion, fingerprint);
+        // A kept run's lists are stored already: the wave is not read again for them.
+        List<org.wavewarden.store.CaseLists.Draft> caseLists = kept.isPresent() ? List.of()
+                : CaseListing.read(session.source(), judgedAs, source, wave, cases);
         FaultPoints.hit(FaultPoints.BEFORE_WRITE);
         long runId = session.store().writeRun(new ResultsStore.RunWrite(d.name(), wave,
                         againstLabel == null ? "" : againstLabel, checksum, started, finished, cfg.alpha(),
@@ -334,7 +338,7 @@ public final class WaveJudge {
                 current, findings, alerts, inference, outputs, CreationRules.decider(d, order, wave,
                         java.time.LocalDate.ofInstant(finished, java.time.ZoneOffset.UTC),
                         reviews().activeMutes(d.name(), java.time.LocalDate.ofInstant(finished,
-                                java.time.ZoneOffset.UTC))));
+                                java.time.ZoneOffset.UTC))), caseLists);
         // The summary the run stored becomes the baseline of later waves under this configuration.
         session.store().keySummary(d.name(), wave, checksum, SummaryKey.of(d, current.schema()).value());
         return new JudgedWave(report, runId, alerts);

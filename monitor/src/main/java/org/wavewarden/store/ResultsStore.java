@@ -47,6 +47,11 @@ public final class ResultsStore {
         return outbox;
     }
 
+    /** The case lists stored beside the runs' findings. */
+    public CaseLists caseLists() {
+        return new CaseLists(jdbi, schemaName);
+    }
+
     public Jdbi jdbi() {
         return jdbi;
     }
@@ -181,6 +186,14 @@ public final class ResultsStore {
     public long writeRun(RunWrite run, WaveProfile currentProfile, List<Finding> findings, List<Alert> alerts,
                          List<String> inference, OutboxStore.Outputs outputs,
                          java.util.function.Function<Alert, Optional<org.wavewarden.review.CreationDecision>> decide) {
+        return writeRun(run, currentProfile, findings, alerts, inference, outputs, decide, List.of());
+    }
+
+    /** The same with the run's case lists, written with its findings (a kept run keeps the lists it has). */
+    public long writeRun(RunWrite run, WaveProfile currentProfile, List<Finding> findings, List<Alert> alerts,
+                         List<String> inference, OutboxStore.Outputs outputs,
+                         java.util.function.Function<Alert, Optional<org.wavewarden.review.CreationDecision>> decide,
+                         List<CaseLists.Draft> caseLists) {
         AlertReviews reviews = new AlertReviews(jdbi, schemaName);
         return jdbi.inTransaction(h -> {
             saveSummary(h, run.dataset(), currentProfile, run.summaryChecksum());
@@ -220,6 +233,7 @@ public final class ResultsStore {
             org.wavewarden.pipeline.FaultPoints.hit(org.wavewarden.pipeline.FaultPoints.INSIDE_WRITE);
             if (isNew) {
                 insertFindings(h, runId, findings);
+                new CaseLists(jdbi, schemaName).insert(h, runId, caseLists);
             }
             // Alerts of this wave's other runs, and alerts of this run that it no longer raises, are superseded,
             // each with an entry in its history.

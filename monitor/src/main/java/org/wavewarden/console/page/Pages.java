@@ -269,6 +269,12 @@ public final class Pages {
      * the person may act and the finding has an alert.
      */
     public static String finding(Chrome chrome, ConsoleReads.FindingView finding) {
+        return finding(chrome, finding, null);
+    }
+
+    /** The same with the finding's case list (null: it has none), linked as a CSV download with its count. */
+    public static String finding(Chrome chrome, ConsoleReads.FindingView finding,
+                                 org.wavewarden.store.CaseLists.CaseList cases) {
         Finding f = finding.finding();
         StringBuilder h = open(chrome, f.variable() + " in " + finding.wave());
         h.append("<h1><code>").append(esc(f.variable())).append("</code>");
@@ -291,6 +297,10 @@ public final class Pages {
                     .append(stateKey(finding.alert().state())).append("</span>");
         }
         h.append("</p>\n<p id=\"sentence\" class=\"sentence\">").append(esc(f.sentence())).append("</p>\n");
+        if (cases != null) {
+            h.append("<p id=\"cases\" class=\"cases\">Case list for the field team: <a href=\"/console/cases?finding=")
+                    .append(cases.findingId()).append("\">").append(esc(cases.count())).append(" (CSV)</a></p>\n");
+        }
 
         numbers(h, f, baselineName(against), finding.wave());
         if (!f.breakdowns().isEmpty()) {

@@ -94,7 +94,8 @@ public final class HtmlDigest {
         }
         for (int i = 0; i < sections.size(); i++) {
             WaveSection s = sections.get(i);
-            wave(h, s, i, complete, records.status(s.report().dataset(), s.report().wave()).orElse(null));
+            wave(h, s, i, complete, records.status(s.report().dataset(), s.report().wave()).orElse(null),
+                    records.caseLinks(s.report().dataset(), s.report().wave()));
         }
         tooFewAnswers(h, StandingFindings.tooFewAnswers(sections.stream().map(WaveSection::report).toList()));
         cautions(h, "cautions-end", "Cautions");
@@ -129,7 +130,8 @@ public final class HtmlDigest {
                 : " against " + r.againstWave());
     }
 
-    private static void wave(StringBuilder h, WaveSection s, int index, boolean complete, WaveStatus status) {
+    private static void wave(StringBuilder h, WaveSection s, int index, boolean complete, WaveStatus status,
+                             List<org.wavewarden.deliver.CaseLink> caseLinks) {
         FindingsReport r = s.report();
         h.append("<section class=\"wave\" id=\"wave-").append(index).append("\" data-wave=\"").append(esc(r.wave()))
                 .append("\">\n<h2>").append(esc(capitalised(waveTitle(r)))).append("</h2>\n");
@@ -166,7 +168,20 @@ public final class HtmlDigest {
         list(h, "still-present", "Still present, not alerted again", StandingFindings.stillPresent(r).stream()
                 .map(ReviewText::stillPresent).toList());
         list(h, "cleared", "Cleared", StandingFindings.cleared(r).stream().map(ReviewText::cleared).toList());
+        caseLists(h, caseLinks);
         h.append("</section>\n");
+    }
+
+    /** The wave's case lists, each a relative link to its CSV file beside the findings, with its count. */
+    private static void caseLists(StringBuilder h, List<org.wavewarden.deliver.CaseLink> links) {
+        if (links.isEmpty()) {
+            return;
+        }
+        h.append("<div class=\"review-list case-lists\"><h3>Case lists for the field team (").append(links.size())
+                .append(")</h3><ul>");
+        links.forEach(c -> h.append("<li>").append(esc(c.subject())).append(": <a href=\"").append(esc(c.file()))
+                .append("\" download>").append(esc(c.count())).append("</a></li>"));
+        h.append("</ul></div>\n");
     }
 
     /** A titled list of sentences, each escaped whole, or nothing when there are none. */
