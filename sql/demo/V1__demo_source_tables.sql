@@ -27,6 +27,10 @@ CREATE TABLE survey_demo.household_wave (
     occupation           text,               -- free text, as typed
     move_in_date         date,               -- date the household moved into the current home
     mooring_fee          integer,            -- annual mooring fee, boat owners only; NULL otherwise
+    interviewer_id       text,               -- field interviewer, H01..H30 (H01..H60 in the booster wave)
+    water_pressure_low   text,               -- yes | no: tap pressure often too low
+    neighbourhood_safe   smallint,           -- 1 very unsafe .. 5 very safe walking after dark
+    heating_hours        smallint,           -- hours a week the heating runs, this quarter
     PRIMARY KEY (wave, respondent_id)
 );
 

@@ -18,7 +18,9 @@ import java.util.SplittableRandom;
  * {@code demo-data/manifest.yaml}): a longer commute after a bridge closure, a small income rise that only the large
  * booster wave can detect, a jump in heat pumps, a shift in a question asked of very few households, and disguised
  * missing values (blank answers, refusal and sentinel codes, a sentinel date, a changed code frame, age heaping after
- * a change of interview mode). Everything else varies by sampling noise only.
+ * a change of interview mode). Four later columns plant where a change happened: one interviewer keys every 999
+ * height, low water pressure rises in one district only, a safety rating moves with the interview mode rather than
+ * within it, and the hours of heating follow the seasons. Everything else varies by sampling noise only.
  *
  * <p>Output follows RFC 4180 with PostgreSQL's CSV conventions, which tell SQL NULL from the empty string: NULL is an
  * unquoted empty field, the empty string is {@code ""}. Fields holding a comma, a quote, a line break, or leading or
@@ -48,7 +50,8 @@ public final class DemoScenarioGenerator {
     public static final List<String> COLUMNS = List.of(
             "wave", "respondent_id", "interview_mode", "district", "age", "height_cm", "income_monthly",
             "commute_minutes", "housing_satisfaction", "life_satisfaction", "heating_fuel", "tenure",
-            "has_broadband", "owns_boat", "children", "occupation", "move_in_date", "mooring_fee");
+            "has_broadband", "owns_boat", "children", "occupation", "move_in_date", "mooring_fee",
+            "interviewer_id", "water_pressure_low", "neighbourhood_safe", "heating_hours");
 
     // Wave indexes at which the planted events begin.
     private static final int OCCUPATION_BLANKS_FROM = 1;   // 2024-Q2: the occupation box became optional
@@ -59,6 +62,29 @@ public final class DemoScenarioGenerator {
     private static final int MOORING_RISE_FROM = 5;        // 2025-Q2: harbour board raised mooring fees
     private static final int WARM_HOMES_FROM = 6;          // 2025-Q3: heat pump grant takes effect
     private static final double[] HEIGHT_SENTINEL_RATE = {0.0, 0.0, 0.03, 0.0, 0.0, 0.02, 0.0};
+    private static final int PUMP_FAILURE_FROM = 5;        // 2025-Q2: Kestle Point's pumping station fails
+
+    /** The interviewer who keys 999 for every height not measured, in both waves that have such heights. */
+    public static final String NOT_MEASURED_INTERVIEWER = "H17";
+    // Interviewers per wave: a regular quarter's field force, doubled for the booster wave.
+    private static final int INTERVIEWERS = 30;
+    private static final int BOOSTER_INTERVIEWERS = 60;
+
+    // Share of households reporting low water pressure: 7% everywhere, then Kestle Point +18 points and every
+    // other district +1 point from the pumping station failure on.
+    private static final double WATER_LOW_BEFORE = 0.07;
+    private static final double WATER_LOW_AFTER_KES = 0.25;
+    private static final double WATER_LOW_AFTER_ELSEWHERE = 0.08;
+
+    // "How safe do you feel walking in your neighbourhood after dark?" 1 very unsafe .. 5 very safe. Answers given
+    // to a telephone interviewer are rosier than those typed into the web form (a mode effect), and the mode mix,
+    // not the neighbourhoods, changes in 2025-Q1.
+    private static final double[] SAFE_WEB = {0.08, 0.17, 0.33, 0.30, 0.12};
+    private static final double[] SAFE_TELEPHONE = {0.02, 0.07, 0.22, 0.39, 0.30};
+    private static final double[] SAFE_IN_PERSON = {0.05, 0.12, 0.28, 0.35, 0.20};
+
+    // Median hours a week the heating runs, by quarter (Q1..Q4): winter high, summer low, the same every year.
+    private static final double[] HEATING_MEDIAN_BY_QUARTER = {40.0, 22.0, 10.0, 32.0};
 
     private static final String[] MODES = {"web", "telephone", "in_person"};
     private static final double[] MODE_WEB_ERA = {0.80, 0.08, 0.12};
@@ -140,6 +166,16 @@ public final class DemoScenarioGenerator {
         boolean[] boatOwners = boatOwners(n, stream(w, "owns_boat"));
         int[] fees = mooringFees(boatOwners, mooring, w >= MOORING_RISE_FROM);
         int nextFee = 0;
+        SplittableRandom interviewer = stream(w, "interviewer_id");
+        double[] workloads = workloads(interviewer, n >= 10_000 ? BOOSTER_INTERVIEWERS : INTERVIEWERS);
+        SplittableRandom water = stream(w, "water_pressure_low");
+        double[] waterCarry = new double[DISTRICTS.length];
+        for (int k = 0; k < waterCarry.length; k++) {
+            waterCarry[k] = water.nextDouble();
+        }
+        SplittableRandom safe = stream(w, "neighbourhood_safe");
+        SplittableRandom heating = stream(w, "heating_hours");
+        double heatingMedian = HEATING_MEDIAN_BY_QUARTER[Integer.parseInt(wave.label().substring(6)) - 1];
 
         out.append(String.join(",", COLUMNS)).append('\n');
         String[] row = new String[COLUMNS.size()];
@@ -164,6 +200,14 @@ public final class DemoScenarioGenerator {
             row[15] = occupation(occupation, w >= OCCUPATION_BLANKS_FROM ? 0.10 : 0.01);
             row[16] = moveIn(moveIn, w == BOOSTER ? 0.025 : 0.0);
             row[17] = boatOwners[i] ? Integer.toString(fees[nextFee++]) : null;
+            row[18] = interviewer(interviewer, workloads, row[5].equals("999"));
+            row[19] = waterPressureLow(waterCarry, pickDistrict(row[3]), w >= PUMP_FAILURE_FROM) ? "yes" : "no";
+            row[20] = Integer.toString(1 + pick(safe, switch (interviewMode) {
+                case "telephone" -> SAFE_TELEPHONE;
+                case "in_person" -> SAFE_IN_PERSON;
+                default -> SAFE_WEB;
+            }));
+            row[21] = Long.toString(heatingHours(heating, heatingMedian));
             for (int c = 0; c < row.length; c++) {
                 if (c > 0) {
                     out.append(',');
@@ -412,6 +456,65 @@ public final class DemoScenarioGenerator {
         double r = q * q;
         return (((((a[0] * r + a[1]) * r + a[2]) * r + a[3]) * r + a[4]) * r + a[5]) * q
                 / (((((b[0] * r + b[1]) * r + b[2]) * r + b[3]) * r + b[4]) * r + 1);
+    }
+
+    /**
+     * Each interviewer's share of the wave's interviews: log-normal workloads (a few carry twice the median, some
+     * half of it), as when part-time and full-time interviewers share a field force.
+     */
+    private static double[] workloads(SplittableRandom rnd, int interviewers) {
+        double[] share = new double[interviewers];
+        double total = 0;
+        for (int k = 0; k < interviewers; k++) {
+            share[k] = StrictMath.exp(0.35 * normal(rnd));
+            total += share[k];
+        }
+        for (int k = 0; k < interviewers; k++) {
+            share[k] /= total;
+        }
+        return share;
+    }
+
+    /**
+     * The interviewer of one household. Every height keyed as 999 was keyed by one interviewer, who does the rest of
+     * a normal workload besides; the draw is made for every household so the stream does not depend on the plant.
+     */
+    private static String interviewer(SplittableRandom rnd, double[] workloads, boolean heightNotMeasured) {
+        String drawn = String.format(java.util.Locale.ROOT, "H%02d", 1 + pick(rnd, workloads));
+        return heightNotMeasured ? NOT_MEASURED_INTERVIEWER : drawn;
+    }
+
+    private static int pickDistrict(String code) {
+        for (int k = 0; k < DISTRICTS.length; k++) {
+            if (DISTRICTS[k].equals(code)) {
+                return k;
+            }
+        }
+        throw new IllegalStateException("unknown district " + code);
+    }
+
+    /**
+     * Low water pressure, by systematic selection within each district: every household adds the district's share
+     * to a running total that started at a random point in [0, 1), and answers yes whenever the total passes a whole
+     * number. Each district's share then lands within one household of the planted one, so the demo shows the
+     * planted 18 points in Kestle Point and 1 point elsewhere rather than whatever sampling noise adds to them (as
+     * with the mooring fees); which households answer yes is still spread over the whole wave.
+     */
+    private static boolean waterPressureLow(double[] carry, int district, boolean pumpFailed) {
+        double share = !pumpFailed ? WATER_LOW_BEFORE
+                : DISTRICTS[district].equals("KES") ? WATER_LOW_AFTER_KES : WATER_LOW_AFTER_ELSEWHERE;
+        carry[district] += share;
+        if (carry[district] >= 1.0) {
+            carry[district] -= 1.0;
+            return true;
+        }
+        return false;
+    }
+
+    private static long heatingHours(SplittableRandom rnd, double median) {
+        // log-normal around the quarter's median: the same distribution every year, so only the season moves it
+        double hours = StrictMath.exp(StrictMath.log(median) + 0.45 * normal(rnd));
+        return Math.min(168, StrictMath.round(hours));
     }
 
     private static boolean[] boatOwners(int n, SplittableRandom rnd) {

@@ -31,6 +31,8 @@ import org.apache.commons.math3.stat.inference.TTest;
 import org.apache.commons.math3.util.FastMath;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.CsvSource;
 
 /**
  * The committed demo waves are exactly what the generator writes, and they carry the planted events at the sizes
@@ -348,7 +350,8 @@ class DemoScenarioGeneratorTest {
         JsonNode config = new ObjectMapper(new YAMLFactory()).readTree(root.resolve("config/demo.yaml").toFile());
         assertEquals(config.path("datasets").path(0).path("name").asText(), manifest.path("dataset").asText());
         Set<String> kinds = Set.of("SHIFT", "BLANK", "PLACEHOLDER", "NUMERIC_SENTINEL", "SENTINEL_DATE",
-                "CODE_APPEARED", "CODE_VANISHED", "HEAPING", "MISSING_RATE_CHANGE", "MISSING_CODE");
+                "CODE_APPEARED", "CODE_VANISHED", "HEAPING", "MISSING_RATE_CHANGE", "MISSING_CODE",
+                "INTERVIEWER_OUTLIER", "INTERVIEWER_EFFECT");
         Set<String> verdicts = Set.of("MATERIAL", "MINOR", "UNCERTAIN", "STABLE");
         List<String> labels = DemoScenarioGenerator.WAVES.stream().map(DemoWave::label).toList();
         Set<String> ids = new HashSet<>();
@@ -386,9 +389,20 @@ class DemoScenarioGeneratorTest {
         }
         assertEquals(verdicts, verdictsSeen, "every verdict is planted at least once");
         assertEquals(Set.of("SHIFT", "BLANK", "NUMERIC_SENTINEL", "SENTINEL_DATE", "CODE_APPEARED", "CODE_VANISHED",
-                "HEAPING", "MISSING_RATE_CHANGE", "MISSING_CODE"), kindsSeen);
+                "HEAPING", "MISSING_RATE_CHANGE", "MISSING_CODE", "INTERVIEWER_OUTLIER"), kindsSeen);
         for (JsonNode v : manifest.path("expectedElsewhere").path("byVariable")) {
             assertTrue(DemoScenarioGenerator.COLUMNS.contains(v.path("variable").asText()), v.toString());
+        }
+        // the second baseline: the same quarter a year back, four waves before
+        assertTrue(manifest.path("sameQuarter").size() > 0);
+        for (JsonNode q : manifest.path("sameQuarter")) {
+            int at = labels.indexOf(q.path("wave").asText());
+            assertTrue(at >= 4, q.toString());
+            assertEquals(labels.get(at - 4), q.path("against").asText(), q.toString());
+            assertTrue(DemoScenarioGenerator.COLUMNS.contains(q.path("variable").asText()), q.toString());
+            assertTrue(kinds.contains(q.path("kind").asText()), q.toString());
+            String verdict = q.path("verdict").asText();
+            assertTrue(verdicts.contains(verdict) || verdict.equals("any"), q.toString());
         }
     }
 
@@ -418,6 +432,152 @@ class DemoScenarioGeneratorTest {
         assertTrue(byName.get("height_cm").path("missingCodes").isMissingNode(),
                 "999 in height is left for the detector to find");
         assertNotNull(byName.get("has_broadband").get("successValue"));
+    }
+
+    // ---- where it changed: interviewer, district, mode and season plants ------------------------------------
+
+    @ParameterizedTest(name = "{0}: {1} interviewers, workloads {2}..{3}, H17 {4} interviews of which {5} hold 999")
+    @CsvSource({
+        // wave,   interviewers, least, most, H17, H17's 999s   (R 4.2.2: table(interviewer_id), measure-household-breakdowns.R)
+        "2024-Q1, 30,  50,  324,  50,   0",
+        "2024-Q2, 30,  62,  307, 108,   0",
+        "2024-Q3, 30,  67,  362, 362, 105",
+        "2024-Q4, 60, 251, 1009, 255,   0",
+        "2025-Q1, 30,  65,  337,  85,   0",
+        "2025-Q2, 30,  58,  248, 172,  83",
+        "2025-Q3, 30,  57,  228,  57,   0"})
+    void oneInterviewerKeysEveryHeightNotMeasuredBesidesAnOrdinaryWorkload(String wave, int interviewers, int least,
+                                                                         int most, int h17, int h17Sentinels) {
+        Wave w = waves.get(wave);
+        List<String> interviewer = w.column("interviewer_id");
+        List<String> height = w.column("height_cm");
+        Map<String, Integer> load = new HashMap<>();
+        int sentinelsElsewhere = 0;
+        int sentinelsOfH17 = 0;
+        for (int i = 0; i < interviewer.size(); i++) {
+            load.merge(interviewer.get(i), 1, Integer::sum);
+            if (height.get(i).equals("999")) {
+                if (interviewer.get(i).equals(DemoScenarioGenerator.NOT_MEASURED_INTERVIEWER)) {
+                    sentinelsOfH17++;
+                } else {
+                    sentinelsElsewhere++;
+                }
+            }
+        }
+        assertEquals(interviewers, load.size());
+        assertEquals(least, load.values().stream().mapToInt(Integer::intValue).min().orElseThrow());
+        assertEquals(most, load.values().stream().mapToInt(Integer::intValue).max().orElseThrow());
+        assertEquals(h17, load.get("H17"));
+        assertEquals(h17Sentinels, sentinelsOfH17);
+        assertEquals(0, sentinelsElsewhere, "no other interviewer keys 999");
+    }
+
+    @Test
+    void theInterviewerPlantsCaseListsAreExactlyTheHouseholdsWith999() throws IOException {
+        JsonNode manifest = new ObjectMapper(new YAMLFactory()).readTree(root.resolve("demo-data/manifest.yaml")
+                .toFile());
+        int plants = 0;
+        for (JsonNode p : manifest.path("plants")) {
+            if (!p.path("kind").asText().equals("INTERVIEWER_OUTLIER")) {
+                continue;
+            }
+            plants++;
+            Wave w = waves.get(p.path("wave").asText());
+            List<String> ids = w.column("respondent_id");
+            List<String> height = w.column("height_cm");
+            List<String> interviewer = w.column("interviewer_id");
+            List<String> expected = new ArrayList<>();
+            for (int i = 0; i < ids.size(); i++) {
+                if (height.get(i).equals("999") && interviewer.get(i).equals(p.path("interviewer").asText())) {
+                    expected.add(ids.get(i));
+                }
+            }
+            expected.sort(null); // keys of one wave have the same number of digits: text order is key order
+            List<String> listed = new ArrayList<>();
+            p.path("cases").path("keys").forEach(k -> listed.add(k.asText()));
+            assertEquals(expected, listed, p.path("id").asText());
+            assertEquals(expected.size(), p.path("cases").path("total").asInt());
+            assertEquals(expected.get(0), p.path("cases").path("first").asText());
+            assertEquals(expected.get(expected.size() - 1), p.path("cases").path("last").asText());
+        }
+        assertEquals(2, plants, "2024-Q3 and 2025-Q2");
+    }
+
+    @ParameterizedTest(name = "{0} {1}: {2} of {3} report low water pressure")
+    @CsvSource({
+        // wave,   district,  yes, households   (R 4.2.2: sum(water_pressure_low == "yes"), measure-household-breakdowns.R)
+        "2024-Q1, KES,        29,  422",
+        "2024-Q1, elsewhere, 250, 3578",
+        "2024-Q4, KES,       244, 3488",
+        "2024-Q4, elsewhere, 1996, 28512",
+        "2025-Q1, KES,        30,  435",
+        "2025-Q1, elsewhere, 249, 3565",
+        "2025-Q2, KES,       113,  453",
+        "2025-Q2, elsewhere, 300, 3747",
+        "2025-Q3, KES,       103,  412",
+        "2025-Q3, elsewhere, 271, 3388"})
+    void lowWaterPressureRisesEighteenPointsInKestlePointAndOnePointElsewhere(String wave, String district, int yes,
+                                                                             int households) {
+        Wave w = waves.get(wave);
+        List<String> districts = w.column("district");
+        List<String> low = w.column("water_pressure_low");
+        int n = 0;
+        int y = 0;
+        for (int i = 0; i < districts.size(); i++) {
+            if (districts.get(i).equals("KES") == district.equals("KES")) {
+                n++;
+                y += low.get(i).equals("yes") ? 1 : 0;
+            }
+        }
+        assertEquals(households, n);
+        assertEquals(yes, y);
+    }
+
+    @ParameterizedTest(name = "{0}: web {1}, telephone {2}, in person {3}, all {4}")
+    @CsvSource({
+        // wave,   web,    telephone, in_person, all   (R 4.2.2: tapply(neighbourhood_safe, interview_mode, mean))
+        "2024-Q1, 3.2299, 3.8228, 3.5293, 3.3112",
+        "2024-Q4, 3.2048, 3.8794, 3.5545, 3.2992",
+        "2025-Q1, 3.2035, 3.9096, 3.5755, 3.8003",
+        "2025-Q3, 3.1587, 3.8660, 3.5482, 3.7566"})
+    void neighbourhoodSafetyMovesWithTheModeMixNotWithinAMode(String wave, double web, double telephone,
+                                                             double inPerson, double all) {
+        Wave w = waves.get(wave);
+        List<String> mode = w.column("interview_mode");
+        List<String> safe = w.column("neighbourhood_safe");
+        Map<String, double[]> sums = new HashMap<>();
+        double total = 0;
+        for (int i = 0; i < mode.size(); i++) {
+            double v = Double.parseDouble(safe.get(i));
+            sums.computeIfAbsent(mode.get(i), k -> new double[2])[0] += v;
+            sums.get(mode.get(i))[1]++;
+            total += v;
+        }
+        assertEquals(web, sums.get("web")[0] / sums.get("web")[1], 5e-5);
+        assertEquals(telephone, sums.get("telephone")[0] / sums.get("telephone")[1], 5e-5);
+        assertEquals(inPerson, sums.get("in_person")[0] / sums.get("in_person")[1], 5e-5);
+        assertEquals(all, total / mode.size(), 5e-5);
+    }
+
+    @ParameterizedTest(name = "{0}: mean {1} hours of heating a week")
+    @CsvSource({
+        // wave,   mean   (R 4.2.2: mean(as.numeric(heating_hours)), measure-household-breakdowns.R)
+        "2024-Q1, 44.19",
+        "2024-Q2, 24.40",
+        "2024-Q3, 11.01",
+        "2024-Q4, 35.54",
+        "2025-Q1, 43.71",
+        "2025-Q2, 24.09",
+        "2025-Q3, 11.12"})
+    void heatingHoursFollowTheSeasonsTheSameEachYear(String wave, double mean) {
+        List<String> hours = waves.get(wave).column("heating_hours");
+        double sum = 0;
+        for (String h : hours) {
+            int v = Integer.parseInt(h);
+            assertTrue(v >= 0 && v <= 168, h);
+            sum += v;
+        }
+        assertEquals(mean, sum / hours.size(), 0.005);
     }
 
     // ---- support --------------------------------------------------------------------------------------------
