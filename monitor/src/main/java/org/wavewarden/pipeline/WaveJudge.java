@@ -603,15 +603,15 @@ public final class WaveJudge {
         }
         WhereItChanged.Result where = WhereItChanged.attach(findings, baseline, current, screened.baseline(),
                 screened.current(), d.breakdowns(), weighted, cfg.alpha());
-        findings = new ArrayList<>(where.findings());
+        List<Finding> located = new ArrayList<>(where.findings());
         inference.addAll(where.notes());
         if (d.breakdowns().interviewer() != null) {
             InterviewerMonitor.Result interviewers = InterviewerMonitor.judge(current, screened.current(),
                     d.breakdowns(), cfg.alpha());
-            findings.addAll(interviewers.findings());
+            located.addAll(interviewers.findings());
             inference.addAll(interviewers.notes());
         }
-        return new Profiled(labelled(screened, FindingsFiles.ordered(findings)), inference);
+        return new Profiled(labelled(screened, FindingsFiles.ordered(located)), inference);
     }
 
     /**
