@@ -78,6 +78,7 @@ class SeasonalBaselineIntegrationTest {
                         kind: continuous
                         unit: hours
                         threshold: {raw: 5}
+                        locationTest: means
                       - name: rooms
                         kind: continuous
                         unit: rooms
@@ -124,6 +125,14 @@ class SeasonalBaselineIntegrationTest {
         // By construction: 45 - 60 hours against the quarter before, 45 - 45 against the same quarter.
         assertEquals(-15.0, previous.effect().estimate(), 1e-9, previous.effect().name());
         assertEquals(0.0, seasonal.effect().estimate(), 1e-9, seasonal.effect().name());
+        // R 4.2.2, t.test(45 + s, 60 + s) with s = ((1:800 * 37) %% 21) - 10 (Welch): t = -49.543139,
+        // 95% interval of the difference -15.59386112 .. -14.40613888; against the same quarter t = 0, p = 1.
+        assertEquals("Welch t", previous.test());
+        assertEquals(-49.543139, previous.statistic(), 1e-6);
+        assertEquals(-15.59386112, previous.effect().ciLow(), 1e-6);
+        assertEquals(-14.40613888, previous.effect().ciHigh(), 1e-6);
+        assertEquals(0.0, seasonal.statistic(), 1e-9);
+        assertEquals(1.0, seasonal.pValue(), 1e-9);
         assertEquals(ROWS, previous.nBaseline());
         assertEquals(ROWS, seasonal.nBaseline());
         assertTrue(seasonal.sentence().startsWith("Against 2024-Q2, 4 waves back: "), seasonal.sentence());
