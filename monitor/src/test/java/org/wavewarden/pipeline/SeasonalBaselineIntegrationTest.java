@@ -199,6 +199,22 @@ class SeasonalBaselineIntegrationTest {
     }
 
     @Test
+    void theDigestShowsAnAlertOfAFurtherBaselineWithItsBaseline() {
+        WardenConfig c = config("[{sameWaveBack: 4}, previous]");
+        try (Session s = Session.open(c, null, Map.of())) {
+            s.migrate();
+            keyFindingsByBaseline(s);
+            var d = c.datasets().get(0);
+            JudgedWave j = new WaveJudge(s, Clock.systemUTC()).judge(d, "2025-Q2", null, null, null);
+            assertEquals(List.of("2025-Q1 (previous wave)"), j.alerts().stream().map(Alert::against).toList());
+            String html = new DigestAssembler(s).html(d, List.of(j.report()), java.time.Instant.now());
+            assertTrue(html.contains("<span class=\"against\">against 2025-Q1, previous wave</span>"), html);
+            String md = new DigestAssembler(s).markdown(d, List.of(j.report()));
+            assertTrue(md.contains(", against 2025-Q1, previous wave |"), md);
+        }
+    }
+
+    @Test
     void theRunKeyNamesEveryBaseline() {
         JudgedWave first = judge("[previous, {sameWaveBack: 4}]", "2025-Q1");
         JudgedWave again = judge("[previous, {sameWaveBack: 4}]", "2025-Q1");
