@@ -173,6 +173,8 @@ record DomainBase(List<Cell> cells, boolean binned) {
                 if (x == null) {
                     x = new double[sums.length];
                     yw = new double[sums.length];
+                } else if (sums.length != x.length) {
+                    return null; // PSU sums of another design: not to be trusted
                 }
                 for (int p = 0; p < sums.length; p++) {
                     x[p] += sums[p];
@@ -185,7 +187,8 @@ record DomainBase(List<Cell> cells, boolean binned) {
         } else {
             // All non-null answers' PSU sums less the values outside the base: the left-out values must be kept
             // by value (code-like), and a SHARE's targets too.
-            if (design.weight() == null) {
+            if (design.weight() == null || (m.kind() == DomainMeasure.Kind.MEAN && (design.weightedSum() == null
+                    || design.weightedSum().length != design.weight().length))) {
                 return null;
             }
             x = design.weight().clone();
@@ -199,7 +202,7 @@ record DomainBase(List<Cell> cells, boolean binned) {
                     continue;
                 }
                 double[] sums = design.cells().get(v);
-                if (sums == null) {
+                if (sums == null || sums.length != x.length) {
                     return null;
                 }
                 Double number = ValidNumber.parse(v);

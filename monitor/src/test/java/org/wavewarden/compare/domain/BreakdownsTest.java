@@ -282,6 +282,33 @@ class BreakdownsTest {
         assertEquals(0.25, b.withQValue(0.25).qValue());
     }
 
+    @Test
+    void aSummaryWhoseWeightsOrPsuSumsDoNotFitIsUsedWithoutThemNotTrustedInPart() {
+        WaveProfile b = DomainWaves.profile("1", SCORES.get("1"), "region", 10, true);
+        WaveProfile c = DomainWaves.profile("2", SCORES.get("2"), "region", 10, true);
+        var t = c.domains("region").orElseThrow();
+        // Weights of one domain only: the comparison is unweighted.
+        var oneWeight = new org.wavewarden.profile.DomainTally(t.column(), t.domains(), t.rows(), t.nullRows(),
+                t.overflowDomains(), t.overflowRows(), t.tallies(),
+                Map.of("score", List.of(t.weights().get("score").get(0))), t.designs());
+        Breakdown unweighted = Breakdowns.of("region", MEAN, b, withDomains(c, oneWeight), true, 0.95).orElseThrow();
+        assertEquals("unweighted", unweighted.method());
+        assertSame(Breakdowns.of("region", MEAN, b, c, false, 0.95).orElseThrow(), unweighted);
+        // PSU sums over fewer PSUs than the wave's design has: the weights alone.
+        var g = t.designs().get("score").stream().map(d -> new org.wavewarden.profile.DesignSummary.ColumnDesign(
+                Map.of("12", new double[] {1.0}), true, null, null, null)).toList();
+        var shortPsus = new org.wavewarden.profile.DomainTally(t.column(), t.domains(), t.rows(), t.nullRows(),
+                t.overflowDomains(), t.overflowRows(), t.tallies(), t.weights(), Map.of("score", g));
+        Breakdown weightsOnly = Breakdowns.of("region", MEAN, b, withDomains(c, shortPsus), true, 0.95).orElseThrow();
+        assertTrue(weightsOnly.method().startsWith("weighted"), weightsOnly.method());
+        assertSame(scores(SCORES, MEAN, false, null), weightsOnly);
+    }
+
+    private static WaveProfile withDomains(WaveProfile p, org.wavewarden.profile.DomainTally t) {
+        return new WaveProfile(p.wave(), p.rows(), p.schema(), p.columns(), p.weights(), p.design(), p.pairs(),
+                List.of(t));
+    }
+
     private static void assertSame(Breakdown expected, Breakdown actual) {
         assertEquals(expected.domains().size(), actual.domains().size());
         for (int i = 0; i < expected.domains().size(); i++) {
