@@ -282,8 +282,8 @@ public final class Breakdowns {
             case UNWEIGHTED -> rate ? "unweighted (a share of rows)" : "unweighted";
             case WEIGHTED -> "weighted (linearised, each respondent a PSU"
                     + (designGap == null ? "" : "; " + designGap) + ")";
-            case DESIGN -> "design-based (linearised over all PSUs, strata " + strata(b) + " and " + strata(c)
-                    + ", PSUs with replacement)";
+            case DESIGN -> "design-based (linearised over all " + b.psuCount() + " and " + c.psuCount()
+                    + " PSUs of the waves, in " + strata(b) + " and " + strata(c) + " strata, with replacement)";
         };
         return binned ? s + "; binned numbers at their bins' stand-ins" : s;
     }
