@@ -218,8 +218,18 @@ record DomainBase(List<Cell> cells, boolean binned) {
                 }
             }
         }
-        double r = estimate();
-        double total = weight();
+        // The ratio is linearised at its own PSU sums, so that the scores sum to zero: with binned numbers the
+        // PSU sums hold the exact values while the cells hold stand-ins, and the variance is then the exact mean's.
+        double total = 0;
+        double sum = 0;
+        for (int p = 0; p < x.length; p++) {
+            total += x[p];
+            sum += yw[p];
+        }
+        if (!(total > 0)) {
+            return null;
+        }
+        double r = sum / total;
         double[] z = new double[x.length];
         for (int p = 0; p < z.length; p++) {
             z[p] = (yw[p] - r * x[p]) / total;
