@@ -98,7 +98,9 @@ public final class MarkdownDigest {
             String reviewed = status == null ? "" : status.reviewed(a.variable(), a.lead().kind().name())
                     .map(st -> " (" + st.name().toLowerCase(java.util.Locale.ROOT) + ")").orElse("");
             md.append("| ").append(label(a.lead())).append(reviewed).append(" | ").append(escape(a.variable()))
-                    .append(a.lead().label() == null ? "" : " (" + escape(org.wavewarden.codebook.CodeLabels.shown(a.lead().label())) + ")").append(" | ")
+                    .append(a.lead().label() == null ? "" : " (" + escape(org.wavewarden.codebook.CodeLabels.shown(a.lead().label())) + ")")
+                    .append(a.against() == null ? "" : ", " + escape(org.wavewarden.judge.Against.phrase(a.against())))
+                    .append(" | ")
                     .append(escape(a.lead().sentence()));
             // Plain text, so the lead's verdict stays the only bold word of the row.
             for (Finding o : a.facets().subList(1, a.facets().size())) {

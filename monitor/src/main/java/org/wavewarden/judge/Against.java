@@ -63,6 +63,15 @@ public final class Against {
         return open >= 0 && against.endsWith(")") ? against.substring(0, open) : against;
     }
 
+    /** The main baseline's part of a run's key ({@link #runLabel}); null and empty stay as they are. */
+    public static String mainOf(String runLabel) {
+        if (runLabel == null) {
+            return null;
+        }
+        int plus = runLabel.indexOf(" + ");
+        return plus < 0 ? runLabel : runLabel.substring(0, plus);
+    }
+
     /** What a reader is told: "against 2024-Q1, 4 waves back"; empty for the run's main baseline. */
     public static String phrase(String against) {
         if (against == null) {

@@ -114,7 +114,11 @@ public final class DigestAssembler {
                         plot = own;
                         trend = v == null ? null : trend(d, order, r.wave(), v, f, plotted, 1 - r.alpha(), id);
                     } else {
-                        plot = v == null || current == null ? null : plot(v, f, screened(d, baseline, v).orElse(null),
+                        // Drawn against the baseline the finding was judged against (a pooled further
+                        // baseline has no one summary, so it is not drawn).
+                        WaveProfile against = f.against() == null ? baseline
+                                : summary(d, org.wavewarden.judge.Against.wavesOf(f.against())).orElse(null);
+                        plot = v == null || current == null ? null : plot(v, f, screened(d, against, v).orElse(null),
                                 screened(d, current, v).orElse(null), id);
                         trend = v == null || !f.kind().isDataQuality() ? null
                                 : missingTrend(d, order, r.wave(), v, 1 - r.alpha(), id);
@@ -173,7 +177,9 @@ public final class DigestAssembler {
      * which a run stores one alert.
      */
     public static String findingId(String dataset, String wave, Finding f) {
-        return dataset + "/" + wave + "/" + f.variable() + "/" + f.kind().name();
+        // A finding against a further baseline is another finding of the same variable and kind.
+        return dataset + "/" + wave + "/" + f.variable() + "/" + f.kind().name()
+                + (f.against() == null ? "" : "/" + org.wavewarden.judge.Against.rule(f.against()));
     }
 
     /**

@@ -310,7 +310,8 @@ public final class ConsoleReads {
                             + " r.against_wave, f.variable, f.label, f.kind, f.test, f.statistic, f.p_value, f.q_value,"
                             + " f.effect_name, f.effect_estimate, f.effect_ci_low, f.effect_ci_high, f.effect_threshold,"
                             + " f.verdict, f.n_baseline, f.n_current, f.sentence, f.df, f.df_convention,"
-                            + " f.fdr_family_size, f.fdr_method, f.repeat::text AS repeat, f.detail::text AS detail"
+                            + " f.fdr_family_size, f.fdr_method, f.repeat::text AS repeat, f.detail::text AS detail,"
+                            + " f.against"
                             + " FROM " + s + ".finding f JOIN " + s + ".run r ON r.run_id = f.run_id"
                             + " WHERE f.finding_id = :id")
                     .bind("id", findingId)

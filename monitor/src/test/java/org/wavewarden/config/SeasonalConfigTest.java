@@ -121,6 +121,17 @@ class SeasonalConfigTest {
     }
 
     @Test
+    void everyRuleIsPartOfTheConfigurationsFingerprint() {
+        List<String> rules = List.of("previous", "{sameWaveBack: 4}", "{sameWaveBack: 8}",
+                "[previous, {sameWaveBack: 4}]", "[{sameWaveBack: 4}, previous]", "[previous, {sameWaveBack: 8}]");
+        List<String> prints = rules.stream().map(r -> ConfigFingerprint.of(0.05,
+                WardenConfig.FdrMethod.BENJAMINI_HOCHBERG, dataset(r, null))).toList();
+        assertEquals(rules.size(), prints.stream().distinct().count(), prints.toString());
+        assertEquals(prints.get(3), ConfigFingerprint.of(0.05, WardenConfig.FdrMethod.BENJAMINI_HOCHBERG,
+                dataset("[previous, {sameWaveBack: 4}]", null)));
+    }
+
+    @Test
     void aFullBreakdownsSectionIsRead() {
         Breakdowns b = dataset("previous", """
                 columns: [district, interview_mode, interviewer_id]

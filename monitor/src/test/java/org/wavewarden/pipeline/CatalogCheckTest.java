@@ -77,7 +77,17 @@ class CatalogCheckTest {
                         "      - {name: satisfied, kind: binary, successValue: \"9\"}"),
                         "datasets[0].variables[3].successValue: '9' never occurs in column satisfied"),
                 Arguments.of("an unknown baseline wave", config("compareWith: {baseline: w9}", null),
-                        "datasets[0].compareWith.baseline: no wave 'w9' in src.answers; waves there include [w1, w2]"));
+                        "datasets[0].compareWith.baseline: no wave 'w9' in src.answers; waves there include [w1, w2]"),
+                Arguments.of("an unknown baseline wave among rules judged alongside",
+                        config("compareWith: [previous, {baseline: w9}]", null),
+                        "datasets[0].compareWith[1].baseline: no wave 'w9' in src.answers"),
+                Arguments.of("a domain column that does not exist",
+                        config("breakdowns: {columns: [region, district]}", null),
+                        "datasets[0].breakdowns.columns[1]: column district does not exist in the source table"),
+                Arguments.of("a key variable that does not exist", config("breakdowns: {columns: [region],"
+                                + " interviewer: region, keyVariables: [score, height_cm]}", null),
+                        "datasets[0].breakdowns.keyVariables[1]: column height_cm does not exist in the source"
+                                + " table"));
     }
 
     @ParameterizedTest(name = "{0}")

@@ -78,6 +78,7 @@ class SeasonalBaselineIntegrationTest {
                         kind: continuous
                         unit: hours
                         threshold: {raw: 5}
+                        locationTest: means
                       - name: rooms
                         kind: continuous
                         unit: rooms
@@ -124,6 +125,14 @@ class SeasonalBaselineIntegrationTest {
         // By construction: 45 - 60 hours against the quarter before, 45 - 45 against the same quarter.
         assertEquals(-15.0, previous.effect().estimate(), 1e-9, previous.effect().name());
         assertEquals(0.0, seasonal.effect().estimate(), 1e-9, seasonal.effect().name());
+        // R 4.2.2, t.test(45 + s, 60 + s) with s = ((1:800 * 37) %% 21) - 10 (Welch): t = -49.543139,
+        // 95% interval of the difference -15.59386112 .. -14.40613888; against the same quarter t = 0, p = 1.
+        assertEquals("Welch t", previous.test());
+        assertEquals(-49.543139, previous.statistic(), 1e-6);
+        assertEquals(-15.59386112, previous.effect().ciLow(), 1e-6);
+        assertEquals(-14.40613888, previous.effect().ciHigh(), 1e-6);
+        assertEquals(0.0, seasonal.statistic(), 1e-9);
+        assertEquals(1.0, seasonal.pValue(), 1e-9);
         assertEquals(ROWS, previous.nBaseline());
         assertEquals(ROWS, seasonal.nBaseline());
         assertTrue(seasonal.sentence().startsWith("Against 2024-Q2, 4 waves back: "), seasonal.sentence());
@@ -187,6 +196,22 @@ class SeasonalBaselineIntegrationTest {
         assertEquals("2024-Q2 + 2025-Q1 (previous wave)", later.report().againstWave());
         assertEquals(Verdict.MATERIAL, find(later, "heating_hours", FindingKind.SHIFT, "2025-Q1 (previous wave)")
                 .orElseThrow().verdict());
+    }
+
+    @Test
+    void theDigestShowsAnAlertOfAFurtherBaselineWithItsBaseline() {
+        WardenConfig c = config("[{sameWaveBack: 4}, previous]");
+        try (Session s = Session.open(c, null, Map.of())) {
+            s.migrate();
+            keyFindingsByBaseline(s);
+            var d = c.datasets().get(0);
+            JudgedWave j = new WaveJudge(s, Clock.systemUTC()).judge(d, "2025-Q2", null, null, null);
+            assertEquals(List.of("2025-Q1 (previous wave)"), j.alerts().stream().map(Alert::against).toList());
+            String html = new DigestAssembler(s).html(d, List.of(j.report()), java.time.Instant.now());
+            assertTrue(html.contains("<span class=\"against\">against 2025-Q1, previous wave</span>"), html);
+            String md = new DigestAssembler(s).markdown(d, List.of(j.report()));
+            assertTrue(md.contains(", against 2025-Q1, previous wave |"), md);
+        }
     }
 
     @Test

@@ -72,17 +72,17 @@ public final class Breakdowns {
         String variable = measure.variable();
         Optional<DomainTally> ob = baseline.domains(column);
         Optional<DomainTally> oc = current.domains(column);
-        if (ob.isEmpty() || oc.isEmpty() || !ob.get().tallies().containsKey(variable)
-                || !oc.get().tallies().containsKey(variable) || baseline.rows() < 2 || current.rows() < 2) {
+        if (ob.isEmpty() || oc.isEmpty() || !aligned(ob.get(), ob.get().tallies(), variable)
+                || !aligned(oc.get(), oc.get().tallies(), variable) || baseline.rows() < 2 || current.rows() < 2) {
             return Optional.empty();
         }
         DomainTally bt = ob.get();
         DomainTally ct = oc.get();
         boolean rate = measure.kind() == DomainMeasure.Kind.RATE;
-        Mode mode = rate || !weighted || !bt.weights().containsKey(variable) || !ct.weights().containsKey(variable)
+        Mode mode = rate || !weighted || !aligned(bt, bt.weights(), variable) || !aligned(ct, ct.weights(), variable)
                 ? Mode.UNWEIGHTED
-                : baseline.design() != null && current.design() != null && bt.designs().containsKey(variable)
-                  && ct.designs().containsKey(variable) ? Mode.DESIGN : Mode.WEIGHTED;
+                : baseline.design() != null && current.design() != null && aligned(bt, bt.designs(), variable)
+                  && aligned(ct, ct.designs(), variable) ? Mode.DESIGN : Mode.WEIGHTED;
 
         // Every kept domain of either wave, the current wave's order first.
         Set<String> labels = new LinkedHashSet<>(ct.domains());
@@ -179,19 +179,28 @@ public final class Breakdowns {
     static Optional<double[][]> covariance(String column, DomainMeasure m, WaveProfile wave, List<String> domains,
                                            boolean weighted) {
         Optional<DomainTally> ot = wave.domains(column);
-        if (ot.isEmpty() || !ot.get().tallies().containsKey(m.variable())) {
+        if (ot.isEmpty() || !aligned(ot.get(), ot.get().tallies(), m.variable())) {
             return Optional.empty();
         }
         DomainTally t = ot.get();
-        boolean w = weighted && m.kind() != DomainMeasure.Kind.RATE && t.weights().containsKey(m.variable());
+        boolean w = weighted && m.kind() != DomainMeasure.Kind.RATE && aligned(t, t.weights(), m.variable());
         Mode mode = !w ? Mode.UNWEIGHTED
-                : wave.design() != null && t.designs().containsKey(m.variable()) ? Mode.DESIGN : Mode.WEIGHTED;
+                : wave.design() != null && aligned(t, t.designs(), m.variable()) ? Mode.DESIGN : Mode.WEIGHTED;
         List<DomainBase> bases = new ArrayList<>();
         for (String d : domains) {
             bases.add(base(m, t, d, mode));
         }
         double[][] v = mode == Mode.DESIGN ? designCovariance(m, wave.design(), t, domains, bases) : null;
         return Optional.of(v != null ? v : ownPsuCovariance(wave.rows(), bases));
+    }
+
+    /**
+     * Whether a per-domain list of the variable is there with one non-null entry per domain. A summary that does
+     * not hold it (an older one, or one read without weights or design) is used without it, never trusted in part.
+     */
+    private static boolean aligned(DomainTally t, Map<String, ? extends List<?>> perVariable, String variable) {
+        List<?> list = perVariable.get(variable);
+        return list != null && list.size() == t.domains().size() && list.stream().allMatch(java.util.Objects::nonNull);
     }
 
     /** The domain's base in one wave; empty when the wave did not keep the domain. */
@@ -273,8 +282,8 @@ public final class Breakdowns {
             case UNWEIGHTED -> rate ? "unweighted (a share of rows)" : "unweighted";
             case WEIGHTED -> "weighted (linearised, each respondent a PSU"
                     + (designGap == null ? "" : "; " + designGap) + ")";
-            case DESIGN -> "design-based (linearised over all PSUs, strata " + strata(b) + " and " + strata(c)
-                    + ", PSUs with replacement)";
+            case DESIGN -> "design-based (linearised over all " + b.psuCount() + " and " + c.psuCount()
+                    + " PSUs of the waves, in " + strata(b) + " and " + strata(c) + " strata, with replacement)";
         };
         return binned ? s + "; binned numbers at their bins' stand-ins" : s;
     }

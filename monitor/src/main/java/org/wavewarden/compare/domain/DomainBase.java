@@ -173,6 +173,8 @@ record DomainBase(List<Cell> cells, boolean binned) {
                 if (x == null) {
                     x = new double[sums.length];
                     yw = new double[sums.length];
+                } else if (sums.length != x.length) {
+                    return null; // PSU sums of another design: not to be trusted
                 }
                 for (int p = 0; p < sums.length; p++) {
                     x[p] += sums[p];
@@ -185,7 +187,8 @@ record DomainBase(List<Cell> cells, boolean binned) {
         } else {
             // All non-null answers' PSU sums less the values outside the base: the left-out values must be kept
             // by value (code-like), and a SHARE's targets too.
-            if (design.weight() == null) {
+            if (design.weight() == null || (m.kind() == DomainMeasure.Kind.MEAN && (design.weightedSum() == null
+                    || design.weightedSum().length != design.weight().length))) {
                 return null;
             }
             x = design.weight().clone();
@@ -199,7 +202,7 @@ record DomainBase(List<Cell> cells, boolean binned) {
                     continue;
                 }
                 double[] sums = design.cells().get(v);
-                if (sums == null) {
+                if (sums == null || sums.length != x.length) {
                     return null;
                 }
                 Double number = ValidNumber.parse(v);
@@ -215,8 +218,18 @@ record DomainBase(List<Cell> cells, boolean binned) {
                 }
             }
         }
-        double r = estimate();
-        double total = weight();
+        // The ratio is linearised at its own PSU sums, so that the scores sum to zero: with binned numbers the
+        // PSU sums hold the exact values while the cells hold stand-ins, and the variance is then the exact mean's.
+        double total = 0;
+        double sum = 0;
+        for (int p = 0; p < x.length; p++) {
+            total += x[p];
+            sum += yw[p];
+        }
+        if (!(total > 0)) {
+            return null;
+        }
+        double r = sum / total;
         double[] z = new double[x.length];
         for (int p = 0; p < z.length; p++) {
             z[p] = (yw[p] - r * x[p]) / total;

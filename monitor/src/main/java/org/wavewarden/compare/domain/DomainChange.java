@@ -14,7 +14,9 @@ package org.wavewarden.compare.domain;
  * @param ciHigh       upper end
  * @param pValue       two-sided p-value of the change (Wald z)
  * @param qValue       the p-value adjusted for the false discovery rate over the breakdown's domains
- * @param shareBefore  the domain's share of the population (weighted; of the rows for a RATE) in the baseline
+ * @param shareBefore  the domain's share of the measure's base over the whole baseline wave: the weight of its valid
+ *                     answers (SHARE, MEAN), its rows (RATE); without NULLs or left-out values this is its weighted
+ *                     population share, and it is the share for which overall = sum of share x measure
  * @param shareAfter   the same in the current wave
  * @param contribution the domain's part of the overall change within domains: its mean share times its change
  *                     (Kitagawa 1955); the parts and the composition term add up to the overall change

@@ -286,10 +286,16 @@ public final class Pages {
                 .append(datasetHref(finding.dataset(), null)).append("\">").append(esc(finding.dataset()))
                 .append("</a>, wave <a href=\"").append(waveHref(finding.dataset(), finding.wave())).append("\">")
                 .append(esc(finding.wave())).append("</a>");
-        String against = finding.againstWave();
+        // The finding's own baseline when the run judged several (the run's key names them all), else the run's.
+        String against = f.against() != null ? org.wavewarden.judge.Against.wavesOf(f.against())
+                : org.wavewarden.judge.Against.mainOf(finding.againstWave());
         if (against != null && !against.isEmpty()) {
             h.append(" against wave <a href=\"").append(waveHref(finding.dataset(), against)).append("\">")
                     .append(esc(against)).append("</a>");
+            if (f.against() != null) {
+                h.append(" (<span class=\"against\">").append(esc(org.wavewarden.judge.Against.rule(f.against())))
+                        .append("</span>)");
+            }
         }
         if (finding.alert() != null) {
             h.append("; alert ").append(finding.alert().alertId()).append(" <span class=\"state a-")

@@ -155,7 +155,7 @@ public final class HtmlDigest {
         if (s.alerts().isEmpty()) {
             h.append("<p class=\"none\">No alerts for this wave: nothing needs attention.</p>\n");
         }
-        String baselineWave = r.againstWave() == null ? "baseline" : r.againstWave();
+        String baselineWave = r.againstWave() == null ? "baseline" : org.wavewarden.judge.Against.mainOf(r.againstWave());
         for (AlertView a : ordered(s.alerts())) {
             alert(h, a, baselineWave, r.wave(), r.alpha(), status == null ? null : status.reviewed(
                     a.finding().variable(), a.finding().kind().name()).orElse(null));
@@ -266,9 +266,11 @@ public final class HtmlDigest {
     }
 
     /** @param reviewed EXPLAINED or MUTED when someone explained or muted the alert, else null */
-    private static void alert(StringBuilder h, AlertView a, String baselineWave, String currentWave, double alpha,
+    private static void alert(StringBuilder h, AlertView a, String runBaseline, String currentWave, double alpha,
                               org.wavewarden.review.AlertState reviewed) {
         Finding f = a.finding();
+        // A finding judged against a further baseline names it, and its numbers are that baseline's.
+        String baselineWave = f.against() == null ? runBaseline : org.wavewarden.judge.Against.wavesOf(f.against());
         String badge = f.verdict() != null ? f.verdict().name() : f.kind() == FindingKind.SKIPPED ? "SKIPPED" : "DATA QUALITY";
         String badgeClass = f.verdict() != null ? "v-" + f.verdict().name().toLowerCase(Locale.ROOT) : "v-quality";
         h.append("<article class=\"alert ").append(badgeClass).append("\" data-variable=\"").append(esc(f.variable()))
@@ -281,6 +283,10 @@ public final class HtmlDigest {
         }
         h.append(">").append(esc(badge)).append("</span> <code class=\"variable\">").append(esc(f.variable()))
                 .append("</code> <span class=\"kind\">").append(esc(kindLabel(f.kind()))).append("</span>");
+        if (f.against() != null) {
+            h.append(" <span class=\"against\">").append(esc(org.wavewarden.judge.Against.phrase(f.against())))
+                    .append("</span>");
+        }
         if (reviewed != null) {
             h.append(" <span class=\"state\">").append(reviewed.name().toLowerCase(Locale.ROOT)).append("</span>");
         }

@@ -253,4 +253,16 @@ class BreakdownsReproduceSurveyTest {
         assertEquals(first, b.domains().get(0).domain(), "first-ranked domain");
         close(elsewhere, b.elsewhere(), "elsewhere");
     }
+
+    /** The breakdown says how it was made: apistrat has 200 schools in 3 strata, apiclus2 40 districts. */
+    @ParameterizedTest(name = "{0} {1}")
+    @CsvSource(delimiter = '|', value = {
+            "design|yes|design-based (linearised over all 200 and 40 PSUs of the waves, in 3 and 1 strata, with replacement)",
+            "weights|api00|weighted (linearised, each respondent a PSU)",
+            "unweighted|api00|unweighted",
+            "design|na46|unweighted (a share of rows)",
+    })
+    void theMethodIsNamed(String kind, String measure, String method) {
+        assertEquals(method, breakdown(kind, measure).method());
+    }
 }

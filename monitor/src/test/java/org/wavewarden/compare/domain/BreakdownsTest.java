@@ -282,6 +282,86 @@ class BreakdownsTest {
         assertEquals(0.25, b.withQValue(0.25).qValue());
     }
 
+    @Test
+    void aSummaryWhoseWeightsOrPsuSumsDoNotFitIsUsedWithoutThemNotTrustedInPart() {
+        WaveProfile b = DomainWaves.profile("1", SCORES.get("1"), "region", 10, true);
+        WaveProfile c = DomainWaves.profile("2", SCORES.get("2"), "region", 10, true);
+        var t = c.domains("region").orElseThrow();
+        // Weights of one domain only: the comparison is unweighted.
+        var oneWeight = new org.wavewarden.profile.DomainTally(t.column(), t.domains(), t.rows(), t.nullRows(),
+                t.overflowDomains(), t.overflowRows(), t.tallies(),
+                Map.of("score", List.of(t.weights().get("score").get(0))), t.designs());
+        Breakdown unweighted = Breakdowns.of("region", MEAN, b, withDomains(c, oneWeight), true, 0.95).orElseThrow();
+        assertEquals("unweighted", unweighted.method());
+        assertSame(Breakdowns.of("region", MEAN, b, c, false, 0.95).orElseThrow(), unweighted);
+        // PSU sums over fewer PSUs than the wave's design has: the weights alone.
+        var g = t.designs().get("score").stream().map(d -> new org.wavewarden.profile.DesignSummary.ColumnDesign(
+                Map.of("12", new double[] {1.0}), true, null, null, null)).toList();
+        var shortPsus = new org.wavewarden.profile.DomainTally(t.column(), t.domains(), t.rows(), t.nullRows(),
+                t.overflowDomains(), t.overflowRows(), t.tallies(), t.weights(), Map.of("score", g));
+        Breakdown weightsOnly = Breakdowns.of("region", MEAN, b, withDomains(c, shortPsus), true, 0.95).orElseThrow();
+        assertTrue(weightsOnly.method().startsWith("weighted"), weightsOnly.method());
+        assertSame(scores(SCORES, MEAN, false, null), weightsOnly);
+    }
+
+    @Test
+    void binnedNumbersAreMeanedAtTheirStandInsWhileTheDesignVarianceIsTheExactValues() {
+        WaveProfile b = DomainWaves.profile("1", SCORES.get("1"), "region", 10, true);
+        WaveProfile c = DomainWaves.profile("2", SCORES.get("2"), "region", 10, true);
+        Breakdown exact = Breakdowns.of("region", MEAN, b, c, true, 0.95).orElseThrow();
+        Breakdown binned = Breakdowns.of("region", MEAN, binned(b), binned(c), true, 0.95).orElseThrow();
+        assertTrue(binned.method().startsWith("design-based"), binned.method());
+        assertTrue(binned.method().endsWith("; binned numbers at their bins' stand-ins"), binned.method());
+        for (DomainChange e : exact.domains()) {
+            DomainChange x = find(binned, e.domain());
+            // The PSU sums hold the exact numbers, so the variance is the exact one.
+            assertEquals(e.se(), x.se(), 1e-12, e.domain());
+            // The stand-in of a number lies within 1 of it (even numbers stand for odd ones), and so do the means.
+            assertTrue(Math.abs(e.before() - x.before()) <= 1 && Math.abs(e.after() - x.after()) <= 1, e.domain());
+        }
+    }
+
+    /**
+     * The summary as the reader makes it of a column with too many numbers per domain: each number replaced by a
+     * stand-in (here the even number at or above it; 99 is code-like and stays), and the design's PSU sums kept
+     * only as the exact numeric totals and the code-like values' cells.
+     */
+    private static WaveProfile binned(WaveProfile p) {
+        var t = p.domains("region").orElseThrow();
+        java.util.function.UnaryOperator<String> standIn = v -> v.equals("99") ? v
+                : String.valueOf(2 * (int) Math.ceil(Integer.parseInt(v) / 2.0));
+        List<org.wavewarden.profile.ColumnTally> tallies = new java.util.ArrayList<>();
+        List<Map<String, double[]>> weights = new java.util.ArrayList<>();
+        List<org.wavewarden.profile.DesignSummary.ColumnDesign> designs = new java.util.ArrayList<>();
+        for (int d = 0; d < t.domains().size(); d++) {
+            var tally = t.tallies().get("score").get(d);
+            Map<String, Long> counts = new java.util.LinkedHashMap<>();
+            tally.valueCounts().forEach((v, n) -> counts.merge(standIn.apply(v), n, Long::sum));
+            tallies.add(new org.wavewarden.profile.ColumnTally("score", tally.type(), tally.rowCount(),
+                    tally.nullCount(), counts, false, new org.wavewarden.profile.Binning(0)));
+            Map<String, double[]> w = new java.util.LinkedHashMap<>();
+            t.weights().get("score").get(d).forEach((v, s) -> {
+                double[] cell = w.computeIfAbsent(standIn.apply(v), k -> new double[2]);
+                cell[0] += s[0];
+                cell[1] += s[1];
+            });
+            weights.add(w);
+            var cd = t.designs().get("score").get(d);
+            Map<String, double[]> codes = new java.util.LinkedHashMap<>(cd.cells());
+            codes.keySet().retainAll(Set.of("99"));
+            designs.add(new org.wavewarden.profile.DesignSummary.ColumnDesign(codes, false, cd.weight(),
+                    cd.weightedSum(), cd.weightedSquares()));
+        }
+        return withDomains(p, new org.wavewarden.profile.DomainTally(t.column(), t.domains(), t.rows(), t.nullRows(),
+                t.overflowDomains(), t.overflowRows(), Map.of("score", tallies), Map.of("score", weights),
+                Map.of("score", designs)));
+    }
+
+    private static WaveProfile withDomains(WaveProfile p, org.wavewarden.profile.DomainTally t) {
+        return new WaveProfile(p.wave(), p.rows(), p.schema(), p.columns(), p.weights(), p.design(), p.pairs(),
+                List.of(t));
+    }
+
     private static void assertSame(Breakdown expected, Breakdown actual) {
         assertEquals(expected.domains().size(), actual.domains().size());
         for (int i = 0; i < expected.domains().size(); i++) {
