@@ -227,6 +227,10 @@ class CaseListsIntegrationTest {
         String digest = Files.readString(hh.out().resolve("digest.md"));
         assertTrue(digest.contains("[40 cases](" + refused.fileName() + ")"), digest);
         assertTrue(digest.contains("[15 cases](" + list(lists, "town", "CODE_APPEARED").fileName() + ")"), digest);
+        String html = new DigestAssembler(session).html(config.dataset("hh"), List.of(hh.wave().report()),
+                java.time.Instant.now());
+        assertTrue(html.contains("hours MISSING_CODE: <a href=\"" + refused.fileName() + "\" download>40 cases</a>"),
+                html);
     }
 
     @Test
