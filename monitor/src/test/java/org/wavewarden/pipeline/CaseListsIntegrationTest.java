@@ -331,4 +331,14 @@ class CaseListsIntegrationTest {
         assertEquals(303, anonymous.statusCode());
         assertTrue(anonymous.headers().firstValue("Location").orElse("").startsWith("/console/login"));
     }
+
+    @Test
+    @Order(8)
+    void theSameDataJudgedAgainKeepsTheRunWithItsListsAndReadsNoCases() {
+        List<CaseLists.CaseList> before = session.store().caseLists().forRun(hh.wave().runId());
+        Judged again = judge(config.dataset("hh"), "w2");
+        assertEquals(hh.wave().runId(), again.wave().runId(), "the same run, kept");
+        assertEquals(0, again.caseReads().tableQueries(), again.caseReads().toString());
+        assertEquals(before, session.store().caseLists().forRun(again.wave().runId()));
+    }
 }
