@@ -249,6 +249,15 @@ class CaseListsIntegrationTest {
         assertEquals(11, csv.split("\r\n").length);
         assertTrue(Files.readString(j.out().resolve("digest.md")).contains("[first 10 of 30 cases]("
                 + sentinel.fileName() + ")"));
+
+        // Another cap is another configuration and so another run, with new findings: the earlier run's files go.
+        Judged again = judge(capped(config.dataset("hh-capped"), 5), "w2");
+        assertTrue(again.wave().runId() != j.wave().runId());
+        CaseLists.CaseList now = list(session.store().caseLists().forRun(again.wave().runId()), "hours",
+                "NUMERIC_SENTINEL");
+        assertEquals(keys(971, 975), now.rows().stream().map(CaseLists.CaseRow::respondentKey).toList());
+        assertFalse(Files.exists(j.out().resolve(sentinel.fileName())), "the earlier run's list is removed");
+        assertTrue(Files.exists(again.out().resolve(now.fileName())));
     }
 
     @Test
