@@ -22,6 +22,9 @@ public final class FindingsFiles {
     private FindingsFiles() {
     }
 
+    /** The name of a case list's file: the finding id, then safe characters (see {@code CaseList.fileName}). */
+    private static final java.util.regex.Pattern CASE_FILE = java.util.regex.Pattern.compile("[0-9]+-[A-Za-z0-9_-]+\\.csv");
+
     /** Findings in reading order: most urgent verdict first, then by size relative to threshold. */
     public static List<Finding> ordered(List<Finding> findings) {
         return org.wavewarden.judge.WaveVerdicts.ordered(findings);
@@ -46,8 +49,22 @@ public final class FindingsFiles {
             if (!cases.isEmpty()) {
                 Files.createDirectories(dir.resolve("cases"));
             }
+            java.util.Set<Path> listed = new java.util.HashSet<>();
             for (org.wavewarden.store.CaseLists.CaseList list : cases) {
-                writeAtomically(dir.resolve(list.fileName()), CaseListCsv.render(list));
+                Path file = dir.resolve(list.fileName());
+                writeAtomically(file, CaseListCsv.render(list));
+                listed.add(file.getFileName());
+            }
+            // A list of an earlier run of this wave (its findings replaced by this run's) would be taken for one of
+            // this run's: only files named as lists are, and only those this run did not write, removed.
+            Path folder = dir.resolve("cases");
+            if (Files.isDirectory(folder)) {
+                try (var old = Files.list(folder)) {
+                    for (Path p : old.filter(p -> CASE_FILE.matcher(p.getFileName().toString()).matches()
+                            && !listed.contains(p.getFileName())).toList()) {
+                        Files.deleteIfExists(p);
+                    }
+                }
             }
             Path json = dir.resolve("findings.json");
             writeAtomically(json, Json.mapper().writer().with(SerializationFeature.INDENT_OUTPUT)

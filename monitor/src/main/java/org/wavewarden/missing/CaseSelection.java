@@ -167,7 +167,10 @@ public final class CaseSelection {
      */
     private static Set<String> outsideRange(VariableConfig v, ColumnTally tally, ScreenedVariable s) {
         Codebook codebook = VariableScreen.codebook(v);
-        Set<String> candidates = s.candidates().stream().map(MissingCandidate::value).collect(Collectors.toSet());
+        // Only a candidate the screen was confident of was left out as disguised; a doubtful one outside the range
+        // was left out as outside it.
+        Set<String> candidates = s.candidates().stream().filter(c -> c.confidence() >= VariableScreen.EXCLUDE_CONFIDENCE)
+                .map(MissingCandidate::value).collect(Collectors.toSet());
         return s.excludedValues().stream()
                 .filter(raw -> codebook.reasonOf(raw, tally.type()).isEmpty() && !candidates.contains(raw))
                 .collect(Collectors.toCollection(java.util.TreeSet::new));

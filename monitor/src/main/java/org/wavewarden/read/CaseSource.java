@@ -56,7 +56,7 @@ public final class CaseSource {
         }
         StringBuilder sql = new StringBuilder("SELECT ").append(text(key)).append(" AS k");
         for (Map.Entry<String, Integer> c : columns.entrySet()) {
-            sql.append(", ").append(text(Identifiers.quote(Identifiers.require("breakdowns", c.getKey()))))
+            sql.append(", ").append(text(Identifiers.quote(c.getKey())))
                     .append(" AS c").append(c.getValue());
         }
         sql.append(from(source, wave)).append(" AND (");
@@ -85,9 +85,26 @@ public final class CaseSource {
         long[] totals = new long[lists.size()];
         List<List<CaseRow>> kept = new ArrayList<>();
         lists.forEach(s -> kept.add(new ArrayList<>()));
+        try {
+            gather(h, sql.toString(), source, wave, lists, columns, maxCases, totals, kept);
+        } catch (org.jdbi.v3.core.JdbiException e) {
+            // As a failed scan: the source could not be read now, and the run is retried rather than written
+            // without the lists its findings should have.
+            throw new WaveScanner.SourceReadException("the case lists of wave " + wave + " could not be read: "
+                    + e.getClass().getSimpleName(), e);
+        }
+        List<Gathered> out = new ArrayList<>();
+        for (int j = 0; j < lists.size(); j++) {
+            out.add(new Gathered(totals[j], kept.get(j)));
+        }
+        return out;
+    }
+
+    private static void gather(Handle h, String sql, WaveSource source, String wave, List<Selection> lists,
+                               Map<String, Integer> columns, int maxCases, long[] totals, List<List<CaseRow>> kept) {
         h.useTransaction(tx -> {
             tx.execute("SET LOCAL DateStyle = 'ISO, YMD'");
-            Query q = tx.createQuery(sql.toString()).setFetchSize(1_000);
+            Query q = tx.createQuery(sql).setFetchSize(1_000);
             if (!source.onePerWave()) {
                 q.bind("wave", wave);
             }
@@ -123,11 +140,6 @@ public final class CaseSource {
                 });
             }
         });
-        List<Gathered> out = new ArrayList<>();
-        for (int j = 0; j < lists.size(); j++) {
-            out.add(new Gathered(totals[j], kept.get(j)));
-        }
-        return out;
     }
 
     /** A column in the text form the scanner tallies, SQL NULL kept as NULL ({@code format} would print ''). */
