@@ -390,9 +390,10 @@ public final class ConsoleReads {
                     .list();
             // Each alert's lead finding, joined on the key the alert was written under (run, variable, kind).
             Map<Long, Long> leads = new HashMap<>();
-            h.createQuery("SELECT a.alert_id, f.finding_id FROM " + s + ".alert a JOIN " + s + ".finding f"
-                            + " ON f.run_id = a.run_id AND f.variable = a.variable AND f.kind = a.kind"
-                            + " WHERE a.run_id = (" + run + ")")
+            h.createQuery("SELECT DISTINCT ON (a.alert_id) a.alert_id, f.finding_id FROM " + s + ".alert a JOIN " + s
+                            + ".finding f ON f.run_id = a.run_id AND f.variable = a.variable AND f.kind = a.kind"
+                            + " AND coalesce(f.against, '') = a.against"
+                            + " WHERE a.run_id = (" + run + ") ORDER BY a.alert_id, f.finding_id")
                     .bind("d", dataset).bind("w", wave)
                     .map((rs, ctx) -> Map.entry(rs.getLong(1), rs.getLong(2)))
                     .forEach(e -> leads.put(e.getKey(), e.getValue()));

@@ -112,15 +112,18 @@ public final class OutboxStore {
             PreparedBatch b = h.prepareBatch("INSERT INTO " + s + ".outbox (dataset, sink, product, item, run_ids,"
                     + " alert_id) SELECT :d, :sink, :p, :key, ARRAY[a.run_id], a.alert_id FROM " + s + ".alert a"
                     + " WHERE a.dataset = :d AND a.wave = :w AND a.against_wave = :against AND a.variable = :v"
-                    + " AND a.kind = :kind AND a.superseded_at IS NULL ON CONFLICT ON CONSTRAINT outbox_key DO NOTHING");
+                    + " AND a.kind = :kind AND a.against = :baseline AND a.superseded_at IS NULL"
+                    + " ON CONFLICT ON CONSTRAINT outbox_key DO NOTHING");
             String against = run.againstWave().isEmpty() ? null : run.againstWave();
             for (String sink : outputs.alertSinks()) {
                 for (Alert a : alerts) {
                     b.bind("d", run.dataset()).bind("sink", sink).bind("p", ALERT)
-                            .bind("key", AlertMessage.idempotencyKey(run.dataset(), run.wave(), against, a.variable(),
-                                    a.kind(), run.summaryChecksum()))
+                            // A further baseline's alert is its own event, keyed by its own baseline.
+                            .bind("key", AlertMessage.idempotencyKey(run.dataset(), run.wave(),
+                                    a.against() == null ? against : a.against(), a.variable(), a.kind(),
+                                    run.summaryChecksum()))
                             .bind("w", run.wave()).bind("against", run.againstWave()).bind("v", a.variable())
-                            .bind("kind", a.kind().name()).add();
+                            .bind("kind", a.kind().name()).bind("baseline", ResultsStore.againstKey(a)).add();
                 }
             }
             b.execute();
@@ -160,7 +163,8 @@ public final class OutboxStore {
             record Open(long alertId, long runId, String wave, String against, String variable, String kind,
                         String checksum, boolean delivered) {
             }
-            List<Open> open = h.createQuery("SELECT a.alert_id, a.run_id, a.wave, a.against_wave, a.variable, a.kind,"
+            List<Open> open = h.createQuery("SELECT a.alert_id, a.run_id, a.wave, CASE WHEN a.against = '' THEN"
+                            + " a.against_wave ELSE a.against END, a.variable, a.kind,"
                             + " r.summary_checksum, EXISTS (SELECT 1 FROM " + s + ".alert_delivery x WHERE"
                             + " x.alert_id = a.alert_id AND x.sink = :sink) AS delivered FROM " + s + ".alert a JOIN "
                             + s + ".run r ON r.run_id = a.run_id WHERE a.dataset = :d AND a.superseded_at IS NULL"
@@ -344,10 +348,14 @@ public final class OutboxStore {
                         + " END AS verdict, CASE WHEN k.ord = 1 THEN a.sentence ELSE f.sentence END AS sentence, f.test,"
                         + " f.statistic, f.p_value, f.q_value, f.effect_name, f.effect_estimate, f.effect_ci_low,"
                         + " f.effect_ci_high, f.effect_threshold, f.n_baseline, f.n_current, f.df, f.df_convention,"
-                        + " f.fdr_family_size, f.fdr_method, f.label FROM " + s + ".alert a"
+                        + " f.fdr_family_size, f.fdr_method, f.label, f.against FROM " + s + ".alert a"
                         + " JOIN " + s + ".run r ON r.run_id = a.run_id CROSS JOIN LATERAL unnest(ARRAY[a.kind]"
-                        + " || a.facet_kinds) WITH ORDINALITY AS k(kind, ord) LEFT JOIN " + s + ".finding f"
-                        + " ON f.run_id = a.run_id AND f.variable = a.variable AND f.kind = k.kind"
+                        + " || a.facet_kinds) WITH ORDINALITY AS k(kind, ord)"
+                        // One finding per kind: the alert's baseline's, the first written where a kind has several
+                        // (interviewers flagged on one variable).
+                        + " LEFT JOIN LATERAL (SELECT * FROM " + s + ".finding x WHERE x.run_id = a.run_id"
+                        + " AND x.variable = a.variable AND x.kind = k.kind AND coalesce(x.against, '') = a.against"
+                        + " ORDER BY x.finding_id LIMIT 1) f ON true"
                         + " WHERE a.alert_id = :id AND (k.ord = 1 OR f.finding_id IS NOT NULL) ORDER BY k.ord")
                 .bind("id", alertId)
                 .map((rs, ctx) -> new Facet(rs.getString("dataset"), rs.getString("wave"),

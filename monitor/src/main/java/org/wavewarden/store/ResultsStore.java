@@ -239,19 +239,22 @@ public final class ResultsStore {
             // each with an entry in its history.
             reviews.supersede(h, "dataset = :dataset AND wave = :wave AND run_id <> :run",
                     java.util.Map.of("dataset", run.dataset(), "wave", run.wave(), "run", runId), runId);
-            reviews.supersede(h, "run_id = :run AND NOT ((variable, kind) IN (SELECT * FROM unnest(CAST(:vars AS"
-                            + " text[]), CAST(:kinds AS text[]))))",
+            reviews.supersede(h, "run_id = :run AND NOT ((variable, kind, against) IN (SELECT * FROM unnest(CAST(:vars"
+                            + " AS text[]), CAST(:kinds AS text[]), CAST(:againsts AS text[]))))",
                     java.util.Map.of("run", runId,
                             "vars", alerts.stream().map(Alert::variable).toArray(String[]::new),
-                            "kinds", alerts.stream().map(a -> a.kind().name()).toArray(String[]::new)), runId);
+                            "kinds", alerts.stream().map(a -> a.kind().name()).toArray(String[]::new),
+                            "againsts", alerts.stream().map(ResultsStore::againstKey).toArray(String[]::new)), runId);
             // A rerun on the same data keeps the open alert (and so its deliveries and its history) and takes the
             // event's facets as now judged, which a rerun from before alerts were grouped did not record. Only an
             // alert inserted now gets its first entry: OPENED, or what the configuration decides.
             for (Alert a : alerts) {
                 java.util.Map<String, Object> row = h.createQuery("INSERT INTO " + s + ".alert (run_id, dataset, wave,"
-                                + " against_wave, variable, kind, verdict, sentence, facet_kinds) VALUES (:run, :dataset,"
-                                + " :wave, :against, :variable, :kind, :verdict, :sentence, CAST(:facets AS text[]))"
-                                + " ON CONFLICT (dataset, wave, against_wave, variable, kind) WHERE superseded_at IS NULL"
+                                + " against_wave, variable, kind, verdict, sentence, facet_kinds, against) VALUES (:run,"
+                                + " :dataset, :wave, :against, :variable, :kind, :verdict, :sentence,"
+                                + " CAST(:facets AS text[]), :baseline)"
+                                + " ON CONFLICT (dataset, wave, against_wave, variable, kind, against)"
+                                + " WHERE superseded_at IS NULL"
                                 + " DO UPDATE SET facet_kinds = EXCLUDED.facet_kinds"
                                 // xmax is 0 on a row version this statement inserted, not on one it updated.
                                 + " RETURNING alert_id, (xmax = 0) AS inserted")
@@ -260,6 +263,7 @@ public final class ResultsStore {
                         .bind("verdict", a.verdict() == null ? null : a.verdict().name())
                         .bind("sentence", a.lead().sentence())
                         .bind("facets", a.otherKinds().stream().map(Enum::name).toArray(String[]::new))
+                        .bind("baseline", againstKey(a))
                         .mapToMap().one();
                 if (Boolean.TRUE.equals(row.get("inserted"))) {
                     reviews.created(h, ((Number) row.get("alert_id")).longValue(), decide.apply(a));
@@ -272,6 +276,14 @@ public final class ResultsStore {
             outbox.add(h, run, runId, alerts, outputs);
             return runId;
         });
+    }
+
+    /**
+     * An alert's baseline as its key holds it: the empty text for the run's first baseline, the further baseline's
+     * label otherwise (a finding's {@code against}).
+     */
+    public static String againstKey(Alert a) {
+        return a.against() == null ? "" : a.against();
     }
 
     private void insertFindings(Handle h, long runId, List<Finding> findings) {

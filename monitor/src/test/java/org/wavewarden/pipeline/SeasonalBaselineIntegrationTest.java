@@ -90,22 +90,8 @@ class SeasonalBaselineIntegrationTest {
         WardenConfig c = config(compareWith);
         try (Session s = Session.open(c, null, Map.of())) {
             s.migrate();
-            keyFindingsByBaseline(s);
             return new WaveJudge(s, Clock.systemUTC()).judge(c.datasets().get(0), wave, null, null, null);
         }
-    }
-
-    /**
-     * The results schema keys a finding by (run, variable, kind); a run judged against two baselines holds two
-     * findings of one variable and kind, told apart by their baseline. Until the migration after V20 widens that
-     * key, this test widens it the same way (idempotent, so it stays right once the migration is in).
-     */
-    static void keyFindingsByBaseline(Session s) {
-        s.store().jdbi().useHandle(h -> {
-            h.execute("ALTER TABLE ww_results.finding DROP CONSTRAINT IF EXISTS finding_key");
-            h.execute("CREATE UNIQUE INDEX IF NOT EXISTS finding_key_baseline ON ww_results.finding"
-                    + " (run_id, variable, kind, (coalesce(against, '')))");
-        });
     }
 
     static Optional<Finding> find(JudgedWave j, String variable, FindingKind kind, String against) {
@@ -203,7 +189,6 @@ class SeasonalBaselineIntegrationTest {
         WardenConfig c = config("[{sameWaveBack: 4}, previous]");
         try (Session s = Session.open(c, null, Map.of())) {
             s.migrate();
-            keyFindingsByBaseline(s);
             var d = c.datasets().get(0);
             JudgedWave j = new WaveJudge(s, Clock.systemUTC()).judge(d, "2025-Q2", null, null, null);
             assertEquals(List.of("2025-Q1 (previous wave)"), j.alerts().stream().map(Alert::against).toList());

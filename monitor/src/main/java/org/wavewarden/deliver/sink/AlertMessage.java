@@ -113,10 +113,13 @@ public record AlertMessage(String dataset, String wave, String againstWave, long
                                   Alert alert) {
         Objects.requireNonNull(alert, "alert");
         Finding lead = alert.lead();
-        return new AlertMessage(dataset, wave, againstWave, runId, lead.variable(), lead.kind(), lead.verdict(),
+        // An alert against a further baseline (the same quarter a year back) names that baseline and is keyed by it,
+        // so it is another event than the run's first baseline's alert of the same variable and kind.
+        String baseline = alert.against() == null ? againstWave : alert.against();
+        return new AlertMessage(dataset, wave, baseline, runId, lead.variable(), lead.kind(), lead.verdict(),
                 lead.sentence(), lead.effect(), lead.pValue(), lead.qValue(),
                 alert.facets().stream().map(Part::of).toList(),
-                idempotencyKey(dataset, wave, againstWave, lead.variable(), lead.kind(), runChecksum));
+                idempotencyKey(dataset, wave, baseline, lead.variable(), lead.kind(), runChecksum));
     }
 
     /** The messages for several findings of one judged wave, each its own alert, in the given order. */
