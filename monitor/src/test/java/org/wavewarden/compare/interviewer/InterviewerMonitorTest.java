@@ -212,6 +212,59 @@ class InterviewerMonitorTest {
                 InterviewerMonitor.judge(none, screened(), CONFIG, 0.05).notes());
     }
 
+    static final VariableConfig CONSENT = new VariableConfig("consent", VariableKind.BINARY, null, null, List.of(),
+            null, null, List.of(), null);
+    static final List<String> CONSENTS = List.of("yes=25 no=8", "yes=20 no=11", "yes=26 no=1", "yes=12 no=18",
+            "yes=3 no=2");
+
+    /**
+     * A binary key variable: the share of its tracked answer ("yes") by Fisher's exact test, and its interviewer
+     * effect on the 0/1 indicator. R 4.2.2: {@code fisher.test(matrix(c(yes_i, yes_others, no_i, no_others), 2))},
+     * {@code p.adjust(p, "BH")} over the four tests, the effect as above on the indicator.
+     */
+    @ParameterizedTest(name = "interviewer {0}")
+    @CsvSource(delimiter = ';', textBlock = """
+            # interviewer; p (R 4.2.2 fisher.test);  q (p.adjust BH)
+            A;             0.384377097594873096;     0.512502796793164128
+            B;             0.659165320673235966;     0.659165320673235966
+            C;             0.000156248939346713;     0.000530837111601353
+            D;             0.000265418555800677;     0.000530837111601353
+            """)
+    void aBinaryKeyVariableByItsTrackedAnswerAsR(String interviewer, double p, double q) {
+        InterviewerMonitor.Assessment a = InterviewerMonitor.assess(consentInterviewers(), consentWave(), CONFIG,
+                0.05);
+        assertEquals(4, a.family());
+        int i = indexOf(a, interviewer, "consent", "share of yes");
+        assertEquals(p, a.tests().get(i).result().pValue(), 1e-9 * p);
+        assertEquals(q, a.q()[i], 1e-9 * q);
+        InterviewerEffect e = a.effects().get(0);
+        // R 4.2.2 anova(aov(indicator ~ interviewer)) over A to D, the estimator and qf interval written out.
+        assertEquals("share of yes", e.measure());
+        assertEquals(0.202778592279666, e.icc(), 1e-10);
+        assertEquals(0.0529331172024941, e.ciLow(), 1e-8);
+        assertEquals(0.799061956227294, e.ciHigh(), 1e-8);
+        assertEquals(3.00935654057382e-05, e.pValue(), 1e-6 * e.pValue());
+    }
+
+    @Test
+    void aBinaryFlagSaysWhatShareOfValidAnswers() {
+        InterviewerMonitor.Result r = InterviewerMonitor.judge(consentInterviewers(), consentWave(), CONFIG, 0.05);
+        assertEquals(List.of("C", "D"), r.flags().stream().map(InterviewerFlag::interviewer).toList());
+        assertTrue(r.findings().get(0).sentence().startsWith("Interviewer C recorded yes for 26 of 27 valid answers "
+                + "to consent (96%; other interviewers 61%), q < 0.001;"), r.findings().get(0).sentence());
+    }
+
+    static DomainTally consentInterviewers() {
+        List<ColumnTally> tallies = CONSENTS.stream().map(c -> tally("consent", ColumnType.TEXT, c)).toList();
+        return new DomainTally(COLUMN, IDS, tallies.stream().mapToLong(ColumnTally::rowCount).toArray(), 0, 0, 0,
+                Map.of("consent", tallies), null, null);
+    }
+
+    static ScreenedWave consentWave() {
+        return ScreenedWave.screen("2025-Q1", Map.of("consent", tally("consent", ColumnType.TEXT,
+                String.join(" ", CONSENTS))), null, List.of(CONSENT), List.of());
+    }
+
     private static int indexOf(InterviewerMonitor.Assessment a, String interviewer, String variable, String measure) {
         for (int i = 0; i < a.tests().size(); i++) {
             var t = a.tests().get(i);
