@@ -212,6 +212,24 @@ class InterviewerMonitorTest {
                 InterviewerMonitor.judge(none, screened(), CONFIG, 0.05).notes());
     }
 
+    @Test
+    void aSentinelFoundByTheScreenCountsAsMissingLikeADeclaredCode() {
+        // No codebook: the wave's screen finds 999 among heights of 150 to 190 and leaves it out, and the
+        // interviewers are measured by that same rule, so every test is the one made with 999 declared.
+        VariableConfig undeclared = new VariableConfig("height_cm", VariableKind.CONTINUOUS, "cm", null, List.of(),
+                null, null, List.of(), null);
+        Map<String, ColumnTally> wave = new LinkedHashMap<>();
+        wave.put("height_cm", tally("height_cm", ColumnType.INTEGER, String.join(" ", HEIGHTS)));
+        wave.put("tenure", tally("tenure", ColumnType.TEXT, String.join(" ", TENURE)));
+        ScreenedWave found = ScreenedWave.screen("2025-Q1", wave, null, List.of(undeclared, TENURE_V), List.of());
+        assertTrue(found.get("height_cm").orElseThrow().excludedValues().contains("999"),
+                found.get("height_cm").orElseThrow().candidates().toString());
+        InterviewerMonitor.Assessment declared = InterviewerMonitor.assess(interviewers(), screened(), CONFIG, 0.05);
+        InterviewerMonitor.Assessment screen = InterviewerMonitor.assess(interviewers(), found, CONFIG, 0.05);
+        assertEquals(declared.tests().stream().map(t -> t.measure() + " " + t.result().pValue()).toList(),
+                screen.tests().stream().map(t -> t.measure() + " " + t.result().pValue()).toList());
+    }
+
     static final VariableConfig CONSENT = new VariableConfig("consent", VariableKind.BINARY, null, null, List.of(),
             null, null, List.of(), null);
     static final List<String> CONSENTS = List.of("yes=25 no=8", "yes=20 no=11", "yes=26 no=1", "yes=12 no=18",
