@@ -32,7 +32,9 @@ import java.util.Optional;
  * <p>Measures, per variable: the missing share (SQL NULL, declared missing codes and the disguised missing values
  * the wave's screen excluded, over the interviewer's rows) and, when a variable has more than one kind of missing
  * answer, the share of each; for key variables the distribution of valid answers, by kind: the mean (continuous and
- * ordinal), the share of the tracked answer (binary), the answer shares (categorical).
+ * ordinal), the share of the tracked answer (binary), the answer shares (categorical). Without configured key
+ * variables every variable of those kinds is one, except the breakdown columns (interviewers are assigned by area
+ * or mode, so those differ by design).
  *
  * <p>Each interviewer with at least the minimum workload is tested against every other interviewer pooled (those
  * under the minimum included: their interviews are other interviewers' work all the same): rates by Fisher's exact
@@ -215,7 +217,10 @@ public final class InterviewerMonitor {
                 continue;
             }
             InterviewerCounts c = InterviewerCounts.of(v, sv, tallies);
-            boolean key = config.keyVariables().isEmpty() ? comparedByKind(v.kind())
+            // By default the breakdown columns are no key variables: interviewers are assigned by district or
+            // mode, so their districts differ by design and would flag every interviewer.
+            boolean key = config.keyVariables().isEmpty()
+                    ? comparedByKind(v.kind()) && !config.columns().contains(v.name())
                     : config.keyVariables().contains(v.name());
             rateTests(c, judged, tests);
             rateEffect(c, judged, confidence, w.under()).ifPresent(effects::add);

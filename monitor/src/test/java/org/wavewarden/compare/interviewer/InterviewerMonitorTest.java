@@ -204,6 +204,24 @@ class InterviewerMonitorTest {
     }
 
     @Test
+    void withoutKeyVariablesTheBreakdownColumnsAreNotComparedByInterviewer() {
+        // Interviewers work in areas: a breakdown column (here tenure, standing in for a district) differs between
+        // them by design. Its missing shares are still measured; it has none.
+        Breakdowns byTenure = new Breakdowns(List.of("tenure", COLUMN), 500, COLUMN, 20, List.of(), 0.02, 5000);
+        InterviewerMonitor.Assessment a = InterviewerMonitor.assess(interviewers(), screened(), byTenure, 0.05);
+        assertEquals(16, a.tests().size());
+        assertTrue(a.tests().stream().noneMatch(t -> t.variable().name().equals("tenure")));
+    }
+
+    @Test
+    void aWaveSummaryIsJudgedByItsInterviewerColumnsTallies() {
+        WaveProfile wave = new WaveProfile("2025-Q1", 126, Map.of(), screened().columns(), Map.of(), null, List.of(),
+                List.of(interviewers()));
+        assertEquals(InterviewerMonitor.judge(interviewers(), screened(), CONFIG, 0.05),
+                InterviewerMonitor.judge(wave, screened(), CONFIG, 0.05));
+    }
+
+    @Test
     void withoutAnInterviewerColumnOrItsTalliesNothingIsJudged() {
         WaveProfile none = new WaveProfile("2025-Q1", 126, Map.of(), Map.of());
         assertEquals(new InterviewerMonitor.Result(List.of(), List.of(), List.of(), List.of()),
