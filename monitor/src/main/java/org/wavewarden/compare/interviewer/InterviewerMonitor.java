@@ -226,21 +226,26 @@ public final class InterviewerMonitor {
                         + "were not compared.");
                 continue;
             }
-            InterviewerCounts c = InterviewerCounts.of(v, sv, tallies);
-            // By default the breakdown columns are no key variables: interviewers are assigned by district or
-            // mode, so their districts differ by design and would flag every interviewer.
-            boolean key = config.keyVariables().isEmpty()
-                    ? comparedByKind(v.kind()) && !config.columns().contains(v.name())
-                    : config.keyVariables().contains(v.name());
-            rateTests(c, judged, tests);
-            rateEffect(c, judged, confidence, w.under()).ifPresent(effects::add);
-            if (key) {
-                distributionTests(c, judged, confidence, tests, notes);
-                distributionEffect(c, judged, confidence, w.under()).ifPresent(effects::add);
-                if (c.binned() && c.numbers() != null) {
-                    notes.add("The interviewers' means of " + v.name() + " come from binned tallies and are "
-                            + "approximate.");
+            try {
+                InterviewerCounts c = InterviewerCounts.of(v, sv, tallies);
+                // By default the breakdown columns are no key variables: interviewers are assigned by district or
+                // mode, so their districts differ by design and would flag every interviewer.
+                boolean key = config.keyVariables().isEmpty()
+                        ? comparedByKind(v.kind()) && !config.columns().contains(v.name())
+                        : config.keyVariables().contains(v.name());
+                rateTests(c, judged, tests);
+                rateEffect(c, judged, confidence, w.under()).ifPresent(effects::add);
+                if (key) {
+                    distributionTests(c, judged, confidence, tests, notes);
+                    distributionEffect(c, judged, confidence, w.under()).ifPresent(effects::add);
+                    if (c.binned() && c.numbers() != null) {
+                        notes.add("The interviewers' means of " + v.name() + " come from binned tallies and are "
+                                + "approximate.");
+                    }
                 }
+            } catch (RuntimeException e) {
+                // One variable that cannot be measured is said so; the others are still judged.
+                notes.add(v.name() + " could not be compared by interviewer: " + e.getMessage());
             }
         }
 
