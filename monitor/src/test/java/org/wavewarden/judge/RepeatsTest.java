@@ -111,7 +111,8 @@ class RepeatsTest {
         for (FindingKind k : List.of(FindingKind.MISSING_RATE_CHANGE, FindingKind.CODE_APPEARED,
                 FindingKind.CODE_VANISHED, FindingKind.LABEL_CHANGED, FindingKind.HEAPING,
                 FindingKind.DIGIT_PREFERENCE, FindingKind.EMPTY_WAVE, FindingKind.SIGNED_WAVE_CHANGED,
-                FindingKind.COLUMN_ADDED, FindingKind.COLUMN_DROPPED, FindingKind.COLUMN_RETYPED)) {
+                FindingKind.COLUMN_ADDED, FindingKind.COLUMN_DROPPED, FindingKind.COLUMN_RETYPED,
+                FindingKind.INTERVIEWER_OUTLIER, FindingKind.INTERVIEWER_EFFECT)) {
             AGAIN.put(k, "news");
         }
     }

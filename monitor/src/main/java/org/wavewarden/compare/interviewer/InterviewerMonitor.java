@@ -32,14 +32,18 @@ import java.util.Optional;
  * <p>Measures, per variable: the missing share (SQL NULL, declared missing codes and the disguised missing values
  * the wave's screen excluded, over the interviewer's rows) and, when a variable has more than one kind of missing
  * answer, the share of each; for key variables the distribution of valid answers, by kind: the mean (continuous and
- * ordinal), the share of the tracked answer (binary), the answer shares (categorical).
+ * ordinal), the share of the tracked answer (binary), the answer shares (categorical). Without configured key
+ * variables every variable of those kinds is one, except the breakdown columns (interviewers are assigned by area
+ * or mode, so those differ by design).
  *
  * <p>Each interviewer with at least the minimum workload is tested against every other interviewer pooled (those
  * under the minimum included: their interviews are other interviewers' work all the same): rates by Fisher's exact
  * test, means by Welch's t, answer shares by Pearson's chi-square on the 2 x K table. The p-values of every
  * interviewer test of the wave are adjusted together (Benjamini-Hochberg) and an interviewer is flagged when
- * q &lt; alpha. A flag is a screening aid: many tests over few interviews, and interviewers are seldom assigned at
- * random, so a flagged workload is one to look at, not proof of a fault.
+ * q &lt; alpha; of an interviewer's missing measures of one variable (the missing share and each value's share)
+ * only the one with the smallest q is reported, since they count the same interviews. A flag is a screening aid:
+ * many tests over few interviews, and interviewers are seldom assigned at random, so a flagged workload is one to
+ * look at, not proof of a fault.
  *
  * <p>The interviewer effect, the intra-interviewer correlation ({@link IntraInterviewerCorrelation}), is estimated
  * for the missing indicator of every variable with missing answers, the value of numeric key variables and the
@@ -118,9 +122,17 @@ public final class InterviewerMonitor {
                 order.add(i);
             }
         }
-        order.sort(Comparator.comparingDouble((Integer i) -> q[i]).thenComparingDouble(i -> p[i]));
+        // Among equal q-values the narrower measure first: the share of 999 says more than the missing share.
+        order.sort(Comparator.comparingDouble((Integer i) -> q[i]).thenComparingDouble(i -> p[i])
+                .thenComparingInt(i -> tests.get(i).offending().size()));
+        java.util.Set<String> missingFlagged = new java.util.HashSet<>();
         for (int i : order) {
             Test t = tests.get(i);
+            // The missing share holds every missing value's share: one flag per interviewer and variable for
+            // them, the one with the strongest evidence, so that one keyed sentinel is one finding, not two.
+            if (t.ofRows() && !missingFlagged.add(t.interviewer() + "\u0000" + t.variable().name())) {
+                continue;
+            }
             InterviewerFlag flag = new InterviewerFlag(interviewers.column(), ids.get(t.interviewer()),
                     t.variable().name(), t.measure(), t.result().test(), workload[t.interviewer()], t.value(),
                     t.rest(), t.result().pValue(), q[i], t.offending(), config.minInterviews());
@@ -214,18 +226,26 @@ public final class InterviewerMonitor {
                         + "were not compared.");
                 continue;
             }
-            InterviewerCounts c = InterviewerCounts.of(v, sv, tallies);
-            boolean key = config.keyVariables().isEmpty() ? comparedByKind(v.kind())
-                    : config.keyVariables().contains(v.name());
-            rateTests(c, judged, tests);
-            rateEffect(c, judged, confidence, w.under()).ifPresent(effects::add);
-            if (key) {
-                distributionTests(c, judged, confidence, tests, notes);
-                distributionEffect(c, judged, confidence, w.under()).ifPresent(effects::add);
-                if (c.binned() && c.numbers() != null) {
-                    notes.add("The interviewers' means of " + v.name() + " come from binned tallies and are "
-                            + "approximate.");
+            try {
+                InterviewerCounts c = InterviewerCounts.of(v, sv, tallies);
+                // By default the breakdown columns are no key variables: interviewers are assigned by district or
+                // mode, so their districts differ by design and would flag every interviewer.
+                boolean key = config.keyVariables().isEmpty()
+                        ? comparedByKind(v.kind()) && !config.columns().contains(v.name())
+                        : config.keyVariables().contains(v.name());
+                rateTests(c, judged, tests);
+                rateEffect(c, judged, confidence, w.under()).ifPresent(effects::add);
+                if (key) {
+                    distributionTests(c, judged, confidence, tests, notes);
+                    distributionEffect(c, judged, confidence, w.under()).ifPresent(effects::add);
+                    if (c.binned() && c.numbers() != null) {
+                        notes.add("The interviewers' means of " + v.name() + " come from binned tallies and are "
+                                + "approximate.");
+                    }
                 }
+            } catch (RuntimeException e) {
+                // One variable that cannot be measured is said so; the others are still judged.
+                notes.add(v.name() + " could not be compared by interviewer: " + e.getMessage());
             }
         }
 

@@ -122,31 +122,44 @@ class InterviewerMonitorTest {
     @Test
     void aFlagPerTestBelowAlphaAfterFdrEachAFindingWithItsEvidence() {
         InterviewerMonitor.Result r = InterviewerMonitor.judge(interviewers(), screened(), CONFIG, 0.05);
-        // q < 0.05 in the table above: B's missing share, 999 share, mean and tenure; C's missing share, 999 share
-        // and tenure; D's missing share and 999 share.
-        // In order of q, then p.
-        assertEquals(List.of("C height_cm missing share", "C height_cm share of 999", "D height_cm missing share",
-                        "C tenure answer shares", "D height_cm share of 999", "B height_cm missing share",
-                        "B height_cm share of 999", "B height_cm mean", "B tenure answer shares"),
+        // q < 0.05 in the table above, in order of q: of one interviewer's missing measures of height_cm (the
+        // missing share, the shares of NULL and of 999) only the strongest is reported.
+        assertEquals(List.of("C height_cm missing share", "D height_cm missing share", "C tenure answer shares",
+                        "B height_cm missing share", "B height_cm mean", "B tenure answer shares"),
                 r.flags().stream().map(f -> f.interviewer() + " " + f.variable() + " " + f.measure()).toList());
-        InterviewerFlag c999 = r.flags().get(1);
-        assertEquals(new InterviewerFlag(COLUMN, "C", "height_cm", "share of 999", "Fisher exact", 27, 20 / 27.0,
-                4 / 99.0, c999.pValue(), c999.qValue(), List.of("999"), 20), c999);
-        Finding f = r.findings().get(1);
+        InterviewerFlag c = r.flags().get(0);
+        assertEquals(new InterviewerFlag(COLUMN, "C", "height_cm", "missing share", "Fisher exact", 27, 22 / 27.0,
+                6 / 99.0, c.pValue(), c.qValue(), List.of(DomainMeasure.NULL, "999"), 20), c);
+        Finding f = r.findings().get(0);
         assertEquals(FindingKind.INTERVIEWER_OUTLIER, f.kind());
         assertEquals("height_cm", f.variable());
-        assertEquals(c999, f.detail());
+        assertEquals(c, f.detail());
         assertEquals(20, f.fdrFamilySize());
         assertEquals("BENJAMINI_HOCHBERG", f.fdrMethod());
         assertEquals(27L, f.nCurrent());
         assertEquals(99L, f.nBaseline());
-        assertEquals("Interviewer C recorded 999 for 20 of 27 interviews on height_cm (74%; other interviewers "
-                + "4.0%), q < 0.001; 4 interviewers judged, 1 under the minimum workload of 20. A screening aid: "
+        assertEquals("Interviewer C recorded a missing answer (SQL NULL, 999) for 22 of 27 interviews on height_cm "
+                + "(81%; other interviewers 6.1%), q < 0.001; 4 interviewers judged, 1 under the minimum workload of "
+                + "20. A screening aid: worth a look at these interviews, not proof of a fault.", f.sentence());
+    }
+
+    @Test
+    void withOneKindOfMissingAnswerTheFlagNamesTheValue() {
+        // The same heights without their SQL NULLs: 999 is the only missing answer, so its share is the measure.
+        List<String> noNulls = HEIGHTS.stream().map(h -> h.replaceAll("NULL=\\d+", "").trim()).toList();
+        Map<String, List<ColumnTally>> tallies = new LinkedHashMap<>();
+        tallies.put("height_cm", noNulls.stream().map(h -> tally("height_cm", ColumnType.INTEGER, h)).toList());
+        DomainTally t = new DomainTally(COLUMN, IDS, tallies.get("height_cm").stream()
+                .mapToLong(ColumnTally::rowCount).toArray(), 0, 0, 0, tallies, null, null);
+        ScreenedWave wave = ScreenedWave.screen("2025-Q1", Map.of("height_cm", tally("height_cm",
+                ColumnType.INTEGER, String.join(" ", noNulls))), null, List.of(HEIGHT), List.of());
+        Finding f = InterviewerMonitor.judge(t, wave, CONFIG, 0.05).findings().get(0);
+        InterviewerFlag flag = (InterviewerFlag) f.detail();
+        assertEquals("share of 999", flag.measure());
+        assertEquals(List.of("999"), flag.offendingValues());
+        assertEquals("Interviewer C recorded 999 for 20 of 25 interviews on height_cm (80%; other interviewers "
+                + "4.1%), q < 0.001; 4 interviewers judged, 1 under the minimum workload of 20. A screening aid: "
                 + "worth a look at these interviews, not proof of a fault.", f.sentence());
-        Finding missing = r.findings().get(0);
-        assertEquals(List.of(DomainMeasure.NULL, "999"), ((InterviewerFlag) missing.detail()).offendingValues());
-        assertTrue(missing.sentence().startsWith("Interviewer C recorded a missing answer (SQL NULL, 999) for 22 "
-                + "of 27 interviews on height_cm (81%; other interviewers 6.1%)"), missing.sentence());
     }
 
     @Test
@@ -204,12 +217,101 @@ class InterviewerMonitorTest {
     }
 
     @Test
+    void withoutKeyVariablesTheBreakdownColumnsAreNotComparedByInterviewer() {
+        // Interviewers work in areas: a breakdown column (here tenure, standing in for a district) differs between
+        // them by design. Its missing shares are still measured; it has none.
+        Breakdowns byTenure = new Breakdowns(List.of("tenure", COLUMN), 500, COLUMN, 20, List.of(), 0.02, 5000);
+        InterviewerMonitor.Assessment a = InterviewerMonitor.assess(interviewers(), screened(), byTenure, 0.05);
+        assertEquals(16, a.tests().size());
+        assertTrue(a.tests().stream().noneMatch(t -> t.variable().name().equals("tenure")));
+    }
+
+    @Test
+    void aWaveSummaryIsJudgedByItsInterviewerColumnsTallies() {
+        WaveProfile wave = new WaveProfile("2025-Q1", 126, Map.of(), screened().columns(), Map.of(), null, List.of(),
+                List.of(interviewers()));
+        assertEquals(InterviewerMonitor.judge(interviewers(), screened(), CONFIG, 0.05),
+                InterviewerMonitor.judge(wave, screened(), CONFIG, 0.05));
+    }
+
+    @Test
     void withoutAnInterviewerColumnOrItsTalliesNothingIsJudged() {
         WaveProfile none = new WaveProfile("2025-Q1", 126, Map.of(), Map.of());
         assertEquals(new InterviewerMonitor.Result(List.of(), List.of(), List.of(), List.of()),
                 InterviewerMonitor.judge(none, screened(), Breakdowns.NONE, 0.05));
         assertEquals(List.of("The wave's summary holds no tallies by interviewer_id, so no interviewer was judged."),
                 InterviewerMonitor.judge(none, screened(), CONFIG, 0.05).notes());
+    }
+
+    @Test
+    void aSentinelFoundByTheScreenCountsAsMissingLikeADeclaredCode() {
+        // No codebook: the wave's screen finds 999 among heights of 150 to 190 and leaves it out, and the
+        // interviewers are measured by that same rule, so every test is the one made with 999 declared.
+        VariableConfig undeclared = new VariableConfig("height_cm", VariableKind.CONTINUOUS, "cm", null, List.of(),
+                null, null, List.of(), null);
+        Map<String, ColumnTally> wave = new LinkedHashMap<>();
+        wave.put("height_cm", tally("height_cm", ColumnType.INTEGER, String.join(" ", HEIGHTS)));
+        wave.put("tenure", tally("tenure", ColumnType.TEXT, String.join(" ", TENURE)));
+        ScreenedWave found = ScreenedWave.screen("2025-Q1", wave, null, List.of(undeclared, TENURE_V), List.of());
+        assertTrue(found.get("height_cm").orElseThrow().excludedValues().contains("999"),
+                found.get("height_cm").orElseThrow().candidates().toString());
+        InterviewerMonitor.Assessment declared = InterviewerMonitor.assess(interviewers(), screened(), CONFIG, 0.05);
+        InterviewerMonitor.Assessment screen = InterviewerMonitor.assess(interviewers(), found, CONFIG, 0.05);
+        assertEquals(declared.tests().stream().map(t -> t.measure() + " " + t.result().pValue()).toList(),
+                screen.tests().stream().map(t -> t.measure() + " " + t.result().pValue()).toList());
+    }
+
+    static final VariableConfig CONSENT = new VariableConfig("consent", VariableKind.BINARY, null, null, List.of(),
+            null, null, List.of(), null);
+    static final List<String> CONSENTS = List.of("yes=25 no=8", "yes=20 no=11", "yes=26 no=1", "yes=12 no=18",
+            "yes=3 no=2");
+
+    /**
+     * A binary key variable: the share of its tracked answer ("yes") by Fisher's exact test, and its interviewer
+     * effect on the 0/1 indicator. R 4.2.2: {@code fisher.test(matrix(c(yes_i, yes_others, no_i, no_others), 2))},
+     * {@code p.adjust(p, "BH")} over the four tests, the effect as above on the indicator.
+     */
+    @ParameterizedTest(name = "interviewer {0}")
+    @CsvSource(delimiter = ';', textBlock = """
+            # interviewer; p (R 4.2.2 fisher.test);  q (p.adjust BH)
+            A;             0.384377097594873096;     0.512502796793164128
+            B;             0.659165320673235966;     0.659165320673235966
+            C;             0.000156248939346713;     0.000530837111601353
+            D;             0.000265418555800677;     0.000530837111601353
+            """)
+    void aBinaryKeyVariableByItsTrackedAnswerAsR(String interviewer, double p, double q) {
+        InterviewerMonitor.Assessment a = InterviewerMonitor.assess(consentInterviewers(), consentWave(), CONFIG,
+                0.05);
+        assertEquals(4, a.family());
+        int i = indexOf(a, interviewer, "consent", "share of yes");
+        assertEquals(p, a.tests().get(i).result().pValue(), 1e-9 * p);
+        assertEquals(q, a.q()[i], 1e-9 * q);
+        InterviewerEffect e = a.effects().get(0);
+        // R 4.2.2 anova(aov(indicator ~ interviewer)) over A to D, the estimator and qf interval written out.
+        assertEquals("share of yes", e.measure());
+        assertEquals(0.202778592279666, e.icc(), 1e-10);
+        assertEquals(0.0529331172024941, e.ciLow(), 1e-8);
+        assertEquals(0.799061956227294, e.ciHigh(), 1e-8);
+        assertEquals(3.00935654057382e-05, e.pValue(), 1e-6 * e.pValue());
+    }
+
+    @Test
+    void aBinaryFlagSaysWhatShareOfValidAnswers() {
+        InterviewerMonitor.Result r = InterviewerMonitor.judge(consentInterviewers(), consentWave(), CONFIG, 0.05);
+        assertEquals(List.of("C", "D"), r.flags().stream().map(InterviewerFlag::interviewer).toList());
+        assertTrue(r.findings().get(0).sentence().startsWith("Interviewer C recorded yes for 26 of 27 valid answers "
+                + "to consent (96%; other interviewers 61%), q < 0.001;"), r.findings().get(0).sentence());
+    }
+
+    static DomainTally consentInterviewers() {
+        List<ColumnTally> tallies = CONSENTS.stream().map(c -> tally("consent", ColumnType.TEXT, c)).toList();
+        return new DomainTally(COLUMN, IDS, tallies.stream().mapToLong(ColumnTally::rowCount).toArray(), 0, 0, 0,
+                Map.of("consent", tallies), null, null);
+    }
+
+    static ScreenedWave consentWave() {
+        return ScreenedWave.screen("2025-Q1", Map.of("consent", tally("consent", ColumnType.TEXT,
+                String.join(" ", CONSENTS))), null, List.of(CONSENT), List.of());
     }
 
     private static int indexOf(InterviewerMonitor.Assessment a, String interviewer, String variable, String measure) {
