@@ -29,7 +29,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
  * A breakdown column's domains, tallied in the wave's one pass, equal PostgreSQL's own GROUP BY on the same rows:
  * per domain and value the counts, NULLs and weight sums, and per domain, PSU and value the PSU sums.
  */
-class DomainScanTest {
+public class DomainScanTest {
 
     static final SourceColumn WEIGHT = new SourceColumn("w", ColumnType.DECIMAL, "numeric");
     static final WaveScanner.Design DESIGN = new WaveScanner.Design(
@@ -48,7 +48,7 @@ class DomainScanTest {
      * Two waves of 3,000 rows over 3 strata x 7 clusters, with NULL weights, NULL districts and NULL answers; the
      * district KES is interviewed in cluster 0 only, so its PSU sums are zero elsewhere.
      */
-    static final String ANSWERS = """
+    public static final String ANSWERS = """
             CREATE TABLE answers AS
             SELECT CASE WHEN g <= 3000 THEN 'w1' ELSE 'w2' END AS wave,
                    (ARRAY['north', 'south', 'east'])[1 + g % 3] AS stratum, g % 7 AS psu,
