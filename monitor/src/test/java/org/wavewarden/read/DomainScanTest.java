@@ -247,14 +247,14 @@ public class DomainScanTest {
                 SourceColumn x = new SourceColumn("x", ColumnType.DECIMAL, "double precision");
                 WaveScanner.Domains byDomain = new WaveScanner.Domains(
                         List.of(new SourceColumn("domain", ColumnType.TEXT, "text")), 10);
-                // The wave keeps 1,000 numbers exactly, a domain a tenth of that.
+                // The wave keeps 1,000 numbers exactly, a domain 64 (a 50th of that, at least 64).
                 var exactWave = new BinaryWaveScanner(1000, 1000).scan(fh, source("amounts"), "w1", List.of(x), null,
                         null, List.of(), byDomain, null);
                 assertTrue(exactWave.columns().get("x").binning().isExact());
                 DomainTally t = exactWave.domains().get(0);
                 ColumnTally p = t.tallies().get("x").get(t.indexOf("P"));
                 ColumnTally q = t.tallies().get("x").get(t.indexOf("Q"));
-                assertFalse(p.binning().isExact(), "600 distinct numbers exceed a domain's 100");
+                assertFalse(p.binning().isExact(), "600 distinct numbers exceed a domain's 64");
                 assertEquals(620, p.valueCounts().values().stream().mapToLong(Long::longValue).sum());
                 assertEquals(20L, p.valueCounts().get("-9"), "a code keeps its exact count");
                 assertTrue(q.binning().isExact(), "30 distinct numbers are counted exactly");
