@@ -131,6 +131,26 @@ class DomainSummaryIntegrationTest {
         }
     }
 
+    /**
+     * R's own domain estimate: svymean(~score, subset(design, district == "GUL" & !is.na(score) & score != -9))
+     * (the screen takes the code -9 out of the valid answers) with
+     * svydesign(ids = ~psu, strata = ~stratum, weights = ~w, nest = TRUE) on the same generated rows (NULL weights as
+     * 0), R 4.2.2, survey 4.1.1. Subsetting a survey design object in R keeps every PSU of the design, which is the
+     * domain estimation the summary's zero PSU sums give.
+     */
+    @ParameterizedTest(name = "{0}: mean {1}, SE {2}")
+    @CsvSource({
+            // wave, mean (R survey 4.1.1 svymean), SE (R survey 4.1.1 SE(svymean))
+            "w1, 11.149110094500, 0.202245256855",
+            "w2, 12.002741435503, 0.224357511679"})
+    void aDomainsDesignBasedMeanIsRsSubsetEstimate(String wave, double mean, double se) {
+        WaveProfile gul = read(TABLE, byDistrictAndMode(50), wave, binary()).inDomain("district", "GUL").orElseThrow();
+        PsuTotals t = totals(gul, VariableConfig.inferred("score", VariableKind.CONTINUOUS));
+        DesignMeanDifferenceResult r = DesignMeanDifference.test(t, t, 0.95);
+        assertEquals(mean, r.current().estimate(), 1e-9);
+        assertEquals(se, r.current().standardError(), 1e-9);
+    }
+
     static ScreenedVariable screened(WaveProfile p, VariableConfig v) {
         return ScreenedWave.screen(p, true, List.of(v), List.of()).get(v.name()).orElseThrow();
     }
