@@ -39,6 +39,10 @@ import java.util.Objects;
  * (c) the same check on the table with the history. A check's source statements are counted on the session's
  * source Jdbi and in the scanner. Timings are wall-clock medians; the ratios b/a1 and b/a2 say how far a check is
  * from the floor the database sets.
+ *
+ * <p>With breakdowns, the judged table also has generated breakdown columns (district of 6, interview mode of 3,
+ * interviewer of 300), excluded from the checks above, and (d) the scan of the judged wave is measured once more
+ * with the first {@code breakdowns} of them tallied by domain in the same pass, beside the plain scan.
  */
 public final class Bench {
 
@@ -46,6 +50,16 @@ public final class Bench {
     static final String RESULTS_SCHEMA = "wavewarden_bench_results";
     static final String TWO = "survey";
     static final String HISTORY = "survey_history";
+
+    /**
+     * The generated breakdown columns of the judged table and how each row's domain derives from its respondent id:
+     * 6 districts, 3 interview modes, 300 interviewers (a large field force, so the per-domain tallies are many).
+     */
+    static final List<String> BREAKDOWN_COLUMNS = List.of("district", "interview_mode", "interviewer");
+    private static final List<String> BREAKDOWN_EXPRESSIONS = List.of(
+            "(ARRAY['GUL', 'SAL', 'BRN', 'TID', 'MOR', 'KES'])[1 + (respondent_id * 7 % 6)::int]",
+            "(ARRAY['web', 'telephone', 'in_person'])[1 + (respondent_id * 13 % 3)::int]",
+            "'iv' || lpad((respondent_id * 7919 % 300)::text, 3, '0')");
 
     private Bench() {
     }
@@ -59,10 +73,22 @@ public final class Bench {
      * @param repeat       measured repetitions of every figure
      * @param historyWaves earlier waves before the two in the history table
      * @param historyRows  rows in each earlier wave of the history table
+     * @param breakdowns   breakdown columns tallied by domain in the breakdown case, 0 to 3 (0: no such case)
      */
     public record Options(String jdbcUrl, String user, String passwordEnv, long rows, int vars, int repeat,
-                          int historyWaves, long historyRows) {
+                          int historyWaves, long historyRows, int breakdowns) {
+
+        /** Options without the breakdown case. */
+        public Options(String jdbcUrl, String user, String passwordEnv, long rows, int vars, int repeat,
+                       int historyWaves, long historyRows) {
+            this(jdbcUrl, user, passwordEnv, rows, vars, repeat, historyWaves, historyRows, 0);
+        }
+
         public Options {
+            if (breakdowns < 0 || breakdowns > BREAKDOWN_COLUMNS.size()) {
+                throw new IllegalArgumentException("breakdowns must be in 0.." + BREAKDOWN_COLUMNS.size() + ", was "
+                        + breakdowns);
+            }
             if (rows < 10) {
                 throw new IllegalArgumentException("rows must be at least 10, was " + rows);
             }
@@ -145,6 +171,12 @@ public final class Bench {
                 // The scanner alone on the judged wave: what the read stage costs inside a check.
                 add(samples, "scan_only", measure(() -> s.source().withHandle(h -> WaveJudge.readProfile(h,
                         two.dataset(), WaveSource.of(two.dataset(), "dataset"), "2", scanner, null))));
+                if (o.breakdowns() > 0) {
+                    // The same scan with the domains of the breakdown columns tallied in the same pass.
+                    DatasetConfig byDomain = withBreakdowns(two.dataset(), o.breakdowns());
+                    add(samples, "d_scan_breakdowns", measure(() -> s.source().withHandle(h -> WaveJudge.readProfile(
+                            h, byDomain, WaveSource.of(byDomain, "dataset"), "2", scanner, null))));
+                }
                 List<Target> order = r % 2 == 0 ? List.of(two, hist) : List.of(hist, two);
                 for (Target t : order) {
                     String key = t == two ? "b_check" : "c_check_history";
@@ -189,6 +221,16 @@ public final class Bench {
             }
         }
         try (Statement st = raw.createStatement()) {
+            if (o.breakdowns() > 0) {
+                // Stored generated columns: the table is rewritten once, with no dead rows left for the scans.
+                StringBuilder alter = new StringBuilder("ALTER TABLE " + quoted(TWO));
+                for (int i = 0; i < BREAKDOWN_COLUMNS.size(); i++) {
+                    alter.append(i == 0 ? " " : ", ").append("ADD COLUMN ")
+                            .append(Identifiers.quote(BREAKDOWN_COLUMNS.get(i))).append(" text GENERATED ALWAYS AS (")
+                            .append(BREAKDOWN_EXPRESSIONS.get(i)).append(") STORED");
+                }
+                st.execute(alter.toString());
+            }
             st.execute("ANALYZE " + quoted(TWO));
             st.execute("ANALYZE " + quoted(HISTORY));
         }
@@ -203,9 +245,22 @@ public final class Bench {
                 + "alpha: 0.05\n"
                 + "datasets:\n"
                 + "  - name: bench-two\n    table: " + SCHEMA + "." + TWO + "\n    waveColumn: wave\n"
-                + "    exclude: [respondent_id]\n"
+                + "    exclude: [respondent_id" + (o.breakdowns() > 0 ? ", " + String.join(", ", BREAKDOWN_COLUMNS) : "")
+                + "]\n"
                 + "  - name: bench-history\n    table: " + SCHEMA + "." + HISTORY + "\n    waveColumn: wave\n"
                 + "    exclude: [respondent_id]\n";
+    }
+
+    /** The dataset with its first {@code n} generated breakdown columns, at most 500 domains each (the default). */
+    static DatasetConfig withBreakdowns(DatasetConfig d, int n) {
+        org.wavewarden.config.Breakdowns b = new org.wavewarden.config.Breakdowns(BREAKDOWN_COLUMNS.subList(0, n),
+                org.wavewarden.config.Breakdowns.DEFAULT_MAX_DOMAINS, null,
+                org.wavewarden.config.Breakdowns.DEFAULT_MIN_INTERVIEWS, List.of(),
+                org.wavewarden.config.Breakdowns.DEFAULT_ICC_THRESHOLD, org.wavewarden.config.Breakdowns.DEFAULT_MAX_CASES);
+        return new DatasetConfig(d.name(), d.table(), d.waveColumn(), d.tablePattern(), d.waveOrder(), d.compareWith(),
+                d.schedule(), d.exclude(), d.variables(), d.quietPeriod(), d.alerts(), d.readyTable(), d.readyColumn(),
+                d.weightColumn(), d.respondentKey(), d.releases(), d.design(), d.relationships(), d.codebook(),
+                d.population(), d.alertRules(), b);
     }
 
     /** A YAML double-quoted scalar (JSON strings are valid YAML). */

@@ -29,13 +29,20 @@ public record BenchReport(Instant generatedAt, Setup setup, List<Measurement> me
         }
     }
 
-    /** Median check time over the median floor times, and a check with 30 earlier waves over one with 2. */
-    public record Ratios(double checkOverCountScan, double checkOverBinaryCopy, double historyOverTwoWaves) {
+    /**
+     * Median check time over the median floor times, a check with 30 earlier waves over one with 2, and the scan
+     * with breakdowns over the floors and over the plain scan (NaN without the breakdown case).
+     */
+    public record Ratios(double checkOverCountScan, double checkOverBinaryCopy, double historyOverTwoWaves,
+                         double breakdownsOverCountScan, double breakdownsOverBinaryCopy,
+                         double breakdownsOverPlainScan) {
 
         static Ratios of(List<Measurement> ms) {
             double b = median(ms, "b_check");
+            double d = median(ms, "d_scan_breakdowns");
             return new Ratios(b / median(ms, "a1_count_scan"), b / median(ms, "a2_binary_copy"),
-                    median(ms, "c_check_history") / b);
+                    median(ms, "c_check_history") / b, d / median(ms, "a1_count_scan"),
+                    d / median(ms, "a2_binary_copy"), d / median(ms, "scan_only"));
         }
     }
 
@@ -69,6 +76,11 @@ public record BenchReport(Instant generatedAt, Setup setup, List<Measurement> me
         out.printf(Locale.ROOT, "check / count scan (b/a1) %.2f; check / binary COPY (b/a2) %.2f; check with %d earlier"
                 + " waves / with 2 (c) %.2f%n", q.checkOverCountScan(), q.checkOverBinaryCopy(), s.historyWaves() + 2,
                 q.historyOverTwoWaves());
+        if (!Double.isNaN(q.breakdownsOverCountScan())) {
+            out.printf(Locale.ROOT, "scan with breakdowns / count scan (d/a1) %.2f; / binary COPY (d/a2) %.2f;"
+                    + " / scan without them %.2f%n", q.breakdownsOverCountScan(), q.breakdownsOverBinaryCopy(),
+                    q.breakdownsOverPlainScan());
+        }
         r.sourceStatementsPerCheck().forEach((k, v) -> out.printf(Locale.ROOT,
                 "%-26s source statements %d (table queries %d, catalog queries %d, COPY %d, other raw %d): %d scans%n",
                 k, v.total(), v.tableQueries(), v.catalogQueries(), v.copies(), v.rawStatements() - v.copies(),

@@ -41,6 +41,10 @@ final class BenchCommand implements Callable<Integer> {
     @Option(names = "--history-rows", paramLabel = "R", defaultValue = "10000",
             description = "rows in each earlier wave of the history table (default: ${DEFAULT-VALUE})")
     long historyRows;
+    @Option(names = "--breakdowns", paramLabel = "B", defaultValue = "0",
+            description = "also scan the judged wave with B generated breakdown columns (district, interview mode,"
+                    + " interviewer; 0 to 3) tallied by domain in the same pass (default: ${DEFAULT-VALUE})")
+    int breakdowns;
     @Option(names = "--out", paramLabel = "FILE", defaultValue = "bench.json",
             description = "where to write the figures (default: ${DEFAULT-VALUE})")
     Path out;
@@ -52,7 +56,8 @@ final class BenchCommand implements Callable<Integer> {
     public Integer call() {
         Bench.Options o;
         try {
-            o = new Bench.Options(server.jdbcUrl, server.user, server.passwordEnv, rows, vars, repeat, historyWaves, historyRows);
+            o = new Bench.Options(server.jdbcUrl, server.user, server.passwordEnv, rows, vars, repeat, historyWaves, historyRows,
+                    breakdowns);
         } catch (IllegalArgumentException e) {
             throw new org.wavewarden.config.ConfigException("bench", e.getMessage());
         }

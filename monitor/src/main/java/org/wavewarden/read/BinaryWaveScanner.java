@@ -64,8 +64,8 @@ public final class BinaryWaveScanner implements WaveScanner {
      * with pairs, one joint tally per pair, its cells decoded to doubles as they pass into one array reused for
      * every row. With breakdown columns, their domains are tallied in the same pass ({@link DomainScan}): each
      * breakdown column travels as its output text, after the design and before the monitored columns, so every cell
-     * of a row knows its domains; a numeric column is summarised per domain beyond a tenth of the whole wave's
-     * budget of exact numbers.
+     * of a row knows its domains; a numeric column is summarised per domain beyond a 50th of the whole wave's
+     * budget of exact numbers ({@link #domainExactNumbers()}).
      */
     @Override
     public WaveScanner.WaveScan scan(Handle h, WaveSource source, String wave, List<SourceColumn> columns,
@@ -337,11 +337,12 @@ public final class BinaryWaveScanner implements WaveScanner {
     }
 
     /**
-     * Distinct values a domain's numeric column is counted exactly up to: a tenth of the whole wave's budget (at
-     * least 16), since a domain holds a fraction of the rows and hundreds of domains share the memory.
+     * Distinct values a domain's numeric column is counted exactly up to: a 50th of the whole wave's budget (200 by
+     * default, at least 64), since a domain holds a fraction of the rows and hundreds of domains share the memory;
+     * coded answers, ages and scales stay exact within a domain, measurements and amounts go to bins.
      */
     int domainExactNumbers() {
-        return Math.max(16, exactNumbers / 10);
+        return Math.max(64, exactNumbers / 50);
     }
 
     /** A design column travels as its output text, whatever its type. */

@@ -35,7 +35,7 @@ import java.util.function.LongToDoubleFunction;
  * has no rows.
  *
  * <p>Memory per breakdown column and monitored column: at most {@code maxDomains} x (the per-domain budget of
- * distinct values, or {@link #DOMAIN_MAX_BINS} bins) counting cells, plus at most {@link #MAX_CELLS} (domain, PSU,
+ * distinct values, about 64 bytes each, or {@link #DOMAIN_MAX_BINS} bins) counting cells, plus at most {@link #MAX_CELLS} (domain, PSU,
  * value) cells (beyond it only code-like numbers get new cells, and the column's domains are reported with
  * {@link DesignSummary.ColumnDesign#complete()} false), plus 3 x domains x PSUs numeric sums. Overflow domain labels
  * are counted up to {@link #MAX_OVERFLOW_LABELS} distinct ones.
@@ -52,10 +52,11 @@ final class DomainScan {
     static final int MAX_OVERFLOW_LABELS = 100_000;
 
     /**
-     * Bins of a domain's summarised numeric column: an eighth of a whole wave's, because a domain holds a fraction
-     * of the rows and hundreds of domains share the memory.
+     * Bins of a domain's summarised numeric column: a 32nd of a whole wave's (about 10 kB each), because a domain
+     * holds a fraction of the rows and hundreds of domains times dozens of columns share the memory; the bins'
+     * error bound is stated in the domain's {@link ColumnTally#binning()}.
      */
-    static final int DOMAIN_MAX_BINS = RelativeBins.DEFAULT_MAX_BINS / 8;
+    static final int DOMAIN_MAX_BINS = RelativeBins.DEFAULT_MAX_BINS / 32;
 
     private final String column;
     private final int maxDomains;
@@ -192,6 +193,7 @@ final class DomainScan {
             fresh[d] = c.bins[d] == null;
         }
         c.summarise(fresh, -1, valueOf);
+        c.dropExactCounts(); // every domain is in bins now: the (domain, value) counts are not read again
         ValueIndex before = c.cells;
         double[] weights = c.cellWeight;
         c.cells = ValueIndex.ofPairs();
@@ -270,7 +272,7 @@ final class DomainScan {
         private boolean[] truncated = new boolean[8];
         private int[] distinct = new int[8];
         private RelativeBins[] bins = new RelativeBins[8]; // a domain's bins, once it is summarised
-        private final ValueIndex values = ValueIndex.ofPairs(); // (domain, whole-wave value entry)
+        private ValueIndex values = ValueIndex.ofPairs(); // (domain, whole-wave value entry)
         private long[] count = new long[64];
         private double[] wsum = weighted ? new double[64] : null;
         private double[] wsq = weighted ? new double[64] : null;
@@ -338,6 +340,13 @@ final class DomainScan {
                             weighted ? wsq[e] : 0);
                 }
             }
+        }
+
+        void dropExactCounts() {
+            values = ValueIndex.ofPairs();
+            count = new long[64];
+            wsum = weighted ? new double[64] : null;
+            wsq = weighted ? new double[64] : null;
         }
 
         void design(int d, int psu, long valueKey, double x, double w, boolean keepCell) {

@@ -29,7 +29,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
  * A breakdown column's domains, tallied in the wave's one pass, equal PostgreSQL's own GROUP BY on the same rows:
  * per domain and value the counts, NULLs and weight sums, and per domain, PSU and value the PSU sums.
  */
-class DomainScanTest {
+public class DomainScanTest {
 
     static final SourceColumn WEIGHT = new SourceColumn("w", ColumnType.DECIMAL, "numeric");
     static final WaveScanner.Design DESIGN = new WaveScanner.Design(
@@ -48,7 +48,7 @@ class DomainScanTest {
      * Two waves of 3,000 rows over 3 strata x 7 clusters, with NULL weights, NULL districts and NULL answers; the
      * district KES is interviewed in cluster 0 only, so its PSU sums are zero elsewhere.
      */
-    static final String ANSWERS = """
+    public static final String ANSWERS = """
             CREATE TABLE answers AS
             SELECT CASE WHEN g <= 3000 THEN 'w1' ELSE 'w2' END AS wave,
                    (ARRAY['north', 'south', 'east'])[1 + g % 3] AS stratum, g % 7 AS psu,
@@ -247,14 +247,14 @@ class DomainScanTest {
                 SourceColumn x = new SourceColumn("x", ColumnType.DECIMAL, "double precision");
                 WaveScanner.Domains byDomain = new WaveScanner.Domains(
                         List.of(new SourceColumn("domain", ColumnType.TEXT, "text")), 10);
-                // The wave keeps 1,000 numbers exactly, a domain a tenth of that.
+                // The wave keeps 1,000 numbers exactly, a domain 64 (a 50th of that, at least 64).
                 var exactWave = new BinaryWaveScanner(1000, 1000).scan(fh, source("amounts"), "w1", List.of(x), null,
                         null, List.of(), byDomain, null);
                 assertTrue(exactWave.columns().get("x").binning().isExact());
                 DomainTally t = exactWave.domains().get(0);
                 ColumnTally p = t.tallies().get("x").get(t.indexOf("P"));
                 ColumnTally q = t.tallies().get("x").get(t.indexOf("Q"));
-                assertFalse(p.binning().isExact(), "600 distinct numbers exceed a domain's 100");
+                assertFalse(p.binning().isExact(), "600 distinct numbers exceed a domain's 64");
                 assertEquals(620, p.valueCounts().values().stream().mapToLong(Long::longValue).sum());
                 assertEquals(20L, p.valueCounts().get("-9"), "a code keeps its exact count");
                 assertTrue(q.binning().isExact(), "30 distinct numbers are counted exactly");
