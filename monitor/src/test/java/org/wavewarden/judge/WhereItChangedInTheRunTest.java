@@ -118,4 +118,56 @@ class WhereItChangedInTheRunTest {
                 + " +1.0); the change differs across districts (q < 0.001)."), shift.sentence());
         assertTrue(!shift.sentence().contains("interview mode"), "a breakdown with no difference adds no words");
     }
+    private static Map<String, Long> weights(int each, long sentinels) {
+        Map<String, Long> m = new LinkedHashMap<>();
+        for (int kg = 55; kg < 95; kg++) {
+            m.put(String.valueOf(kg), (long) each);
+        }
+        if (sentinels > 0) {
+            m.put("999", sentinels);
+        }
+        return m;
+    }
+
+    @Test
+    void sentinelsKeyedInOneDistrictAreBrokenDownByTheirRateOfRows() {
+        WardenConfig cfg = ConfigLoader.parse(YAML.replace("      - name: owns_car",
+                "      - name: weight_kg\n        kind: continuous\n        unit: kg\n      - name: owns_car"));
+        DatasetConfig d = withBreakdowns(cfg.datasets().get(0), new Breakdowns(List.of("district"), 500, null, 20,
+                List.of(), 0.02, 5000));
+        WaveProfile[] waves = new WaveProfile[2];
+        for (int w = 0; w < 2; w++) {
+            List<ColumnTally> byDistrict = new ArrayList<>();
+            Map<String, Long> whole = new LinkedHashMap<>();
+            for (String district : DISTRICTS) {
+                // In the second wave KES keys 80 of its 400 weights as 999; no district does in the first.
+                boolean keyed = w == 1 && district.equals("KES");
+                Map<String, Long> t = keyed ? weights(8, 80) : weights(10, 0);
+                t.forEach((v, n) -> whole.merge(v, n, Long::sum));
+                byDistrict.add(new ColumnTally("weight_kg", ColumnType.INTEGER, 400, 0, t, false));
+            }
+            long[] rows = new long[DISTRICTS.size()];
+            java.util.Arrays.fill(rows, 400);
+            DomainTally district = new DomainTally("district", DISTRICTS, rows, 0, 0, 0,
+                    Map.of("weight_kg", byDistrict), null, null);
+            Map<String, ColumnType> schema = new LinkedHashMap<>();
+            schema.put("weight_kg", ColumnType.INTEGER);
+            waves[w] = new WaveProfile(w == 0 ? "2025-Q1" : "2025-Q2", 2400, schema, Map.of("weight_kg",
+                    new ColumnTally("weight_kg", ColumnType.INTEGER, 2400, 0, whole, false)), Map.of(), null,
+                    List.of(), List.of(district));
+        }
+
+        List<Finding> findings = WaveJudge.findings(cfg, d, waves[1], waves[0]).findings();
+
+        Finding sentinel = findings.stream().filter(f -> f.kind() == FindingKind.NUMERIC_SENTINEL)
+                .findFirst().orElseThrow(() -> new AssertionError(findings.toString()));
+        assertEquals(1, sentinel.breakdowns().size(), sentinel.toString());
+        Breakdown b = sentinel.breakdowns().get(0);
+        assertEquals("share of rows holding '999'", b.measure());
+        assertEquals("KES", b.domains().get(0).domain());
+        // 80 of KES's 400 rows against none before; none of the other 2,000 rows in either wave
+        assertEquals(0.20, b.domains().get(0).change(), 1e-12);
+        assertEquals(0.0, b.elsewhere(), 1e-12);
+        assertEquals(80 / 2400.0, b.overall(), 1e-12);
+    }
 }
