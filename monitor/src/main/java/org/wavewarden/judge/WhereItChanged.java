@@ -352,17 +352,48 @@ public final class WhereItChanged {
         List<Breakdown> significant = breakdowns.stream()
                 .filter(b -> b.qValue() != null && b.qValue() < alpha && !b.domains().isEmpty())
                 .sorted(java.util.Comparator.comparingDouble(Breakdown::qValue)).toList();
-        if (significant.isEmpty()) {
+        List<String> added = new ArrayList<>(significant.stream().map(WhereItChanged::where).toList());
+        for (Breakdown b : breakdowns) {
+            onlyIn(b).ifPresent(added::add);
+        }
+        if (added.isEmpty()) {
             return sentence;
         }
         StringBuilder s = new StringBuilder(sentence == null ? "" : sentence.strip());
-        for (Breakdown b : significant) {
+        for (String a : added) {
             if (!s.isEmpty()) {
                 s.append(' ');
             }
-            s.append(where(b));
+            s.append(a);
         }
         return s.toString();
+    }
+
+    /**
+     * Offending rows that all lie in one domain, none in any other domain in either wave: "All 80 rows holding
+     * '999' in this wave are in district KES (20.0% of its rows; none elsewhere in either wave)." The other domains'
+     * rates then have no variance, so the heterogeneity test has nothing to compare (no degrees of freedom) and can
+     * never name the domain, yet the counts alone say where the rows are. Stated as counts, with no test claimed;
+     * only when every row of the wave is in a compared domain, since rows beyond the cap or with no domain could
+     * hold more.
+     */
+    static Optional<String> onlyIn(Breakdown b) {
+        if (b.kind() != DomainMeasure.Kind.RATE || b.df() != 0 || b.domains().size() < 2 || b.nullRows() > 0
+                || b.overflowDomains() > 0 || !b.leftOut().isEmpty()) {
+            return Optional.empty();
+        }
+        List<DomainChange> holding = b.domains().stream().filter(d -> d.after() > 0).toList();
+        if (holding.size() != 1 || b.domains().stream().anyMatch(d -> d != holding.get(0) && d.before() > 0)) {
+            return Optional.empty();
+        }
+        DomainChange d = holding.get(0);
+        long rows = Math.round(d.after() * d.nCurrent());
+        if (rows < 2) {
+            return Optional.empty();
+        }
+        String what = b.measure().startsWith("share of ") ? b.measure().substring("share of ".length()) : "rows";
+        return Optional.of(String.format(Locale.ROOT, "All %,d %s in this wave are in %s %s (%.1f%% of its rows;"
+                + " none elsewhere in either wave).", rows, what, columnWords(b.column()), d.domain(), d.after() * 100));
     }
 
     /**

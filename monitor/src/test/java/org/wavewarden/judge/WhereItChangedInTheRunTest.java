@@ -169,5 +169,10 @@ class WhereItChangedInTheRunTest {
         assertEquals(0.20, b.domains().get(0).change(), 1e-12);
         assertEquals(0.0, b.elsewhere(), 1e-12);
         assertEquals(80 / 2400.0, b.overall(), 1e-12);
+        // No other district has a 999 in either wave: their rates have no variance, the test has no degrees of
+        // freedom (R's regTermTest stops on the singular covariance), and the counts say where the rows are.
+        assertEquals(0, b.df());
+        assertTrue(sentinel.sentence().endsWith(" All 80 rows holding '999' in this wave are in district KES (20.0%"
+                + " of its rows; none elsewhere in either wave)."), sentinel.sentence());
     }
 }
