@@ -51,6 +51,9 @@ import java.util.TreeSet;
  *       to place in a domain.</li>
  * </ul>
  *
+ * <p>Only findings made against the run's first baseline are broken down here (a finding naming another baseline
+ * in {@link Finding#against()} is left as it is), since the breakdowns are made from that baseline's tallies.
+ *
  * <p>A variable is never broken down by its own column, and a breakdown that cannot be made (a column not tallied,
  * fewer than two domains with answers in both waves) is simply absent. A breakdown that fails on data no method
  * foresaw costs that breakdown only, and the run's notes say so.
@@ -115,6 +118,11 @@ public final class WhereItChanged {
         Map<Integer, List<Breakdown>> made = new LinkedHashMap<>();
         for (int i = 0; i < findings.size(); i++) {
             Finding f = findings.get(i);
+            if (f.against() != null) {
+                // Made against another baseline than the run's first (a seasonal one alongside): breaking it down
+                // against the first baseline's tallies would answer another comparison than the finding's.
+                continue;
+            }
             Optional<DomainMeasure> measure;
             try {
                 measure = measure(f, screenedBaseline, screenedCurrent);

@@ -445,7 +445,8 @@ public final class WaveJudge {
         }
         WhereItChanged.Result where = WhereItChanged.attach(findings, baseline, current, screened.baseline(),
                 screened.current(), d.breakdowns(), weighted, cfg.alpha());
-        findings = new ArrayList<>(where.findings());
+        findings.clear();
+        findings.addAll(where.findings());
         inference.addAll(where.notes());
         if (d.breakdowns().interviewer() != null) {
             InterviewerMonitor.Result interviewers = InterviewerMonitor.judge(current, screened.current(),

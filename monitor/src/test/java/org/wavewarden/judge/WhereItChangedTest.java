@@ -232,7 +232,7 @@ class WhereItChangedTest {
     }
 
     @Test
-    void aFirstWaveOrADatasetWithoutBreakdownsIsLeftAsItIs() {
+    void aFirstWaveADatasetWithoutBreakdownsOrAFindingAgainstAnotherBaselineIsLeftAsItIs() {
         WhereItChanged.BreakdownMaker never = (column, measure, b, c, weighted, confidence) -> {
             throw new AssertionError("no breakdown is asked for");
         };
@@ -241,6 +241,9 @@ class WhereItChangedTest {
                 false, 0.05, never).findings());
         assertEquals(findings, WhereItChanged.attach(findings, P_BEFORE, P_AFTER, BEFORE, AFTER, Breakdowns.NONE,
                 false, 0.05, never).findings());
+        List<Finding> seasonal = List.of(shift("owns_car", Verdict.MATERIAL).withAgainst("2024-Q2, 4 waves back"));
+        assertEquals(seasonal, WhereItChanged.attach(seasonal, P_BEFORE, P_AFTER, BEFORE, AFTER,
+                columns("district"), false, 0.05, never).findings(), "made against another baseline than these");
     }
 
     // ---- the sentence ------------------------------------------------------------------------------------------
