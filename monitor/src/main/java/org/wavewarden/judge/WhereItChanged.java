@@ -51,6 +51,9 @@ import java.util.TreeSet;
  *       to place in a domain.</li>
  * </ul>
  *
+ * <p>Only findings made against the run's first baseline are broken down here (a finding naming another baseline
+ * in {@link Finding#against()} is left as it is), since the breakdowns are made from that baseline's tallies.
+ *
  * <p>A variable is never broken down by its own column, and a breakdown that cannot be made (a column not tallied,
  * fewer than two domains with answers in both waves) is simply absent. A breakdown that fails on data no method
  * foresaw costs that breakdown only, and the run's notes say so.
@@ -108,6 +111,26 @@ public final class WhereItChanged {
                                 ScreenedWave screenedBaseline, ScreenedWave screenedCurrent,
                                 org.wavewarden.config.Breakdowns config, boolean weighted, double alpha,
                                 BreakdownMaker maker) {
+        return attach(findings, baseline, current, screenedBaseline, screenedCurrent, Map.of(), config, weighted,
+                alpha, maker);
+    }
+
+    /**
+     * A baseline judged alongside the run's first one (the same quarter a year back): its summary and its screened
+     * side, for the findings that name it in {@link Finding#against()}.
+     */
+    public record Side(WaveProfile profile, ScreenedWave screened) {
+    }
+
+    /**
+     * The same for a run judged against further baselines too, keyed by their labels: a finding made against one of
+     * them is broken down against that baseline's tallies, and every breakdown of the run is in one
+     * false-discovery-rate family.
+     */
+    public static Result attach(List<Finding> findings, WaveProfile baseline, WaveProfile current,
+                                ScreenedWave screenedBaseline, ScreenedWave screenedCurrent, Map<String, Side> further,
+                                org.wavewarden.config.Breakdowns config, boolean weighted, double alpha,
+                                BreakdownMaker maker) {
         if (config == null || config.isEmpty() || baseline == null || screenedBaseline == null) {
             return new Result(findings, List.of());
         }
@@ -115,9 +138,21 @@ public final class WhereItChanged {
         Map<Integer, List<Breakdown>> made = new LinkedHashMap<>();
         for (int i = 0; i < findings.size(); i++) {
             Finding f = findings.get(i);
+            WaveProfile before = baseline;
+            ScreenedWave screenedBefore = screenedBaseline;
+            if (f.against() != null) {
+                // Made against another baseline than the run's first (a seasonal one alongside): it is broken down
+                // against that baseline's tallies, never the first one's, which would answer another comparison.
+                Side side = further.get(f.against());
+                if (side == null || side.profile() == null || side.screened() == null) {
+                    continue;
+                }
+                before = side.profile();
+                screenedBefore = side.screened();
+            }
             Optional<DomainMeasure> measure;
             try {
-                measure = measure(f, screenedBaseline, screenedCurrent);
+                measure = measure(f, screenedBefore, screenedCurrent);
             } catch (RuntimeException e) {
                 // A variable whose screening failed was skipped by the run already; its finding is not broken down.
                 LOG.debug("no breakdown measure for {}: {}", f.variable(), e.toString());
@@ -132,7 +167,7 @@ public final class WhereItChanged {
                     continue;
                 }
                 try {
-                    maker.make(column, measure.get(), baseline, current, weighted, 1 - alpha).ifPresent(mine::add);
+                    maker.make(column, measure.get(), before, current, weighted, 1 - alpha).ifPresent(mine::add);
                 } catch (RuntimeException e) {
                     LOG.warn("{} of {} could not be broken down by {}: {}", f.kind(), f.variable(), column,
                             e.toString(), e);
@@ -352,17 +387,48 @@ public final class WhereItChanged {
         List<Breakdown> significant = breakdowns.stream()
                 .filter(b -> b.qValue() != null && b.qValue() < alpha && !b.domains().isEmpty())
                 .sorted(java.util.Comparator.comparingDouble(Breakdown::qValue)).toList();
-        if (significant.isEmpty()) {
+        List<String> added = new ArrayList<>(significant.stream().map(WhereItChanged::where).toList());
+        for (Breakdown b : breakdowns) {
+            onlyIn(b).ifPresent(added::add);
+        }
+        if (added.isEmpty()) {
             return sentence;
         }
         StringBuilder s = new StringBuilder(sentence == null ? "" : sentence.strip());
-        for (Breakdown b : significant) {
+        for (String a : added) {
             if (!s.isEmpty()) {
                 s.append(' ');
             }
-            s.append(where(b));
+            s.append(a);
         }
         return s.toString();
+    }
+
+    /**
+     * Offending rows that all lie in one domain, none in any other domain in either wave: "All 80 rows holding
+     * '999' in this wave are in district KES (20.0% of its rows; none elsewhere in either wave)." The other domains'
+     * rates then have no variance, so the heterogeneity test has nothing to compare (no degrees of freedom) and can
+     * never name the domain, yet the counts alone say where the rows are. Stated as counts, with no test claimed;
+     * only when every row of the wave is in a compared domain, since rows beyond the cap or with no domain could
+     * hold more.
+     */
+    static Optional<String> onlyIn(Breakdown b) {
+        if (b.kind() != DomainMeasure.Kind.RATE || b.df() != 0 || b.domains().size() < 2 || b.nullRows() > 0
+                || b.overflowDomains() > 0 || !b.leftOut().isEmpty()) {
+            return Optional.empty();
+        }
+        List<DomainChange> holding = b.domains().stream().filter(d -> d.after() > 0).toList();
+        if (holding.size() != 1 || b.domains().stream().anyMatch(d -> d != holding.get(0) && d.before() > 0)) {
+            return Optional.empty();
+        }
+        DomainChange d = holding.get(0);
+        long rows = Math.round(d.after() * d.nCurrent());
+        if (rows < 2) {
+            return Optional.empty();
+        }
+        String what = b.measure().startsWith("share of ") ? b.measure().substring("share of ".length()) : "rows";
+        return Optional.of(String.format(Locale.ROOT, "All %,d %s in this wave are in %s %s (%.1f%% of its rows;"
+                + " none elsewhere in either wave).", rows, what, columnWords(b.column()), d.domain(), d.after() * 100));
     }
 
     /**

@@ -571,11 +571,13 @@ public final class WaveJudge {
         }
         String what = d.name() + " wave " + current.wave();
         List<Collected> sides = new ArrayList<>();
+        Map<String, WhereItChanged.Side> furtherSides = new LinkedHashMap<>();
         sides.add(collect(screened.baseline(), screened.current(), weighted && baseline != null ? baseline.design()
                 : null, weighted ? current.design() : null, cfg.alpha(), what, relations, history));
         for (FurtherBaseline fb : further) {
             Screened other = new Screened(screened.current(), ScreenedWave.screen(fb.profile(), weighted, variables,
                     List.of()));
+            furtherSides.put(fb.label(), new WhereItChanged.Side(fb.profile(), other.baseline()));
             List<Comparison> otherRelations = new ArrayList<>();
             relationships(cfg, d, other, current, fb.profile(), otherRelations, new ArrayList<>());
             sides.add(collect(other.baseline(), other.current(), weighted ? fb.profile().design() : null,
@@ -602,7 +604,8 @@ public final class WaveJudge {
                     + " waves are compared against the last wave with rows.", null));
         }
         WhereItChanged.Result where = WhereItChanged.attach(findings, baseline, current, screened.baseline(),
-                screened.current(), d.breakdowns(), weighted, cfg.alpha());
+                screened.current(), furtherSides, d.breakdowns(), weighted, cfg.alpha(),
+                org.wavewarden.compare.domain.Breakdowns::of);
         List<Finding> located = new ArrayList<>(where.findings());
         inference.addAll(where.notes());
         if (d.breakdowns().interviewer() != null) {

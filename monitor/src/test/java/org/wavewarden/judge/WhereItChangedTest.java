@@ -232,7 +232,7 @@ class WhereItChangedTest {
     }
 
     @Test
-    void aFirstWaveOrADatasetWithoutBreakdownsIsLeftAsItIs() {
+    void aFirstWaveADatasetWithoutBreakdownsOrAFindingAgainstAnotherBaselineIsLeftAsItIs() {
         WhereItChanged.BreakdownMaker never = (column, measure, b, c, weighted, confidence) -> {
             throw new AssertionError("no breakdown is asked for");
         };
@@ -241,6 +241,9 @@ class WhereItChangedTest {
                 false, 0.05, never).findings());
         assertEquals(findings, WhereItChanged.attach(findings, P_BEFORE, P_AFTER, BEFORE, AFTER, Breakdowns.NONE,
                 false, 0.05, never).findings());
+        List<Finding> seasonal = List.of(shift("owns_car", Verdict.MATERIAL).withAgainst("2024-Q2, 4 waves back"));
+        assertEquals(seasonal, WhereItChanged.attach(seasonal, P_BEFORE, P_AFTER, BEFORE, AFTER,
+                columns("district"), false, 0.05, never).findings(), "made against another baseline than these");
     }
 
     // ---- the sentence ------------------------------------------------------------------------------------------
@@ -281,5 +284,26 @@ class WhereItChangedTest {
             "survey day, survey days", "box, boxes"})
     void domainColumnsArePluralisedAsPlainEnglish(String words, String plural) {
         assertEquals(plural, WhereItChanged.plural(words));
+    }
+    /** 80 of KES's 400 rows hold 999 in the second wave; no other row of either wave does. */
+    private static Breakdown keyedInOneDistrict(long nullRows, long otherBefore) {
+        DomainChange kes = new DomainChange("KES", 400, 400, 0, 0.2, 0.2, 0.02, 0.16, 0.24, 1e-20, 1e-19, 1 / 6.0,
+                1 / 6.0, 0.2 / 6);
+        DomainChange gul = new DomainChange("GUL", 400, 400, otherBefore / 400.0, 0, -otherBefore / 400.0, 0, 0, 0,
+                Double.NaN, Double.NaN, 5 / 6.0, 5 / 6.0, 0);
+        return new Breakdown("district", "weight_kg", "share of rows holding '999'", DomainMeasure.Kind.RATE,
+                "points", "unweighted", List.of(kes, gul), 80 / 2400.0, 0, 0, 0, 1, null, 0.0, List.of(), nullRows,
+                0, 0).withQValue(1);
+    }
+
+    @Test
+    void offendingRowsAllInOneDomainAreNamedByTheirCountsWhereTheTestHasNothingToCompare() {
+        assertEquals("Base. All 80 rows holding '999' in this wave are in district KES (20.0% of its rows; none"
+                + " elsewhere in either wave).", WhereItChanged.sentence("Base.", List.of(keyedInOneDistrict(0, 0)),
+                0.05));
+        assertEquals("Base.", WhereItChanged.sentence("Base.", List.of(keyedInOneDistrict(12, 0)), 0.05),
+                "rows with no district could hold more");
+        assertEquals("Base.", WhereItChanged.sentence("Base.", List.of(keyedInOneDistrict(0, 4)), 0.05),
+                "another district held some before");
     }
 }
