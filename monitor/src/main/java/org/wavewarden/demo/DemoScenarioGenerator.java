@@ -68,6 +68,7 @@ public final class DemoScenarioGenerator {
     public static final String NOT_MEASURED_INTERVIEWER = "H17";
     // Interviewers per wave: a regular quarter's field force, doubled for the booster wave.
     private static final int INTERVIEWERS = 30;
+    private static final String INTERVIEWER_STREAM = "interviewer_id:2";
     private static final int BOOSTER_INTERVIEWERS = 60;
 
     // Share of households reporting low water pressure: 7% everywhere, then Kestle Point +18 points and every
@@ -166,7 +167,10 @@ public final class DemoScenarioGenerator {
         boolean[] boatOwners = boatOwners(n, stream(w, "owns_boat"));
         int[] fees = mooringFees(boatOwners, mooring, w >= MOORING_RISE_FROM);
         int nextFee = 0;
-        SplittableRandom interviewer = stream(w, "interviewer_id");
+        // The stream's name was chosen as the seed was, among a few tried: with about 30 interviewers and 20
+        // variables a wave, some draws let one interviewer's refusals or answers stand out by chance, and a demo
+        // should not open with a false alarm about an interviewer.
+        SplittableRandom interviewer = stream(w, INTERVIEWER_STREAM);
         double[] workloads = workloads(interviewer, n >= 10_000 ? BOOSTER_INTERVIEWERS : INTERVIEWERS);
         SplittableRandom water = stream(w, "water_pressure_low");
         double[] waterCarry = new double[DISTRICTS.length];

@@ -90,7 +90,7 @@ class DemoManifestTest {
         for (JsonNode p : manifest.get("plants")) {
             String id = p.get("id").asText();
             FindingsReport r = byWave.get(p.get("wave").asText());
-            if (p.has("against") && !p.get("against").asText().equals(r.againstWave())) {
+            if (p.has("against") && !mainBaselineIs(r, p.get("against").asText())) {
                 problems.add(id + ": judged against " + r.againstWave());
             }
             FindingKind kind = FindingKind.valueOf(p.get("kind").asText());
@@ -112,8 +112,8 @@ class DemoManifestTest {
         List<String> problems = new ArrayList<>();
         for (FindingsReport r : byWave.values()) {
             for (Finding f : r.findings()) {
-                if (f.kind() != FindingKind.SHIFT) {
-                    continue;
+                if (f.kind() != FindingKind.SHIFT || !againstMainBaseline(r, f)) {
+                    continue; // the same-quarter comparisons are held to their own section of the manifest
                 }
                 String expected = expectedShiftVerdict(r.wave(), f.variable());
                 if (expected.equals("none")) {
@@ -121,6 +121,38 @@ class DemoManifestTest {
                 } else if (!expected.equals("any") && !expected.equals(String.valueOf(f.verdict()))) {
                     problems.add(r.wave() + " " + f.variable() + ": " + f.verdict() + ", expected " + expected + " ("
                             + f.sentence() + ")");
+                }
+            }
+        }
+        assertTrue(problems.isEmpty(), String.join("\n", problems));
+    }
+
+    @Test
+    void everyComparisonAgainstTheSameQuarterAYearBackGetsTheExpectedVerdict() {
+        List<String> problems = new ArrayList<>();
+        for (JsonNode q : manifest.get("sameQuarter")) {
+            FindingsReport r = byWave.get(q.get("wave").asText());
+            boolean found = r.findings().stream().anyMatch(f -> f.variable().equals(q.get("variable").asText())
+                    && f.kind().name().equals(q.get("kind").asText()) && !againstMainBaseline(r, f)
+                    && f.against().startsWith(q.get("against").asText()));
+            if (!found) {
+                problems.add("no " + q.get("kind").asText() + " of " + q.get("variable").asText() + " in "
+                        + r.wave() + " against " + q.get("against").asText());
+            }
+        }
+        for (FindingsReport r : byWave.values()) {
+            for (Finding f : r.findings()) {
+                if (againstMainBaseline(r, f) || !(f.kind() == FindingKind.SHIFT
+                        || f.kind() == FindingKind.MISSING_RATE_CHANGE)) {
+                    continue;
+                }
+                if (f.kind() == FindingKind.MISSING_RATE_CHANGE && !listedAgainstSameQuarter(r.wave(), f)) {
+                    continue; // a sentinel present in one of the two waves only: allowed, not planted
+                }
+                String expected = expectedAgainstSameQuarter(r.wave(), f.variable(), f.kind());
+                if (!expected.equals("any") && !expected.equals(String.valueOf(f.verdict()))) {
+                    problems.add(r.wave() + " " + f.variable() + " " + f.kind() + " against " + f.against() + ": "
+                            + f.verdict() + ", expected " + expected + " (" + f.sentence() + ")");
                 }
             }
         }
@@ -315,6 +347,16 @@ class DemoManifestTest {
 
     /** A data-quality alert is explained by a plant on its variable whose condition covers its wave. */
     static boolean explained(String wave, Finding f) {
+        FindingsReport r = byWave.get(wave);
+        if (r != null && !againstMainBaseline(r, f)) {
+            // against the same quarter a year back: listed there, or a kind the manifest allows a detector to add
+            for (JsonNode k : manifest.path("sameQuarterMayAlsoReport")) {
+                if (k.asText().equals(f.kind().name())) {
+                    return true;
+                }
+            }
+            return !expectedAgainstSameQuarter(wave, f.variable(), f.kind()).equals("STABLE");
+        }
         for (JsonNode p : plantsFor(f.variable())) {
             int start = waves.indexOf(p.get("wave").asText());
             int end = p.has("lastWave") ? waves.indexOf(p.get("lastWave").asText()) : start;
@@ -388,7 +430,52 @@ class DemoManifestTest {
         assertTrue(tested > 0, "the demo's files hold tested findings, whose family the schema requires");
     }
 
+    /** The finding of a variable and kind made against the run's first baseline (the previous wave). */
     static Optional<Finding> find(FindingsReport r, String variable, FindingKind kind) {
-        return r.findings().stream().filter(f -> f.variable().equals(variable) && f.kind() == kind).findFirst();
+        return r.findings().stream().filter(f -> f.variable().equals(variable) && f.kind() == kind)
+                .filter(f -> againstMainBaseline(r, f)).findFirst();
+    }
+
+    /**
+     * Whether a finding was made against the run's first baseline: a dataset that also compares with the same quarter
+     * a year back names that baseline in the finding's {@code against}; the previous wave's findings name none, or
+     * the previous wave.
+     */
+    static boolean againstMainBaseline(FindingsReport r, Finding f) {
+        return f.against() == null || (r.againstWave() != null && f.against().startsWith(r.againstWave()));
+    }
+
+    /**
+     * Whether the run's first baseline is {@code wave}: a run judged against several baselines names them all,
+     * the first first ("2025-Q1 + 2024-Q2 (4 waves back)").
+     */
+    static boolean mainBaselineIs(FindingsReport r, String wave) {
+        return r.againstWave() != null && (r.againstWave().equals(wave) || r.againstWave().startsWith(wave + " + "));
+    }
+
+    static boolean listedAgainstSameQuarter(String wave, Finding f) {
+        for (JsonNode q : manifest.get("sameQuarter")) {
+            if (q.get("wave").asText().equals(wave) && q.get("variable").asText().equals(f.variable())
+                    && q.get("kind").asText().equals(f.kind().name())) {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    /** What the manifest expects of a comparison against the same quarter a year back, or STABLE. */
+    static String expectedAgainstSameQuarter(String wave, String variable, FindingKind kind) {
+        for (JsonNode q : manifest.get("sameQuarter")) {
+            if (q.get("wave").asText().equals(wave) && q.get("variable").asText().equals(variable)
+                    && q.get("kind").asText().equals(kind.name())) {
+                return q.get("verdict").asText();
+            }
+        }
+        for (JsonNode v : manifest.get("expectedElsewhere").get("byVariable")) {
+            if (v.get("variable").asText().equals(variable)) {
+                return v.get("verdict").asText();
+            }
+        }
+        return manifest.get("expectedElsewhere").get("verdict").asText();
     }
 }

@@ -439,13 +439,13 @@ class DemoScenarioGeneratorTest {
     @ParameterizedTest(name = "{0}: {1} interviewers, workloads {2}..{3}, H17 {4} interviews of which {5} hold 999")
     @CsvSource({
         // wave,   interviewers, least, most, H17, H17's 999s   (R 4.2.2: table(interviewer_id), measure-household-breakdowns.R)
-        "2024-Q1, 30,  50,  324,  50,   0",
-        "2024-Q2, 30,  62,  307, 108,   0",
-        "2024-Q3, 30,  67,  362, 362, 105",
-        "2024-Q4, 60, 251, 1009, 255,   0",
-        "2025-Q1, 30,  65,  337,  85,   0",
-        "2025-Q2, 30,  58,  248, 172,  83",
-        "2025-Q3, 30,  57,  228,  57,   0"})
+        "2024-Q1, 30,  57,  268, 143,   0",
+        "2024-Q2, 30,  61,  284, 140,   0",
+        "2024-Q3, 30,  52,  231, 231, 105",
+        "2024-Q4, 60, 214, 1267, 443,   0",
+        "2025-Q1, 30,  53,  254, 134,   0",
+        "2025-Q2, 30,  49,  237, 237,  83",
+        "2025-Q3, 30,  61,  236,  94,   0"})
     void oneInterviewerKeysEveryHeightNotMeasuredBesidesAnOrdinaryWorkload(String wave, int interviewers, int least,
                                                                          int most, int h17, int h17Sentinels) {
         Wave w = waves.get(wave);
