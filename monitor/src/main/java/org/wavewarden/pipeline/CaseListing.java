@@ -32,8 +32,10 @@ final class CaseListing {
     }
 
     /**
-     * Which findings list cases. Without a respondent key there are no lists, and the run's notes say so once,
-     * naming how many findings would have had one.
+     * Which findings list cases. Without a respondent key there are no lists. The run's notes say so once,
+     * naming how many findings would have had one, only when the dataset configures breakdowns: there the user
+     * asked for the field work to be examined, while a dataset that never did would be told about a feature it
+     * did not ask for on every run.
      */
     static Wanted wanted(DatasetConfig d, List<Finding> findings, ScreenedWave screened, List<String> notes) {
         List<Integer> index = new ArrayList<>();
@@ -48,6 +50,9 @@ final class CaseListing {
             }
         }
         if (!selections.isEmpty() && d.respondentKey() == null) {
+            if (d.breakdowns().isEmpty()) {
+                return new Wanted(List.of(), List.of(), List.of());
+            }
             notes.add(String.format(java.util.Locale.ROOT, "No case lists: the dataset names no respondentKey, so the"
                     + " %d finding%s whose respondents would be listed for the field team ha%s no list.",
                     selections.size(), selections.size() == 1 ? "" : "s", selections.size() == 1 ? "s" : "ve"));

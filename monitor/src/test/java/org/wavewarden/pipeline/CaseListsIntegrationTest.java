@@ -102,7 +102,8 @@ class CaseListsIntegrationTest {
         String yaml = "source:\n  jdbcUrl: \"" + url + "\"\n  user: postgres\nresults: {schema: cs_results}\n"
                 + "datasets:\n" + DATASET.formatted("hh", "respondentKey: respondent_id")
                 + DATASET.formatted("hh-capped", "respondentKey: respondent_id")
-                + DATASET.formatted("hh-nokey", "");
+                + DATASET.formatted("hh-nokey", "breakdowns: {columns: [town]}")
+                + DATASET.formatted("hh-plain", "");
         WardenConfig loaded = ConfigLoader.parse(yaml);
         config = loaded;
         session = Session.open(config, null, Map.of());
@@ -271,6 +272,19 @@ class CaseListsIntegrationTest {
                 .toList();
         assertEquals(1, notes.size(), j.wave().report().inference().toString());
         assertTrue(notes.get(0).contains("names no respondentKey"), notes.get(0));
+        assertFalse(Files.exists(j.out().resolve("cases")));
+    }
+
+    @Test
+    @Order(5)
+    void aDatasetThatConfiguresNoBreakdownsIsNotToldAboutCaseLists() {
+        judge(config.dataset("hh-plain"), "w1");
+        Judged j = judge(config.dataset("hh-plain"), "w2");
+        assertEquals(List.of(), session.store().caseLists().forRun(j.wave().runId()));
+        assertEquals(0, j.caseReads().tableQueries(), j.caseReads().toString());
+        assertFalse(j.wave().report().findings().isEmpty(), "the wave still has its findings");
+        assertEquals(List.of(), j.wave().report().inference().stream().filter(n -> n.startsWith("No case lists"))
+                .toList());
         assertFalse(Files.exists(j.out().resolve("cases")));
     }
 
