@@ -184,7 +184,7 @@ public final class Deliveries {
         List<FindingsReport> reports = row.runIds().stream().map(session.store()::storedReport)
                 .flatMap(Optional::stream).toList();
         Instant now = clock.instant();
-        String md = MarkdownDigest.render(reports, new DigestAssembler(session).records(d, reports));
+        String md = new DigestAssembler(session).markdown(d, reports, "../");
         String json = Json.write(Map.of("dataset", row.dataset(), "generatedAt", now.toString(), "waves", reports));
         FaultPoints.hit(RENDER_HTML_DIGEST);
         String html = new DigestAssembler(session).html(d, reports, now);

@@ -20,6 +20,11 @@ public record CaseLink(String dataset, String wave, String variable, String kind
                 : " " + list.interviewerColumn() + " " + list.interviewer()), list.fileName(), list.count());
     }
 
+    /** The same link from a digest elsewhere: {@code folder} (safe characters, ending in "/") leads to the file's. */
+    public CaseLink under(String folder) {
+        return new CaseLink(dataset, wave, variable, kind, folder + file, count);
+    }
+
     /** "height_cm NUMERIC_SENTINEL": the finding the list belongs to, in words. */
     public String subject() {
         return variable + " " + kind;

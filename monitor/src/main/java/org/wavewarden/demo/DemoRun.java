@@ -226,10 +226,11 @@ public final class DemoRun {
             out.println(d.name() + ": " + summary(j));
         }
         Files.createDirectories(dir);
-        Files.writeString(dir.resolve("digest.html"), new DigestAssembler(s).html(d, reports, Instant.now()),
+        // The dataset's digests lie in its folder, beside the waves' folders holding the case lists.
+        Files.writeString(dir.resolve("digest.html"), new DigestAssembler(s).html(d, reports, Instant.now(), ""),
                 StandardCharsets.UTF_8);
-        Files.writeString(dir.resolve("digest.md"), MarkdownDigest.render(reports,
-                new DigestAssembler(s).records(d, reports)), StandardCharsets.UTF_8);
+        Files.writeString(dir.resolve("digest.md"), new DigestAssembler(s).markdown(d, reports, ""),
+                StandardCharsets.UTF_8);
         outputs.add(dir.resolve("digest.html"));
         outputs.add(dir.resolve("digest.md"));
         return reports;

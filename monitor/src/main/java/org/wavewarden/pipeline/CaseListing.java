@@ -81,15 +81,21 @@ final class CaseListing {
 
     /**
      * The digest's links to the case lists of the reported waves: each wave's current run's lists, whose files lie
-     * beside that run's {@code findings.json}.
+     * beside that run's {@code findings.json}, in the wave's folder under the dataset's folder.
+     *
+     * @param toDatasetFolder the way from the digest's folder to the dataset's folder, holding the waves' folders:
+     *                        {@code ""} for a digest in the dataset's folder (the demo's), {@code "../"} for one in a
+     *                        folder of its own beside the waves' (the daemon's firing digests and {@code latest})
      */
     static List<org.wavewarden.deliver.CaseLink> links(Session session, String dataset,
-                                                        List<org.wavewarden.deliver.FindingsReport> reports) {
+                                                        List<org.wavewarden.deliver.FindingsReport> reports,
+                                                        String toDatasetFolder) {
         List<org.wavewarden.deliver.CaseLink> out = new ArrayList<>();
         for (org.wavewarden.deliver.FindingsReport r : reports) {
+            String folder = toDatasetFolder + org.wavewarden.deliver.OutputPaths.name(r.wave()) + "/";
             session.store().currentRun(dataset, r.wave()).ifPresent(run -> session.store().caseLists()
                     .forRun(run.runId()).forEach(c -> out.add(org.wavewarden.deliver.CaseLink.of(dataset, r.wave(),
-                            c))));
+                            c).under(folder))));
         }
         return out;
     }

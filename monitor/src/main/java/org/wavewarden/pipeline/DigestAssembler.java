@@ -56,6 +56,14 @@ public final class DigestAssembler {
     private final Map<List<Object>, ScreenedWave> screened = new HashMap<>();
     /** Each wave's report, from the digest's own or the store's latest run; empty when the wave was never judged. */
     private final Map<String, Optional<FindingsReport>> judged = new HashMap<>();
+    /**
+     * The HTML digest as the daemon writes it, in a folder of its own beside the waves' folders (its case-list links
+     * lead up one folder).
+     */
+    public String html(DatasetConfig d, List<FindingsReport> reports, Instant generatedAt) {
+        return html(d, reports, generatedAt, "../");
+    }
+
     /** Each wave's dataset as it was judged, with the wave's own codebook merged under the configured variables. */
     private final Map<String, DatasetConfig> judgedAs = new HashMap<>();
 
@@ -63,7 +71,7 @@ public final class DigestAssembler {
         this.session = session;
     }
 
-    public String html(DatasetConfig d, List<FindingsReport> reports, Instant generatedAt) {
+    public String html(DatasetConfig d, List<FindingsReport> reports, Instant generatedAt, String toDatasetFolder) {
         List<WaveInfo> listed = new WaveJudge(session, java.time.Clock.systemUTC()).waves(d);
         List<String> order = listed.stream().map(WaveInfo::wave).toList();
         List<WaveSection> sections = new ArrayList<>();
@@ -139,13 +147,18 @@ public final class DigestAssembler {
             sections.add(new WaveSection(r, views));
         }
         return HtmlDigest.render(d.name(), sections, generatedAt, records(d, reports)
-                .withCaseLinks(CaseListing.links(session, d.name(), reports)));
+                .withCaseLinks(CaseListing.links(session, d.name(), reports, toDatasetFolder)));
     }
 
     /** The Markdown digest of judged waves, with their review status as the results schema holds it now. */
     public String markdown(DatasetConfig d, List<FindingsReport> reports) {
+        return markdown(d, reports, "../");
+    }
+
+    /** The same from a digest whose way to the dataset's folder (holding the waves' folders) is given. */
+    public String markdown(DatasetConfig d, List<FindingsReport> reports, String toDatasetFolder) {
         return org.wavewarden.deliver.MarkdownDigest.render(reports, records(d, reports)
-                .withCaseLinks(CaseListing.links(session, d.name(), reports)));
+                .withCaseLinks(CaseListing.links(session, d.name(), reports, toDatasetFolder)));
     }
 
     /**

@@ -350,12 +350,14 @@ public final class OutboxStore {
                         + " f.effect_ci_high, f.effect_threshold, f.n_baseline, f.n_current, f.df, f.df_convention,"
                         + " f.fdr_family_size, f.fdr_method, f.label, f.against FROM " + s + ".alert a"
                         + " JOIN " + s + ".run r ON r.run_id = a.run_id CROSS JOIN LATERAL unnest(ARRAY[a.kind]"
-                        + " || a.facet_kinds) WITH ORDINALITY AS k(kind, ord)"
-                        // One finding per kind: the alert's baseline's, the first written where a kind has several
-                        // (interviewers flagged on one variable).
+                        + " || a.facet_kinds) WITH ORDINALITY AS kk(kind, ord)"
+                        // A kind may stand several times (interviewers flagged on one variable): its n-th place is
+                        // its n-th finding of the alert's baseline, in the order written.
+                        + " CROSS JOIN LATERAL (SELECT kk.kind, kk.ord) k"
                         + " LEFT JOIN LATERAL (SELECT * FROM " + s + ".finding x WHERE x.run_id = a.run_id"
                         + " AND x.variable = a.variable AND x.kind = k.kind AND coalesce(x.against, '') = a.against"
-                        + " ORDER BY x.finding_id LIMIT 1) f ON true"
+                        + " ORDER BY x.finding_id OFFSET (SELECT count(*) FROM unnest(ARRAY[a.kind] || a.facet_kinds)"
+                        + " WITH ORDINALITY AS p(kind, ord) WHERE p.kind = k.kind AND p.ord < k.ord) LIMIT 1) f ON true"
                         + " WHERE a.alert_id = :id AND (k.ord = 1 OR f.finding_id IS NOT NULL) ORDER BY k.ord")
                 .bind("id", alertId)
                 .map((rs, ctx) -> new Facet(rs.getString("dataset"), rs.getString("wave"),

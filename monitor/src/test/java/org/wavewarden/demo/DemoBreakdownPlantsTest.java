@@ -75,6 +75,22 @@ class DemoBreakdownPlantsTest {
         }
     }
 
+    // ---- the digests link the case lists --------------------------------------------------------------------
+
+    @Test
+    void everyCaseListLinkOfTheDatasetsDigestsLeadsToItsFile() throws Exception {
+        java.util.regex.Pattern csv = java.util.regex.Pattern.compile("(?:href=\"|\\]\\()([^\"()]+\\.csv)");
+        for (String digest : List.of("digest.html", "digest.md")) {
+            java.util.regex.Matcher m = csv.matcher(Files.readString(out.resolve(digest)));
+            int links = 0;
+            while (m.find()) {
+                links++;
+                assertTrue(Files.isRegularFile(out.resolve(m.group(1)).normalize()), digest + " links " + m.group(1));
+            }
+            assertTrue(links >= 2, digest + " links at least the interviewer plant's two case lists: " + links);
+        }
+    }
+
     // ---- the district plant ---------------------------------------------------------------------------------
 
     @Test

@@ -230,8 +230,11 @@ class CaseListsIntegrationTest {
         assertTrue(digest.contains("[15 cases](" + list(lists, "town", "CODE_APPEARED").fileName() + ")"), digest);
         String html = new DigestAssembler(session).html(config.dataset("hh"), List.of(hh.wave().report()),
                 java.time.Instant.now());
-        assertTrue(html.contains("hours MISSING_CODE: <a href=\"" + refused.fileName() + "\" download>40 cases</a>"),
-                html);
+        // The daemon's digest lies in a folder of its own beside the waves' folders: its link leads up and into the
+        // wave's folder, where the file is.
+        String link = "../" + org.wavewarden.deliver.OutputPaths.name(hh.wave().report().wave()) + "/"
+                + refused.fileName();
+        assertTrue(html.contains("hours MISSING_CODE: <a href=\"" + link + "\" download>40 cases</a>"), html);
     }
 
     @Test
