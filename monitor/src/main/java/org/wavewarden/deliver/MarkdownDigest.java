@@ -119,12 +119,14 @@ public final class MarkdownDigest {
      * compared, from the same {@link BreakdownView} as the HTML digest and the console.
      */
     private static void where(StringBuilder md, FindingsReport r, List<Alert> alerts) {
-        String before = r.againstWave() == null ? "baseline" : r.againstWave();
         for (Alert a : alerts) {
             for (Finding f : a.facets()) {
                 if (f.breakdowns().isEmpty()) {
                     continue;
                 }
+                // The column of the finding's own baseline: a further baseline's waves, else the run's main one's.
+                String before = f.against() != null ? org.wavewarden.judge.Against.wavesOf(f.against())
+                        : r.againstWave() == null ? "baseline" : org.wavewarden.judge.Against.mainOf(r.againstWave());
                 md.append("### Where it changed: ").append(escape(f.variable())).append(", ")
                         .append(escape(f.verdict() == null ? f.kind().name() : f.verdict() + " " + f.kind()))
                         .append("\n\n");
