@@ -6,6 +6,7 @@ import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 import org.wavewarden.deliver.FindingsReport;
+import org.wavewarden.judge.Against;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
 import org.wavewarden.judge.Verdict;
@@ -39,9 +40,18 @@ class DemoPowerAndDirectionTest {
         outcome.reports().forEach(r -> BY_WAVE.put(r.wave(), r));
     }
 
+    /**
+     * The finding against the previous wave (the run's main baseline): the household demo also judges each wave
+     * against the same quarter a year back, whose findings name that baseline in {@link Finding#against}.
+     */
     static Optional<Finding> finding(String wave, String variable, FindingKind kind) {
-        return BY_WAVE.get(wave).findings().stream().filter(f -> f.variable().equals(variable) && f.kind() == kind)
-                .findFirst();
+        return BY_WAVE.get(wave).findings().stream().filter(f -> f.variable().equals(variable) && f.kind() == kind
+                && f.against() == null).findFirst();
+    }
+
+    static List<Finding> againstAYearBack(String wave, String variable, FindingKind kind) {
+        return BY_WAVE.get(wave).findings().stream().filter(f -> f.variable().equals(variable) && f.kind() == kind
+                && f.against() != null).toList();
     }
 
     @Test
@@ -57,7 +67,16 @@ class DemoPowerAndDirectionTest {
                     + " %,d and %,d answers, these waves can only show changes of at least ", f.nBaseline(),
                     f.nCurrent())), f.sentence());
             assertTrue(f.sentence().contains("cannot be resolved at this sample size."), f.sentence());
+            // The same quarter a year back has as few boat owners: too few there as well, and said under its name.
+            for (Finding y : againstAYearBack(wave, "mooring_fee", FindingKind.SHIFT)) {
+                assertEquals(Verdict.UNCERTAIN, y.verdict(), wave + ": " + y.sentence());
+                assertFalse(y.effect().resolvable(), wave);
+                assertTrue(y.sentence().startsWith("A" + Against.phrase(y.against()).substring(1) + ": "), y.sentence());
+                assertTrue(y.sentence().contains("Too few answers to judge: with"), y.sentence());
+            }
         }
+        assertTrue(compared.stream().anyMatch(w -> !againstAYearBack(w, "mooring_fee", FindingKind.SHIFT).isEmpty()),
+                "the later waves are also judged against the same quarter a year back");
     }
 
     /**

@@ -8,6 +8,7 @@ import org.junit.jupiter.api.io.TempDir;
 import org.wavewarden.codebook.CodeLabels;
 import org.wavewarden.deliver.FindingsReport;
 import org.wavewarden.deliver.Json;
+import org.wavewarden.judge.Against;
 import org.wavewarden.judge.Finding;
 import org.wavewarden.judge.FindingKind;
 
@@ -107,7 +108,8 @@ class SentenceNumbersTest {
                     continue;
                 }
                 for (Finding f : r.findings()) {
-                    if (f.kind() == FindingKind.SHIFT && f.variable().equals(rate.variable())) {
+                    if (f.kind() == FindingKind.SHIFT && f.variable().equals(rate.variable())
+                            && java.util.Objects.equals(f.against(), rate.against())) {
                         seen++;
                         if (!MISSING_NOTE.matcher(f.sentence()).find()) {
                             problems.add(r.wave() + " " + f.variable() + ": " + f.sentence());
@@ -125,7 +127,12 @@ class SentenceNumbersTest {
     static final Pattern Q_VALUE = Pattern.compile("q (<|=) ([0-9.]+)");
     static final Pattern ONE_IN = Pattern.compile("(about|fewer than) 1 in ([\\d,]+) comparisons");
     static final Pattern FAMILY = Pattern.compile("over the ([\\d,]+) tests of this run");
-    static final Pattern CONFIDENCE = Pattern.compile("(\\d+)% CI");
+    static final Pattern CONFIDENCE = Pattern.compile("(\\d+)% (?:CI|interval)");
+    static final Pattern BREAKDOWN_Q = Pattern.compile("across [a-z ]+ \\(q (<|=) ([0-9.]+)\\)");
+    static final Pattern ONLY_IN = Pattern.compile("All ([\\d,]+) [^.]*? in this wave are in [a-z ]+ (\\S+)"
+            + " \\(([0-9.]+)% of its rows");
+    static final Pattern DESIGN_EFFECT = Pattern.compile("about ([0-9.]+) times that of a simple random sample"
+            + " \\(1 \\+ \\(m0 - 1\\) rho, Kish 1962\\)");
     static final Pattern OF_ROWS = Pattern.compile("([\\d,]+) of ([\\d,]+) rows \\(([0-9.]+)%\\)");
     static final Pattern RATIO = Pattern.compile("from ([0-9.]+)% to ([0-9.]+)% of rows, ([0-9.]+) times as many");
     static final Pattern MISSING_NOTE = Pattern.compile("; note that ([\\d,]+) of ([\\d,]+) rows \\(([0-9.]+)%\\)"
@@ -162,11 +169,21 @@ class SentenceNumbersTest {
             s = s.replace("'" + shown + "'", "''").replace("(" + shown + ")", "()");
         }
         s = CODE_AFTER_LABEL.matcher(s).replaceAll("'' (");
+        // A finding judged against a further baseline opens with that baseline's name ("Against 2024-Q2, 4 waves
+        // back:"), text the finding holds in its against field, its "N waves back" being part of the name.
+        if (f.against() != null) {
+            String phrase = Against.phrase(f.against());
+            s = s.replace(Character.toUpperCase(phrase.charAt(0)) + phrase.substring(1), " ").replace(phrase, " ");
+        }
+        // An interviewer flag's offending values are answers as the data hold them, text and not numbers.
+        for (JsonNode v : json.path("detail").path("offendingValues")) {
+            s = s.replace(v.asText(), " ");
+        }
         s = s.replace(f.variable(), " ");
         s = s.replaceAll("'[^']*'", " ");
         s = CITATION.matcher(s).replaceAll(" ");
         // a repeat's note names the waves it repeats, which its repeat field holds
-        for (String w : Stream.of(r.wave(), r.againstWave(), f.repeat() == null ? null : f.repeat().firstWave(),
+        for (String w : Stream.of(r.wave(), r.againstWave(), Against.wavesOf(f.against()), f.repeat() == null ? null : f.repeat().firstWave(),
                 f.repeat() == null ? null : f.repeat().previousWave()).filter(java.util.Objects::nonNull).toList()) {
             s = s.replace("wave " + w, " ");
         }
@@ -181,7 +198,8 @@ class SentenceNumbersTest {
         m = MISSING_NOTE.matcher(s);
         if (m.find()) {
             Optional<Finding> rate = r.findings().stream().filter(x -> x.variable().equals(f.variable())
-                    && x.kind() == FindingKind.MISSING_RATE_CHANGE).findFirst();
+                    && x.kind() == FindingKind.MISSING_RATE_CHANGE
+                    && java.util.Objects.equals(x.against(), f.against())).findFirst();
             if (rate.isEmpty()) {
                 problems.add(where + "a missing-rate note without a MISSING_RATE_CHANGE finding");
             } else {
@@ -198,6 +216,48 @@ class SentenceNumbersTest {
             }
             s = s.substring(0, m.start()) + s.substring(m.end());
         }
+        // Where it changed (judge.WhereItChanged): "the change differs across districts (q < 0.001)" is the q of
+        // one of the finding's breakdowns, not the finding's own.
+        m = BREAKDOWN_Q.matcher(s);
+        while (m.find()) {
+            boolean ok = false;
+            for (JsonNode b : json.path("breakdowns")) {
+                double q = b.path("qValue").asDouble(Double.NaN);
+                ok |= m.group(1).equals("<") ? q < Double.parseDouble(m.group(2)) : matches(q, m.group(2), 1);
+            }
+            if (!ok) {
+                problems.add(where + "'" + m.group() + "' is the q of none of the finding's breakdowns");
+            }
+        }
+        s = BREAKDOWN_Q.matcher(s).replaceAll(" ");
+        // "All 105 rows missing in this wave are in interviewer id H17 (45.5% of its rows; ...": the count is the
+        // domain's share of its rows in this wave times those rows, as the sentence's rule wrote it.
+        m = ONLY_IN.matcher(s);
+        while (m.find()) {
+            boolean ok = false;
+            for (JsonNode b : json.path("breakdowns")) {
+                for (JsonNode d : b.path("domains")) {
+                    double after = d.path("after").asDouble();
+                    ok |= d.path("domain").asText().equals(m.group(2))
+                            && Math.round(after * d.path("nCurrent").asLong()) == count(m.group(1))
+                            && matches(after, m.group(3), 100);
+                }
+            }
+            if (!ok) {
+                problems.add(where + "'" + m.group() + "' is no domain of the finding's breakdowns");
+            }
+        }
+        s = ONLY_IN.matcher(s).replaceAll(" ");
+        // An interviewer effect's design effect, 1 + (m0 - 1) rho (Kish 1962), from the two numbers it holds.
+        m = DESIGN_EFFECT.matcher(s);
+        while (m.find()) {
+            JsonNode detail = json.path("detail");
+            double deff = 1 + (detail.path("m0").asDouble(Double.NaN) - 1) * detail.path("icc").asDouble(Double.NaN);
+            if (!matches(deff, m.group(1), 1)) {
+                problems.add(where + "'" + m.group() + "' but 1 + (m0 - 1) rho is " + deff);
+            }
+        }
+        s = DESIGN_EFFECT.matcher(s).replaceAll(" ");
         m = P_VALUE.matcher(s);
         while (m.find()) {
             boolean ok = m.group(1).equals("<") ? f.pValue() < Double.parseDouble(m.group(2))
@@ -208,11 +268,13 @@ class SentenceNumbersTest {
         }
         s = P_VALUE.matcher(s).replaceAll(" ");
         m = Q_VALUE.matcher(s);
+        // An interviewer flag holds its q in its detail, a finding of the run's family on the finding itself.
+        double ownQ = f.qValue() != null ? f.qValue() : json.path("detail").path("qValue").asDouble(Double.NaN);
         while (m.find()) {
-            boolean ok = m.group(1).equals("<") ? f.qValue() < Double.parseDouble(m.group(2))
-                    : matches(f.qValue(), m.group(2), 1);
+            boolean ok = m.group(1).equals("<") ? ownQ < Double.parseDouble(m.group(2))
+                    : matches(ownQ, m.group(2), 1);
             if (!ok) {
-                problems.add(where + "q " + m.group(1) + " " + m.group(2) + " but the finding's q is " + f.qValue());
+                problems.add(where + "q " + m.group(1) + " " + m.group(2) + " but the finding's q is " + ownQ);
             }
         }
         s = Q_VALUE.matcher(s).replaceAll(" ");

@@ -7,6 +7,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.wavewarden.deliver.OutputPaths;
 import org.wavewarden.demo.DemoRun;
+import org.wavewarden.judge.Against;
 
 import java.io.PrintWriter;
 import java.io.StringWriter;
@@ -78,7 +79,9 @@ class DemoPlotsMatchFindingsTest {
         int alerts = 0;
         for (String wave : sections.keySet()) {
             JsonNode report = JSON.readTree(Files.readString(OutputPaths.under(folder, wave).resolve("findings.json")));
-            String against = report.path("againstWave").isNull() ? null : report.path("againstWave").asText(null);
+            // The run's key names every baseline ("2024-Q4 + 2024-Q1 (4 waves back)"); its main one comes first.
+            String runAgainst = report.path("againstWave").isNull() ? null
+                    : Against.mainOf(report.path("againstWave").asText(null));
             List<String[]> articles = articles(sections.get(wave));
             for (String[] a : articles) {
                 alerts++;
@@ -87,9 +90,15 @@ class DemoPlotsMatchFindingsTest {
                 String body = a[2];
                 String where = dataset + " wave " + wave + ", " + variable + " (" + kind + ")";
                 assertFalse(Pattern.compile("\\b0 rows").matcher(body).find(), where + ": a legend speaks of 0 rows");
-                JsonNode finding = finding(report, variable, kind);
+                // An alert of a further baseline names it in its header; its numbers are that baseline's.
+                Matcher header = AGAINST.matcher(body);
+                String phrase = header.find() ? unescape(header.group(1)) : null;
+                JsonNode finding = finding(report, variable, kind, phrase);
                 assertNotNull(finding, where + ": no such finding in findings.json");
-                String id = dataset + "/" + wave + "/" + variable + "/" + kind;
+                String further = finding.path("against").isTextual() ? finding.path("against").asText() : null;
+                String against = further == null ? runAgainst : Against.wavesOf(further);
+                String id = dataset + "/" + wave + "/" + variable + "/" + kind
+                        + (further == null ? "" : "/" + Against.rule(further));
                 if (kind.equals("RELATIONSHIP_CHANGE") && finding.path("detail").has("spearmanBaseline")) {
                     checkCorrelations(where, id, body, finding.path("detail"), against, wave);
                     held++;
@@ -310,21 +319,39 @@ class DemoPlotsMatchFindingsTest {
                 : n.asDouble();
     }
 
-    private static JsonNode finding(JsonNode report, String variable, String kind) {
+    static final Pattern AGAINST = Pattern.compile("<span class=\"against\">([^<]*)</span>");
+
+    /** The finding of a variable and kind against the run's baseline (phrase null) or the further one named. */
+    private static JsonNode finding(JsonNode report, String variable, String kind, String phrase) {
         for (JsonNode f : report.path("findings")) {
-            if (f.path("variable").asText().equals(variable) && f.path("kind").asText().equals(kind)) {
+            String further = f.path("against").isTextual() ? f.path("against").asText() : null;
+            if (f.path("variable").asText().equals(variable) && f.path("kind").asText().equals(kind)
+                    && java.util.Objects.equals(phrase, further == null ? null : Against.phrase(further))) {
                 return f;
             }
         }
         return null;
     }
 
+    /**
+     * Each wave's section, from its opening tag to the next wave's: a wave's section holds sections of its own (an
+     * alert's "Where it changed" tables), so the first closing tag is not the wave's.
+     */
     private static Map<String, String> sections(String html) {
         Map<String, String> out = new LinkedHashMap<>();
-        Matcher m = Pattern.compile("<section class=\"wave\" id=\"wave-\\d+\" data-wave=\"([^\"]*)\">(.*?)</section>",
-                Pattern.DOTALL).matcher(html);
+        Matcher m = Pattern.compile("<section class=\"wave\" id=\"wave-\\d+\" data-wave=\"([^\"]*)\">")
+                .matcher(html);
+        String wave = null;
+        int from = -1;
         while (m.find()) {
-            out.put(unescape(m.group(1)), m.group(2));
+            if (wave != null) {
+                out.put(wave, html.substring(from, m.start()));
+            }
+            wave = unescape(m.group(1));
+            from = m.end();
+        }
+        if (wave != null) {
+            out.put(wave, html.substring(from));
         }
         return out;
     }
