@@ -64,6 +64,12 @@ final class DatabaseProbe implements AutoCloseable {
             }
             if (problem != null) {
                 unreachable = e.getKey();
+                // The probe's connection may be the one the outage broke: the next check gets a new one rather
+                // than asking the pool to vouch for it again.
+                var pool = e.getValue().getHikariPoolMXBean();
+                if (pool != null) {
+                    pool.softEvictConnections();
+                }
                 break;
             }
         }
