@@ -20,11 +20,13 @@ public final class ValueIndex {
     private enum Kind { LONG, PAIR, BYTES }
 
     private final Kind kind;
-    private int[] slots = new int[64];
-    private long[] slotFirst = new long[64]; // for bytes: the key's hash
+    // Small to start with: a scan with breakdowns holds one index per domain's bins and per column, most of them
+    // with a handful of keys, and the tables double as they fill.
+    private int[] slots = new int[16];
+    private long[] slotFirst = new long[16]; // for bytes: the key's hash
     private long[] slotSecond; // for pairs only
-    private long[] first = new long[32]; // for bytes: the key's offset in the arena
-    private long[] second = new long[32]; // for bytes: the key's length; for longs: the second long (0 when one)
+    private long[] first = new long[8]; // for bytes: the key's offset in the arena
+    private long[] second; // for bytes: the key's length; for pairs: the second long; null for single longs (0)
     private byte[] arena; // for bytes: each key once, back to back
     private int used;
     private int size;
@@ -32,10 +34,13 @@ public final class ValueIndex {
     private ValueIndex(Kind kind) {
         this.kind = kind;
         if (kind == Kind.BYTES) {
-            arena = new byte[1024];
+            arena = new byte[64];
         }
         if (kind == Kind.PAIR) {
             slotSecond = new long[slots.length];
+        }
+        if (kind != Kind.LONG) {
+            second = new long[first.length];
         }
     }
 
@@ -84,7 +89,9 @@ public final class ValueIndex {
         }
         int e = claim(i, a, b);
         first[e] = a;
-        second[e] = b;
+        if (second != null) {
+            second[e] = b;
+        }
         return e;
     }
 
@@ -150,7 +157,8 @@ public final class ValueIndex {
     /** The second long of an entry's key. */
     public long second(int entry) {
         requireLongs(0);
-        return second[check(entry)];
+        int e = check(entry);
+        return second == null ? 0 : second[e];
     }
 
     /** The array an entry's bytes sit in, valid until the next {@code add}; see {@link #offset} and {@link #length}. */
@@ -181,7 +189,9 @@ public final class ValueIndex {
         int e = size;
         if (e == first.length) {
             first = Arrays.copyOf(first, e * 2);
-            second = Arrays.copyOf(second, e * 2);
+            if (second != null) {
+                second = Arrays.copyOf(second, e * 2);
+            }
         }
         slots[slot] = ++size;
         slotFirst[slot] = a;
@@ -241,12 +251,18 @@ public final class ValueIndex {
     }
 
     /**
-     * The slot hash of a pair of longs: a multiply by the golden-ratio constant and xor-shifts, so keys that differ
-     * in low bits (consecutive integers, neighbouring bins) spread over the table.
+     * The slot hash of a pair of longs: the pair folded into one long and put through the 64-bit finaliser of
+     * SplitMix64 (Steele, Lea and Flood 2014, "Fast splittable pseudorandom number generators", OOPSLA), in which
+     * every input bit reaches every output bit. Keys that differ only in their high bits (the bits of small whole
+     * doubles, whose low mantissa bits are all zero) spread over the table as well as keys that differ in their
+     * low bits (consecutive integers, neighbouring bins); a plain multiply leaves the former clustered in the low
+     * bits that pick a slot, and probe chains grow long.
      */
     static int mix(long a, long b) {
-        long h = (a ^ Long.rotateLeft(b * 0xC2B2AE3D27D4EB4FL, 31)) * 0x9E3779B97F4A7C15L;
-        return (int) (h ^ (h >>> 29) ^ (h >>> 47));
+        long z = a ^ Long.rotateLeft(b * 0xC2B2AE3D27D4EB4FL, 31);
+        z = (z ^ (z >>> 30)) * 0xBF58476D1CE4E5B9L;
+        z = (z ^ (z >>> 27)) * 0x94D049BB133111EBL;
+        return (int) (z ^ (z >>> 31));
     }
 
     /** FNV-1a over the bytes and their length, its high half folded in so the low bits that pick a slot vary. */
