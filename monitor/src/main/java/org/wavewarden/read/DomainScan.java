@@ -282,6 +282,7 @@ final class DomainScan {
             if (designed) {
                 designs.put(name, c.designs(n, psus, text));
             }
+            cols[i] = null; // its counts are in the tallies now: the scan's tables go as the result grows
         }
         int overflowDomains = overflowLabels.size();
         return new DomainTally(column, domains, Arrays.copyOf(rows, n), nullRows, overflowDomains, overflowRows,
