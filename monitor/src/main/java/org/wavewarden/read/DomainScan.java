@@ -30,9 +30,8 @@ import java.util.function.LongToDoubleFunction;
  * distinct values, and every domain is summarised as soon as the whole wave's column is (its value entries are then
  * gone); code-like numbers stay exact, as {@link RelativeBins} keeps them. The entries of domains summarised since
  * are dropped once they outnumber the rest, and a value's bin is worked out once per cell for the whole wave and all
- * its domains ({@link RelativeBins#fineKey}). Every walk over a column's entries meets them in the order they came,
- * so the weight sums are added in row order whatever was dropped: the tallies are those of counting each domain on
- * its own.
+ * its domains ({@link RelativeBins#fineKey}). Every walk over a column's entries meets the kept ones in the order
+ * they came, so dropping entries changes no floating-point sum: the tallies are bit for bit those of keeping all.
  *
  * <p>With a design, per column the weight of each (domain, PSU, value) cell and, for numbers, the sums w, w y and
  * w y^2 of each (domain, PSU) are kept, the PSUs being the whole wave's; a domain's sums are zero in PSUs where it
