@@ -40,11 +40,12 @@ public final class RelativeBins {
     private final boolean singlePrecision;
     private int level;
     private ValueIndex bins = ValueIndex.ofLongs(); // bin keys numbered; each bin's sums in the arrays below
-    private long[] counts = new long[256];
-    private double[] min = new double[256];
-    private double[] max = new double[256];
-    private double[] wsum = new double[256];
-    private double[] wsq = new double[256];
+    // Small to start with and grown as bins appear: a scan with breakdowns holds one summary per domain and column.
+    private long[] counts = new long[8];
+    private double[] min = new double[8];
+    private double[] max = new double[8];
+    private double[] wsum; // null while every weight sum added was zero (no weights): read as zeros
+    private double[] wsq;
     private final Map<Double, double[]> exact = new HashMap<>(); // {count, sum w, sum w^2}
 
     /**
@@ -109,50 +110,103 @@ public final class RelativeBins {
             throw new IllegalArgumentException("count must be positive, was " + count);
         }
         if (!Double.isFinite(x) || isCodeLike(x)) {
-            double[] cell = exact.computeIfAbsent(x == 0 ? 0.0 : x, k -> new double[3]);
-            cell[0] += count;
-            cell[1] += sumW;
-            cell[2] += sumW2;
+            addExact(x, count, sumW, sumW2);
             return;
         }
-        put(key(x, level), x, x, count, sumW, sumW2);
+        addBinned(x, key(x, 0), count, sumW, sumW2);
+    }
+
+    /**
+     * The bin key of a value at level 0 ({@link #key}), or {@link #EXACT} for a value kept exactly (zero, not finite,
+     * code-like): worked out once per cell by a caller that adds the same value to several summaries (a whole wave's
+     * and its domains'), which then add it with {@link #add(double, long, double)} without a logarithm each.
+     */
+    public static long fineKey(double x) {
+        return !Double.isFinite(x) || isCodeLike(x) ? EXACT : key(x, 0);
+    }
+
+    /** What {@link #fineKey} gives for a value kept exactly; no level-0 key is this small. */
+    public static final long EXACT = Long.MIN_VALUE;
+
+    /** Adds one value whose {@link #fineKey} is {@code fineKey}; {@code w} is its weight, NaN for none. */
+    public void add(double x, long fineKey, double w) {
+        boolean weighted = !Double.isNaN(w);
+        double sumW = weighted ? w : 0;
+        double sumW2 = weighted ? w * w : 0;
+        if (fineKey == EXACT) {
+            addExact(x, 1, sumW, sumW2);
+        } else {
+            addBinned(x, fineKey, 1, sumW, sumW2);
+        }
+    }
+
+    private void addExact(double x, long count, double sumW, double sumW2) {
+        double[] cell = exact.computeIfAbsent(x == 0 ? 0.0 : x, k -> new double[3]);
+        cell[0] += count;
+        cell[1] += sumW;
+        cell[2] += sumW2;
+    }
+
+    private void addBinned(double x, long fineKey, long count, double sumW, double sumW2) {
+        put(coarser(fineKey, level), x, x, count, sumW, sumW2);
         while (bins.size() > maxBins) {
             coarsen();
         }
+    }
+
+    /** A level-0 bin key moved up {@code levels} levels: ceil(i / 2^levels), as {@link #key} computes it. */
+    private static long coarser(long fineKey, int levels) {
+        long i = -Math.floorDiv(-(fineKey >> 1), 1L << levels);
+        return (i << 1) | (fineKey & 1);
     }
 
     /** Adds to a bin; a new bin starts from these sums. */
     private void put(long key, double lo, double hi, long count, double sumW, double sumW2) {
         int before = bins.size();
         int e = bins.add(key);
-        if (e == before) {
+        boolean fresh = e == before;
+        if (fresh) {
             if (e == counts.length) {
-                int n = ValueIndex.capacityFor(e, counts.length);
+                // Never past the budget's one bin over, which coarsens at once: doubling beyond it would be waste.
+                int n = Math.min(ValueIndex.capacityFor(e, counts.length), Math.max(maxBins + 1, e + 1));
                 counts = Arrays.copyOf(counts, n);
                 min = Arrays.copyOf(min, n);
                 max = Arrays.copyOf(max, n);
-                wsum = Arrays.copyOf(wsum, n);
-                wsq = Arrays.copyOf(wsq, n);
+                if (wsum != null) {
+                    wsum = Arrays.copyOf(wsum, n);
+                    wsq = Arrays.copyOf(wsq, n);
+                }
             }
             counts[e] = count;
             min[e] = lo;
             max[e] = hi;
-            wsum[e] = sumW;
-            wsq[e] = sumW2;
-            return;
+        } else {
+            counts[e] += count;
+            min[e] = Math.min(min[e], lo);
+            max[e] = Math.max(max[e], hi);
         }
-        counts[e] += count;
-        min[e] = Math.min(min[e], lo);
-        max[e] = Math.max(max[e], hi);
-        wsum[e] += sumW;
-        wsq[e] += sumW2;
+        // Sums stay unallocated while every one is +0.0, which is what the zeros of a new array hold; any other
+        // value (even -0.0) makes them real, so the sums are bit for bit what they would be with arrays throughout.
+        if (wsum == null && (Double.doubleToRawLongBits(sumW) != 0 || Double.doubleToRawLongBits(sumW2) != 0)) {
+            wsum = new double[counts.length];
+            wsq = new double[counts.length];
+        }
+        if (wsum != null) {
+            if (fresh) {
+                wsum[e] = sumW;
+                wsq[e] = sumW2;
+            } else {
+                wsum[e] += sumW;
+                wsq[e] += sumW2;
+            }
+        }
     }
 
     /** The bin of a nonzero finite value at a level: its index on the log scale, doubled, plus 1 when negative. */
     static long key(double x, int level) {
         long i0 = (long) Math.ceil(Math.log(Math.abs(x)) / LN_GAMMA0);
-        long i = -Math.floorDiv(-i0, 1L << level); // ceil(i0 / 2^level): ceil(ceil(a) / 2) = ceil(a / 2)
-        return (i << 1) | (x < 0 ? 1 : 0);
+        // ceil(i0 / 2^level): ceil(ceil(a) / 2) = ceil(a / 2)
+        return coarser((i0 << 1) | (x < 0 ? 1 : 0), level);
     }
 
     /** Moves every bin one level coarser: neighbouring pairs of bins merge. */
@@ -168,13 +222,11 @@ public final class RelativeBins {
         counts = new long[n];
         min = new double[n];
         max = new double[n];
-        wsum = new double[n];
-        wsq = new double[n];
+        wsum = null;
+        wsq = null;
         level++;
         for (int e = 0; e < n; e++) {
-            long key = old.first(e);
-            long idx = key >> 1;
-            put(((-Math.floorDiv(-idx, 2L)) << 1) | (key & 1), omin[e], omax[e], oc[e], ow[e], ow2[e]);
+            put(coarser(old.first(e), 1), omin[e], omax[e], oc[e], ow == null ? 0 : ow[e], ow2 == null ? 0 : ow2[e]);
         }
     }
 
@@ -214,7 +266,7 @@ public final class RelativeBins {
     public void forEach(Entry e) {
         for (int j = 0; j < bins.size(); j++) {
             String text = min[j] == max[j] ? exactText(min[j]) : standIn(bins.first(j), level);
-            e.accept(text, counts[j], wsum[j], wsq[j]);
+            e.accept(text, counts[j], wsum == null ? 0 : wsum[j], wsq == null ? 0 : wsq[j]);
         }
         exact.forEach((x, cell) -> e.accept(exactText(x), (long) cell[0], cell[1], cell[2]));
     }

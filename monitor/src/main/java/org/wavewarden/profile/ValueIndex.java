@@ -20,22 +20,28 @@ public final class ValueIndex {
     private enum Kind { LONG, PAIR, BYTES }
 
     private final Kind kind;
-    private int[] slots = new int[64];
-    private long[] slotFirst = new long[64]; // for bytes: the key's hash
-    private long[] slotSecond; // for pairs only
-    private long[] first = new long[32]; // for bytes: the key's offset in the arena
-    private long[] second = new long[32]; // for bytes: the key's length; for longs: the second long (0 when one)
+    // Small to start with: a scan with breakdowns holds one index per domain's bins and per column, most of them
+    // with a handful of keys, and the tables double as they fill.
+    // One array of slots, each {@code stride} longs side by side: the entry's number plus one (0: empty), the key's first
+    // long (for bytes: its hash) and, for pairs, its second long. A probe reads one slot's longs from one cache line;
+    // with breakdowns a scan holds many tables, mostly out of cache, and separate arrays cost a miss each.
+    private final int stride;
+    private long[] table;
+    private long[] first = new long[8]; // for bytes: the key's offset in the arena
+    private long[] second; // for bytes: the key's length; for pairs: the second long; null for single longs (0)
     private byte[] arena; // for bytes: each key once, back to back
     private int used;
     private int size;
 
     private ValueIndex(Kind kind) {
         this.kind = kind;
+        this.stride = kind == Kind.PAIR ? 3 : 2;
+        this.table = new long[16 * stride];
         if (kind == Kind.BYTES) {
-            arena = new byte[1024];
+            arena = new byte[64];
         }
-        if (kind == Kind.PAIR) {
-            slotSecond = new long[slots.length];
+        if (kind != Kind.LONG) {
+            second = new long[first.length];
         }
     }
 
@@ -76,15 +82,17 @@ public final class ValueIndex {
     public int add(long a, long b, int limit) {
         requireLongs(b);
         int i = probe(a, b, mix(a, b));
-        if (slots[i] != 0) {
-            return slots[i] - 1;
+        if (table[i] != 0) {
+            return (int) table[i] - 1;
         }
         if (size >= limit) {
             return -1;
         }
         int e = claim(i, a, b);
         first[e] = a;
-        second[e] = b;
+        if (second != null) {
+            second[e] = b;
+        }
         return e;
     }
 
@@ -96,15 +104,24 @@ public final class ValueIndex {
     /** The entry of a pair of longs, or -1 when it is not held. */
     public int find(long a, long b) {
         requireLongs(b);
-        return slots[probe(a, b, mix(a, b))] - 1;
+        return (int) table[probe(a, b, mix(a, b))] - 1;
     }
 
-    /** The slot holding the key (a, b), or the empty slot where it would go. */
+    /** Slots in the table; a power of two. */
+    private int capacity() {
+        return table.length / stride;
+    }
+
+    /** The start in {@link #table} of the slot holding the key (a, b), or of the empty slot where it would go. */
     private int probe(long a, long b, int h) {
-        int mask = slots.length - 1;
-        int i = h & mask;
-        while (slots[i] != 0 && (slotFirst[i] != a || slotSecond != null && slotSecond[i] != b)) {
-            i = (i + 1) & mask;
+        int mask = capacity() - 1;
+        int i = (h & mask) * stride;
+        boolean pair = stride == 3;
+        while (table[i] != 0 && (table[i + 1] != a || pair && table[i + 2] != b)) {
+            i += stride;
+            if (i == table.length) {
+                i = 0;
+            }
         }
         return i;
     }
@@ -116,16 +133,19 @@ public final class ValueIndex {
     public int add(byte[] b, int p, int len, int limit) {
         requireKind(Kind.BYTES);
         int h = hash(b, p, len);
-        int mask = slots.length - 1;
-        int i = h & mask;
+        int mask = capacity() - 1;
+        int i = (h & mask) * stride;
         int e;
-        while ((e = slots[i]) != 0) {
+        while ((e = (int) table[i]) != 0) {
             e--;
-            if (slotFirst[i] == h && second[e] == len
+            if (table[i + 1] == h && second[e] == len
                     && Arrays.equals(arena, (int) first[e], (int) first[e] + len, b, p, p + len)) {
                 return e;
             }
-            i = (i + 1) & mask;
+            i += stride;
+            if (i == table.length) {
+                i = 0;
+            }
         }
         if (size >= limit) {
             return -1;
@@ -150,7 +170,8 @@ public final class ValueIndex {
     /** The second long of an entry's key. */
     public long second(int entry) {
         requireLongs(0);
-        return second[check(entry)];
+        int e = check(entry);
+        return second == null ? 0 : second[e];
     }
 
     /** The array an entry's bytes sit in, valid until the next {@code add}; see {@link #offset} and {@link #length}. */
@@ -181,42 +202,39 @@ public final class ValueIndex {
         int e = size;
         if (e == first.length) {
             first = Arrays.copyOf(first, e * 2);
-            second = Arrays.copyOf(second, e * 2);
+            if (second != null) {
+                second = Arrays.copyOf(second, e * 2);
+            }
         }
-        slots[slot] = ++size;
-        slotFirst[slot] = a;
-        if (slotSecond != null) {
-            slotSecond[slot] = b;
+        table[slot] = ++size;
+        table[slot + 1] = a;
+        if (stride == 3) {
+            table[slot + 2] = b;
         }
-        if (size * 2 > slots.length) {
+        if (size * 2 > capacity()) {
             rehash();
         }
         return e;
     }
 
     private void rehash() {
-        int[] oldSlots = slots;
-        long[] oldFirst = slotFirst;
-        long[] oldSecond = slotSecond;
-        slots = new int[oldSlots.length * 2];
-        slotFirst = new long[slots.length];
-        slotSecond = oldSecond == null ? null : new long[slots.length];
-        int mask = slots.length - 1;
-        for (int j = 0; j < oldSlots.length; j++) {
-            if (oldSlots[j] == 0) {
+        long[] old = table;
+        table = new long[old.length * 2];
+        int mask = capacity() - 1;
+        for (int j = 0; j < old.length; j += stride) {
+            if (old[j] == 0) {
                 continue;
             }
-            long b = oldSecond == null ? 0 : oldSecond[j];
-            int h = kind == Kind.BYTES ? (int) oldFirst[j] : mix(oldFirst[j], b);
-            int i = h & mask;
-            while (slots[i] != 0) {
-                i = (i + 1) & mask;
+            long b = stride == 3 ? old[j + 2] : 0;
+            int h = kind == Kind.BYTES ? (int) old[j + 1] : mix(old[j + 1], b);
+            int i = (h & mask) * stride;
+            while (table[i] != 0) {
+                i += stride;
+                if (i == table.length) {
+                    i = 0;
+                }
             }
-            slots[i] = oldSlots[j];
-            slotFirst[i] = oldFirst[j];
-            if (slotSecond != null) {
-                slotSecond[i] = b;
-            }
+            System.arraycopy(old, j, table, i, stride);
         }
     }
 
@@ -241,12 +259,18 @@ public final class ValueIndex {
     }
 
     /**
-     * The slot hash of a pair of longs: a multiply by the golden-ratio constant and xor-shifts, so keys that differ
-     * in low bits (consecutive integers, neighbouring bins) spread over the table.
+     * The slot hash of a pair of longs: the pair folded into one long and put through the 64-bit finaliser of
+     * SplitMix64 (Steele, Lea and Flood 2014, "Fast splittable pseudorandom number generators", OOPSLA), in which
+     * every input bit reaches every output bit. Keys that differ only in their high bits (the bits of small whole
+     * doubles, whose low mantissa bits are all zero) spread over the table as well as keys that differ in their
+     * low bits (consecutive integers, neighbouring bins); a plain multiply leaves the former clustered in the low
+     * bits that pick a slot, and probe chains grow long.
      */
     static int mix(long a, long b) {
-        long h = (a ^ Long.rotateLeft(b * 0xC2B2AE3D27D4EB4FL, 31)) * 0x9E3779B97F4A7C15L;
-        return (int) (h ^ (h >>> 29) ^ (h >>> 47));
+        long z = a ^ Long.rotateLeft(b * 0xC2B2AE3D27D4EB4FL, 31);
+        z = (z ^ (z >>> 30)) * 0xBF58476D1CE4E5B9L;
+        z = (z ^ (z >>> 27)) * 0x94D049BB133111EBL;
+        return (int) (z ^ (z >>> 31));
     }
 
     /** FNV-1a over the bytes and their length, its high half folded in so the low bits that pick a slot vary. */

@@ -202,13 +202,15 @@ public final class BinaryWaveScanner implements WaveScanner {
                         value[i] = x;
                     }
                     if (bins[i] != null) {
-                        bins[i].add(x, w);
+                        // The value's bin is worked out once, for the whole wave and every domain of the row.
+                        long fine = RelativeBins.fineKey(x);
+                        bins[i].add(x, fine, w);
                         if (ds != null && psu >= 0) {
                             ds.addBinned(i, psu, x, w);
                         }
                         for (int j = 0; j < m; j++) {
                             if (rowDomain[j] >= 0) {
-                                dom[j].addNumber(i, rowDomain[j], psu, x, w);
+                                dom[j].addNumber(i, rowDomain[j], psu, x, fine, w);
                             }
                         }
                         in.pos += len;
@@ -224,9 +226,18 @@ public final class BinaryWaveScanner implements WaveScanner {
                         if (ds != null && psu >= 0) {
                             ds.add(i, psu, entry, x, w);
                         }
+                        long fine = RelativeBins.EXACT; // read only by a domain in bins, and then worked out
+                        if (numeric[i]) {
+                            for (int j = 0; j < m; j++) {
+                                if (rowDomain[j] >= 0 && dom[j].binsIn(i)) {
+                                    fine = RelativeBins.fineKey(x);
+                                    break;
+                                }
+                            }
+                        }
                         for (int j = 0; j < m; j++) {
                             if (rowDomain[j] >= 0) {
-                                dom[j].add(i, rowDomain[j], psu, entry, x, w);
+                                dom[j].add(i, rowDomain[j], psu, entry, x, fine, w);
                             }
                         }
                     } else if (numeric[i]) {
@@ -242,13 +253,14 @@ public final class BinaryWaveScanner implements WaveScanner {
                         if (Double.isNaN(x)) {
                             x = d.number(b, p, len);
                         }
-                        bins[i].add(x, w);
+                        long fine = RelativeBins.fineKey(x);
+                        bins[i].add(x, fine, w);
                         if (ds != null && psu >= 0) {
                             ds.addBinned(i, psu, x, w);
                         }
                         for (int j = 0; j < m; j++) {
                             if (rowDomain[j] >= 0) {
-                                dom[j].addNumber(i, rowDomain[j], psu, x, w);
+                                dom[j].addNumber(i, rowDomain[j], psu, x, fine, w);
                             }
                         }
                     } else {

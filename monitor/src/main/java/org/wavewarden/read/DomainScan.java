@@ -28,7 +28,10 @@ import java.util.function.LongToDoubleFunction;
  * and plain arrays hold their counts and weight sums. A numeric column is summarised per domain in
  * {@link RelativeBins} of {@link #DOMAIN_MAX_BINS} once the domain holds more than the scan's per-domain budget of
  * distinct values, and every domain is summarised as soon as the whole wave's column is (its value entries are then
- * gone); code-like numbers stay exact, as {@link RelativeBins} keeps them.
+ * gone); code-like numbers stay exact, as {@link RelativeBins} keeps them. The entries of domains summarised since
+ * are dropped once they outnumber the rest, and a value's bin is worked out once per cell for the whole wave and all
+ * its domains ({@link RelativeBins#fineKey}). Every walk over a column's entries meets the kept ones in the order
+ * they came, so dropping entries changes no floating-point sum: the tallies are bit for bit those of keeping all.
  *
  * <p>With a design, per column the weight of each (domain, PSU, value) cell and, for numbers, the sums w, w y and
  * w y^2 of each (domain, PSU) are kept, the PSUs being the whole wave's; a domain's sums are zero in PSUs where it
@@ -130,23 +133,35 @@ final class DomainScan {
         c.nulls[d]++;
     }
 
-    /** A cell of column i in domain d whose value is entry {@code entry} of the whole wave's exact tally. */
-    void add(int i, int d, int psu, int entry, double x, double w) {
+    /**
+     * Whether some domain of column i is summarised in bins, so that a cell of it needs its
+     * {@link RelativeBins#fineKey} (worked out once per cell, not once per domain).
+     */
+    boolean binsIn(int i) {
+        return cols[i].anyBins;
+    }
+
+    /**
+     * A cell of column i in domain d whose value is entry {@code entry} of the whole wave's exact tally;
+     * {@code fineKey} is the value's {@link RelativeBins#fineKey} when {@link #binsIn} said so, else unread.
+     */
+    void add(int i, int d, int psu, int entry, double x, long fineKey, double w) {
         Col c = cols[i];
         c.grow(d);
         boolean binned = c.bins[d] != null;
         if (binned) {
-            c.bins[d].add(x, w);
+            c.bins[d].add(x, fineKey, w);
         } else {
             int before = c.values.size();
-            int e = c.values.add(d, entry);
+            int e = c.values.add(Col.key(d, entry));
             if (e == before) {
                 c.distinct[d]++;
+                c.link(d, e);
             }
             c.count(e, w);
             if (c.numeric && c.distinct[d] > exactNumbers) {
                 ValueTally t = wave[i];
-                c.summarise(new boolean[] {true}, d, key -> t.number((int) key));
+                c.summariseOne(d, key -> t.number((int) key));
                 binned = true;
             }
         }
@@ -165,14 +180,17 @@ final class DomainScan {
         }
     }
 
-    /** A cell of numeric column i in domain d after the whole wave's column moved to bins. */
-    void addNumber(int i, int d, int psu, double x, double w) {
+    /**
+     * A cell of numeric column i in domain d after the whole wave's column moved to bins; {@code fineKey} is the
+     * value's {@link RelativeBins#fineKey}.
+     */
+    void addNumber(int i, int d, int psu, double x, long fineKey, double w) {
         Col c = cols[i];
         c.grow(d);
         if (c.bins[d] == null) {
             c.bins[d] = c.newBins();
         }
-        c.bins[d].add(x, w);
+        c.bins[d].add(x, fineKey, w);
         if (designed && psu >= 0) {
             c.design(d, psu, Double.doubleToLongBits(x == 0 ? 0.0 : x), x, w, RelativeBins.isCodeLike(x));
         }
@@ -192,7 +210,7 @@ final class DomainScan {
         for (int d = 0; d < n; d++) {
             fresh[d] = c.bins[d] == null;
         }
-        c.summarise(fresh, -1, valueOf);
+        c.summarise(fresh, valueOf);
         c.dropExactCounts(); // every domain is in bins now: the (domain, value) counts are not read again
         ValueIndex before = c.cells;
         double[] weights = c.cellWeight;
@@ -230,14 +248,24 @@ final class DomainScan {
             List<Map<String, double[]>> sums = new ArrayList<>(n);
             for (int d = 0; d < n; d++) {
                 counts.add(c.bins[d] != null ? c.bins[d].counts() : new HashMap<>());
-                sums.add(c.bins[d] != null ? c.bins[d].weights() : new HashMap<>());
+                sums.add(c.bins[d] != null && weighted ? c.bins[d].weights() : new HashMap<>());
             }
+            // A value held by many domains is turned into text once, and its domains share the one String.
+            String[] textOf = new String[16];
             for (int e = 0; e < c.values.size(); e++) {
-                int d = (int) c.values.first(e);
+                int d = Col.domainOf(c.values.first(e));
                 if (c.bins[d] != null) {
                     continue; // counted in the domain's bins since
                 }
-                String v = texts.get(i).apply(c.values.second(e));
+                int entry = Col.entryOf(c.values.first(e));
+                if (entry >= textOf.length) {
+                    textOf = Arrays.copyOf(textOf, Math.max(entry + 1, textOf.length * 2));
+                }
+                String v = textOf[entry];
+                if (v == null) {
+                    v = texts.get(i).apply(entry);
+                    textOf[entry] = v;
+                }
                 counts.get(d).merge(v, c.count[e], Long::sum);
                 if (weighted) {
                     double[] cell = sums.get(d).computeIfAbsent(v, k -> new double[2]);
@@ -257,10 +285,17 @@ final class DomainScan {
             if (designed) {
                 designs.put(name, c.designs(n, psus, text));
             }
+            cols[i] = null; // its counts are in the tallies now: the scan's tables go as the result grows
         }
         int overflowDomains = overflowLabels.size();
         return new DomainTally(column, domains, Arrays.copyOf(rows, n), nullRows, overflowDomains, overflowRows,
                 tallies, weights, designs);
+    }
+
+    private static int[] filled(int n) {
+        int[] a = new int[n];
+        Arrays.fill(a, -1);
+        return a;
     }
 
     /** One monitored column's counts per domain; arrays indexed by domain grow as domains appear. */
@@ -272,7 +307,16 @@ final class DomainScan {
         private boolean[] truncated = new boolean[8];
         private int[] distinct = new int[8];
         private RelativeBins[] bins = new RelativeBins[8]; // a domain's bins, once it is summarised
-        private ValueIndex values = ValueIndex.ofPairs(); // (domain, whole-wave value entry)
+        private boolean anyBins;
+        // (domain, whole-wave value entry) packed in one long: a single-long index holds a third less per entry than
+        // one of pairs, and these entries are most of a scan's memory with breakdowns.
+        private ValueIndex values = ValueIndex.ofLongs();
+        private int deadEntries; // entries of domains summarised since, dropped when they outnumber the rest
+        // Each domain's entries of values chained in the order they came, so one domain is summarised without
+        // walking the others': the first and last entry per domain (-1: none), the next entry per entry.
+        private int[] firstEntry = filled(8);
+        private int[] lastEntry = filled(8);
+        private int[] nextEntry = new int[64];
         private long[] count = new long[64];
         private double[] wsum = weighted ? new double[64] : null;
         private double[] wsq = weighted ? new double[64] : null;
@@ -296,10 +340,97 @@ final class DomainScan {
                 truncated = Arrays.copyOf(truncated, n);
                 distinct = Arrays.copyOf(distinct, n);
                 bins = Arrays.copyOf(bins, n);
+                int old = firstEntry.length;
+                firstEntry = Arrays.copyOf(firstEntry, n);
+                lastEntry = Arrays.copyOf(lastEntry, n);
+                Arrays.fill(firstEntry, old, n, -1);
+                Arrays.fill(lastEntry, old, n, -1);
             }
         }
 
+        /** Entry e, new in values, joins the end of domain d's chain. */
+        void link(int d, int e) {
+            if (e >= nextEntry.length) {
+                nextEntry = Arrays.copyOf(nextEntry, ValueIndex.capacityFor(e, nextEntry.length));
+            }
+            nextEntry[e] = -1;
+            if (lastEntry[d] < 0) {
+                firstEntry[d] = e;
+            } else {
+                nextEntry[lastEntry[d]] = e;
+            }
+            lastEntry[d] = e;
+        }
+
+        /**
+         * Moves domain d's exact counts into new bins, walking its chain: the entries in the order they came, as a
+         * walk over all entries would meet them, so the bins' sums are added in the same order.
+         */
+        void summariseOne(int d, LongToDoubleFunction valueOf) {
+            bins[d] = newBins();
+            anyBins = true;
+            for (int e = firstEntry[d]; e >= 0; e = nextEntry[e]) {
+                if (count[e] > 0) {
+                    bins[d].add(valueOf.applyAsDouble(entryOf(values.first(e))), count[e], weighted ? wsum[e] : 0,
+                            weighted ? wsq[e] : 0);
+                }
+            }
+            deadEntries += distinct[d];
+            if (deadEntries > 4096 && deadEntries * 2L > values.size()) {
+                dropDeadEntries();
+            }
+        }
+
+        static long key(int domain, int entry) {
+            return ((long) domain << 32) | entry;
+        }
+
+        static int domainOf(long key) {
+            return (int) (key >>> 32);
+        }
+
+        static int entryOf(long key) {
+            return (int) key;
+        }
+
+        /**
+         * Renumbers the entries of the domains still counted exactly, in the order they came, so the entries of
+         * summarised domains (never read again) stop holding memory; every walk over the entries meets the kept
+         * ones in the same order as before.
+         */
+        void dropDeadEntries() {
+            ValueIndex old = values;
+            long[] oldCount = count;
+            double[] oldSum = wsum;
+            double[] oldSq = wsq;
+            int live = old.size() - deadEntries;
+            int n = Math.max(64, Integer.highestOneBit(Math.max(live, 1)) * 2);
+            values = ValueIndex.ofLongs();
+            count = new long[n];
+            wsum = weighted ? new double[n] : null;
+            wsq = weighted ? new double[n] : null;
+            nextEntry = new int[n];
+            Arrays.fill(firstEntry, -1);
+            Arrays.fill(lastEntry, -1);
+            for (int e = 0; e < old.size(); e++) {
+                long k = old.first(e);
+                int d = domainOf(k);
+                if (bins[d] != null) {
+                    continue;
+                }
+                int f = values.add(k);
+                link(d, f);
+                count[f] = oldCount[e];
+                if (weighted) {
+                    wsum[f] = oldSum[e];
+                    wsq[f] = oldSq[e];
+                }
+            }
+            deadEntries = 0;
+        }
+
         RelativeBins newBins() {
+            anyBins = true;
             return new RelativeBins(DOMAIN_MAX_BINS, 0, single);
         }
 
@@ -318,32 +449,28 @@ final class DomainScan {
             }
         }
 
-        /**
-         * Moves the exact counts of domain {@code only} (or, when it is -1, of every domain marked in {@code which})
-         * into new bins, in one pass over the (domain, value) entries.
-         */
-        void summarise(boolean[] which, int only, LongToDoubleFunction valueOf) {
-            if (only >= 0) {
-                bins[only] = newBins();
-            } else {
-                for (int d = 0; d < which.length; d++) {
-                    if (which[d]) {
-                        bins[d] = newBins();
-                    }
+        /** Moves the exact counts of every domain marked in {@code which} into new bins, in one pass over the entries. */
+        void summarise(boolean[] which, LongToDoubleFunction valueOf) {
+            for (int d = 0; d < which.length; d++) {
+                if (which[d]) {
+                    bins[d] = newBins();
                 }
             }
             for (int e = 0; e < values.size(); e++) {
-                int d = (int) values.first(e);
-                boolean mine = only >= 0 ? d == only : d < which.length && which[d];
-                if (mine && count[e] > 0) {
-                    bins[d].add(valueOf.applyAsDouble(values.second(e)), count[e], weighted ? wsum[e] : 0,
+                int d = domainOf(values.first(e));
+                if (d < which.length && which[d] && count[e] > 0) {
+                    bins[d].add(valueOf.applyAsDouble(entryOf(values.first(e))), count[e], weighted ? wsum[e] : 0,
                             weighted ? wsq[e] : 0);
                 }
             }
         }
 
         void dropExactCounts() {
-            values = ValueIndex.ofPairs();
+            values = ValueIndex.ofLongs();
+            deadEntries = 0;
+            nextEntry = new int[64];
+            Arrays.fill(firstEntry, -1);
+            Arrays.fill(lastEntry, -1);
             count = new long[64];
             wsum = weighted ? new double[64] : null;
             wsq = weighted ? new double[64] : null;

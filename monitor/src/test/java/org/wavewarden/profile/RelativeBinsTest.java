@@ -167,4 +167,37 @@ class RelativeBinsTest {
         assertTrue(Double.isFinite(RelativeBins.binnedValue(Double.MAX_VALUE, 0)), "the largest double's bin");
         assertTrue(Double.isFinite(RelativeBins.binnedValue(-Double.MAX_VALUE, 0)));
     }
+
+    /**
+     * A caller adding one value to several summaries works out its level-0 bin once ({@link RelativeBins#fineKey});
+     * adding by that key gives the very summary adding the value gives: the same bins at the same level, the same
+     * counts and, bit for bit, the same weight sums, whatever level the summary has coarsened to.
+     */
+    @org.junit.jupiter.params.ParameterizedTest(name = "{0} bins, spread {1}, weighted {2}")
+    @org.junit.jupiter.params.provider.CsvSource({
+            "16, 0.5, false",
+            "16, 4.0, true",
+            "128, 1.0, true",
+            "128, 6.0, false",
+            "4096, 2.0, true",
+    })
+    void addingByTheFineKeyGivesTheSummaryAddingTheValueGives(int maxBins, double spread, boolean weighted) {
+        Random r = new Random(31);
+        RelativeBins byValue = new RelativeBins(maxBins, 0, false);
+        RelativeBins byKey = new RelativeBins(maxBins, 0, false);
+        for (int i = 0; i < 30_000; i++) {
+            double x = r.nextInt(10) == 0 ? -9 : (r.nextBoolean() ? 1 : -1) * Math.exp(r.nextGaussian() * spread);
+            double w = weighted ? 0.5 + r.nextDouble() : Double.NaN;
+            byValue.add(x, w);
+            byKey.add(x, RelativeBins.fineKey(x), w);
+        }
+        assertEquals(byValue.binning(), byKey.binning());
+        assertEquals(byValue.counts(), byKey.counts());
+        Map<String, double[]> a = byValue.weights();
+        Map<String, double[]> b = byKey.weights();
+        assertEquals(a.keySet(), b.keySet());
+        a.forEach((text, sums) -> assertTrue(java.util.Arrays.equals(sums, b.get(text)), text));
+        assertEquals(RelativeBins.EXACT, RelativeBins.fineKey(-9), "a code is kept exactly");
+        assertEquals(RelativeBins.EXACT, RelativeBins.fineKey(Double.NaN), "NaN is kept exactly");
+    }
 }
