@@ -152,11 +152,24 @@ final class DomainScan {
         if (binned) {
             c.bins[d].add(x, fineKey, w);
         } else {
-            int before = c.values.size();
-            int e = c.values.add(Col.key(d, entry));
-            if (e == before) {
-                c.distinct[d]++;
-                c.link(d, e);
+            long cell = Col.key(d, entry);
+            int e;
+            if (!c.numeric && c.distinct[d] >= exactNumbers) {
+                // A domain's text column keeps at most the per-domain budget of distinct values (numbers go to bins
+                // instead): a value new beyond it is counted in no domain, which is then marked truncated, as a
+                // whole wave's text column is beyond its own cap.
+                e = c.values.find(cell);
+                if (e < 0) {
+                    truncated(i, d, psu, w);
+                    return;
+                }
+            } else {
+                int before = c.values.size();
+                e = c.values.add(cell);
+                if (e == before) {
+                    c.distinct[d]++;
+                    c.link(d, e);
+                }
             }
             c.count(e, w);
             if (c.numeric && c.distinct[d] > exactNumbers) {
@@ -513,6 +526,26 @@ final class DomainScan {
 
         /** Each domain's PSU sums over all {@code psus} PSUs of the wave, zero where the domain has none. */
         List<DesignSummary.ColumnDesign> designs(int n, int psus, LongFunction<String> text) {
+            // Which domains keep every value is decided from their numbers of distinct values first, so that dense
+            // per-PSU arrays are made only for what is kept: the domains within the budget, in order, and the
+            // code-like values of the others (so that missing codes can still be taken out).
+            List<java.util.Set<Long>> distinctValues = new ArrayList<>(n);
+            for (int d = 0; d < n; d++) {
+                distinctValues.add(new java.util.HashSet<>());
+            }
+            for (int e = 0; e < cells.size(); e++) {
+                distinctValues.get((int) (cells.first(e) >>> 32)).add(cells.second(e));
+            }
+            boolean[] whole = new boolean[n];
+            long budget = MAX_CELLS; // dense per-PSU values, spent by domains in order
+            for (int d = 0; d < n; d++) {
+                long dense = (long) distinctValues.get(d).size() * psus;
+                whole[d] = !capped && !waveBinned && bins[d] == null && !truncated[d] && dense <= budget;
+                if (whole[d]) {
+                    budget -= dense;
+                }
+            }
+            Map<Long, String> texts = new java.util.HashMap<>();
             List<Map<Long, double[]>> byValue = new ArrayList<>(n);
             for (int d = 0; d < n; d++) {
                 byValue.add(new LinkedHashMap<>());
@@ -521,19 +554,18 @@ final class DomainScan {
                 long dp = cells.first(e);
                 int d = (int) (dp >>> 32);
                 int psu = (int) dp;
-                byValue.get(d).computeIfAbsent(cells.second(e), k -> new double[psus])[psu] += cellWeight[e];
+                long key = cells.second(e);
+                if (!whole[d] && !DesignScan.isCodeLikeText(texts.computeIfAbsent(key, text::apply))) {
+                    continue;
+                }
+                byValue.get(d).computeIfAbsent(key, k -> new double[psus])[psu] += cellWeight[e];
             }
             List<DesignSummary.ColumnDesign> out = new ArrayList<>(n);
-            long budget = MAX_CELLS; // dense per-PSU values, spent by domains in order
             for (int d = 0; d < n; d++) {
-                long dense = (long) byValue.get(d).size() * psus;
-                boolean complete = !capped && !waveBinned && bins[d] == null && !truncated[d] && dense <= budget;
-                if (complete) {
-                    budget -= dense;
-                }
+                boolean complete = whole[d];
                 Map<String, double[]> kept = new LinkedHashMap<>();
                 byValue.get(d).forEach((key, sums) -> {
-                    String t = text.apply(key);
+                    String t = texts.computeIfAbsent(key, text::apply);
                     if (complete || DesignScan.isCodeLikeText(t)) {
                         double[] before = kept.get(t);
                         if (before == null) {
