@@ -117,7 +117,7 @@ public final class BinaryWaveScanner implements WaveScanner {
             dom[j] = new DomainScan(breakdowns.get(j).name(), domains.maxDomains(), domainExactNumbers(), numeric,
                     single, weight != null, design != null, tallies);
         }
-        int[] rowDomain = new int[m]; // this row's domain per breakdown column; -1 for none
+        DomainRows held = m == 0 ? null : new DomainRows(dom, numeric, DomainRows.ROWS);
         int[][] pairAt = new int[pairs.size()][];
         PairCounter[] joint = new PairCounter[pairs.size()];
         boolean[] inPair = new boolean[k];
@@ -167,12 +167,15 @@ public final class BinaryWaveScanner implements WaveScanner {
                     String stratum = hasStrata ? in.text() : "";
                     psu = ds.psu(stratum, in.text());
                 }
+                if (held != null) {
+                    held.row(w, psu);
+                }
                 for (int j = 0; j < m; j++) {
                     int len = in.int32();
                     if (len >= 0) {
                         in.need(len);
                     }
-                    rowDomain[j] = dom[j].domain(in.buf, in.pos, len);
+                    held.domain(j, dom[j].domain(in.buf, in.pos, len));
                     in.pos += Math.max(len, 0);
                 }
                 for (int i = 0; i < fields - first; i++) {
@@ -184,10 +187,8 @@ public final class BinaryWaveScanner implements WaveScanner {
                     if (len < 0) {
                         nulls[i]++;
                         value[i] = Double.NaN;
-                        for (int j = 0; j < m; j++) {
-                            if (rowDomain[j] >= 0) {
-                                dom[j].nullCell(i, rowDomain[j]);
-                            }
+                        if (held != null) {
+                            held.cell(i, DomainRows.NULL, Double.NaN, 0, false);
                         }
                         continue;
                     }
@@ -208,10 +209,8 @@ public final class BinaryWaveScanner implements WaveScanner {
                         if (ds != null && psu >= 0) {
                             ds.addBinned(i, psu, x, w);
                         }
-                        for (int j = 0; j < m; j++) {
-                            if (rowDomain[j] >= 0) {
-                                dom[j].addNumber(i, rowDomain[j], psu, x, fine, w);
-                            }
+                        if (held != null) {
+                            held.cell(i, DomainRows.NUMBER, x, fine, true);
                         }
                         in.pos += len;
                         continue;
@@ -226,24 +225,16 @@ public final class BinaryWaveScanner implements WaveScanner {
                         if (ds != null && psu >= 0) {
                             ds.add(i, psu, entry, x, w);
                         }
-                        long fine = RelativeBins.EXACT; // read only by a domain in bins, and then worked out
-                        if (numeric[i]) {
-                            for (int j = 0; j < m; j++) {
-                                if (rowDomain[j] >= 0 && dom[j].binsIn(i)) {
-                                    fine = RelativeBins.fineKey(x);
-                                    break;
-                                }
-                            }
-                        }
-                        for (int j = 0; j < m; j++) {
-                            if (rowDomain[j] >= 0) {
-                                dom[j].add(i, rowDomain[j], psu, entry, x, fine, w);
-                            }
+                        if (held != null) { // the bin key is worked out when a domain in bins needs it
+                            held.cell(i, entry, x, 0, false);
                         }
                     } else if (numeric[i]) {
                         ValueTally t = tallies[i];
                         if (ds != null) {
                             ds.toBins(i, e -> t.number((int) e));
+                        }
+                        if (held != null) {
+                            held.flush(); // the domains take the rows so far with the column's exact entries
                         }
                         for (int j = 0; j < m; j++) {
                             dom[j].toBins(i, e -> t.number((int) e));
@@ -258,20 +249,16 @@ public final class BinaryWaveScanner implements WaveScanner {
                         if (ds != null && psu >= 0) {
                             ds.addBinned(i, psu, x, w);
                         }
-                        for (int j = 0; j < m; j++) {
-                            if (rowDomain[j] >= 0) {
-                                dom[j].addNumber(i, rowDomain[j], psu, x, fine, w);
-                            }
+                        if (held != null) {
+                            held.cell(i, DomainRows.NUMBER, x, fine, true);
                         }
                     } else {
                         truncated[i] = true;
                         if (ds != null) {
                             ds.incomplete(i);
                         }
-                        for (int j = 0; j < m; j++) {
-                            if (rowDomain[j] >= 0) {
-                                dom[j].truncated(i, rowDomain[j], psu, w);
-                            }
+                        if (held != null) {
+                            held.cell(i, DomainRows.TRUNCATED, x, 0, false);
                         }
                     }
                     in.pos += len;
@@ -283,10 +270,16 @@ public final class BinaryWaveScanner implements WaveScanner {
                         joint[j].add(x, y);
                     }
                 }
+                if (held != null) {
+                    held.endRow();
+                }
                 rows++;
                 if ((rows & 0xFFFF) == 0 && progress != null) {
                     progress.accept(rows);
                 }
+            }
+            if (held != null) {
+                held.flush();
             }
             while (copy.readFromCopy() != null) {
                 // the trailer came; reading on to the end completes the COPY so the connection is usable again

@@ -24,8 +24,9 @@ import java.util.function.LongToDoubleFunction;
  * monitored cell of the row is counted in its domain, with no object per cell.
  *
  * <p>A cell's value is keyed by its entry in the whole wave's {@link ValueTally} (so a value is decoded and held once,
- * however many domains it occurs in); per monitored column one {@link ValueIndex} numbers the (domain, value) pairs
- * and plain arrays hold their counts and weight sums. A numeric column is summarised per domain in
+ * however many domains it occurs in). Per monitored column, the first {@link #DENSE_ENTRIES} entries are counted in
+ * plain arrays indexed by (domain, entry), and one {@link ValueIndex} numbers the (domain, value) pairs of later
+ * entries, whose counts and weight sums sit in plain arrays too. A numeric column is summarised per domain in
  * {@link RelativeBins} of {@link #DOMAIN_MAX_BINS} once the domain holds more than the scan's per-domain budget of
  * distinct values, and every domain is summarised as soon as the whole wave's column is (its value entries are then
  * gone); code-like numbers stay exact, as {@link RelativeBins} keeps them. The entries of domains summarised since
@@ -60,6 +61,15 @@ final class DomainScan {
      * error bound is stated in the domain's {@link ColumnTally#binning()}.
      */
     static final int DOMAIN_MAX_BINS = RelativeBins.DEFAULT_MAX_BINS / 32;
+
+    /**
+     * Whole-wave value entries counted per domain in plain arrays indexed by (domain, entry) rather than in a hash
+     * table: the first 64 distinct values of a column, which for coded answers, ages, dates and short scales are all
+     * of them. A hash lookup per cell and domain missed the cache and cost about ten plain scans with 300
+     * interviewers; an array slot is one load. At most maxDomains x 64 slots per monitored column (256 kB for 500
+     * domains, three times that with weights); the later entries of a wide column go to the hash table as before.
+     */
+    static final int DENSE_ENTRIES = 64;
 
     private final String column;
     private final int maxDomains;
@@ -151,6 +161,25 @@ final class DomainScan {
         boolean binned = c.bins[d] != null;
         if (binned) {
             c.bins[d].add(x, fineKey, w);
+        } else if (entry < DENSE_ENTRIES) {
+            int k = c.slot(d, entry);
+            if (c.dcount[k] == 0) {
+                if (!c.numeric && c.distinct[d] >= exactNumbers) {
+                    truncated(i, d, psu, w); // as below: a value new beyond the domain's budget
+                    return;
+                }
+                c.distinct[d]++;
+            }
+            c.dcount[k]++;
+            if (weighted && !Double.isNaN(w)) {
+                c.dwsum[k] += w;
+                c.dwsq[k] += w * w;
+            }
+            if (c.numeric && c.distinct[d] > exactNumbers) {
+                ValueTally t = wave[i];
+                c.summariseOne(d, key -> t.number((int) key));
+                binned = true;
+            }
         } else {
             long cell = Col.key(d, entry);
             int e;
@@ -264,7 +293,29 @@ final class DomainScan {
                 sums.add(c.bins[d] != null && weighted ? c.bins[d].weights() : new HashMap<>());
             }
             // A value held by many domains is turned into text once, and its domains share the one String.
-            String[] textOf = new String[16];
+            String[] textOf = new String[Math.max(16, c.width)];
+            for (int d = 0; d < n && c.width > 0; d++) {
+                if (c.bins[d] != null || d >= c.denseRows) {
+                    continue;
+                }
+                for (int entry = 0; entry < c.width; entry++) {
+                    int k = d * c.width + entry;
+                    if (c.dcount[k] == 0) {
+                        continue;
+                    }
+                    String v = textOf[entry];
+                    if (v == null) {
+                        v = texts.get(i).apply(entry);
+                        textOf[entry] = v;
+                    }
+                    counts.get(d).merge(v, c.dcount[k], Long::sum);
+                    if (weighted) {
+                        double[] cell = sums.get(d).computeIfAbsent(v, x -> new double[2]);
+                        cell[0] += c.dwsum[k];
+                        cell[1] += c.dwsq[k];
+                    }
+                }
+            }
             for (int e = 0; e < c.values.size(); e++) {
                 int d = Col.domainOf(c.values.first(e));
                 if (c.bins[d] != null) {
@@ -333,6 +384,12 @@ final class DomainScan {
         private long[] count = new long[64];
         private double[] wsum = weighted ? new double[64] : null;
         private double[] wsq = weighted ? new double[64] : null;
+        // Entries below DENSE_ENTRIES: slot d * width + entry, for denseRows domains; width grows in powers of two.
+        private int width;
+        private int denseRows;
+        private long[] dcount;
+        private double[] dwsum;
+        private double[] dwsq;
         private ValueIndex cells = ValueIndex.ofPairs(); // (domain << 32 | PSU, value key); weight in cellWeight
         private double[] cellWeight = new double[256];
         private boolean capped;
@@ -361,6 +418,55 @@ final class DomainScan {
             }
         }
 
+        /** The dense slot of (domain d, whole-wave entry e < DENSE_ENTRIES), the arrays grown to hold it. */
+        int slot(int d, int e) {
+            if (e >= width || d >= denseRows) {
+                int w = Math.max(width, Math.min(DENSE_ENTRIES, Math.max(8, Integer.highestOneBit(e) * 2)));
+                int r = Math.max(denseRows, Math.max(nulls.length, d + 1));
+                long[] nc = new long[r * w];
+                double[] nw = weighted ? new double[r * w] : null;
+                double[] nq = weighted ? new double[r * w] : null;
+                for (int row = 0; row < denseRows; row++) {
+                    System.arraycopy(dcount, row * width, nc, row * w, width);
+                    if (weighted) {
+                        System.arraycopy(dwsum, row * width, nw, row * w, width);
+                        System.arraycopy(dwsq, row * width, nq, row * w, width);
+                    }
+                }
+                dcount = nc;
+                dwsum = nw;
+                dwsq = nq;
+                width = w;
+                denseRows = r;
+            }
+            return d * width + e;
+        }
+
+        /**
+         * Adds domain d's exact counts to its bins: the dense slots in entry order, then its chain of other entries
+         * in the order they came; returns how many chained entries there were.
+         */
+        int addCountsTo(RelativeBins b, int d, LongToDoubleFunction valueOf) {
+            if (d < denseRows) {
+                for (int entry = 0; entry < width; entry++) {
+                    int k = d * width + entry;
+                    if (dcount[k] > 0) {
+                        b.add(valueOf.applyAsDouble(entry), dcount[k], weighted ? dwsum[k] : 0,
+                                weighted ? dwsq[k] : 0);
+                    }
+                }
+            }
+            int chained = 0;
+            for (int e = firstEntry[d]; e >= 0; e = nextEntry[e]) {
+                chained++;
+                if (count[e] > 0) {
+                    b.add(valueOf.applyAsDouble(entryOf(values.first(e))), count[e], weighted ? wsum[e] : 0,
+                            weighted ? wsq[e] : 0);
+                }
+            }
+            return chained;
+        }
+
         /** Entry e, new in values, joins the end of domain d's chain. */
         void link(int d, int e) {
             if (e >= nextEntry.length) {
@@ -382,13 +488,7 @@ final class DomainScan {
         void summariseOne(int d, LongToDoubleFunction valueOf) {
             bins[d] = newBins();
             anyBins = true;
-            for (int e = firstEntry[d]; e >= 0; e = nextEntry[e]) {
-                if (count[e] > 0) {
-                    bins[d].add(valueOf.applyAsDouble(entryOf(values.first(e))), count[e], weighted ? wsum[e] : 0,
-                            weighted ? wsq[e] : 0);
-                }
-            }
-            deadEntries += distinct[d];
+            deadEntries += addCountsTo(bins[d], d, valueOf);
             if (deadEntries > 4096 && deadEntries * 2L > values.size()) {
                 dropDeadEntries();
             }
@@ -462,23 +562,22 @@ final class DomainScan {
             }
         }
 
-        /** Moves the exact counts of every domain marked in {@code which} into new bins, in one pass over the entries. */
+        /** Moves the exact counts of every domain marked in {@code which} into new bins, as {@link #summariseOne} does. */
         void summarise(boolean[] which, LongToDoubleFunction valueOf) {
             for (int d = 0; d < which.length; d++) {
                 if (which[d]) {
                     bins[d] = newBins();
-                }
-            }
-            for (int e = 0; e < values.size(); e++) {
-                int d = domainOf(values.first(e));
-                if (d < which.length && which[d] && count[e] > 0) {
-                    bins[d].add(valueOf.applyAsDouble(entryOf(values.first(e))), count[e], weighted ? wsum[e] : 0,
-                            weighted ? wsq[e] : 0);
+                    addCountsTo(bins[d], d, valueOf);
                 }
             }
         }
 
         void dropExactCounts() {
+            width = 0;
+            denseRows = 0;
+            dcount = null;
+            dwsum = null;
+            dwsq = null;
             values = ValueIndex.ofLongs();
             deadEntries = 0;
             nextEntry = new int[64];
