@@ -31,18 +31,21 @@ public record BenchReport(Instant generatedAt, Setup setup, List<Measurement> me
 
     /**
      * Median check time over the median floor times, a check with 30 earlier waves over one with 2, and the scan
-     * with breakdowns over the floors and over the plain scan (NaN without the breakdown case).
+     * with breakdowns over the floors and over the plain scan, and the check with breakdowns over the binary COPY and
+     * over the check without them (NaN without the breakdown case).
      */
     public record Ratios(double checkOverCountScan, double checkOverBinaryCopy, double historyOverTwoWaves,
                          double breakdownsOverCountScan, double breakdownsOverBinaryCopy,
-                         double breakdownsOverPlainScan) {
+                         double breakdownsOverPlainScan, double checkWithBreakdownsOverBinaryCopy,
+                         double checkWithBreakdownsOverCheck) {
 
         static Ratios of(List<Measurement> ms) {
             double b = median(ms, "b_check");
             double d = median(ms, "d_scan_breakdowns");
-            return new Ratios(b / median(ms, "a1_count_scan"), b / median(ms, "a2_binary_copy"),
-                    median(ms, "c_check_history") / b, d / median(ms, "a1_count_scan"),
-                    d / median(ms, "a2_binary_copy"), d / median(ms, "scan_only"));
+            double e = median(ms, "e_check_breakdowns");
+            double a2 = median(ms, "a2_binary_copy");
+            return new Ratios(b / median(ms, "a1_count_scan"), b / a2, median(ms, "c_check_history") / b,
+                    d / median(ms, "a1_count_scan"), d / a2, d / median(ms, "scan_only"), e / a2, e / b);
         }
     }
 
@@ -80,6 +83,8 @@ public record BenchReport(Instant generatedAt, Setup setup, List<Measurement> me
             out.printf(Locale.ROOT, "scan with breakdowns / count scan (d/a1) %.2f; / binary COPY (d/a2) %.2f;"
                     + " / scan without them %.2f%n", q.breakdownsOverCountScan(), q.breakdownsOverBinaryCopy(),
                     q.breakdownsOverPlainScan());
+            out.printf(Locale.ROOT, "check with breakdowns / binary COPY (e/a2) %.2f; / check without them (e/b) %.2f%n",
+                    q.checkWithBreakdownsOverBinaryCopy(), q.checkWithBreakdownsOverCheck());
         }
         r.sourceStatementsPerCheck().forEach((k, v) -> out.printf(Locale.ROOT,
                 "%-26s source statements %d (table queries %d, catalog queries %d, COPY %d, other raw %d): %d scans%n",

@@ -156,7 +156,8 @@ public final class RelativeBins {
 
     /** A level-0 bin key moved up {@code levels} levels: ceil(i / 2^levels), as {@link #key} computes it. */
     private static long coarser(long fineKey, int levels) {
-        long i = -Math.floorDiv(-(fineKey >> 1), 1L << levels);
+        // ceil(i / 2^levels) = -floor(-i / 2^levels), the floor by an arithmetic shift: no division per value
+        long i = -((-(fineKey >> 1)) >> levels);
         return (i << 1) | (fineKey & 1);
     }
 

@@ -69,7 +69,7 @@ final class DomainScan {
      * interviewers; an array slot is one load. At most maxDomains x 64 slots per monitored column (256 kB for 500
      * domains, three times that with weights); the later entries of a wide column go to the hash table as before.
      */
-    static final int DENSE_ENTRIES = 64;
+    static final int DENSE_ENTRIES = 128;
 
     private final String column;
     private final int maxDomains;
