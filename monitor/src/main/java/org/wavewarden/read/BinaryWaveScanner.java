@@ -117,7 +117,7 @@ public final class BinaryWaveScanner implements WaveScanner {
             dom[j] = new DomainScan(breakdowns.get(j).name(), domains.maxDomains(), domainExactNumbers(), numeric,
                     single, weight != null, design != null, tallies);
         }
-        DomainRows held = m == 0 ? null : new DomainRows(dom, numeric, DomainRows.ROWS);
+        DomainRows held = m == 0 ? null : new DomainRows(dom, numeric, DomainRows.rowsFor(k));
         int[][] pairAt = new int[pairs.size()][];
         PairCounter[] joint = new PairCounter[pairs.size()];
         boolean[] inPair = new boolean[k];

@@ -95,6 +95,14 @@ class DomainRowsTest {
         assertEquals(expected, render(chunked.result(columns, texts, designed ? 9 : 0)));
     }
 
+    @org.junit.jupiter.api.Test
+    void aChunkHoldsAboutAMillionCellsWhateverTheColumns() {
+        assertEquals(26_214, DomainRows.rowsFor(40));
+        assertEquals(65_536, DomainRows.rowsFor(1)); // at most 65,536 rows
+        assertEquals(65_536, DomainRows.rowsFor(0));
+        assertEquals(1_024, DomainRows.rowsFor(5_000)); // at least 1,024 rows
+    }
+
     /**
      * Column 0: a short scale (dense slots); 1: 150 values (past the dense slots); 2: continuous (bins past the
      * budget); 3: codes and a continuous part; 4: a few values with a code.
