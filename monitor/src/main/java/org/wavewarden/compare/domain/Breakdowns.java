@@ -42,7 +42,8 @@ import java.util.Set;
  * whose change has no variance (every answer the same in both waves) carries no sampling evidence and is left out of
  * the test (it keeps its own row); the rest may still be dependent (a design with fewer PSUs than domains), so the
  * inverse is the Moore-Penrose pseudo-inverse and the degrees of freedom its rank. With fewer than two testable
- * domains the statistic is 0 with 0 degrees of freedom and p = 1: nothing speaks against equal changes.
+ * domains the statistic is 0 with 0 degrees of freedom and p = 1: nothing speaks against equal changes. Without a
+ * design V is diagonal, and W is computed in its closed form, Cochran's Q ({@link Wald#cochran}).
  *
  * <p><b>Decomposition.</b> A domain's share is its part of the measure's base over the whole wave (the weight of
  * its valid answers; its rows for a RATE). With {@code s} those shares and {@code m} the domains' measures the

@@ -51,7 +51,8 @@ record Wald(double statistic, int df, double pValue) {
     /**
      * Whether the testable domains' estimates are uncorrelated (every covariance between them exactly zero, as
      * without a design, where each respondent is its own PSU and the domains share none) and their variances within
-     * a factor 1e6 of each other, so that no contrast is near the rank tolerance and W has full rank m - 1.
+     * a factor 1e6 of each other (common practice, no source), so that no contrast is near the rank tolerance and W
+     * has full rank m - 1.
      */
     static boolean independent(double[][] v, List<Integer> testable) {
         double low = Double.POSITIVE_INFINITY;
@@ -70,8 +71,9 @@ record Wald(double statistic, int df, double pValue) {
 
     /**
      * W for uncorrelated estimates in closed form: {@code sum w_i (d_i - d_w)^2}, w_i the inverse variances and d_w
-     * the weighted mean, on m - 1 degrees of freedom (Cochran's Q; with a diagonal V it equals the contrast form
-     * below, which needs an eigendecomposition of order m: seconds for hundreds of interviewers).
+     * the weighted mean, on m - 1 degrees of freedom (Cochran's Q, Biometrics 10, 1954, cited from memory; with a
+     * diagonal V it equals the contrast form below, which needs an eigendecomposition of order m: about 0.1 s for 300
+     * interviewers, per finding).
      */
     static Wald cochran(double[] change, double[][] v, List<Integer> testable) {
         double sw = 0;
