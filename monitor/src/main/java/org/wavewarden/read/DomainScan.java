@@ -293,26 +293,16 @@ final class DomainScan {
                 sums.add(c.bins[d] != null && weighted ? c.bins[d].weights() : new HashMap<>());
             }
             // A value held by many domains is turned into text once, and its domains share the one String.
-            String[] textOf = new String[Math.max(16, c.width)];
+            EntryTexts textOf = new EntryTexts(texts.get(i));
             for (int d = 0; d < n && c.width > 0; d++) {
                 if (c.bins[d] != null || d >= c.denseRows) {
                     continue;
                 }
                 for (int entry = 0; entry < c.width; entry++) {
                     int k = d * c.width + entry;
-                    if (c.dcount[k] == 0) {
-                        continue;
-                    }
-                    String v = textOf[entry];
-                    if (v == null) {
-                        v = texts.get(i).apply(entry);
-                        textOf[entry] = v;
-                    }
-                    counts.get(d).merge(v, c.dcount[k], Long::sum);
-                    if (weighted) {
-                        double[] cell = sums.get(d).computeIfAbsent(v, x -> new double[2]);
-                        cell[0] += c.dwsum[k];
-                        cell[1] += c.dwsq[k];
+                    if (c.dcount[k] > 0) {
+                        put(counts.get(d), sums.get(d), textOf.of(entry), c.dcount[k], weighted ? c.dwsum[k] : 0,
+                                weighted ? c.dwsq[k] : 0);
                     }
                 }
             }
@@ -321,21 +311,8 @@ final class DomainScan {
                 if (c.bins[d] != null) {
                     continue; // counted in the domain's bins since
                 }
-                int entry = Col.entryOf(c.values.first(e));
-                if (entry >= textOf.length) {
-                    textOf = Arrays.copyOf(textOf, Math.max(entry + 1, textOf.length * 2));
-                }
-                String v = textOf[entry];
-                if (v == null) {
-                    v = texts.get(i).apply(entry);
-                    textOf[entry] = v;
-                }
-                counts.get(d).merge(v, c.count[e], Long::sum);
-                if (weighted) {
-                    double[] cell = sums.get(d).computeIfAbsent(v, k -> new double[2]);
-                    cell[0] += c.wsum[e];
-                    cell[1] += c.wsq[e];
-                }
+                put(counts.get(d), sums.get(d), textOf.of(Col.entryOf(c.values.first(e))), c.count[e],
+                        weighted ? c.wsum[e] : 0, weighted ? c.wsq[e] : 0);
             }
             List<ColumnTally> perDomain = new ArrayList<>(n);
             for (int d = 0; d < n; d++) {
@@ -354,6 +331,39 @@ final class DomainScan {
         int overflowDomains = overflowLabels.size();
         return new DomainTally(column, domains, Arrays.copyOf(rows, n), nullRows, overflowDomains, overflowRows,
                 tallies, weights, designs);
+    }
+
+    /** Adds one value's count, and with weights its sums, to a domain's tallies. */
+    private void put(Map<String, Long> counts, Map<String, double[]> sums, String v, long count, double w,
+                     double w2) {
+        counts.merge(v, count, Long::sum);
+        if (weighted) {
+            double[] cell = sums.computeIfAbsent(v, k -> new double[2]);
+            cell[0] += w;
+            cell[1] += w2;
+        }
+    }
+
+    /** The text of a whole-wave value entry, made once: a value held by many domains shares the one String. */
+    private static final class EntryTexts {
+        private final LongFunction<String> text;
+        private String[] made = new String[16];
+
+        EntryTexts(LongFunction<String> text) {
+            this.text = text;
+        }
+
+        String of(int entry) {
+            if (entry >= made.length) {
+                made = Arrays.copyOf(made, Math.max(entry + 1, made.length * 2));
+            }
+            String v = made[entry];
+            if (v == null) {
+                v = text.apply(entry);
+                made[entry] = v;
+            }
+            return v;
+        }
     }
 
     private static int[] filled(int n) {
