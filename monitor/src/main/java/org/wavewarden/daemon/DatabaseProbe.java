@@ -55,7 +55,18 @@ final class DatabaseProbe implements AutoCloseable {
         String problem = null;
         String unreachable = null;
         for (Map.Entry<String, HikariDataSource> e : pools.entrySet()) {
-            try (Connection c = e.getValue().getConnection()) {
+            HikariDataSource pool = e.getValue();
+            Connection c;
+            try {
+                c = pool.getConnection();
+            } catch (SQLException | RuntimeException ex) {
+                // No connection to blame: the pool is still making one (a slow start after an outage may take
+                // longer than this check waits) or cannot reach the database; either way the next check asks again.
+                problem = "the " + e.getKey() + " database is unreachable: " + ex.getMessage();
+                unreachable = e.getKey();
+                break;
+            }
+            try (c) {
                 if (!c.isValid(validSeconds)) {
                     problem = "the " + e.getKey() + " database did not answer";
                 }
@@ -63,13 +74,11 @@ final class DatabaseProbe implements AutoCloseable {
                 problem = "the " + e.getKey() + " database is unreachable: " + ex.getMessage();
             }
             if (problem != null) {
+                // This connection may be the one the outage broke: the next check gets a new one rather than
+                // asking the pool to vouch for it again. Only this one: evicting the pool's others as well would
+                // throw away a connection just made, and under load the probe then never catches one.
+                pool.evictConnection(c);
                 unreachable = e.getKey();
-                // The probe's connection may be the one the outage broke: the next check gets a new one rather
-                // than asking the pool to vouch for it again.
-                var pool = e.getValue().getHikariPoolMXBean();
-                if (pool != null) {
-                    pool.softEvictConnections();
-                }
                 break;
             }
         }
