@@ -264,13 +264,19 @@ class CaseListsIntegrationTest {
         assertTrue(Files.exists(again.out().resolve(now.fileName())));
     }
 
+    /** Judges w2 of a dataset against w1: no case list is stored and no row is read for one. */
+    private Judged judgedWithoutCaseLists(String dataset) {
+        judge(config.dataset(dataset), "w1");
+        Judged j = judge(config.dataset(dataset), "w2");
+        assertEquals(List.of(), session.store().caseLists().forRun(j.wave().runId()));
+        assertEquals(0, j.caseReads().tableQueries(), j.caseReads().toString());
+        return j;
+    }
+
     @Test
     @Order(5)
     void withoutARespondentKeyThereIsNoListNoReadAndTheNotesSaySoOnce() {
-        judge(config.dataset("hh-nokey"), "w1");
-        Judged j = judge(config.dataset("hh-nokey"), "w2");
-        assertEquals(List.of(), session.store().caseLists().forRun(j.wave().runId()));
-        assertEquals(0, j.caseReads().tableQueries(), j.caseReads().toString());
+        Judged j = judgedWithoutCaseLists("hh-nokey");
         List<String> notes = j.wave().report().inference().stream().filter(n -> n.startsWith("No case lists"))
                 .toList();
         assertEquals(1, notes.size(), j.wave().report().inference().toString());
@@ -281,10 +287,7 @@ class CaseListsIntegrationTest {
     @Test
     @Order(5)
     void aDatasetThatConfiguresNoBreakdownsIsNotToldAboutCaseLists() {
-        judge(config.dataset("hh-plain"), "w1");
-        Judged j = judge(config.dataset("hh-plain"), "w2");
-        assertEquals(List.of(), session.store().caseLists().forRun(j.wave().runId()));
-        assertEquals(0, j.caseReads().tableQueries(), j.caseReads().toString());
+        Judged j = judgedWithoutCaseLists("hh-plain");
         assertFalse(j.wave().report().findings().isEmpty(), "the wave still has its findings");
         assertEquals(List.of(), j.wave().report().inference().stream().filter(n -> n.startsWith("No case lists"))
                 .toList());
