@@ -25,6 +25,7 @@ import org.openqa.selenium.interactions.Actions;
 import org.openqa.selenium.logging.LogEntry;
 import org.openqa.selenium.logging.LogType;
 import org.openqa.selenium.logging.LoggingPreferences;
+import org.openqa.selenium.support.ui.ExpectedConditions;
 import org.openqa.selenium.support.ui.Select;
 import org.openqa.selenium.support.ui.WebDriverWait;
 import org.wavewarden.config.ConsoleConfig;
@@ -276,18 +277,35 @@ class ConsoleBrowserTest {
         noConsoleErrors(null);
     }
 
+    /**
+     * Clicks a link or a form's button and waits until the page it leads to has replaced this one and finished
+     * loading: the click returns as soon as the browser took it, and on a busy machine the next page may come
+     * seconds later, so a look at the page straight after the click would still see the old one.
+     */
+    void follow(WebElement target) {
+        WebElement page = driver.findElement(By.tagName("html"));
+        target.click();
+        awaitNewPage(page);
+    }
+
+    void awaitNewPage(WebElement oldPage) {
+        WebDriverWait wait = new WebDriverWait(driver, Duration.ofSeconds(60));
+        wait.until(ExpectedConditions.stalenessOf(oldPage));
+        wait.until(d -> "complete".equals(((JavascriptExecutor) d).executeScript("return document.readyState")));
+    }
+
     /** Logs in through the login form, from wherever the browser was sent to log in. */
     void logIn(String name) {
         assertTrue(path().startsWith("/console/login"), "expected the login page, at " + path());
         find("#login-name").sendKeys(name);
         find("#login-password").sendKeys(PASSWORDS.get(name));
-        find("#login-form button[type=submit]").click();
+        follow(find("#login-form button[type=submit]"));
         assertEquals(name, find("#user").getText());
     }
 
     void logOut() {
-        find("#logout").click();
-        waitForPath("/console/login"); // the logout form's post loads the login page; the click does not wait for it
+        follow(find("#logout"));
+        assertTrue(path().startsWith("/console/login"), "the logout lands on the login page: " + path());
         noConsoleErrors();
     }
 
@@ -329,13 +347,13 @@ class ConsoleBrowserTest {
     @Test
     @Order(2)
     void theGridFilteredToMaterialLeadsToAMaterialFinding() {
-        find("#datasets").findElement(By.linkText(DATASET)).click();
+        follow(find("#datasets").findElement(By.linkText(DATASET)));
         assertTrue(present("#grid"), "the dataset's grid");
         assertTrue(present("#legend"), "the grid's legend");
         noConsoleErrors();
 
         new Select(find("#filter-verdict")).selectByValue("MATERIAL");
-        find("#grid-filter button[type=submit]").click();
+        follow(find("#grid-filter button[type=submit]"));
         assertTrue(path().contains("verdict=MATERIAL"), "the filter is in the address: " + path());
         List<WebElement> cells = driver.findElements(By.cssSelector("#grid td a[href^='/console/finding']"));
         assertFalse(cells.isEmpty(), "the demo's household survey has MATERIAL findings");
@@ -348,7 +366,7 @@ class ConsoleBrowserTest {
         // A cell whose alert is still open, so that it can be explained.
         List<WebElement> open = driver.findElements(By.cssSelector("#grid td.c-material.a-open a"));
         assertFalse(open.isEmpty(), "a MATERIAL finding with an open alert");
-        open.get(0).click();
+        follow(open.get(0));
         assertTrue(path().startsWith("/console/finding?id="), "the cell opens its finding: " + path());
         findingPath = path();
         assertTrue(find("p.meta").getText().contains("MATERIAL"), find("p.meta").getText());
@@ -374,7 +392,7 @@ class ConsoleBrowserTest {
         alertId = Long.parseLong(find("#explain-form input[name=alert]").getAttribute("value"));
         new Select(find("#explain-reason")).selectByValue("real-change");
         find("#explain-note").sendKeys(EXPLAIN_NOTE);
-        find("#explain-form button[type=submit]").click();
+        follow(find("#explain-form button[type=submit]"));
 
         assertEquals("The alert was explained.", notice());
         String history = find("#history").getText();
@@ -388,7 +406,7 @@ class ConsoleBrowserTest {
     void theReleaserSignsTheWaveOffDecidingFromTheWavePage() {
         WebElement waveLink = find("p.meta a[href^='/console/wave']");
         wave = waveLink.getText();
-        waveLink.click();
+        follow(waveLink);
         assertTrue(path().startsWith("/console/wave?"), path());
         assertTrue(present("#signoff-form"), "a releaser has the sign-off form");
         noConsoleErrors();
@@ -401,7 +419,7 @@ class ConsoleBrowserTest {
             find("#signoff-force").click();
             find("#signoff-reason").sendKeys(FORCE_REASON);
         }
-        find("#signoff-form button[type=submit]").click();
+        follow(find("#signoff-form button[type=submit]"));
         System.out.println("signed off wave " + wave + " of " + DATASET + (forced ? " by force: a MATERIAL alert"
                 + " was still open" : " without force: no MATERIAL alert was left open"));
 
@@ -458,6 +476,7 @@ class ConsoleBrowserTest {
         String csrf = find("#logout-form input[name=csrf]").getAttribute("value");
 
         // The form the page does not offer, built in the page with the viewer's valid token and posted by the browser.
+        WebElement page = driver.findElement(By.tagName("html"));
         ((JavascriptExecutor) driver).executeScript(
                 "const f = document.createElement('form'); f.method = 'post'; f.action = '/console/signoff';"
                         + "for (const [k, v] of Object.entries(arguments[0])) {"
@@ -466,6 +485,7 @@ class ConsoleBrowserTest {
                         + "document.body.appendChild(f); f.submit();",
                 Map.of("dataset", DATASET, "wave", wave, "release", "viewer-try", "force", "true",
                         "reason", "a viewer tries", "csrf", csrf));
+        awaitNewPage(page);
         waitForPath("/console/signoff");
         assertTrue(find("h1").getText().startsWith("403"), find("h1").getText());
         assertTrue(find("#problem").getText().contains("releaser"), find("#problem").getText());
@@ -504,7 +524,7 @@ class ConsoleBrowserTest {
         assertFalse(present("#explain-form input[name=csrf]"));
         new Select(find("#explain-reason")).selectByValue("no-problem");
         find("#explain-note").sendKeys("posted without its token");
-        find("#explain-form button[type=submit]").click();
+        follow(find("#explain-form button[type=submit]"));
         waitForPath("/console/alert/explain");
 
         assertTrue(find("h1").getText().startsWith("403"), find("h1").getText());
