@@ -30,6 +30,9 @@ public final class RelativeBins {
     /** Bins kept before neighbours merge; about 1,700 span a factor of 5 at level 0. */
     public static final int DEFAULT_MAX_BINS = 4096;
 
+    private static final int[] NO_WINDOW = new int[0];
+    private static final int WINDOW_PER_BIN = 4;
+
     /** Significant digits a stand-in is printed with; the rounding adds at most half a unit in the last place. */
     private static final int DIGITS = 7;
     private static final double ROUNDING = 5e-7;
@@ -40,6 +43,14 @@ public final class RelativeBins {
     private final boolean singlePrecision;
     private int level;
     private ValueIndex bins = ValueIndex.ofLongs(); // bin keys numbered; each bin's sums in the arrays below
+    // The entries of the keys in a window of neighbouring keys, looked up by position: slot[key - lowKey] is the
+    // bin's entry plus one (0: not looked up here yet). A value's bin lies near the others', so nearly every key
+    // falls in the window, and one array load replaces a hash probe, which for a whole wave's thousands of bins and
+    // a scan's thousands of domain summaries missed the cache. The hash index still numbers the bins, so the
+    // entries, and everything read from them, are the same as without the window. At most WINDOW_PER_BIN keys per
+    // bin of the budget (4 bytes each); a key beyond that span is looked up in the hash index alone.
+    private int[] window = NO_WINDOW;
+    private long lowKey;
     // Small to start with and grown as bins appear: a scan with breakdowns holds one summary per domain and column.
     private long[] counts = new long[8];
     private double[] min = new double[8];
@@ -164,7 +175,7 @@ public final class RelativeBins {
     /** Adds to a bin; a new bin starts from these sums. */
     private void put(long key, double lo, double hi, long count, double sumW, double sumW2) {
         int before = bins.size();
-        int e = bins.add(key);
+        int e = entry(key);
         boolean fresh = e == before;
         if (fresh) {
             if (e == counts.length) {
@@ -203,6 +214,46 @@ public final class RelativeBins {
         }
     }
 
+    /** The entry of a bin key, numbered by the hash index when new; the window is looked at first. */
+    private int entry(long key) {
+        long off = key - lowKey;
+        if (off >= 0 && off < window.length) {
+            int s = window[(int) off];
+            if (s != 0) {
+                return s - 1;
+            }
+            int e = bins.add(key);
+            window[(int) off] = e + 1;
+            return e;
+        }
+        int e = bins.add(key);
+        widen(key, e);
+        return e;
+    }
+
+    /**
+     * Moves the window to take in {@code key} (entry e) as well as the keys it holds, with room to spare on the side
+     * it grew, unless the span would exceed the window's limit; then the window stays as it is.
+     */
+    private void widen(long key, int e) {
+        int limit = WINDOW_PER_BIN * maxBins;
+        long low = window.length == 0 ? key : Math.min(lowKey, key);
+        long high = window.length == 0 ? key : Math.max(lowKey + window.length - 1, key);
+        long span = high - low + 1;
+        if (span > limit) {
+            return;
+        }
+        int n = (int) Math.min(limit, Math.max(16, Math.max(span, 2L * window.length)));
+        long newLow = key < lowKey || window.length == 0 ? high - n + 1 : low;
+        int[] w = new int[n];
+        if (window.length > 0) {
+            System.arraycopy(window, 0, w, (int) (lowKey - newLow), window.length);
+        }
+        window = w;
+        lowKey = newLow;
+        window[(int) (key - newLow)] = e + 1;
+    }
+
     /** The bin of a nonzero finite value at a level: its index on the log scale, doubled, plus 1 when negative. */
     static long key(double x, int level) {
         long i0 = (long) Math.ceil(Math.log(Math.abs(x)) / LN_GAMMA0);
@@ -225,6 +276,7 @@ public final class RelativeBins {
         max = new double[n];
         wsum = null;
         wsq = null;
+        window = NO_WINDOW; // the keys change with the level
         level++;
         for (int e = 0; e < n; e++) {
             put(coarser(old.first(e), 1), omin[e], omax[e], oc[e], ow == null ? 0 : ow[e], ow2 == null ? 0 : ow2[e]);

@@ -95,12 +95,26 @@ public final class ResultsStore {
     }
 
     void saveSummary(Handle h, String dataset, WaveProfile profile, String checksum) {
+        // A wave judged again (another configuration, a re-run) has its summary stored already: its checksum covers
+        // every tally, so the stored one is this one, and it is not written out and sent again. With breakdowns the
+        // summary holds every domain's tables, and sending it for the server to parse and drop cost more than the
+        // rest of the run's writes.
+        if (summaryStored(h, dataset, profile.wave(), checksum)) {
+            return;
+        }
         h.createUpdate("INSERT INTO " + s + ".wave_summary (dataset, wave, checksum, row_count, summary)"
                         + " VALUES (:dataset, :wave, :checksum, :rows, CAST(:summary AS jsonb))"
                         + " ON CONFLICT (dataset, wave, checksum) DO NOTHING")
                 .bind("dataset", dataset).bind("wave", profile.wave()).bind("checksum", checksum)
                 .bind("rows", profile.rows()).bind("summary", Json.write(profile))
                 .execute();
+    }
+
+    private boolean summaryStored(Handle h, String dataset, String wave, String checksum) {
+        return h.createQuery("SELECT EXISTS (SELECT 1 FROM " + s + ".wave_summary WHERE dataset = :dataset"
+                        + " AND wave = :wave AND checksum = :checksum)")
+                .bind("dataset", dataset).bind("wave", wave).bind("checksum", checksum)
+                .mapTo(Boolean.class).one();
     }
 
     /**

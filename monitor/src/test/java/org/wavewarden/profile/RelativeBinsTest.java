@@ -200,4 +200,65 @@ class RelativeBinsTest {
         assertEquals(RelativeBins.EXACT, RelativeBins.fineKey(-9), "a code is kept exactly");
         assertEquals(RelativeBins.EXACT, RelativeBins.fineKey(Double.NaN), "NaN is kept exactly");
     }
+    /**
+     * Each bin counts exactly the values whose key it is, however the keys arrive: walking up, walking down, jumping
+     * between the two ends of a span far wider than the bins' window of neighbouring keys, or at random. The
+     * reference groups the values by their key at the summary's final level, with no index at all.
+     */
+    @org.junit.jupiter.params.ParameterizedTest(name = "{0} bins, {1}")
+    @org.junit.jupiter.params.provider.CsvSource({
+            "64, ascending", "64, descending", "64, alternating ends", "64, random",
+            "4096, ascending", "4096, descending", "4096, alternating ends", "4096, random",
+    })
+    void eachBinCountsExactlyTheValuesOfItsKeyWhateverOrderTheKeysComeIn(int maxBins, String order) {
+        Random r = new Random(43);
+        List<Double> pool = new ArrayList<>();
+        for (int i = 0; i < 5_000; i++) {
+            pool.add(Math.exp(r.nextDouble() * 12)); // level-0 keys over a span of 12,000: beyond any window
+        }
+        List<Double> xs = new ArrayList<>();
+        for (double x : pool) {
+            for (int k = r.nextInt(4); k >= 0; k--) {
+                xs.add(x);
+            }
+        }
+        switch (order) {
+            case "ascending" -> Collections.sort(xs);
+            case "descending" -> xs.sort(Collections.reverseOrder());
+            case "alternating ends" -> {
+                Collections.sort(xs);
+                List<Double> zigzag = new ArrayList<>();
+                for (int lo = 0, hi = xs.size() - 1; lo <= hi; lo++, hi--) {
+                    zigzag.add(xs.get(lo));
+                    if (lo < hi) {
+                        zigzag.add(xs.get(hi));
+                    }
+                }
+                xs = zigzag;
+            }
+            default -> Collections.shuffle(xs, r);
+        }
+        RelativeBins bins = new RelativeBins(maxBins, 0, false);
+        xs.forEach(x -> bins.add(x, Double.NaN));
+
+        int level = bins.binning().level();
+        Map<Long, java.util.Set<Double>> distinct = new java.util.HashMap<>();
+        Map<Long, Long> count = new java.util.HashMap<>();
+        for (double x : xs) {
+            long key = RelativeBins.key(x, level);
+            distinct.computeIfAbsent(key, k -> new java.util.HashSet<>()).add(x);
+            count.merge(key, 1L, Long::sum);
+        }
+        Map<String, Long> expected = new java.util.HashMap<>();
+        count.forEach((key, c) -> {
+            java.util.Set<Double> values = distinct.get(key);
+            String text = values.size() == 1
+                    ? new java.math.BigDecimal(Double.toString(values.iterator().next())).stripTrailingZeros()
+                    .toPlainString()
+                    : RelativeBins.standIn(key, level);
+            expected.merge(text, c, Long::sum);
+        });
+        assertEquals(expected, bins.counts());
+        assertTrue(bins.size() <= maxBins, bins.size() + " bins for a budget of " + maxBins);
+    }
 }
