@@ -98,91 +98,151 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
 
     /**
      * SHA-256 over a canonical rendering (columns and values sorted), so the same data always gives the same
-     * checksum whatever order the database streamed it in.
+     * checksum whatever order the database streamed it in. The rendering is the checksum's definition: stored
+     * summaries are found by it, so it never changes (a test holds it to a value an earlier build computed).
      */
     public String checksum() {
-        try {
-            MessageDigest md = MessageDigest.getInstance("SHA-256");
-            feed(md, "rows=" + rows);
-            new TreeMap<>(schema).forEach((k, v) -> feed(md, "col " + k + " " + v));
-            for (ColumnTally t : new TreeMap<>(columns).values()) {
-                feed(md, "tally " + t.column() + " " + t.rowCount() + " " + t.nullCount() + " " + t.truncated()
-                        + (t.binning().isExact() ? "" : " bins " + t.binning().level()));
-                String[] values = t.valueCounts().keySet().toArray(new String[0]);
-                java.util.Arrays.sort(values);
-                for (String v : values) {
-                    feed(md, v.length() + ":" + v + "=" + t.valueCounts().get(v));
-                }
-            }
-            for (var w : new TreeMap<>(weights).entrySet()) {
-                new TreeMap<>(w.getValue()).forEach((v, s) -> feed(md, "w " + w.getKey() + " " + v.length() + ":" + v
-                        + "=" + Double.doubleToLongBits(s[0]) + "," + Double.doubleToLongBits(s[1])));
-            }
-            if (design != null) {
-                feed(md, "design " + design.rowsWithoutPsu() + " " + design.psuStratum() + " " + design.psuLabel());
-                for (var c : new TreeMap<>(design.columns()).entrySet()) {
-                    var cd = c.getValue();
-                    feed(md, "psu " + c.getKey() + " " + cd.complete() + " " + java.util.Arrays.toString(cd.weight())
-                            + java.util.Arrays.toString(cd.weightedSum()) + java.util.Arrays.toString(cd.weightedSquares()));
-                    new TreeMap<>(cd.cells()).forEach((v, sums) -> feed(md, v.length() + ":" + v + "="
-                            + java.util.Arrays.toString(sums)));
-                }
-            }
-            // Only summaries with pairs feed them, so the checksum of every summary without pairs is what it was.
-            List<JointTally> sorted = new java.util.ArrayList<>(pairs);
-            sorted.sort(java.util.Comparator.comparing(JointTally::x).thenComparing(JointTally::y));
-            for (JointTally p : sorted) {
-                feed(md, "pair " + p.x().length() + ":" + p.x() + " " + p.y().length() + ":" + p.y()
-                        + (p.binning().isExact() ? "" : " bins " + p.binning().level()));
-                double[] xs = p.xs();
-                double[] ys = p.ys();
-                long[] n = p.counts();
-                for (int i = 0; i < n.length; i++) {
-                    feed(md, Double.doubleToLongBits(xs[i]) + "," + Double.doubleToLongBits(ys[i]) + "=" + n[i]);
-                }
-            }
-            // Only summaries with domains feed them, so the checksum of every summary without them is what it was.
-            for (DomainTally t : domains) {
-                feedDomains(md, t);
-            }
-            return HexFormat.of().formatHex(md.digest());
-        } catch (NoSuchAlgorithmException e) {
-            throw new IllegalStateException(e);
+        Canonical md = new Canonical();
+        md.line("rows=" + rows);
+        new TreeMap<>(schema).forEach((k, v) -> md.line("col " + k + " " + v));
+        for (ColumnTally t : new TreeMap<>(columns).values()) {
+            md.line("tally " + t.column() + " " + t.rowCount() + " " + t.nullCount() + " " + t.truncated()
+                    + (t.binning().isExact() ? "" : " bins " + t.binning().level()));
+            md.counts(t.valueCounts());
         }
+        for (var w : new TreeMap<>(weights).entrySet()) {
+            Map<String, double[]> sums = w.getValue();
+            for (String v : sorted(sums)) {
+                double[] s = sums.get(v);
+                md.line("w " + w.getKey() + " " + v.length() + ":" + v + "=" + Double.doubleToLongBits(s[0]) + ","
+                        + Double.doubleToLongBits(s[1]));
+            }
+        }
+        if (design != null) {
+            md.line("design " + design.rowsWithoutPsu() + " " + design.psuStratum() + " " + design.psuLabel());
+            for (var c : new TreeMap<>(design.columns()).entrySet()) {
+                var cd = c.getValue();
+                md.line("psu " + c.getKey() + " " + cd.complete() + " " + java.util.Arrays.toString(cd.weight())
+                        + java.util.Arrays.toString(cd.weightedSum()) + java.util.Arrays.toString(cd.weightedSquares()));
+                md.cells(cd.cells());
+            }
+        }
+        // Only summaries with pairs feed them, so the checksum of every summary without pairs is what it was.
+        List<JointTally> sortedPairs = new java.util.ArrayList<>(pairs);
+        sortedPairs.sort(java.util.Comparator.comparing(JointTally::x).thenComparing(JointTally::y));
+        for (JointTally p : sortedPairs) {
+            md.line("pair " + p.x().length() + ":" + p.x() + " " + p.y().length() + ":" + p.y()
+                    + (p.binning().isExact() ? "" : " bins " + p.binning().level()));
+            double[] xs = p.xs();
+            double[] ys = p.ys();
+            long[] n = p.counts();
+            for (int i = 0; i < n.length; i++) {
+                md.line(Double.doubleToLongBits(xs[i]) + "," + Double.doubleToLongBits(ys[i]) + "=" + n[i]);
+            }
+        }
+        // Only summaries with domains feed them, so the checksum of every summary without them is what it was.
+        for (DomainTally t : domains) {
+            feedDomains(md, t);
+        }
+        return md.hex();
     }
 
     /** One breakdown column's domains, each domain's tallies and sums in a canonical order. */
-    private static void feedDomains(MessageDigest md, DomainTally t) {
-        feed(md, "domains " + t.column().length() + ":" + t.column() + " " + t.nullRows() + " " + t.overflowDomains()
+    private static void feedDomains(Canonical md, DomainTally t) {
+        md.line("domains " + t.column().length() + ":" + t.column() + " " + t.nullRows() + " " + t.overflowDomains()
                 + " " + t.overflowRows());
+        List<String> tallied = sorted(t.tallies());
+        List<String> weighed = sorted(t.weights());
+        List<String> designed = sorted(t.designs());
         for (int d = 0; d < t.domains().size(); d++) {
             String label = t.domains().get(d);
-            feed(md, "domain " + label.length() + ":" + label + " " + t.rows()[d]);
-            for (var c : new TreeMap<>(t.tallies()).entrySet()) {
-                ColumnTally ct = c.getValue().get(d);
-                feed(md, "dtally " + c.getKey().length() + ":" + c.getKey() + " " + ct.rowCount() + " "
+            md.line("domain " + label.length() + ":" + label + " " + t.rows()[d]);
+            for (String column : tallied) {
+                ColumnTally ct = t.tallies().get(column).get(d);
+                md.line("dtally " + column.length() + ":" + column + " " + ct.rowCount() + " "
                         + ct.nullCount() + " " + ct.truncated() + " " + ct.binning().level());
-                new TreeMap<>(ct.valueCounts()).forEach((v, n) -> feed(md, v.length() + ":" + v + "=" + n));
+                md.counts(ct.valueCounts());
             }
-            for (var c : new TreeMap<>(t.weights()).entrySet()) {
-                new TreeMap<>(c.getValue().get(d)).forEach((v, s) -> feed(md, "dw " + c.getKey().length() + ":"
-                        + c.getKey() + " " + v.length() + ":" + v + "=" + Double.doubleToLongBits(s[0]) + ","
-                        + Double.doubleToLongBits(s[1])));
+            for (String column : weighed) {
+                Map<String, double[]> sums = t.weights().get(column).get(d);
+                for (String v : sorted(sums)) {
+                    double[] s = sums.get(v);
+                    md.line("dw " + column.length() + ":" + column + " " + v.length() + ":" + v + "="
+                            + Double.doubleToLongBits(s[0]) + "," + Double.doubleToLongBits(s[1]));
+                }
             }
-            for (var c : new TreeMap<>(t.designs()).entrySet()) {
-                DesignSummary.ColumnDesign cd = c.getValue().get(d);
-                feed(md, "dpsu " + c.getKey().length() + ":" + c.getKey() + " " + cd.complete() + " "
+            for (String column : designed) {
+                DesignSummary.ColumnDesign cd = t.designs().get(column).get(d);
+                md.line("dpsu " + column.length() + ":" + column + " " + cd.complete() + " "
                         + java.util.Arrays.toString(cd.weight()) + java.util.Arrays.toString(cd.weightedSum())
                         + java.util.Arrays.toString(cd.weightedSquares()));
-                new TreeMap<>(cd.cells()).forEach((v, sums) -> feed(md, v.length() + ":" + v + "="
-                        + java.util.Arrays.toString(sums)));
+                md.cells(cd.cells());
             }
         }
     }
 
-    private static void feed(MessageDigest md, String s) {
-        md.update(s.getBytes(StandardCharsets.UTF_8));
-        md.update((byte) '\n');
+    /** A map's keys in the order of {@link String#compareTo}, as a {@link TreeMap} holds them. */
+    private static List<String> sorted(Map<String, ?> m) {
+        String[] keys = m.keySet().toArray(new String[0]);
+        java.util.Arrays.sort(keys);
+        return java.util.Arrays.asList(keys);
+    }
+
+    /**
+     * The canonical rendering, line by line, hashed in pieces of about 16 kB: the same bytes as hashing each line on
+     * its own (a line is never split, so neither is a character), without a byte array and a digest update per
+     * value, which for a summary with hundreds of domains cost about 0.4 s a check.
+     */
+    private static final class Canonical {
+        private final MessageDigest md;
+        private final StringBuilder pending = new StringBuilder(1 << 15);
+
+        Canonical() {
+            try {
+                md = MessageDigest.getInstance("SHA-256");
+            } catch (NoSuchAlgorithmException e) {
+                throw new IllegalStateException(e);
+            }
+        }
+
+        void line(String s) {
+            pending.append(s).append('\n');
+            flushIfFull();
+        }
+
+        /** Each value {@code length:text=count}, in sorted order. */
+        void counts(Map<String, Long> counts) {
+            for (String v : sorted(counts)) {
+                pending.append(v.length()).append(':').append(v).append('=').append(counts.get(v).longValue())
+                        .append('\n');
+                flushIfFull();
+            }
+        }
+
+        /** Each cell {@code length:text=[sums]}, in sorted order. */
+        void cells(Map<String, double[]> cells) {
+            for (String v : sorted(cells)) {
+                pending.append(v.length()).append(':').append(v).append('=')
+                        .append(java.util.Arrays.toString(cells.get(v))).append('\n');
+                flushIfFull();
+            }
+        }
+
+        private void flushIfFull() {
+            if (pending.length() >= 1 << 14) {
+                flush();
+            }
+        }
+
+        private void flush() {
+            md.update(pending.toString().getBytes(StandardCharsets.UTF_8));
+            pending.setLength(0);
+        }
+
+        String hex() {
+            flush();
+            return HexFormat.of().formatHex(md.digest());
+        }
     }
 
     public List<String> columnNames() {
