@@ -111,12 +111,7 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
             md.counts(t.valueCounts());
         }
         for (var w : new TreeMap<>(weights).entrySet()) {
-            Map<String, double[]> sums = w.getValue();
-            for (String v : sorted(sums)) {
-                double[] s = sums.get(v);
-                md.line("w " + w.getKey() + " " + v.length() + ":" + v + "=" + Double.doubleToLongBits(s[0]) + ","
-                        + Double.doubleToLongBits(s[1]));
-            }
+            md.weights("w " + w.getKey() + " ", w.getValue());
         }
         if (design != null) {
             md.line("design " + design.rowsWithoutPsu() + " " + design.psuStratum() + " " + design.psuLabel());
@@ -164,12 +159,7 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
                 md.counts(ct.valueCounts());
             }
             for (String column : weighed) {
-                Map<String, double[]> sums = t.weights().get(column).get(d);
-                for (String v : sorted(sums)) {
-                    double[] s = sums.get(v);
-                    md.line("dw " + column.length() + ":" + column + " " + v.length() + ":" + v + "="
-                            + Double.doubleToLongBits(s[0]) + "," + Double.doubleToLongBits(s[1]));
-                }
+                md.weights("dw " + column.length() + ":" + column + " ", t.weights().get(column).get(d));
             }
             for (String column : designed) {
                 DesignSummary.ColumnDesign cd = t.designs().get(column).get(d);
@@ -214,6 +204,17 @@ public record WaveProfile(String wave, long rows, Map<String, ColumnType> schema
         void counts(Map<String, Long> counts) {
             for (String v : sorted(counts)) {
                 pending.append(v.length()).append(':').append(v).append('=').append(counts.get(v).longValue())
+                        .append('\n');
+                flushIfFull();
+            }
+        }
+
+        /** Each value's weight sums {@code prefix length:text=bits,bits}, in sorted order. */
+        void weights(String prefix, Map<String, double[]> sums) {
+            for (String v : sorted(sums)) {
+                double[] s = sums.get(v);
+                pending.append(prefix).append(v.length()).append(':').append(v).append('=')
+                        .append(Double.doubleToLongBits(s[0])).append(',').append(Double.doubleToLongBits(s[1]))
                         .append('\n');
                 flushIfFull();
             }
