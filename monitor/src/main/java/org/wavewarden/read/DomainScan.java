@@ -64,9 +64,9 @@ final class DomainScan {
 
     /**
      * Whole-wave value entries counted per domain in plain arrays indexed by (domain, entry) rather than in a hash
-     * table: the first 64 distinct values of a column, which for coded answers, ages, dates and short scales are all
+     * table: the first 128 distinct values of a column, which for coded answers, ages, dates and short scales are all
      * of them. A hash lookup per cell and domain missed the cache and cost about ten plain scans with 300
-     * interviewers; an array slot is one load. At most maxDomains x 64 slots per monitored column (256 kB for 500
+     * interviewers; an array slot is one load. At most maxDomains x 128 slots per monitored column (512 kB for 500
      * domains, three times that with weights); the later entries of a wide column go to the hash table as before.
      */
     static final int DENSE_ENTRIES = 128;
