@@ -272,17 +272,19 @@ public final class Bench {
                 org.wavewarden.config.Breakdowns.DEFAULT_MAX_DOMAINS, null,
                 org.wavewarden.config.Breakdowns.DEFAULT_MIN_INTERVIEWS, List.of(),
                 org.wavewarden.config.Breakdowns.DEFAULT_ICC_THRESHOLD, org.wavewarden.config.Breakdowns.DEFAULT_MAX_CASES);
-        return new DatasetConfig(d.name(), d.table(), d.waveColumn(), d.tablePattern(), d.waveOrder(), d.compareWith(),
-                d.schedule(), d.exclude(), d.variables(), d.quietPeriod(), d.alerts(), d.readyTable(), d.readyColumn(),
-                d.weightColumn(), d.respondentKey(), d.releases(), d.design(), d.relationships(), d.codebook(),
-                d.population(), d.alertRules(), b);
+        return copy(d, d.name(), b);
     }
 
     private static DatasetConfig rename(DatasetConfig d, String name) {
+        return copy(d, name, d.breakdowns());
+    }
+
+    /** The dataset under another name and with other breakdowns, everything else as configured. */
+    private static DatasetConfig copy(DatasetConfig d, String name, org.wavewarden.config.Breakdowns b) {
         return new DatasetConfig(name, d.table(), d.waveColumn(), d.tablePattern(), d.waveOrder(), d.compareWith(),
                 d.schedule(), d.exclude(), d.variables(), d.quietPeriod(), d.alerts(), d.readyTable(), d.readyColumn(),
                 d.weightColumn(), d.respondentKey(), d.releases(), d.design(), d.relationships(), d.codebook(),
-                d.population(), d.alertRules(), d.breakdowns());
+                d.population(), d.alertRules(), b);
     }
 
     /** A YAML double-quoted scalar (JSON strings are valid YAML). */
